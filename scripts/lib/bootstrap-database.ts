@@ -1,0 +1,54 @@
+import type { AppConfig } from '../../server/src/config/env';
+import { accountsSql, appGrantsSql, type DatabaseAccounts } from '../../server/src/db/table-privileges';
+import { MariadbServer } from './mariadb';
+import { runMigrations } from './migrate';
+import { log } from './run';
+
+export interface BootstrapOptions {
+  /** Drop the database first and build it anew. */
+  reset?: boolean;
+  relaxedDurability?: boolean;
+}
+
+export function accountsFor(config: AppConfig): DatabaseAccounts {
+  return {
+    database: config.DB_NAME,
+    appUser: config.DB_USER,
+    appPassword: config.DB_PASSWORD,
+    migrationUser: config.DB_MIGRATION_USER,
+    migrationPassword: config.DB_MIGRATION_PASSWORD,
+    hosts: ['127.0.0.1', 'localhost'],
+  };
+}
+
+export function localServerFor(config: AppConfig, relaxedDurability = false): MariadbServer {
+  return new MariadbServer({ baseDir: `${config.DATA_DIR}/mariadb`, port: config.DB_PORT, relaxedDurability });
+}
+
+/**
+ * Starts the project's own MariaDB (installing it when missing), creates the database and both
+ * accounts, runs the migrations and gives the app account its per-table grants.
+ */
+export async function bootstrapDatabase(config: AppConfig, options: BootstrapOptions = {}): Promise<MariadbServer> {
+  const server = localServerFor(config, options.relaxedDurability);
+  await server.start();
+  const accounts = accountsFor(config);
+  if (options.reset) {
+    log(`dropping database ${config.DB_NAME} to rebuild it`);
+    await server.adminSql(`DROP DATABASE IF EXISTS \`${config.DB_NAME}\`;`);
+  }
+  await server.adminSql(accountsSql(accounts));
+  const ran = await runMigrations(config);
+  log(ran.length ? `migrations run: ${ran.join(', ')}` : 'database schema is current');
+  await applyAppGrants(server, config);
+  return server;
+}
+
+export async function applyAppGrants(server: MariadbServer, config: AppConfig): Promise<void> {
+  const output = await server.adminSql(
+    `SELECT table_name FROM information_schema.tables WHERE table_schema = '${config.DB_NAME}' AND table_type = 'BASE TABLE';`,
+    ['-N', '-B'],
+  );
+  const tables = output.split('\n').map((line) => line.trim()).filter(Boolean);
+  await server.adminSql(appGrantsSql(accountsFor(config), tables));
+}

@@ -1,0 +1,157 @@
+import { spawn } from 'node:child_process';
+import { existsSync, mkdirSync, readFileSync, rmSync } from 'node:fs';
+import { createHash } from 'node:crypto';
+import { resolve } from 'node:path';
+import { userInfo } from 'node:os';
+import { ensureDebianPackages, findExecutable, log, runCommand } from './run';
+
+export interface MariadbServerOptions {
+  /** Folder that holds data/, the socket, the pid file and the error log. */
+  baseDir: string;
+  port: number;
+  host?: string;
+  /** Test databases trade durability per commit for speed; production-like runs keep it. */
+  relaxedDurability?: boolean;
+}
+
+const SOCKET_PATH_LIMIT = 100;
+
+/**
+ * A project-local MariaDB server: its own data folder, its own port on 127.0.0.1 and a socket
+ * through which the OS administrator (root) manages it without a password.
+ */
+export class MariadbServer {
+  readonly baseDir: string;
+  readonly dataDir: string;
+  readonly socket: string;
+  readonly pidFile: string;
+  readonly errorLog: string;
+  private startedHere = false;
+
+  constructor(private readonly options: MariadbServerOptions) {
+    this.baseDir = resolve(options.baseDir);
+    this.dataDir = `${this.baseDir}/data`;
+    this.pidFile = `${this.baseDir}/mariadbd.pid`;
+    this.errorLog = `${this.baseDir}/mariadbd.err`;
+    const socket = `${this.baseDir}/mariadbd.sock`;
+    this.socket =
+      socket.length <= SOCKET_PATH_LIMIT
+        ? socket
+        : `/tmp/ingotrace-${createHash('sha256').update(socket).digest('hex').slice(0, 12)}.sock`;
+  }
+
+  get port(): number {
+    return this.options.port;
+  }
+
+  /** Installs Debian's MariaDB when mariadbd is missing (root only). */
+  static async ensureInstalled(): Promise<void> {
+    await ensureDebianPackages('mariadbd', ['mariadb-server', 'mariadb-client']);
+    await ensureDebianPackages('mariadb', ['mariadb-client']);
+  }
+
+  async isRunning(): Promise<boolean> {
+    try {
+      await runCommand(this.tool('mariadb-admin'), ['--no-defaults', `--socket=${this.socket}`, ...this.adminUser(), 'ping']);
+      return true;
+    } catch {
+      return false;
+    }
+  }
+
+  /** Initialises the data folder if needed and starts the server unless it already runs. */
+  async start(): Promise<void> {
+    await MariadbServer.ensureInstalled();
+    mkdirSync(this.baseDir, { recursive: true });
+    if (await this.isRunning()) {
+      log(`MariaDB already running on port ${this.port} (data ${this.dataDir})`);
+      return;
+    }
+    if (!existsSync(`${this.dataDir}/mysql`)) {
+      log(`initialising a MariaDB data folder in ${this.dataDir}`);
+      rmSync(this.dataDir, { recursive: true, force: true });
+      await runCommand(this.tool('mariadb-install-db'), [
+        '--no-defaults',
+        `--datadir=${this.dataDir}`,
+        `--user=${userInfo().username}`,
+        '--auth-root-authentication-method=socket',
+        '--skip-test-db',
+        '--skip-name-resolve',
+      ]);
+    }
+    rmSync(this.pidFile, { force: true });
+    const args = [
+      '--no-defaults',
+      `--user=${userInfo().username}`,
+      `--datadir=${this.dataDir}`,
+      `--bind-address=${this.options.host ?? '127.0.0.1'}`,
+      `--port=${this.port}`,
+      `--socket=${this.socket}`,
+      `--pid-file=${this.pidFile}`,
+      `--log-error=${this.errorLog}`,
+      '--skip-name-resolve',
+      '--character-set-server=utf8mb4',
+      '--collation-server=utf8mb4_unicode_ci',
+      '--innodb-log-file-size=16M',
+      '--innodb-buffer-pool-size=256M',
+      '--tmp-table-size=64M',
+      '--max-heap-table-size=64M',
+      '--max-connections=500',
+      ...(this.options.relaxedDurability ? ['--innodb-flush-log-at-trx-commit=2', '--sync-binlog=0'] : []),
+    ];
+    const child = spawn(this.tool('mariadbd'), args, { detached: true, stdio: 'ignore' });
+    child.unref();
+    this.startedHere = true;
+    await this.waitUntilReady(child.pid);
+    log(`MariaDB started on 127.0.0.1:${this.port} (data ${this.dataDir})`);
+  }
+
+  private async waitUntilReady(pid: number | undefined, timeoutMs = 60_000): Promise<void> {
+    const deadline = Date.now() + timeoutMs;
+    while (Date.now() < deadline) {
+      if (await this.isRunning()) return;
+      if (pid && !processAlive(pid)) break;
+      await new Promise((done) => setTimeout(done, 200));
+    }
+    const tail = existsSync(this.errorLog) ? readFileSync(this.errorLog, 'utf8').split('\n').slice(-15).join('\n') : '';
+    throw new Error(`MariaDB did not become ready on port ${this.port}. Last lines of ${this.errorLog}:\n${tail}`);
+  }
+
+  /** Stops the server if this process started it (or always, with force). */
+  async stop(force = false): Promise<void> {
+    if (!this.startedHere && !force) return;
+    if (!(await this.isRunning())) return;
+    await runCommand(this.tool('mariadb-admin'), ['--no-defaults', `--socket=${this.socket}`, ...this.adminUser(), 'shutdown']);
+    this.startedHere = false;
+    log(`MariaDB on port ${this.port} stopped`);
+  }
+
+  /** Runs SQL as the administrator through the socket. */
+  async adminSql(sql: string, extraArgs: string[] = []): Promise<string> {
+    return runCommand(this.tool('mariadb'), this.clientArgs(extraArgs), { input: sql });
+  }
+
+  /** Arguments for the mariadb client as the administrator on this server. */
+  clientArgs(extraArgs: string[] = []): string[] {
+    return ['--no-defaults', `--socket=${this.socket}`, ...this.adminUser(), ...extraArgs];
+  }
+
+  tool(name: string): string {
+    const found = findExecutable(name);
+    if (!found) throw new Error(`${name} not found; is mariadb-server installed?`);
+    return found;
+  }
+
+  private adminUser(): string[] {
+    return ['-u', userInfo().username];
+  }
+}
+
+function processAlive(pid: number): boolean {
+  try {
+    process.kill(pid, 0);
+    return true;
+  } catch {
+    return false;
+  }
+}

@@ -1,0 +1,16 @@
+import type { AppConfig } from '../../server/src/config/env';
+import { createDataSource } from '../../server/src/db/connection-options';
+import { isDatabaseEmpty, seedDemoScenario } from './demo-scenario';
+
+/** Seeds the demo scenario if the database holds no organisation yet; returns whether it seeded. */
+export async function seedIfEmpty(config: AppConfig): Promise<boolean> {
+  const dataSource = createDataSource(config, 'app');
+  await dataSource.initialize();
+  try {
+    if (!(await isDatabaseEmpty(dataSource))) return false;
+    await seedDemoScenario(dataSource);
+    return true;
+  } finally {
+    await dataSource.destroy();
+  }
+}

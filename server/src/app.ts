@@ -1,0 +1,70 @@
+import express, { type Express } from 'express';
+import helmet from 'helmet';
+import { pinoHttp } from 'pino-http';
+import { existsSync } from 'node:fs';
+import { resolve } from 'node:path';
+import type { AppContext } from './app-context';
+import { apiNotFound, errorHandler } from './middleware/error-handler';
+import { requestId } from './middleware/request-id';
+import { healthRouter } from './modules/health/health.router';
+import { organisationRouter } from './modules/organisation/organisation.router';
+
+export interface AppOptions {
+  /** Folder with the built client (index.html and assets); omitted in API-only tests. */
+  clientDir?: string;
+}
+
+/** Builds the Express app; never listens (index.ts does, tests use supertest). */
+export function createApp(context: AppContext, options: AppOptions = {}): Express {
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+
+  app.use(
+    pinoHttp({
+      logger: context.logger,
+      genReqId: requestId,
+      customLogLevel: (_req, res, error) => (error || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'warn' : 'info'),
+      autoLogging: { ignore: (req) => req.url === '/api/health' },
+    }),
+  );
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          defaultSrc: ["'self'"],
+          scriptSrc: ["'self'"],
+          // PrimeVue writes its theme into <style> elements at run time.
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          imgSrc: ["'self'", 'data:', 'blob:'],
+          fontSrc: ["'self'", 'data:'],
+          connectSrc: ["'self'"],
+          objectSrc: ["'none'"],
+          frameAncestors: ["'none'"],
+          formAction: ["'self'"],
+          upgradeInsecureRequests: null,
+        },
+      },
+      strictTransportSecurity: context.config.PUBLIC_URL.startsWith('https:'),
+    }),
+  );
+
+  const api = express.Router();
+  api.use(express.json({ limit: '1mb' }));
+  api.use(healthRouter(context));
+  api.use(organisationRouter(context));
+  api.use(apiNotFound);
+  app.use('/api', api);
+
+  const clientDir = options.clientDir ? resolve(options.clientDir) : null;
+  if (clientDir && existsSync(`${clientDir}/index.html`)) {
+    app.use(express.static(clientDir, { index: false, maxAge: '1h', immutable: false }));
+    // The client's router owns every other GET path.
+    app.get('/{*splat}', (_req, res) => {
+      res.set('Cache-Control', 'no-cache').sendFile(`${clientDir}/index.html`);
+    });
+  }
+  app.use(apiNotFound);
+  app.use(errorHandler);
+  return app;
+}

@@ -1,0 +1,67 @@
+/**
+ * What the running app's database user may do with each table. Tables not named here are
+ * read-write (SELECT, INSERT, UPDATE, DELETE). Append-only tables (the audit ledger,
+ * signatures) get SELECT and INSERT only, so that not even a bug in the app can rewrite them.
+ */
+export type TableAccess = 'read-write' | 'append-only' | 'read-only';
+
+export const tableAccess: Record<string, TableAccess> = {
+  migrations: 'read-only',
+};
+
+const privilegesByAccess: Record<TableAccess, string> = {
+  'read-write': 'SELECT, INSERT, UPDATE, DELETE',
+  'append-only': 'SELECT, INSERT',
+  'read-only': 'SELECT',
+};
+
+/** Quotes a value as an SQL string literal (backslash and quote escaped). */
+export function sqlString(value: string): string {
+  return `'${value.replace(/\\/g, '\\\\').replace(/'/g, "\\'")}'`;
+}
+
+function identifier(name: string): string {
+  return `\`${name.replace(/`/g, '``')}\``;
+}
+
+export interface DatabaseAccounts {
+  database: string;
+  appUser: string;
+  appPassword: string;
+  migrationUser: string;
+  migrationPassword: string;
+  hosts: string[];
+}
+
+/** SQL that creates the database and both accounts (idempotent; passwords reset to the configured ones). */
+export function accountsSql(accounts: DatabaseAccounts): string {
+  const db = identifier(accounts.database);
+  const statements = [`CREATE DATABASE IF NOT EXISTS ${db} CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci;`];
+  for (const host of accounts.hosts) {
+    for (const [user, password] of [
+      [accounts.migrationUser, accounts.migrationPassword],
+      [accounts.appUser, accounts.appPassword],
+    ] as const) {
+      const account = `${sqlString(user)}@${sqlString(host)}`;
+      statements.push(`CREATE USER IF NOT EXISTS ${account} IDENTIFIED BY ${sqlString(password)};`);
+      statements.push(`ALTER USER ${account} IDENTIFIED BY ${sqlString(password)};`);
+    }
+    statements.push(`GRANT ALL PRIVILEGES ON ${db}.* TO ${sqlString(accounts.migrationUser)}@${sqlString(host)};`);
+  }
+  return statements.join('\n');
+}
+
+/** SQL that gives the app user exactly its per-table privileges over the tables that exist now. */
+export function appGrantsSql(accounts: DatabaseAccounts, tables: string[]): string {
+  const db = identifier(accounts.database);
+  const statements: string[] = [];
+  for (const host of accounts.hosts) {
+    const account = `${sqlString(accounts.appUser)}@${sqlString(host)}`;
+    statements.push(`REVOKE ALL PRIVILEGES, GRANT OPTION FROM ${account};`);
+    for (const table of [...tables].sort()) {
+      const access = tableAccess[table] ?? 'read-write';
+      statements.push(`GRANT ${privilegesByAccess[access]} ON ${db}.${identifier(table)} TO ${account};`);
+    }
+  }
+  return statements.join('\n');
+}

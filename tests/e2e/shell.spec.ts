@@ -1,0 +1,57 @@
+import { expect, test } from '@playwright/test';
+
+const areas = [
+  { link: 'Heats and certificates', path: '/heats', caution: false },
+  { link: 'Bar stock', path: '/bar-stock', caution: false },
+  { link: 'Production lots', path: '/lots', caution: true },
+  { link: 'Process runs', path: '/process-runs', caution: false },
+  { link: 'Release desk', path: '/release', caution: true },
+  { link: 'Trace and recall', path: '/trace', caution: false },
+  { link: 'Audit ledger', path: '/audit', caution: false },
+  { link: 'Administration', path: '/administration', caution: false },
+];
+
+test('the shell loads with the firm, the system status and every area', async ({ page }) => {
+  const errors: string[] = [];
+  page.on('pageerror', (error) => errors.push(error.message));
+  page.on('console', (message) => message.type() === 'error' && errors.push(message.text()));
+
+  await page.goto('/');
+  await expect(page.getByRole('heading', { level: 1, name: 'Overview' })).toBeVisible();
+  await expect(page.getByTestId('organisation-name')).toHaveText(/Kestrelmoor Implant Works/);
+  await expect(page.getByTestId('system-status')).toHaveText('Running');
+  await page.screenshot({ path: 'test-results/shell-overview.png', fullPage: true });
+
+  const rail = page.getByRole('navigation', { name: 'Product areas' });
+  for (const area of areas) {
+    await rail.getByRole('link', { name: area.link }).click();
+    await expect(page).toHaveURL(area.path);
+    await expect(page.getByRole('heading', { level: 1, name: area.link })).toBeVisible();
+    await expect(page.getByRole('status')).toContainText('not built in this version');
+    await expect(page.getByRole('note', { name: 'Regulated release caution' })).toHaveCount(area.caution ? 1 : 0);
+    await expect(page).toHaveTitle(`${area.link} · Ingotrace`);
+  }
+  expect(errors).toEqual([]);
+});
+
+test('a deep link opens its area, and an unknown address says so', async ({ page }) => {
+  await page.goto('/release');
+  await expect(page.getByRole('heading', { level: 1, name: 'Release desk' })).toBeVisible();
+  await expect(page.getByRole('note', { name: 'Regulated release caution' })).toContainText('Regulated release rests with your quality system');
+  await page.screenshot({ path: 'test-results/shell-release.png', fullPage: true });
+
+  await page.goto('/no/such/page');
+  await expect(page.getByRole('heading', { level: 1, name: 'Page not found' })).toBeVisible();
+  await page.getByRole('link', { name: 'Go to the overview' }).click();
+  await expect(page.getByRole('heading', { level: 1, name: 'Overview' })).toBeVisible();
+});
+
+test('the navigation works from the keyboard', async ({ page }) => {
+  await page.goto('/');
+  await page.keyboard.press('Tab');
+  await expect(page.getByRole('link', { name: 'Skip to content' })).toBeFocused();
+  const heats = page.getByRole('navigation', { name: 'Product areas' }).getByRole('link', { name: 'Heats and certificates' });
+  await heats.focus();
+  await page.keyboard.press('Enter');
+  await expect(page).toHaveURL('/heats');
+});
