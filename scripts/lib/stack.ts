@@ -4,6 +4,7 @@ import { bootstrapDatabase } from './bootstrap-database';
 import { startMailCatcher } from './mail-catcher';
 import { log } from './run';
 import { seedIfEmpty } from '../seed/seed-if-empty';
+import { startStandInIdp } from '../stand-in-idp';
 
 export interface Stack {
   urls: Record<string, string>;
@@ -40,6 +41,11 @@ export async function startSupportingServices(config: AppConfig, options: StackO
     const mail = await startMailCatcher(config);
     stops.push(mail.stop);
     stack.urls['Mail catcher (all e-mail the product sends)'] = mail.url;
+    if (config.SAML_IDP_SSO_URL.startsWith(`http://127.0.0.1:${config.IDP_PORT}/`)) {
+      const identityProvider = await startStandInIdp(config);
+      stops.push(identityProvider.stop);
+      stack.urls['Stand-in identity provider (demo sign-in)'] = identityProvider.url;
+    }
   } catch (error) {
     await stack.stop();
     throw error;

@@ -8,7 +8,7 @@ export async function seedIfEmpty(config: AppConfig): Promise<boolean> {
   await dataSource.initialize();
   try {
     if (!(await isDatabaseEmpty(dataSource))) return false;
-    await seedDemoScenario(dataSource);
+    await seedDemoScenario(dataSource, config.roleMap);
     return true;
   } finally {
     await dataSource.destroy();

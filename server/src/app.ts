@@ -6,16 +6,22 @@ import { resolve } from 'node:path';
 import type { AppContext } from './app-context';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
 import { requestId } from './middleware/request-id';
+import { createAuthentication } from './modules/auth/authentication';
+import { authRouter } from './modules/auth/auth.router';
+import { meRouter } from './modules/auth/me.router';
 import { healthRouter } from './modules/health/health.router';
 import { organisationRouter } from './modules/organisation/organisation.router';
+import { peopleRouter } from './modules/people/people.router';
 
 export interface AppOptions {
   /** Folder with the built client (index.html and assets); omitted in API-only tests. */
   clientDir?: string;
 }
 
+export type IngotraceApp = Express & { shutdown(): Promise<void> };
+
 /** Builds the Express app; never listens (index.ts does, tests use supertest). */
-export function createApp(context: AppContext, options: AppOptions = {}): Express {
+export function createApp(context: AppContext, options: AppOptions = {}): IngotraceApp {
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
@@ -41,7 +47,8 @@ export function createApp(context: AppContext, options: AppOptions = {}): Expres
           connectSrc: ["'self'"],
           objectSrc: ["'none'"],
           frameAncestors: ["'none'"],
-          formAction: ["'self'"],
+          // Sign-in leaves for the identity provider.
+          formAction: ["'self'", new URL(context.config.SAML_IDP_SSO_URL).origin],
           upgradeInsecureRequests: null,
         },
       },
@@ -49,16 +56,25 @@ export function createApp(context: AppContext, options: AppOptions = {}): Expres
     }),
   );
 
+  const authentication = createAuthentication(context);
+  app.use('/auth', ...authentication.sessionHandlers, authRouter(context, authentication.passport, authentication.signInStrategy, {
+      protection: authentication.csrfProtection,
+      generateToken: authentication.generateCsrfToken,
+    }));
+
   const api = express.Router();
   api.use(express.json({ limit: '1mb' }));
+  api.use(...authentication.sessionHandlers, authentication.csrfProtection);
   api.use(healthRouter(context));
   api.use(organisationRouter(context));
+  api.use(meRouter(context, authentication.generateCsrfToken));
+  api.use(peopleRouter(context));
   api.use(apiNotFound);
   app.use('/api', api);
 
   const clientDir = options.clientDir ? resolve(options.clientDir) : null;
   if (clientDir && existsSync(`${clientDir}/index.html`)) {
-    app.use(express.static(clientDir, { index: false, maxAge: '1h', immutable: false }));
+    app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
     // The client's router owns every other GET path.
     app.get('/{*splat}', (_req, res) => {
       res.set('Cache-Control', 'no-cache').sendFile(`${clientDir}/index.html`);
@@ -66,5 +82,5 @@ export function createApp(context: AppContext, options: AppOptions = {}): Expres
   }
   app.use(apiNotFound);
   app.use(errorHandler);
-  return app;
+  return Object.assign(app, { shutdown: () => authentication.close() });
 }

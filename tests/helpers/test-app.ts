@@ -1,13 +1,12 @@
 import 'reflect-metadata';
-import type { Express } from 'express';
 import { pino } from 'pino';
 import { loadConfig, type AppConfig } from '../../server/src/config/env';
 import { createDataSource } from '../../server/src/db/connection-options';
 import { Database } from '../../server/src/db/database';
-import { createApp } from '../../server/src/app';
+import { createApp, type IngotraceApp } from '../../server/src/app';
 
 export interface TestApp {
-  app: Express;
+  app: IngotraceApp;
   database: Database;
   config: AppConfig;
   close(): Promise<void>;
@@ -18,5 +17,13 @@ export function createTestApp(overrides: Record<string, string> = {}): TestApp {
   const config = loadConfig({ ...process.env, ...overrides });
   const database = new Database(createDataSource(config, 'app'));
   const app = createApp({ config, database, logger: pino({ level: 'silent' }), version: 'test' });
-  return { app, database, config, close: () => database.close() };
+  return {
+    app,
+    database,
+    config,
+    close: async () => {
+      await app.shutdown();
+      await database.close();
+    },
+  };
 }

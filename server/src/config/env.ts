@@ -30,9 +30,48 @@ export const configSchema = z.object({
   SMTP_PORT: port.default(1025),
   MAIL_WEB_PORT: port.default(1080),
   MAIL_FROM: z.string().min(3).default('Ingotrace <ingotrace@localhost>'),
+
+  // Sign-in through SAML 2.0. The defaults point at the local stand-in identity provider that
+  // npm start runs; production sets the firm's identity provider here.
+  IDP_PORT: port.default(7000),
+  IDP_ALLOWED_ACS_URLS: z.string().optional(),
+  SAML_IDP_SSO_URL: z.url().optional(),
+  SAML_IDP_SLO_URL: z.url().optional(),
+  SAML_IDP_ENTITY_ID: z.string().min(1).optional(),
+  SAML_IDP_CERT_FILE: z.string().min(1).optional(),
+  SAML_SP_ENTITY_ID: z.string().min(1).default('urn:ingotrace:service-provider'),
+  SAML_CLOCK_SKEW_MS: z.coerce.number().int().min(0).max(300_000).default(5_000),
+  SAML_GROUP_ATTRIBUTE: z.string().min(1).default('groups'),
+  SAML_ROLE_MAP: z.string().optional(),
+  SESSION_SECRET: z.string().min(16).default('local-session-secret-change-me'),
+  SESSION_IDLE_MINUTES: z.coerce.number().min(0.05).max(24 * 60).default(15),
+  SESSION_ABSOLUTE_HOURS: z.coerce.number().min(1).max(72).default(12),
 });
 
-export type AppConfig = z.infer<typeof configSchema> & { PUBLIC_URL: string };
+const defaultRoleMap: Record<string, string> = {
+  'ingotrace-manufacturing-engineers': 'manufacturing-engineer',
+  'ingotrace-qa-reviewers': 'qa-reviewer',
+  'ingotrace-qa-approvers': 'qa-approver',
+  'ingotrace-auditors': 'auditor',
+  'ingotrace-recall-coordinators': 'recall-coordinator',
+  'ingotrace-administrators': 'administrator',
+};
+
+const roleMapSchema = z.record(z.string().min(1), z.string().min(1));
+
+type ParsedConfig = z.infer<typeof configSchema>;
+
+export type AppConfig = ParsedConfig & {
+  PUBLIC_URL: string;
+  SAML_IDP_SSO_URL: string;
+  SAML_IDP_SLO_URL: string;
+  SAML_IDP_ENTITY_ID: string;
+  SAML_IDP_CERT_FILE: string;
+  /** Identity-provider group → Ingotrace role name (checked against the role list at boot). */
+  roleMap: Record<string, string>;
+  /** Where the stand-in identity provider may send responses. */
+  allowedAcsUrls: string[];
+};
 
 export class ConfigError extends Error {}
 
@@ -44,7 +83,32 @@ export function loadConfig(source: Record<string, string | undefined> = process.
     throw new ConfigError(`Invalid configuration:\n${lines.join('\n')}`);
   }
   const config = parsed.data;
-  return { ...config, PUBLIC_URL: config.PUBLIC_URL ?? `http://${config.HOST}:${config.PORT}` };
+  const publicUrl = (config.PUBLIC_URL ?? `http://${config.HOST}:${config.PORT}`).replace(/\/$/, '');
+  const idpBase = `http://127.0.0.1:${config.IDP_PORT}`;
+  let roleMap = defaultRoleMap;
+  if (config.SAML_ROLE_MAP) {
+    let candidate: unknown;
+    try {
+      candidate = JSON.parse(config.SAML_ROLE_MAP);
+    } catch {
+      throw new ConfigError('Invalid configuration:\n  SAML_ROLE_MAP: must be a JSON object of group name to role');
+    }
+    const map = roleMapSchema.safeParse(candidate);
+    if (!map.success) throw new ConfigError('Invalid configuration:\n  SAML_ROLE_MAP: must be a JSON object of group name to role');
+    roleMap = map.data;
+  }
+  const ownAcs = [`${publicUrl}/auth/saml/acs`, `${publicUrl}/auth/saml/reauth-acs`];
+  const extraAcs = (config.IDP_ALLOWED_ACS_URLS ?? '').split(',').map((url) => url.trim()).filter(Boolean);
+  return {
+    ...config,
+    PUBLIC_URL: publicUrl,
+    SAML_IDP_SSO_URL: config.SAML_IDP_SSO_URL ?? `${idpBase}/sso`,
+    SAML_IDP_SLO_URL: config.SAML_IDP_SLO_URL ?? `${idpBase}/slo`,
+    SAML_IDP_ENTITY_ID: config.SAML_IDP_ENTITY_ID ?? `${idpBase}/metadata`,
+    SAML_IDP_CERT_FILE: config.SAML_IDP_CERT_FILE ?? `${config.DATA_DIR}/identity-provider/signing-cert.pem`,
+    roleMap,
+    allowedAcsUrls: [...ownAcs, ...extraAcs],
+  };
 }
 
 /** Loads `.env` from the working directory into process.env if the file exists. */
@@ -68,6 +132,7 @@ export function testProfileEnvironment(
     DB_NAME: 'ingotrace_test',
     SMTP_PORT: '1026',
     MAIL_WEB_PORT: '1081',
+    IDP_PORT: '7010',
     LOG_LEVEL: 'warn',
   };
   const result: Record<string, string> = {};

@@ -7,6 +7,7 @@ export type TableAccess = 'read-write' | 'append-only' | 'read-only';
 
 export const tableAccess: Record<string, TableAccess> = {
   migrations: 'read-only',
+  audit_event: 'append-only',
 };
 
 const privilegesByAccess: Record<TableAccess, string> = {

@@ -18,6 +18,9 @@ interface HttpishError {
 export function toAppError(error: unknown): AppError | null {
   if (error instanceof AppError) return error;
   const httpish = error as HttpishError;
+  if ((error as { code?: string })?.code === 'EBADCSRFTOKEN') {
+    return new AppError('FORBIDDEN', 'This request lacks a valid CSRF token; reload the page and try again');
+  }
   if (httpish?.type === 'entity.parse.failed') return new AppError('INVALID_JSON', 'The request body is not valid JSON');
   if (httpish?.type === 'entity.too.large') return new AppError('PAYLOAD_TOO_LARGE', 'The request body is too large');
   if (httpish?.type === 'encoding.unsupported' || httpish?.type === 'charset.unsupported') {

@@ -1,17 +1,28 @@
 import { mount, flushPromises } from '@vue/test-utils';
 import PrimeVue from 'primevue/config';
+import { createPinia } from 'pinia';
+import { QueryClient, VueQueryPlugin } from '@tanstack/vue-query';
 import { createMemoryHistory, createRouter } from 'vue-router';
 import { describe, expect, it } from 'vitest';
+import type { Role } from '@shared/auth/roles';
+import { allowedActions } from '@shared/auth/permissions';
 import { productAreas } from '../../../src/navigation/areas';
 import { routes } from '../../../src/router';
+import { sessionKeys } from '../../../src/api/session';
 import AreaNotYetBuiltView from '../../../src/views/AreaNotYetBuiltView.vue';
 import AppNavigationRail from '../../../src/components/AppNavigationRail.vue';
-import { createPinia } from 'pinia';
 
-async function mountAt(path: string, component: object) {
+async function mountAt(path: string, component: object, roles: Role[] = ['auditor']) {
   const router = createRouter({ history: createMemoryHistory(), routes });
   await router.push(path);
-  const wrapper = mount(component, { global: { plugins: [router, createPinia(), PrimeVue] } });
+  const queryClient = new QueryClient();
+  queryClient.setQueryData(sessionKeys.me(), {
+    person: { id: 1, name: 'Test Person', email: 't@example.test', roles },
+    actions: allowedActions(roles),
+    csrfToken: 'token',
+    session: { idleMinutes: 15, absoluteExpiresAt: '2026-12-02T00:00:00.000Z' },
+  });
+  const wrapper = mount(component, { global: { plugins: [router, createPinia(), PrimeVue, [VueQueryPlugin, { queryClient }]] } });
   await flushPromises();
   return wrapper;
 }
@@ -24,10 +35,15 @@ describe('navigation', () => {
     expect(new Set(productAreas.map((area) => area.path)).size).toBe(productAreas.length);
   });
 
-  it('when the rail is shown, then it links to the overview and to every area in chain order', async () => {
-    const wrapper = await mountAt('/', AppNavigationRail);
+  it('when an auditor sees the rail, then it links to the overview and to every area in chain order', async () => {
+    const wrapper = await mountAt('/', AppNavigationRail, ['auditor']);
     const links = wrapper.findAll('a').map((link) => [link.text(), link.attributes('href')]);
     expect(links).toEqual([['Overview', '/'], ...productAreas.map((area) => [area.title, area.path])]);
+  });
+
+  it('when an administrator sees the rail, then only the overview and administration show', async () => {
+    const wrapper = await mountAt('/', AppNavigationRail, ['administrator']);
+    expect(wrapper.findAll('a').map((link) => link.text())).toEqual(['Overview', 'Administration']);
   });
 
   it('when an area is not built yet, then its page says so and lists what it will hold', async () => {

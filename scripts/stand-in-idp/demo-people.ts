@@ -1,0 +1,43 @@
+/**
+ * The invented people of the demo firm, as the stand-in identity provider knows them. Groups map
+ * to Ingotrace roles through SAML_ROLE_MAP. Every name and address is invented (.example is a
+ * reserved domain). Passwords are for the local stand-in only.
+ */
+export interface DemoPerson {
+  subject: string;
+  name: string;
+  email: string;
+  password: string;
+  groups: string[];
+  /** Shown on the sign-in page; Ingotrace itself refuses this person (deactivated in the seed). */
+  note?: string;
+}
+
+export const demoPeople: DemoPerson[] = [
+  { subject: 'kiw-0101', name: 'Maren Østby', email: 'maren.ostby@kestrelmoor.example', password: 'maren-demo', groups: ['ingotrace-manufacturing-engineers'] },
+  { subject: 'kiw-0102', name: 'Tomasz Wiśniewski', email: 'tomasz.wisniewski@kestrelmoor.example', password: 'tomasz-demo', groups: ['ingotrace-manufacturing-engineers'] },
+  { subject: 'kiw-0201', name: 'Aisling Ní Bhriain', email: 'aisling.nibhriain@kestrelmoor.example', password: 'aisling-demo', groups: ['ingotrace-qa-reviewers'] },
+  { subject: 'kiw-0301', name: 'Joaquín Ferreira', email: 'joaquin.ferreira@kestrelmoor.example', password: 'joaquin-demo', groups: ['ingotrace-qa-approvers'] },
+  { subject: 'kiw-0401', name: 'Priya Raghunathan', email: 'priya.raghunathan@kestrelmoor.example', password: 'priya-demo', groups: ['ingotrace-auditors'] },
+  { subject: 'kiw-0501', name: 'Oluwaseun Adeyemi', email: 'oluwaseun.adeyemi@kestrelmoor.example', password: 'oluwaseun-demo', groups: ['ingotrace-recall-coordinators'] },
+  { subject: 'kiw-0601', name: 'Henrik Dahl', email: 'henrik.dahl@kestrelmoor.example', password: 'henrik-demo', groups: ['ingotrace-administrators'] },
+  {
+    subject: 'kiw-0701',
+    name: 'Chiara Bellandi',
+    email: 'chiara.bellandi@kestrelmoor.example',
+    password: 'chiara-demo',
+    groups: ['ingotrace-qa-reviewers', 'ingotrace-recall-coordinators'],
+  },
+  {
+    subject: 'kiw-0901',
+    name: 'Dieter Kranz',
+    email: 'dieter.kranz@kestrelmoor.example',
+    password: 'dieter-demo',
+    groups: ['ingotrace-manufacturing-engineers'],
+    note: 'deactivated in Ingotrace: signing in is refused',
+  },
+];
+
+export function findDemoPerson(subject: string): DemoPerson | undefined {
+  return demoPeople.find((person) => person.subject === subject);
+}

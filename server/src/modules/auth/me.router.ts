@@ -1,0 +1,39 @@
+import { Router, type Request } from 'express';
+import { allowedActions } from '@shared/auth/permissions';
+import type { Me } from '@shared/schemas/people';
+import { reauthenticationIdSchema, reauthenticationStartSchema, type ReauthenticationStart } from '@shared/schemas/reauthentication';
+import type { AppContext } from '../../app-context';
+import { currentPerson, requireSignedIn } from '../../middleware/access';
+import { validate } from '../../middleware/validate';
+import { reauthenticationStatus, startReauthentication } from './reauthentication.service';
+
+/** The signed-in person, their permitted actions and CSRF token; and starting a re-authentication. */
+export function meRouter(context: AppContext, generateCsrfToken: (req: Request) => string): Router {
+  const router = Router();
+
+  router.get('/me', requireSignedIn(), (req, res) => {
+    const person = currentPerson(req)!;
+    const body: Me = {
+      person: { id: person.id, name: person.name, email: person.email, roles: person.roles },
+      actions: allowedActions(person.roles),
+      csrfToken: generateCsrfToken(req),
+      session: {
+        idleMinutes: context.config.SESSION_IDLE_MINUTES,
+        absoluteExpiresAt: new Date((req.session.signedInAt ?? Date.now()) + context.config.SESSION_ABSOLUTE_HOURS * 3600_000).toISOString(),
+      },
+    };
+    res.set('Cache-Control', 'no-store').json(body);
+  });
+
+  router.post('/reauthentications', requireSignedIn(), validate({ body: reauthenticationStartSchema }), async (req, res) => {
+    const start = res.locals.valid.body as ReauthenticationStart;
+    res.status(201).json(await startReauthentication(context.database.dataSource, currentPerson(req)!, start));
+  });
+
+  router.get('/reauthentications/:reauthenticationId', requireSignedIn(), validate({ params: reauthenticationIdSchema }), async (req, res) => {
+    const { reauthenticationId } = res.locals.valid.params as { reauthenticationId: string };
+    res.set('Cache-Control', 'no-store').json(await reauthenticationStatus(context.database.dataSource, reauthenticationId, currentPerson(req)!));
+  });
+
+  return router;
+}

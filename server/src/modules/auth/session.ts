@@ -1,0 +1,67 @@
+import session from 'express-session';
+import createMySQLStore from 'express-mysql-session';
+import type { RequestHandler } from 'express';
+import type { AppConfig } from '../../config/env';
+import { AppError } from '../../errors';
+
+export const SESSION_COOKIE = 'ingotrace_session';
+
+export interface SessionSupport {
+  middleware: RequestHandler;
+  /** Ends sessions past the idle or absolute time-out, with a clear message. */
+  enforceTimeouts: RequestHandler;
+  close(): Promise<void>;
+}
+
+/** express-session stored in MariaDB (so any app instance can serve any person). */
+export function createSessionSupport(config: AppConfig): SessionSupport {
+  const MySQLStore = createMySQLStore(session);
+  const absoluteMs = config.SESSION_ABSOLUTE_HOURS * 3600_000;
+  const idleMs = config.SESSION_IDLE_MINUTES * 60_000;
+  const store = new MySQLStore({
+    host: config.DB_HOST,
+    port: config.DB_PORT,
+    user: config.DB_USER,
+    password: config.DB_PASSWORD,
+    database: config.DB_NAME,
+    connectionLimit: 5,
+    createDatabaseTable: false,
+    clearExpired: true,
+    checkExpirationInterval: 15 * 60_000,
+    expiration: absoluteMs,
+    schema: { tableName: 'http_session', columnNames: { session_id: 'session_id', expires: 'expires', data: 'data' } },
+  });
+  const middleware = session({
+    name: SESSION_COOKIE,
+    secret: config.SESSION_SECRET,
+    store,
+    resave: false,
+    saveUninitialized: false,
+    rolling: true,
+    proxy: true,
+    cookie: {
+      httpOnly: true,
+      sameSite: 'lax',
+      secure: config.PUBLIC_URL.startsWith('https:'),
+      maxAge: absoluteMs,
+      path: '/',
+    },
+  });
+  const enforceTimeouts: RequestHandler = (req, _res, next) => {
+    if (!req.user || !req.session) return next();
+    const now = Date.now();
+    const signedInAt = req.session.signedInAt ?? now;
+    const lastSeenAt = req.session.lastSeenAt ?? now;
+    let reason: string | null = null;
+    if (now - signedInAt > absoluteMs) reason = `Your session reached its limit of ${config.SESSION_ABSOLUTE_HOURS} hours; sign in again`;
+    else if (now - lastSeenAt > idleMs) reason = `Your session ended after ${config.SESSION_IDLE_MINUTES} minutes without activity; sign in again`;
+    if (reason) {
+      const message = reason;
+      req.session.destroy(() => next(new AppError('UNAUTHENTICATED', message)));
+      return;
+    }
+    req.session.lastSeenAt = now;
+    next();
+  };
+  return { middleware, enforceTimeouts, close: () => store.close() };
+}

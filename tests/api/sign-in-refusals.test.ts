@@ -1,0 +1,127 @@
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { buildSignedResponse, encodeForPost, type SamlResponseInput } from '../../scripts/stand-in-idp/saml-response';
+import { createSigningKey } from '../../scripts/stand-in-idp/signing-key';
+import { createTestApp } from '../helpers/test-app';
+import { person, SamlTestDriver } from '../helpers/saml-round-trip';
+
+// Every refusal must leave no session behind: no session cookie, no new row in http_session,
+// /api/me still 401, and a refused sign-in in the ledger with the reason.
+describe('sign-in refusals', () => {
+  const running = createTestApp();
+  let saml: SamlTestDriver;
+  beforeAll(async () => {
+    saml = await SamlTestDriver.create(running.config);
+  });
+  afterAll(() => running.close());
+
+  const acs = () => `${running.config.PUBLIC_URL}/auth/saml/acs`;
+  const sessionRows = async () => Number((await running.database.dataSource.query('SELECT COUNT(*) AS n FROM http_session'))[0].n);
+
+  /** Starts a real sign-in and returns the agent and the AuthnRequest id the app is waiting for. */
+  async function startSignIn() {
+    const agent = request.agent(running.app);
+    const login = await agent.get('/auth/login');
+    const { request: authnRequest, query } = SamlTestDriver.authnRequestFrom(login.headers.location);
+    return { agent, requestId: authnRequest.id, query };
+  }
+
+  function validInput(requestId: string | undefined, overrides: Partial<SamlResponseInput> = {}): SamlResponseInput {
+    const auditor = person('kiw-0401');
+    return {
+      issuer: running.config.SAML_IDP_ENTITY_ID,
+      destination: acs(),
+      audience: running.config.SAML_SP_ENTITY_ID,
+      inResponseTo: requestId,
+      subject: auditor.subject,
+      attributes: { displayName: [auditor.name], email: [auditor.email], groups: auditor.groups },
+      authnInstant: new Date(),
+      privateKeyPem: saml.key.privateKeyPem,
+      certificatePem: saml.key.certificatePem,
+      ...overrides,
+    };
+  }
+
+  async function expectRefused(agent: ReturnType<typeof request.agent>, samlResponseXml: string, reason: RegExp) {
+    const before = await sessionRows();
+    const response = await agent.post('/auth/saml/acs').type('form').send({ SAMLResponse: encodeForPost(samlResponseXml), RelayState: '/' });
+    expect(response.status).toBe(303);
+    const location = new URL(String(response.headers.location), 'http://app');
+    expect(location.pathname).toBe('/sign-in');
+    expect(location.searchParams.get('refused')).toMatch(reason);
+    expect(String(response.headers['set-cookie'] ?? '')).not.toContain('ingotrace_session=');
+    expect(await sessionRows()).toBe(before);
+    expect((await agent.get('/api/me')).status).toBe(401);
+    const [event] = await running.database.dataSource.query("SELECT action, reason FROM audit_event WHERE action = 'session.sign-in-refused' ORDER BY seq DESC LIMIT 1");
+    expect(event.reason).toMatch(reason);
+    return location.searchParams.get('refused');
+  }
+
+  it('when a well-formed response carries the right request id, then it is accepted (the control case)', async () => {
+    const { agent, requestId } = await startSignIn();
+    const response = await agent.post('/auth/saml/acs').type('form').send({ SAMLResponse: encodeForPost(buildSignedResponse(validInput(requestId))), RelayState: '/audit' });
+    expect(response.headers.location).toBe('/audit');
+    expect((await agent.get('/api/me')).status).toBe(200);
+  });
+
+  it('when the response is signed by another key, then it is refused', async () => {
+    const { agent, requestId } = await startSignIn();
+    const intruder = await createSigningKey('someone else');
+    await expectRefused(agent, buildSignedResponse(validInput(requestId, { privateKeyPem: intruder.privateKeyPem, certificatePem: intruder.certificatePem })), /Invalid (document )?signature/i);
+  });
+
+  it('when an attribute was altered after signing, then it is refused', async () => {
+    const { agent, requestId } = await startSignIn();
+    const signed = buildSignedResponse(validInput(requestId));
+    const altered = signed.replace('ingotrace-auditors', 'ingotrace-administrators');
+    expect(altered).not.toBe(signed);
+    await expectRefused(agent, altered, /Invalid (document )?signature/i);
+  });
+
+  it('when the assertion has expired, then it is refused', async () => {
+    const { agent, requestId } = await startSignIn();
+    const anHourAgo = new Date(Date.now() - 3600_000);
+    // node-saml checks the bearer SubjectConfirmationData's NotOnOrAfter first and names it.
+    await expectRefused(agent, buildSignedResponse(validInput(requestId, { issueInstant: anHourAgo, authnInstant: anHourAgo })), /No valid subject confirmation|expired/i);
+  });
+
+  it('when a response is replayed, then the second use is refused', async () => {
+    const { agent, requestId } = await startSignIn();
+    const xml = buildSignedResponse(validInput(requestId));
+    const first = await agent.post('/auth/saml/acs').type('form').send({ SAMLResponse: encodeForPost(xml), RelayState: '/' });
+    expect(first.headers.location).toBe('/');
+    await expectRefused(request.agent(running.app), xml, /InResponseTo is not valid/);
+  });
+
+  it('when the audience is another service, then it is refused', async () => {
+    const { agent, requestId } = await startSignIn();
+    await expectRefused(agent, buildSignedResponse(validInput(requestId, { audience: 'urn:another:service' })), /audience mismatch/i);
+  });
+
+  it('when the recipient is another address, then it is refused', async () => {
+    const { agent, requestId } = await startSignIn();
+    await expectRefused(agent, buildSignedResponse(validInput(requestId, { recipient: 'http://127.0.0.1:9999/auth/saml/acs' })), /^Assertion recipient .* is not this service's address/);
+  });
+
+  it('when the destination is another address, then it is refused', async () => {
+    const { agent, requestId } = await startSignIn();
+    await expectRefused(agent, buildSignedResponse(validInput(requestId, { destination: 'http://127.0.0.1:9999/auth/saml/acs', recipient: acs() })), /^Response destination .* is not this service's address/);
+  });
+
+  it('when the issuer is not the configured identity provider, then it is refused', async () => {
+    const { agent, requestId } = await startSignIn();
+    await expectRefused(agent, buildSignedResponse(validInput(requestId, { issuer: 'http://impostor.example/metadata' })), /issuer .* is not the configured identity provider/i);
+  });
+
+  it('when the response was not asked for (unsolicited), then it is refused', async () => {
+    const { agent } = await startSignIn();
+    await expectRefused(agent, buildSignedResponse(validInput(undefined)), /InResponseTo is missing/);
+  });
+
+  it('when the person is deactivated in Ingotrace, then the sign-in is refused', async () => {
+    const { agent, query } = await startSignIn();
+    const answer = await saml.answerAtIdentityProvider(saml.idpAgent(), query, person('kiw-0901'));
+    expect(answer.samlResponse).toBeDefined();
+    await expectRefused(agent, Buffer.from(answer.samlResponse!, 'base64').toString('utf8'), /deactivated/);
+  });
+});
