@@ -50,5 +50,16 @@ export async function applyAppGrants(server: MariadbServer, config: AppConfig): 
     ['-N', '-B'],
   );
   const tables = output.split('\n').map((line) => line.trim()).filter(Boolean);
-  await server.adminSql(appGrantsSql(accountsFor(config), tables));
+  const granted = await server.adminSql(
+    `SELECT DISTINCT Host, Table_name FROM mysql.tables_priv WHERE User = '${config.DB_USER}' AND Db = '${config.DB_NAME}';`,
+    ['-N', '-B'],
+  );
+  const previouslyGranted = granted
+    .split('\n')
+    .filter(Boolean)
+    .map((line) => {
+      const [host = '', table = ''] = line.split('\t');
+      return { host, table };
+    });
+  await server.adminSql(appGrantsSql(accountsFor(config), tables, previouslyGranted));
 }

@@ -12,6 +12,10 @@ import { meRouter } from './modules/auth/me.router';
 import { healthRouter } from './modules/health/health.router';
 import { organisationRouter } from './modules/organisation/organisation.router';
 import { peopleRouter } from './modules/people/people.router';
+import { auditRouter } from './modules/ledger/audit.router';
+import { ledgerReviewRecordType } from './modules/ledger/ledger-review.record';
+import { registerSignableRecordType } from './modules/signatures/signable-records';
+import { signaturesRouter } from './modules/signatures/signatures.router';
 
 export interface AppOptions {
   /** Folder with the built client (index.html and assets); omitted in API-only tests. */
@@ -22,6 +26,7 @@ export type IngotraceApp = Express & { shutdown(): Promise<void> };
 
 /** Builds the Express app; never listens (index.ts does, tests use supertest). */
 export function createApp(context: AppContext, options: AppOptions = {}): IngotraceApp {
+  registerSignableRecordType(ledgerReviewRecordType);
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
@@ -69,6 +74,8 @@ export function createApp(context: AppContext, options: AppOptions = {}): Ingotr
   api.use(organisationRouter(context));
   api.use(meRouter(context, authentication.generateCsrfToken));
   api.use(peopleRouter(context));
+  api.use(auditRouter(context));
+  api.use(signaturesRouter(context));
   api.use(apiNotFound);
   app.use('/api', api);
 

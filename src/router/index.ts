@@ -4,12 +4,18 @@ import { rolesAllow } from '@shared/auth/permissions';
 import { productAreas, type AreaRouteName } from '../navigation/areas';
 import { meQuery } from '../api/session';
 
-export type RouteName = 'overview' | AreaRouteName | 'sign-in' | 'signed-out' | 'not-permitted' | 'not-found';
+export type RouteName = 'overview' | AreaRouteName | 'sign-in' | 'signed-out' | 'reauthentication-complete' | 'not-permitted' | 'not-found';
+
+/** Areas that are built; the rest show what they will hold. */
+const areaViews: Partial<Record<AreaRouteName, () => Promise<unknown>>> = {
+  administration: () => import('../views/PeopleAdministrationView.vue'),
+  audit: () => import('../views/AuditLedgerView.vue'),
+};
 
 const areaRoutes: RouteRecordRaw[] = productAreas.map((area) => ({
   path: area.path,
   name: area.name,
-  component: area.name === 'administration' ? () => import('../views/PeopleAdministrationView.vue') : () => import('../views/AreaNotYetBuiltView.vue'),
+  component: areaViews[area.name] ?? (() => import('../views/AreaNotYetBuiltView.vue')),
   meta: { title: area.title, area: area.name, action: area.action },
 }));
 
@@ -18,6 +24,12 @@ export const routes: RouteRecordRaw[] = [
   ...areaRoutes,
   { path: '/sign-in', name: 'sign-in', component: () => import('../views/SignInView.vue'), meta: { title: 'Sign in', public: true } },
   { path: '/signed-out', name: 'signed-out', component: () => import('../views/SignedOutView.vue'), meta: { title: 'Signed out', public: true } },
+  {
+    path: '/reauthentication-complete',
+    name: 'reauthentication-complete',
+    component: () => import('../views/ReauthenticationCompleteView.vue'),
+    meta: { title: 'Password confirmed', public: true },
+  },
   { path: '/not-permitted', name: 'not-permitted', component: () => import('../views/NotPermittedView.vue'), meta: { title: 'Not permitted' } },
   { path: '/:pathMatch(.*)*', name: 'not-found', component: () => import('../views/NotFoundView.vue'), meta: { title: 'Not found' } },
 ];

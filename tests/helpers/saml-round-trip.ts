@@ -98,3 +98,18 @@ export async function csrfTokenOf(agent: TestAgent): Promise<string> {
   if (me.status !== 200) throw new Error(`/api/me answered ${me.status}`);
   return me.body.csrfToken as string;
 }
+
+/**
+ * Runs the re-authentication a signature needs: starts it in the app, answers the identity
+ * provider's password prompt as the given person, and returns its id.
+ */
+export async function reauthenticate(saml: SamlTestDriver, agent: TestAgent, subject: string, bindingHash: string): Promise<string> {
+  const csrf = await csrfTokenOf(agent);
+  const started = await agent.post('/api/reauthentications').set('X-CSRF-Token', csrf).send({ purpose: 'sign in a test', bindingHash });
+  if (started.status !== 201) throw new Error(`starting re-authentication answered ${started.status}`);
+  const redirect = await agent.get(String(started.body.url));
+  const { query } = SamlTestDriver.authnRequestFrom(redirect.headers.location);
+  const answer = await saml.answerAtIdentityProvider(saml.idpAgent(), query, person(subject));
+  await agent.post('/auth/saml/reauth-acs').type('form').send({ SAMLResponse: answer.samlResponse, RelayState: answer.relayState });
+  return started.body.id as string;
+}

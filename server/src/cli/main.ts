@@ -1,5 +1,6 @@
 import { Command, CommanderError } from 'commander';
 import { productVersion } from '../version';
+import { auditCommand, CliExit } from './audit.command';
 import { configCommand } from './config.command';
 
 /** Builds the ingotrace command-line program; later features add their commands here. */
@@ -10,6 +11,7 @@ export function buildProgram(): Command {
     .showHelpAfterError('(run "ingotrace --help" for the commands)')
     .exitOverride();
   program.addCommand(configCommand());
+  program.addCommand(auditCommand());
   return program;
 }
 
@@ -21,6 +23,10 @@ export async function runCli(argv: string[]): Promise<number> {
     return 0;
   } catch (error) {
     if (error instanceof CommanderError) return error.exitCode;
+    if (error instanceof CliExit) {
+      process.stderr.write(`ingotrace: ${error.message}\n`);
+      return error.exitCode;
+    }
     process.stderr.write(`ingotrace: ${error instanceof Error ? error.message : String(error)}\n`);
     return 1;
   }

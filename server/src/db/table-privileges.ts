@@ -8,6 +8,7 @@ export type TableAccess = 'read-write' | 'append-only' | 'read-only';
 export const tableAccess: Record<string, TableAccess> = {
   migrations: 'read-only',
   audit_event: 'append-only',
+  electronic_signature: 'append-only',
 };
 
 const privilegesByAccess: Record<TableAccess, string> = {
@@ -52,13 +53,18 @@ export function accountsSql(accounts: DatabaseAccounts): string {
   return statements.join('\n');
 }
 
-/** SQL that gives the app user exactly its per-table privileges over the tables that exist now. */
-export function appGrantsSql(accounts: DatabaseAccounts, tables: string[]): string {
+/**
+ * SQL that gives the app user exactly its per-table privileges over the tables that exist now in
+ * this database, first revoking what it held on them (other databases are left alone).
+ */
+export function appGrantsSql(accounts: DatabaseAccounts, tables: string[], previouslyGranted: Array<{ host: string; table: string }> = []): string {
   const db = identifier(accounts.database);
   const statements: string[] = [];
   for (const host of accounts.hosts) {
     const account = `${sqlString(accounts.appUser)}@${sqlString(host)}`;
-    statements.push(`REVOKE ALL PRIVILEGES, GRANT OPTION FROM ${account};`);
+    for (const grant of previouslyGranted.filter((candidate) => candidate.host === host)) {
+      statements.push(`REVOKE ALL PRIVILEGES ON ${db}.${identifier(grant.table)} FROM ${account};`);
+    }
     for (const table of [...tables].sort()) {
       const access = tableAccess[table] ?? 'read-write';
       statements.push(`GRANT ${privilegesByAccess[access]} ON ${db}.${identifier(table)} TO ${account};`);

@@ -25,9 +25,9 @@ describe('table privileges', () => {
   it('when granting the app user, then each table gets exactly its access level', () => {
     tableAccess.audit_event_example = 'append-only';
     try {
-      const sql = appGrantsSql(accounts, ['organisation', 'migrations', 'audit_event_example']);
+      const sql = appGrantsSql(accounts, ['organisation', 'migrations', 'audit_event_example'], [{ host: '127.0.0.1', table: 'dropped_table' }]);
       expect(sql.split('\n')).toEqual([
-        "REVOKE ALL PRIVILEGES, GRANT OPTION FROM 'app'@'127.0.0.1';",
+        "REVOKE ALL PRIVILEGES ON `ingotrace`.`dropped_table` FROM 'app'@'127.0.0.1';",
         "GRANT SELECT, INSERT ON `ingotrace`.`audit_event_example` TO 'app'@'127.0.0.1';",
         "GRANT SELECT ON `ingotrace`.`migrations` TO 'app'@'127.0.0.1';",
         "GRANT SELECT, INSERT, UPDATE, DELETE ON `ingotrace`.`organisation` TO 'app'@'127.0.0.1';",

@@ -1,6 +1,12 @@
 import { CreateOrganisation1764633600000 } from './1764633600000-create-organisation';
 import { CreatePeopleAndSessions1764640800000 } from './1764640800000-create-people-and-sessions';
 import { CreateAuditLedger1764644400000 } from './1764644400000-create-audit-ledger';
+import { CreateElectronicSignatures1764648000000 } from './1764648000000-create-electronic-signatures';
 
 /** Every migration in the order it runs. Add new ones at the end. */
-export const migrations = [CreateOrganisation1764633600000, CreatePeopleAndSessions1764640800000, CreateAuditLedger1764644400000];
+export const migrations = [
+  CreateOrganisation1764633600000,
+  CreatePeopleAndSessions1764640800000,
+  CreateAuditLedger1764644400000,
+  CreateElectronicSignatures1764648000000,
+];

@@ -1,0 +1,114 @@
+import type { DataSource, EntityManager } from 'typeorm';
+import { canonicalJson, firstBrokenEvent, GENESIS_HASH, type ChainedEvent, type LedgerEventContent } from '@shared/domain/ledger-hash';
+import type { Verification } from '@shared/schemas/audit';
+import { allSignatures } from '../signatures/signatures.repository';
+import { chainHead, contentOf, eventAt, eventsInOrder } from './ledger-events.repository';
+import { sha256Hex } from './ledger.repository';
+
+function summaryOf(result: Omit<Verification, 'summary'>): string {
+  if (result.firstBroken) return `ledger BROKEN at event ${result.firstBroken.seq}: ${result.firstBroken.why}`;
+  if (result.signatureProblems.length) {
+    const first = result.signatureProblems[0]!;
+    return `signatures BROKEN: signature ${first.id}: ${first.why}${result.signatureProblems.length > 1 ? ` (and ${result.signatureProblems.length - 1} more)` : ''}`;
+  }
+  return `ledger verified: ${result.events} events, ${result.signatures} signatures, chain head ${result.chainHead.seq} ${result.chainHead.hash}`;
+}
+
+/**
+ * Walks the whole ledger, recomputing every hash; checks the chain head; checks that every
+ * signature's stored content still has its hash and that the ledger recorded that same hash.
+ */
+export async function verifyLedger(manager: EntityManager): Promise<Verification> {
+  const started = performance.now();
+  let previousHash = GENESIS_HASH;
+  let lastSeq = 0;
+  let events = 0;
+  let firstBroken: Verification['firstBroken'] = null;
+  for await (const batch of eventsInOrder(manager)) {
+    const chained: ChainedEvent[] = batch.map((row) => ({ content: contentOf(row), previousHash: row.previous_hash, hash: row.hash }));
+    firstBroken = firstBrokenEvent(chained, sha256Hex, previousHash, lastSeq);
+    if (firstBroken) break;
+    events += batch.length;
+    const last = batch[batch.length - 1]!;
+    previousHash = last.hash;
+    lastSeq = Number(last.seq);
+  }
+  const head = await chainHead(manager);
+  if (!firstBroken && (head.seq !== lastSeq || head.hash !== previousHash)) {
+    firstBroken = { seq: head.seq, why: `the chain head names event ${head.seq} but the last intact event is ${lastSeq}` };
+  }
+
+  const signatureProblems: Verification['signatureProblems'] = [];
+  let signatures = 0;
+  for await (const signature of allSignatures(manager)) {
+    signatures++;
+    const id = Number(signature.id);
+    let stored: unknown;
+    try {
+      stored = JSON.parse(signature.content_json);
+    } catch {
+      signatureProblems.push({ id, why: 'its stored content is not JSON' });
+      continue;
+    }
+    if (sha256Hex(canonicalJson(stored)) !== signature.content_hash) {
+      signatureProblems.push({ id, why: 'its stored content no longer matches its hash' });
+      continue;
+    }
+    const event = await eventAt(manager, Number(signature.ledger_seq));
+    const after = event?.after as { contentHash?: string } | null;
+    if (!event || event.action !== 'signature.signed' || after?.contentHash !== signature.content_hash) {
+      signatureProblems.push({ id, why: `the ledger event ${signature.ledger_seq} does not record this signature's hash` });
+    }
+  }
+  const result = { ok: !firstBroken && signatureProblems.length === 0, events, signatures, chainHead: head, firstBroken, signatureProblems, milliseconds: Math.round(performance.now() - started) };
+  return { ...result, summary: summaryOf(result) };
+}
+
+/** The self-verifying export: every event with its content and hash, and the chain head. */
+export interface LedgerExport {
+  format: 'ingotrace-ledger-export/1';
+  exportedAt: string;
+  chainHead: { seq: number; hash: string };
+  events: Array<{ seq: number; content: LedgerEventContent; previousHash: string; hash: string }>;
+}
+
+/** Reads every event in one consistent snapshot (a repeatable-read transaction on one connection). */
+export async function exportLedger(dataSource: DataSource): Promise<LedgerExport> {
+  const runner = dataSource.createQueryRunner();
+  await runner.connect();
+  try {
+    await runner.startTransaction('REPEATABLE READ');
+    const events: LedgerExport['events'] = [];
+    for await (const batch of eventsInOrder(runner.manager)) {
+      for (const row of batch) events.push({ seq: Number(row.seq), content: contentOf(row), previousHash: row.previous_hash, hash: row.hash });
+    }
+    await runner.commitTransaction();
+    const last = events[events.length - 1];
+    return { format: 'ingotrace-ledger-export/1', exportedAt: new Date().toISOString(), chainHead: { seq: last?.seq ?? 0, hash: last?.hash ?? GENESIS_HASH }, events };
+  } finally {
+    await runner.release();
+  }
+}
+
+/** Checks an export file without a database; names the first event whose content no longer matches its hash. */
+export function verifyLedgerExport(bundle: unknown): { ok: boolean; summary: string; events: number } {
+  const candidate = bundle as Partial<LedgerExport>;
+  if (!candidate || candidate.format !== 'ingotrace-ledger-export/1' || !Array.isArray(candidate.events) || !candidate.chainHead) {
+    return { ok: false, events: 0, summary: 'not an Ingotrace ledger export (format ingotrace-ledger-export/1 expected)' };
+  }
+  for (const event of candidate.events) {
+    if (!event || typeof event.seq !== 'number' || !event.content || typeof event.content.seq !== 'number' || event.content.seq !== event.seq) {
+      return { ok: false, events: 0, summary: `export BROKEN at event ${event?.seq ?? '?'}: its sequence number does not match its content` };
+    }
+  }
+  const broken = firstBrokenEvent(
+    candidate.events.map((event) => ({ content: event.content, previousHash: event.previousHash, hash: event.hash })),
+    sha256Hex,
+  );
+  if (broken) return { ok: false, events: candidate.events.length, summary: `export BROKEN at event ${broken.seq}: ${broken.why}` };
+  const last = candidate.events[candidate.events.length - 1];
+  if ((last?.seq ?? 0) !== candidate.chainHead.seq || (last?.hash ?? GENESIS_HASH) !== candidate.chainHead.hash) {
+    return { ok: false, events: candidate.events.length, summary: `export BROKEN: its chain head does not match its last event` };
+  }
+  return { ok: true, events: candidate.events.length, summary: `export verified: ${candidate.events.length} events, chain head ${candidate.chainHead.seq} ${candidate.chainHead.hash}` };
+}

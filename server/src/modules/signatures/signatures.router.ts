@@ -1,0 +1,27 @@
+import { Router } from 'express';
+import { signatureIntentSchema, signatureListQuerySchema, signatureRequestSchema, type SignatureIntent, type SignatureRequest } from '@shared/schemas/signatures';
+import type { AppContext } from '../../app-context';
+import { currentPerson, originOf, requireSignedIn } from '../../middleware/access';
+import { validate } from '../../middleware/validate';
+import { listSignatures, prepareSignature, signRecord } from './signatures.service';
+
+/** Signing is open to every signed-in person; each record type then checks the signer's roles. */
+export function signaturesRouter(context: AppContext): Router {
+  const router = Router();
+  const dataSource = () => context.database.dataSource;
+
+  router.post('/signatures/preparations', requireSignedIn(), validate({ body: signatureIntentSchema }), async (req, res) => {
+    res.json(await prepareSignature(dataSource(), currentPerson(req)!, res.locals.valid.body as SignatureIntent));
+  });
+
+  router.post('/signatures', requireSignedIn(), validate({ body: signatureRequestSchema }), async (req, res) => {
+    res.status(201).json(await signRecord(dataSource(), currentPerson(req)!, res.locals.valid.body as SignatureRequest, originOf(req)));
+  });
+
+  router.get('/signatures', requireSignedIn(), validate({ query: signatureListQuerySchema }), async (_req, res) => {
+    const { recordType, recordId } = res.locals.valid.query as { recordType: string; recordId?: string };
+    res.json(await listSignatures(dataSource(), recordType, recordId));
+  });
+
+  return router;
+}

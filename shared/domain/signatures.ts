@@ -1,0 +1,54 @@
+import { canonicalJson } from './ledger-hash';
+
+/** What a signature means; each record type allows some of these. */
+export const signatureMeanings = ['reviewed', 'approved', 'approved-for-release', 'rejected', 'accepted', 'quarantined', 'closed', 'withdrawn'] as const;
+export type SignatureMeaning = (typeof signatureMeanings)[number];
+
+export const meaningLabels: Record<SignatureMeaning, string> = {
+  reviewed: 'Reviewed',
+  approved: 'Approved',
+  'approved-for-release': 'Approved for release',
+  rejected: 'Rejected',
+  accepted: 'Accepted',
+  quarantined: 'Quarantined',
+  closed: 'Closed',
+  withdrawn: 'Signature withdrawn',
+};
+
+/** Meanings that must carry a reason. */
+export const meaningsNeedingReason: readonly SignatureMeaning[] = ['rejected', 'quarantined', 'withdrawn'];
+
+/** The statement shown beside every signature (21 CFR 11.100(c) / 11.50 manifestation). */
+export const signatureStatement =
+  'By signing, I confirm that this electronic signature is the legally binding equivalent of my handwritten signature, that I have reviewed the content shown, and that the meaning stated is what I intend.';
+
+export type Sha256 = (text: string) => string;
+
+/** SHA-256 (hex) of the RFC 8785 canonical JSON of a record's content. */
+export function contentHash(content: unknown, sha256: Sha256): string {
+  return sha256(canonicalJson(content));
+}
+
+/** What a re-authentication is bound to: this record, this meaning, this exact content. */
+export function signatureBinding(input: { recordType: string; recordId: string; meaning: SignatureMeaning; contentHash: string }, sha256: Sha256): string {
+  return sha256(canonicalJson({ recordType: input.recordType, recordId: input.recordId, meaning: input.meaning, contentHash: input.contentHash }));
+}
+
+/** The signature's manifestation: printed name, date and time with zone, and meaning. */
+export function signatureManifestation(input: { signerName: string; signedAt: Date; meaning: SignatureMeaning; timeZone?: string }): string {
+  const timeZone = input.timeZone ?? 'UTC';
+  const parts = new Intl.DateTimeFormat('en-GB', {
+    timeZone,
+    year: 'numeric',
+    month: '2-digit',
+    day: '2-digit',
+    hour: '2-digit',
+    minute: '2-digit',
+    second: '2-digit',
+    hourCycle: 'h23',
+    timeZoneName: 'short',
+  }).formatToParts(input.signedAt);
+  const part = (type: Intl.DateTimeFormatPartTypes) => parts.find((item) => item.type === type)?.value ?? '';
+  const stamp = `${part('year')}-${part('month')}-${part('day')} ${part('hour')}:${part('minute')}:${part('second')} ${part('timeZoneName')}`;
+  return `${input.signerName} — ${meaningLabels[input.meaning]} — ${stamp}`;
+}

@@ -1,0 +1,47 @@
+import { expect, test } from '@playwright/test';
+import { signInAs } from './support/sign-in';
+
+test('an auditor filters the ledger, runs the verification and signs a review of the trail', async ({ page }) => {
+  await signInAs(page, 'kiw-0401', '/audit');
+  await expect(page.getByRole('heading', { level: 1, name: 'Audit ledger' })).toBeVisible();
+  const table = page.getByRole('table');
+  await expect(table.getByRole('row').nth(1)).toBeVisible();
+
+  // Filter by action and person.
+  await page.getByLabel('Action').click();
+  await page.getByRole('option', { name: 'session.signed-in' }).click();
+  await page.getByLabel('Who').fill('Priya');
+  await expect(table.getByRole('row').nth(1)).toContainText('session.signed-in');
+  await expect(table.getByRole('row').nth(1)).toContainText('Priya Raghunathan');
+  // Every row but the header is Priya's sign-in.
+  await expect(table.getByRole('row').filter({ hasNotText: 'Priya Raghunathan' })).toHaveCount(1);
+
+  // Open one event and follow the record's history.
+  await table.getByRole('row').nth(1).getByRole('button').first().click();
+  await expect(page.getByText('Previous hash')).toBeVisible();
+  await page.getByRole('button', { name: /^History of person \d+$/ }).click();
+  await expect(page.getByRole('heading', { name: /^History of person \d+, oldest first$/ })).toBeVisible();
+  await expect(table.getByRole('row').nth(1)).toContainText('person.provisioned');
+  await page.screenshot({ path: 'test-results/audit-history.png', fullPage: true });
+
+  // Verify the chain.
+  await page.getByRole('button', { name: 'Verify the chain' }).click();
+  await expect(page.getByTestId('verification-result')).toContainText(/ledger verified: \d+ events, \d+ signatures, chain head \d+ [0-9a-f]{64}/);
+
+  // Sign a review of the trail: the identity provider asks for the password again in a small window.
+  await page.getByRole('button', { name: 'Sign the review of this trail' }).click();
+  const dialog = page.getByRole('dialog', { name: 'Sign: Reviewed' });
+  await expect(dialog.getByTestId('signature-statement')).toContainText('legally binding equivalent of my handwritten signature');
+  await expect(dialog.getByText(/^Audit trail reviewed through event \d+$/)).toBeVisible();
+  await page.screenshot({ path: 'test-results/signing-dialog.png' });
+  const popupOpened = page.waitForEvent('popup');
+  await dialog.getByRole('button', { name: 'Confirm with password and sign' }).click();
+  const popup = await popupOpened;
+  await expect(popup.getByRole('heading', { name: 'Confirm it is you' })).toBeVisible();
+  await popup.getByLabel('Password').fill('priya-demo');
+  await popup.getByRole('button', { name: 'Sign in' }).click();
+  await expect(dialog.getByTestId('signature-manifestation')).toContainText(/Signed: Priya Raghunathan — Reviewed — \d{4}-\d{2}-\d{2} \d{2}:\d{2}:\d{2} UTC/, { timeout: 15_000 });
+  await dialog.getByRole('button', { name: 'Done' }).click();
+  await expect(page.getByRole('list', { name: 'Signatures' })).toContainText('Priya Raghunathan — Reviewed');
+  await page.screenshot({ path: 'test-results/audit-signed-review.png', fullPage: true });
+});
