@@ -162,4 +162,46 @@ describe('electronic signatures', () => {
     expect(wrongMeaning.status).toBe(422);
     expect(wrongMeaning.body.error.message).toBe('This audit-trail review cannot be signed as "approved"');
   });
+
+  it('when a signer withdraws their signature, then it is a new signature naming the old one; nobody else may withdraw it', async () => {
+    const { agent, csrf } = await signedIn('kiw-0301');
+    const approval = await prepare(agent, csrf, 'kiw-0601', 'approved');
+    const approved = await agent.post('/api/signatures').set('X-CSRF-Token', csrf).send({
+      recordType: 'test-person-card',
+      recordId: 'kiw-0601',
+      meaning: 'approved',
+      contentHash: approval.contentHash,
+      reauthenticationId: await reauthenticate(saml, agent, 'kiw-0301', approval.bindingHash),
+    });
+    expect(approved.status).toBe(201);
+
+    const other = await signedIn('kiw-0201');
+    const foreign = await prepare(other.agent, other.csrf, 'kiw-0601', 'withdrawn');
+    const refused = await other.agent.post('/api/signatures').set('X-CSRF-Token', other.csrf).send({
+      recordType: 'test-person-card',
+      recordId: 'kiw-0601',
+      meaning: 'withdrawn',
+      reason: 'not mine to withdraw',
+      withdrawsSignatureId: approved.body.id,
+      contentHash: foreign.contentHash,
+      reauthenticationId: await reauthenticate(saml, other.agent, 'kiw-0201', foreign.bindingHash),
+    });
+    expect(refused.status).toBe(422);
+    expect(refused.body.error.message).toBe('Only the signer can withdraw their signature');
+
+    const withdrawal = await prepare(agent, csrf, 'kiw-0601', 'withdrawn');
+    const withdrawn = await agent.post('/api/signatures').set('X-CSRF-Token', csrf).send({
+      recordType: 'test-person-card',
+      recordId: 'kiw-0601',
+      meaning: 'withdrawn',
+      reason: 'Approved the wrong card',
+      withdrawsSignatureId: approved.body.id,
+      contentHash: withdrawal.contentHash,
+      reauthenticationId: await reauthenticate(saml, agent, 'kiw-0301', withdrawal.bindingHash),
+    });
+    expect(withdrawn.status).toBe(201);
+    expect(withdrawn.body).toMatchObject({ meaning: 'withdrawn', withdrawsSignatureId: approved.body.id, reason: 'Approved the wrong card' });
+    const listed = (await agent.get('/api/signatures?recordType=test-person-card&recordId=kiw-0601')).body as Array<{ meaning: string }>;
+    expect(listed.map((item) => item.meaning)).toEqual(['approved', 'withdrawn']);
+  });
 });
