@@ -6,15 +6,8 @@ import { createDataSource } from '../db/connection-options';
 import { inTransaction } from '../db/transaction';
 import { appendLedgerEvent } from '../modules/ledger/ledger.repository';
 import { exportLedger, verifyLedger, verifyLedgerExport } from '../modules/ledger/ledger-verification';
+import { CliExit } from './cli-exit';
 
-export class CliExit extends Error {
-  constructor(
-    readonly exitCode: number,
-    message: string,
-  ) {
-    super(message);
-  }
-}
 
 async function withDatabase<T>(work: (dataSource: ReturnType<typeof createDataSource>) => Promise<T>): Promise<T> {
   loadDotEnv();

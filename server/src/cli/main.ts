@@ -1,6 +1,8 @@
 import { Command, CommanderError } from 'commander';
 import { productVersion } from '../version';
-import { auditCommand, CliExit } from './audit.command';
+import { auditCommand } from './audit.command';
+import { CliExit } from './cli-exit';
+import { evaluateCommand } from './evaluate.command';
 import { configCommand } from './config.command';
 
 /** Builds the ingotrace command-line program; later features add their commands here. */
@@ -12,6 +14,7 @@ export function buildProgram(): Command {
     .exitOverride();
   program.addCommand(configCommand());
   program.addCommand(auditCommand());
+  program.addCommand(evaluateCommand());
   return program;
 }
 

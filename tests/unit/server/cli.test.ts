@@ -42,3 +42,40 @@ describe('the ingotrace command', () => {
     expect(result.stdout).not.toContain('hunter2-secret');
   });
 });
+
+describe('ingotrace evaluate', () => {
+  const certificate = {
+    spec: 'ASTM F136',
+    grade: null,
+    form: 'bar',
+    sizeMm: '25',
+    chemistry: { Al: '6.1', V: '4.0', Fe: '0.18', O: '0.12', C: '0.02', N: '0.01', H: '0.004' },
+    mechanical: { utsMPa: '950', ysMPa: '880', elongationPct: '14', reductionOfAreaPct: '40' },
+  };
+  const evaluate = (input: string) => spawnSync(process.execPath, ['bin/ingotrace.mjs', 'evaluate'], { encoding: 'utf8', input });
+
+  it('when given a conforming certificate on stdin, then it prints the evaluation as JSON and exits 0', () => {
+    const result = evaluate(JSON.stringify(certificate));
+    expect(result.status).toBe(0);
+    const evaluation = JSON.parse(result.stdout);
+    expect(evaluation.verdict).toBe('conforms');
+    expect(evaluation.spec).toMatchObject({ id: 'ASTM F136', revision: 'L1' });
+    expect(evaluation.items[3]).toMatchObject({ item: 'O', reported: '0.12', rounded: '0.12', limit: '≤ 0.13', verdict: 'conforms' });
+  });
+
+  it('when the certificate does not conform, then it still exits 0 with that verdict (numbers may be JSON numbers)', () => {
+    const result = evaluate(JSON.stringify({ ...certificate, spec: 'astm f136', chemistry: { ...certificate.chemistry, O: 0.135 } }));
+    expect(result.status).toBe(0);
+    expect(JSON.parse(result.stdout).verdict).toBe('does-not-conform');
+  });
+
+  it('when the input is not JSON or names an unknown specification, then it exits non-zero with a clear message', () => {
+    const notJson = evaluate('{"spec": ');
+    expect(notJson.status).toBe(2);
+    expect(notJson.stderr).toMatch(/^ingotrace: the input is not JSON/);
+    const unknown = evaluate(JSON.stringify({ ...certificate, spec: 'ASTM F999' }));
+    expect(unknown.status).toBe(2);
+    expect(unknown.stderr).toBe('ingotrace: Unknown specification "ASTM F999"\n  spec: Not in the specification library\n');
+    expect(unknown.stdout).toBe('');
+  });
+});
