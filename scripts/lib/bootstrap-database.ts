@@ -1,6 +1,8 @@
 import type { AppConfig } from '../../server/src/config/env';
 import { accountsSql, appGrantsSql, type DatabaseAccounts } from '../../server/src/db/table-privileges';
 import { MariadbServer } from './mariadb';
+import { createDataSource } from '../../server/src/db/connection-options';
+import { syncSpecificationLibrary } from '../../server/src/modules/materials/specification-library.repository';
 import { runMigrations } from './migrate';
 import { log } from './run';
 
@@ -41,7 +43,20 @@ export async function bootstrapDatabase(config: AppConfig, options: BootstrapOpt
   const ran = await runMigrations(config);
   log(ran.length ? `migrations run: ${ran.join(', ')}` : 'database schema is current');
   await applyAppGrants(server, config);
+  await loadSpecificationLibrary(config);
   return server;
+}
+
+/** Stores the shipped specification revisions that the database does not hold yet. */
+async function loadSpecificationLibrary(config: AppConfig): Promise<void> {
+  const dataSource = createDataSource(config, 'app');
+  await dataSource.initialize();
+  try {
+    const added = await dataSource.transaction((manager) => syncSpecificationLibrary(manager));
+    if (added.length) log(`specification library: stored ${added.join(', ')}`);
+  } finally {
+    await dataSource.destroy();
+  }
 }
 
 export async function applyAppGrants(server: MariadbServer, config: AppConfig): Promise<void> {

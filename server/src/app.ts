@@ -16,6 +16,8 @@ import { auditRouter } from './modules/ledger/audit.router';
 import { ledgerReviewRecordType } from './modules/ledger/ledger-review.record';
 import { registerSignableRecordType } from './modules/signatures/signable-records';
 import { signaturesRouter } from './modules/signatures/signatures.router';
+import { heatRecordType } from './modules/materials/heat.record';
+import { materialsRouter } from './modules/materials/materials.router';
 
 export interface AppOptions {
   /** Folder with the built client (index.html and assets); omitted in API-only tests. */
@@ -27,6 +29,7 @@ export type IngotraceApp = Express & { shutdown(): Promise<void> };
 /** Builds the Express app; never listens (index.ts does, tests use supertest). */
 export function createApp(context: AppContext, options: AppOptions = {}): IngotraceApp {
   registerSignableRecordType(ledgerReviewRecordType);
+  registerSignableRecordType(heatRecordType);
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
@@ -76,6 +79,7 @@ export function createApp(context: AppContext, options: AppOptions = {}): Ingotr
   api.use(peopleRouter(context));
   api.use(auditRouter(context));
   api.use(signaturesRouter(context));
+  api.use(materialsRouter(context));
   api.use(apiNotFound);
   app.use('/api', api);
 

@@ -8,6 +8,9 @@ import type { Role } from './roles';
 export const actions = [
   'system.read',
   'materials.read',
+  'materials.write',
+  'materials.disposition',
+  'suppliers.manage',
   'lots.read',
   'release.read',
   'trace.read',
@@ -20,9 +23,9 @@ export type Action = (typeof actions)[number];
 
 /** Role → the actions it may perform. The one permission matrix, used by server and client. */
 export const permissionMatrix: Record<Role, readonly Action[]> = {
-  'manufacturing-engineer': ['system.read', 'materials.read', 'lots.read', 'release.read', 'trace.read'],
-  'qa-reviewer': ['system.read', 'materials.read', 'lots.read', 'release.read', 'trace.read', 'audit.read'],
-  'qa-approver': ['system.read', 'materials.read', 'lots.read', 'release.read', 'trace.read', 'audit.read'],
+  'manufacturing-engineer': ['system.read', 'materials.read', 'materials.write', 'lots.read', 'release.read', 'trace.read'],
+  'qa-reviewer': ['system.read', 'materials.read', 'materials.disposition', 'lots.read', 'release.read', 'trace.read', 'audit.read'],
+  'qa-approver': ['system.read', 'materials.read', 'suppliers.manage', 'lots.read', 'release.read', 'trace.read', 'audit.read'],
   // Read-only over everything.
   auditor: ['system.read', 'materials.read', 'lots.read', 'release.read', 'trace.read', 'audit.read', 'people.read'],
   'recall-coordinator': ['system.read', 'materials.read', 'lots.read', 'trace.read'],

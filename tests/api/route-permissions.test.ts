@@ -10,6 +10,9 @@ type Agent = Awaited<ReturnType<SamlTestDriver['signIn']>>['agent'];
 
 const sampleParameters: Record<string, string> = {
   personId: '1',
+  heatId: '1',
+  supplierId: '1',
+  documentId: '1',
   reauthenticationId: '0'.repeat(32),
 };
 

@@ -9,6 +9,10 @@ export const tableAccess: Record<string, TableAccess> = {
   migrations: 'read-only',
   audit_event: 'append-only',
   electronic_signature: 'append-only',
+  // Certificates and evaluations are evidence: stored once, never changed.
+  certificate_document: 'append-only',
+  heat_evaluation: 'append-only',
+  specification_revision: 'append-only',
 };
 
 const privilegesByAccess: Record<TableAccess, string> = {

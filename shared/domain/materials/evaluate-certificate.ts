@@ -1,4 +1,4 @@
-import { certificateInputSchema, type CertificateInput, type Evaluation, type EvaluationFlag, type EvaluationItem } from '../../schemas/evaluation';
+import { certificateInputSchema, type CertificateInput, type Evaluation, type EvaluationFlag, type EvaluationItem, type ParsedCertificateInput } from '../../schemas/evaluation';
 import { compareDecimal, decimalsOf, DecimalE29, roundE29, toDecimal } from './e29-rounding';
 import { findSpecification } from './library';
 import { readChemistryValue, readMechanicalValue, ReportedValueError } from './reported-value';
@@ -74,9 +74,13 @@ export function evaluateCertificate(raw: CertificateInput): Evaluation {
     const fields = Object.fromEntries(parsed.error.issues.map((issue) => [issue.path.join('.') || '(input)', issue.message]));
     throw new EvaluationInputError('The certificate input is not valid', fields);
   }
-  const input = parsed.data;
-  const specification = findSpecification(input.spec);
-  if (!specification) throw new EvaluationInputError(`Unknown specification "${input.spec}"`, { spec: 'Not in the specification library' });
+  const specification = findSpecification(parsed.data.spec);
+  if (!specification) throw new EvaluationInputError(`Unknown specification "${parsed.data.spec}"`, { spec: 'Not in the specification library' });
+  return evaluateAgainst(specification, parsed.data);
+}
+
+/** Evaluates parsed input against a given specification revision (e.g. the one a heat was bought to). */
+export function evaluateAgainst(specification: Specification, input: ParsedCertificateInput): Evaluation {
   const grade = chooseGrade(specification, input.grade === null || input.grade === undefined ? null : String(input.grade));
   const items: EvaluationItem[] = [];
   const flags: EvaluationFlag[] = [];

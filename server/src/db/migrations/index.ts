@@ -2,6 +2,7 @@ import { CreateOrganisation1764633600000 } from './1764633600000-create-organisa
 import { CreatePeopleAndSessions1764640800000 } from './1764640800000-create-people-and-sessions';
 import { CreateAuditLedger1764644400000 } from './1764644400000-create-audit-ledger';
 import { CreateElectronicSignatures1764648000000 } from './1764648000000-create-electronic-signatures';
+import { CreateMaterialIntake1764651600000 } from './1764651600000-create-material-intake';
 
 /** Every migration in the order it runs. Add new ones at the end. */
 export const migrations = [
@@ -9,4 +10,5 @@ export const migrations = [
   CreatePeopleAndSessions1764640800000,
   CreateAuditLedger1764644400000,
   CreateElectronicSignatures1764648000000,
+  CreateMaterialIntake1764651600000,
 ];

@@ -9,6 +9,8 @@ export interface SignableContent {
   content: unknown;
   /** People who created or changed the record. */
   authorIds: number[];
+  /** Facts a record type's own rules need (not part of the signed content). */
+  [fact: string]: unknown;
 }
 
 export interface SignableRecordType {
@@ -20,6 +22,8 @@ export interface SignableRecordType {
   load(manager: EntityManager, recordId: string): Promise<SignableContent | null>;
   /** Extra rules (separation of duties); returns the reason to refuse, or null. */
   refusal?(input: { signerId: number; meaning: SignatureMeaning; record: SignableContent; earlierSignatures: Array<{ signerId: number; meaning: SignatureMeaning }> }): string | null;
+  /** What the signature changes on the record (e.g. a heat's status), inside the signature's transaction. */
+  afterSign?(manager: EntityManager, input: { recordId: string; meaning: SignatureMeaning; signerId: number; signerName: string; reason: string | null; signatureLedgerSeq: number }): Promise<void>;
 }
 
 const registry = new Map<string, SignableRecordType>();

@@ -139,6 +139,7 @@ export async function signRecord(dataSource: DataSource, person: Person, request
       ledger_seq: String(ledger.seq),
     };
     const id = await insertSignature(manager, row);
+    await type.afterSign?.(manager, { recordId: request.recordId, meaning: request.meaning, signerId: person.id, signerName: person.name, reason, signatureLedgerSeq: ledger.seq });
     return toSignature({ ...row, id: String(id) }, hash);
   });
 }

@@ -1,0 +1,69 @@
+import type { HeatSummary } from '@shared/schemas/materials';
+import type { SignableRecordType } from '../signatures/signable-records';
+import { appendLedgerEvent } from '../ledger/ledger.repository';
+import * as heats from './heats.repository';
+
+const statusByMeaning = { accepted: 'accepted', rejected: 'rejected', quarantined: 'quarantined' } as const;
+
+/**
+ * A heat's disposition is an electronic signature by a QA reviewer on exactly this content: the
+ * heat, its supplier, its specification revision, its reported results, the evaluation and the
+ * certificates' hashes. Only a conforming heat from a supplier that is not disqualified can be
+ * accepted.
+ */
+export const heatRecordType: SignableRecordType = {
+  type: 'heat',
+  label: 'heat disposition',
+  action: 'materials.disposition',
+  meanings: ['accepted', 'rejected', 'quarantined'],
+  async load(manager, recordId) {
+    if (!/^\d{1,10}$/.test(recordId)) return null;
+    const heatId = Number(recordId);
+    const heat = await heats.findHeat(manager, heatId);
+    if (!heat) return null;
+    const evaluation = (await heats.latestEvaluation(manager, heatId))?.evaluation as { verdict?: string; items?: Array<{ item: string; rounded: string | null; verdict: string }> } | undefined;
+    const certificates = await heats.heatCertificates(manager, heatId);
+    return {
+      title: `Heat ${heat.heatNumber} from ${heat.supplier.name} (${heat.spec.id} ${heat.spec.revision}${heat.spec.grade ? ` grade ${heat.spec.grade}` : ''})`,
+      content: {
+        heat: heat.heatNumber,
+        supplier: heat.supplier.name,
+        specification: `${heat.spec.id} ${heat.spec.revision}${heat.spec.grade ? ` grade ${heat.spec.grade}` : ''}`,
+        form: `${heat.productForm} ${heat.sizeMm} mm ${heat.condition}`,
+        results: await heats.heatResults(manager, heatId),
+        verdict: evaluation?.verdict ?? 'not evaluated',
+        items: (evaluation?.items ?? []).map((item) => `${item.item}: ${item.rounded ?? '—'} ${item.verdict}`),
+        certificates: certificates.map((certificate) => certificate.sha256),
+      },
+      authorIds: [heat.receivedById, ...(await heats.evaluatorIds(manager, heatId))],
+      status: heat.status,
+      supplierApproval: heat.supplier.approval,
+      hasCertificate: certificates.length > 0,
+    };
+  },
+  refusal({ meaning, record }) {
+    const facts = record as unknown as { status: HeatSummary['status']; supplierApproval: string; hasCertificate: boolean; content: { verdict: string } };
+    if (facts.status === 'accepted' || facts.status === 'rejected') return `The heat is already ${facts.status}`;
+    if (meaning === 'accepted') {
+      if (facts.supplierApproval === 'disqualified') return 'Heats from a disqualified supplier cannot be accepted';
+      if (!facts.hasCertificate) return 'Attach the mill certificate before accepting the heat';
+      if (facts.content.verdict !== 'conforms') return `Only a conforming heat can be accepted; its evaluation says ${facts.content.verdict}`;
+    }
+    return null;
+  },
+  async afterSign(manager, { recordId, meaning, signerId, signerName, reason }) {
+    const heatId = Number(recordId);
+    const heat = await heats.findHeat(manager, heatId, true);
+    const status = statusByMeaning[meaning as keyof typeof statusByMeaning];
+    if (!heat || !status) return;
+    await heats.setHeatStatus(manager, heatId, status);
+    await appendLedgerEvent(manager, {
+      actor: { id: signerId, name: signerName, role: 'qa-reviewer' },
+      action: 'heat.dispositioned',
+      entity: { type: 'heat', id: heatId },
+      before: { status: heat.status },
+      after: { status },
+      reason,
+    });
+  },
+};

@@ -1,0 +1,91 @@
+import { Router } from 'express';
+import multer from 'multer';
+import { specificationLibrary } from '@shared/domain/materials/library';
+import { limitCaution } from '@shared/domain/materials/specification';
+import {
+  documentParamsSchema,
+  heatCreateSchema,
+  heatIdParamsSchema,
+  heatListQuerySchema,
+  heatResultsSchema,
+  supplierApprovalSchema,
+  supplierCreateSchema,
+  supplierIdParamsSchema,
+  type HeatCreate,
+  type HeatListQuery,
+  type HeatResults,
+} from '@shared/schemas/materials';
+import type { AppContext } from '../../app-context';
+import { AppError } from '../../errors';
+import { actorOf, currentPerson, originOf, requireAction } from '../../middleware/access';
+import { validate } from '../../middleware/validate';
+import { CERTIFICATE_MAX_BYTES } from './certificate-files';
+import { currentSpecifications } from './specification-library.repository';
+import { attachCertificate, certificateFile, heatDetail, listHeats, receiveHeat, recordResults } from './heats.service';
+import { changeSupplierApproval, createSupplier, listSuppliers } from './suppliers.service';
+
+const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: CERTIFICATE_MAX_BYTES, files: 1, fields: 5 } });
+
+/** Accepts one file in the "certificate" field; multer's own errors become the one error shape. */
+const certificateUpload = (req: Parameters<ReturnType<typeof upload.single>>[0], res: Parameters<ReturnType<typeof upload.single>>[1], next: (error?: unknown) => void) => {
+  upload.single('certificate')(req, res, (error: unknown) => {
+    if (!error) return next();
+    const code = (error as { code?: string }).code;
+    if (code === 'LIMIT_FILE_SIZE') return next(new AppError('PAYLOAD_TOO_LARGE', `The certificate is larger than ${CERTIFICATE_MAX_BYTES / 1024 / 1024} MB`, { certificate: 'Too large' }));
+    next(new AppError('VALIDATION_FAILED', `The upload was not accepted: ${(error as Error).message}`, { certificate: 'Send one file in the field "certificate"' }));
+  });
+};
+
+export function materialsRouter(context: AppContext): Router {
+  const router = Router();
+  const dataSource = () => context.database.dataSource;
+
+  router.get('/specifications', requireAction('materials.read'), async (_req, res) => {
+    const stored = await currentSpecifications(dataSource().manager);
+    res.json({ caution: limitCaution, specifications: stored.length ? stored : specificationLibrary });
+  });
+
+  router.get('/suppliers', requireAction('materials.read'), async (_req, res) => {
+    res.json(await listSuppliers(dataSource()));
+  });
+  router.post('/suppliers', requireAction('suppliers.manage'), validate({ body: supplierCreateSchema }), async (req, res) => {
+    res.status(201).json(await createSupplier(dataSource(), res.locals.valid.body, actorOf(req, 'suppliers.manage'), originOf(req)));
+  });
+  router.put('/suppliers/:supplierId/approval', requireAction('suppliers.manage'), validate({ params: supplierIdParamsSchema, body: supplierApprovalSchema }), async (req, res) => {
+    const { supplierId } = res.locals.valid.params as { supplierId: number };
+    res.json(await changeSupplierApproval(dataSource(), supplierId, res.locals.valid.body, actorOf(req, 'suppliers.manage'), originOf(req)));
+  });
+
+  router.get('/heats', requireAction('materials.read'), validate({ query: heatListQuerySchema }), async (_req, res) => {
+    res.json(await listHeats(dataSource(), res.locals.valid.query as HeatListQuery));
+  });
+  router.post('/heats', requireAction('materials.write'), validate({ body: heatCreateSchema }), async (req, res) => {
+    res.status(201).json(await receiveHeat(dataSource(), res.locals.valid.body as HeatCreate, currentPerson(req)!, actorOf(req, 'materials.write'), originOf(req)));
+  });
+  router.get('/heats/:heatId', requireAction('materials.read'), validate({ params: heatIdParamsSchema }), async (_req, res) => {
+    res.json(await heatDetail(dataSource(), (res.locals.valid.params as { heatId: number }).heatId));
+  });
+  router.put('/heats/:heatId/results', requireAction('materials.write'), validate({ params: heatIdParamsSchema, body: heatResultsSchema }), async (req, res) => {
+    const { heatId } = res.locals.valid.params as { heatId: number };
+    res.json(await recordResults(dataSource(), heatId, res.locals.valid.body as HeatResults, currentPerson(req)!, actorOf(req, 'materials.write'), originOf(req)));
+  });
+  router.post('/heats/:heatId/certificates', requireAction('materials.write'), validate({ params: heatIdParamsSchema }), certificateUpload, async (req, res) => {
+    const { heatId } = res.locals.valid.params as { heatId: number };
+    if (!req.file) throw new AppError('VALIDATION_FAILED', 'Choose a certificate file to upload', { certificate: 'No file' });
+    const originalName = Buffer.from(req.file.originalname, 'latin1').toString('utf8');
+    res.status(201).json(await attachCertificate(dataSource(), heatId, { bytes: req.file.buffer, originalName }, currentPerson(req)!, actorOf(req, 'materials.write'), originOf(req)));
+  });
+  router.get('/heats/:heatId/certificates/:documentId', requireAction('materials.read'), validate({ params: documentParamsSchema }), async (_req, res) => {
+    const { heatId, documentId } = res.locals.valid.params as { heatId: number; documentId: number };
+    const document = await certificateFile(dataSource(), heatId, documentId);
+    res
+      .type(document.mediaType)
+      .set('X-Content-Type-Options', 'nosniff')
+      .set('Content-Security-Policy', "default-src 'none'; sandbox")
+      .set('Digest', `sha-256=${Buffer.from(document.sha256, 'hex').toString('base64')}`)
+      .attachment(document.originalName)
+      .send(document.content);
+  });
+
+  return router;
+}

@@ -1,0 +1,89 @@
+import { z } from 'zod';
+import { productForms } from '../domain/materials/specification';
+import { decimalPattern } from '../domain/materials/e29-rounding';
+
+export const supplierApprovals = ['approved', 'conditional', 'disqualified'] as const;
+export const supplierSchema = z.object({ id: z.number().int(), name: z.string(), country: z.string(), approval: z.enum(supplierApprovals), heats: z.number().int() });
+export type Supplier = z.infer<typeof supplierSchema>;
+
+export const supplierCreateSchema = z.object({
+  name: z.string().trim().min(2, 'Give the supplier’s name').max(200),
+  country: z.string().trim().min(2, 'Give the country').max(100),
+  approval: z.enum(supplierApprovals),
+  reason: z.string().trim().min(3, 'Give a reason of at least 3 characters').max(1000),
+});
+export const supplierApprovalSchema = z.object({ approval: z.enum(supplierApprovals), reason: z.string().trim().min(3, 'Give a reason of at least 3 characters').max(1000) });
+
+const positiveDecimal = z
+  .union([z.string(), z.number()])
+  .transform((value) => String(value).trim())
+  .refine((value) => decimalPattern.test(value) && Number(value) > 0, 'Expected a positive decimal number such as 25.4');
+
+export const heatStatuses = ['received', 'accepted', 'rejected', 'quarantined'] as const;
+
+export const heatCreateSchema = z.object({
+  heatNumber: z
+    .string()
+    .trim()
+    .min(1, 'Give the heat number as marked on the certificate')
+    .max(60)
+    .regex(/^[A-Za-z0-9][A-Za-z0-9 ./-]*$/, 'Letters, digits, space, dot, slash and hyphen only'),
+  supplierId: z.number().int().positive('Choose a supplier'),
+  specId: z.string().trim().min(1, 'Choose a specification'),
+  grade: z.string().trim().max(20).nullable().default(null),
+  meltRoute: z.string().trim().min(2, 'Give the melt route, e.g. VAR ×2').max(100),
+  productForm: z.enum(productForms),
+  sizeMm: positiveDecimal,
+  condition: z.string().trim().min(2).max(40).default('annealed'),
+});
+export type HeatCreate = z.input<typeof heatCreateSchema>;
+
+export const heatSummarySchema = z.object({
+  id: z.number().int(),
+  heatNumber: z.string(),
+  supplier: z.object({ id: z.number().int(), name: z.string(), approval: z.enum(supplierApprovals) }),
+  spec: z.object({ id: z.string(), revision: z.string(), grade: z.string().nullable() }),
+  meltRoute: z.string(),
+  productForm: z.string(),
+  sizeMm: z.string(),
+  condition: z.string(),
+  status: z.enum(heatStatuses),
+  verdict: z.enum(['conforms', 'does-not-conform', 'incomplete']).nullable(),
+  receivedAt: z.string(),
+  receivedBy: z.string(),
+});
+export type HeatSummary = z.infer<typeof heatSummarySchema>;
+
+export const heatListQuerySchema = z.object({
+  search: z.string().trim().max(60).optional(),
+  status: z.enum(heatStatuses).optional(),
+  page: z.coerce.number().int().min(1).max(100_000).default(1),
+  pageSize: z.coerce.number().int().min(1).max(100).default(20),
+});
+export type HeatListQuery = z.infer<typeof heatListQuerySchema>;
+export const heatPageSchema = z.object({ items: z.array(heatSummarySchema), total: z.number().int(), page: z.number().int(), pageSize: z.number().int() });
+
+const reported = z.union([z.string().trim().min(1).max(40), z.number().finite()]);
+export const heatResultsSchema = z.object({
+  chemistry: z.record(z.string().regex(/^[A-Z][a-z]?$/, 'Element symbols such as O or Fe'), reported).default({}),
+  mechanical: z
+    .object({ utsMPa: reported.optional(), ysMPa: reported.optional(), elongationPct: reported.optional(), reductionOfAreaPct: reported.optional() })
+    .strict()
+    .default({}),
+  reason: z.string().trim().max(1000).optional(),
+});
+export type HeatResults = z.input<typeof heatResultsSchema>;
+
+export const certificateDocumentSchema = z.object({ id: z.number().int(), sha256: z.string(), mediaType: z.string(), sizeBytes: z.number().int(), originalName: z.string(), uploadedAt: z.string() });
+export type CertificateDocument = z.infer<typeof certificateDocumentSchema>;
+
+export const heatDetailSchema = heatSummarySchema.extend({
+  results: z.object({ chemistry: z.record(z.string(), z.string()), mechanical: z.record(z.string(), z.string()) }),
+  evaluation: z.unknown().nullable(),
+  certificates: z.array(certificateDocumentSchema),
+});
+export type HeatDetail = z.infer<typeof heatDetailSchema>;
+
+export const supplierIdParamsSchema = z.object({ supplierId: z.coerce.number().int().positive() });
+export const heatIdParamsSchema = z.object({ heatId: z.coerce.number().int().positive() });
+export const documentParamsSchema = heatIdParamsSchema.extend({ documentId: z.coerce.number().int().positive() });
