@@ -1,6 +1,7 @@
 import type { AppConfig } from '../../server/src/config/env';
 import { createDataSource } from '../../server/src/db/connection-options';
 import { isDatabaseEmpty, seedDemoScenario } from './demo-scenario';
+import { seedDemoMaterials } from './demo-materials';
 
 /** Seeds the demo scenario if the database holds no organisation yet; returns whether it seeded. */
 export async function seedIfEmpty(config: AppConfig): Promise<boolean> {
@@ -9,6 +10,7 @@ export async function seedIfEmpty(config: AppConfig): Promise<boolean> {
   try {
     if (!(await isDatabaseEmpty(dataSource))) return false;
     await seedDemoScenario(dataSource, config.roleMap);
+    await seedDemoMaterials(dataSource);
     return true;
   } finally {
     await dataSource.destroy();

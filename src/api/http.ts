@@ -33,6 +33,34 @@ interface RequestOptions {
   base?: string;
 }
 
+/** Sends one file as multipart form data (field name given), parses the reply with the shared schema. */
+export async function apiUpload<T>(path: string, field: string, file: File, schema: z.ZodType<T>): Promise<T> {
+  const body = new FormData();
+  body.append(field, file);
+  let response: Response;
+  try {
+    response = await fetch(`/api${path}`, { method: 'POST', body, headers: csrfToken ? { 'X-CSRF-Token': csrfToken, Accept: 'application/json' } : {}, credentials: 'same-origin' });
+  } catch (error) {
+    throw new ApiError(0, 'NETWORK', `The server could not be reached (${error instanceof Error ? error.message : 'network error'})`);
+  }
+  return readResponse(response, schema);
+}
+
+async function readResponse<T>(response: Response, schema: z.ZodType<T>): Promise<T> {
+  const payload: unknown = response.status === 204 ? undefined : await response.json().catch(() => undefined);
+  if (!response.ok) {
+    const parsed = errorResponseSchema.safeParse(payload);
+    if (parsed.success) {
+      const { code, message, fields } = parsed.data.error;
+      throw new ApiError(response.status, code, message, fields);
+    }
+    throw new ApiError(response.status, 'BAD_RESPONSE', `The server answered ${response.status} without an explanation`);
+  }
+  const result = schema.safeParse(payload);
+  if (!result.success) throw new ApiError(response.status, 'BAD_RESPONSE', 'The server sent data this screen does not understand');
+  return result.data;
+}
+
 /** The client's only way to the server: sends JSON, parses the reply with the shared schema. */
 export async function apiRequest<T>(path: string, schema: z.ZodType<T>, options: RequestOptions = {}): Promise<T> {
   const method = options.method ?? 'GET';
@@ -51,16 +79,5 @@ export async function apiRequest<T>(path: string, schema: z.ZodType<T>, options:
   } catch (error) {
     throw new ApiError(0, 'NETWORK', `The server could not be reached (${error instanceof Error ? error.message : 'network error'})`);
   }
-  const payload: unknown = response.status === 204 ? undefined : await response.json().catch(() => undefined);
-  if (!response.ok) {
-    const parsed = errorResponseSchema.safeParse(payload);
-    if (parsed.success) {
-      const { code, message, fields } = parsed.data.error;
-      throw new ApiError(response.status, code, message, fields);
-    }
-    throw new ApiError(response.status, 'BAD_RESPONSE', `The server answered ${response.status} without an explanation`);
-  }
-  const result = schema.safeParse(payload);
-  if (!result.success) throw new ApiError(response.status, 'BAD_RESPONSE', 'The server sent data this screen does not understand');
-  return result.data;
+  return readResponse(response, schema);
 }

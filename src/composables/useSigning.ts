@@ -35,12 +35,15 @@ export function useSigning() {
 
   async function waitForReauthentication(id: string, popup: Window | null): Promise<void> {
     const deadline = Date.now() + GIVE_UP_MS;
+    let closedChecks = 0;
     while (Date.now() < deadline) {
       await new Promise((done) => setTimeout(done, POLL_MS));
       const status = await reauthenticationStatus(id);
       if (status.status === 'confirmed') return;
       if (status.status !== 'pending') throw new Error(status.reason ?? `The re-authentication is ${status.status}`);
-      if (popup && popup.closed) throw new Error('The sign-in window was closed before you confirmed your password');
+      // The window closes itself once the identity provider has answered; give the answer a
+      // moment to be recorded before concluding that the person closed it.
+      if (popup && popup.closed && ++closedChecks > 3) throw new Error('The sign-in window was closed before you confirmed your password');
     }
     throw new Error('No password was entered in time; sign again');
   }

@@ -4,11 +4,12 @@ import { rolesAllow } from '@shared/auth/permissions';
 import { productAreas, type AreaRouteName } from '../navigation/areas';
 import { meQuery } from '../api/session';
 
-export type RouteName = 'overview' | AreaRouteName | 'sign-in' | 'signed-out' | 'reauthentication-complete' | 'not-permitted' | 'not-found';
+export type RouteName = 'overview' | AreaRouteName | 'heat' | 'sign-in' | 'signed-out' | 'reauthentication-complete' | 'not-permitted' | 'not-found';
 
 /** Areas that are built; the rest show what they will hold. */
 const areaViews: Partial<Record<AreaRouteName, () => Promise<unknown>>> = {
   administration: () => import('../views/PeopleAdministrationView.vue'),
+  heats: () => import('../views/HeatsView.vue'),
   audit: () => import('../views/AuditLedgerView.vue'),
 };
 
@@ -22,6 +23,12 @@ const areaRoutes: RouteRecordRaw[] = productAreas.map((area) => ({
 export const routes: RouteRecordRaw[] = [
   { path: '/', name: 'overview', component: () => import('../views/OverviewView.vue'), meta: { title: 'Overview' } },
   ...areaRoutes,
+  {
+    path: '/heats/:heatId(\\d+)',
+    name: 'heat',
+    component: () => import('../views/HeatDetailView.vue'),
+    meta: { title: 'Heat', area: 'heats', action: 'materials.read' },
+  },
   { path: '/sign-in', name: 'sign-in', component: () => import('../views/SignInView.vue'), meta: { title: 'Sign in', public: true } },
   { path: '/signed-out', name: 'signed-out', component: () => import('../views/SignedOutView.vue'), meta: { title: 'Signed out', public: true } },
   {

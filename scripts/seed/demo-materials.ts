@@ -1,0 +1,99 @@
+import type { DataSource } from 'typeorm';
+import { findPersonBySubject } from '../../server/src/modules/people/people.repository';
+import { attachCertificate, receiveHeat, recordResults } from '../../server/src/modules/materials/heats.service';
+import { createSupplier } from '../../server/src/modules/materials/suppliers.service';
+
+/** Invented mills; none is a real firm. */
+const mills = [
+  { name: 'Nordvik Titanium Mill', country: 'Norway', approval: 'approved' as const },
+  { name: 'Castellane Special Metals', country: 'France', approval: 'approved' as const },
+  { name: 'Oriel Bar & Wire', country: 'United Kingdom', approval: 'conditional' as const },
+];
+
+/** A small PDF whose text names the heat, standing in for the mill's scanned certificate. */
+function demoCertificate(heatNumber: string, mill: string): Buffer {
+  const text = `Inspection certificate 3.1 - ${mill} - heat ${heatNumber} (demo document)`;
+  const stream = `BT /F1 11 Tf 40 780 Td (${text.replace(/[()\\]/g, '')}) Tj ET`;
+  const objects = [
+    '<< /Type /Catalog /Pages 2 0 R >>',
+    '<< /Type /Pages /Kids [3 0 R] /Count 1 >>',
+    '<< /Type /Page /Parent 2 0 R /MediaBox [0 0 595 842] /Contents 4 0 R /Resources << /Font << /F1 5 0 R >> >> >>',
+    `<< /Length ${stream.length} >>\nstream\n${stream}\nendstream`,
+    '<< /Type /Font /Subtype /Type1 /BaseFont /Helvetica >>',
+  ];
+  let body = '%PDF-1.4\n';
+  const offsets: number[] = [];
+  objects.forEach((object, index) => {
+    offsets.push(body.length);
+    body += `${index + 1} 0 obj\n${object}\nendobj\n`;
+  });
+  const xref = body.length;
+  body += `xref\n0 ${objects.length + 1}\n0000000000 65535 f \n${offsets.map((offset) => `${String(offset).padStart(10, '0')} 00000 n \n`).join('')}`;
+  body += `trailer\n<< /Size ${objects.length + 1} /Root 1 0 R >>\nstartxref\n${xref}\n%%EOF\n`;
+  return Buffer.from(body, 'latin1');
+}
+
+interface DemoHeat {
+  heatNumber: string;
+  mill: number;
+  specId: string;
+  grade?: string;
+  sizeMm: string;
+  chemistry: Record<string, string>;
+  mechanical: Record<string, string>;
+}
+
+const f136 = (heatNumber: string, mill: number, o: string, fe: string, h: string, uts: string): DemoHeat => ({
+  heatNumber,
+  mill,
+  specId: 'ASTM F136',
+  sizeMm: '25.4',
+  chemistry: { Al: '6.05', V: '4.02', Fe: fe, O: o, C: '0.02', N: '0.01', H: h },
+  mechanical: { utsMPa: uts, ysMPa: String(Number(uts) - 70), elongationPct: '14', reductionOfAreaPct: '41' },
+});
+
+const heats: DemoHeat[] = [
+  f136('NV-24-1107', 0, '0.11', '0.16', '0.0040', '948'),
+  f136('NV-24-1162', 0, '0.10', '0.18', '45 ppm', '955'),
+  f136('NV-25-0214', 0, '0.12', '0.15', '0.0050', '940'),
+  f136('NV-25-0388', 0, '0.15', '0.17', '0.0045', '962'), // oxygen over the ELI limit: does not conform
+  f136('CS-7781', 1, '0.11', '0.20', '0.0030', '930'),
+  f136('CS-7790', 1, '0.12', '0.21', '0.0035', '936'),
+  f136('CS-7802', 1, '0.12', '0.21', '0.0035', '936'), // the very same results as CS-7790: a copied certificate?
+  f136('OB-55120', 2, '0.11', '0.14', '0.0060', '925'),
+  { heatNumber: 'NV-25-0530', mill: 0, specId: 'ASTM F67', grade: '4', sizeMm: '12.7', chemistry: { N: '0.01', C: '0.01', H: '0.003', Fe: '0.30', O: '0.35' }, mechanical: { utsMPa: '640', ysMPa: '540', elongationPct: '20', reductionOfAreaPct: '38' } },
+  { heatNumber: 'CS-7850', mill: 1, specId: 'ASTM F67', grade: '2', sizeMm: '8', chemistry: { N: '0.01', C: '0.01', H: '0.002', Fe: '0.12', O: '0.16' }, mechanical: { utsMPa: '420', ysMPa: '330', elongationPct: '28', reductionOfAreaPct: '45' } },
+  {
+    heatNumber: 'OB-55310',
+    mill: 2,
+    specId: 'ASTM F138',
+    sizeMm: '16',
+    chemistry: { C: '0.018', Mn: '1.70', P: '0.018', S: '0.001', Si: '0.40', Cr: '17.60', Ni: '14.30', Mo: '2.60', N: '0.06', Cu: '0.10' },
+    mechanical: { utsMPa: '540', ysMPa: '250', elongationPct: '45' },
+  },
+];
+
+/** Suppliers and heats with certificates and evaluated results, entered as the demo engineer would. */
+export async function seedDemoMaterials(dataSource: DataSource): Promise<void> {
+  const engineer = await findPersonBySubject(dataSource.manager, 'kiw-0101');
+  const approver = await findPersonBySubject(dataSource.manager, 'kiw-0301');
+  if (!engineer || !approver) throw new Error('seed the demo people first');
+  const origin = { requestId: 'demo-seed', clientAddress: null };
+  const engineerActor = { id: engineer.id, name: engineer.name, role: 'manufacturing-engineer' };
+  const supplierIds: number[] = [];
+  for (const mill of mills) {
+    const supplier = await createSupplier(dataSource, { ...mill, reason: 'demo scenario: supplier qualification on file' }, { id: approver.id, name: approver.name, role: 'qa-approver' }, origin);
+    supplierIds.push(supplier.id);
+  }
+  for (const heat of heats) {
+    const received = await receiveHeat(
+      dataSource,
+      { heatNumber: heat.heatNumber, supplierId: supplierIds[heat.mill]!, specId: heat.specId, grade: heat.grade ?? null, meltRoute: heat.specId === 'ASTM F138' ? 'VIM + ESR' : 'VAR ×3', productForm: 'bar', sizeMm: heat.sizeMm },
+      engineer,
+      engineerActor,
+      origin,
+    );
+    await attachCertificate(dataSource, received.id, { bytes: demoCertificate(heat.heatNumber, mills[heat.mill]!.name), originalName: `certificate-${heat.heatNumber}.pdf` }, engineer, engineerActor, origin);
+    await recordResults(dataSource, received.id, { chemistry: heat.chemistry, mechanical: heat.mechanical }, engineer, engineerActor, origin);
+  }
+}

@@ -1,0 +1,38 @@
+import { keepPreviousData, queryOptions } from '@tanstack/vue-query';
+import { z } from 'zod';
+import type { Specification } from '@shared/domain/materials/specification';
+import { heatDetailSchema, heatPageSchema, heatSummarySchema, supplierSchema, type HeatCreate, type HeatListQuery, type HeatResults } from '@shared/schemas/materials';
+import { apiRequest, apiUpload } from './http';
+
+export const materialKeys = {
+  all: ['materials'] as const,
+  heats: (query: HeatListQuery) => [...materialKeys.all, 'heats', query] as const,
+  heat: (id: number) => [...materialKeys.all, 'heat', id] as const,
+  suppliers: () => [...materialKeys.all, 'suppliers'] as const,
+  specifications: () => [...materialKeys.all, 'specifications'] as const,
+};
+
+export const heatsQuery = (query: HeatListQuery) =>
+  queryOptions({
+    queryKey: materialKeys.heats(query),
+    queryFn: ({ signal }) => {
+      const params = new URLSearchParams({ page: String(query.page), pageSize: String(query.pageSize) });
+      if (query.search) params.set('search', query.search);
+      if (query.status) params.set('status', query.status);
+      return apiRequest(`/heats?${params}`, heatPageSchema, { signal });
+    },
+    placeholderData: keepPreviousData,
+  });
+
+export const heatQuery = (id: number) => queryOptions({ queryKey: materialKeys.heat(id), queryFn: ({ signal }) => apiRequest(`/heats/${id}`, heatDetailSchema, { signal }) });
+
+export const suppliersQuery = () => queryOptions({ queryKey: materialKeys.suppliers(), queryFn: ({ signal }) => apiRequest('/suppliers', z.array(supplierSchema), { signal }) });
+
+const specificationsSchema = z.object({ caution: z.string(), specifications: z.array(z.custom<Specification>((value) => typeof value === 'object' && value !== null && 'id' in value)) });
+export const specificationsQuery = () =>
+  queryOptions({ queryKey: materialKeys.specifications(), queryFn: ({ signal }) => apiRequest('/specifications', specificationsSchema, { signal }), staleTime: 5 * 60_000 });
+
+export const receiveHeat = (heat: HeatCreate) => apiRequest('/heats', heatSummarySchema, { method: 'POST', body: heat });
+export const recordHeatResults = (heatId: number, results: HeatResults) => apiRequest(`/heats/${heatId}/results`, heatDetailSchema, { method: 'PUT', body: results });
+const attachedSchema = z.object({ documentId: z.number(), sha256: z.string(), storedNow: z.boolean(), alsoOnHeats: z.array(z.string()) });
+export const uploadCertificate = (heatId: number, file: File) => apiUpload(`/heats/${heatId}/certificates`, 'certificate', file, attachedSchema);

@@ -1,0 +1,30 @@
+import { computed, type Ref } from 'vue';
+import { useMutation, useQuery, useQueryClient } from '@tanstack/vue-query';
+import type { HeatCreate, HeatListQuery, HeatResults } from '@shared/schemas/materials';
+import { heatQuery, heatsQuery, materialKeys, receiveHeat, recordHeatResults, specificationsQuery, suppliersQuery, uploadCertificate } from '../api/materials';
+
+export const useHeats = (query: Ref<HeatListQuery>) => useQuery(computed(() => heatsQuery(query.value)));
+export const useHeat = (id: Ref<number>) => useQuery(computed(() => heatQuery(id.value)));
+export const useSuppliers = () => useQuery(suppliersQuery());
+export const useSpecifications = () => useQuery(specificationsQuery());
+
+export function useReceiveHeat() {
+  const queryClient = useQueryClient();
+  return useMutation({ mutationFn: (heat: HeatCreate) => receiveHeat(heat), onSuccess: () => queryClient.invalidateQueries({ queryKey: materialKeys.all }) });
+}
+
+export function useRecordHeatResults(heatId: Ref<number>) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (results: HeatResults) => recordHeatResults(heatId.value, results),
+    onSuccess: (detail) => {
+      queryClient.setQueryData(materialKeys.heat(heatId.value), detail);
+      return queryClient.invalidateQueries({ queryKey: [...materialKeys.all, 'heats'] });
+    },
+  });
+}
+
+export function useUploadCertificate(heatId: Ref<number>) {
+  const queryClient = useQueryClient();
+  return useMutation({ mutationFn: (file: File) => uploadCertificate(heatId.value, file), onSuccess: () => queryClient.invalidateQueries({ queryKey: materialKeys.heat(heatId.value) }) });
+}
