@@ -81,6 +81,8 @@ export const heatDetailSchema = heatSummarySchema.extend({
   results: z.object({ chemistry: z.record(z.string(), z.string()), mechanical: z.record(z.string(), z.string()) }),
   evaluation: z.unknown().nullable(),
   certificates: z.array(certificateDocumentSchema),
+  /** Cross-certificate checks: other heats with exactly the same results or the very same document. */
+  crossChecks: z.object({ identicalResultsOn: z.array(z.string()), sameDocumentOn: z.array(z.string()) }),
 });
 export type HeatDetail = z.infer<typeof heatDetailSchema>;
 

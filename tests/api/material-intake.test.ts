@@ -138,6 +138,10 @@ describe('material intake: suppliers, heats, certificates, results, disposition'
     const noCertificate = await receive('TA-90002', conforming.chemistry);
     expect((await tryAccept(noCertificate)).body.error.message).toBe('Attach the mill certificate before accepting the heat');
     const highOxygen = await receive('TA-90003', { ...conforming.chemistry, O: '0.16' });
+    // TA-90002 reported exactly what TA-90001 did: the heat page says so.
+    const copied = heatDetailSchema.parse((await reviewer.agent.get(`/api/heats/${noCertificate}`)).body);
+    expect(copied.crossChecks.identicalResultsOn).toContain('TA-90001');
+    expect(heatDetailSchema.parse((await reviewer.agent.get(`/api/heats/${highOxygen}`)).body).crossChecks.identicalResultsOn).not.toContain('TA-90001');
     await engineer.agent.post(`/api/heats/${highOxygen}/certificates`).set('X-CSRF-Token', engineer.csrf).attach('certificate', pdf('TA-90003'), 'c.pdf');
     expect((await tryAccept(highOxygen)).body.error.message).toBe('Only a conforming heat can be accepted; its evaluation says does-not-conform');
 

@@ -168,3 +168,18 @@ export async function otherHeatsWithDocument(manager: EntityManager, heatId: num
   );
   return rows.map((row) => row.heat_number);
 }
+
+/** Other heats of the same specification whose reported results are exactly the same (a sign of a copied certificate). */
+export async function heatsWithIdenticalResults(manager: EntityManager, heatId: number): Promise<string[]> {
+  const rows: Array<{ heat_number: string }> = await manager.query(
+    `SELECT other.heat_number FROM heat this_heat
+       JOIN heat other ON other.id <> this_heat.id AND other.spec_id = this_heat.spec_id
+     WHERE this_heat.id = ?
+       AND (SELECT COUNT(*) FROM heat_result r WHERE r.heat_id = this_heat.id) > 0
+       AND (SELECT GROUP_CONCAT(CONCAT(kind, ':', item, '=', value) ORDER BY kind, item SEPARATOR ';') FROM heat_result WHERE heat_id = this_heat.id)
+         = (SELECT GROUP_CONCAT(CONCAT(kind, ':', item, '=', value) ORDER BY kind, item SEPARATOR ';') FROM heat_result WHERE heat_id = other.id)
+     ORDER BY other.heat_number`,
+    [heatId],
+  );
+  return rows.map((row) => row.heat_number);
+}

@@ -23,7 +23,16 @@ export async function heatDetail(dataSource: DataSource, id: number): Promise<He
   const heat = await heats.findHeat(manager, id);
   if (!heat) throw AppError.notFound('Heat');
   const { receivedById: _receivedBy, ...summary } = heat;
-  return { ...summary, results: await heats.heatResults(manager, id), evaluation: (await heats.latestEvaluation(manager, id))?.evaluation ?? null, certificates: await heats.heatCertificates(manager, id) };
+  const certificates = await heats.heatCertificates(manager, id);
+  const sameDocumentOn = new Set<string>();
+  for (const certificate of certificates) for (const heatNumber of await heats.otherHeatsWithDocument(manager, id, certificate.id)) sameDocumentOn.add(heatNumber);
+  return {
+    ...summary,
+    results: await heats.heatResults(manager, id),
+    evaluation: (await heats.latestEvaluation(manager, id))?.evaluation ?? null,
+    certificates,
+    crossChecks: { identicalResultsOn: await heats.heatsWithIdenticalResults(manager, id), sameDocumentOn: [...sameDocumentOn].sort() },
+  };
 }
 
 export async function receiveHeat(dataSource: DataSource, raw: HeatCreate, person: Person, actor: Actor, origin: RequestOrigin): Promise<HeatSummary> {
