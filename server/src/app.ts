@@ -18,6 +18,7 @@ import { registerSignableRecordType } from './modules/signatures/signable-record
 import { signaturesRouter } from './modules/signatures/signatures.router';
 import { heatRecordType } from './modules/materials/heat.record';
 import { materialsRouter } from './modules/materials/materials.router';
+import { barStockRouter } from './modules/materials/bar-stock.router';
 
 export interface AppOptions {
   /** Folder with the built client (index.html and assets); omitted in API-only tests. */
@@ -80,6 +81,7 @@ export function createApp(context: AppContext, options: AppOptions = {}): Ingotr
   api.use(auditRouter(context));
   api.use(signaturesRouter(context));
   api.use(materialsRouter(context));
+  api.use(barStockRouter(context));
   api.use(apiNotFound);
   app.use('/api', api);
 

@@ -89,3 +89,52 @@ export type HeatDetail = z.infer<typeof heatDetailSchema>;
 export const supplierIdParamsSchema = z.object({ supplierId: z.coerce.number().int().positive() });
 export const heatIdParamsSchema = z.object({ heatId: z.coerce.number().int().positive() });
 export const documentParamsSchema = heatIdParamsSchema.extend({ documentId: z.coerce.number().int().positive() });
+
+const tagSchema = z
+  .string()
+  .trim()
+  .toUpperCase()
+  .regex(/^[A-Z0-9][A-Z0-9-]{2,39}$/, 'A tag is 3–40 letters, digits and hyphens, e.g. NV-1107-01');
+
+export const barPieceSchema = z.object({
+  id: z.number().int(),
+  tag: z.string(),
+  heat: z.object({ id: z.number().int(), heatNumber: z.string(), status: z.enum(heatStatuses), specId: z.string(), grade: z.string().nullable() }),
+  parentTag: z.string().nullable(),
+  childTags: z.array(z.string()),
+  diameterMm: z.string(),
+  lengthMm: z.string(),
+  remainingMm: z.string(),
+  massKg: z.string().nullable(),
+  location: z.string(),
+  status: z.enum(['in-stock', 'cut']),
+  createdAt: z.string(),
+  createdBy: z.string(),
+});
+export type BarPiece = z.infer<typeof barPieceSchema>;
+
+export const barReceiptSchema = z.object({
+  heatId: z.number().int().positive('Choose the heat'),
+  tag: tagSchema,
+  diameterMm: positiveDecimal,
+  lengthMm: positiveDecimal,
+  massKg: positiveDecimal.nullable().default(null),
+  location: z.string().trim().min(1, 'Where is the bar stored?').max(100),
+});
+export type BarReceipt = z.input<typeof barReceiptSchema>;
+
+export const barCutSchema = z.object({
+  pieces: z.array(z.object({ lengthMm: positiveDecimal, location: z.string().trim().max(100).optional() })).min(2, 'A cut makes at least two pieces').max(50),
+});
+export type BarCut = z.input<typeof barCutSchema>;
+
+export const barListQuerySchema = z.object({
+  heatId: z.coerce.number().int().positive().optional(),
+  search: z.string().trim().max(40).optional(),
+  inStockOnly: z.enum(['true', 'false']).default('false'),
+  page: z.coerce.number().int().min(1).max(100_000).default(1),
+  pageSize: z.coerce.number().int().min(1).max(100).default(20),
+});
+export type BarListQuery = z.infer<typeof barListQuerySchema>;
+export const barPageSchema = z.object({ items: z.array(barPieceSchema), total: z.number().int(), page: z.number().int(), pageSize: z.number().int() });
+export const barPieceParamsSchema = z.object({ pieceId: z.coerce.number().int().positive() });

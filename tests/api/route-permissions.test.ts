@@ -13,6 +13,7 @@ const sampleParameters: Record<string, string> = {
   heatId: '1',
   supplierId: '1',
   documentId: '1',
+  pieceId: '1',
   reauthenticationId: '0'.repeat(32),
 };
 

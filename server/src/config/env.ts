@@ -43,6 +43,8 @@ export const configSchema = z.object({
   SAML_CLOCK_SKEW_MS: z.coerce.number().int().min(0).max(300_000).default(5_000),
   SAML_GROUP_ATTRIBUTE: z.string().min(1).default('groups'),
   SAML_ROLE_MAP: z.string().optional(),
+  // Saw kerf allowed per cut when a bar piece is cut into child pieces, in mm.
+  BAR_KERF_ALLOWANCE_MM: z.string().regex(/^\d+(\.\d+)?$/, 'a length in mm such as 3').default('3'),
   SESSION_SECRET: z.string().min(16).default('local-session-secret-change-me'),
   SESSION_IDLE_MINUTES: z.coerce.number().min(0.05).max(24 * 60).default(15),
   SESSION_ABSOLUTE_HOURS: z.coerce.number().min(1).max(72).default(12),

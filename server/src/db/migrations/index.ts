@@ -3,6 +3,7 @@ import { CreatePeopleAndSessions1764640800000 } from './1764640800000-create-peo
 import { CreateAuditLedger1764644400000 } from './1764644400000-create-audit-ledger';
 import { CreateElectronicSignatures1764648000000 } from './1764648000000-create-electronic-signatures';
 import { CreateMaterialIntake1764651600000 } from './1764651600000-create-material-intake';
+import { CreateBarStock1764655200000 } from './1764655200000-create-bar-stock';
 
 /** Every migration in the order it runs. Add new ones at the end. */
 export const migrations = [
@@ -11,4 +12,5 @@ export const migrations = [
   CreateAuditLedger1764644400000,
   CreateElectronicSignatures1764648000000,
   CreateMaterialIntake1764651600000,
+  CreateBarStock1764655200000,
 ];
