@@ -4,12 +4,13 @@ import { rolesAllow } from '@shared/auth/permissions';
 import { productAreas, type AreaRouteName } from '../navigation/areas';
 import { meQuery } from '../api/session';
 
-export type RouteName = 'overview' | AreaRouteName | 'heat' | 'sign-in' | 'signed-out' | 'reauthentication-complete' | 'not-permitted' | 'not-found';
+export type RouteName = 'overview' | AreaRouteName | 'heat' | 'bar-piece' | 'sign-in' | 'signed-out' | 'reauthentication-complete' | 'not-permitted' | 'not-found';
 
 /** Areas that are built; the rest show what they will hold. */
 const areaViews: Partial<Record<AreaRouteName, () => Promise<unknown>>> = {
   administration: () => import('../views/PeopleAdministrationView.vue'),
   heats: () => import('../views/HeatsView.vue'),
+  'bar-stock': () => import('../views/BarStockView.vue'),
   audit: () => import('../views/AuditLedgerView.vue'),
 };
 
@@ -28,6 +29,12 @@ export const routes: RouteRecordRaw[] = [
     name: 'heat',
     component: () => import('../views/HeatDetailView.vue'),
     meta: { title: 'Heat', area: 'heats', action: 'materials.read' },
+  },
+  {
+    path: '/bar-stock/:pieceId(\\d+)',
+    name: 'bar-piece',
+    component: () => import('../views/BarPieceView.vue'),
+    meta: { title: 'Bar piece', area: 'bar-stock', action: 'materials.read' },
   },
   { path: '/sign-in', name: 'sign-in', component: () => import('../views/SignInView.vue'), meta: { title: 'Sign in', public: true } },
   { path: '/signed-out', name: 'signed-out', component: () => import('../views/SignedOutView.vue'), meta: { title: 'Signed out', public: true } },

@@ -2,7 +2,6 @@ import { expect, test } from '@playwright/test';
 import { signInAs } from './support/sign-in';
 
 const areas = [
-  { link: 'Bar stock', path: '/bar-stock', caution: false },
   { link: 'Production lots', path: '/lots', caution: true },
   { link: 'Process runs', path: '/process-runs', caution: false },
   { link: 'Release desk', path: '/release', caution: true },
@@ -49,8 +48,8 @@ test('the navigation works from the keyboard', async ({ page }) => {
   await expect(page.getByRole('heading', { level: 1, name: 'Overview' })).toBeVisible();
   await page.keyboard.press('Tab');
   await expect(page.getByRole('link', { name: 'Skip to content' })).toBeFocused();
-  const barStock = page.getByRole('navigation', { name: 'Product areas' }).getByRole('link', { name: 'Bar stock' });
-  await barStock.focus();
+  const lots = page.getByRole('navigation', { name: 'Product areas' }).getByRole('link', { name: 'Production lots' });
+  await lots.focus();
   await page.keyboard.press('Enter');
-  await expect(page).toHaveURL('/bar-stock');
+  await expect(page).toHaveURL('/lots');
 });

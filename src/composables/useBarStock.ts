@@ -1,0 +1,17 @@
+import { computed, type Ref } from 'vue';
+import { useMutation, useQuery, useQueryClient } from '@tanstack/vue-query';
+import type { BarCut, BarListQuery, BarReceipt } from '@shared/schemas/materials';
+import { barKeys, barPieceQuery, barPiecesQuery, cutBar, receiveBar } from '../api/bar-stock';
+
+export const useBarPieces = (query: Ref<BarListQuery>) => useQuery(computed(() => barPiecesQuery(query.value)));
+export const useBarPiece = (id: Ref<number>) => useQuery(computed(() => barPieceQuery(id.value)));
+
+export function useReceiveBar() {
+  const queryClient = useQueryClient();
+  return useMutation({ mutationFn: (receipt: BarReceipt) => receiveBar(receipt), onSuccess: () => queryClient.invalidateQueries({ queryKey: barKeys.all }) });
+}
+
+export function useCutBar(id: Ref<number>) {
+  const queryClient = useQueryClient();
+  return useMutation({ mutationFn: (cut: BarCut) => cutBar(id.value, cut), onSuccess: () => queryClient.invalidateQueries({ queryKey: barKeys.all }) });
+}

@@ -1,0 +1,33 @@
+import { expect, test } from '@playwright/test';
+import { signInAs } from './support/sign-in';
+
+test('an engineer receives a bar against a heat, cuts it, and prints its tag with a QR code', async ({ page }) => {
+  await signInAs(page, 'kiw-0101', '/bar-stock');
+  await expect(page.getByRole('heading', { level: 1, name: 'Bar stock' })).toBeVisible();
+  await page.getByRole('button', { name: 'Receive bar' }).click();
+  const dialog = page.getByRole('dialog', { name: 'Receive bar' });
+  await dialog.getByLabel('Heat', { exact: true }).click();
+  await page.getByRole('option', { name: /NV-24-1162/ }).click();
+  await dialog.getByLabel('Tag (scan or type)').fill('E2E-BAR-01');
+  await dialog.getByLabel('Diameter (mm)').fill('25.4');
+  await dialog.getByLabel('Length (mm)').fill('2000');
+  await dialog.getByLabel('Location').fill('Rack C1');
+  await dialog.getByRole('button', { name: 'Receive bar' }).click();
+  await expect(page.getByRole('heading', { level: 1, name: 'Bar piece E2E-BAR-01' })).toBeVisible();
+  await expect(page.getByText('2000 mm remaining')).toBeVisible();
+  await expect(page.getByRole('figure', { name: 'Bar tag' }).locator('svg')).toBeVisible();
+
+  await page.getByRole('button', { name: 'Cut this piece' }).click();
+  const cut = page.getByRole('dialog', { name: 'Cut E2E-BAR-01' });
+  await cut.getByLabel('Piece A (mm)').fill('1000');
+  await cut.getByLabel('Piece B (mm)').fill('900');
+  await cut.getByRole('button', { name: 'Record the cut' }).click();
+  await expect(cut.getByRole('alert')).toContainText('100 mm of the bar is not accounted for (the kerf allowance is 3 mm)');
+  await cut.getByRole('button', { name: 'Add a piece' }).click();
+  await cut.getByLabel('Piece C (mm)').fill('94');
+  await cut.getByRole('button', { name: 'Record the cut' }).click();
+  await expect(cut).toBeHidden();
+  await expect(page.getByText('E2E-BAR-01-A, E2E-BAR-01-B, E2E-BAR-01-C')).toBeVisible();
+  await expect(page.getByText('0 mm remaining')).toBeVisible();
+  await page.screenshot({ path: 'test-results/bar-piece.png', fullPage: true });
+});
