@@ -138,3 +138,26 @@ export const barListQuerySchema = z.object({
 export type BarListQuery = z.infer<typeof barListQuerySchema>;
 export const barPageSchema = z.object({ items: z.array(barPieceSchema), total: z.number().int(), page: z.number().int(), pageSize: z.number().int() });
 export const barPieceParamsSchema = z.object({ pieceId: z.coerce.number().int().positive() });
+
+export const trendQuerySchema = z.object({
+  supplierId: z.coerce.number().int().positive('Choose a supplier'),
+  specId: z.string().trim().min(1, 'Choose a specification'),
+  grade: z.string().trim().max(20).optional(),
+  element: z.string().regex(/^[A-Z][a-z]?$/, 'Choose an element'),
+});
+export type TrendQuery = z.infer<typeof trendQuerySchema>;
+
+export const trendSchema = z.object({
+  element: z.string(),
+  limit: z.object({ min: z.string().optional(), max: z.string().optional(), text: z.string() }),
+  points: z.array(z.object({ heatId: z.number().int(), heatNumber: z.string(), receivedAt: z.string(), value: z.string() })),
+  capability: z.object({
+    n: z.number().int(),
+    mean: z.string().nullable(),
+    sigma: z.string().nullable(),
+    cpk: z.string().nullable(),
+    formula: z.string(),
+    runRule: z.object({ triggered: z.boolean(), fromIndex: z.number().int().nullable(), rule: z.string() }),
+  }),
+});
+export type Trend = z.infer<typeof trendSchema>;

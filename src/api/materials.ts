@@ -1,7 +1,7 @@
 import { keepPreviousData, queryOptions } from '@tanstack/vue-query';
 import { z } from 'zod';
 import type { Specification } from '@shared/domain/materials/specification';
-import { heatDetailSchema, heatPageSchema, heatSummarySchema, supplierSchema, type HeatCreate, type HeatListQuery, type HeatResults } from '@shared/schemas/materials';
+import { heatDetailSchema, heatPageSchema, heatSummarySchema, supplierSchema, trendSchema, type HeatCreate, type HeatListQuery, type HeatResults, type TrendQuery } from '@shared/schemas/materials';
 import { apiRequest, apiUpload } from './http';
 
 export const materialKeys = {
@@ -10,6 +10,7 @@ export const materialKeys = {
   heat: (id: number) => [...materialKeys.all, 'heat', id] as const,
   suppliers: () => [...materialKeys.all, 'suppliers'] as const,
   specifications: () => [...materialKeys.all, 'specifications'] as const,
+  trend: (query: TrendQuery) => [...materialKeys.all, 'trend', query] as const,
 };
 
 export const heatsQuery = (query: HeatListQuery) =>
@@ -36,3 +37,13 @@ export const receiveHeat = (heat: HeatCreate) => apiRequest('/heats', heatSummar
 export const recordHeatResults = (heatId: number, results: HeatResults) => apiRequest(`/heats/${heatId}/results`, heatDetailSchema, { method: 'PUT', body: results });
 const attachedSchema = z.object({ documentId: z.number(), sha256: z.string(), storedNow: z.boolean(), alsoOnHeats: z.array(z.string()) });
 export const uploadCertificate = (heatId: number, file: File) => apiUpload(`/heats/${heatId}/certificates`, 'certificate', file, attachedSchema);
+
+export const trendQuery = (query: TrendQuery) =>
+  queryOptions({
+    queryKey: materialKeys.trend(query),
+    queryFn: ({ signal }) => {
+      const params = new URLSearchParams({ supplierId: String(query.supplierId), specId: query.specId, element: query.element });
+      if (query.grade) params.set('grade', query.grade);
+      return apiRequest(`/trends?${params}`, trendSchema, { signal });
+    },
+  });

@@ -1,7 +1,7 @@
 import { computed, type Ref } from 'vue';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/vue-query';
-import type { HeatCreate, HeatListQuery, HeatResults } from '@shared/schemas/materials';
-import { heatQuery, heatsQuery, materialKeys, receiveHeat, recordHeatResults, specificationsQuery, suppliersQuery, uploadCertificate } from '../api/materials';
+import type { HeatCreate, HeatListQuery, HeatResults, TrendQuery } from '@shared/schemas/materials';
+import { heatQuery, heatsQuery, materialKeys, receiveHeat, recordHeatResults, specificationsQuery, suppliersQuery, trendQuery, uploadCertificate } from '../api/materials';
 
 export const useHeats = (query: Ref<HeatListQuery>) => useQuery(computed(() => heatsQuery(query.value)));
 export const useHeat = (id: Ref<number>) => useQuery(computed(() => heatQuery(id.value)));
@@ -28,3 +28,6 @@ export function useUploadCertificate(heatId: Ref<number>) {
   const queryClient = useQueryClient();
   return useMutation({ mutationFn: (file: File) => uploadCertificate(heatId.value, file), onSuccess: () => queryClient.invalidateQueries({ queryKey: materialKeys.heat(heatId.value) }) });
 }
+
+export const useTrend = (query: Ref<TrendQuery | null>) =>
+  useQuery(computed(() => ({ ...trendQuery(query.value ?? { supplierId: 0, specId: '', element: '' }), enabled: query.value !== null })));

@@ -154,3 +154,22 @@ describe('material intake: suppliers, heats, certificates, results, disposition'
     expect((await reviewer.agent.get(`/api/heats/${fromDisqualified}`)).body.status).toBe('received');
   });
 });
+
+describe('element trends per supplier and specification', () => {
+  const running = createTestApp();
+  afterAll(() => running.close());
+
+  it('when asked for oxygen of the demo mill on F136, then the points come in receipt order with the limit and Cpk', async () => {
+    const saml = await SamlTestDriver.create(running.config);
+    const { agent } = await saml.signIn(running.app, 'kiw-0401');
+    const [supplier] = await running.database.dataSource.query("SELECT id FROM supplier WHERE name = 'Nordvik Titanium Mill'");
+    const response = await agent.get(`/api/trends?supplierId=${supplier.id}&specId=ASTM%20F136&element=O`);
+    expect(response.status).toBe(200);
+    // The demo scenario's Nordvik F136 heats reported O 0.11, 0.10, 0.12 and 0.15, in that order.
+    expect(response.body.points.slice(0, 4).map((point: { value: string }) => point.value)).toEqual(['0.11', '0.1', '0.12', '0.15']);
+    expect(response.body.limit).toEqual({ max: '0.13', text: '≤ 0.13' });
+    expect(response.body.capability.formula).toMatch(/^Cpk = min/);
+    const missing = await agent.get(`/api/trends?supplierId=${supplier.id}&specId=ASTM%20F136&element=Zr`);
+    expect(missing.status).toBe(422);
+  });
+});

@@ -11,6 +11,8 @@ import {
   supplierApprovalSchema,
   supplierCreateSchema,
   supplierIdParamsSchema,
+  trendQuerySchema,
+  type TrendQuery,
   type HeatCreate,
   type HeatListQuery,
   type HeatResults,
@@ -23,6 +25,7 @@ import { CERTIFICATE_MAX_BYTES } from './certificate-files';
 import { currentSpecifications } from './specification-library.repository';
 import { attachCertificate, certificateFile, heatDetail, listHeats, receiveHeat, recordResults } from './heats.service';
 import { changeSupplierApproval, createSupplier, listSuppliers } from './suppliers.service';
+import { elementTrend } from './trends.service';
 
 const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: CERTIFICATE_MAX_BYTES, files: 1, fields: 5 } });
 
@@ -54,6 +57,10 @@ export function materialsRouter(context: AppContext): Router {
   router.put('/suppliers/:supplierId/approval', requireAction('suppliers.manage'), validate({ params: supplierIdParamsSchema, body: supplierApprovalSchema }), async (req, res) => {
     const { supplierId } = res.locals.valid.params as { supplierId: number };
     res.json(await changeSupplierApproval(dataSource(), supplierId, res.locals.valid.body, actorOf(req, 'suppliers.manage'), originOf(req)));
+  });
+
+  router.get('/trends', requireAction('materials.read'), validate({ query: trendQuerySchema }), async (_req, res) => {
+    res.json(await elementTrend(dataSource(), res.locals.valid.query as TrendQuery));
   });
 
   router.get('/heats', requireAction('materials.read'), validate({ query: heatListQuerySchema }), async (_req, res) => {

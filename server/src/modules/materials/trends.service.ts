@@ -1,0 +1,32 @@
+import type { DataSource } from 'typeorm';
+import { Decimal } from 'decimal.js';
+import { capability } from '@shared/domain/materials/capability';
+import type { Trend, TrendQuery } from '@shared/schemas/materials';
+import { AppError } from '../../errors';
+import { currentSpecifications } from './specification-library.repository';
+
+/** One element's reported values per heat of one supplier and specification, over time, against its limit. */
+export async function elementTrend(dataSource: DataSource, query: TrendQuery): Promise<Trend> {
+  const manager = dataSource.manager;
+  const specification = (await currentSpecifications(manager)).find((candidate) => candidate.id === query.specId);
+  if (!specification) throw AppError.rule(`Unknown specification ${query.specId}`, { specId: 'Not in the library' });
+  const grade = specification.grades.length === 1 ? specification.grades[0] : specification.grades.find((candidate) => candidate.grade === query.grade);
+  if (!grade) throw AppError.rule(`${specification.id} has grades; choose one`, { grade: specification.grades.map((candidate) => candidate.grade).join(', ') });
+  const limit = grade.chemistry.find((candidate) => candidate.element === query.element);
+  if (!limit) throw AppError.rule(`${specification.id} sets no limit for ${query.element}`, { element: 'No limit for this element' });
+  const rows: Array<{ heat_id: number; heat_number: string; received_at: Date; value: string }> = await manager.query(
+    `SELECT h.id AS heat_id, h.heat_number, h.received_at, r.value
+       FROM heat_result r JOIN heat h ON h.id = r.heat_id
+      WHERE h.supplier_id = ? AND h.spec_id = ? AND r.kind = 'chemistry' AND r.item = ? ${specification.grades.length > 1 ? 'AND h.grade = ?' : ''}
+      ORDER BY h.received_at, h.id`,
+    [query.supplierId, specification.id, query.element, ...(specification.grades.length > 1 ? [grade.grade] : [])],
+  );
+  const points = rows.map((row) => ({ heatId: row.heat_id, heatNumber: row.heat_number, receivedAt: new Date(row.received_at).toISOString(), value: new Decimal(row.value).toFixed() }));
+  const text = limit.min !== undefined && limit.max !== undefined ? `${limit.min}–${limit.max}` : limit.max !== undefined ? `≤ ${limit.max}` : `≥ ${limit.min}`;
+  return {
+    element: query.element,
+    limit: { ...(limit.min !== undefined ? { min: limit.min } : {}), ...(limit.max !== undefined ? { max: limit.max } : {}), text },
+    points,
+    capability: capability(points.map((point) => point.value), limit),
+  };
+}

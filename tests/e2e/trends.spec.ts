@@ -1,0 +1,14 @@
+import { expect, test } from '@playwright/test';
+import { signInAs } from './support/sign-in';
+
+test('an auditor follows one element of one mill over time against its limit, with Cpk and its formula', async ({ page }) => {
+  await signInAs(page, 'kiw-0401', '/heats');
+  const panel = page.getByRole('region', { name: 'Trends by supplier' });
+  await panel.getByLabel('Trend supplier').click();
+  await page.getByRole('option', { name: 'Nordvik Titanium Mill' }).click();
+  await expect(panel.locator('canvas')).toBeVisible();
+  await expect(panel.getByTestId('trend-statistics')).toContainText(/n = \d+ · mean 0\.\d+ · s 0\.\d+ · Cpk -?\d\.\d{3} against ≤ 0\.13/);
+  await expect(panel).toContainText('Cpk = min((USL − x̄) / 3s, (x̄ − LSL) / 3s)');
+  await panel.scrollIntoViewIfNeeded();
+  await page.screenshot({ path: 'test-results/trend.png', fullPage: true });
+});
