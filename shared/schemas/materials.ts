@@ -161,3 +161,19 @@ export const trendSchema = z.object({
   }),
 });
 export type Trend = z.infer<typeof trendSchema>;
+
+export const resultsImportSchema = z.object({
+  csv: z.string().min(1, 'The file is empty').max(900_000, 'Import at most about 900 kB of CSV at a time'),
+  /** check: report only; all: write only if every row is valid; valid-only: write the valid rows. */
+  mode: z.enum(['check', 'all', 'valid-only']),
+});
+export type ResultsImport = z.infer<typeof resultsImportSchema>;
+
+export const resultsImportReportSchema = z.object({
+  rows: z.number().int(),
+  valid: z.number().int(),
+  imported: z.number().int(),
+  errors: z.array(z.object({ line: z.number().int(), field: z.string(), message: z.string() })),
+  verdicts: z.array(z.object({ line: z.number().int(), heatNumber: z.string(), verdict: z.string() })),
+});
+export type ResultsImportReport = z.infer<typeof resultsImportReportSchema>;

@@ -1,7 +1,7 @@
 import { keepPreviousData, queryOptions } from '@tanstack/vue-query';
 import { z } from 'zod';
 import type { Specification } from '@shared/domain/materials/specification';
-import { heatDetailSchema, heatPageSchema, heatSummarySchema, supplierSchema, trendSchema, type HeatCreate, type HeatListQuery, type HeatResults, type TrendQuery } from '@shared/schemas/materials';
+import { heatDetailSchema, heatPageSchema, heatSummarySchema, resultsImportReportSchema, supplierSchema, trendSchema, type ResultsImport, type HeatCreate, type HeatListQuery, type HeatResults, type TrendQuery } from '@shared/schemas/materials';
 import { apiRequest, apiUpload } from './http';
 
 export const materialKeys = {
@@ -47,3 +47,5 @@ export const trendQuery = (query: TrendQuery) =>
       return apiRequest(`/trends?${params}`, trendSchema, { signal });
     },
   });
+
+export const importResults = (request: ResultsImport) => apiRequest('/heat-results/imports', resultsImportReportSchema, { method: 'POST', body: request });

@@ -1,7 +1,7 @@
 import { computed, type Ref } from 'vue';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/vue-query';
-import type { HeatCreate, HeatListQuery, HeatResults, TrendQuery } from '@shared/schemas/materials';
-import { heatQuery, heatsQuery, materialKeys, receiveHeat, recordHeatResults, specificationsQuery, suppliersQuery, trendQuery, uploadCertificate } from '../api/materials';
+import type { HeatCreate, HeatListQuery, HeatResults, ResultsImport, TrendQuery } from '@shared/schemas/materials';
+import { heatQuery, heatsQuery, importResults, materialKeys, receiveHeat, recordHeatResults, specificationsQuery, suppliersQuery, trendQuery, uploadCertificate } from '../api/materials';
 
 export const useHeats = (query: Ref<HeatListQuery>) => useQuery(computed(() => heatsQuery(query.value)));
 export const useHeat = (id: Ref<number>) => useQuery(computed(() => heatQuery(id.value)));
@@ -31,3 +31,11 @@ export function useUploadCertificate(heatId: Ref<number>) {
 
 export const useTrend = (query: Ref<TrendQuery | null>) =>
   useQuery(computed(() => ({ ...trendQuery(query.value ?? { supplierId: 0, specId: '', element: '' }), enabled: query.value !== null })));
+
+export function useImportResults() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (request: ResultsImport) => importResults(request),
+    onSuccess: (report) => (report.imported ? queryClient.invalidateQueries({ queryKey: materialKeys.all }) : undefined),
+  });
+}

@@ -1,4 +1,4 @@
-import type { DataSource } from 'typeorm';
+import type { DataSource, EntityManager } from 'typeorm';
 import { evaluateAgainst, EvaluationInputError } from '@shared/domain/materials/evaluate-certificate';
 import { readChemistryValue, readMechanicalValue, ReportedValueError } from '@shared/domain/materials/reported-value';
 import { certificateInputSchema } from '@shared/schemas/evaluation';
@@ -57,50 +57,54 @@ export async function receiveHeat(dataSource: DataSource, raw: HeatCreate, perso
 
 /** Stores the reported results, evaluates them against the heat's specification revision and keeps the evaluation. */
 export async function recordResults(dataSource: DataSource, heatId: number, raw: HeatResults, person: Person, actor: Actor, origin: RequestOrigin): Promise<HeatDetail> {
-  const input = heatResultsSchema.parse(raw);
-  await inTransaction(dataSource, async (manager) => {
-    const heat = await heats.findHeat(manager, heatId, true);
-    if (!heat) throw AppError.notFound('Heat');
-    if (heat.status === 'accepted' || heat.status === 'rejected') throw AppError.rule(`The heat is ${heat.status}; its results can no longer change`, { results: 'Dispositioned heat' });
-    const rows: Array<{ kind: 'chemistry' | 'mechanical'; item: string; asReported: string; value: string }> = [];
-    const fields: Record<string, string> = {};
-    for (const [element, value] of Object.entries(input.chemistry)) {
-      try {
-        rows.push({ kind: 'chemistry', item: element, asReported: String(value).trim(), value: readChemistryValue(value).value });
-      } catch (error) {
-        if (error instanceof ReportedValueError) fields[`chemistry.${element}`] = error.message;
-        else throw error;
-      }
-    }
-    for (const [property, value] of Object.entries(input.mechanical)) {
-      if (value === undefined) continue;
-      try {
-        rows.push({ kind: 'mechanical', item: property, asReported: String(value).trim(), value: readMechanicalValue(value) });
-      } catch (error) {
-        if (error instanceof ReportedValueError) fields[`mechanical.${property}`] = error.message;
-        else throw error;
-      }
-    }
-    if (Object.keys(fields).length) throw new AppError('VALIDATION_FAILED', 'Some results are not numbers', fields);
-    const specification = await storedSpecification(manager, heat.spec.id, heat.spec.revision);
-    if (!specification) throw new Error(`specification ${heat.spec.id} ${heat.spec.revision} is missing`);
-    let evaluation;
-    try {
-      evaluation = evaluateAgainst(
-        specification,
-        certificateInputSchema.parse({ spec: heat.spec.id, grade: heat.spec.grade, form: heat.productForm, condition: heat.condition, sizeMm: heat.sizeMm, chemistry: input.chemistry, mechanical: input.mechanical }),
-      );
-    } catch (error) {
-      if (error instanceof EvaluationInputError) throw new AppError('VALIDATION_FAILED', error.message, error.fields);
-      throw error;
-    }
-    const before = await heats.heatResults(manager, heatId);
-    await heats.replaceHeatResults(manager, heatId, rows);
-    await heats.insertEvaluation(manager, { heatId, specId: heat.spec.id, revision: heat.spec.revision, verdict: evaluation.verdict, json: JSON.stringify(evaluation), evaluatedBy: person.id });
-    const after = await heats.heatResults(manager, heatId);
-    await appendLedgerEvent(manager, { actor, action: 'heat.results-recorded', entity: { type: 'heat', id: heatId }, before, after: { ...after, verdict: evaluation.verdict }, reason: input.reason ?? null, origin });
-  });
+  await inTransaction(dataSource, (manager) => recordResultsIn(manager, heatId, raw, person, actor, origin));
   return heatDetail(dataSource, heatId);
+}
+
+/** The same, inside the caller's transaction (an import writes many heats in one). */
+export async function recordResultsIn(manager: EntityManager, heatId: number, raw: HeatResults, person: Person, actor: Actor, origin: RequestOrigin): Promise<string> {
+  const input = heatResultsSchema.parse(raw);
+  const heat = await heats.findHeat(manager, heatId, true);
+  if (!heat) throw AppError.notFound('Heat');
+  if (heat.status === 'accepted' || heat.status === 'rejected') throw AppError.rule(`The heat is ${heat.status}; its results can no longer change`, { results: 'Dispositioned heat' });
+  const rows: Array<{ kind: 'chemistry' | 'mechanical'; item: string; asReported: string; value: string }> = [];
+  const fields: Record<string, string> = {};
+  for (const [element, value] of Object.entries(input.chemistry)) {
+    try {
+      rows.push({ kind: 'chemistry', item: element, asReported: String(value).trim(), value: readChemistryValue(value).value });
+    } catch (error) {
+      if (error instanceof ReportedValueError) fields[`chemistry.${element}`] = error.message;
+      else throw error;
+    }
+  }
+  for (const [property, value] of Object.entries(input.mechanical)) {
+    if (value === undefined) continue;
+    try {
+      rows.push({ kind: 'mechanical', item: property, asReported: String(value).trim(), value: readMechanicalValue(value) });
+    } catch (error) {
+      if (error instanceof ReportedValueError) fields[`mechanical.${property}`] = error.message;
+      else throw error;
+    }
+  }
+  if (Object.keys(fields).length) throw new AppError('VALIDATION_FAILED', 'Some results are not numbers', fields);
+  const specification = await storedSpecification(manager, heat.spec.id, heat.spec.revision);
+  if (!specification) throw new Error(`specification ${heat.spec.id} ${heat.spec.revision} is missing`);
+  let evaluation;
+  try {
+    evaluation = evaluateAgainst(
+      specification,
+      certificateInputSchema.parse({ spec: heat.spec.id, grade: heat.spec.grade, form: heat.productForm, condition: heat.condition, sizeMm: heat.sizeMm, chemistry: input.chemistry, mechanical: input.mechanical }),
+    );
+  } catch (error) {
+    if (error instanceof EvaluationInputError) throw new AppError('VALIDATION_FAILED', error.message, error.fields);
+    throw error;
+  }
+  const before = await heats.heatResults(manager, heatId);
+  await heats.replaceHeatResults(manager, heatId, rows);
+  await heats.insertEvaluation(manager, { heatId, specId: heat.spec.id, revision: heat.spec.revision, verdict: evaluation.verdict, json: JSON.stringify(evaluation), evaluatedBy: person.id });
+  const after = await heats.heatResults(manager, heatId);
+  await appendLedgerEvent(manager, { actor, action: 'heat.results-recorded', entity: { type: 'heat', id: heatId }, before, after: { ...after, verdict: evaluation.verdict }, reason: input.reason ?? null, origin });
+  return evaluation.verdict;
 }
 
 export async function attachCertificate(dataSource: DataSource, heatId: number, file: { bytes: Buffer; originalName: string }, person: Person, actor: Actor, origin: RequestOrigin) {

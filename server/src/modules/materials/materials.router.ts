@@ -12,6 +12,8 @@ import {
   supplierCreateSchema,
   supplierIdParamsSchema,
   trendQuerySchema,
+  resultsImportSchema,
+  type ResultsImport,
   type TrendQuery,
   type HeatCreate,
   type HeatListQuery,
@@ -26,6 +28,7 @@ import { currentSpecifications } from './specification-library.repository';
 import { attachCertificate, certificateFile, heatDetail, listHeats, receiveHeat, recordResults } from './heats.service';
 import { changeSupplierApproval, createSupplier, listSuppliers } from './suppliers.service';
 import { elementTrend } from './trends.service';
+import { importResults } from './results-import.service';
 
 const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: CERTIFICATE_MAX_BYTES, files: 1, fields: 5 } });
 
@@ -68,6 +71,9 @@ export function materialsRouter(context: AppContext): Router {
   });
   router.post('/heats', requireAction('materials.write'), validate({ body: heatCreateSchema }), async (req, res) => {
     res.status(201).json(await receiveHeat(dataSource(), res.locals.valid.body as HeatCreate, currentPerson(req)!, actorOf(req, 'materials.write'), originOf(req)));
+  });
+  router.post('/heat-results/imports', requireAction('materials.write'), validate({ body: resultsImportSchema }), async (req, res) => {
+    res.json(await importResults(dataSource(), res.locals.valid.body as ResultsImport, currentPerson(req)!, actorOf(req, 'materials.write'), originOf(req)));
   });
   router.get('/heats/:heatId', requireAction('materials.read'), validate({ params: heatIdParamsSchema }), async (_req, res) => {
     res.json(await heatDetail(dataSource(), (res.locals.valid.params as { heatId: number }).heatId));
