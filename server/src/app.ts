@@ -17,6 +17,7 @@ import { ledgerReviewRecordType } from './modules/ledger/ledger-review.record';
 import { registerSignableRecordType } from './modules/signatures/signable-records';
 import { signaturesRouter } from './modules/signatures/signatures.router';
 import { heatRecordType } from './modules/materials/heat.record';
+import { specificationDraftRecordType } from './modules/materials/specification-drafts.service';
 import { materialsRouter } from './modules/materials/materials.router';
 import { barStockRouter } from './modules/materials/bar-stock.router';
 
@@ -31,6 +32,7 @@ export type IngotraceApp = Express & { shutdown(): Promise<void> };
 export function createApp(context: AppContext, options: AppOptions = {}): IngotraceApp {
   registerSignableRecordType(ledgerReviewRecordType);
   registerSignableRecordType(heatRecordType);
+  registerSignableRecordType(specificationDraftRecordType);
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');

@@ -11,6 +11,8 @@ export const actions = [
   'materials.write',
   'materials.disposition',
   'suppliers.manage',
+  'specifications.draft',
+  'specifications.approve',
   'lots.read',
   'release.read',
   'trace.read',
@@ -24,8 +26,8 @@ export type Action = (typeof actions)[number];
 /** Role → the actions it may perform. The one permission matrix, used by server and client. */
 export const permissionMatrix: Record<Role, readonly Action[]> = {
   'manufacturing-engineer': ['system.read', 'materials.read', 'materials.write', 'lots.read', 'release.read', 'trace.read'],
-  'qa-reviewer': ['system.read', 'materials.read', 'materials.disposition', 'lots.read', 'release.read', 'trace.read', 'audit.read'],
-  'qa-approver': ['system.read', 'materials.read', 'suppliers.manage', 'lots.read', 'release.read', 'trace.read', 'audit.read'],
+  'qa-reviewer': ['system.read', 'materials.read', 'materials.disposition', 'specifications.draft', 'lots.read', 'release.read', 'trace.read', 'audit.read'],
+  'qa-approver': ['system.read', 'materials.read', 'suppliers.manage', 'specifications.draft', 'specifications.approve', 'lots.read', 'release.read', 'trace.read', 'audit.read'],
   // Read-only over everything.
   auditor: ['system.read', 'materials.read', 'lots.read', 'release.read', 'trace.read', 'audit.read', 'people.read'],
   'recall-coordinator': ['system.read', 'materials.read', 'lots.read', 'trace.read'],

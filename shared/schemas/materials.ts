@@ -177,3 +177,46 @@ export const resultsImportReportSchema = z.object({
   verdicts: z.array(z.object({ line: z.number().int(), heatNumber: z.string(), verdict: z.string() })),
 });
 export type ResultsImportReport = z.infer<typeof resultsImportReportSchema>;
+
+const limitValue = z
+  .string()
+  .trim()
+  .regex(/^\d+(\.\d+)?$/, 'A limit is a decimal number written as in the standard, e.g. 0.13')
+  .optional();
+
+/** A proposed revision: changes to the chemistry limits of the current revision, with their source. */
+export const specificationDraftSchema = z.object({
+  specId: z.string().trim().min(1),
+  revision: z
+    .string()
+    .trim()
+    .regex(/^[A-Za-z0-9][A-Za-z0-9.-]{0,19}$/, 'A short label such as L2'),
+  edition: z.string().trim().min(3, 'Name the edition of the standard, e.g. F136-13').max(200),
+  note: z.string().trim().min(3, 'Say why the revision is needed').max(1000),
+  limits: z
+    .array(
+      z.object({
+        grade: z.string().nullable(),
+        element: z.string().regex(/^[A-Z][a-z]?$/),
+        min: limitValue,
+        max: limitValue,
+        reference: z.string().trim().min(3, 'Name the source of the value').max(300),
+      }),
+    )
+    .min(1, 'Change at least one limit')
+    .max(200),
+});
+export type SpecificationDraftInput = z.infer<typeof specificationDraftSchema>;
+
+export const specificationDraftViewSchema = z.object({
+  id: z.number().int(),
+  specId: z.string(),
+  baseRevision: z.string(),
+  revision: z.string(),
+  note: z.string(),
+  status: z.enum(['draft', 'approved', 'rejected']),
+  createdBy: z.string(),
+  createdAt: z.string(),
+  changes: z.array(z.object({ grade: z.string().nullable(), element: z.string(), from: z.string(), to: z.string(), reference: z.string() })),
+});
+export type SpecificationDraftView = z.infer<typeof specificationDraftViewSchema>;

@@ -1,7 +1,7 @@
 import { keepPreviousData, queryOptions } from '@tanstack/vue-query';
 import { z } from 'zod';
 import type { Specification } from '@shared/domain/materials/specification';
-import { heatDetailSchema, heatPageSchema, heatSummarySchema, resultsImportReportSchema, supplierSchema, trendSchema, type ResultsImport, type HeatCreate, type HeatListQuery, type HeatResults, type TrendQuery } from '@shared/schemas/materials';
+import { heatDetailSchema, heatPageSchema, heatSummarySchema, resultsImportReportSchema, specificationDraftViewSchema, type SpecificationDraftInput, supplierSchema, trendSchema, type ResultsImport, type HeatCreate, type HeatListQuery, type HeatResults, type TrendQuery } from '@shared/schemas/materials';
 import { apiRequest, apiUpload } from './http';
 
 export const materialKeys = {
@@ -11,6 +11,7 @@ export const materialKeys = {
   suppliers: () => [...materialKeys.all, 'suppliers'] as const,
   specifications: () => [...materialKeys.all, 'specifications'] as const,
   trend: (query: TrendQuery) => [...materialKeys.all, 'trend', query] as const,
+  drafts: () => [...materialKeys.all, 'specification-drafts'] as const,
 };
 
 export const heatsQuery = (query: HeatListQuery) =>
@@ -49,3 +50,7 @@ export const trendQuery = (query: TrendQuery) =>
   });
 
 export const importResults = (request: ResultsImport) => apiRequest('/heat-results/imports', resultsImportReportSchema, { method: 'POST', body: request });
+
+export const specificationDraftsQuery = () =>
+  queryOptions({ queryKey: materialKeys.drafts(), queryFn: ({ signal }) => apiRequest('/specification-drafts', z.array(specificationDraftViewSchema), { signal }) });
+export const draftSpecificationRevision = (draft: SpecificationDraftInput) => apiRequest('/specification-drafts', specificationDraftViewSchema, { method: 'POST', body: draft });

@@ -1,7 +1,7 @@
 import { computed, type Ref } from 'vue';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/vue-query';
-import type { HeatCreate, HeatListQuery, HeatResults, ResultsImport, TrendQuery } from '@shared/schemas/materials';
-import { heatQuery, heatsQuery, importResults, materialKeys, receiveHeat, recordHeatResults, specificationsQuery, suppliersQuery, trendQuery, uploadCertificate } from '../api/materials';
+import type { HeatCreate, HeatListQuery, HeatResults, ResultsImport, SpecificationDraftInput, TrendQuery } from '@shared/schemas/materials';
+import { draftSpecificationRevision, heatQuery, heatsQuery, importResults, materialKeys, specificationDraftsQuery, receiveHeat, recordHeatResults, specificationsQuery, suppliersQuery, trendQuery, uploadCertificate } from '../api/materials';
 
 export const useHeats = (query: Ref<HeatListQuery>) => useQuery(computed(() => heatsQuery(query.value)));
 export const useHeat = (id: Ref<number>) => useQuery(computed(() => heatQuery(id.value)));
@@ -38,4 +38,11 @@ export function useImportResults() {
     mutationFn: (request: ResultsImport) => importResults(request),
     onSuccess: (report) => (report.imported ? queryClient.invalidateQueries({ queryKey: materialKeys.all }) : undefined),
   });
+}
+
+export const useSpecificationDrafts = () => useQuery(specificationDraftsQuery());
+
+export function useDraftSpecificationRevision() {
+  const queryClient = useQueryClient();
+  return useMutation({ mutationFn: (draft: SpecificationDraftInput) => draftSpecificationRevision(draft), onSuccess: () => queryClient.invalidateQueries({ queryKey: materialKeys.all }) });
 }

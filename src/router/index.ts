@@ -4,7 +4,7 @@ import { rolesAllow } from '@shared/auth/permissions';
 import { productAreas, type AreaRouteName } from '../navigation/areas';
 import { meQuery } from '../api/session';
 
-export type RouteName = 'overview' | AreaRouteName | 'heat' | 'bar-piece' | 'sign-in' | 'signed-out' | 'reauthentication-complete' | 'not-permitted' | 'not-found';
+export type RouteName = 'overview' | AreaRouteName | 'heat' | 'bar-piece' | 'specifications' | 'sign-in' | 'signed-out' | 'reauthentication-complete' | 'not-permitted' | 'not-found';
 
 /** Areas that are built; the rest show what they will hold. */
 const areaViews: Partial<Record<AreaRouteName, () => Promise<unknown>>> = {
@@ -35,6 +35,12 @@ export const routes: RouteRecordRaw[] = [
     name: 'bar-piece',
     component: () => import('../views/BarPieceView.vue'),
     meta: { title: 'Bar piece', area: 'bar-stock', action: 'materials.read' },
+  },
+  {
+    path: '/specifications',
+    name: 'specifications',
+    component: () => import('../views/SpecificationsView.vue'),
+    meta: { title: 'Specification library', area: 'heats', action: 'materials.read' },
   },
   { path: '/sign-in', name: 'sign-in', component: () => import('../views/SignInView.vue'), meta: { title: 'Sign in', public: true } },
   { path: '/signed-out', name: 'signed-out', component: () => import('../views/SignedOutView.vue'), meta: { title: 'Signed out', public: true } },

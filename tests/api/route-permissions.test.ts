@@ -8,12 +8,13 @@ import { routeTable } from '../helpers/route-table';
 
 type Agent = Awaited<ReturnType<SamlTestDriver['signIn']>>['agent'];
 
+// Ids that do not exist, so that an allowed call answers 404 or 400 and changes nothing.
 const sampleParameters: Record<string, string> = {
-  personId: '1',
-  heatId: '1',
-  supplierId: '1',
-  documentId: '1',
-  pieceId: '1',
+  personId: '999999',
+  heatId: '999999',
+  supplierId: '999999',
+  documentId: '999999',
+  pieceId: '999999',
   reauthenticationId: '0'.repeat(32),
 };
 

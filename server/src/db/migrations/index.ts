@@ -4,6 +4,7 @@ import { CreateAuditLedger1764644400000 } from './1764644400000-create-audit-led
 import { CreateElectronicSignatures1764648000000 } from './1764648000000-create-electronic-signatures';
 import { CreateMaterialIntake1764651600000 } from './1764651600000-create-material-intake';
 import { CreateBarStock1764655200000 } from './1764655200000-create-bar-stock';
+import { CreateSpecificationDrafts1764658800000 } from './1764658800000-create-specification-drafts';
 
 /** Every migration in the order it runs. Add new ones at the end. */
 export const migrations = [
@@ -13,4 +14,5 @@ export const migrations = [
   CreateElectronicSignatures1764648000000,
   CreateMaterialIntake1764651600000,
   CreateBarStock1764655200000,
+  CreateSpecificationDrafts1764658800000,
 ];

@@ -13,6 +13,8 @@ import {
   supplierIdParamsSchema,
   trendQuerySchema,
   resultsImportSchema,
+  specificationDraftSchema,
+  type SpecificationDraftInput,
   type ResultsImport,
   type TrendQuery,
   type HeatCreate,
@@ -29,6 +31,7 @@ import { attachCertificate, certificateFile, heatDetail, listHeats, receiveHeat,
 import { changeSupplierApproval, createSupplier, listSuppliers } from './suppliers.service';
 import { elementTrend } from './trends.service';
 import { importResults } from './results-import.service';
+import { draftRevision, listDrafts } from './specification-drafts.service';
 
 const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: CERTIFICATE_MAX_BYTES, files: 1, fields: 5 } });
 
@@ -49,6 +52,13 @@ export function materialsRouter(context: AppContext): Router {
   router.get('/specifications', requireAction('materials.read'), async (_req, res) => {
     const stored = await currentSpecifications(dataSource().manager);
     res.json({ caution: limitCaution, specifications: stored.length ? stored : specificationLibrary });
+  });
+
+  router.get('/specification-drafts', requireAction('materials.read'), async (_req, res) => {
+    res.json(await listDrafts(dataSource()));
+  });
+  router.post('/specification-drafts', requireAction('specifications.draft'), validate({ body: specificationDraftSchema }), async (req, res) => {
+    res.status(201).json(await draftRevision(dataSource(), res.locals.valid.body as SpecificationDraftInput, currentPerson(req)!, actorOf(req, 'specifications.draft'), originOf(req)));
   });
 
   router.get('/suppliers', requireAction('materials.read'), async (_req, res) => {

@@ -1,0 +1,149 @@
+import type { DataSource, EntityManager } from 'typeorm';
+import { canonicalJson } from '@shared/domain/ledger-hash';
+import { compareDecimal } from '@shared/domain/materials/e29-rounding';
+import type { ElementLimit, Specification } from '@shared/domain/materials/specification';
+import type { SpecificationDraftInput, SpecificationDraftView } from '@shared/schemas/materials';
+import type { Person } from '@shared/schemas/people';
+import { AppError } from '../../errors';
+import { inTransaction } from '../../db/transaction';
+import { appendLedgerEvent, sha256Hex, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
+import type { SignableRecordType } from '../signatures/signable-records';
+import { currentSpecifications, storedSpecification } from './specification-library.repository';
+
+const limitText = (limit: Pick<ElementLimit, 'min' | 'max'> | undefined) =>
+  !limit ? '—' : limit.min !== undefined && limit.max !== undefined ? `${limit.min}–${limit.max}` : limit.max !== undefined ? `≤ ${limit.max}` : `≥ ${limit.min}`;
+
+interface DraftRow {
+  id: number;
+  spec_id: string;
+  base_revision: string;
+  revision: string;
+  definition_json: string;
+  note: string;
+  status: SpecificationDraftView['status'];
+  created_by: number;
+  created_by_name: string;
+  created_at: Date;
+}
+
+async function draftRow(manager: EntityManager, id: number, lock = false): Promise<DraftRow | null> {
+  if (lock) await manager.query('SELECT id FROM specification_draft WHERE id = ? FOR UPDATE', [id]);
+  const [row]: DraftRow[] = await manager.query('SELECT d.*, p.name AS created_by_name FROM specification_draft d JOIN person p ON p.id = d.created_by WHERE d.id = ?', [id]);
+  return row ?? null;
+}
+
+function changesOf(base: Specification, proposed: Specification): SpecificationDraftView['changes'] {
+  const changes: SpecificationDraftView['changes'] = [];
+  for (const grade of proposed.grades) {
+    const baseGrade = base.grades.find((candidate) => candidate.grade === grade.grade);
+    for (const limit of grade.chemistry) {
+      const before = baseGrade?.chemistry.find((candidate) => candidate.element === limit.element);
+      // A new source for the same value is a change too (e.g. an unconfirmed value now checked).
+      if (limitText(before) !== limitText(limit) || before?.source.reference !== limit.source.reference) changes.push({ grade: grade.grade, element: limit.element, from: limitText(before), to: limitText(limit), reference: limit.source.reference });
+    }
+  }
+  return changes;
+}
+
+async function toView(manager: EntityManager, row: DraftRow): Promise<SpecificationDraftView> {
+  const base = await storedSpecification(manager, row.spec_id, row.base_revision);
+  const proposed = JSON.parse(row.definition_json) as Specification;
+  return {
+    id: row.id,
+    specId: row.spec_id,
+    baseRevision: row.base_revision,
+    revision: row.revision,
+    note: row.note,
+    status: row.status,
+    createdBy: row.created_by_name,
+    createdAt: new Date(row.created_at).toISOString(),
+    changes: base ? changesOf(base, proposed) : [],
+  };
+}
+
+export async function listDrafts(dataSource: DataSource): Promise<SpecificationDraftView[]> {
+  const rows: DraftRow[] = await dataSource.query('SELECT d.*, p.name AS created_by_name FROM specification_draft d JOIN person p ON p.id = d.created_by ORDER BY d.id DESC LIMIT 100');
+  return Promise.all(rows.map((row) => toView(dataSource.manager, row)));
+}
+
+/** Proposes a new revision: the current one with the given chemistry limits changed, each naming its source. */
+export async function draftRevision(dataSource: DataSource, input: SpecificationDraftInput, person: Person, actor: Actor, origin: RequestOrigin): Promise<SpecificationDraftView> {
+  return inTransaction(dataSource, async (manager) => {
+    const current = (await currentSpecifications(manager)).find((candidate) => candidate.id === input.specId);
+    if (!current) throw AppError.rule(`Unknown specification ${input.specId}`, { specId: 'Not in the library' });
+    const [taken] = await manager.query(
+      "SELECT 1 FROM specification_revision WHERE spec_id = ? AND revision = ? UNION SELECT 1 FROM specification_draft WHERE spec_id = ? AND revision = ? AND status <> 'rejected'",
+      [current.id, input.revision, current.id, input.revision],
+    );
+    if (taken) throw new AppError('CONFLICT', `Revision ${input.revision} of ${current.id} exists already`, { revision: 'Already used' });
+    const proposed: Specification = JSON.parse(JSON.stringify(current));
+    proposed.revision = input.revision;
+    proposed.edition = input.edition;
+    const fields: Record<string, string> = {};
+    input.limits.forEach((change, index) => {
+      const grade = proposed.grades.find((candidate) => candidate.grade === change.grade);
+      if (!grade) return void (fields[`limits.${index}.grade`] = `${current.id} has no grade ${change.grade ?? '(none)'}`);
+      if (change.min === undefined && change.max === undefined) return void (fields[`limits.${index}`] = 'Give a minimum, a maximum or both');
+      if (change.min !== undefined && change.max !== undefined && compareDecimal(change.min, change.max) > 0) return void (fields[`limits.${index}`] = 'The minimum is above the maximum');
+      const limit: ElementLimit = { element: change.element, ...(change.min !== undefined ? { min: change.min } : {}), ...(change.max !== undefined ? { max: change.max } : {}), source: { reference: change.reference, confidence: 'published' } };
+      const existing = grade.chemistry.findIndex((candidate) => candidate.element === change.element);
+      if (existing >= 0) grade.chemistry[existing] = { ...limit, ...(grade.chemistry[existing]!.tolerance ? { tolerance: grade.chemistry[existing]!.tolerance } : {}) };
+      else grade.chemistry.push(limit);
+    });
+    if (Object.keys(fields).length) throw new AppError('VALIDATION_FAILED', 'Some limit changes are not valid', fields);
+    const result: { insertId: number } = await manager.query(
+      'INSERT INTO specification_draft (spec_id, base_revision, revision, definition_json, note, created_by) VALUES (?, ?, ?, ?, ?, ?)',
+      [current.id, current.revision, input.revision, canonicalJson(proposed), input.note, person.id],
+    );
+    const view = await toView(manager, (await draftRow(manager, Number(result.insertId)))!);
+    await appendLedgerEvent(manager, { actor, action: 'specification.revision-drafted', entity: { type: 'specification-draft', id: view.id }, after: view, reason: input.note, origin });
+    return view;
+  });
+}
+
+/** Approving a draft (a QA approver's signature, not by its author) stores it as an immutable revision. */
+export const specificationDraftRecordType: SignableRecordType = {
+  type: 'specification-draft',
+  label: 'specification revision',
+  action: 'specifications.approve',
+  meanings: ['approved', 'rejected'],
+  async load(manager, recordId) {
+    if (!/^\d{1,10}$/.test(recordId)) return null;
+    const row = await draftRow(manager, Number(recordId));
+    if (!row) return null;
+    const view = await toView(manager, row);
+    return {
+      title: `${row.spec_id} revision ${row.revision} (replacing ${row.base_revision})`,
+      content: { specification: row.spec_id, revision: row.revision, replaces: row.base_revision, note: row.note, changes: view.changes, definitionHash: sha256Hex(row.definition_json) },
+      authorIds: [row.created_by],
+      status: row.status,
+    };
+  },
+  refusal({ record }) {
+    return (record as { status?: string }).status === 'draft' ? null : `This draft is already ${(record as { status?: string }).status}`;
+  },
+  async afterSign(manager, { recordId, meaning, signerId, signerName, reason }) {
+    const row = await draftRow(manager, Number(recordId), true);
+    if (!row) return;
+    const status = meaning === 'approved' ? 'approved' : 'rejected';
+    if (status === 'approved') {
+      const definition = JSON.parse(row.definition_json) as Specification;
+      await manager.query('INSERT INTO specification_revision (spec_id, revision, title, edition, definition_json, definition_hash) VALUES (?, ?, ?, ?, ?, ?)', [
+        row.spec_id,
+        row.revision,
+        definition.title,
+        definition.edition,
+        row.definition_json,
+        sha256Hex(row.definition_json),
+      ]);
+    }
+    await manager.query('UPDATE specification_draft SET status = ? WHERE id = ?', [status, row.id]);
+    await appendLedgerEvent(manager, {
+      actor: { id: signerId, name: signerName, role: 'qa-approver' },
+      action: status === 'approved' ? 'specification.revision-approved' : 'specification.revision-rejected',
+      entity: { type: 'specification', id: `${row.spec_id} ${row.revision}` },
+      after: { draftId: row.id, status },
+      reason,
+    });
+  },
+};

@@ -1,0 +1,35 @@
+import { expect, test } from '@playwright/test';
+import { signInAs } from './support/sign-in';
+
+test('a QA reviewer drafts a new revision with its source, and a QA approver signs it into the library', async ({ page }) => {
+  await signInAs(page, 'kiw-0201', '/specifications');
+  await expect(page.getByRole('heading', { level: 1, name: 'Specification library' })).toBeVisible();
+  await page.getByRole('button', { name: /ASTM F1295/ }).click();
+  await expect(page.getByRole('table', { name: 'Chemistry limits of ASTM F1295' }).or(page.locator('table').first())).toContainText('unconfirmed');
+  await page.getByRole('button', { name: 'Draft a new revision' }).click();
+  const dialog = page.getByRole('dialog', { name: 'Draft a new revision of ASTM F1295' });
+  await dialog.getByLabel('New revision').fill('L2');
+  await dialog.getByLabel('Edition of the standard').fill('F1295 as in our licensed copy');
+  await dialog.getByLabel('Why').fill('Tantalum limit confirmed against the licensed standard');
+  await dialog.getByRole('combobox', { name: 'Element' }).fill('Ta');
+  await dialog.getByLabel('Maximum').fill('0.50');
+  await dialog.getByLabel('Source of the value').fill('Licensed copy of ASTM F1295, Table 1');
+  await dialog.getByRole('button', { name: 'Save the draft' }).click();
+  await expect(dialog).toBeHidden();
+  await expect(page.getByRole('region', { name: 'Drafted revisions' })).toContainText('ASTM F1295 L2 replacing L1');
+  await expect(page.getByRole('region', { name: 'Drafted revisions' })).toContainText('Ta: ≤ 0.50 → ≤ 0.50 (Licensed copy of ASTM F1295, Table 1)');
+
+  await signInAs(page, 'kiw-0301', '/specifications');
+  await page.getByRole('article').filter({ hasText: 'ASTM F1295 L2' }).getByRole('button', { name: 'Approve' }).click();
+  const signing = page.getByRole('dialog', { name: 'Sign: Approved' });
+  await expect(signing).toContainText('ASTM F1295 revision L2 (replacing L1)');
+  const popupOpened = page.waitForEvent('popup');
+  await signing.getByRole('button', { name: 'Confirm with password and sign' }).click();
+  const popup = await popupOpened;
+  await popup.getByLabel('Password').fill('joaquin-demo');
+  await popup.getByRole('button', { name: 'Sign in' }).click();
+  await expect(signing.getByTestId('signature-manifestation')).toContainText('Joaquín Ferreira — Approved', { timeout: 15_000 });
+  await signing.getByRole('button', { name: 'Done' }).click();
+  await expect(page.getByRole('button', { name: /ASTM F1295/ })).toContainText('revision L2');
+  await page.screenshot({ path: 'test-results/specification-library.png', fullPage: true });
+});
