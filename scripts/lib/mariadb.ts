@@ -1,4 +1,5 @@
 import { spawn } from 'node:child_process';
+import { createConnection } from 'node:net';
 import { existsSync, mkdirSync, readFileSync, rmSync } from 'node:fs';
 import { createHash } from 'node:crypto';
 import { resolve } from 'node:path';
@@ -79,6 +80,11 @@ export class MariadbServer {
         '--skip-name-resolve',
       ]);
     }
+    if (await portInUse(this.options.host ?? '127.0.0.1', this.port)) {
+      throw new Error(
+        `Port ${this.port} is already in use by another program (another MariaDB, or a copy of Ingotrace started from another folder). Stop it, or choose another port in .env (DB_PORT, or TEST_DB_PORT for npm test).`,
+      );
+    }
     rmSync(this.pidFile, { force: true });
     const args = [
       '--no-defaults',
@@ -145,6 +151,17 @@ export class MariadbServer {
   private adminUser(): string[] {
     return ['-u', userInfo().username];
   }
+}
+
+function portInUse(host: string, port: number): Promise<boolean> {
+  return new Promise((resolve) => {
+    const socket = createConnection({ host, port });
+    socket.once('connect', () => {
+      socket.destroy();
+      resolve(true);
+    });
+    socket.once('error', () => resolve(false));
+  });
 }
 
 function processAlive(pid: number): boolean {
