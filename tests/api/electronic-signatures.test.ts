@@ -39,6 +39,15 @@ describe('electronic signatures', () => {
     return signaturePreparationSchema.parse(response.body);
   }
 
+  /** Prepares, re-authenticates as the signer and submits one signature on a person card. */
+  async function signCard(signer: { agent: Awaited<ReturnType<typeof signedIn>>['agent']; csrf: string }, subject: string, recordId: string, meaning: string, extra: Record<string, unknown> = {}) {
+    const preparation = await prepare(signer.agent, signer.csrf, recordId, meaning);
+    return signer.agent
+      .post('/api/signatures')
+      .set('X-CSRF-Token', signer.csrf)
+      .send({ recordType: 'test-person-card', recordId, meaning, contentHash: preparation.contentHash, reauthenticationId: await reauthenticate(saml, signer.agent, subject, preparation.bindingHash), ...extra });
+  }
+
   it('when a reviewer re-authenticates and signs, then the signature shows name, meaning and time with zone, bound to the content hash', async () => {
     const { agent, csrf } = await signedIn('kiw-0201');
     const preparation = await prepare(agent, csrf, 'kiw-0101', 'reviewed');
@@ -107,49 +116,23 @@ describe('electronic signatures', () => {
   });
 
   it('when the author of a record would review it, then separation of duties refuses', async () => {
-    const { agent, csrf } = await signedIn('kiw-0201');
-    const preparation = await prepare(agent, csrf, 'kiw-0201', 'reviewed');
-    const reauthenticationId = await reauthenticate(saml, agent, 'kiw-0201', preparation.bindingHash);
-    const response = await agent
-      .post('/api/signatures')
-      .set('X-CSRF-Token', csrf)
-      .send({ recordType: 'test-person-card', recordId: 'kiw-0201', meaning: 'reviewed', contentHash: preparation.contentHash, reauthenticationId });
+    const response = await signCard(await signedIn('kiw-0201'), 'kiw-0201', 'kiw-0201', 'reviewed');
     expect(response.status).toBe(422);
     expect(response.body.error.message).toBe('You authored this record, so you cannot review it');
   });
 
   it('when the reviewer would also approve, then separation of duties refuses', async () => {
-    const { agent, csrf } = await signedIn('kiw-0701');
-    const review = await prepare(agent, csrf, 'kiw-0501', 'reviewed');
-    const reviewed = await agent.post('/api/signatures').set('X-CSRF-Token', csrf).send({
-      recordType: 'test-person-card',
-      recordId: 'kiw-0501',
-      meaning: 'reviewed',
-      contentHash: review.contentHash,
-      reauthenticationId: await reauthenticate(saml, agent, 'kiw-0701', review.bindingHash),
-    });
-    expect(reviewed.status).toBe(201);
-    const approval = await prepare(agent, csrf, 'kiw-0501', 'approved');
-    const approved = await agent.post('/api/signatures').set('X-CSRF-Token', csrf).send({
-      recordType: 'test-person-card',
-      recordId: 'kiw-0501',
-      meaning: 'approved',
-      contentHash: approval.contentHash,
-      reauthenticationId: await reauthenticate(saml, agent, 'kiw-0701', approval.bindingHash),
-    });
+    const chiara = await signedIn('kiw-0701');
+    expect((await signCard(chiara, 'kiw-0701', 'kiw-0501', 'reviewed')).status).toBe(201);
+    const approved = await signCard(chiara, 'kiw-0701', 'kiw-0501', 'approved');
     expect(approved.status).toBe(422);
     expect(approved.body.error.message).toBe('You reviewed this record, so someone else must approve it');
   });
 
   it('when a rejection has no reason, then it is refused with the field named', async () => {
-    const { agent, csrf } = await signedIn('kiw-0301');
-    const preparation = await prepare(agent, csrf, 'kiw-0102', 'rejected');
-    expect(preparation.reasonRequired).toBe(true);
-    const reauthenticationId = await reauthenticate(saml, agent, 'kiw-0301', preparation.bindingHash);
-    const response = await agent
-      .post('/api/signatures')
-      .set('X-CSRF-Token', csrf)
-      .send({ recordType: 'test-person-card', recordId: 'kiw-0102', meaning: 'rejected', contentHash: preparation.contentHash, reauthenticationId });
+    const approver = await signedIn('kiw-0301');
+    expect((await prepare(approver.agent, approver.csrf, 'kiw-0102', 'rejected')).reasonRequired).toBe(true);
+    const response = await signCard(approver, 'kiw-0301', 'kiw-0102', 'rejected');
     expect(response.status).toBe(422);
     expect(response.body.error.fields).toEqual({ reason: 'A reason of at least 3 characters is required' });
   });
@@ -164,41 +147,16 @@ describe('electronic signatures', () => {
   });
 
   it('when a signer withdraws their signature, then it is a new signature naming the old one; nobody else may withdraw it', async () => {
-    const { agent, csrf } = await signedIn('kiw-0301');
-    const approval = await prepare(agent, csrf, 'kiw-0601', 'approved');
-    const approved = await agent.post('/api/signatures').set('X-CSRF-Token', csrf).send({
-      recordType: 'test-person-card',
-      recordId: 'kiw-0601',
-      meaning: 'approved',
-      contentHash: approval.contentHash,
-      reauthenticationId: await reauthenticate(saml, agent, 'kiw-0301', approval.bindingHash),
-    });
+    const approver = await signedIn('kiw-0301');
+    const { agent } = approver;
+    const approved = await signCard(approver, 'kiw-0301', 'kiw-0601', 'approved');
     expect(approved.status).toBe(201);
 
-    const other = await signedIn('kiw-0201');
-    const foreign = await prepare(other.agent, other.csrf, 'kiw-0601', 'withdrawn');
-    const refused = await other.agent.post('/api/signatures').set('X-CSRF-Token', other.csrf).send({
-      recordType: 'test-person-card',
-      recordId: 'kiw-0601',
-      meaning: 'withdrawn',
-      reason: 'not mine to withdraw',
-      withdrawsSignatureId: approved.body.id,
-      contentHash: foreign.contentHash,
-      reauthenticationId: await reauthenticate(saml, other.agent, 'kiw-0201', foreign.bindingHash),
-    });
+    const refused = await signCard(await signedIn('kiw-0201'), 'kiw-0201', 'kiw-0601', 'withdrawn', { reason: 'not mine to withdraw', withdrawsSignatureId: approved.body.id });
     expect(refused.status).toBe(422);
     expect(refused.body.error.message).toBe('Only the signer can withdraw their signature');
 
-    const withdrawal = await prepare(agent, csrf, 'kiw-0601', 'withdrawn');
-    const withdrawn = await agent.post('/api/signatures').set('X-CSRF-Token', csrf).send({
-      recordType: 'test-person-card',
-      recordId: 'kiw-0601',
-      meaning: 'withdrawn',
-      reason: 'Approved the wrong card',
-      withdrawsSignatureId: approved.body.id,
-      contentHash: withdrawal.contentHash,
-      reauthenticationId: await reauthenticate(saml, agent, 'kiw-0301', withdrawal.bindingHash),
-    });
+    const withdrawn = await signCard(approver, 'kiw-0301', 'kiw-0601', 'withdrawn', { reason: 'Approved the wrong card', withdrawsSignatureId: approved.body.id });
     expect(withdrawn.status).toBe(201);
     expect(withdrawn.body).toMatchObject({ meaning: 'withdrawn', withdrawsSignatureId: approved.body.id, reason: 'Approved the wrong card' });
     const listed = (await agent.get('/api/signatures?recordType=test-person-card&recordId=kiw-0601')).body as Array<{ meaning: string }>;
