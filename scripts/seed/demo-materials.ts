@@ -2,6 +2,11 @@ import type { DataSource } from 'typeorm';
 import { findPersonBySubject } from '../../server/src/modules/people/people.repository';
 import { attachCertificate, receiveHeat, recordResults } from '../../server/src/modules/materials/heats.service';
 import { createSupplier } from '../../server/src/modules/materials/suppliers.service';
+import { receiveBar } from '../../server/src/modules/materials/bar-stock.service';
+import type { Person } from '@shared/schemas/people';
+import { demoHeatHistory, type DemoHeat } from './demo-heat-history';
+import { signAsDemoPerson } from './demo-signature';
+import { registerProductRecordTypes } from '../../server/src/modules/signable-record-types';
 
 /** Invented mills; none is a real firm. */
 const mills = [
@@ -33,17 +38,9 @@ function demoCertificate(heatNumber: string, mill: string): Buffer {
   return Buffer.from(body, 'latin1');
 }
 
-interface DemoHeat {
-  heatNumber: string;
-  mill: number;
-  specId: string;
-  grade?: string;
-  sizeMm: string;
-  chemistry: Record<string, string>;
-  mechanical: Record<string, string>;
-}
+type RecentHeat = Omit<DemoHeat, 'daysAgo'>;
 
-const f136 = (heatNumber: string, mill: number, o: string, fe: string, h: string, uts: string): DemoHeat => ({
+const f136 = (heatNumber: string, mill: number, o: string, fe: string, h: string, uts: string): RecentHeat => ({
   heatNumber,
   mill,
   specId: 'ASTM F136',
@@ -52,7 +49,8 @@ const f136 = (heatNumber: string, mill: number, o: string, fe: string, h: string
   mechanical: { utsMPa: uts, ysMPa: String(Number(uts) - 70), elongationPct: '14', reductionOfAreaPct: '41' },
 });
 
-const heats: DemoHeat[] = [
+/** The recent heats, awaiting QA's disposition, in the order they arrived. */
+const recentHeats: RecentHeat[] = [
   f136('NV-24-1107', 0, '0.11', '0.16', '0.0040', '948'),
   f136('NV-24-1162', 0, '0.10', '0.18', '45 ppm', '955'),
   f136('NV-25-0214', 0, '0.12', '0.15', '0.0050', '940'),
@@ -73,27 +71,88 @@ const heats: DemoHeat[] = [
   },
 ];
 
-/** Suppliers and heats with certificates and evaluated results, entered as the demo engineer would. */
+/** A heat quarantined by QA: its results conform, but the certificate needs the mill's reissue. */
+const quarantinedHeat: DemoHeat = {
+  heatNumber: 'OB-55208',
+  mill: 2,
+  specId: 'ASTM F136',
+  sizeMm: '19.05',
+  daysAgo: 20,
+  chemistry: { Al: '6.10', V: '3.95', Fe: '0.15', O: '0.11', C: '0.02', N: '0.01', H: '0.0050' },
+  mechanical: { utsMPa: '941', ysMPa: '870', elongationPct: '15', reductionOfAreaPct: '42' },
+};
+
+const dayOf = (daysAgo: number) => new Date(Date.now() - daysAgo * 86_400_000).toISOString().slice(0, 10);
+const origin = { requestId: 'demo-seed', clientAddress: null };
+
+/** Demo mass of a round bar (density only for invented demo values: Ti-6Al-4V about 4.43 g/cm³, 316L about 7.99 g/cm³). */
+function barMassKg(specId: string, diameterMm: string, lengthMm: number): string {
+  const density = specId === 'ASTM F138' ? 7.99 : 4.43;
+  const radiusCm = Number(diameterMm) / 20;
+  return ((Math.PI * radiusCm * radiusCm * (lengthMm / 10) * density) / 1000).toFixed(3);
+}
+
+async function enterHeat(dataSource: DataSource, heat: DemoHeat, supplierIds: number[], engineer: Person): Promise<number> {
+  const actor = { id: engineer.id, name: engineer.name, role: 'manufacturing-engineer' };
+  const received = await receiveHeat(
+    dataSource,
+    { heatNumber: heat.heatNumber, supplierId: supplierIds[heat.mill]!, specId: heat.specId, grade: heat.grade ?? null, meltRoute: heat.specId === 'ASTM F138' ? 'VIM + ESR' : 'VAR ×3', productForm: 'bar', sizeMm: heat.sizeMm, receivedOn: dayOf(heat.daysAgo) },
+    engineer,
+    actor,
+    origin,
+  );
+  await attachCertificate(dataSource, received.id, { bytes: demoCertificate(heat.heatNumber, mills[heat.mill]!.name), originalName: `certificate-${heat.heatNumber}.pdf` }, engineer, actor, origin);
+  await recordResults(dataSource, received.id, { chemistry: heat.chemistry, mechanical: heat.mechanical }, engineer, actor, origin);
+  return received.id;
+}
+
+/**
+ * Suppliers and two years of heats with certificates and evaluated results, entered as the demo
+ * engineer would; QA has accepted the history (and taken bar from the last heats into stock),
+ * quarantined one heat, and left the recent heats for disposition.
+ */
 export async function seedDemoMaterials(dataSource: DataSource): Promise<void> {
+  registerProductRecordTypes();
   const engineer = await findPersonBySubject(dataSource.manager, 'kiw-0101');
   const approver = await findPersonBySubject(dataSource.manager, 'kiw-0301');
   if (!engineer || !approver) throw new Error('seed the demo people first');
-  const origin = { requestId: 'demo-seed', clientAddress: null };
-  const engineerActor = { id: engineer.id, name: engineer.name, role: 'manufacturing-engineer' };
   const supplierIds: number[] = [];
   for (const mill of mills) {
     const supplier = await createSupplier(dataSource, { ...mill, reason: 'demo scenario: supplier qualification on file' }, { id: approver.id, name: approver.name, role: 'qa-approver' }, origin);
     supplierIds.push(supplier.id);
   }
-  for (const heat of heats) {
-    const received = await receiveHeat(
-      dataSource,
-      { heatNumber: heat.heatNumber, supplierId: supplierIds[heat.mill]!, specId: heat.specId, grade: heat.grade ?? null, meltRoute: heat.specId === 'ASTM F138' ? 'VIM + ESR' : 'VAR ×3', productForm: 'bar', sizeMm: heat.sizeMm },
-      engineer,
-      engineerActor,
-      origin,
-    );
-    await attachCertificate(dataSource, received.id, { bytes: demoCertificate(heat.heatNumber, mills[heat.mill]!.name), originalName: `certificate-${heat.heatNumber}.pdf` }, engineer, engineerActor, origin);
-    await recordResults(dataSource, received.id, { chemistry: heat.chemistry, mechanical: heat.mechanical }, engineer, engineerActor, origin);
+  const history = demoHeatHistory();
+  const accepted: Array<{ id: number; heat: DemoHeat }> = [];
+  for (const heat of history) {
+    const id = await enterHeat(dataSource, heat, supplierIds, engineer);
+    await signAsDemoPerson(dataSource, 'kiw-0201', { recordType: 'heat', recordId: String(id), meaning: 'accepted' });
+    accepted.push({ id, heat });
+  }
+  const quarantinedId = await enterHeat(dataSource, quarantinedHeat, supplierIds, engineer);
+  await signAsDemoPerson(dataSource, 'kiw-0201', {
+    recordType: 'heat',
+    recordId: String(quarantinedId),
+    meaning: 'quarantined',
+    reason: 'Certificate scan is partly illegible (mechanical table); the mill has been asked to reissue it',
+  });
+  for (const [index, heat] of recentHeats.entries()) {
+    await enterHeat(dataSource, { ...heat, daysAgo: 60 - index * 5 }, supplierIds, engineer);
+  }
+  await seedDemoBarStock(dataSource, accepted.slice(-8), engineer);
+}
+
+/** Bar from the newest accepted heats: two 3 m bars of each, in the bar store. */
+async function seedDemoBarStock(dataSource: DataSource, heats: Array<{ id: number; heat: DemoHeat }>, engineer: Person): Promise<void> {
+  const actor = { id: engineer.id, name: engineer.name, role: 'manufacturing-engineer' };
+  for (const [index, { id, heat }] of heats.entries()) {
+    for (const bar of [1, 2]) {
+      await receiveBar(
+        dataSource,
+        { heatId: id, tag: `${heat.heatNumber.replace(/[^A-Z0-9]+/g, '-')}-B${bar}`, diameterMm: heat.sizeMm, lengthMm: '3000', massKg: barMassKg(heat.specId, heat.sizeMm, 3000), location: `Bar store rack ${String.fromCharCode(65 + (index % 4))}${bar}` },
+        engineer,
+        actor,
+        origin,
+      );
+    }
   }
 }

@@ -13,13 +13,10 @@ import { healthRouter } from './modules/health/health.router';
 import { organisationRouter } from './modules/organisation/organisation.router';
 import { peopleRouter } from './modules/people/people.router';
 import { auditRouter } from './modules/ledger/audit.router';
-import { ledgerReviewRecordType } from './modules/ledger/ledger-review.record';
-import { registerSignableRecordType } from './modules/signatures/signable-records';
 import { signaturesRouter } from './modules/signatures/signatures.router';
-import { heatRecordType } from './modules/materials/heat.record';
-import { specificationDraftRecordType } from './modules/materials/specification-drafts.service';
 import { materialsRouter } from './modules/materials/materials.router';
 import { barStockRouter } from './modules/materials/bar-stock.router';
+import { registerProductRecordTypes } from './modules/signable-record-types';
 
 export interface AppOptions {
   /** Folder with the built client (index.html and assets); omitted in API-only tests. */
@@ -30,9 +27,7 @@ export type IngotraceApp = Express & { shutdown(): Promise<void> };
 
 /** Builds the Express app; never listens (index.ts does, tests use supertest). */
 export function createApp(context: AppContext, options: AppOptions = {}): IngotraceApp {
-  registerSignableRecordType(ledgerReviewRecordType);
-  registerSignableRecordType(heatRecordType);
-  registerSignableRecordType(specificationDraftRecordType);
+  registerProductRecordTypes();
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');

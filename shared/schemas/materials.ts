@@ -21,6 +21,21 @@ const positiveDecimal = z
 
 export const heatStatuses = ['received', 'accepted', 'rejected', 'quarantined'] as const;
 
+/** Why a YYYY-MM-DD day cannot be a receipt date, or null when it can. */
+function receiptDayProblem(day: string): string | null {
+  if (!/^\d{4}-\d{2}-\d{2}$/.test(day)) return 'A date as YYYY-MM-DD';
+  const time = Date.parse(`${day}T00:00:00Z`);
+  if (Number.isNaN(time) || new Date(time).toISOString().slice(0, 10) !== day) return 'Not a calendar date';
+  if (day < '2000-01-01') return 'A date from 2000 on';
+  if (time > Date.now()) return 'Not in the future';
+  return null;
+}
+
+const calendarDay = z.string().superRefine((day, context) => {
+  const problem = receiptDayProblem(day);
+  if (problem) context.addIssue({ code: 'custom', message: problem });
+});
+
 export const heatCreateSchema = z.object({
   heatNumber: z
     .string()
@@ -35,6 +50,8 @@ export const heatCreateSchema = z.object({
   productForm: z.enum(productForms),
   sizeMm: positiveDecimal,
   condition: z.string().trim().min(2).max(40).default('annealed'),
+  /** The day the heat arrived, when it is recorded later than that (YYYY-MM-DD, not in the future). */
+  receivedOn: calendarDay.optional(),
 });
 export type HeatCreate = z.input<typeof heatCreateSchema>;
 

@@ -56,6 +56,20 @@ describe('material intake: suppliers, heats, certificates, results, disposition'
     const invalid = await engineer.agent.post('/api/heats').set('X-CSRF-Token', engineer.csrf).send({ heatNumber: '', supplierId: 0, specId: 'ASTM F136', meltRoute: 'V', productForm: 'ingot', sizeMm: '-3' });
     expect(invalid.status).toBe(400);
     expect(Object.keys(invalid.body.error.fields).sort()).toEqual(['heatNumber', 'meltRoute', 'productForm', 'sizeMm', 'supplierId']);
+    const tomorrow = new Date(Date.now() + 2 * 86_400_000).toISOString().slice(0, 10);
+    for (const [receivedOn, message] of [[tomorrow, 'Not in the future'], ['2025-02-30', 'Not a calendar date'], ['02/03/2025', 'A date as YYYY-MM-DD']]) {
+      const refused = await engineer.agent.post('/api/heats').set('X-CSRF-Token', engineer.csrf).send({ heatNumber: 'TA-90009', supplierId, specId: 'ASTM F136', meltRoute: 'VAR ×3', productForm: 'bar', sizeMm: '25', receivedOn });
+      expect(refused.status).toBe(400);
+      expect(refused.body.error.fields).toEqual({ receivedOn: message });
+    }
+    expect((await running.database.dataSource.query("SELECT id FROM heat WHERE heat_number = 'TA-90009'")).length).toBe(0);
+  });
+
+  it('when a heat is recorded after the day it arrived, then the receipt date given is kept', async () => {
+    const engineer = as('engineer');
+    const response = await engineer.agent.post('/api/heats').set('X-CSRF-Token', engineer.csrf).send({ heatNumber: 'TA-90008', supplierId, specId: 'ASTM F136', meltRoute: 'VAR ×3', productForm: 'bar', sizeMm: '25.4', receivedOn: '2025-03-14' });
+    expect(response.status).toBe(201);
+    expect(response.body.receivedAt).toBe('2025-03-14T00:00:00.000Z');
   });
 
   it('when results are entered, then they are evaluated against the specification and kept with the revision used', async () => {
@@ -156,6 +170,30 @@ describe('material intake: suppliers, heats, certificates, results, disposition'
   });
 });
 
+describe('the demo scenario’s material history', () => {
+  const running = createTestApp();
+  afterAll(() => running.close());
+
+  it('when seeded, then it holds dozens of heats over two years from several mills, one quarantined by a marked seeded signature', async () => {
+    const db = await running.database.connect();
+    const [span] = await db.query("SELECT COUNT(*) AS heats, COUNT(DISTINCT supplier_id) AS mills, DATEDIFF(MAX(received_at), MIN(received_at)) AS days FROM heat WHERE received_by = (SELECT id FROM person WHERE subject = 'kiw-0101')");
+    expect(Number(span.heats)).toBeGreaterThanOrEqual(36);
+    expect(Number(span.mills)).toBeGreaterThanOrEqual(3);
+    expect(Number(span.days)).toBeGreaterThanOrEqual(680);
+    const quarantined = await db.query(
+      `SELECT h.heat_number, s.reason, r.purpose FROM heat h
+         JOIN electronic_signature s ON s.record_type = 'heat' AND s.record_id = CAST(h.id AS CHAR) AND s.meaning = 'quarantined'
+         JOIN reauthentication r ON r.id = s.reauthentication_id
+        WHERE h.status = 'quarantined'`,
+    );
+    expect(quarantined).toEqual([expect.objectContaining({ heat_number: 'OB-55208', purpose: expect.stringMatching(/^demo scenario: confirmed by the seed script/) })]);
+    const [failing] = await db.query("SELECT verdict FROM heat_evaluation e JOIN heat h ON h.id = e.heat_id WHERE h.heat_number = 'NV-25-0388'");
+    expect(failing.verdict).toBe('does-not-conform');
+    const [stock] = await db.query("SELECT COUNT(*) AS pieces FROM bar_piece b JOIN heat h ON h.id = b.heat_id WHERE h.status = 'accepted'");
+    expect(Number(stock.pieces)).toBeGreaterThanOrEqual(16);
+  });
+});
+
 describe('element trends per supplier and specification', () => {
   const running = createTestApp();
   afterAll(() => running.close());
@@ -166,8 +204,18 @@ describe('element trends per supplier and specification', () => {
     const [supplier] = await running.database.dataSource.query("SELECT id FROM supplier WHERE name = 'Nordvik Titanium Mill'");
     const response = await agent.get(`/api/trends?supplierId=${supplier.id}&specId=ASTM%20F136&element=O`);
     expect(response.status).toBe(200);
-    // The demo scenario's Nordvik F136 heats reported O 0.11, 0.10, 0.12 and 0.15, in that order.
-    expect(response.body.points.slice(0, 4).map((point: { value: string }) => point.value)).toEqual(['0.11', '0.1', '0.12', '0.15']);
+    const points: Array<{ heatNumber: string; receivedAt: string; value: string }> = response.body.points;
+    // Two years of demo history (16 heats) come before the four recent heats.
+    expect(points.length).toBeGreaterThanOrEqual(20);
+    expect(points.map((point) => point.receivedAt)).toEqual(points.map((point) => point.receivedAt).sort());
+    // The demo scenario's recent Nordvik F136 heats reported O 0.11, 0.10, 0.12 and 0.15, in that order.
+    const recent = ['NV-24-1107', 'NV-24-1162', 'NV-25-0214', 'NV-25-0388'];
+    expect(points.filter((point) => recent.includes(point.heatNumber)).map((point) => [point.heatNumber, point.value])).toEqual([
+      ['NV-24-1107', '0.11'],
+      ['NV-24-1162', '0.1'],
+      ['NV-25-0214', '0.12'],
+      ['NV-25-0388', '0.15'],
+    ]);
     expect(response.body.limit).toEqual({ max: '0.13', text: '≤ 0.13' });
     expect(response.body.capability.formula).toMatch(/^Cpk = min/);
     const missing = await agent.get(`/api/trends?supplierId=${supplier.id}&specId=ASTM%20F136&element=Zr`);

@@ -71,12 +71,12 @@ export async function listHeats(manager: EntityManager, query: HeatListQuery): P
 
 export async function insertHeat(
   manager: EntityManager,
-  heat: { heatNumber: string; supplierId: number; specId: string; specRevision: string; grade: string | null; meltRoute: string; productForm: string; sizeMm: string; condition: string; receivedBy: number },
+  heat: { heatNumber: string; supplierId: number; specId: string; specRevision: string; grade: string | null; meltRoute: string; productForm: string; sizeMm: string; condition: string; receivedBy: number; receivedOn?: string },
 ): Promise<number> {
   const result: { insertId: number } = await manager.query(
-    `INSERT INTO heat (heat_number, supplier_id, spec_id, spec_revision, grade, melt_route, product_form, size_mm, heat_condition, received_by)
-     VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
-    [heat.heatNumber, heat.supplierId, heat.specId, heat.specRevision, heat.grade, heat.meltRoute, heat.productForm, heat.sizeMm, heat.condition, heat.receivedBy],
+    `INSERT INTO heat (heat_number, supplier_id, spec_id, spec_revision, grade, melt_route, product_form, size_mm, heat_condition, received_by, received_at)
+     VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
+    [heat.heatNumber, heat.supplierId, heat.specId, heat.specRevision, heat.grade, heat.meltRoute, heat.productForm, heat.sizeMm, heat.condition, heat.receivedBy, heat.receivedOn ? `${heat.receivedOn} 00:00:00` : new Date()],
   );
   return Number(result.insertId);
 }

@@ -1,0 +1,11 @@
+import { ledgerReviewRecordType } from './ledger/ledger-review.record';
+import { heatRecordType } from './materials/heat.record';
+import { specificationDraftRecordType } from './materials/specification-drafts.service';
+import { registerSignableRecordType } from './signatures/signable-records';
+
+/** Every kind of record the product lets people sign; the app and the demo seed register the same set. */
+export function registerProductRecordTypes(): void {
+  registerSignableRecordType(ledgerReviewRecordType);
+  registerSignableRecordType(heatRecordType);
+  registerSignableRecordType(specificationDraftRecordType);
+}
