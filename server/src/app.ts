@@ -16,6 +16,7 @@ import { auditRouter } from './modules/ledger/audit.router';
 import { signaturesRouter } from './modules/signatures/signatures.router';
 import { materialsRouter } from './modules/materials/materials.router';
 import { barStockRouter } from './modules/materials/bar-stock.router';
+import { manufacturingRouter } from './modules/manufacturing/manufacturing.router';
 import { registerProductRecordTypes } from './modules/signable-record-types';
 
 export interface AppOptions {
@@ -79,6 +80,7 @@ export function createApp(context: AppContext, options: AppOptions = {}): Ingotr
   api.use(signaturesRouter(context));
   api.use(materialsRouter(context));
   api.use(barStockRouter(context));
+  api.use(manufacturingRouter(context));
   api.use(apiNotFound);
   app.use('/api', api);
 

@@ -14,6 +14,12 @@ export const actions = [
   'specifications.draft',
   'specifications.approve',
   'lots.read',
+  'lots.write',
+  'parts.manage',
+  'heat-mixing.approve',
+  'nonconformances.raise',
+  'nonconformances.disposition',
+  'shipments.write',
   'release.read',
   'trace.read',
   'audit.read',
@@ -25,9 +31,22 @@ export type Action = (typeof actions)[number];
 
 /** Role → the actions it may perform. The one permission matrix, used by server and client. */
 export const permissionMatrix: Record<Role, readonly Action[]> = {
-  'manufacturing-engineer': ['system.read', 'materials.read', 'materials.write', 'lots.read', 'release.read', 'trace.read'],
-  'qa-reviewer': ['system.read', 'materials.read', 'materials.disposition', 'specifications.draft', 'lots.read', 'release.read', 'trace.read', 'audit.read'],
-  'qa-approver': ['system.read', 'materials.read', 'suppliers.manage', 'specifications.draft', 'specifications.approve', 'lots.read', 'release.read', 'trace.read', 'audit.read'],
+  'manufacturing-engineer': ['system.read', 'materials.read', 'materials.write', 'lots.read', 'lots.write', 'parts.manage', 'nonconformances.raise', 'shipments.write', 'release.read', 'trace.read'],
+  'qa-reviewer': ['system.read', 'materials.read', 'materials.disposition', 'specifications.draft', 'lots.read', 'nonconformances.raise', 'release.read', 'trace.read', 'audit.read'],
+  'qa-approver': [
+    'system.read',
+    'materials.read',
+    'suppliers.manage',
+    'specifications.draft',
+    'specifications.approve',
+    'lots.read',
+    'heat-mixing.approve',
+    'nonconformances.raise',
+    'nonconformances.disposition',
+    'release.read',
+    'trace.read',
+    'audit.read',
+  ],
   // Read-only over everything.
   auditor: ['system.read', 'materials.read', 'lots.read', 'release.read', 'trace.read', 'audit.read', 'people.read'],
   'recall-coordinator': ['system.read', 'materials.read', 'lots.read', 'trace.read'],

@@ -15,6 +15,10 @@ const sampleParameters: Record<string, string> = {
   supplierId: '999999',
   documentId: '999999',
   pieceId: '999999',
+  partId: '999999',
+  lotId: '999999',
+  runId: '999999',
+  ncId: '999999',
   reauthenticationId: '0'.repeat(32),
 };
 

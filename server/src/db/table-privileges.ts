@@ -13,6 +13,8 @@ export const tableAccess: Record<string, TableAccess> = {
   certificate_document: 'append-only',
   heat_evaluation: 'append-only',
   specification_revision: 'append-only',
+  // Measurement files attached to an operation stay attached.
+  operation_file: 'append-only',
 };
 
 const privilegesByAccess: Record<TableAccess, string> = {

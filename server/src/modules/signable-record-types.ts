@@ -1,6 +1,8 @@
 import { ledgerReviewRecordType } from './ledger/ledger-review.record';
 import { heatRecordType } from './materials/heat.record';
 import { specificationDraftRecordType } from './materials/specification-drafts.service';
+import { heatMixingRecordType } from './manufacturing/heat-mixing.record';
+import { nonconformanceRecordType } from './manufacturing/nonconformances.service';
 import { registerSignableRecordType } from './signatures/signable-records';
 
 /** Every kind of record the product lets people sign; the app and the demo seed register the same set. */
@@ -8,4 +10,6 @@ export function registerProductRecordTypes(): void {
   registerSignableRecordType(ledgerReviewRecordType);
   registerSignableRecordType(heatRecordType);
   registerSignableRecordType(specificationDraftRecordType);
+  registerSignableRecordType(heatMixingRecordType);
+  registerSignableRecordType(nonconformanceRecordType);
 }

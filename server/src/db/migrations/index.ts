@@ -5,6 +5,7 @@ import { CreateElectronicSignatures1764648000000 } from './1764648000000-create-
 import { CreateMaterialIntake1764651600000 } from './1764651600000-create-material-intake';
 import { CreateBarStock1764655200000 } from './1764655200000-create-bar-stock';
 import { CreateSpecificationDrafts1764658800000 } from './1764658800000-create-specification-drafts';
+import { CreateManufacturingRecord1764662400000 } from './1764662400000-create-manufacturing-record';
 
 /** Every migration in the order it runs. Add new ones at the end. */
 export const migrations = [
@@ -15,4 +16,5 @@ export const migrations = [
   CreateMaterialIntake1764651600000,
   CreateBarStock1764655200000,
   CreateSpecificationDrafts1764658800000,
+  CreateManufacturingRecord1764662400000,
 ];

@@ -1,4 +1,5 @@
 import type { EntityManager } from 'typeorm';
+import { DecimalE29 } from '@shared/domain/materials/e29-rounding';
 import type { BarListQuery, BarPiece } from '@shared/schemas/materials';
 
 interface PieceRow {
@@ -18,12 +19,14 @@ interface PieceRow {
   status: BarPiece['status'];
   created_at: Date;
   created_by_name: string;
+  net_issued_mm: string | null;
 }
 
 const pieceSelect = `
   SELECT b.id, b.tag, b.heat_id, h.heat_number, h.status AS heat_status, h.spec_id, h.grade, parent.tag AS parent_tag,
          (SELECT GROUP_CONCAT(child.tag ORDER BY child.tag SEPARATOR ',') FROM bar_piece child WHERE child.parent_id = b.id) AS child_tags,
-         b.diameter_mm, b.length_mm, b.mass_kg, b.location, b.status, b.created_at, p.name AS created_by_name
+         b.diameter_mm, b.length_mm, b.mass_kg, b.location, b.status, b.created_at, p.name AS created_by_name,
+         (SELECT SUM(CASE m.kind WHEN 'issue' THEN m.length_mm ELSE -m.length_mm END) FROM material_movement m WHERE m.bar_piece_id = b.id) AS net_issued_mm
   FROM bar_piece b JOIN heat h ON h.id = b.heat_id LEFT JOIN bar_piece parent ON parent.id = b.parent_id JOIN person p ON p.id = b.created_by`;
 
 function toPiece(row: PieceRow): BarPiece {
@@ -35,8 +38,8 @@ function toPiece(row: PieceRow): BarPiece {
     childTags: row.child_tags ? row.child_tags.split(',') : [],
     diameterMm: row.diameter_mm,
     lengthMm: row.length_mm,
-    // Issues to production lots will reduce this; a cut piece lives on in its children.
-    remainingMm: row.status === 'cut' ? '0.00' : row.length_mm,
+    // Issues to production lots (less what came back) reduce it; a cut piece lives on in its children.
+    remainingMm: row.status === 'cut' ? '0.00' : new DecimalE29(row.length_mm).minus(row.net_issued_mm ?? '0').toFixed(2),
     massKg: row.mass_kg,
     location: row.location,
     status: row.status,
@@ -68,7 +71,7 @@ export async function listPieces(manager: EntityManager, query: BarListQuery): P
     const pattern = `%${query.search.replace(/[\\%_]/g, (character) => `\\${character}`)}%`;
     parameters.push(pattern, pattern, pattern);
   }
-  if (query.inStockOnly === 'true') where.push("b.status = 'in-stock'");
+  if (query.inStockOnly === 'true') where.push("b.status = 'in-stock' AND b.length_mm > COALESCE((SELECT SUM(CASE m.kind WHEN 'issue' THEN m.length_mm ELSE -m.length_mm END) FROM material_movement m WHERE m.bar_piece_id = b.id), 0)");
   const clause = where.length ? `WHERE ${where.join(' AND ')}` : '';
   const [count]: Array<{ total: string }> = await manager.query(`SELECT COUNT(*) AS total FROM bar_piece b JOIN heat h ON h.id = b.heat_id ${clause}`, parameters);
   const rows: PieceRow[] = await manager.query(`${pieceSelect} ${clause} ORDER BY b.created_at DESC, b.tag LIMIT ? OFFSET ?`, [...parameters, query.pageSize, (query.page - 1) * query.pageSize]);

@@ -1,0 +1,60 @@
+import type { EntityManager } from 'typeorm';
+import type { SignableRecordType } from '../signatures/signable-records';
+import { signaturesFor } from '../signatures/signatures.repository';
+import { findHeat } from '../materials/heats.repository';
+
+export const heatMixingRecordId = (lotId: number, heatId: number) => `${lotId}-${heatId}`;
+
+/** Whether a QA approver's signature (not withdrawn) allows this heat into this lot. */
+export async function heatMixingApproved(manager: EntityManager, lotId: number, heatId: number): Promise<boolean> {
+  const signatures = await signaturesFor(manager, 'heat-mixing', heatMixingRecordId(lotId, heatId));
+  const withdrawn = new Set(signatures.filter((row) => row.withdraws_signature_id !== null).map((row) => String(row.withdraws_signature_id)));
+  return signatures.some((row) => row.meaning === 'approved' && !withdrawn.has(String(row.id)));
+}
+
+/**
+ * A lot is made from one heat unless a QA approver signs that a further heat may be mixed in:
+ * the signature binds the lot, its part, the heats already in it and the heat to be added.
+ */
+export const heatMixingRecordType: SignableRecordType = {
+  type: 'heat-mixing',
+  label: 'heat mixing approval',
+  action: 'heat-mixing.approve',
+  meanings: ['approved', 'withdrawn'],
+  async load(manager, recordId) {
+    const match = /^(\d{1,10})-(\d{1,10})$/.exec(recordId);
+    if (!match) return null;
+    const [lotId, heatId] = [Number(match[1]), Number(match[2])];
+    const [lot]: Array<{ lot_number: string; part_number: string; revision: string; opened_by: number; status: string }> = await manager.query(
+      'SELECT l.lot_number, p.part_number, p.revision, l.opened_by, l.status FROM production_lot l JOIN part p ON p.id = l.part_id WHERE l.id = ?',
+      [lotId],
+    );
+    const heat = await findHeat(manager, heatId);
+    if (!lot || !heat) return null;
+    const already: Array<{ heat_number: string }> = await manager.query(
+      "SELECT DISTINCT h.heat_number FROM material_movement m JOIN bar_piece b ON b.id = m.bar_piece_id JOIN heat h ON h.id = b.heat_id WHERE m.lot_id = ? AND m.kind = 'issue' ORDER BY h.heat_number",
+      [lotId],
+    );
+    return {
+      title: `Mix heat ${heat.heatNumber} into lot ${lot.lot_number}`,
+      content: {
+        lot: lot.lot_number,
+        part: `${lot.part_number} rev ${lot.revision}`,
+        heatsInLot: already.map((row) => row.heat_number),
+        heatToAdd: `${heat.heatNumber} from ${heat.supplier.name} (${heat.spec.id} ${heat.spec.revision}${heat.spec.grade ? ` grade ${heat.spec.grade}` : ''}), ${heat.status}`,
+      },
+      authorIds: [lot.opened_by],
+      lotStatus: lot.status,
+      heatStatus: heat.status,
+      heatsInLot: already.length,
+    };
+  },
+  refusal({ meaning, record }) {
+    if (meaning !== 'approved') return null;
+    const facts = record as unknown as { lotStatus: string; heatStatus: string; heatsInLot: number };
+    if (facts.lotStatus !== 'open') return `The lot is ${facts.lotStatus}; no more bar can be issued to it`;
+    if (facts.heatStatus !== 'accepted') return `The heat is ${facts.heatStatus}; only an accepted heat can be mixed in`;
+    if (facts.heatsInLot === 0) return 'The lot has no heat yet; the first heat needs no approval';
+    return null;
+  },
+};

@@ -1,0 +1,27 @@
+import type { EntityManager } from 'typeorm';
+import { unitChain, type UnitChain } from '@shared/domain/manufacturing/unit-chain';
+import { unitFacts } from './lots.repository';
+
+/** The unit chain of each lot, computed from its recorded steps and the splits and merges out of it. */
+export async function unitChains(manager: EntityManager, lotIds: number[]): Promise<Map<number, UnitChain>> {
+  const { lots, operations, links } = await unitFacts(manager, lotIds);
+  const chains = new Map<number, UnitChain>();
+  for (const lot of lots) {
+    const steps = operations
+      .filter((operation) => operation.lot_id === lot.id)
+      .map((operation) => ({ stepNo: operation.step_no, name: operation.step_name, qtyIn: operation.qty_in, qtyGood: operation.qty_good, qtyScrap: operation.qty_scrap }));
+    const outflows = links.filter((link) => link.parent_lot_id === lot.id).map((link) => ({ afterStep: link.after_step, qty: link.qty, toLot: link.child_number }));
+    chains.set(lot.id, unitChain({ qty: lot.start_qty, afterStep: lot.resumes_after_step }, steps, outflows));
+  }
+  return chains;
+}
+
+/** The last routing step a lot has completed (its own, or the one it resumed after). */
+export async function lastStepOf(manager: EntityManager, lotId: number): Promise<number> {
+  const [row]: Array<{ last: number | null; resumes: number }> = await manager.query(
+    `SELECT (SELECT MAX(s.step_no) FROM lot_operation o JOIN routing_step s ON s.id = o.routing_step_id WHERE o.lot_id = l.id) AS last, l.resumes_after_step AS resumes
+       FROM production_lot l WHERE l.id = ?`,
+    [lotId],
+  );
+  return Math.max(row?.last ?? 0, row?.resumes ?? 0);
+}

@@ -1,0 +1,153 @@
+import type { EntityManager } from 'typeorm';
+import type { LotListQuery, LotSummary } from '@shared/schemas/manufacturing';
+
+export interface LotRow {
+  id: number;
+  lot_number: string;
+  part_id: number;
+  part_number: string;
+  revision: string;
+  description: string;
+  planned_qty: number;
+  start_qty: number | null;
+  origin: LotSummary['origin'];
+  resumes_after_step: number;
+  status: LotSummary['status'];
+  released_qty: number;
+  opened_at: Date;
+  opened_by: number;
+  opened_by_name: string;
+  heats: string | null;
+  open_ncs: string | number;
+}
+
+const lotSelect = `
+  SELECT l.*, p.part_number, p.revision, p.description, person.name AS opened_by_name,
+         (SELECT GROUP_CONCAT(DISTINCT h.heat_number ORDER BY h.heat_number SEPARATOR ',')
+            FROM material_movement m JOIN bar_piece b ON b.id = m.bar_piece_id JOIN heat h ON h.id = b.heat_id WHERE m.lot_id = l.id) AS heats,
+         (SELECT COUNT(*) FROM nonconformance n WHERE n.lot_id = l.id AND n.status <> 'closed') AS open_ncs
+  FROM production_lot l JOIN part p ON p.id = l.part_id JOIN person ON person.id = l.opened_by`;
+
+export function toLotSummary(row: LotRow, onHand: number | null): LotSummary {
+  return {
+    id: row.id,
+    lotNumber: row.lot_number,
+    part: { id: row.part_id, partNumber: row.part_number, revision: row.revision, description: row.description },
+    plannedQty: row.planned_qty,
+    status: row.status,
+    origin: row.origin,
+    onHand,
+    heats: row.heats ? row.heats.split(',') : [],
+    openNonconformances: Number(row.open_ncs),
+    openedAt: new Date(row.opened_at).toISOString(),
+    openedBy: row.opened_by_name,
+  };
+}
+
+export async function findLotRow(manager: EntityManager, id: number, lock = false): Promise<LotRow | null> {
+  if (lock) await manager.query('SELECT id FROM production_lot WHERE id = ? FOR UPDATE', [id]);
+  const [row]: LotRow[] = await manager.query(`${lotSelect} WHERE l.id = ?`, [id]);
+  return row ?? null;
+}
+
+export async function findLotIdByNumber(manager: EntityManager, lotNumber: string): Promise<number | null> {
+  const [row]: Array<{ id: number }> = await manager.query('SELECT id FROM production_lot WHERE lot_number = ?', [lotNumber]);
+  return row?.id ?? null;
+}
+
+const sortColumns = { lotNumber: 'l.lot_number', openedAt: 'l.opened_at', status: 'l.status' } as const;
+
+export async function listLotRows(manager: EntityManager, query: LotListQuery): Promise<{ rows: LotRow[]; total: number }> {
+  const where: string[] = [];
+  const parameters: unknown[] = [];
+  if (query.search) {
+    const pattern = `%${query.search.replace(/[\\%_]/g, (character) => `\\${character}`)}%`;
+    where.push('(l.lot_number LIKE ? OR p.part_number LIKE ?)');
+    parameters.push(pattern, pattern);
+  }
+  if (query.status) {
+    where.push('l.status = ?');
+    parameters.push(query.status);
+  }
+  if (query.partId) {
+    where.push('l.part_id = ?');
+    parameters.push(query.partId);
+  }
+  const clause = where.length ? `WHERE ${where.join(' AND ')}` : '';
+  const [count]: Array<{ total: string }> = await manager.query(`SELECT COUNT(*) AS total FROM production_lot l JOIN part p ON p.id = l.part_id ${clause}`, parameters);
+  const order = `${sortColumns[query.sort]} ${query.order === 'asc' ? 'ASC' : 'DESC'}, l.id ${query.order === 'asc' ? 'ASC' : 'DESC'}`;
+  const rows: LotRow[] = await manager.query(`${lotSelect} ${clause} ORDER BY ${order} LIMIT ? OFFSET ?`, [...parameters, query.pageSize, (query.page - 1) * query.pageSize]);
+  return { rows, total: Number(count?.total ?? 0) };
+}
+
+export interface OperationRow {
+  id: number;
+  lot_id: number;
+  routing_step_id: number;
+  step_no: number;
+  step_name: string;
+  kind: string;
+  operator_name: string;
+  work_centre: string;
+  program_revision: string | null;
+  started_at: Date;
+  ended_at: Date;
+  qty_in: number;
+  qty_good: number;
+  qty_scrap: number;
+  scrap_reasons: string;
+  sample_size: number | null;
+  defects_found: number | null;
+  verdict: 'accept' | 'reject' | null;
+  process_run_id: number | null;
+  run_number: string | null;
+  in_window: number | null;
+  notes: string | null;
+  recorded_by_name: string;
+  recorded_by: number;
+  recorded_at: Date;
+}
+
+export async function operationRows(manager: EntityManager, lotIds: number[]): Promise<OperationRow[]> {
+  if (!lotIds.length) return [];
+  return manager.query(
+    `SELECT o.*, s.step_no, s.name AS step_name, s.kind, r.run_number, r.in_window, p.name AS recorded_by_name
+       FROM lot_operation o JOIN routing_step s ON s.id = o.routing_step_id
+       LEFT JOIN process_run r ON r.id = o.process_run_id JOIN person p ON p.id = o.recorded_by
+      WHERE o.lot_id IN (${lotIds.map(() => '?').join(',')}) ORDER BY o.lot_id, s.step_no`,
+    lotIds,
+  );
+}
+
+export interface LinkRow {
+  parent_lot_id: number;
+  child_lot_id: number;
+  kind: 'split' | 'merge';
+  qty: number;
+  after_step: number;
+  parent_number: string;
+  child_number: string;
+  recorded_at: Date;
+  recorded_by_name: string;
+}
+
+export async function linkRows(manager: EntityManager, lotIds: number[]): Promise<LinkRow[]> {
+  if (!lotIds.length) return [];
+  const marks = lotIds.map(() => '?').join(',');
+  return manager.query(
+    `SELECT k.*, pl.lot_number AS parent_number, cl.lot_number AS child_number, p.name AS recorded_by_name
+       FROM lot_link k JOIN production_lot pl ON pl.id = k.parent_lot_id JOIN production_lot cl ON cl.id = k.child_lot_id JOIN person p ON p.id = k.recorded_by
+      WHERE k.parent_lot_id IN (${marks}) OR k.child_lot_id IN (${marks})`,
+    [...lotIds, ...lotIds],
+  );
+}
+
+/** What unit-chain needs for a set of lots: start, recorded steps and outflows. */
+export async function unitFacts(manager: EntityManager, lotIds: number[]) {
+  const lots: Array<{ id: number; start_qty: number | null; resumes_after_step: number }> = lotIds.length
+    ? await manager.query(`SELECT id, start_qty, resumes_after_step FROM production_lot WHERE id IN (${lotIds.map(() => '?').join(',')})`, lotIds)
+    : [];
+  const operations = await operationRows(manager, lotIds);
+  const links = await linkRows(manager, lotIds);
+  return { lots, operations, links };
+}

@@ -1,0 +1,108 @@
+import type { DataSource } from 'typeorm';
+import { dispositionInputSchema, nonconformanceInputSchema, type DispositionInput, type NonconformanceInput, type NonconformanceListQuery } from '@shared/schemas/manufacturing';
+import type { Person } from '@shared/schemas/people';
+import { AppError } from '../../errors';
+import { inTransaction } from '../../db/transaction';
+import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
+import type { SignableRecordType } from '../signatures/signable-records';
+import { findNonconformance, insertNonconformance, listNonconformanceRows } from './nonconformances.repository';
+
+const subjectTables = { heat: 'heat', 'bar-piece': 'bar_piece', lot: 'production_lot', 'process-run': 'process_run' } as const;
+
+export async function listNonconformances(dataSource: DataSource, query: NonconformanceListQuery) {
+  const { items, total } = await listNonconformanceRows(dataSource.manager, query);
+  return { items: items.map(({ raisedById: _by, ...nc }) => nc), total, page: query.page, pageSize: query.pageSize };
+}
+
+export async function nonconformanceDetail(dataSource: DataSource, id: number) {
+  const nc = await findNonconformance(dataSource.manager, id);
+  if (!nc) throw AppError.notFound('Nonconformance');
+  const { raisedById: _by, ...rest } = nc;
+  return rest;
+}
+
+export async function raiseNonconformance(dataSource: DataSource, raw: NonconformanceInput, person: Person, actor: Actor, origin: RequestOrigin) {
+  const input = nonconformanceInputSchema.parse(raw);
+  const id = await inTransaction(dataSource, async (manager) => {
+    const [subject] = await manager.query(`SELECT id FROM ${subjectTables[input.subjectType]} WHERE id = ?`, [input.subjectId]);
+    if (!subject) throw AppError.rule(`No ${input.subjectType} with id ${input.subjectId}`, { subjectId: 'Unknown record' });
+    const nc = await insertNonconformance(manager, {
+      subjectType: input.subjectType,
+      subjectId: input.subjectId,
+      lotId: input.subjectType === 'lot' ? input.subjectId : null,
+      runId: input.subjectType === 'process-run' ? input.subjectId : null,
+      source: 'raised',
+      description: input.description,
+      containment: input.containment,
+      raisedBy: person.id,
+    });
+    await appendLedgerEvent(manager, { actor, action: 'nonconformance.raised', entity: { type: 'nonconformance', id: nc.id }, after: { ncNumber: nc.ncNumber, ...input }, origin });
+    return nc.id;
+  });
+  return nonconformanceDetail(dataSource, id);
+}
+
+/** The QA approver states the disposition before signing it; it can change until it is signed. */
+export async function proposeDisposition(dataSource: DataSource, id: number, raw: DispositionInput, actor: Actor, origin: RequestOrigin) {
+  const input = dispositionInputSchema.parse(raw);
+  await inTransaction(dataSource, async (manager) => {
+    const nc = await findNonconformance(manager, id, true);
+    if (!nc) throw AppError.notFound('Nonconformance');
+    if (nc.status !== 'open') throw AppError.rule(`${nc.ncNumber} is ${nc.status}; its disposition is signed`, { disposition: 'Already signed' });
+    await manager.query('UPDATE nonconformance SET disposition = ?, disposition_note = ? WHERE id = ?', [input.disposition, input.note, id]);
+    await appendLedgerEvent(manager, { actor, action: 'nonconformance.disposition-proposed', entity: { type: 'nonconformance', id }, before: { disposition: nc.disposition, note: nc.dispositionNote }, after: input, origin });
+  });
+  return nonconformanceDetail(dataSource, id);
+}
+
+/**
+ * A nonconformance's disposition and its closure are each an electronic signature by a QA
+ * approver who did not raise it; closing needs the disposition signed first and a reason.
+ */
+export const nonconformanceRecordType: SignableRecordType = {
+  type: 'nonconformance',
+  label: 'nonconformance',
+  action: 'nonconformances.disposition',
+  meanings: ['dispositioned', 'closed'],
+  async load(manager, recordId) {
+    if (!/^\d{1,10}$/.test(recordId)) return null;
+    const nc = await findNonconformance(manager, Number(recordId));
+    if (!nc) return null;
+    return {
+      title: `${nc.ncNumber}: ${nc.subjectLabel}`,
+      content: {
+        nonconformance: nc.ncNumber,
+        subject: nc.subjectLabel,
+        lot: nc.lotNumber,
+        run: nc.runNumber,
+        description: nc.description,
+        containment: nc.containment,
+        disposition: nc.disposition,
+        dispositionNote: nc.dispositionNote,
+      },
+      authorIds: [nc.raisedById],
+      status: nc.status,
+    };
+  },
+  refusal({ meaning, record }) {
+    const facts = record as unknown as { status: string; content: { disposition: string | null } };
+    if (meaning === 'dispositioned') {
+      if (facts.status !== 'open') return `The nonconformance is already ${facts.status}`;
+      if (!facts.content.disposition) return 'State the disposition before signing it';
+    }
+    if (meaning === 'closed' && facts.status !== 'dispositioned') return facts.status === 'closed' ? 'The nonconformance is already closed' : 'Sign the disposition before closing the nonconformance';
+    return null;
+  },
+  async afterSign(manager, { recordId, meaning, signerId, signerName, reason }) {
+    const status = meaning === 'dispositioned' ? 'dispositioned' : meaning === 'closed' ? 'closed' : null;
+    if (!status) return;
+    await manager.query('UPDATE nonconformance SET status = ? WHERE id = ?', [status, Number(recordId)]);
+    await appendLedgerEvent(manager, {
+      actor: { id: signerId, name: signerName, role: 'qa-approver' },
+      action: `nonconformance.${status}`,
+      entity: { type: 'nonconformance', id: Number(recordId) },
+      after: { status },
+      reason,
+    });
+  },
+};
