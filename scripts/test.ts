@@ -91,7 +91,8 @@ async function main(): Promise<void> {
         await buildClientIfStale();
         const output = `${reportDir}/playwright.json`;
         process.env.PLAYWRIGHT_JSON_OUTPUT_NAME = output;
-        const code = await runInherited(bin('playwright'), ['test', '--reporter=list,json']);
+        // File filters apply to Playwright only when it is the one runner chosen (`--only=e2e <files>`).
+        const code = await runInherited(bin('playwright'), ['test', '--reporter=list,json', ...(chosen.size === 1 ? positionals : [])]);
         const report = readJson<{ stats: { expected: number; unexpected: number; flaky: number } }>(output);
         if (!report) return { passed: 0, failed: 1 };
         const { expected, unexpected, flaky } = report.stats;

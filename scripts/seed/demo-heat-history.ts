@@ -16,7 +16,7 @@ export interface DemoHeat {
 }
 
 /** mulberry32: a small, well-known 32-bit generator; good enough for invented demo values. */
-function generator(seed: number): () => number {
+export function generator(seed: number): () => number {
   let state = seed >>> 0;
   return () => {
     state = (state + 0x6d2b79f5) >>> 0;

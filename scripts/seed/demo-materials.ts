@@ -138,14 +138,14 @@ export async function seedDemoMaterials(dataSource: DataSource): Promise<void> {
   for (const [index, heat] of recentHeats.entries()) {
     await enterHeat(dataSource, { ...heat, daysAgo: 60 - index * 5 }, supplierIds, engineer);
   }
-  await seedDemoBarStock(dataSource, accepted.slice(-8), engineer);
+  await seedDemoBarStock(dataSource, accepted, engineer);
 }
 
-/** Bar from the newest accepted heats: two 3 m bars of each, in the bar store. */
+/** Bar from every accepted heat: six 3 m bars of each, in the bar store (production lots draw on them). */
 async function seedDemoBarStock(dataSource: DataSource, heats: Array<{ id: number; heat: DemoHeat }>, engineer: Person): Promise<void> {
   const actor = { id: engineer.id, name: engineer.name, role: 'manufacturing-engineer' };
   for (const [index, { id, heat }] of heats.entries()) {
-    for (const bar of [1, 2]) {
+    for (const bar of [1, 2, 3, 4, 5, 6]) {
       await receiveBar(
         dataSource,
         { heatId: id, tag: `${heat.heatNumber.replace(/[^A-Z0-9]+/g, '-')}-B${bar}`, diameterMm: heat.sizeMm, lengthMm: '3000', massKg: barMassKg(heat.specId, heat.sizeMm, 3000), location: `Bar store rack ${String.fromCharCode(65 + (index % 4))}${bar}` },

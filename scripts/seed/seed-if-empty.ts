@@ -2,6 +2,7 @@ import type { AppConfig } from '../../server/src/config/env';
 import { createDataSource } from '../../server/src/db/connection-options';
 import { isDatabaseEmpty, seedDemoScenario } from './demo-scenario';
 import { seedDemoMaterials } from './demo-materials';
+import { seedDemoManufacturing } from './demo-manufacturing';
 
 /** Seeds the demo scenario if the database holds no organisation yet; returns whether it seeded. */
 export async function seedIfEmpty(config: AppConfig): Promise<boolean> {
@@ -11,6 +12,7 @@ export async function seedIfEmpty(config: AppConfig): Promise<boolean> {
     if (!(await isDatabaseEmpty(dataSource))) return false;
     await seedDemoScenario(dataSource, config.roleMap);
     await seedDemoMaterials(dataSource);
+    await seedDemoManufacturing(dataSource);
     return true;
   } finally {
     await dataSource.destroy();

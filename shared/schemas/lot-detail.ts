@@ -90,7 +90,7 @@ export interface LotDetail extends LotSummary {
   releasedQty: number;
   material: MaterialMovement[];
   operations: OperationRecord[];
-  nextStep: { stepNo: number; name: string; kind: string } | null;
+  nextRoutingStep: { stepNo: number; name: string; kind: string } | null;
   parents: LotLink[];
   children: LotLink[];
   nonconformances: NonconformanceSummary[];

@@ -113,6 +113,8 @@ export const lotListQuerySchema = z.object({
   search: z.string().trim().max(40).optional(),
   status: z.enum(lotStatuses).optional(),
   partId: z.coerce.number().int().positive().optional(),
+  /** Only open lots whose next routing step is of this kind (e.g. due for passivation). */
+  dueFor: z.enum(routingKinds).optional(),
   sort: z.enum(['lotNumber', 'openedAt', 'status']).default('openedAt'),
   order: z.enum(['asc', 'desc']).default('desc'),
   ...page,
@@ -128,6 +130,8 @@ export const lotSummarySchema = z.object({
   origin: z.enum(['bar', 'split', 'merge']),
   onHand: z.number().int().nullable(),
   heats: z.array(z.string()),
+  /** The next routing step to record, or null when the routing is complete. */
+  nextStep: z.string().nullable(),
   openNonconformances: z.number().int(),
   openedAt: z.string(),
   openedBy: z.string(),

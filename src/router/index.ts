@@ -4,13 +4,15 @@ import { rolesAllow } from '@shared/auth/permissions';
 import { productAreas, type AreaRouteName } from '../navigation/areas';
 import { meQuery } from '../api/session';
 
-export type RouteName = 'overview' | AreaRouteName | 'heat' | 'bar-piece' | 'specifications' | 'sign-in' | 'signed-out' | 'reauthentication-complete' | 'not-permitted' | 'not-found';
+export type RouteName = 'overview' | AreaRouteName | 'heat' | 'bar-piece' | 'specifications' | 'lot' | 'parts' | 'process-run' | 'nonconformances' | 'nonconformance' | 'consignees' | 'sign-in' | 'signed-out' | 'reauthentication-complete' | 'not-permitted' | 'not-found';
 
 /** Areas that are built; the rest show what they will hold. */
 const areaViews: Partial<Record<AreaRouteName, () => Promise<unknown>>> = {
   administration: () => import('../views/PeopleAdministrationView.vue'),
   heats: () => import('../views/HeatsView.vue'),
   'bar-stock': () => import('../views/BarStockView.vue'),
+  lots: () => import('../views/LotsView.vue'),
+  'process-runs': () => import('../views/ProcessRunsView.vue'),
   audit: () => import('../views/AuditLedgerView.vue'),
 };
 
@@ -35,6 +37,32 @@ export const routes: RouteRecordRaw[] = [
     name: 'bar-piece',
     component: () => import('../views/BarPieceView.vue'),
     meta: { title: 'Bar piece', area: 'bar-stock', action: 'materials.read' },
+  },
+  {
+    path: '/lots/:lotId(\\d+)',
+    name: 'lot',
+    component: () => import('../views/LotDetailView.vue'),
+    meta: { title: 'Lot', area: 'lots', action: 'lots.read' },
+  },
+  { path: '/consignees', name: 'consignees', component: () => import('../views/ConsigneesView.vue'), meta: { title: 'Consignees', area: 'lots', action: 'lots.read' } },
+  { path: '/parts', name: 'parts', component: () => import('../views/PartsView.vue'), meta: { title: 'Parts and routings', area: 'lots', action: 'lots.read' } },
+  {
+    path: '/process-runs/:runId(\\d+)',
+    name: 'process-run',
+    component: () => import('../views/ProcessRunDetailView.vue'),
+    meta: { title: 'Process run', area: 'process-runs', action: 'lots.read' },
+  },
+  {
+    path: '/nonconformances',
+    name: 'nonconformances',
+    component: () => import('../views/NonconformancesView.vue'),
+    meta: { title: 'Nonconformances', area: 'lots', action: 'lots.read' },
+  },
+  {
+    path: '/nonconformances/:ncId(\\d+)',
+    name: 'nonconformance',
+    component: () => import('../views/NonconformanceDetailView.vue'),
+    meta: { title: 'Nonconformance', area: 'lots', action: 'lots.read' },
   },
   {
     path: '/specifications',

@@ -57,11 +57,13 @@ describe('the manufacturing record: parts, lots, material, operations, runs, non
       people[name] = { agent, csrf: await csrfTokenOf(agent), subject };
     }
     const db = await running.database.connect();
-    // Two accepted F136 heats from the demo scenario, one bar of each.
-    const rows: Array<{ tag: string }> = await db.query(
-      `SELECT b.tag FROM bar_piece b JOIN heat h ON h.id = b.heat_id WHERE h.status = 'accepted' AND h.spec_id = 'ASTM F136' AND b.tag LIKE '%-B2' ORDER BY b.id DESC LIMIT 2`,
-    );
-    tags = rows.map((row) => row.tag);
+    // Two accepted F136 heats from the demo scenario; the test receives its own bar of each.
+    const heats: Array<{ id: number }> = await db.query("SELECT id FROM heat WHERE status = 'accepted' AND spec_id = 'ASTM F136' ORDER BY id DESC LIMIT 2");
+    tags = ['TST-BAR-01', 'TST-BAR-02'];
+    for (const [index, heat] of heats.entries()) {
+      const received = await post('engineer', '/api/bar-pieces', { heatId: heat.id, tag: tags[index], diameterMm: '25.4', lengthMm: '3000', location: 'Test rack' });
+      if (received.status !== 201) throw new Error(`receiving test bar answered ${received.status}`);
+    }
   });
   afterAll(() => running.close());
 
@@ -152,6 +154,27 @@ describe('the manufacturing record: parts, lots, material, operations, runs, non
       await post('engineer', `/api/lots/${other.id}/operations`, operation(10, 10));
       await post('engineer', `/api/lots/${other.id}/operations`, operation(20, 10));
     }
+  });
+
+  it('when a measurement file is attached to an operation, then its type comes from its bytes and it downloads as stored', async () => {
+    const lot = await detail(lots[0]!.id);
+    const turning = lot.operations.find((operation) => operation.stepNo === 10)!;
+    const path = `/api/lots/${lot.id}/operations/${turning.id}/files`;
+    const attach = (bytes: Buffer, name: string) => people.engineer!.agent.post(path).set('X-CSRF-Token', people.engineer!.csrf).attach('file', bytes, name);
+    const csv = Buffer.from('feature,nominal,measured\nthread OD,3.50,3.49\n');
+    const attached = await attach(csv, 'cmm-report.csv');
+    expect(attached.status).toBe(201);
+    expect(attached.body).toMatchObject({ mediaType: 'text/csv', name: 'cmm-report.csv' });
+    const fake = await attach(Buffer.from([0x4d, 0x5a, 0x90, 0x00, 0x03, 0x00, 0x00, 0x00]), 'report.pdf');
+    expect(fake.status).toBe(415);
+    expect(fake.body.error.fields).toEqual({ file: 'Attach measurements as PDF, PNG, JPEG, CSV or text' });
+    const binaryCsv = await attach(Buffer.from([0x61, 0x00, 0x62]), 'sneaky.csv');
+    expect(binaryCsv.status).toBe(415);
+    const download = await people.auditor!.agent.get(`${path}/${attached.body.documentId}`);
+    expect(download.status).toBe(200);
+    expect(download.headers['content-type']).toMatch(/^text\/csv/);
+    expect(download.text).toBe(csv.toString('utf8'));
+    expect((await detail(lot.id)).operations.find((operation) => operation.id === turning.id)?.files).toEqual([{ documentId: attached.body.documentId, name: 'cmm-report.csv', sha256: attached.body.sha256 }]);
   });
 
   it('when three lots go through a passivation run in window and a cleaning run out of window, then each out-of-window lot gets a nonconformance', async () => {

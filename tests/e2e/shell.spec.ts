@@ -2,8 +2,6 @@ import { expect, test } from '@playwright/test';
 import { signInAs } from './support/sign-in';
 
 const areas = [
-  { link: 'Production lots', path: '/lots', caution: true },
-  { link: 'Process runs', path: '/process-runs', caution: false },
   { link: 'Release desk', path: '/release', caution: true },
   { link: 'Trace and recall', path: '/trace', caution: false },
 ];

@@ -4,7 +4,7 @@ import { reconcileMaterial } from '@shared/domain/manufacturing/material-reconci
 import type { LotDetail, MaterialMovement, OperationRecord, ShipmentRecord, TimelineEntry } from '@shared/schemas/lot-detail';
 import { AppError } from '../../errors';
 import { findPart } from './parts.service';
-import { findLotRow, linkRows, operationRows, toLotSummary } from './lots.repository';
+import { findLotRow, heatsByLot, linkRows, operationRows, toLotSummary } from './lots.repository';
 import { unitChains } from './lot-units';
 import { nonconformancesWhere } from './nonconformances.repository';
 
@@ -136,14 +136,14 @@ export async function lotDetail(dataSource: DataSource, lotId: number): Promise<
     ...shipments.map((shipment): TimelineEntry => ({ at: `${shipment.shippedOn}T00:00:00.000Z`, kind: 'shipment', title: `Shipped ${shipment.qty} to ${shipment.consignee.name}`, detail: shipment.documentNumber, by: shipment.recordedBy, link: null })),
   ].sort((a, b) => a.at.localeCompare(b.at));
   return {
-    ...toLotSummary(row, chain.started === null ? null : chain.onHand),
+    ...toLotSummary(row, chain.started === null ? null : chain.onHand, (await heatsByLot(manager, [lotId])).get(lotId) ?? []),
     partRecord: part,
     startQty: row.start_qty,
     resumesAfterStep: row.resumes_after_step,
     releasedQty: row.released_qty,
     material,
     operations,
-    nextStep: next ? { stepNo: next.stepNo, name: next.name, kind: next.kind } : null,
+    nextRoutingStep: next ? { stepNo: next.stepNo, name: next.name, kind: next.kind } : null,
     parents,
     children,
     nonconformances,

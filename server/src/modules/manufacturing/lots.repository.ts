@@ -17,18 +17,18 @@ export interface LotRow {
   opened_at: Date;
   opened_by: number;
   opened_by_name: string;
-  heats: string | null;
+  next_step: string | null;
   open_ncs: string | number;
 }
 
 const lotSelect = `
   SELECT l.*, p.part_number, p.revision, p.description, person.name AS opened_by_name,
-         (SELECT GROUP_CONCAT(DISTINCT h.heat_number ORDER BY h.heat_number SEPARATOR ',')
-            FROM material_movement m JOIN bar_piece b ON b.id = m.bar_piece_id JOIN heat h ON h.id = b.heat_id WHERE m.lot_id = l.id) AS heats,
+         (SELECT s.name FROM routing_step s WHERE s.part_id = l.part_id AND s.step_no > l.resumes_after_step
+             AND NOT EXISTS (SELECT 1 FROM lot_operation o WHERE o.lot_id = l.id AND o.routing_step_id = s.id) ORDER BY s.step_no LIMIT 1) AS next_step,
          (SELECT COUNT(*) FROM nonconformance n WHERE n.lot_id = l.id AND n.status <> 'closed') AS open_ncs
   FROM production_lot l JOIN part p ON p.id = l.part_id JOIN person ON person.id = l.opened_by`;
 
-export function toLotSummary(row: LotRow, onHand: number | null): LotSummary {
+export function toLotSummary(row: LotRow, onHand: number | null, heats: string[]): LotSummary {
   return {
     id: row.id,
     lotNumber: row.lot_number,
@@ -37,7 +37,8 @@ export function toLotSummary(row: LotRow, onHand: number | null): LotSummary {
     status: row.status,
     origin: row.origin,
     onHand,
-    heats: row.heats ? row.heats.split(',') : [],
+    heats,
+    nextStep: row.next_step,
     openNonconformances: Number(row.open_ncs),
     openedAt: new Date(row.opened_at).toISOString(),
     openedBy: row.opened_by_name,
@@ -72,6 +73,11 @@ export async function listLotRows(manager: EntityManager, query: LotListQuery): 
   if (query.partId) {
     where.push('l.part_id = ?');
     parameters.push(query.partId);
+  }
+  if (query.dueFor) {
+    where.push(`l.status = 'open' AND (SELECT s.kind FROM routing_step s WHERE s.part_id = l.part_id AND s.step_no > l.resumes_after_step
+                  AND NOT EXISTS (SELECT 1 FROM lot_operation o WHERE o.lot_id = l.id AND o.routing_step_id = s.id) ORDER BY s.step_no LIMIT 1) = ?`);
+    parameters.push(query.dueFor);
   }
   const clause = where.length ? `WHERE ${where.join(' AND ')}` : '';
   const [count]: Array<{ total: string }> = await manager.query(`SELECT COUNT(*) AS total FROM production_lot l JOIN part p ON p.id = l.part_id ${clause}`, parameters);
@@ -150,4 +156,21 @@ export async function unitFacts(manager: EntityManager, lotIds: number[]) {
   const operations = await operationRows(manager, lotIds);
   const links = await linkRows(manager, lotIds);
   return { lots, operations, links };
+}
+
+/** The heats each lot's units came from: its own bar, or its ancestors' through splits and merges. */
+export async function heatsByLot(manager: EntityManager, lotIds: number[]): Promise<Map<number, string[]>> {
+  const result = new Map<number, string[]>(lotIds.map((id) => [id, []]));
+  if (!lotIds.length) return result;
+  const rows: Array<{ root: number; heat_number: string }> = await manager.query(
+    `WITH RECURSIVE ancestry (lot_id, root) AS (
+       SELECT id, id FROM production_lot WHERE id IN (${lotIds.map(() => '?').join(',')})
+       UNION SELECT k.parent_lot_id, ancestry.root FROM lot_link k JOIN ancestry ON k.child_lot_id = ancestry.lot_id)
+     SELECT DISTINCT ancestry.root, h.heat_number FROM ancestry
+       JOIN material_movement m ON m.lot_id = ancestry.lot_id AND m.kind = 'issue' JOIN bar_piece b ON b.id = m.bar_piece_id JOIN heat h ON h.id = b.heat_id
+      ORDER BY h.heat_number`,
+    lotIds,
+  );
+  for (const row of rows) result.get(row.root)?.push(row.heat_number);
+  return result;
 }

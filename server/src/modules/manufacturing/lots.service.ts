@@ -10,15 +10,17 @@ import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/led
 import { findPieceByTag } from '../materials/bar-stock.repository';
 import { findHeat } from '../materials/heats.repository';
 import { findPart } from './parts.service';
-import { findLotRow, listLotRows, toLotSummary } from './lots.repository';
+import { findLotRow, heatsByLot, listLotRows, toLotSummary } from './lots.repository';
 import { nextSequence } from './numbering';
 import { unitChains } from './lot-units';
 import { heatMixingApproved } from './heat-mixing.record';
 
 export async function listLots(dataSource: DataSource, query: LotListQuery) {
   const { rows, total } = await listLotRows(dataSource.manager, query);
-  const chains = await unitChains(dataSource.manager, rows.map((row) => row.id));
-  const items: LotSummary[] = rows.map((row) => toLotSummary(row, chains.get(row.id)?.started === null ? null : (chains.get(row.id)?.onHand ?? null)));
+  const ids = rows.map((row) => row.id);
+  const chains = await unitChains(dataSource.manager, ids);
+  const heats = await heatsByLot(dataSource.manager, ids);
+  const items: LotSummary[] = rows.map((row) => toLotSummary(row, chains.get(row.id)?.started === null ? null : (chains.get(row.id)?.onHand ?? null), heats.get(row.id) ?? []));
   return { items, total, page: query.page, pageSize: query.pageSize };
 }
 
@@ -42,7 +44,7 @@ export async function openLot(dataSource: DataSource, raw: LotOpen, person: Pers
     const id = await insertLot(manager, { partId: part.id, partNumber: part.partNumber, pattern: part.lotPattern, plannedQty: input.plannedQty, openedAt, origin: 'bar', startQty: null, resumesAfterStep: 0, openedBy: person.id });
     const row = (await findLotRow(manager, id))!;
     await appendLedgerEvent(manager, { actor, action: 'lot.opened', entity: { type: 'lot', id }, after: { lotNumber: row.lot_number, part: `${part.partNumber} rev ${part.revision}`, plannedQty: input.plannedQty }, origin });
-    return toLotSummary(row, null);
+    return toLotSummary(row, null, []);
   });
 }
 

@@ -1,4 +1,6 @@
 import { Router } from 'express';
+import multer from 'multer';
+import { z } from 'zod';
 import { processMethods } from '@shared/domain/manufacturing/process-methods';
 import {
   consigneeInputSchema,
@@ -28,6 +30,24 @@ import { mergeLots, splitLot } from './lot-links.service';
 import { listProcessRuns, processRunDetail, recordProcessRun } from './process-runs.service';
 import { listNonconformances, nonconformanceDetail, proposeDisposition, raiseNonconformance } from './nonconformances.service';
 import { createConsignee, listConsignees, shipLot } from './shipments.service';
+import { attachOperationFile, MEASUREMENT_FILE_MAX_BYTES, operationFile } from './operation-files';
+import { AppError } from '../../errors';
+
+const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: MEASUREMENT_FILE_MAX_BYTES, files: 1, fields: 5 } });
+
+/** Accepts one file in the "file" field; multer's own errors become the one error shape. */
+const fileUpload = (req: Parameters<ReturnType<typeof upload.single>>[0], res: Parameters<ReturnType<typeof upload.single>>[1], next: (error?: unknown) => void) => {
+  upload.single('file')(req, res, (error: unknown) => {
+    if (!error) return next();
+    const code = (error as { code?: string }).code;
+    if (code === 'LIMIT_FILE_SIZE') return next(new AppError('PAYLOAD_TOO_LARGE', `The file is larger than ${MEASUREMENT_FILE_MAX_BYTES / 1024 / 1024} MB`, { file: 'Too large' }));
+    next(new AppError('VALIDATION_FAILED', `The upload was not accepted: ${(error as Error).message}`, { file: 'Send one file in the field "file"' }));
+  });
+};
+
+const id = z.coerce.number().int().positive().max(4_294_967_295);
+const operationParams = z.object({ lotId: id, operationId: id });
+const operationFileParams = z.object({ lotId: id, operationId: id, documentId: id });
 
 /** Parts, lots and their record, process runs, nonconformances, consignees and shipments. */
 export function manufacturingRouter(context: AppContext): Router {
@@ -69,6 +89,22 @@ export function manufacturingRouter(context: AppContext): Router {
   });
   router.post('/lots/:lotId/operations', requireAction('lots.write'), validate({ params: lotParams, body: operationInputSchema }), async (req, res) => {
     res.status(201).json(await recordOperation(data(), valid<{ lotId: number }>(res, 'params').lotId, req.body, currentPerson(req)!, actorOf(req, 'lots.write'), originOf(req)));
+  });
+  router.post('/lots/:lotId/operations/:operationId/files', requireAction('lots.write'), validate({ params: operationParams }), fileUpload, async (req, res) => {
+    const { lotId, operationId } = valid<{ lotId: number; operationId: number }>(res, 'params');
+    if (!req.file) throw new AppError('VALIDATION_FAILED', 'Choose a file to attach', { file: 'No file' });
+    res.status(201).json(await attachOperationFile(data(), lotId, operationId, { bytes: req.file.buffer, originalName: req.file.originalname }, currentPerson(req)!, actorOf(req, 'lots.write'), originOf(req)));
+  });
+  router.get('/lots/:lotId/operations/:operationId/files/:documentId', requireAction('lots.read'), validate({ params: operationFileParams }), async (_req, res) => {
+    const { lotId, operationId, documentId } = valid<{ lotId: number; operationId: number; documentId: number }>(res, 'params');
+    const file = await operationFile(data(), lotId, operationId, documentId);
+    res
+      .type(file.mediaType)
+      .set('X-Content-Type-Options', 'nosniff')
+      .set('Content-Security-Policy', "default-src 'none'; sandbox")
+      .set('Digest', `sha-256=${Buffer.from(file.sha256, 'hex').toString('base64')}`)
+      .attachment(file.name)
+      .send(file.content);
   });
   router.post('/lots/:lotId/splits', requireAction('lots.write'), validate({ params: lotParams, body: splitInputSchema }), async (req, res) => {
     res.status(201).json(await splitLot(data(), valid<{ lotId: number }>(res, 'params').lotId, req.body, currentPerson(req)!, actorOf(req, 'lots.write'), originOf(req)));

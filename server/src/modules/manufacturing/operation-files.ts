@@ -1,0 +1,75 @@
+import { createHash } from 'node:crypto';
+import type { DataSource } from 'typeorm';
+import { fileTypeFromBuffer } from 'file-type';
+import type { Person } from '@shared/schemas/people';
+import { AppError } from '../../errors';
+import { inTransaction } from '../../db/transaction';
+import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
+import { storeDocument } from '../materials/heats.repository';
+
+export const MEASUREMENT_FILE_MAX_BYTES = 10 * 1024 * 1024;
+const binaryTypes = new Set(['application/pdf', 'image/png', 'image/jpeg']);
+
+/**
+ * A measurement file's type comes from its bytes: PDF, PNG or JPEG by their signatures, or CSV
+ * and plain text when the bytes are valid UTF-8 without control characters and the name says
+ * .csv or .txt. Anything else is refused, whatever its name.
+ */
+export async function inspectMeasurementFile(bytes: Buffer, originalName: string): Promise<{ mediaType: string; sha256: string; name: string }> {
+  if (bytes.length === 0) throw new AppError('UNSUPPORTED_MEDIA_TYPE', 'The file is empty', { file: 'Empty file' });
+  const name = (originalName.split(/[\\/]/).pop() ?? 'measurements').replace(/[^\p{L}\p{N} ._()-]/gu, '_').slice(0, 200) || 'measurements';
+  const detected = await fileTypeFromBuffer(bytes);
+  let mediaType: string | null = detected && binaryTypes.has(detected.mime) ? detected.mime : null;
+  if (!detected && /\.(csv|txt)$/i.test(name)) {
+    try {
+      const text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
+      // eslint-disable-next-line no-control-regex
+      if (!/[\u0000-\u0008\u000e-\u001f\u007f]/.test(text)) mediaType = name.toLowerCase().endsWith('.csv') ? 'text/csv' : 'text/plain';
+    } catch {
+      mediaType = null;
+    }
+  }
+  if (!mediaType) {
+    throw new AppError('UNSUPPORTED_MEDIA_TYPE', `The file's content is not a PDF, PNG, JPEG, CSV or text file${detected ? ` (it looks like ${detected.mime})` : ''}, whatever its name says`, {
+      file: 'Attach measurements as PDF, PNG, JPEG, CSV or text',
+    });
+  }
+  return { mediaType, sha256: createHash('sha256').update(bytes).digest('hex'), name };
+}
+
+export async function attachOperationFile(dataSource: DataSource, lotId: number, operationId: number, file: { bytes: Buffer; originalName: string }, person: Person, actor: Actor, origin: RequestOrigin) {
+  const inspected = await inspectMeasurementFile(file.bytes, file.originalName);
+  return inTransaction(dataSource, async (manager) => {
+    const [operation]: Array<{ id: number; step_no: number; name: string }> = await manager.query(
+      'SELECT o.id, s.step_no, s.name FROM lot_operation o JOIN routing_step s ON s.id = o.routing_step_id WHERE o.id = ? AND o.lot_id = ? FOR UPDATE',
+      [operationId, lotId],
+    );
+    if (!operation) throw AppError.notFound('Operation');
+    const document = await storeDocument(manager, { sha256: inspected.sha256, mediaType: inspected.mediaType, bytes: file.bytes, originalName: inspected.name, uploadedBy: person.id });
+    const result: { affectedRows: number } = await manager.query('INSERT IGNORE INTO operation_file (operation_id, document_id, name, attached_by) VALUES (?, ?, ?, ?)', [
+      operationId,
+      document.id,
+      inspected.name,
+      person.id,
+    ]);
+    if (result.affectedRows !== 1) throw new AppError('CONFLICT', 'This file is already attached to the operation', { file: 'Already attached' });
+    await appendLedgerEvent(manager, {
+      actor,
+      action: 'lot.operation-file-attached',
+      entity: { type: 'lot', id: lotId },
+      after: { operationId, step: `${operation.step_no} ${operation.name}`, documentId: document.id, sha256: inspected.sha256, mediaType: inspected.mediaType, name: inspected.name },
+      origin,
+    });
+    return { documentId: document.id, sha256: inspected.sha256, name: inspected.name, mediaType: inspected.mediaType };
+  });
+}
+
+export async function operationFile(dataSource: DataSource, lotId: number, operationId: number, documentId: number) {
+  const [row]: Array<{ media_type: string; name: string; content: Buffer; sha256: string }> = await dataSource.query(
+    `SELECT d.media_type, f.name, d.content, d.sha256 FROM operation_file f JOIN lot_operation o ON o.id = f.operation_id JOIN certificate_document d ON d.id = f.document_id
+      WHERE o.lot_id = ? AND f.operation_id = ? AND f.document_id = ?`,
+    [lotId, operationId, documentId],
+  );
+  if (!row) throw AppError.notFound('File');
+  return { mediaType: row.media_type, name: row.name, content: row.content, sha256: row.sha256 };
+}

@@ -1,0 +1,86 @@
+import { keepPreviousData, queryOptions } from '@tanstack/vue-query';
+import { z } from 'zod';
+import type { ProcessMethod } from '@shared/domain/manufacturing/process-methods';
+import type { LotDetail, NonconformanceSummary, ProcessRunDetail, ProcessRunSummary } from '@shared/schemas/lot-detail';
+import {
+  lotPageSchema,
+  lotSummarySchema,
+  partSchema,
+  type ConsigneeInput,
+  type DispositionInput,
+  type LotListQuery,
+  type LotOpen,
+  type MaterialMovementInput,
+  type MergeInput,
+  type NonconformanceInput,
+  type NonconformanceListQuery,
+  type OperationInput,
+  type PartCreate,
+  type ProcessRunInput,
+  type ProcessRunListQuery,
+  type ShipmentInput,
+  type SplitInput,
+} from '@shared/schemas/manufacturing';
+import { apiRequest, apiUpload } from './http';
+
+/** Replies whose shape is a TypeScript type from shared/ (checked in the API tests, trusted here). */
+const typed = <T>() => z.custom<T>((value) => typeof value === 'object' && value !== null);
+const page = <T>() => z.object({ items: z.array(typed<T>()), total: z.number(), page: z.number(), pageSize: z.number() });
+
+export const manufacturingKeys = {
+  all: ['manufacturing'] as const,
+  parts: () => [...manufacturingKeys.all, 'parts'] as const,
+  lots: (query: LotListQuery) => [...manufacturingKeys.all, 'lots', query] as const,
+  lot: (id: number) => [...manufacturingKeys.all, 'lot', id] as const,
+  runs: (query: ProcessRunListQuery) => [...manufacturingKeys.all, 'runs', query] as const,
+  run: (id: number) => [...manufacturingKeys.all, 'run', id] as const,
+  methods: () => [...manufacturingKeys.all, 'methods'] as const,
+  nonconformances: (query: NonconformanceListQuery) => [...manufacturingKeys.all, 'ncs', query] as const,
+  nonconformance: (id: number) => [...manufacturingKeys.all, 'nc', id] as const,
+  consignees: () => [...manufacturingKeys.all, 'consignees'] as const,
+};
+
+const search = (values: Record<string, string | number | undefined>) => {
+  const params = new URLSearchParams();
+  for (const [key, value] of Object.entries(values)) if (value !== undefined && value !== '') params.set(key, String(value));
+  return params.toString();
+};
+
+export const partsQuery = () => queryOptions({ queryKey: manufacturingKeys.parts(), queryFn: ({ signal }) => apiRequest('/parts', z.array(partSchema), { signal }) });
+export const lotsQuery = (query: LotListQuery) =>
+  queryOptions({ queryKey: manufacturingKeys.lots(query), queryFn: ({ signal }) => apiRequest(`/lots?${search({ ...query })}`, lotPageSchema, { signal }), placeholderData: keepPreviousData });
+export const lotQuery = (id: number) => queryOptions({ queryKey: manufacturingKeys.lot(id), queryFn: ({ signal }) => apiRequest(`/lots/${id}`, typed<LotDetail>(), { signal }) });
+export const processRunsQuery = (query: ProcessRunListQuery) =>
+  queryOptions({ queryKey: manufacturingKeys.runs(query), queryFn: ({ signal }) => apiRequest(`/process-runs?${search({ ...query })}`, page<ProcessRunSummary>(), { signal }), placeholderData: keepPreviousData });
+export const processRunQuery = (id: number) => queryOptions({ queryKey: manufacturingKeys.run(id), queryFn: ({ signal }) => apiRequest(`/process-runs/${id}`, typed<ProcessRunDetail>(), { signal }) });
+export const processMethodsQuery = () =>
+  queryOptions({ queryKey: manufacturingKeys.methods(), queryFn: ({ signal }) => apiRequest('/process-methods', z.array(typed<ProcessMethod>()), { signal }), staleTime: Infinity });
+export const nonconformancesQuery = (query: NonconformanceListQuery) =>
+  queryOptions({
+    queryKey: manufacturingKeys.nonconformances(query),
+    queryFn: ({ signal }) => apiRequest(`/nonconformances?${search({ ...query })}`, page<NonconformanceSummary>(), { signal }),
+    placeholderData: keepPreviousData,
+  });
+export const nonconformanceQuery = (id: number) =>
+  queryOptions({ queryKey: manufacturingKeys.nonconformance(id), queryFn: ({ signal }) => apiRequest(`/nonconformances/${id}`, typed<NonconformanceSummary>(), { signal }) });
+export const consigneesQuery = () =>
+  queryOptions({
+    queryKey: manufacturingKeys.consignees(),
+    queryFn: ({ signal }) => apiRequest('/consignees', z.array(typed<{ id: number; name: string; kind: string; country: string; shipments: number }>()), { signal }),
+  });
+
+export const createPart = (part: PartCreate) => apiRequest('/parts', partSchema, { method: 'POST', body: part });
+export const openLot = (lot: LotOpen) => apiRequest('/lots', lotSummarySchema, { method: 'POST', body: lot });
+export const issueMaterial = (lotId: number, movement: MaterialMovementInput) => apiRequest(`/lots/${lotId}/material-issues`, typed<{ tag: string; heatNumber: string }>(), { method: 'POST', body: movement });
+export const returnMaterial = (lotId: number, movement: MaterialMovementInput) => apiRequest(`/lots/${lotId}/material-returns`, typed<{ tag: string }>(), { method: 'POST', body: movement });
+export const recordOperation = (lotId: number, operation: OperationInput) =>
+  apiRequest(`/lots/${lotId}/operations`, typed<{ id: number; verdict: string | null; why: string | null }>(), { method: 'POST', body: operation });
+export const splitLot = (lotId: number, split: SplitInput) => apiRequest(`/lots/${lotId}/splits`, typed<{ children: Array<{ id: number; lotNumber: string; qty: number }> }>(), { method: 'POST', body: split });
+export const mergeLots = (merge: MergeInput) => apiRequest('/lots/merges', typed<{ id: number; lotNumber: string }>(), { method: 'POST', body: merge });
+export const shipLot = (lotId: number, shipment: ShipmentInput) => apiRequest(`/lots/${lotId}/shipments`, typed<{ id: number }>(), { method: 'POST', body: shipment });
+export const recordProcessRun = (run: ProcessRunInput) => apiRequest('/process-runs', typed<ProcessRunDetail>(), { method: 'POST', body: run });
+export const raiseNonconformance = (nc: NonconformanceInput) => apiRequest('/nonconformances', typed<NonconformanceSummary>(), { method: 'POST', body: nc });
+export const proposeDisposition = (id: number, disposition: DispositionInput) => apiRequest(`/nonconformances/${id}/disposition`, typed<NonconformanceSummary>(), { method: 'PUT', body: disposition });
+export const createConsignee = (consignee: ConsigneeInput) => apiRequest('/consignees', typed<{ id: number }>(), { method: 'POST', body: consignee });
+export const attachOperationFile = (lotId: number, operationId: number, file: File) =>
+  apiUpload(`/lots/${lotId}/operations/${operationId}/files`, 'file', file, typed<{ documentId: number; name: string; sha256: string }>());
