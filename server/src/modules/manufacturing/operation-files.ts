@@ -23,7 +23,6 @@ export async function inspectMeasurementFile(bytes: Buffer, originalName: string
   if (!detected && /\.(csv|txt)$/i.test(name)) {
     try {
       const text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
-      // eslint-disable-next-line no-control-regex
       if (!/[\u0000-\u0008\u000e-\u001f\u007f]/.test(text)) mediaType = name.toLowerCase().endsWith('.csv') ? 'text/csv' : 'text/plain';
     } catch {
       mediaType = null;
