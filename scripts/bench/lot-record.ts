@@ -11,6 +11,7 @@ import { fail, log } from '../lib/run';
 import { seedDemoScenario } from '../seed/demo-scenario';
 import { seedDemoMaterials } from '../seed/demo-materials';
 import { seedDemoManufacturing } from '../seed/demo-manufacturing';
+import { seedDemoRelease } from '../seed/demo-release';
 import { receiveBar } from '../../server/src/modules/materials/bar-stock.service';
 
 async function timed(runs: number, work: () => Promise<unknown>): Promise<{ medianMs: number; p95Ms: number }> {
@@ -37,6 +38,7 @@ async function main(): Promise<void> {
     await seedDemoScenario(dataSource, config.roleMap);
     await seedDemoMaterials(dataSource);
     await seedDemoManufacturing(dataSource);
+    await seedDemoRelease(dataSource);
     const seedSeconds = Math.round((performance.now() - seedStarted) / 100) / 10;
     const engineer = (await findPersonBySubject(dataSource.manager, 'kiw-0101'))!;
     const actor = { id: engineer.id, name: engineer.name, role: 'manufacturing-engineer' };

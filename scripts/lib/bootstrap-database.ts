@@ -34,17 +34,23 @@ export function localServerFor(config: AppConfig, relaxedDurability = false): Ma
 export async function bootstrapDatabase(config: AppConfig, options: BootstrapOptions = {}): Promise<MariadbServer> {
   const server = localServerFor(config, options.relaxedDurability);
   await server.start();
-  const accounts = accountsFor(config);
-  if (options.reset) {
-    log(`dropping database ${config.DB_NAME} to rebuild it`);
-    await server.adminSql(`DROP DATABASE IF EXISTS \`${config.DB_NAME}\`;`);
+  try {
+    const accounts = accountsFor(config);
+    if (options.reset) {
+      log(`dropping database ${config.DB_NAME} to rebuild it`);
+      await server.adminSql(`DROP DATABASE IF EXISTS \`${config.DB_NAME}\`;`);
+    }
+    await server.adminSql(accountsSql(accounts));
+    const ran = await runMigrations(config);
+    log(ran.length ? `migrations run: ${ran.join(', ')}` : 'database schema is current');
+    await applyAppGrants(server, config);
+    await loadSpecificationLibrary(config);
+    return server;
+  } catch (error) {
+    // A failed migration or grant must not leave a server behind that the next run finds "already running".
+    await server.stop();
+    throw error;
   }
-  await server.adminSql(accountsSql(accounts));
-  const ran = await runMigrations(config);
-  log(ran.length ? `migrations run: ${ran.join(', ')}` : 'database schema is current');
-  await applyAppGrants(server, config);
-  await loadSpecificationLibrary(config);
-  return server;
 }
 
 /** Stores the shipped specification revisions that the database does not hold yet. */

@@ -251,7 +251,7 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
 
   for (let index = 0; index < lotCount; index++) {
     const { part, demo } = weighted[Math.floor(random() * weighted.length)]!;
-    const openedAt = now - Math.round((545 - index * 2.65) * DAY);
+    const openedAt = now - Math.round((545 - index * 2.7) * DAY);
     const qty = between(demo.units[0], demo.units[1]);
     const perUnit = Number(part.unitLengthMm) + Number(part.cutoffAllowanceMm);
     const need = (qty + 1) * perUnit;
@@ -272,7 +272,7 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
       units -= split.children[0]!.qty;
       waiting.push({ id: split.children[0]!.id, part, qty: split.children[0]!.qty, readyAt: openedAt + DAY });
     }
-    if (openedAt > now - 12 * DAY) continue;
+    if (openedAt > now - 20 * DAY) continue;
     waiting.push({ id: lot.id, part, qty: units, readyAt: openedAt + DAY });
     if (waiting.length >= between(10, 20)) await finishBatch(waiting.splice(0));
   }

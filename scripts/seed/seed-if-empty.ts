@@ -3,6 +3,7 @@ import { createDataSource } from '../../server/src/db/connection-options';
 import { isDatabaseEmpty, seedDemoScenario } from './demo-scenario';
 import { seedDemoMaterials } from './demo-materials';
 import { seedDemoManufacturing } from './demo-manufacturing';
+import { seedDemoRelease } from './demo-release';
 
 /** Seeds the demo scenario if the database holds no organisation yet; returns whether it seeded. */
 export async function seedIfEmpty(config: AppConfig): Promise<boolean> {
@@ -13,6 +14,7 @@ export async function seedIfEmpty(config: AppConfig): Promise<boolean> {
     await seedDemoScenario(dataSource, config.roleMap);
     await seedDemoMaterials(dataSource);
     await seedDemoManufacturing(dataSource);
+    await seedDemoRelease(dataSource);
     return true;
   } finally {
     await dataSource.destroy();

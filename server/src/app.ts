@@ -17,6 +17,7 @@ import { signaturesRouter } from './modules/signatures/signatures.router';
 import { materialsRouter } from './modules/materials/materials.router';
 import { barStockRouter } from './modules/materials/bar-stock.router';
 import { manufacturingRouter } from './modules/manufacturing/manufacturing.router';
+import { releaseRouter } from './modules/release/release.router';
 import { registerProductRecordTypes } from './modules/signable-record-types';
 
 export interface AppOptions {
@@ -81,6 +82,7 @@ export function createApp(context: AppContext, options: AppOptions = {}): Ingotr
   api.use(materialsRouter(context));
   api.use(barStockRouter(context));
   api.use(manufacturingRouter(context));
+  api.use(releaseRouter(context));
   api.use(apiNotFound);
   app.use('/api', api);
 

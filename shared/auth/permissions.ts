@@ -21,6 +21,11 @@ export const actions = [
   'nonconformances.disposition',
   'shipments.write',
   'release.read',
+  'release.submit',
+  'release.review',
+  'release.approve',
+  'release.reject',
+  'labels.print',
   'trace.read',
   'audit.read',
   'people.read',
@@ -31,8 +36,8 @@ export type Action = (typeof actions)[number];
 
 /** Role → the actions it may perform. The one permission matrix, used by server and client. */
 export const permissionMatrix: Record<Role, readonly Action[]> = {
-  'manufacturing-engineer': ['system.read', 'materials.read', 'materials.write', 'lots.read', 'lots.write', 'parts.manage', 'nonconformances.raise', 'shipments.write', 'release.read', 'trace.read'],
-  'qa-reviewer': ['system.read', 'materials.read', 'materials.disposition', 'specifications.draft', 'lots.read', 'nonconformances.raise', 'release.read', 'trace.read', 'audit.read'],
+  'manufacturing-engineer': ['system.read', 'materials.read', 'materials.write', 'lots.read', 'lots.write', 'parts.manage', 'nonconformances.raise', 'shipments.write', 'release.read', 'release.submit', 'labels.print', 'trace.read'],
+  'qa-reviewer': ['system.read', 'materials.read', 'materials.disposition', 'specifications.draft', 'lots.read', 'nonconformances.raise', 'release.read', 'release.review', 'release.reject', 'trace.read', 'audit.read'],
   'qa-approver': [
     'system.read',
     'materials.read',
@@ -44,6 +49,8 @@ export const permissionMatrix: Record<Role, readonly Action[]> = {
     'nonconformances.raise',
     'nonconformances.disposition',
     'release.read',
+    'release.approve',
+    'release.reject',
     'trace.read',
     'audit.read',
   ],

@@ -13,6 +13,7 @@ const areaViews: Partial<Record<AreaRouteName, () => Promise<unknown>>> = {
   'bar-stock': () => import('../views/BarStockView.vue'),
   lots: () => import('../views/LotsView.vue'),
   'process-runs': () => import('../views/ProcessRunsView.vue'),
+  release: () => import('../views/ReleaseDeskView.vue'),
   audit: () => import('../views/AuditLedgerView.vue'),
 };
 

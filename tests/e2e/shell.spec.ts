@@ -2,7 +2,6 @@ import { expect, test } from '@playwright/test';
 import { signInAs } from './support/sign-in';
 
 const areas = [
-  { link: 'Release desk', path: '/release', caution: true },
   { link: 'Trace and recall', path: '/trace', caution: false },
 ];
 

@@ -15,6 +15,9 @@ export const tableAccess: Record<string, TableAccess> = {
   specification_revision: 'append-only',
   // Measurement files attached to an operation stay attached.
   operation_file: 'append-only',
+  // Labels printed or voided are counted, never rewritten; a release packet is stored once.
+  label_print: 'append-only',
+  release_packet: 'append-only',
 };
 
 const privilegesByAccess: Record<TableAccess, string> = {

@@ -3,6 +3,7 @@ import { heatRecordType } from './materials/heat.record';
 import { specificationDraftRecordType } from './materials/specification-drafts.service';
 import { heatMixingRecordType } from './manufacturing/heat-mixing.record';
 import { nonconformanceRecordType } from './manufacturing/nonconformances.service';
+import { lotReleaseRecordType } from './release/release.record';
 import { registerSignableRecordType } from './signatures/signable-records';
 
 /** Every kind of record the product lets people sign; the app and the demo seed register the same set. */
@@ -12,4 +13,5 @@ export function registerProductRecordTypes(): void {
   registerSignableRecordType(specificationDraftRecordType);
   registerSignableRecordType(heatMixingRecordType);
   registerSignableRecordType(nonconformanceRecordType);
+  registerSignableRecordType(lotReleaseRecordType);
 }

@@ -6,6 +6,7 @@ import { CreateMaterialIntake1764651600000 } from './1764651600000-create-materi
 import { CreateBarStock1764655200000 } from './1764655200000-create-bar-stock';
 import { CreateSpecificationDrafts1764658800000 } from './1764658800000-create-specification-drafts';
 import { CreateManufacturingRecord1764662400000 } from './1764662400000-create-manufacturing-record';
+import { CreateRelease1764666000000 } from './1764666000000-create-release';
 
 /** Every migration in the order it runs. Add new ones at the end. */
 export const migrations = [
@@ -17,4 +18,5 @@ export const migrations = [
   CreateBarStock1764655200000,
   CreateSpecificationDrafts1764658800000,
   CreateManufacturingRecord1764662400000,
+  CreateRelease1764666000000,
 ];

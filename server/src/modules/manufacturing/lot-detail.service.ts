@@ -1,4 +1,4 @@
-import type { DataSource } from 'typeorm';
+import type { DataSource, EntityManager } from 'typeorm';
 import { DecimalE29 } from '@shared/domain/materials/e29-rounding';
 import { reconcileMaterial } from '@shared/domain/manufacturing/material-reconciliation';
 import type { LotDetail, MaterialMovement, OperationRecord, ShipmentRecord, TimelineEntry } from '@shared/schemas/lot-detail';
@@ -9,8 +9,12 @@ import { unitChains } from './lot-units';
 import { nonconformancesWhere } from './nonconformances.repository';
 
 /** The lot's whole record, its unit chain and material reconciliation, and one timeline of it all. */
-export async function lotDetail(dataSource: DataSource, lotId: number): Promise<LotDetail> {
-  const manager = dataSource.manager;
+export function lotDetail(dataSource: DataSource, lotId: number): Promise<LotDetail> {
+  return lotDetailIn(dataSource.manager, lotId);
+}
+
+/** The same, read through the given manager (inside a caller's transaction). */
+export async function lotDetailIn(manager: EntityManager, lotId: number): Promise<LotDetail> {
   const row = await findLotRow(manager, lotId);
   if (!row) throw AppError.notFound('Lot');
   const part = (await findPart(manager, row.part_id))!;

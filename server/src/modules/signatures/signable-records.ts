@@ -18,6 +18,8 @@ export interface SignableRecordType {
   label: string;
   /** The action a signer's roles must allow. */
   action: Action;
+  /** When meanings belong to different roles (reviewed, approved for release): the action per meaning. */
+  actionFor?(meaning: SignatureMeaning): Action;
   meanings: readonly SignatureMeaning[];
   load(manager: EntityManager, recordId: string): Promise<SignableContent | null>;
   /** Extra rules (separation of duties); returns the reason to refuse, or null. */

@@ -27,7 +27,7 @@ async function loadSignable(manager: EntityManager, person: Person, intent: Sign
   if (!type.meanings.includes(intent.meaning)) {
     throw AppError.rule(`This ${type.label} cannot be signed as "${intent.meaning}"`, { meaning: `Choose one of: ${type.meanings.join(', ')}` });
   }
-  if (!rolesAllow(person.roles, type.action)) throw new AppError('FORBIDDEN', `Your roles do not allow signing a ${type.label}`);
+  if (!rolesAllow(person.roles, type.actionFor?.(intent.meaning) ?? type.action)) throw new AppError('FORBIDDEN', `Your roles do not allow signing a ${type.label} as "${intent.meaning}"`);
   const record = await type.load(manager, intent.recordId);
   if (!record) throw AppError.notFound(type.label);
   return { type, record };
@@ -112,7 +112,7 @@ export async function signRecord(dataSource: DataSource, person: Person, request
 
     const binding = signatureBinding({ recordType: request.recordType, recordId: request.recordId, meaning: request.meaning, contentHash: hash }, sha256Hex);
     const evidence = await consumeReauthentication(manager, { id: request.reauthenticationId, personId: person.id, bindingHash: binding });
-    const signerRole = actingRole(person.roles, type.action) ?? 'unknown';
+    const signerRole = actingRole(person.roles, type.actionFor?.(request.meaning) ?? type.action) ?? 'unknown';
     const signedAt = new Date();
     const manifestation = signatureManifestation({ signerName: person.name, signedAt, meaning: request.meaning });
     const ledger = await appendLedgerEvent(manager, {

@@ -1,0 +1,76 @@
+import type { SignatureMeaning } from '@shared/domain/signatures';
+import { contentHash } from '@shared/domain/signatures';
+import type { SignableRecordType } from '../signatures/signable-records';
+import { signaturesFor } from '../signatures/signatures.repository';
+import { appendLedgerEvent, sha256Hex } from '../ledger/ledger.repository';
+import { releaseDossierIn } from './release-dossier';
+
+const actions = { reviewed: 'release.review', 'approved-for-release': 'release.approve', rejected: 'release.reject' } as const;
+
+/**
+ * A lot's release: the QA reviewer signs "reviewed", then a different QA approver signs
+ * "approved for release", each over the release dossier; either may sign "rejected" with a
+ * reason, which returns the lot to the engineer. Approval needs the reviewer's signature to
+ * cover the dossier as it is now.
+ */
+export const lotReleaseRecordType: SignableRecordType = {
+  type: 'lot-release',
+  label: 'lot release',
+  action: 'release.review',
+  actionFor: (meaning: SignatureMeaning) => actions[meaning as keyof typeof actions] ?? 'release.approve',
+  meanings: ['reviewed', 'approved-for-release', 'rejected'],
+  async load(manager, recordId) {
+    if (!/^\d{1,10}$/.test(recordId)) return null;
+    const [lot]: Array<{ id: number; lot_number: string; status: string }> = await manager.query('SELECT id, lot_number, status FROM production_lot WHERE id = ?', [Number(recordId)]);
+    if (!lot) return null;
+    const dossier = await releaseDossierIn(manager, lot.id);
+    const hash = contentHash(dossier.content, sha256Hex);
+    const reviews = (await signaturesFor(manager, 'lot-release', recordId)).filter((row) => row.meaning === 'reviewed');
+    return {
+      title: `Release of lot ${lot.lot_number}`,
+      content: dossier.content,
+      authorIds: dossier.authorIds,
+      status: lot.status,
+      ready: dossier.readiness.ready,
+      reviewedCurrent: reviews.some((row) => row.content_hash === hash),
+    };
+  },
+  refusal({ meaning, record }) {
+    const facts = record as unknown as { status: string; ready: boolean; reviewedCurrent: boolean };
+    if (meaning === 'reviewed') {
+      if (facts.status !== 'submitted' && !(facts.status === 'reviewed' && !facts.reviewedCurrent)) return `The lot is ${facts.status}, not awaiting review`;
+      if (!facts.ready) return 'The lot is no longer ready for release; see its checklist';
+    }
+    if (meaning === 'approved-for-release') {
+      if (facts.status !== 'reviewed') return `The lot is ${facts.status}, not reviewed`;
+      if (!facts.reviewedCurrent) return 'The lot changed after it was reviewed; it must be reviewed again';
+      if (!facts.ready) return 'The lot is no longer ready for release; see its checklist';
+    }
+    if (meaning === 'rejected' && facts.status !== 'submitted' && facts.status !== 'reviewed') return `The lot is ${facts.status}; only a lot under review can be rejected`;
+    return null;
+  },
+  async afterSign(manager, { recordId, meaning, signerId, signerName, reason }) {
+    const lotId = Number(recordId);
+    const [lot]: Array<{ status: string }> = await manager.query('SELECT status FROM production_lot WHERE id = ? FOR UPDATE', [lotId]);
+    const next = meaning === 'reviewed' ? 'reviewed' : meaning === 'approved-for-release' ? 'released' : 'open';
+    if (meaning === 'approved-for-release') {
+      const dossier = await releaseDossierIn(manager, lotId);
+      await manager.query("UPDATE production_lot SET status = 'released', released_qty = ? WHERE id = ?", [dossier.lot.onHand ?? 0, lotId]);
+      await manager.query("UPDATE release_submission SET outcome = 'released', closed_at = ? WHERE lot_id = ? AND outcome = 'pending'", [new Date(), lotId]);
+    } else if (meaning === 'rejected') {
+      await manager.query("UPDATE production_lot SET status = 'open' WHERE id = ?", [lotId]);
+      await manager.query("UPDATE release_submission SET outcome = 'rejected', closed_at = ? WHERE lot_id = ? AND outcome = 'pending'", [new Date(), lotId]);
+    } else {
+      await manager.query("UPDATE production_lot SET status = 'reviewed' WHERE id = ?", [lotId]);
+    }
+    await appendLedgerEvent(manager, {
+      actor: { id: signerId, name: signerName, role: meaning === 'approved-for-release' ? 'qa-approver' : 'qa-reviewer' },
+      action: `lot.${meaning === 'approved-for-release' ? 'released' : meaning}`,
+      entity: { type: 'lot', id: lotId },
+      before: { status: lot?.status ?? null },
+      after: { status: next },
+      reason,
+    });
+  },
+};
+

@@ -1,0 +1,28 @@
+import { Router } from 'express';
+import { idParams } from '@shared/schemas/manufacturing';
+import { labelMovementSchema, releaseQueueQuerySchema, type ReleaseQueueQuery } from '@shared/schemas/release';
+import type { AppContext } from '../../app-context';
+import { actorOf, currentPerson, originOf, requireAction } from '../../middleware/access';
+import { validate } from '../../middleware/validate';
+import { recordLabels, releaseQueue, releaseView, submitForRelease } from './release.service';
+
+/** The release desk: queues, a lot's checklist and dossier, submission and label counts. */
+export function releaseRouter(context: AppContext): Router {
+  const router = Router();
+  const data = () => context.database.dataSource;
+  const lotId = (res: { locals: Record<string, unknown> }) => ((res.locals.valid as { params: { lotId: number } }).params.lotId);
+
+  router.get('/release-queue', requireAction('release.read'), validate({ query: releaseQueueQuerySchema }), async (_req, res) => {
+    res.json(await releaseQueue(data(), (res.locals.valid as { query: ReleaseQueueQuery }).query));
+  });
+  router.get('/lots/:lotId/release', requireAction('release.read'), validate({ params: idParams('lotId') }), async (_req, res) => {
+    res.json(await releaseView(data(), lotId(res)));
+  });
+  router.post('/lots/:lotId/release-submissions', requireAction('release.submit'), validate({ params: idParams('lotId') }), async (req, res) => {
+    res.status(201).json(await submitForRelease(data(), lotId(res), currentPerson(req)!, actorOf(req, 'release.submit'), originOf(req)));
+  });
+  router.post('/lots/:lotId/labels', requireAction('labels.print'), validate({ params: idParams('lotId'), body: labelMovementSchema }), async (req, res) => {
+    res.status(201).json(await recordLabels(data(), lotId(res), req.body, currentPerson(req)!, actorOf(req, 'labels.print'), originOf(req)));
+  });
+  return router;
+}

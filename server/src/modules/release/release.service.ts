@@ -1,0 +1,100 @@
+import type { DataSource } from 'typeorm';
+import { contentHash } from '@shared/domain/signatures';
+import type { Person } from '@shared/schemas/people';
+import { labelMovementSchema, type LabelMovement, type ReleaseQueueQuery } from '@shared/schemas/release';
+import { AppError } from '../../errors';
+import { inTransaction } from '../../db/transaction';
+import { appendLedgerEvent, sha256Hex, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
+import { signaturesFor } from '../signatures/signatures.repository';
+import { releaseDossier, releaseDossierIn } from './release-dossier';
+
+/** The lot's readiness checklist, its dossier and where it stands in the release workflow. */
+export async function releaseView(dataSource: DataSource, lotId: number) {
+  const [lot] = await dataSource.query('SELECT id FROM production_lot WHERE id = ?', [lotId]);
+  if (!lot) throw AppError.notFound('Lot');
+  const dossier = await releaseDossier(dataSource, lotId);
+  const hash = contentHash(dossier.content, sha256Hex);
+  const submissions: Array<{ id: number; submitted_at: Date; outcome: string; dossier_hash: string; name: string }> = await dataSource.query(
+    'SELECT r.id, r.submitted_at, r.outcome, r.dossier_hash, p.name FROM release_submission r JOIN person p ON p.id = r.submitted_by WHERE r.lot_id = ? ORDER BY r.id DESC',
+    [lotId],
+  );
+  const signatures = await signaturesFor(dataSource.manager, 'lot-release', String(lotId));
+  return {
+    lotId,
+    lotNumber: dossier.lot.lotNumber,
+    status: dossier.lot.status,
+    readiness: dossier.readiness,
+    dossier: dossier.content,
+    dossierHash: hash,
+    submissions: submissions.map((row) => ({ id: row.id, submittedAt: new Date(row.submitted_at).toISOString(), submittedBy: row.name, outcome: row.outcome, changedSinceSubmission: row.outcome === 'pending' && row.dossier_hash !== hash })),
+    reviewedCurrent: signatures.some((row) => row.meaning === 'reviewed' && row.content_hash === hash),
+  };
+}
+
+/** An engineer puts a ready lot forward for QA review; the dossier's hash is kept with the submission. */
+export async function submitForRelease(dataSource: DataSource, lotId: number, person: Person, actor: Actor, origin: RequestOrigin) {
+  return inTransaction(dataSource, async (manager) => {
+    const [lot]: Array<{ id: number; lot_number: string; status: string }> = await manager.query('SELECT id, lot_number, status FROM production_lot WHERE id = ? FOR UPDATE', [lotId]);
+    if (!lot) throw AppError.notFound('Lot');
+    if (lot.status !== 'open') throw AppError.rule(`Lot ${lot.lot_number} is ${lot.status}; only an open lot can be submitted`, { lot: lot.status });
+    const dossier = await releaseDossierIn(manager, lotId);
+    const failing = dossier.readiness.items.filter((item) => item.verdict === 'fail');
+    if (failing.length) {
+      throw AppError.rule(`Lot ${lot.lot_number} is not ready for release: ${failing.map((item) => `${item.title.toLowerCase()} (${item.why})`).join('; ')}`, Object.fromEntries(failing.map((item) => [item.key, item.why])));
+    }
+    const hash = contentHash(dossier.content, sha256Hex);
+    await manager.query('INSERT INTO release_submission (lot_id, submitted_by, dossier_hash) VALUES (?, ?, ?)', [lotId, person.id, hash]);
+    await manager.query("UPDATE production_lot SET status = 'submitted' WHERE id = ?", [lotId]);
+    await appendLedgerEvent(manager, { actor, action: 'lot.submitted-for-release', entity: { type: 'lot', id: lotId }, before: { status: 'open' }, after: { status: 'submitted', dossierHash: hash }, origin });
+    return { lotId, status: 'submitted' as const, dossierHash: hash };
+  });
+}
+
+/** Labels printed for a lot, or spoiled ones voided; the net count must match the units to release. */
+export async function recordLabels(dataSource: DataSource, lotId: number, raw: LabelMovement, person: Person, actor: Actor, origin: RequestOrigin) {
+  const input = labelMovementSchema.parse(raw);
+  return inTransaction(dataSource, async (manager) => {
+    const [lot]: Array<{ lot_number: string; status: string }> = await manager.query('SELECT lot_number, status FROM production_lot WHERE id = ? FOR UPDATE', [lotId]);
+    if (!lot) throw AppError.notFound('Lot');
+    if (lot.status !== 'open') throw AppError.rule(`Lot ${lot.lot_number} is ${lot.status}; labels are counted before submission`, { qty: lot.status });
+    const [counts]: Array<{ printed: string | null; voided: string | null }> = await manager.query(
+      "SELECT SUM(CASE kind WHEN 'print' THEN qty ELSE 0 END) AS printed, SUM(CASE kind WHEN 'void' THEN qty ELSE 0 END) AS voided FROM label_print WHERE lot_id = ?",
+      [lotId],
+    );
+    const net = Number(counts?.printed ?? 0) - Number(counts?.voided ?? 0);
+    if (input.kind === 'void' && input.qty > net) throw AppError.rule(`Only ${net} labels are out for lot ${lot.lot_number}`, { qty: `At most ${net}` });
+    await manager.query('INSERT INTO label_print (lot_id, kind, qty, reason, recorded_by) VALUES (?, ?, ?, ?, ?)', [lotId, input.kind, input.qty, input.reason ?? null, person.id]);
+    await appendLedgerEvent(manager, { actor, action: input.kind === 'print' ? 'lot.labels-printed' : 'lot.labels-voided', entity: { type: 'lot', id: lotId }, after: { ...input, netLabels: net + (input.kind === 'print' ? input.qty : -input.qty) }, reason: input.reason ?? null, origin });
+    return { netLabels: net + (input.kind === 'print' ? input.qty : -input.qty) };
+  });
+}
+
+const queueStatuses = { review: 'submitted', approval: 'reviewed', released: 'released', returned: 'open' } as const;
+
+/** Lots waiting at each step of the release workflow, oldest submission first. */
+export async function releaseQueue(dataSource: DataSource, query: ReleaseQueueQuery) {
+  const status = queueStatuses[query.queue];
+  const returned = query.queue === 'returned' ? "AND EXISTS (SELECT 1 FROM release_submission r WHERE r.lot_id = l.id AND r.outcome = 'rejected')" : '';
+  const [count]: Array<{ total: string }> = await dataSource.query(`SELECT COUNT(*) AS total FROM production_lot l WHERE l.status = ? ${returned}`, [status]);
+  const rows: Array<{ id: number; lot_number: string; part_number: string; revision: string; released_qty: number; submitted_at: Date | null; submitted_by: string | null }> = await dataSource.query(
+    `SELECT l.id, l.lot_number, p.part_number, p.revision, l.released_qty,
+            (SELECT MAX(r.submitted_at) FROM release_submission r WHERE r.lot_id = l.id) AS submitted_at,
+            (SELECT person.name FROM release_submission r JOIN person ON person.id = r.submitted_by WHERE r.lot_id = l.id ORDER BY r.id DESC LIMIT 1) AS submitted_by
+       FROM production_lot l JOIN part p ON p.id = l.part_id WHERE l.status = ? ${returned}
+      ORDER BY submitted_at ${query.queue === 'released' ? 'DESC' : 'ASC'}, l.id LIMIT ? OFFSET ?`,
+    [status, query.pageSize, (query.page - 1) * query.pageSize],
+  );
+  return {
+    items: rows.map((row) => ({
+      lotId: row.id,
+      lotNumber: row.lot_number,
+      part: `${row.part_number} rev ${row.revision}`,
+      releasedQty: row.released_qty,
+      submittedAt: row.submitted_at ? new Date(row.submitted_at).toISOString() : null,
+      submittedBy: row.submitted_by,
+    })),
+    total: Number(count?.total ?? 0),
+    page: query.page,
+    pageSize: query.pageSize,
+  };
+}

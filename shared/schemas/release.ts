@@ -1,0 +1,20 @@
+import { z } from 'zod';
+
+export const labelMovementSchema = z
+  .object({
+    kind: z.enum(['print', 'void']),
+    qty: z.number({ error: 'A whole number of labels' }).int('A whole number of labels').min(1, 'At least one label').max(100_000),
+    reason: z.string().trim().max(500).optional(),
+  })
+  .superRefine((movement, context) => {
+    if (movement.kind === 'void' && (!movement.reason || movement.reason.length < 3)) context.addIssue({ code: 'custom', message: 'Say why the labels are voided', path: ['reason'] });
+  });
+export type LabelMovement = z.input<typeof labelMovementSchema>;
+
+export const releaseQueues = ['review', 'approval', 'released', 'returned'] as const;
+export const releaseQueueQuerySchema = z.object({
+  queue: z.enum(releaseQueues),
+  page: z.coerce.number().int().min(1).max(100_000).default(1),
+  pageSize: z.coerce.number().int().min(1).max(100).default(20),
+});
+export type ReleaseQueueQuery = z.infer<typeof releaseQueueQuerySchema>;

@@ -1,0 +1,122 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createTestApp } from '../helpers/test-app';
+import { csrfTokenOf, SamlTestDriver } from '../helpers/saml-round-trip';
+import { signThroughApi } from '../helpers/signing';
+import { adminSql } from '../helpers/admin-sql';
+
+type Agent = Awaited<ReturnType<SamlTestDriver['signIn']>>['agent'];
+
+const part = {
+  partNumber: 'TST-PIN-02',
+  revision: 'A',
+  description: 'Test pin 2.0 × 30',
+  gtin: '09521230000024',
+  unitLengthMm: '30',
+  cutoffAllowanceMm: '2',
+  lotPattern: 'R{YY}{SEQ:4}',
+  specifications: [{ specId: 'ASTM F136' }],
+  routing: [
+    { kind: 'machining', name: 'Turn' },
+    { kind: 'inspection', name: 'Final inspection', sampleSize: 5, acceptNumber: 0, rejectNumber: 1 },
+  ],
+};
+
+describe('lot release: readiness, submission, two signatures, shipment', () => {
+  const running = createTestApp();
+  let saml: SamlTestDriver;
+  const people: Record<string, { agent: Agent; csrf: string; subject: string }> = {};
+  const lots: number[] = [];
+
+  beforeAll(async () => {
+    saml = await SamlTestDriver.create(running.config);
+    for (const [name, subject] of [['engineer', 'kiw-0102'], ['reviewer', 'kiw-0201'], ['approver', 'kiw-0301'], ['auditor', 'kiw-0401']] as const) {
+      const { agent } = await saml.signIn(running.app, subject);
+      people[name] = { agent, csrf: await csrfTokenOf(agent), subject };
+    }
+    const db = await running.database.connect();
+    const [heat] = await db.query("SELECT id FROM heat WHERE status = 'accepted' AND spec_id = 'ASTM F136' ORDER BY id LIMIT 1");
+    await post('engineer', '/api/bar-pieces', { heatId: heat.id, tag: 'TST-REL-BAR', diameterMm: '25.4', lengthMm: '3000', location: 'Test rack' });
+    const created = await post('engineer', '/api/parts', part);
+    for (let index = 0; index < 3; index++) {
+      const lot = await post('engineer', '/api/lots', { partId: created.body.id, plannedQty: 20 });
+      lots.push(lot.body.id);
+      await post('engineer', `/api/lots/${lot.body.id}/material-issues`, { tag: 'TST-REL-BAR', lengthMm: '672' });
+      await post('engineer', `/api/lots/${lot.body.id}/material-returns`, { tag: 'TST-REL-BAR', lengthMm: '32' });
+      const times = { operatorName: 'Test', workCentre: 'Cell 1', startedAt: '2026-11-20T08:00:00Z', endedAt: '2026-11-20T09:00:00Z' };
+      await post('engineer', `/api/lots/${lot.body.id}/operations`, { ...times, stepNo: 10, qtyIn: 20, qtyGood: 20, qtyScrap: 0 });
+      await post('engineer', `/api/lots/${lot.body.id}/operations`, { ...times, stepNo: 20, qtyIn: 20, qtyGood: 20, qtyScrap: 0, inspected: 5, defectsFound: 0 });
+    }
+  });
+  afterAll(() => running.close());
+
+  function post(who: string, path: string, body: unknown) {
+    return people[who]!.agent.post(path).set('X-CSRF-Token', people[who]!.csrf).send(body as object);
+  }
+  const view = async (lotId: number) => (await people.auditor!.agent.get(`/api/lots/${lotId}/release`)).body;
+
+  it('when labels are not yet printed, then the lot is not ready and submission is refused with the reason', async () => {
+    const before = await view(lots[0]!);
+    expect(before.readiness.ready).toBe(false);
+    expect(before.readiness.items.filter((item: { verdict: string }) => item.verdict === 'fail').map((item: { key: string; why: string }) => [item.key, item.why])).toEqual([
+      ['labels', '0 labels printed (net of voided) for 20 units'],
+    ]);
+    const refused = await post('engineer', `/api/lots/${lots[0]}/release-submissions`, {});
+    expect(refused.status).toBe(422);
+    expect(refused.body.error.fields).toEqual({ labels: '0 labels printed (net of voided) for 20 units' });
+  });
+
+  it('when labels are printed and spoiled ones voided, then the count reconciles and the engineer submits', async () => {
+    for (const lotId of lots) expect((await post('engineer', `/api/lots/${lotId}/labels`, { kind: 'print', qty: 22 })).status).toBe(201);
+    const noReason = await post('engineer', `/api/lots/${lots[0]}/labels`, { kind: 'void', qty: 2 });
+    expect(noReason.body.error.fields).toEqual({ reason: 'Say why the labels are voided' });
+    for (const lotId of lots) expect((await post('engineer', `/api/lots/${lotId}/labels`, { kind: 'void', qty: 2, reason: 'Smudged print' })).body).toEqual({ netLabels: 20 });
+    expect((await view(lots[0]!)).readiness.ready).toBe(true);
+    expect((await post('reviewer', `/api/lots/${lots[0]}/release-submissions`, {})).status).toBe(403);
+    const submitted = await post('engineer', `/api/lots/${lots[0]}/release-submissions`, {});
+    expect(submitted.status).toBe(201);
+    expect(submitted.body.status).toBe('submitted');
+    const queue = await people.reviewer!.agent.get('/api/release-queue?queue=review');
+    expect(queue.body.items.map((item: { lotId: number }) => item.lotId)).toContain(lots[0]);
+  });
+
+  it('when the reviewer and a different approver sign, then the lot is released; shipping is limited to the released units', async () => {
+    const early = await signThroughApi(saml, people.approver!, { recordType: 'lot-release', recordId: String(lots[0]), meaning: 'approved-for-release' });
+    expect(early.body.error.message).toBe('The lot is submitted, not reviewed');
+    expect((await signThroughApi(saml, people.engineer!, { recordType: 'lot-release', recordId: String(lots[0]), meaning: 'reviewed' })).status).toBe(403);
+    expect((await signThroughApi(saml, people.reviewer!, { recordType: 'lot-release', recordId: String(lots[0]), meaning: 'reviewed' })).status).toBe(201);
+    expect((await signThroughApi(saml, people.approver!, { recordType: 'lot-release', recordId: String(lots[0]), meaning: 'approved-for-release' })).status).toBe(201);
+    expect((await view(lots[0]!)).status).toBe('released');
+    const consignee = await post('engineer', '/api/consignees', { name: 'Test Release Clinic', kind: 'hospital', country: 'Norway', contactEmail: null });
+    const shipped = await post('engineer', `/api/lots/${lots[0]}/shipments`, { consigneeId: consignee.body.id, qty: 15, shippedOn: '2026-11-25', documentNumber: 'DN-7001' });
+    expect(shipped.status).toBe(201);
+    const over = await post('engineer', `/api/lots/${lots[0]}/shipments`, { consigneeId: consignee.body.id, qty: 6, shippedOn: '2026-11-26', documentNumber: 'DN-7002' });
+    expect(over.body.error.message).toMatch(/has 5 released units not yet shipped; 6 cannot ship$/);
+    const late = await post('engineer', `/api/lots/${lots[0]}/labels`, { kind: 'print', qty: 1 });
+    expect(late.status).toBe(422);
+  });
+
+  it('when the lot changes after review, then approval is refused until it is reviewed again', async () => {
+    await post('engineer', `/api/lots/${lots[1]}/release-submissions`, {});
+    expect((await signThroughApi(saml, people.reviewer!, { recordType: 'lot-release', recordId: String(lots[1]), meaning: 'reviewed' })).status).toBe(201);
+    const raised = await post('reviewer', '/api/nonconformances', { subjectType: 'lot', subjectId: lots[1], description: 'Scratch on two parts seen at packing', containment: 'Lot held' });
+    expect(raised.status).toBe(201);
+    const refused = await signThroughApi(saml, people.approver!, { recordType: 'lot-release', recordId: String(lots[1]), meaning: 'approved-for-release' });
+    expect(refused.status).toBe(422);
+    expect(refused.body.error.message).toBe('The lot changed after it was reviewed; it must be reviewed again');
+    const signatures = (await people.auditor!.agent.get(`/api/signatures?recordType=lot-release&recordId=${lots[1]}`)).body;
+    expect(signatures).toEqual([expect.objectContaining({ meaning: 'reviewed', changedAfterSigning: true })]);
+    const rejected = await signThroughApi(saml, people.approver!, { recordType: 'lot-release', recordId: String(lots[1]), meaning: 'rejected' }, 'Open nonconformance on the lot');
+    expect(rejected.status).toBe(201);
+    expect((await view(lots[1]!)).status).toBe('open');
+  });
+
+  it('when the approver authored part of the lot’s record, then separation of duties refuses the approval', async () => {
+    await post('engineer', `/api/lots/${lots[2]}/release-submissions`, {});
+    expect((await signThroughApi(saml, people.reviewer!, { recordType: 'lot-release', recordId: String(lots[2]), meaning: 'reviewed' })).status).toBe(201);
+    // The approver is made the recorder of one step, as if they had entered it.
+    await adminSql(`UPDATE lot_operation SET recorded_by = (SELECT id FROM person WHERE subject = 'kiw-0301') WHERE lot_id = ${lots[2]} AND routing_step_id = (SELECT id FROM routing_step WHERE step_no = 10 AND part_id = (SELECT part_id FROM production_lot WHERE id = ${lots[2]}))`);
+    const refused = await signThroughApi(saml, people.approver!, { recordType: 'lot-release', recordId: String(lots[2]), meaning: 'approved-for-release' });
+    expect(refused.status).toBe(422);
+    expect(refused.body.error.message).toBe('You authored this record, so you cannot approve it');
+  });
+});
