@@ -78,6 +78,10 @@ async function main(): Promise<void> {
     if (chosen.has('lint')) await timed('lint (eslint)', () => exitCheck(bin('eslint'), ['--max-warnings=0', '.']));
     if (chosen.has('vitest')) {
       await timed('vitest (unit, client, API)', async () => {
+        // Independent readers of the documents the product renders: text, page images, QR and DataMatrix decoders.
+        await ensureDebianPackages('pdftotext', ['poppler-utils']);
+        await ensureDebianPackages('zbarimg', ['zbar-tools']);
+        await ensureDebianPackages('dmtxread', ['dmtx-utils']);
         const output = `${reportDir}/vitest.json`;
         const code = await runInherited(bin('vitest'), ['run', '--reporter=default', '--reporter=json', `--outputFile.json=${output}`, ...positionals]);
         const report = readJson<{ numPassedTests: number; numFailedTests: number }>(output);

@@ -18,6 +18,7 @@ import { materialsRouter } from './modules/materials/materials.router';
 import { barStockRouter } from './modules/materials/bar-stock.router';
 import { manufacturingRouter } from './modules/manufacturing/manufacturing.router';
 import { releaseRouter } from './modules/release/release.router';
+import { digitalLinkRouter } from './modules/trace/digital-link.router';
 import { registerProductRecordTypes } from './modules/signable-record-types';
 
 export interface AppOptions {
@@ -85,6 +86,8 @@ export function createApp(context: AppContext, options: AppOptions = {}): Ingotr
   api.use(releaseRouter(context));
   api.use(apiNotFound);
   app.use('/api', api);
+
+  app.use(digitalLinkRouter(context, authentication.sessionHandlers));
 
   const clientDir = options.clientDir ? resolve(options.clientDir) : null;
   if (clientDir && existsSync(`${clientDir}/index.html`)) {

@@ -3,6 +3,11 @@ import { createTestApp } from '../helpers/test-app';
 import { csrfTokenOf, SamlTestDriver } from '../helpers/saml-round-trip';
 import { signThroughApi } from '../helpers/signing';
 import { adminSql } from '../helpers/admin-sql';
+import { readPdf } from '../helpers/document-readers';
+import { buildBarcodeData } from '@shared/domain/gs1/element-string';
+import { packetData, renderReleasePacket } from '../../server/src/modules/release/release-packet';
+import request from 'supertest';
+import { createHash } from 'node:crypto';
 
 type Agent = Awaited<ReturnType<SamlTestDriver['signIn']>>['agent'];
 
@@ -93,6 +98,51 @@ describe('lot release: readiness, submission, two signatures, shipment', () => {
     expect(over.body.error.message).toMatch(/has 5 released units not yet shipped; 6 cannot ship$/);
     const late = await post('engineer', `/api/lots/${lots[0]}/labels`, { kind: 'print', qty: 1 });
     expect(late.status).toBe(422);
+  });
+
+  it('when the released lot’s packet is requested, then a PDF with every section, a decodable UDI and a QR that the resolver opens is stored once', async () => {
+    const lotNumber = (await view(lots[0]!)).lotNumber as string;
+    const response = await people.auditor!.agent.get(`/api/lots/${lots[0]}/release-packet`).buffer(true).parse((res, callback) => {
+      const chunks: Buffer[] = [];
+      res.on('data', (chunk: Buffer) => chunks.push(chunk));
+      res.on('end', () => callback(null, Buffer.concat(chunks)));
+    });
+    expect(response.status).toBe(200);
+    expect(response.headers['content-type']).toBe('application/pdf');
+    const pdf = response.body as Buffer;
+    const sha256 = createHash('sha256').update(pdf).digest('hex');
+    expect(response.headers['x-packet-sha256']).toBe(sha256);
+    const { text, qrCodes, dataMatrix } = readPdf(pdf);
+    for (const section of ['Release packet', 'Release signatures', 'Genealogy', 'Material certificates and their evaluation', 'Operations', 'Passivation and cleaning runs', 'Inspections', 'Nonconformances', 'Release checklist as evaluated', 'Every signature in this record', 'Packet content SHA-256']) {
+      expect(text, section).toContain(section);
+    }
+    expect(text).toContain('Regulated release rests with the firm’s quality system');
+    expect(text).toContain('Aisling Ní Bhriain — Reviewed —');
+    expect(text).toContain('Joaquín Ferreira — Approved for release —');
+    expect(text).toContain('TST-REL-BAR');
+    const [certificate] = await running.database.dataSource.query(
+      "SELECT d.sha256 FROM bar_piece b JOIN heat_certificate c ON c.heat_id = b.heat_id JOIN certificate_document d ON d.id = c.document_id WHERE b.tag = 'TST-REL-BAR' LIMIT 1",
+    );
+    expect(text.replace(/\s+/g, '')).toContain(certificate.sha256);
+    const digitalLink = `${running.config.PUBLIC_URL}/01/09521230000024/10/${lotNumber}`;
+    expect(qrCodes).toEqual([digitalLink]);
+    // The DataMatrix carries the GS1 element string (dmtxread prints the data without the FNC1 start).
+    expect(dataMatrix[0]).toBe(buildBarcodeData({ gtin: '09521230000024', lot: lotNumber, serial: null, expiry: null, productionDate: null }));
+    const resolved = await people.auditor!.agent.get(new URL(digitalLink).pathname);
+    expect(resolved.status).toBe(302);
+    expect(resolved.headers.location).toBe(`/lots/${lots[0]}`);
+    const anonymous = await request(running.app).get(new URL(digitalLink).pathname);
+    expect(anonymous.headers.location).toBe(`/sign-in?returnTo=${encodeURIComponent(new URL(digitalLink).pathname)}`);
+    expect((await people.auditor!.agent.get('/01/09521230000024/10/NO-SUCH-LOT')).status).toBe(404);
+    expect((await people.auditor!.agent.get('/01/09521230000025/10/X')).text).toContain('The check digit should be 4');
+    // Stored once: the second request returns the same bytes; rendering again from the data gives the same bytes too.
+    const again = await people.auditor!.agent.get(`/api/lots/${lots[0]}/release-packet`);
+    expect(again.headers['x-packet-sha256']).toBe(sha256);
+    const rerendered = await renderReleasePacket(await packetData(running.database.dataSource.manager, lots[0]!, running.config.PUBLIC_URL));
+    expect(createHash('sha256').update(rerendered).digest('hex')).toBe(sha256);
+    const [{ packets }] = await running.database.dataSource.query('SELECT COUNT(*) AS packets FROM release_packet WHERE lot_id = ?', [lots[0]]);
+    expect(Number(packets)).toBe(1);
+    expect((await people.auditor!.agent.get(`/api/lots/${lots[1]}/release-packet`)).status).toBe(422);
   });
 
   it('when the lot changes after review, then approval is refused until it is reviewed again', async () => {

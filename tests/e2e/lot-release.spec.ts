@@ -41,5 +41,11 @@ test('a QA reviewer and then a different QA approver sign a submitted lot, which
   await signWithPassword(page, 'Approved for release', 'Joaquín Ferreira — Approved for release', 'joaquin-demo');
   await expect(page.getByRole('heading', { level: 1, name: new RegExp(`^Lot ${lotNumber}`) })).toContainText('released');
   await expect(page.getByRole('region', { name: /^Release (checklist passes|not ready)$/ })).toContainText('Joaquín Ferreira — Approved for release');
+  const downloading = page.waitForEvent('download');
+  await page.getByRole('link', { name: 'Download the release packet (PDF)' }).click();
+  const download = await downloading;
+  expect(download.suggestedFilename()).toBe(`release-packet-${lotNumber}.pdf`);
+  const bytes = await (await download.createReadStream()).toArray();
+  expect(Buffer.concat(bytes).subarray(0, 5).toString()).toBe('%PDF-');
   await page.screenshot({ path: 'test-results/lot-released.png', fullPage: true });
 });

@@ -72,7 +72,9 @@ test('an engineer opens a lot from a bar, records its operations, runs it with t
     const dialog = page.getByRole('dialog', { name: new RegExp(`^Record step ${step}`) });
     await dialog.getByLabel('Work centre').fill(step === 10 ? 'Swiss lathe 2' : 'Machining cell 4');
     await dialog.getByLabel('Units in').fill(step === 10 ? '20' : '18');
+    await dialog.getByLabel('Units in').press('Tab');
     await dialog.getByLabel('Scrapped').fill(String(scrap));
+    await dialog.getByLabel('Scrapped').press('Tab');
     if (scrap) await dialog.getByLabel('Scrap reason').fill('Thread damaged');
     await expect(dialog.getByTestId('qty-good')).toHaveText('18');
     await dialog.getByRole('button', { name: 'Record step' }).click();

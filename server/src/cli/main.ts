@@ -4,6 +4,7 @@ import { auditCommand } from './audit.command';
 import { CliExit } from './cli-exit';
 import { evaluateCommand } from './evaluate.command';
 import { configCommand } from './config.command';
+import { gs1Command } from './gs1.command';
 
 /** Builds the ingotrace command-line program; later features add their commands here. */
 export function buildProgram(): Command {
@@ -15,6 +16,7 @@ export function buildProgram(): Command {
   program.addCommand(configCommand());
   program.addCommand(auditCommand());
   program.addCommand(evaluateCommand());
+  program.addCommand(gs1Command());
   return program;
 }
 

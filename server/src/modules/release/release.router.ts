@@ -4,7 +4,7 @@ import { labelMovementSchema, releaseQueueQuerySchema, type ReleaseQueueQuery } 
 import type { AppContext } from '../../app-context';
 import { actorOf, currentPerson, originOf, requireAction } from '../../middleware/access';
 import { validate } from '../../middleware/validate';
-import { recordLabels, releaseQueue, releaseView, submitForRelease } from './release.service';
+import { recordLabels, releasePacket, releaseQueue, releaseView, submitForRelease } from './release.service';
 
 /** The release desk: queues, a lot's checklist and dossier, submission and label counts. */
 export function releaseRouter(context: AppContext): Router {
@@ -23,6 +23,16 @@ export function releaseRouter(context: AppContext): Router {
   });
   router.post('/lots/:lotId/labels', requireAction('labels.print'), validate({ params: idParams('lotId'), body: labelMovementSchema }), async (req, res) => {
     res.status(201).json(await recordLabels(data(), lotId(res), req.body, currentPerson(req)!, actorOf(req, 'labels.print'), originOf(req)));
+  });
+  router.get('/lots/:lotId/release-packet', requireAction('release.read'), validate({ params: idParams('lotId') }), async (_req, res) => {
+    const packet = await releasePacket(data(), lotId(res), context.config.PUBLIC_URL);
+    res
+      .type('application/pdf')
+      .set('X-Content-Type-Options', 'nosniff')
+      .set('Digest', `sha-256=${Buffer.from(packet.sha256, 'hex').toString('base64')}`)
+      .set('X-Packet-SHA256', packet.sha256)
+      .attachment(`release-packet-${packet.lotNumber}.pdf`)
+      .send(packet.content);
   });
   return router;
 }

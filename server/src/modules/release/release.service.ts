@@ -1,3 +1,4 @@
+import { createHash } from 'node:crypto';
 import type { DataSource } from 'typeorm';
 import { contentHash } from '@shared/domain/signatures';
 import type { Person } from '@shared/schemas/people';
@@ -7,6 +8,7 @@ import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, sha256Hex, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
 import { signaturesFor } from '../signatures/signatures.repository';
 import { releaseDossier, releaseDossierIn } from './release-dossier';
+import { packetData, renderReleasePacket } from './release-packet';
 
 /** The lot's readiness checklist, its dossier and where it stands in the release workflow. */
 export async function releaseView(dataSource: DataSource, lotId: number) {
@@ -97,4 +99,32 @@ export async function releaseQueue(dataSource: DataSource, query: ReleaseQueueQu
     page: query.page,
     pageSize: query.pageSize,
   };
+}
+
+/**
+ * The lot's release packet: rendered once from the released record and stored; later requests
+ * return the stored bytes. Rendering again from the same data gives the same bytes.
+ */
+export async function releasePacket(dataSource: DataSource, lotId: number, publicUrl: string): Promise<{ lotNumber: string; sha256: string; content: Buffer; created: boolean }> {
+  const [lot]: Array<{ lot_number: string; status: string }> = await dataSource.query('SELECT lot_number, status FROM production_lot WHERE id = ?', [lotId]);
+  if (!lot) throw AppError.notFound('Lot');
+  if (lot.status !== 'released') throw AppError.rule(`Lot ${lot.lot_number} is ${lot.status}; a release packet exists only for a released lot`);
+  const [submission]: Array<{ id: number }> = await dataSource.query("SELECT id FROM release_submission WHERE lot_id = ? AND outcome = 'released' ORDER BY id DESC LIMIT 1", [lotId]);
+  if (!submission) throw AppError.rule(`Lot ${lot.lot_number} has no released submission`);
+  const stored = async () => {
+    const [row]: Array<{ sha256: string; content: Buffer }> = await dataSource.query('SELECT sha256, content FROM release_packet WHERE submission_id = ?', [submission.id]);
+    return row ?? null;
+  };
+  const existing = await stored();
+  if (existing) return { lotNumber: lot.lot_number, sha256: existing.sha256, content: existing.content, created: false };
+  const content = await renderReleasePacket(await packetData(dataSource.manager, lotId, publicUrl));
+  const sha256 = createHash('sha256').update(content).digest('hex');
+  await inTransaction(dataSource, async (manager) => {
+    const result: { affectedRows: number } = await manager.query('INSERT IGNORE INTO release_packet (lot_id, submission_id, sha256, content) VALUES (?, ?, ?, ?)', [lotId, submission.id, sha256, content]);
+    if (result.affectedRows === 1) {
+      await appendLedgerEvent(manager, { actor: { id: null, name: 'Ingotrace', role: null }, action: 'lot.release-packet-stored', entity: { type: 'lot', id: lotId }, after: { sha256, bytes: content.length }, reason: null });
+    }
+  });
+  const kept = (await stored())!;
+  return { lotNumber: lot.lot_number, sha256: kept.sha256, content: kept.content, created: kept.sha256 === sha256 };
 }

@@ -1,0 +1,216 @@
+import type { EntityManager } from 'typeorm';
+import bwipjs from 'bwip-js/node';
+import QRCode from 'qrcode';
+import type { Content, TDocumentDefinitions } from 'pdfmake/interfaces';
+import { buildDigitalLink, buildElementString } from '@shared/domain/gs1/element-string';
+import { contentHash } from '@shared/domain/signatures';
+import { renderPdf } from '../../documents/pdf-printer';
+import { sha256Hex } from '../ledger/ledger.repository';
+import { ancestry, releaseDossierIn } from './release-dossier';
+
+export const releaseCaution =
+  'Regulated release rests with the firm’s quality system. Ingotrace keeps the records and computes the checks; the decision to release belongs to the firm’s validated procedures and authorised people.';
+
+interface SignatureLine {
+  record: string;
+  manifestation: string;
+  reason: string | null;
+  contentHash: string;
+}
+
+export interface PacketData {
+  organisation: string;
+  lotId: number;
+  dossier: Record<string, unknown> & { lot: string; part: string; gtin: string; quantity: number | null };
+  barPieces: Array<{ tag: string; heat: string }>;
+  signatures: SignatureLine[];
+  releasedAt: Date;
+  elementString: string;
+  digitalLink: string;
+  /** SHA-256 of the canonical JSON of everything the packet states. */
+  contentHash: string;
+}
+
+/** Everything a lot's release packet states, read in one place so the same data always gives the same packet. */
+export async function packetData(manager: EntityManager, lotId: number, publicUrl: string): Promise<PacketData> {
+  const dossier = await releaseDossierIn(manager, lotId);
+  const lineage = await ancestry(manager, lotId);
+  const marks = lineage.map(() => '?').join(',');
+  const barPieces: Array<{ tag: string; heat: string }> = await manager.query(
+    `SELECT DISTINCT b.tag, h.heat_number AS heat FROM material_movement m JOIN bar_piece b ON b.id = m.bar_piece_id JOIN heat h ON h.id = b.heat_id
+      WHERE m.lot_id IN (${marks}) AND m.kind = 'issue' ORDER BY b.tag`,
+    lineage,
+  );
+  const heatIds: Array<{ id: number }> = await manager.query(
+    `SELECT DISTINCT b.heat_id AS id FROM material_movement m JOIN bar_piece b ON b.id = m.bar_piece_id WHERE m.lot_id IN (${marks}) AND m.kind = 'issue'`,
+    lineage,
+  );
+  const ncIds = ((dossier.content.nonconformances as Array<{ nonconformance: string }>) ?? []).map((nc) => nc.nonconformance);
+  const ncRows: Array<{ id: number }> = ncIds.length ? await manager.query(`SELECT id FROM nonconformance WHERE nc_number IN (${ncIds.map(() => '?').join(',')})`, ncIds) : [];
+  const records: Array<[string, string]> = [
+    ['lot-release', String(lotId)],
+    ...heatIds.map((row): [string, string] => ['heat', String(row.id)]),
+    ...ncRows.map((row): [string, string] => ['nonconformance', String(row.id)]),
+  ];
+  const signatures: SignatureLine[] = [];
+  let releasedAt: Date | null = null;
+  for (const [recordType, recordId] of records) {
+    const rows: Array<{ meaning: string; signed_at_text: string; signed_at: Date; reason: string | null; content_hash: string; record_type: string }> = await manager.query(
+      'SELECT meaning, signed_at_text, signed_at, reason, content_hash, record_type FROM electronic_signature WHERE record_type = ? AND record_id = ? ORDER BY id',
+      [recordType, recordId],
+    );
+    for (const row of rows) {
+      signatures.push({ record: recordType === 'lot-release' ? 'lot release' : recordType === 'heat' ? 'heat disposition' : 'nonconformance', manifestation: row.signed_at_text, reason: row.reason, contentHash: row.content_hash });
+      if (recordType === 'lot-release' && row.meaning === 'approved-for-release') releasedAt = new Date(row.signed_at);
+    }
+  }
+  if (!releasedAt) throw new Error(`lot ${lotId} has no release signature`);
+  const [organisation]: Array<{ name: string }> = await manager.query('SELECT name FROM organisation ORDER BY id LIMIT 1');
+  const content = dossier.content as PacketData['dossier'];
+  const udi = { gtin: content.gtin, lot: content.lot, serial: null, expiry: null, productionDate: null };
+  const data = {
+    organisation: organisation?.name ?? '',
+    lotId,
+    dossier: content,
+    barPieces,
+    signatures,
+    releasedAt,
+    elementString: buildElementString(udi),
+    digitalLink: buildDigitalLink(udi, publicUrl),
+  };
+  return { ...data, contentHash: contentHash({ ...data, releasedAt: releasedAt.toISOString() }, sha256Hex) };
+}
+
+const heading = (text: string): Content => ({ text, style: 'heading' });
+/** A SHA-256 on two lines, so that it fits a table column (PDF text does not break inside a word). */
+const hash = (hex: string): Content => ({ text: `${hex.slice(0, 32)}\n${hex.slice(32)}`, style: 'mono' });
+const table = (headers: string[], rows: string[][], widths?: Array<string | number>): Content =>
+  rows.length
+    ? {
+        table: { headerRows: 1, widths: widths ?? headers.map(() => '*'), body: [headers.map((text) => ({ text, bold: true, fillColor: '#e8eef0' })), ...rows] },
+        layout: 'lightHorizontalLines',
+        margin: [0, 0, 0, 8],
+      }
+    : { text: 'None.', italics: true, margin: [0, 0, 0, 8] };
+
+/** The release packet PDF: what an auditor, a customer or a notified body sees of the release decision. */
+export async function renderReleasePacket(data: PacketData): Promise<Buffer> {
+  const dossier = data.dossier as PacketData['dossier'] & {
+    heats: Array<{ heat: string; supplier: string; specification: string; disposition: string; evaluation: string | null; certificates: string[] }>;
+    operations: Array<{ step: string; units: string; by: string; ended: string; files: string[] }>;
+    steps: Array<{ lot: string; step: string; verdict: string | null }>;
+    runs: Array<{ run: string; method: string; inWindow: boolean; parameters: Record<string, string> }>;
+    nonconformances: Array<{ nonconformance: string; subject: string; status: string; disposition: string | null }>;
+    readiness: Array<{ item: string; verdict: string; why: string }>;
+    genealogy: string[];
+  };
+  const dataMatrix = await bwipjs.toBuffer({ bcid: 'gs1datamatrix', text: data.elementString, scale: 4, padding: 4 });
+  const qr = await QRCode.toDataURL(data.digitalLink, { margin: 4, scale: 4, errorCorrectionLevel: 'M' });
+  const definition: TDocumentDefinitions = {
+    info: { title: `Release packet, lot ${dossier.lot}`, author: data.organisation, subject: dossier.part, creator: 'Ingotrace', producer: 'Ingotrace', creationDate: data.releasedAt },
+    pageSize: 'A4',
+    pageMargins: [40, 50, 40, 50],
+    footer: (page, pages) => ({
+      columns: [
+        { text: `Lot ${dossier.lot} · release packet · content SHA-256 ${data.contentHash.slice(0, 16)}…`, fontSize: 7, color: '#555' },
+        { text: `Page ${page} of ${pages}`, alignment: 'right', fontSize: 7, color: '#555' },
+      ],
+      margin: [40, 16, 40, 0],
+    }),
+    styles: {
+      title: { fontSize: 18, bold: true, margin: [0, 0, 0, 4] },
+      heading: { fontSize: 12, bold: true, margin: [0, 12, 0, 6], color: '#12434f' },
+      caution: { fontSize: 10, bold: true, color: '#7a4b00', fillColor: '#fff6dd', margin: [0, 8, 0, 8] },
+      mono: { fontSize: 7 },
+    },
+    content: [
+      { text: data.organisation, color: '#555' },
+      { text: `Release packet — lot ${dossier.lot}`, style: 'title' },
+      { table: { widths: ['*'], body: [[{ text: releaseCaution, style: 'caution', margin: [8, 6, 8, 6] }]] }, layout: 'noBorders' },
+      {
+        columns: [
+          {
+            width: '*',
+            stack: [
+              { text: dossier.part, bold: true, fontSize: 11, margin: [0, 4, 0, 6] },
+              { text: `Lot ${dossier.lot}` },
+              { text: `Quantity released: ${dossier.quantity ?? 0} units` },
+              { text: `GTIN ${dossier.gtin}` },
+              { text: `Released ${data.releasedAt.toISOString().replace('T', ' ').slice(0, 19)} UTC` },
+              { text: 'UDI (GS1 element string):', margin: [0, 8, 0, 0], bold: true },
+              { text: data.elementString },
+              { text: 'GS1 Digital Link (opens this lot in Ingotrace):', margin: [0, 6, 0, 0], bold: true },
+              { text: data.digitalLink, style: 'mono' },
+            ],
+          },
+          {
+            width: 'auto',
+            stack: [
+              { image: `data:image/png;base64,${dataMatrix.toString('base64')}`, width: 90, alignment: 'center' },
+              { text: 'GS1 DataMatrix', alignment: 'center', fontSize: 7, margin: [0, 2, 0, 8] },
+              { image: qr, width: 100, alignment: 'center' },
+              { text: 'GS1 Digital Link QR', alignment: 'center', fontSize: 7 },
+            ],
+          },
+        ],
+        columnGap: 16,
+      },
+      heading('Release signatures'),
+      table(
+        ['Record', 'Signature (name — meaning — date and time)', 'Reason'],
+        data.signatures.filter((signature) => signature.record === 'lot release').map((signature) => [signature.record, signature.manifestation, signature.reason ?? '']),
+        [70, '*', 120],
+      ),
+      heading('Genealogy: heats, their bar pieces, the lot and its runs'),
+      ...(dossier.genealogy.length ? [{ text: dossier.genealogy.join('; '), margin: [0, 0, 0, 6] } as Content] : []),
+      table(
+        ['Heat', 'Bar pieces', 'Lot', 'Runs'],
+        dossier.heats.map((heat) => [
+          heat.heat,
+          data.barPieces.filter((piece) => piece.heat === heat.heat).map((piece) => piece.tag).join(', '),
+          dossier.lot,
+          dossier.runs.map((run) => run.run).join(', '),
+        ]),
+      ),
+      heading('Material certificates and their evaluation'),
+      table(
+        ['Heat', 'Supplier', 'Specification', 'Evaluation', 'Disposition', 'Certificate SHA-256'],
+        dossier.heats.map((heat) => [heat.heat, heat.supplier, heat.specification, heat.evaluation ?? '—', heat.disposition, { stack: heat.certificates.map(hash) } as never]),
+        [50, 70, 70, 50, 50, '*'],
+      ),
+      heading('Operations'),
+      table(
+        ['Step', 'Units', 'Operator, work centre', 'Ended (UTC)'],
+        dossier.operations.map((operation) => [operation.step, operation.units, operation.by, operation.ended.replace('T', ' ').slice(0, 16)]),
+      ),
+      heading('Passivation and cleaning runs'),
+      table(
+        ['Run', 'Method', 'Window', 'Parameters'],
+        dossier.runs.map((run) => [run.run, run.method, run.inWindow ? 'in window' : 'outside (see nonconformances)', Object.entries(run.parameters).map(([key, value]) => `${key} ${value}`).join('; ')]),
+        [60, 80, 60, '*'],
+      ),
+      heading('Inspections'),
+      table(
+        ['Lot', 'Step', 'Verdict'],
+        dossier.steps.filter((step) => step.verdict).map((step) => [step.lot, step.step, step.verdict ?? '']),
+      ),
+      heading('Nonconformances'),
+      table(
+        ['Number', 'About', 'Status', 'Disposition'],
+        dossier.nonconformances.map((nc) => [nc.nonconformance, nc.subject, nc.status, nc.disposition ?? '—']),
+      ),
+      heading('Release checklist as evaluated'),
+      table(['Item', 'Result', 'Why'], dossier.readiness.map((item) => [item.item, item.verdict, item.why]), [150, 40, '*']),
+      heading('Every signature in this record'),
+      table(
+        ['Record', 'Signature', 'Reason', 'Signed content SHA-256'],
+        data.signatures.map((signature) => [signature.record, signature.manifestation, signature.reason ?? '', hash(signature.contentHash) as never]),
+        [60, 150, 90, '*'],
+      ),
+      heading('Integrity'),
+      { text: `Packet content SHA-256 (canonical JSON of everything stated here): ${data.contentHash}`, style: 'mono' },
+      { table: { widths: ['*'], body: [[{ text: releaseCaution, style: 'caution', margin: [8, 6, 8, 6] }]] }, layout: 'noBorders', margin: [0, 12, 0, 0] },
+    ],
+  };
+  return renderPdf(definition);
+}
