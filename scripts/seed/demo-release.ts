@@ -52,4 +52,16 @@ export async function seedDemoRelease(dataSource: DataSource): Promise<void> {
       left -= qty;
     }
   }
+  await dropDemoHistoryMail(dataSource);
+}
+
+/**
+ * The demo's history sent no mail: its queued notifications are dropped, except those for the
+ * lots still waiting in the release queues, which the mail catcher then shows.
+ */
+export async function dropDemoHistoryMail(dataSource: DataSource): Promise<void> {
+  await dataSource.query(
+    `DELETE FROM mail_outbox WHERE sent_at IS NULL AND entity_type = 'lot'
+       AND CAST(entity_id AS UNSIGNED) NOT IN (SELECT id FROM production_lot WHERE status IN ('submitted', 'reviewed'))`,
+  );
 }

@@ -19,11 +19,15 @@ import { barStockRouter } from './modules/materials/bar-stock.router';
 import { manufacturingRouter } from './modules/manufacturing/manufacturing.router';
 import { releaseRouter } from './modules/release/release.router';
 import { digitalLinkRouter } from './modules/trace/digital-link.router';
+import { startMailWorker } from './modules/mail/mail-outbox';
+import { configureLinks } from './modules/mail/links';
 import { registerProductRecordTypes } from './modules/signable-record-types';
 
 export interface AppOptions {
   /** Folder with the built client (index.html and assets); omitted in API-only tests. */
   clientDir?: string;
+  /** Deliver queued e-mail in the background (default); tests of the outbox itself turn it off. */
+  mailWorker?: boolean;
 }
 
 export type IngotraceApp = Express & { shutdown(): Promise<void> };
@@ -31,6 +35,7 @@ export type IngotraceApp = Express & { shutdown(): Promise<void> };
 /** Builds the Express app; never listens (index.ts does, tests use supertest). */
 export function createApp(context: AppContext, options: AppOptions = {}): IngotraceApp {
   registerProductRecordTypes();
+  configureLinks(context.config.PUBLIC_URL);
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
@@ -99,5 +104,11 @@ export function createApp(context: AppContext, options: AppOptions = {}): Ingotr
   }
   app.use(apiNotFound);
   app.use(errorHandler);
-  return Object.assign(app, { shutdown: () => authentication.close() });
+  const stopMailWorker = options.mailWorker === false ? () => undefined : startMailWorker(context.config, () => context.database.dataSource, context.logger);
+  return Object.assign(app, {
+    shutdown: async () => {
+      stopMailWorker();
+      await authentication.close();
+    },
+  });
 }

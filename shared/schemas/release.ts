@@ -18,3 +18,10 @@ export const releaseQueueQuerySchema = z.object({
   pageSize: z.coerce.number().int().min(1).max(100).default(20),
 });
 export type ReleaseQueueQuery = z.infer<typeof releaseQueueQuerySchema>;
+
+export const labelSheetQuerySchema = z.object({
+  count: z.coerce.number().int().min(1, 'At least one label').max(2_000, 'At most 2,000 labels at once'),
+  widthMm: z.coerce.number().min(30, 'At least 30 mm wide').max(210).default(100),
+  heightMm: z.coerce.number().min(20, 'At least 20 mm high').max(297).default(50),
+});
+export type LabelSheetQuery = z.infer<typeof labelSheetQuerySchema>;

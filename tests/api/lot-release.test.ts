@@ -58,6 +58,16 @@ describe('lot release: readiness, submission, two signatures, shipment', () => {
     return people[who]!.agent.post(path).set('X-CSRF-Token', people[who]!.csrf).send(body as object);
   }
   const view = async (lotId: number) => (await people.auditor!.agent.get(`/api/lots/${lotId}/release`)).body;
+  /** Polls the mail catcher's REST API until a mail with this subject has arrived. */
+  async function mailWithSubject(subject: string) {
+    for (let attempt = 0; attempt < 60; attempt++) {
+      const mails = (await (await fetch(`http://127.0.0.1:${running.config.MAIL_WEB_PORT}/api/email`)).json()) as Array<{ subject: string; to: Array<{ address: string }>; text: string }>;
+      const found = mails.find((mail) => mail.subject === subject);
+      if (found) return found;
+      await new Promise((done) => setTimeout(done, 500));
+    }
+    throw new Error(`no mail "${subject}" arrived`);
+  }
 
   it('when labels are not yet printed, then the lot is not ready and submission is refused with the reason', async () => {
     const before = await view(lots[0]!);
@@ -82,6 +92,11 @@ describe('lot release: readiness, submission, two signatures, shipment', () => {
     expect(submitted.body.status).toBe('submitted');
     const queue = await people.reviewer!.agent.get('/api/release-queue?queue=review');
     expect(queue.body.items.map((item: { lotId: number }) => item.lotId)).toContain(lots[0]);
+    // The QA reviewers are told, through the outbox and the real SMTP catcher.
+    const lotNumber = (await view(lots[0]!)).lotNumber as string;
+    const mail = await mailWithSubject(`Lot ${lotNumber} awaits your review`);
+    expect(mail.to.map((address: { address: string }) => address.address)).toContain('aisling.nibhriain@kestrelmoor.example');
+    expect(mail.text).toContain(`${running.config.PUBLIC_URL}/lots/${lots[0]}`);
   });
 
   it('when the reviewer and a different approver sign, then the lot is released; shipping is limited to the released units', async () => {
@@ -143,6 +158,25 @@ describe('lot release: readiness, submission, two signatures, shipment', () => {
     const [{ packets }] = await running.database.dataSource.query('SELECT COUNT(*) AS packets FROM release_packet WHERE lot_id = ?', [lots[0]]);
     expect(Number(packets)).toBe(1);
     expect((await people.auditor!.agent.get(`/api/lots/${lots[1]}/release-packet`)).status).toBe(422);
+  });
+
+  it('when labels are printed, then each page is one label at the chosen size whose DataMatrix scans to the lot’s UDI', async () => {
+    const lotNumber = (await view(lots[0]!)).lotNumber as string;
+    const response = await people.engineer!.agent.get(`/api/lots/${lots[0]}/labels.pdf?count=2&widthMm=100&heightMm=50`).buffer(true).parse((res, callback) => {
+      const chunks: Buffer[] = [];
+      res.on('data', (chunk: Buffer) => chunks.push(chunk));
+      res.on('end', () => callback(null, Buffer.concat(chunks)));
+    });
+    expect(response.status).toBe(200);
+    const { text, dataMatrix } = readPdf(response.body as Buffer);
+    expect(text).toContain(`LOT ${lotNumber}`);
+    expect(text).toContain(`(01)09521230000024(10)${lotNumber}`);
+    expect(text.split('\f').filter((page) => page.trim()).length).toBe(2);
+    expect(dataMatrix[0]).toBe(buildBarcodeData({ gtin: '09521230000024', lot: lotNumber, serial: null, expiry: null, productionDate: null }));
+    const tooMany = await people.engineer!.agent.get(`/api/lots/${lots[0]}/labels.pdf?count=5000`);
+    expect(tooMany.status).toBe(400);
+    expect(tooMany.body.error.fields).toEqual({ 'query.count': 'At most 2,000 labels at once' });
+    expect((await people.auditor!.agent.get(`/api/lots/${lots[0]}/labels.pdf?count=1`)).status).toBe(403);
   });
 
   it('when the lot changes after review, then approval is refused until it is reviewed again', async () => {

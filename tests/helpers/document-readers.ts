@@ -15,8 +15,16 @@ export function readPdf(pdf: Buffer): { text: string; qrCodes: string[]; dataMat
     const text = execFileSync('pdftotext', ['-layout', file, '-'], { encoding: 'utf8' });
     execFileSync('pdftoppm', ['-png', '-r', '200', '-f', '1', '-l', '1', file, join(folder, 'page')]);
     const page = join(folder, 'page-1.png');
-    const qr = execFileSync('zbarimg', ['-q', '--raw', '-Sdisable', '-Sqrcode.enable', page], { encoding: 'utf8', stdio: ['ignore', 'pipe', 'ignore'] });
-    const matrix = execFileSync('dmtxread', ['-n', '-N1', '-S2', '-m', '20000', page], { encoding: 'latin1', stdio: ['ignore', 'pipe', 'ignore'] });
+    // Both decoders exit non-zero when the page holds no symbol of their kind.
+    const decoded = (command: string, args: string[], encoding: BufferEncoding) => {
+      try {
+        return execFileSync(command, args, { encoding, stdio: ['ignore', 'pipe', 'ignore'] });
+      } catch {
+        return '';
+      }
+    };
+    const qr = decoded('zbarimg', ['-q', '--raw', '-Sdisable', '-Sqrcode.enable', page], 'utf8');
+    const matrix = decoded('dmtxread', ['-n', '-N1', '-S2', '-m', '20000', page], 'latin1');
     return { text, qrCodes: qr.split('\n').filter(Boolean), dataMatrix: matrix.split('\n').filter(Boolean) };
   } finally {
     rmSync(folder, { recursive: true, force: true });

@@ -3,7 +3,7 @@ import { pino } from 'pino';
 import { loadConfig, type AppConfig } from '../../server/src/config/env';
 import { createDataSource } from '../../server/src/db/connection-options';
 import { Database } from '../../server/src/db/database';
-import { createApp, type IngotraceApp } from '../../server/src/app';
+import { createApp, type AppOptions, type IngotraceApp } from '../../server/src/app';
 
 export interface TestApp {
   app: IngotraceApp;
@@ -13,10 +13,10 @@ export interface TestApp {
 }
 
 /** The real app against the test profile's MariaDB (or another database when overrides say so). */
-export function createTestApp(overrides: Record<string, string> = {}): TestApp {
+export function createTestApp(overrides: Record<string, string> = {}, appOptions: AppOptions = {}): TestApp {
   const config = loadConfig({ ...process.env, ...overrides });
   const database = new Database(createDataSource(config, 'app'));
-  const app = createApp({ config, database, logger: pino({ level: 'silent' }), version: 'test' });
+  const app = createApp({ config, database, logger: pino({ level: 'silent' }), version: 'test' }, appOptions);
   return {
     app,
     database,

@@ -7,6 +7,7 @@ import { CreateBarStock1764655200000 } from './1764655200000-create-bar-stock';
 import { CreateSpecificationDrafts1764658800000 } from './1764658800000-create-specification-drafts';
 import { CreateManufacturingRecord1764662400000 } from './1764662400000-create-manufacturing-record';
 import { CreateRelease1764666000000 } from './1764666000000-create-release';
+import { CreateMailOutbox1764669600000 } from './1764669600000-create-mail-outbox';
 
 /** Every migration in the order it runs. Add new ones at the end. */
 export const migrations = [
@@ -19,4 +20,5 @@ export const migrations = [
   CreateSpecificationDrafts1764658800000,
   CreateManufacturingRecord1764662400000,
   CreateRelease1764666000000,
+  CreateMailOutbox1764669600000,
 ];

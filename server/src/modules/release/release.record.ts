@@ -4,6 +4,7 @@ import type { SignableRecordType } from '../signatures/signable-records';
 import { signaturesFor } from '../signatures/signatures.repository';
 import { appendLedgerEvent, sha256Hex } from '../ledger/ledger.repository';
 import { releaseDossierIn } from './release-dossier';
+import { queueReleaseMail } from './release-mails';
 
 const actions = { reviewed: 'release.review', 'approved-for-release': 'release.approve', rejected: 'release.reject' } as const;
 
@@ -63,6 +64,7 @@ export const lotReleaseRecordType: SignableRecordType = {
     } else {
       await manager.query("UPDATE production_lot SET status = 'reviewed' WHERE id = ?", [lotId]);
     }
+    await queueReleaseMail(manager, lotId, meaning === 'approved-for-release' ? 'released' : meaning === 'rejected' ? 'rejected' : 'reviewed', reason);
     await appendLedgerEvent(manager, {
       actor: { id: signerId, name: signerName, role: meaning === 'approved-for-release' ? 'qa-approver' : 'qa-reviewer' },
       action: `lot.${meaning === 'approved-for-release' ? 'released' : meaning}`,

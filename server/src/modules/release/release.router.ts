@@ -1,6 +1,7 @@
 import { Router } from 'express';
 import { idParams } from '@shared/schemas/manufacturing';
-import { labelMovementSchema, releaseQueueQuerySchema, type ReleaseQueueQuery } from '@shared/schemas/release';
+import { labelMovementSchema, labelSheetQuerySchema, releaseQueueQuerySchema, type LabelSheetQuery, type ReleaseQueueQuery } from '@shared/schemas/release';
+import { lotLabelsPdf } from './lot-labels';
 import type { AppContext } from '../../app-context';
 import { actorOf, currentPerson, originOf, requireAction } from '../../middleware/access';
 import { validate } from '../../middleware/validate';
@@ -23,6 +24,10 @@ export function releaseRouter(context: AppContext): Router {
   });
   router.post('/lots/:lotId/labels', requireAction('labels.print'), validate({ params: idParams('lotId'), body: labelMovementSchema }), async (req, res) => {
     res.status(201).json(await recordLabels(data(), lotId(res), req.body, currentPerson(req)!, actorOf(req, 'labels.print'), originOf(req)));
+  });
+  router.get('/lots/:lotId/labels.pdf', requireAction('labels.print'), validate({ params: idParams('lotId'), query: labelSheetQuerySchema }), async (_req, res) => {
+    const labels = await lotLabelsPdf(data(), lotId(res), (res.locals.valid as { query: LabelSheetQuery }).query);
+    res.type('application/pdf').set('X-Content-Type-Options', 'nosniff').attachment(`labels-${labels.lotNumber}.pdf`).send(labels.pdf);
   });
   router.get('/lots/:lotId/release-packet', requireAction('release.read'), validate({ params: idParams('lotId') }), async (_req, res) => {
     const packet = await releasePacket(data(), lotId(res), context.config.PUBLIC_URL);

@@ -9,6 +9,7 @@ import { appendLedgerEvent, sha256Hex, type Actor, type RequestOrigin } from '..
 import { signaturesFor } from '../signatures/signatures.repository';
 import { releaseDossier, releaseDossierIn } from './release-dossier';
 import { packetData, renderReleasePacket } from './release-packet';
+import { queueReleaseMail } from './release-mails';
 
 /** The lot's readiness checklist, its dossier and where it stands in the release workflow. */
 export async function releaseView(dataSource: DataSource, lotId: number) {
@@ -47,6 +48,7 @@ export async function submitForRelease(dataSource: DataSource, lotId: number, pe
     const hash = contentHash(dossier.content, sha256Hex);
     await manager.query('INSERT INTO release_submission (lot_id, submitted_by, dossier_hash) VALUES (?, ?, ?)', [lotId, person.id, hash]);
     await manager.query("UPDATE production_lot SET status = 'submitted' WHERE id = ?", [lotId]);
+    await queueReleaseMail(manager, lotId, 'submitted');
     await appendLedgerEvent(manager, { actor, action: 'lot.submitted-for-release', entity: { type: 'lot', id: lotId }, before: { status: 'open' }, after: { status: 'submitted', dossierHash: hash }, origin });
     return { lotId, status: 'submitted' as const, dossierHash: hash };
   });
