@@ -13,6 +13,7 @@ import { seedDemoMaterials } from '../seed/demo-materials';
 import { seedDemoManufacturing } from '../seed/demo-manufacturing';
 import { seedDemoRelease } from '../seed/demo-release';
 import { receiveBar } from '../../server/src/modules/materials/bar-stock.service';
+import { packetData, renderReleasePacket } from '../../server/src/modules/release/release-packet';
 
 async function timed(runs: number, work: () => Promise<unknown>): Promise<{ medianMs: number; p95Ms: number }> {
   const samples: number[] = [];
@@ -56,17 +57,27 @@ async function main(): Promise<void> {
       "SELECT o.lot_id AS id FROM lot_operation o GROUP BY o.lot_id HAVING COUNT(*) = 6 ORDER BY o.lot_id LIMIT 1",
     );
     const [{ lots }] = await dataSource.query('SELECT COUNT(*) AS lots FROM production_lot');
+    // The largest released demo lot by units; the first render also loads the fonts.
+    const [largest] = await dataSource.query("SELECT id, lot_number, released_qty FROM production_lot WHERE status = 'released' ORDER BY released_qty DESC, id LIMIT 1");
+    const packet = async () => renderReleasePacket(await packetData(dataSource.manager, largest.id, config.PUBLIC_URL));
+    const firstStarted = performance.now();
+    const bytes = (await packet()).length;
+    const packetFirstMs = Math.round(performance.now() - firstStarted);
     const figures = {
       lots: Number(lots),
       seedSeconds,
       typicalLotRecord: await timed(50, () => lotDetail(dataSource, typical)),
       lotWith200Records: await timed(50, () => lotDetail(dataSource, big.id)),
       lotListPage: await timed(50, () => listLots(dataSource, { page: 1, pageSize: 20, sort: 'openedAt', order: 'desc' })),
+      releasePacket: { lot: largest.lot_number as string, units: Number(largest.released_qty), bytes, firstMs: packetFirstMs, ...(await timed(10, packet)) },
     };
     process.stdout.write(`\ndemo scenario: ${figures.lots} lots, seeded in ${figures.seedSeconds} s\n`);
     process.stdout.write(`lot record, complete routing:   median ${figures.typicalLotRecord.medianMs} ms, p95 ${figures.typicalLotRecord.p95Ms} ms\n`);
     process.stdout.write(`lot record, 200 material rows:  median ${figures.lotWith200Records.medianMs} ms, p95 ${figures.lotWith200Records.p95Ms} ms\n`);
     process.stdout.write(`lot list, first page of 20:     median ${figures.lotListPage.medianMs} ms, p95 ${figures.lotListPage.p95Ms} ms\n`);
+    process.stdout.write(
+      `release packet, lot ${figures.releasePacket.lot} (${figures.releasePacket.units} units, ${figures.releasePacket.bytes} bytes): first ${figures.releasePacket.firstMs} ms, then median ${figures.releasePacket.medianMs} ms, p95 ${figures.releasePacket.p95Ms} ms\n`,
+    );
     process.stdout.write(`${JSON.stringify(figures)}\n`);
   } finally {
     await dataSource.destroy();

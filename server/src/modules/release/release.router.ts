@@ -2,6 +2,9 @@ import { Router } from 'express';
 import { idParams } from '@shared/schemas/manufacturing';
 import { labelMovementSchema, labelSheetQuerySchema, releaseQueueQuerySchema, type LabelSheetQuery, type ReleaseQueueQuery } from '@shared/schemas/release';
 import { lotLabelsPdf } from './lot-labels';
+import { z } from 'zod';
+
+const packetQuerySchema = z.object({ view: z.enum(['inline']).optional() });
 import type { AppContext } from '../../app-context';
 import { actorOf, currentPerson, originOf, requireAction } from '../../middleware/access';
 import { validate } from '../../middleware/validate';
@@ -29,14 +32,17 @@ export function releaseRouter(context: AppContext): Router {
     const labels = await lotLabelsPdf(data(), lotId(res), (res.locals.valid as { query: LabelSheetQuery }).query);
     res.type('application/pdf').set('X-Content-Type-Options', 'nosniff').attachment(`labels-${labels.lotNumber}.pdf`).send(labels.pdf);
   });
-  router.get('/lots/:lotId/release-packet', requireAction('release.read'), validate({ params: idParams('lotId') }), async (_req, res) => {
+  router.get('/lots/:lotId/release-packet', requireAction('release.read'), validate({ params: idParams('lotId'), query: packetQuerySchema }), async (_req, res) => {
     const packet = await releasePacket(data(), lotId(res), context.config.PUBLIC_URL);
+    const { view } = (res.locals.valid as { query: { view?: 'inline' } }).query;
+    const name = `release-packet-${packet.lotNumber.replace(/[^A-Za-z0-9._-]/g, '_')}.pdf`;
     res
       .type('application/pdf')
       .set('X-Content-Type-Options', 'nosniff')
       .set('Digest', `sha-256=${Buffer.from(packet.sha256, 'hex').toString('base64')}`)
       .set('X-Packet-SHA256', packet.sha256)
-      .attachment(`release-packet-${packet.lotNumber}.pdf`)
+      // ?view=inline opens it in the browser's own PDF viewer (a preview); otherwise it downloads.
+      .set('Content-Disposition', `${view === 'inline' ? 'inline' : 'attachment'}; filename="${name}"`)
       .send(packet.content);
   });
   return router;
