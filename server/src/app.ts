@@ -19,6 +19,7 @@ import { barStockRouter } from './modules/materials/bar-stock.router';
 import { manufacturingRouter } from './modules/manufacturing/manufacturing.router';
 import { releaseRouter } from './modules/release/release.router';
 import { digitalLinkRouter } from './modules/trace/digital-link.router';
+import { traceRouter } from './modules/trace/trace.router';
 import { startMailWorker } from './modules/mail/mail-outbox';
 import { configureLinks } from './modules/mail/links';
 import { registerProductRecordTypes } from './modules/signable-record-types';
@@ -89,6 +90,7 @@ export function createApp(context: AppContext, options: AppOptions = {}): Ingotr
   api.use(barStockRouter(context));
   api.use(manufacturingRouter(context));
   api.use(releaseRouter(context));
+  api.use(traceRouter(context));
   api.use(apiNotFound);
   app.use('/api', api);
 

@@ -1,0 +1,19 @@
+import { Router } from 'express';
+import { backwardQuerySchema, forwardQuerySchema, type BackwardQuery, type ForwardStart } from '@shared/schemas/trace';
+import type { AppContext } from '../../app-context';
+import { requireAction } from '../../middleware/access';
+import { validate } from '../../middleware/validate';
+import { backwardTrace, forwardTrace } from './trace.service';
+
+/** Genealogy both ways: back from a unit, lot or bar to its heats; forward from a heat, bar, run or supplier to lots and consignees. */
+export function traceRouter(context: AppContext): Router {
+  const router = Router();
+  const data = () => context.database.dataSource;
+  router.get('/trace/backward', requireAction('trace.read'), validate({ query: backwardQuerySchema }), async (_req, res) => {
+    res.json(await backwardTrace(data(), (res.locals.valid as { query: BackwardQuery }).query));
+  });
+  router.get('/trace/forward', requireAction('trace.read'), validate({ query: forwardQuerySchema }), async (_req, res) => {
+    res.json(await forwardTrace(data(), (res.locals.valid as { query: ForwardStart }).query));
+  });
+  return router;
+}

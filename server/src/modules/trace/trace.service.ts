@@ -1,0 +1,168 @@
+import type { DataSource, EntityManager } from 'typeorm';
+import { parseUdi, Gs1Error } from '@shared/domain/gs1/element-string';
+import type { BackwardTrace, ForwardStart, ForwardTrace, TracedLot } from '@shared/schemas/trace';
+import { AppError } from '../../errors';
+import { ancestorLots, descendantLots, descendantPieces, lotsFromPieces, lotsInRuns, piecesOfHeats } from './genealogy.repository';
+
+const marks = (values: unknown[]) => values.map(() => '?').join(',');
+
+/** Finds the lot a backward trace starts from: a UDI (element string or Digital Link), a lot number, or a bar tag. */
+async function startingLots(manager: EntityManager, start: { udi?: string; lot?: string; tag?: string }): Promise<{ lotIds: number[]; label: string }> {
+  if (start.udi) {
+    let parts;
+    try {
+      parts = parseUdi(start.udi);
+    } catch (error) {
+      if (error instanceof Gs1Error) throw new AppError('VALIDATION_FAILED', `The UDI cannot be read: ${error.message}`, { udi: error.message });
+      throw error;
+    }
+    if (!parts.lot) throw new AppError('VALIDATION_FAILED', 'The UDI carries no lot (AI 10)', { udi: 'No lot in the UDI' });
+    const rows: Array<{ id: number }> = await manager.query('SELECT l.id FROM production_lot l JOIN part p ON p.id = l.part_id WHERE p.gtin = ? AND l.lot_number = ?', [parts.gtin, parts.lot]);
+    if (!rows.length) throw AppError.notFound(`Lot ${parts.lot} of GTIN ${parts.gtin}`);
+    return { lotIds: rows.map((row) => row.id), label: `UDI (01)${parts.gtin}(10)${parts.lot}` };
+  }
+  if (start.lot) {
+    const rows: Array<{ id: number }> = await manager.query('SELECT id FROM production_lot WHERE lot_number = ?', [start.lot]);
+    if (!rows.length) throw AppError.notFound(`Lot ${start.lot}`);
+    return { lotIds: rows.map((row) => row.id), label: `lot ${start.lot}` };
+  }
+  if (start.tag) {
+    const pieces: Array<{ id: number }> = await manager.query('SELECT id FROM bar_piece WHERE tag = ?', [start.tag.toUpperCase()]);
+    if (!pieces.length) throw AppError.notFound(`Bar piece ${start.tag}`);
+    return { lotIds: await lotsFromPieces(manager, await descendantPieces(manager, pieces.map((piece) => piece.id))), label: `bar ${start.tag.toUpperCase()}` };
+  }
+  throw new AppError('VALIDATION_FAILED', 'Give a UDI, a lot number or a bar tag', { udi: 'One of udi, lot or tag' });
+}
+
+/** Where a lot came from: its lots through splits and merges, bar pieces, heats, certificates, suppliers, runs, nonconformances and signatures. */
+export async function backwardTrace(dataSource: DataSource, start: { udi?: string; lot?: string; tag?: string }): Promise<BackwardTrace> {
+  const manager = dataSource.manager;
+  const { lotIds, label } = await startingLots(manager, start);
+  const lineage = await ancestorLots(manager, lotIds);
+  const lots = await lotFacts(manager, lineage);
+  const pieces: BackwardTrace['barPieces'] = lineage.length
+    ? await manager.query(
+        `WITH RECURSIVE issued (id) AS (SELECT DISTINCT bar_piece_id FROM material_movement WHERE kind = 'issue' AND lot_id IN (${marks(lineage)})
+           UNION SELECT b.parent_id FROM bar_piece b JOIN issued ON b.id = issued.id WHERE b.parent_id IS NOT NULL)
+         SELECT b.id, b.tag, b.heat_id AS heatId, parent.tag AS parentTag FROM issued JOIN bar_piece b ON b.id = issued.id LEFT JOIN bar_piece parent ON parent.id = b.parent_id ORDER BY b.tag`,
+        lineage,
+      )
+    : [];
+  const heatIds = [...new Set(pieces.map((piece) => piece.heatId))];
+  const heats: BackwardTrace['heats'] = heatIds.length
+    ? await manager.query(
+        `SELECT h.id, h.heat_number AS heatNumber, h.status, h.spec_id AS specId, s.id AS supplierId, s.name AS supplier, s.approval,
+                (SELECT e.verdict FROM heat_evaluation e WHERE e.heat_id = h.id ORDER BY e.id DESC LIMIT 1) AS verdict
+           FROM heat h JOIN supplier s ON s.id = h.supplier_id WHERE h.id IN (${marks(heatIds)}) ORDER BY h.heat_number`,
+        heatIds,
+      )
+    : [];
+  const certificates: BackwardTrace['certificates'] = heatIds.length
+    ? await manager.query(
+        `SELECT c.heat_id AS heatId, d.id AS documentId, d.original_name AS name, d.sha256 FROM heat_certificate c JOIN certificate_document d ON d.id = c.document_id WHERE c.heat_id IN (${marks(heatIds)}) ORDER BY d.id`,
+        heatIds,
+      )
+    : [];
+  const runs: BackwardTrace['runs'] = lineage.length
+    ? (
+        await manager.query(
+          `SELECT DISTINCT r.id, r.run_number AS runNumber, r.kind, r.method_id AS methodId, r.in_window AS inWindow, r.run_at AS runAt
+             FROM lot_operation o JOIN process_run r ON r.id = o.process_run_id WHERE o.lot_id IN (${marks(lineage)}) ORDER BY r.run_at`,
+          lineage,
+        )
+      ).map((run: { inWindow: number; runAt: Date }) => ({ ...run, inWindow: Boolean(run.inWindow), runAt: new Date(run.runAt).toISOString() }))
+    : [];
+  const ncClauses = [`lot_id IN (${marks(lineage.length ? lineage : [0])})`];
+  const ncParameters: unknown[] = lineage.length ? [...lineage] : [0];
+  if (heatIds.length) {
+    ncClauses.push(`(subject_type = 'heat' AND subject_id IN (${marks(heatIds)}))`);
+    ncParameters.push(...heatIds);
+  }
+  if (runs.length) {
+    ncClauses.push(`(subject_type = 'process-run' AND subject_id IN (${marks(runs)}))`);
+    ncParameters.push(...runs.map((run) => run.id));
+  }
+  const nonconformances: BackwardTrace['nonconformances'] = await manager.query(
+    `SELECT id, nc_number AS ncNumber, subject_type AS subjectType, status, disposition FROM nonconformance WHERE ${ncClauses.join(' OR ')} ORDER BY nc_number`,
+    ncParameters,
+  );
+  const signatureRecords: Array<[string, string]> = [...lineage.map((id): [string, string] => ['lot-release', String(id)]), ...heatIds.map((id): [string, string] => ['heat', String(id)])];
+  const signatures: BackwardTrace['signatures'] = signatureRecords.length
+    ? await manager.query(
+        `SELECT record_type AS recordType, record_id AS recordId, meaning, signed_at_text AS manifestation, content_hash AS contentHash FROM electronic_signature
+          WHERE (record_type, record_id) IN (${signatureRecords.map(() => '(?, ?)').join(',')}) ORDER BY id`,
+        signatureRecords.flat(),
+      )
+    : [];
+  return { start: label, lots, barPieces: pieces, heats, certificates, runs, nonconformances, signatures };
+}
+
+/** Every lot affected by a heat, a bar piece, a run or a supplier (optionally within a date window), through splits and merges. */
+export async function forwardTrace(dataSource: DataSource, start: ForwardStart): Promise<ForwardTrace> {
+  const manager = dataSource.manager;
+  let seedLots: number[];
+  let label: string;
+  const window = start.from || start.to ? [start.from ?? '1000-01-01', start.to ?? '9999-12-31'] : null;
+  if (start.heatId) {
+    const [heat] = await manager.query('SELECT heat_number FROM heat WHERE id = ?', [start.heatId]);
+    if (!heat) throw AppError.notFound('Heat');
+    seedLots = await lotsFromPieces(manager, await descendantPieces(manager, await piecesOfHeats(manager, [start.heatId])));
+    label = `heat ${heat.heat_number}`;
+  } else if (start.pieceId) {
+    const [piece] = await manager.query('SELECT tag FROM bar_piece WHERE id = ?', [start.pieceId]);
+    if (!piece) throw AppError.notFound('Bar piece');
+    seedLots = await lotsFromPieces(manager, await descendantPieces(manager, [start.pieceId]));
+    label = `bar ${piece.tag}`;
+  } else if (start.runId) {
+    const [run] = await manager.query('SELECT run_number FROM process_run WHERE id = ?', [start.runId]);
+    if (!run) throw AppError.notFound('Process run');
+    seedLots = await lotsInRuns(manager, [start.runId]);
+    label = `run ${run.run_number}`;
+  } else if (start.supplierId) {
+    const [supplier] = await manager.query('SELECT name FROM supplier WHERE id = ?', [start.supplierId]);
+    if (!supplier) throw AppError.notFound('Supplier');
+    const heats: Array<{ id: number }> = await manager.query(`SELECT id FROM heat WHERE supplier_id = ?${window ? ' AND received_at >= ? AND received_at < ? + INTERVAL 1 DAY' : ''}`, [start.supplierId, ...(window ?? [])]);
+    seedLots = await lotsFromPieces(manager, await descendantPieces(manager, await piecesOfHeats(manager, heats.map((heat) => heat.id))));
+    label = `supplier ${supplier.name}${window ? ` (heats received ${window[0]} to ${window[1]})` : ''}`;
+  } else {
+    throw new AppError('VALIDATION_FAILED', 'Start from a heat, a bar piece, a run or a supplier', { heatId: 'One of heatId, pieceId, runId or supplierId' });
+  }
+  const affected = await descendantLots(manager, seedLots);
+  const lots = await lotFacts(manager, affected);
+  const totals = lots.reduce((sum, lot) => ({ made: sum.made + (lot.made ?? 0), released: sum.released + lot.released, shipped: sum.shipped + lot.shipped, onHand: sum.onHand + lot.onHand }), { made: 0, released: 0, shipped: 0, onHand: 0 });
+  const consignees: ForwardTrace['consignees'] = affected.length
+    ? await manager.query(
+        `SELECT c.id, c.name, c.kind, c.country, SUM(s.qty) AS units, COUNT(DISTINCT s.lot_id) AS lots FROM shipment s JOIN consignee c ON c.id = s.consignee_id
+          WHERE s.lot_id IN (${marks(affected)}) GROUP BY c.id, c.name, c.kind, c.country ORDER BY c.name`,
+        affected,
+      )
+    : [];
+  return { start: label, lots, totals, consignees: consignees.map((consignee) => ({ ...consignee, units: Number(consignee.units), lots: Number(consignee.lots) })) };
+}
+
+/** Status and quantities of each lot: made, released, shipped, and what is still here. */
+async function lotFacts(manager: EntityManager, lotIds: number[]): Promise<TracedLot[]> {
+  if (!lotIds.length) return [];
+  const rows: Array<{ id: number; lot_number: string; part_number: string; status: string; origin: string; start_qty: number | null; released_qty: number; shipped: string | null; parents: string | null }> = await manager.query(
+    `SELECT l.id, l.lot_number, p.part_number, l.status, l.origin, l.start_qty, l.released_qty,
+            (SELECT SUM(qty) FROM shipment s WHERE s.lot_id = l.id) AS shipped,
+            (SELECT GROUP_CONCAT(pl.lot_number ORDER BY pl.lot_number SEPARATOR ',') FROM lot_link k JOIN production_lot pl ON pl.id = k.parent_lot_id WHERE k.child_lot_id = l.id) AS parents
+       FROM production_lot l JOIN part p ON p.id = l.part_id WHERE l.id IN (${marks(lotIds)}) ORDER BY l.lot_number`,
+    lotIds,
+  );
+  return rows.map((row) => {
+    const shipped = Number(row.shipped ?? 0);
+    return {
+      id: row.id,
+      lotNumber: row.lot_number,
+      partNumber: row.part_number,
+      status: row.status,
+      origin: row.origin,
+      parents: row.parents ? row.parents.split(',') : [],
+      made: row.start_qty,
+      released: row.released_qty,
+      shipped,
+      onHand: row.status === 'released' ? row.released_qty - shipped : 0,
+    };
+  });
+}

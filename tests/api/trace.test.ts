@@ -1,0 +1,132 @@
+import fc from 'fast-check';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { BackwardTrace, ForwardTrace } from '@shared/schemas/trace';
+import { createTestApp } from '../helpers/test-app';
+import { csrfTokenOf, SamlTestDriver } from '../helpers/saml-round-trip';
+
+type Agent = Awaited<ReturnType<SamlTestDriver['signIn']>>['agent'];
+
+describe('genealogy both ways on a hand-built history with a cut bar, a split, a merge, shared runs and two heats', () => {
+  const running = createTestApp();
+  let engineer: { agent: Agent; csrf: string };
+  let auditor: Agent;
+  const lot: Record<string, { id: number; lotNumber: string }> = {};
+  const ids: Record<string, number> = {};
+  const times = { operatorName: 'Test', workCentre: 'Cell', startedAt: '2026-11-20T08:00:00Z', endedAt: '2026-11-20T09:00:00Z' };
+
+  beforeAll(async () => {
+    const saml = await SamlTestDriver.create(running.config);
+    const signedIn = await saml.signIn(running.app, 'kiw-0102');
+    engineer = { agent: signedIn.agent, csrf: await csrfTokenOf(signedIn.agent) };
+    auditor = (await saml.signIn(running.app, 'kiw-0401')).agent;
+    const post = async (path: string, body: unknown) => {
+      const response = await engineer.agent.post(path).set('X-CSRF-Token', engineer.csrf).send(body as object);
+      if (response.status >= 300) throw new Error(`${path}: ${JSON.stringify(response.body)}`);
+      return response.body;
+    };
+    const db = await running.database.connect();
+    const [h1, h2] = await db.query("SELECT id FROM heat WHERE status = 'accepted' AND spec_id = 'ASTM F136' ORDER BY id LIMIT 2");
+    ids.h1 = h1.id;
+    ids.h2 = h2.id;
+    const b1 = await post('/api/bar-pieces', { heatId: h1.id, tag: 'TRC-B1', diameterMm: '25.4', lengthMm: '2000', location: 'T' });
+    ids.b1 = b1.id;
+    const cut = await post(`/api/bar-pieces/${b1.id}/cuts`, { pieces: [{ lengthMm: '1000' }, { lengthMm: '997' }] });
+    ids.b1a = cut[0].id;
+    await post('/api/bar-pieces', { heatId: h2.id, tag: 'TRC-B2', diameterMm: '25.4', lengthMm: '1000', location: 'T' });
+    const part = await post('/api/parts', {
+      partNumber: 'TRC-PART',
+      revision: 'A',
+      description: 'Trace test part',
+      gtin: '09521230000031',
+      unitLengthMm: '40',
+      cutoffAllowanceMm: '2',
+      lotPattern: 'TR{SEQ:3}',
+      specifications: [{ specId: 'ASTM F136' }],
+      routing: [{ kind: 'machining', name: 'Turn' }, { kind: 'passivation', name: 'Passivate', processMethod: 'A967-NITRIC-2' }],
+    });
+    for (const [name, tag] of [['L1', 'TRC-B1-A'], ['L2', 'TRC-B1-B'], ['L3', 'TRC-B2']] as const) {
+      const opened = await post('/api/lots', { partId: part.id, plannedQty: 10 });
+      lot[name] = { id: opened.id, lotNumber: opened.lotNumber };
+      await post(`/api/lots/${opened.id}/material-issues`, { tag, lengthMm: '420' });
+      await post(`/api/lots/${opened.id}/operations`, { ...times, stepNo: 10, qtyIn: 10, qtyGood: 10, qtyScrap: 0 });
+    }
+    const split = await post(`/api/lots/${lot.L1!.id}/splits`, { quantities: [4], reason: 'test split' });
+    lot['L1-A'] = { id: split.children[0].id, lotNumber: split.children[0].lotNumber };
+    const merged = await post('/api/lots/merges', { lotIds: [lot.L2!.id, lot.L3!.id], reason: 'test merge' });
+    lot.M = { id: merged.id, lotNumber: merged.lotNumber };
+    const parameters = { bath: 'T', acidConcentration: '30', temperature: '25', immersionTime: '35', rinseConductivity: '1' };
+    const r1 = await post('/api/process-runs', { kind: 'passivation', methodId: 'A967-NITRIC-2', equipment: 'T1', operatorName: 'Test', runAt: '2026-11-21T08:00:00Z', parameters, lotIds: [lot.L1!.id, lot['L1-A']!.id] });
+    const r2 = await post('/api/process-runs', { kind: 'passivation', methodId: 'A967-NITRIC-2', equipment: 'T1', operatorName: 'Test', runAt: '2026-11-21T09:00:00Z', parameters, lotIds: [lot.M!.id] });
+    ids.r1 = r1.id;
+    ids.r2 = r2.id;
+  });
+  afterAll(() => running.close());
+
+  const backward = async (query: string) => (await auditor.get(`/api/trace/backward?${query}`)).body as BackwardTrace;
+  const forward = async (query: string) => (await auditor.get(`/api/trace/forward?${query}`)).body as ForwardTrace;
+  const numbers = (...names: string[]) => names.map((name) => lot[name]!.lotNumber).sort();
+
+  it('when traced back from the split lot, then it reaches its parent, the cut piece and its bar, one heat and one run', async () => {
+    const trace = await backward(`lot=${lot['L1-A']!.lotNumber}`);
+    expect(trace.lots.map((entry) => entry.lotNumber).sort()).toEqual(numbers('L1', 'L1-A'));
+    expect(trace.barPieces.map((piece) => piece.tag).sort()).toEqual(['TRC-B1', 'TRC-B1-A']);
+    expect(trace.heats.map((heat) => heat.id)).toEqual([ids.h1]);
+    expect(trace.runs.map((run) => run.id)).toEqual([ids.r1]);
+    expect(trace.certificates.length).toBeGreaterThan(0);
+    expect(trace.certificates.every((certificate) => /^[0-9a-f]{64}$/.test(certificate.sha256))).toBe(true);
+  });
+
+  it('when traced back from the merged lot, then both heats and all three lots come back', async () => {
+    const trace = await backward(`lot=${lot.M!.lotNumber}`);
+    expect(trace.lots.map((entry) => entry.lotNumber).sort()).toEqual(numbers('L2', 'L3', 'M'));
+    expect(trace.heats.map((heat) => heat.id).sort((a, b) => a - b)).toEqual([ids.h1!, ids.h2!].sort((a, b) => a - b));
+    expect(trace.barPieces.map((piece) => piece.tag).sort()).toEqual(['TRC-B1', 'TRC-B1-B', 'TRC-B2']);
+    expect(trace.runs.map((run) => run.id)).toEqual([ids.r2]);
+  });
+
+  it('when traced back from a scanned UDI or a Digital Link, then the same lot is found; a bad check digit is refused', async () => {
+    expect((await backward(`udi=${encodeURIComponent(`(01)09521230000031(10)${lot['L1-A']!.lotNumber}`)}`)).start).toBe(`UDI (01)09521230000031(10)${lot['L1-A']!.lotNumber}`);
+    expect((await backward(`udi=${encodeURIComponent(`https://id.gs1.org/01/09521230000031/10/${lot.M!.lotNumber}`)}`)).lots).toHaveLength(3);
+    const bad = await auditor.get(`/api/trace/backward?udi=${encodeURIComponent('(01)09521230000032(10)X')}`);
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.fields).toEqual({ udi: 'AI 01 (GTIN): the check digit should be 1' });
+  });
+
+  it('when traced forward from each heat, piece and run, then exactly the lots written out by hand are affected', async () => {
+    const lotsOf = async (query: string) => (await forward(query)).lots.map((entry) => entry.lotNumber).sort();
+    expect(await lotsOf(`heatId=${ids.h1}`)).toEqual(expect.arrayContaining(numbers('L1', 'L1-A', 'L2', 'M')));
+    expect((await lotsOf(`heatId=${ids.h1}`)).filter((number) => numbers('L1', 'L1-A', 'L2', 'L3', 'M').includes(number))).toEqual(numbers('L1', 'L1-A', 'L2', 'M'));
+    expect((await lotsOf(`heatId=${ids.h2}`)).filter((number) => numbers('L1', 'L1-A', 'L2', 'L3', 'M').includes(number))).toEqual(numbers('L3', 'M'));
+    expect(await lotsOf(`pieceId=${ids.b1a}`)).toEqual(numbers('L1', 'L1-A'));
+    expect(await lotsOf(`pieceId=${ids.b1}`)).toEqual(numbers('L1', 'L1-A', 'L2', 'M'));
+    expect(await lotsOf(`runId=${ids.r1}`)).toEqual(numbers('L1', 'L1-A'));
+    expect(await lotsOf(`runId=${ids.r2}`)).toEqual(numbers('M'));
+    const refused = await auditor.get(`/api/trace/forward?heatId=${ids.h1}&runId=${ids.r1}`);
+    expect(refused.status).toBe(400);
+  });
+});
+
+describe('genealogy consistency over the demo production (property)', () => {
+  const running = createTestApp();
+  afterAll(() => running.close());
+
+  it('when any lot is traced back, then it is in the forward trace of each heat and run in its backward trace', async () => {
+    const saml = await SamlTestDriver.create(running.config);
+    const { agent } = await saml.signIn(running.app, 'kiw-0501');
+    const lotNumbers: string[] = (await running.database.dataSource.query("SELECT lot_number FROM production_lot WHERE lot_number NOT LIKE 'T%' ORDER BY id")).map((row: { lot_number: string }) => row.lot_number);
+    await fc.assert(
+      fc.asyncProperty(fc.constantFrom(...lotNumbers), async (lotNumber) => {
+        const back = (await agent.get(`/api/trace/backward?lot=${lotNumber}`)).body as BackwardTrace;
+        for (const heat of back.heats) {
+          const ahead = (await agent.get(`/api/trace/forward?heatId=${heat.id}`)).body as ForwardTrace;
+          expect(ahead.lots.map((entry) => entry.lotNumber)).toContain(lotNumber);
+        }
+        for (const run of back.runs) {
+          const ahead = (await agent.get(`/api/trace/forward?runId=${run.id}`)).body as ForwardTrace;
+          expect(ahead.lots.map((entry) => entry.lotNumber)).toContain(lotNumber);
+        }
+      }),
+      { numRuns: 25 },
+    );
+  });
+});
