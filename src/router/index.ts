@@ -14,6 +14,7 @@ const areaViews: Partial<Record<AreaRouteName, () => Promise<unknown>>> = {
   lots: () => import('../views/LotsView.vue'),
   'process-runs': () => import('../views/ProcessRunsView.vue'),
   release: () => import('../views/ReleaseDeskView.vue'),
+  trace: () => import('../views/TraceView.vue'),
   audit: () => import('../views/AuditLedgerView.vue'),
 };
 

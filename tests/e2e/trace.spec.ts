@@ -1,0 +1,24 @@
+import { expect, test } from '@playwright/test';
+import { signInAs } from './support/sign-in';
+
+test('an auditor scans a UDI and reaches the bar, the heat and its certificate; then sees what that heat touches', async ({ page }) => {
+  await signInAs(page, 'kiw-0401', '/lots?');
+  const lots = await (await page.request.get('/api/lots?status=released&pageSize=1')).json();
+  const lot = lots.items[0];
+  const detail = await (await page.request.get(`/api/lots/${lot.id}`)).json();
+  const udi = `(01)${detail.partRecord.gtin}(10)${lot.lotNumber}`;
+  await page.goto('/trace');
+  await page.getByLabel('UDI, lot number or bar tag').fill(udi);
+  await page.getByRole('button', { name: 'Trace back' }).click();
+  await expect(page.getByRole('heading', { name: `From UDI ${udi}` })).toBeVisible();
+  const material = page.getByRole('region', { name: 'Material' });
+  await expect(material.getByRole('link', { name: lot.heats[0], exact: true })).toBeVisible();
+  await expect(material).toContainText(/[0-9a-f]{64}/);
+  await page.screenshot({ path: 'test-results/trace-backward.png', fullPage: true });
+  await material.getByRole('link', { name: lot.heats[0], exact: true }).click();
+  await page.getByRole('link', { name: 'What does this heat touch?' }).click();
+  await expect(page.getByRole('heading', { name: `From heat ${lot.heats[0]}` })).toBeVisible();
+  await expect(page.getByRole('region', { name: 'Affected lots' })).toContainText(lot.lotNumber);
+  await expect(page.getByRole('region', { name: 'Consignees' })).toBeVisible();
+  await page.screenshot({ path: 'test-results/trace-forward.png', fullPage: true });
+});
