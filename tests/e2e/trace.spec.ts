@@ -2,7 +2,9 @@ import { expect, test } from '@playwright/test';
 import { signInAs } from './support/sign-in';
 
 test('an auditor scans a UDI and reaches the bar, the heat and its certificate; then sees what that heat touches', async ({ page }) => {
-  await signInAs(page, 'kiw-0401', '/lots?');
+  await signInAs(page, 'kiw-0401', '/lots');
+  // Signed in once the lots page shows; the API calls below use the same session.
+  await expect(page.getByRole('heading', { level: 1, name: 'Production lots' })).toBeVisible();
   const lots = await (await page.request.get('/api/lots?status=released&pageSize=1')).json();
   const lot = lots.items[0];
   const detail = await (await page.request.get(`/api/lots/${lot.id}`)).json();
