@@ -21,10 +21,8 @@ import {
   type ShipmentInput,
   type SplitInput,
 } from '@shared/schemas/manufacturing';
-import { apiRequest, apiUpload } from './http';
+import { apiRequest, apiUpload, typed } from './http';
 
-/** Replies whose shape is a TypeScript type from shared/ (checked in the API tests, trusted here). */
-const typed = <T>() => z.custom<T>((value) => typeof value === 'object' && value !== null);
 const page = <T>() => z.object({ items: z.array(typed<T>()), total: z.number(), page: z.number(), pageSize: z.number() });
 
 export const manufacturingKeys = {

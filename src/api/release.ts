@@ -2,9 +2,8 @@ import { keepPreviousData, queryOptions } from '@tanstack/vue-query';
 import { z } from 'zod';
 import type { Readiness } from '@shared/domain/release/readiness';
 import type { LabelMovement, ReleaseQueueQuery } from '@shared/schemas/release';
-import { apiRequest } from './http';
+import { apiRequest, typed } from './http';
 
-const typed = <T>() => z.custom<T>((value) => typeof value === 'object' && value !== null);
 
 export interface ReleaseView {
   lotId: number;

@@ -1,9 +1,7 @@
 import { queryOptions } from '@tanstack/vue-query';
-import { z } from 'zod';
 import type { BackwardTrace, ForwardTrace } from '@shared/schemas/trace';
-import { apiRequest } from './http';
+import { apiRequest, typed } from './http';
 
-const typed = <T>() => z.custom<T>((value) => typeof value === 'object' && value !== null);
 
 export const backwardTraceQuery = (start: { udi?: string; lot?: string; tag?: string } | null) =>
   queryOptions({

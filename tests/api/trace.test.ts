@@ -94,7 +94,6 @@ describe('genealogy both ways on a hand-built history with a cut bar, a split, a
 
   it('when traced forward from each heat, piece and run, then exactly the lots written out by hand are affected', async () => {
     const lotsOf = async (query: string) => (await forward(query)).lots.map((entry) => entry.lotNumber).sort();
-    expect(await lotsOf(`heatId=${ids.h1}`)).toEqual(expect.arrayContaining(numbers('L1', 'L1-A', 'L2', 'M')));
     expect((await lotsOf(`heatId=${ids.h1}`)).filter((number) => numbers('L1', 'L1-A', 'L2', 'L3', 'M').includes(number))).toEqual(numbers('L1', 'L1-A', 'L2', 'M'));
     expect((await lotsOf(`heatId=${ids.h2}`)).filter((number) => numbers('L1', 'L1-A', 'L2', 'L3', 'M').includes(number))).toEqual(numbers('L3', 'M'));
     expect(await lotsOf(`pieceId=${ids.b1a}`)).toEqual(numbers('L1', 'L1-A'));

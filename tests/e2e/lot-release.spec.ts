@@ -1,18 +1,7 @@
-import { expect, test, type Page } from '@playwright/test';
+import { expect, test } from '@playwright/test';
 import { signInAs } from './support/sign-in';
+import { signWithPassword } from './support/signing';
 
-async function signWithPassword(page: Page, meaning: string, manifestation: string, password: string, reason?: string) {
-  const signing = page.getByRole('dialog', { name: `Sign: ${meaning}` });
-  await expect(signing).toContainText('Release of lot');
-  if (reason) await signing.getByLabel(/^Reason/).fill(reason);
-  const popupOpened = page.waitForEvent('popup');
-  await signing.getByRole('button', { name: 'Confirm with password and sign' }).click();
-  const popup = await popupOpened;
-  await popup.getByLabel('Password').fill(password);
-  await popup.getByRole('button', { name: 'Sign in' }).click();
-  await expect(signing.getByTestId('signature-manifestation')).toContainText(manifestation, { timeout: 15_000 });
-  await signing.getByRole('button', { name: 'Done' }).click();
-}
 
 test('a QA reviewer and then a different QA approver sign a submitted lot, which is released', async ({ page }) => {
   test.setTimeout(90_000);
@@ -30,6 +19,7 @@ test('a QA reviewer and then a different QA approver sign a submitted lot, which
   await page.getByRole('button', { name: 'Show the release dossier' }).click();
   await expect(page.getByRole('columnheader', { name: 'certificates' })).toBeVisible();
   await page.getByRole('button', { name: 'Sign as reviewed' }).click();
+  await expect(page.getByRole('dialog', { name: 'Sign: Reviewed' })).toContainText('Release of lot');
   await signWithPassword(page, 'Reviewed', 'Aisling Ní Bhriain — Reviewed', 'aisling-demo');
   await expect(page.getByRole('heading', { level: 1, name: new RegExp(`^Lot ${lotNumber}`) })).toContainText('reviewed');
   await expect(page.getByRole('button', { name: 'Approve for release' })).toHaveCount(0);
@@ -38,6 +28,7 @@ test('a QA reviewer and then a different QA approver sign a submitted lot, which
   await page.getByRole('tab', { name: 'Awaiting approval' }).click();
   await page.locator('table').getByRole('link', { name: lotNumber }).click();
   await page.getByRole('button', { name: 'Approve for release' }).click();
+  await expect(page.getByRole('dialog', { name: 'Sign: Approved for release' })).toContainText('Release of lot');
   await signWithPassword(page, 'Approved for release', 'Joaquín Ferreira — Approved for release', 'joaquin-demo');
   await expect(page.getByRole('heading', { level: 1, name: new RegExp(`^Lot ${lotNumber}`) })).toContainText('released');
   await expect(page.getByRole('region', { name: /^Release (checklist passes|not ready)$/ })).toContainText('Joaquín Ferreira — Approved for release');

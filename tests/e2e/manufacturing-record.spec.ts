@@ -1,5 +1,6 @@
 import { expect, test, type Page } from '@playwright/test';
 import { signInAs } from './support/sign-in';
+import { signWithPassword } from './support/signing';
 
 /** Calls the API as the signed-in person (the browser's own session and CSRF token). */
 async function api(page: Page, method: 'get' | 'post', path: string, data?: unknown) {
@@ -9,16 +10,6 @@ async function api(page: Page, method: 'get' | 'post', path: string, data?: unkn
   return response.json();
 }
 
-async function signInPopup(page: Page, dialogName: string, manifestation: string, password: string) {
-  const signing = page.getByRole('dialog', { name: dialogName });
-  const popupOpened = page.waitForEvent('popup');
-  await signing.getByRole('button', { name: 'Confirm with password and sign' }).click();
-  const popup = await popupOpened;
-  await popup.getByLabel('Password').fill(password);
-  await popup.getByRole('button', { name: 'Sign in' }).click();
-  await expect(signing.getByTestId('signature-manifestation')).toContainText(manifestation, { timeout: 15_000 });
-  await signing.getByRole('button', { name: 'Done' }).click();
-}
 
 test('an engineer opens a lot from a bar, records its operations, runs it with two other lots through passivation and cleaning, and raises a nonconformance that QA closes', async ({ page }) => {
   test.setTimeout(120_000);
@@ -141,11 +132,9 @@ test('an engineer opens a lot from a bar, records its operations, runs it with t
   await page.getByRole('button', { name: 'Save disposition' }).click();
   await expect(page.getByRole('button', { name: 'Sign the disposition' })).toBeEnabled();
   await page.getByRole('button', { name: 'Sign the disposition' }).click();
-  await signInPopup(page, 'Sign: Disposition decided', 'Joaquín Ferreira — Disposition decided', 'joaquin-demo');
+  await signWithPassword(page, 'Disposition decided', 'Joaquín Ferreira — Disposition decided', 'joaquin-demo');
   await page.getByRole('button', { name: 'Close with a signature' }).click();
-  const closing = page.getByRole('dialog', { name: 'Sign: Closed' });
-  await closing.getByLabel('Reason').fill('Rework done; both parts re-inspected and accepted');
-  await signInPopup(page, 'Sign: Closed', 'Joaquín Ferreira — Closed', 'joaquin-demo');
+  await signWithPassword(page, 'Closed', 'Joaquín Ferreira — Closed', 'joaquin-demo', 'Rework done; both parts re-inspected and accepted');
   await expect(page.getByRole('heading', { level: 1, name: /^NC-/ })).toContainText('closed');
   await page.screenshot({ path: 'test-results/nonconformance-closed.png', fullPage: true });
 });

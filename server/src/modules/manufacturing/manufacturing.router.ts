@@ -1,5 +1,4 @@
 import { Router } from 'express';
-import multer from 'multer';
 import { z } from 'zod';
 import { processMethods } from '@shared/domain/manufacturing/process-methods';
 import {
@@ -22,6 +21,7 @@ import {
 import type { AppContext } from '../../app-context';
 import { actorOf, currentPerson, originOf, requireAction } from '../../middleware/access';
 import { validate } from '../../middleware/validate';
+import { singleFileUpload } from '../../middleware/single-file-upload';
 import { createPart, loadParts, partById } from './parts.service';
 import { issueMaterial, listLots, openLot, returnMaterial } from './lots.service';
 import { lotDetail } from './lot-detail.service';
@@ -33,17 +33,7 @@ import { createConsignee, listConsignees, shipLot } from './shipments.service';
 import { attachOperationFile, MEASUREMENT_FILE_MAX_BYTES, operationFile } from './operation-files';
 import { AppError } from '../../errors';
 
-const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: MEASUREMENT_FILE_MAX_BYTES, files: 1, fields: 5 } });
-
-/** Accepts one file in the "file" field; multer's own errors become the one error shape. */
-const fileUpload = (req: Parameters<ReturnType<typeof upload.single>>[0], res: Parameters<ReturnType<typeof upload.single>>[1], next: (error?: unknown) => void) => {
-  upload.single('file')(req, res, (error: unknown) => {
-    if (!error) return next();
-    const code = (error as { code?: string }).code;
-    if (code === 'LIMIT_FILE_SIZE') return next(new AppError('PAYLOAD_TOO_LARGE', `The file is larger than ${MEASUREMENT_FILE_MAX_BYTES / 1024 / 1024} MB`, { file: 'Too large' }));
-    next(new AppError('VALIDATION_FAILED', `The upload was not accepted: ${(error as Error).message}`, { file: 'Send one file in the field "file"' }));
-  });
-};
+const fileUpload = singleFileUpload('file', MEASUREMENT_FILE_MAX_BYTES, 'file');
 
 const id = z.coerce.number().int().positive().max(4_294_967_295);
 const operationParams = z.object({ lotId: id, operationId: id });

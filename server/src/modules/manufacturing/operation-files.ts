@@ -3,6 +3,7 @@ import type { DataSource } from 'typeorm';
 import { fileTypeFromBuffer } from 'file-type';
 import type { Person } from '@shared/schemas/people';
 import { AppError } from '../../errors';
+import { safeFileName } from '../../middleware/single-file-upload';
 import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
 import { storeDocument } from '../materials/heats.repository';
@@ -17,7 +18,7 @@ const binaryTypes = new Set(['application/pdf', 'image/png', 'image/jpeg']);
  */
 export async function inspectMeasurementFile(bytes: Buffer, originalName: string): Promise<{ mediaType: string; sha256: string; name: string }> {
   if (bytes.length === 0) throw new AppError('UNSUPPORTED_MEDIA_TYPE', 'The file is empty', { file: 'Empty file' });
-  const name = (originalName.split(/[\\/]/).pop() ?? 'measurements').replace(/[^\p{L}\p{N} ._()-]/gu, '_').slice(0, 200) || 'measurements';
+  const name = safeFileName(originalName, 'measurements');
   const detected = await fileTypeFromBuffer(bytes);
   let mediaType: string | null = detected && binaryTypes.has(detected.mime) ? detected.mime : null;
   if (!detected && /\.(csv|txt)$/i.test(name)) {

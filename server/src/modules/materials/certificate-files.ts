@@ -1,6 +1,7 @@
 import { createHash } from 'node:crypto';
 import { fileTypeFromBuffer } from 'file-type';
 import { AppError } from '../../errors';
+import { safeFileName } from '../../middleware/single-file-upload';
 
 export const CERTIFICATE_MAX_BYTES = 10 * 1024 * 1024;
 const accepted = new Map([
@@ -18,7 +19,6 @@ export async function inspectCertificateFile(bytes: Buffer, originalName: string
       certificate: 'Upload the certificate as PDF, PNG or JPEG',
     });
   }
-  // Keep only the last path segment and printable characters of the name the browser sent.
-  const name = (originalName.split(/[\\/]/).pop() ?? 'certificate').replace(/[^\p{L}\p{N} ._()-]/gu, '_').slice(0, 200) || 'certificate';
+  const name = safeFileName(originalName, 'certificate');
   return { mediaType: detected.mime, sha256: createHash('sha256').update(bytes).digest('hex'), name };
 }

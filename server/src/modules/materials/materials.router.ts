@@ -1,5 +1,4 @@
 import { Router } from 'express';
-import multer from 'multer';
 import { specificationLibrary } from '@shared/domain/materials/library';
 import { limitCaution } from '@shared/domain/materials/specification';
 import {
@@ -25,6 +24,7 @@ import type { AppContext } from '../../app-context';
 import { AppError } from '../../errors';
 import { actorOf, currentPerson, originOf, requireAction } from '../../middleware/access';
 import { validate } from '../../middleware/validate';
+import { singleFileUpload } from '../../middleware/single-file-upload';
 import { CERTIFICATE_MAX_BYTES } from './certificate-files';
 import { currentSpecifications } from './specification-library.repository';
 import { attachCertificate, certificateFile, heatDetail, listHeats, receiveHeat, recordResults } from './heats.service';
@@ -33,17 +33,7 @@ import { elementTrend } from './trends.service';
 import { importResults } from './results-import.service';
 import { draftRevision, listDrafts } from './specification-drafts.service';
 
-const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: CERTIFICATE_MAX_BYTES, files: 1, fields: 5 } });
-
-/** Accepts one file in the "certificate" field; multer's own errors become the one error shape. */
-const certificateUpload = (req: Parameters<ReturnType<typeof upload.single>>[0], res: Parameters<ReturnType<typeof upload.single>>[1], next: (error?: unknown) => void) => {
-  upload.single('certificate')(req, res, (error: unknown) => {
-    if (!error) return next();
-    const code = (error as { code?: string }).code;
-    if (code === 'LIMIT_FILE_SIZE') return next(new AppError('PAYLOAD_TOO_LARGE', `The certificate is larger than ${CERTIFICATE_MAX_BYTES / 1024 / 1024} MB`, { certificate: 'Too large' }));
-    next(new AppError('VALIDATION_FAILED', `The upload was not accepted: ${(error as Error).message}`, { certificate: 'Send one file in the field "certificate"' }));
-  });
-};
+const certificateUpload = singleFileUpload('certificate', CERTIFICATE_MAX_BYTES, 'certificate');
 
 export function materialsRouter(context: AppContext): Router {
   const router = Router();

@@ -2,18 +2,14 @@ import type { DataSource, EntityManager } from 'typeorm';
 import { releaseReadiness, type Readiness, type ReadinessFacts } from '@shared/domain/release/readiness';
 import type { LotDetail } from '@shared/schemas/lot-detail';
 import { lotDetailIn } from '../manufacturing/lot-detail.service';
+import { ancestorLots } from '../trace/genealogy.repository';
 import { nonconformancesWhere } from '../manufacturing/nonconformances.repository';
 import { reconcileMaterial } from '@shared/domain/manufacturing/material-reconciliation';
 import { DecimalE29 } from '@shared/domain/materials/e29-rounding';
 
 /** The lot and every lot its units came through (splits and merges), the lot itself first. */
 export async function ancestry(manager: EntityManager, lotId: number): Promise<number[]> {
-  const rows: Array<{ lot_id: number }> = await manager.query(
-    `WITH RECURSIVE ancestry (lot_id) AS (SELECT ? UNION SELECT k.parent_lot_id FROM lot_link k JOIN ancestry ON k.child_lot_id = ancestry.lot_id)
-     SELECT lot_id FROM ancestry`,
-    [lotId],
-  );
-  return [lotId, ...rows.map((row) => row.lot_id).filter((id) => id !== lotId)];
+  return [lotId, ...(await ancestorLots(manager, [lotId])).filter((id) => id !== lotId)];
 }
 
 export interface ReleaseDossier {

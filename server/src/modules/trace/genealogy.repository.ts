@@ -2,41 +2,30 @@ import type { EntityManager } from 'typeorm';
 
 const marks = (values: unknown[]) => values.map(() => '?').join(',');
 
-/** The lot and every lot its units came from through splits and merges. */
-export async function ancestorLots(manager: EntityManager, lotIds: number[]): Promise<number[]> {
-  if (!lotIds.length) return [];
+/**
+ * Every row reachable from the given ids by following one link repeatedly (a recursive CTE):
+ * from a lot up to its parents or down to its children, from a bar piece down to its cuts.
+ */
+async function reachable(manager: EntityManager, ids: number[], walk: { table: string; step: string }): Promise<number[]> {
+  if (!ids.length) return [];
   const rows: Array<{ id: number }> = await manager.query(
-    `WITH RECURSIVE up (id) AS (SELECT id FROM production_lot WHERE id IN (${marks(lotIds)})
-       UNION SELECT k.parent_lot_id FROM lot_link k JOIN up ON k.child_lot_id = up.id)
-     SELECT id FROM up`,
-    lotIds,
+    `WITH RECURSIVE reached (id) AS (SELECT id FROM ${walk.table} WHERE id IN (${marks(ids)}) UNION ${walk.step}) SELECT id FROM reached`,
+    ids,
   );
   return rows.map((row) => row.id);
 }
+
+/** The lots and every lot their units came from through splits and merges. */
+export const ancestorLots = (manager: EntityManager, lotIds: number[]) =>
+  reachable(manager, lotIds, { table: 'production_lot', step: 'SELECT k.parent_lot_id FROM lot_link k JOIN reached ON k.child_lot_id = reached.id' });
 
 /** The lots and every lot their units went on to through splits and merges. */
-export async function descendantLots(manager: EntityManager, lotIds: number[]): Promise<number[]> {
-  if (!lotIds.length) return [];
-  const rows: Array<{ id: number }> = await manager.query(
-    `WITH RECURSIVE down (id) AS (SELECT id FROM production_lot WHERE id IN (${marks(lotIds)})
-       UNION SELECT k.child_lot_id FROM lot_link k JOIN down ON k.parent_lot_id = down.id)
-     SELECT id FROM down`,
-    lotIds,
-  );
-  return rows.map((row) => row.id);
-}
+export const descendantLots = (manager: EntityManager, lotIds: number[]) =>
+  reachable(manager, lotIds, { table: 'production_lot', step: 'SELECT k.child_lot_id FROM lot_link k JOIN reached ON k.parent_lot_id = reached.id' });
 
 /** Bar pieces and every piece cut from them. */
-export async function descendantPieces(manager: EntityManager, pieceIds: number[]): Promise<number[]> {
-  if (!pieceIds.length) return [];
-  const rows: Array<{ id: number }> = await manager.query(
-    `WITH RECURSIVE cut (id) AS (SELECT id FROM bar_piece WHERE id IN (${marks(pieceIds)})
-       UNION SELECT b.id FROM bar_piece b JOIN cut ON b.parent_id = cut.id)
-     SELECT id FROM cut`,
-    pieceIds,
-  );
-  return rows.map((row) => row.id);
-}
+export const descendantPieces = (manager: EntityManager, pieceIds: number[]) =>
+  reachable(manager, pieceIds, { table: 'bar_piece', step: 'SELECT b.id FROM bar_piece b JOIN reached ON b.parent_id = reached.id' });
 
 /** Lots that bar from these pieces was issued to. */
 export async function lotsFromPieces(manager: EntityManager, pieceIds: number[]): Promise<number[]> {
