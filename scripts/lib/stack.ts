@@ -38,7 +38,8 @@ export async function startSupportingServices(config: AppConfig, options: StackO
     const database = await bootstrapDatabase(config, options);
     stops.push(() => database.stop());
     if (await seedIfEmpty(config)) log('demo scenario seeded into the empty database');
-    const mail = await startMailCatcher(config);
+    // A rebuilt database starts with an empty mailbox too, so old mail cannot answer for new records.
+    const mail = await startMailCatcher(config, { empty: Boolean(options.reset) });
     stops.push(mail.stop);
     stack.urls['Mail catcher (all e-mail the product sends)'] = mail.url;
     if (config.SAML_IDP_SSO_URL.startsWith(`http://127.0.0.1:${config.IDP_PORT}/`)) {

@@ -99,12 +99,12 @@ test('an engineer opens a lot from a bar, records its operations, runs it with t
     await page.getByRole('option', { name: run.method }).click();
     await dialog.getByLabel('Line or tank').fill(run.kind === 'passivation' ? 'Tank P1' : 'Ultrasonic U1');
     for (const [label, value] of Object.entries(run.values)) await dialog.getByLabel(label, { exact: false }).first().fill(value);
-    await dialog.getByText(`Lots due for ${run.kind}`).click();
+    const lots = dialog.getByRole('listbox', { name: /Lots in the run/ });
     for (const lot of [lotNumber, ...companions]) {
-      await page.locator('.p-multiselect-filter').fill(lot);
-      await page.getByRole('listbox').getByRole('option', { name: new RegExp(`^${lot} `) }).click();
+      await dialog.getByPlaceholder('Find a lot by number or part').fill(lot);
+      await lots.getByRole('option', { name: new RegExp(`^${lot} `) }).click();
     }
-    await page.keyboard.press('Escape');
+    await expect(dialog.getByText(`3 chosen: ${[lotNumber, ...companions].join(', ')}.`)).toBeVisible();
     await dialog.getByRole('button', { name: 'Record run' }).click();
     await expect(page.getByRole('heading', { level: 1, name: new RegExp(`${run.kind === 'passivation' ? 'Passivation' : 'Cleaning'} run`) })).toBeVisible();
   }
