@@ -98,6 +98,8 @@ export interface LotDetail extends LotSummary {
   unitChain: UnitChain;
   materialReconciliation: MaterialReconciliation | null;
   timeline: TimelineEntry[];
+  /** Holds not yet lifted: the lot can be neither released, shipped, split nor merged. */
+  holds: Array<{ id: number; lotId: number; lotNumber: string; reference: string }>;
 }
 
 export interface ProcessRunSummary {

@@ -4,7 +4,7 @@ import { rolesAllow } from '@shared/auth/permissions';
 import { productAreas, type AreaRouteName } from '../navigation/areas';
 import { meQuery } from '../api/session';
 
-export type RouteName = 'overview' | AreaRouteName | 'heat' | 'bar-piece' | 'specifications' | 'lot' | 'parts' | 'process-run' | 'nonconformances' | 'nonconformance' | 'consignees' | 'sign-in' | 'signed-out' | 'reauthentication-complete' | 'not-permitted' | 'not-found';
+export type RouteName = 'overview' | AreaRouteName | 'heat' | 'bar-piece' | 'specifications' | 'lot' | 'parts' | 'process-run' | 'nonconformances' | 'nonconformance' | 'consignees' | 'recalls' | 'recall' | 'sign-in' | 'signed-out' | 'reauthentication-complete' | 'not-permitted' | 'not-found';
 
 /** Areas that are built; the rest show what they will hold. */
 const areaViews: Partial<Record<AreaRouteName, () => Promise<unknown>>> = {
@@ -65,6 +65,13 @@ export const routes: RouteRecordRaw[] = [
     name: 'nonconformance',
     component: () => import('../views/NonconformanceDetailView.vue'),
     meta: { title: 'Nonconformance', area: 'lots', action: 'lots.read' },
+  },
+  { path: '/recalls', name: 'recalls', component: () => import('../views/RecallsView.vue'), meta: { title: 'Recall investigations', area: 'trace', action: 'recall.read' } },
+  {
+    path: '/recalls/:recallId(\\d+)',
+    name: 'recall',
+    component: () => import('../views/RecallDetailView.vue'),
+    meta: { title: 'Recall investigation', area: 'trace', action: 'recall.read' },
   },
   {
     path: '/specifications',

@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp } from '../helpers/test-app';
+import { mailWithSubject } from '../helpers/mail-catcher';
 import { csrfTokenOf, SamlTestDriver } from '../helpers/saml-round-trip';
 import { signThroughApi } from '../helpers/signing';
 import { adminSql } from '../helpers/admin-sql';
@@ -58,16 +59,6 @@ describe('lot release: readiness, submission, two signatures, shipment', () => {
     return people[who]!.agent.post(path).set('X-CSRF-Token', people[who]!.csrf).send(body as object);
   }
   const view = async (lotId: number) => (await people.auditor!.agent.get(`/api/lots/${lotId}/release`)).body;
-  /** Polls the mail catcher's REST API until a mail with this subject has arrived. */
-  async function mailWithSubject(subject: string) {
-    for (let attempt = 0; attempt < 60; attempt++) {
-      const mails = (await (await fetch(`http://127.0.0.1:${running.config.MAIL_WEB_PORT}/api/email`)).json()) as Array<{ subject: string; to: Array<{ address: string }>; text: string }>;
-      const found = mails.find((mail) => mail.subject === subject);
-      if (found) return found;
-      await new Promise((done) => setTimeout(done, 500));
-    }
-    throw new Error(`no mail "${subject}" arrived`);
-  }
 
   it('when labels are not yet printed, then the lot is not ready and submission is refused with the reason', async () => {
     const before = await view(lots[0]!);
@@ -94,7 +85,7 @@ describe('lot release: readiness, submission, two signatures, shipment', () => {
     expect(queue.body.items.map((item: { lotId: number }) => item.lotId)).toContain(lots[0]);
     // The QA reviewers are told, through the outbox and the real SMTP catcher.
     const lotNumber = (await view(lots[0]!)).lotNumber as string;
-    const mail = await mailWithSubject(`Lot ${lotNumber} awaits your review`);
+    const mail = await mailWithSubject(running.config.MAIL_WEB_PORT, `Lot ${lotNumber} awaits your review`);
     expect(mail.to.map((address: { address: string }) => address.address)).toContain('aisling.nibhriain@kestrelmoor.example');
     expect(mail.text).toContain(`${running.config.PUBLIC_URL}/lots/${lots[0]}`);
   });

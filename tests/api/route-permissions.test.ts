@@ -19,6 +19,7 @@ const sampleParameters: Record<string, string> = {
   lotId: '999999',
   runId: '999999',
   ncId: '999999',
+  recallId: '999999',
   operationId: '999999',
   reauthenticationId: '0'.repeat(32),
 };

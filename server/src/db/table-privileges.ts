@@ -18,6 +18,8 @@ export const tableAccess: Record<string, TableAccess> = {
   // Labels printed or voided are counted, never rewritten; a release packet is stored once.
   label_print: 'append-only',
   release_packet: 'append-only',
+  // What a recall investigation knew when: each frozen affected set is stored once.
+  recall_snapshot: 'append-only',
 };
 
 const privilegesByAccess: Record<TableAccess, string> = {

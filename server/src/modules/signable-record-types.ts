@@ -4,6 +4,8 @@ import { specificationDraftRecordType } from './materials/specification-drafts.s
 import { heatMixingRecordType } from './manufacturing/heat-mixing.record';
 import { nonconformanceRecordType } from './manufacturing/nonconformances.service';
 import { lotReleaseRecordType } from './release/release.record';
+import { lotHoldRecordType } from './recall/lot-holds';
+import { recallInvestigationRecordType } from './recall/recall.record';
 import { registerSignableRecordType } from './signatures/signable-records';
 
 /** Every kind of record the product lets people sign; the app and the demo seed register the same set. */
@@ -14,4 +16,6 @@ export function registerProductRecordTypes(): void {
   registerSignableRecordType(heatMixingRecordType);
   registerSignableRecordType(nonconformanceRecordType);
   registerSignableRecordType(lotReleaseRecordType);
+  registerSignableRecordType(lotHoldRecordType);
+  registerSignableRecordType(recallInvestigationRecordType);
 }

@@ -8,6 +8,7 @@ import { CreateSpecificationDrafts1764658800000 } from './1764658800000-create-s
 import { CreateManufacturingRecord1764662400000 } from './1764662400000-create-manufacturing-record';
 import { CreateRelease1764666000000 } from './1764666000000-create-release';
 import { CreateMailOutbox1764669600000 } from './1764669600000-create-mail-outbox';
+import { CreateRecall1764673200000 } from './1764673200000-create-recall';
 
 /** Every migration in the order it runs. Add new ones at the end. */
 export const migrations = [
@@ -21,4 +22,5 @@ export const migrations = [
   CreateManufacturingRecord1764662400000,
   CreateRelease1764666000000,
   CreateMailOutbox1764669600000,
+  CreateRecall1764673200000,
 ];

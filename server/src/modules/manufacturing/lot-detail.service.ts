@@ -1,4 +1,5 @@
 import type { DataSource, EntityManager } from 'typeorm';
+import { activeHolds } from '../recall/lot-holds';
 import { DecimalE29 } from '@shared/domain/materials/e29-rounding';
 import { reconcileMaterial } from '@shared/domain/manufacturing/material-reconciliation';
 import type { LotDetail, MaterialMovement, OperationRecord, ShipmentRecord, TimelineEntry } from '@shared/schemas/lot-detail';
@@ -155,5 +156,6 @@ export async function lotDetailIn(manager: EntityManager, lotId: number): Promis
     unitChain: chain,
     materialReconciliation,
     timeline,
+    holds: await activeHolds(manager, [lotId]),
   };
 }

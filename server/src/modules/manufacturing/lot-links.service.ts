@@ -1,4 +1,5 @@
 import type { DataSource } from 'typeorm';
+import { refuseIfHeld } from '../recall/lot-holds';
 import { mergeProblem, splitProblem } from '@shared/domain/manufacturing/unit-chain';
 import { lotNumberProblem } from '@shared/domain/gs1/gtin';
 import { mergeInputSchema, splitInputSchema, type MergeInput, type SplitInput } from '@shared/schemas/manufacturing';
@@ -33,6 +34,8 @@ export async function splitLot(dataSource: DataSource, lotId: number, raw: Split
     const lot = await findLotRow(manager, lotId, true);
     if (!lot) throw AppError.notFound('Lot');
     if (lot.status !== 'open') throw AppError.rule(`Lot ${lot.lot_number} is ${lot.status}; it cannot be split`, { quantities: lot.status });
+    // Units split off a held lot would leave the hold behind.
+    await refuseIfHeld(manager, [lotId], 'split', 'quantities');
     const chain = (await unitChains(manager, [lotId])).get(lotId)!;
     if (chain.started === null) throw AppError.rule(`Lot ${lot.lot_number} has not started; change its planned quantity instead of splitting it`, { quantities: 'Not started' });
     const problem = splitProblem(chain.onHand, input.quantities);
@@ -64,6 +67,7 @@ export async function mergeLots(dataSource: DataSource, raw: MergeInput, person:
       if (!row) throw AppError.rule(`Lot ${id} does not exist`, { lotIds: 'Unknown lot' });
       rows.push(row);
     }
+    await refuseIfHeld(manager, ids, 'merged', 'lotIds');
     const chains = await unitChains(manager, ids);
     const candidates = [];
     for (const row of rows) {

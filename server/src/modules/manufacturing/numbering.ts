@@ -1,6 +1,6 @@
 import type { EntityManager } from 'typeorm';
 
-const tables = { production_lot: 'lot_number', nonconformance: 'nc_number', process_run: 'run_number' } as const;
+const tables = { production_lot: 'lot_number', nonconformance: 'nc_number', process_run: 'run_number', recall_investigation: 'recall_number' } as const;
 
 /**
  * The next running number among the record numbers that share a prefix (and suffix). The locking

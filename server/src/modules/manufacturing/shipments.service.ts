@@ -5,6 +5,7 @@ import { AppError } from '../../errors';
 import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
 import { findLotRow } from './lots.repository';
+import { refuseIfHeld } from '../recall/lot-holds';
 
 export async function listConsignees(dataSource: DataSource) {
   const rows: Array<{ id: number; name: string; kind: string; country: string; contact_email: string | null; shipments: string | number }> = await dataSource.query(
@@ -32,6 +33,7 @@ export async function shipLot(dataSource: DataSource, lotId: number, raw: Shipme
     const lot = await findLotRow(manager, lotId, true);
     if (!lot) throw AppError.notFound('Lot');
     if (lot.status !== 'released') throw AppError.rule(`Lot ${lot.lot_number} is ${lot.status}; only released lots ship`, { qty: 'Lot not released' });
+    await refuseIfHeld(manager, [lotId], 'shipped', 'qty');
     const [consignee] = await manager.query('SELECT id, name FROM consignee WHERE id = ?', [input.consigneeId]);
     if (!consignee) throw AppError.rule('Choose a registered consignee', { consigneeId: 'Unknown consignee' });
     const [shipped]: Array<{ qty: string | null }> = await manager.query('SELECT SUM(qty) AS qty FROM shipment WHERE lot_id = ?', [lotId]);

@@ -1,4 +1,5 @@
 import type { DataSource, EntityManager } from 'typeorm';
+import { activeHolds } from '../recall/lot-holds';
 import { releaseReadiness, type Readiness, type ReadinessFacts } from '@shared/domain/release/readiness';
 import type { LotDetail } from '@shared/schemas/lot-detail';
 import { lotDetailIn } from '../manufacturing/lot-detail.service';
@@ -107,7 +108,7 @@ export async function releaseDossierIn(manager: EntityManager, lotId: number): P
     unitProblems: lot.unitChain.items.filter((entry) => entry.verdict === 'discrepancy').map((entry) => `step ${entry.stepNo}: ${entry.why}`),
     material,
     openNonconformances: nonconformances.filter((nc) => nc.status !== 'closed').map((nc) => ({ id: nc.id, ncNumber: nc.ncNumber, status: nc.status })),
-    holds: [],
+    holds: (await activeHolds(manager, [lot.id])).map((hold) => ({ id: hold.id, reference: hold.reference })),
     labels: { printed: Number(labels?.printed ?? 0), voided: Number(labels?.voided ?? 0) },
   };
   const readiness = releaseReadiness(facts);

@@ -4,6 +4,7 @@ import QRCode from 'qrcode';
 import type { Content, TDocumentDefinitions } from 'pdfmake/interfaces';
 import { buildDigitalLink, buildElementString } from '@shared/domain/gs1/element-string';
 import { contentHash } from '@shared/domain/signatures';
+import { cautionBox, documentStyles, hashBlock as hash, heading, pageFooter, table } from '../../documents/pdf-blocks';
 import { renderPdf } from '../../documents/pdf-printer';
 import { sha256Hex } from '../ledger/ledger.repository';
 import { ancestry, releaseDossierIn } from './release-dossier';
@@ -81,18 +82,6 @@ export async function packetData(manager: EntityManager, lotId: number, publicUr
   return { ...data, contentHash: contentHash({ ...data, releasedAt: releasedAt.toISOString() }, sha256Hex) };
 }
 
-const heading = (text: string): Content => ({ text, style: 'heading' });
-/** A SHA-256 on two lines, so that it fits a table column (PDF text does not break inside a word). */
-const hash = (hex: string): Content => ({ text: `${hex.slice(0, 32)}\n${hex.slice(32)}`, style: 'mono' });
-const table = (headers: string[], rows: string[][], widths?: Array<string | number>): Content =>
-  rows.length
-    ? {
-        table: { headerRows: 1, widths: widths ?? headers.map(() => '*'), body: [headers.map((text) => ({ text, bold: true, fillColor: '#e8eef0' })), ...rows] },
-        layout: 'lightHorizontalLines',
-        margin: [0, 0, 0, 8],
-      }
-    : { text: 'None.', italics: true, margin: [0, 0, 0, 8] };
-
 /** The release packet PDF: what an auditor, a customer or a notified body sees of the release decision. */
 export async function renderReleasePacket(data: PacketData): Promise<Buffer> {
   const dossier = data.dossier as PacketData['dossier'] & {
@@ -110,23 +99,12 @@ export async function renderReleasePacket(data: PacketData): Promise<Buffer> {
     info: { title: `Release packet, lot ${dossier.lot}`, author: data.organisation, subject: dossier.part, creator: 'Ingotrace', producer: 'Ingotrace', creationDate: data.releasedAt },
     pageSize: 'A4',
     pageMargins: [40, 50, 40, 50],
-    footer: (page, pages) => ({
-      columns: [
-        { text: `Lot ${dossier.lot} · release packet · content SHA-256 ${data.contentHash.slice(0, 16)}…`, fontSize: 7, color: '#555' },
-        { text: `Page ${page} of ${pages}`, alignment: 'right', fontSize: 7, color: '#555' },
-      ],
-      margin: [40, 16, 40, 0],
-    }),
-    styles: {
-      title: { fontSize: 18, bold: true, margin: [0, 0, 0, 4] },
-      heading: { fontSize: 12, bold: true, margin: [0, 12, 0, 6], color: '#12434f' },
-      caution: { fontSize: 10, bold: true, color: '#7a4b00', fillColor: '#fff6dd', margin: [0, 8, 0, 8] },
-      mono: { fontSize: 7 },
-    },
+    footer: pageFooter(`Lot ${dossier.lot} · release packet · content SHA-256 ${data.contentHash.slice(0, 16)}…`),
+    styles: documentStyles,
     content: [
       { text: data.organisation, color: '#555' },
       { text: `Release packet — lot ${dossier.lot}`, style: 'title' },
-      { table: { widths: ['*'], body: [[{ text: releaseCaution, style: 'caution', margin: [8, 6, 8, 6] }]] }, layout: 'noBorders' },
+      cautionBox(releaseCaution),
       {
         columns: [
           {

@@ -52,8 +52,8 @@ export async function prepareSignature(dataSource: DataSource, person: Person, i
 
 function separationRefusal(personId: number, meaning: SignatureMeaning, record: SignableContent, earlier: SignatureRow[]): string | null {
   if (meaning === 'reviewed') return separationOfDutiesRefusal(personId, 'review', { authorIds: record.authorIds, reviewerIds: [] });
-  // Deciding on or closing a record one raised oneself is approving one's own record.
-  if (meaning === 'dispositioned' || meaning === 'closed') return separationOfDutiesRefusal(personId, 'approval', { authorIds: record.authorIds, reviewerIds: [] });
+  // Deciding on, closing or lifting a record one raised oneself is approving one's own record.
+  if (meaning === 'dispositioned' || meaning === 'closed' || meaning === 'lifted') return separationOfDutiesRefusal(personId, 'approval', { authorIds: record.authorIds, reviewerIds: [] });
   if (approvalMeanings.includes(meaning)) {
     const reviewerIds = earlier.filter((row) => row.meaning === 'reviewed').map((row) => row.signer_id);
     return separationOfDutiesRefusal(personId, 'approval', { authorIds: record.authorIds, reviewerIds });

@@ -99,7 +99,11 @@ export async function backwardTrace(dataSource: DataSource, start: { udi?: strin
 
 /** Every lot affected by a heat, a bar piece, a run or a supplier (optionally within a date window), through splits and merges. */
 export async function forwardTrace(dataSource: DataSource, start: ForwardStart): Promise<ForwardTrace> {
-  const manager = dataSource.manager;
+  return forwardTraceIn(dataSource.manager, start);
+}
+
+/** The forward trace inside a caller's transaction (a recall freezes what it returns). */
+export async function forwardTraceIn(manager: EntityManager, start: ForwardStart): Promise<ForwardTrace> {
   let seedLots: number[];
   let label: string;
   const window = start.from || start.to ? [start.from ?? '1000-01-01', start.to ?? '9999-12-31'] : null;
