@@ -1,5 +1,6 @@
 import { expect, test } from '@playwright/test';
 import { signInAs } from './support/sign-in';
+import { openedDialog } from './support/dialogs';
 
 test('an auditor filters the ledger, runs the verification and signs a review of the trail', async ({ page }) => {
   await signInAs(page, 'kiw-0401', '/audit');
@@ -30,7 +31,7 @@ test('an auditor filters the ledger, runs the verification and signs a review of
 
   // Sign a review of the trail: the identity provider asks for the password again in a small window.
   await page.getByRole('button', { name: 'Sign the review of this trail' }).click();
-  const dialog = page.getByRole('dialog', { name: 'Sign: Reviewed' });
+  const dialog = await openedDialog(page, 'Sign: Reviewed');
   await expect(dialog.getByTestId('signature-statement')).toContainText('legally binding equivalent of my handwritten signature');
   await expect(dialog.getByText(/^Audit trail reviewed through event \d+$/)).toBeVisible();
   await page.screenshot({ path: 'test-results/signing-dialog.png' });

@@ -1,11 +1,12 @@
 import { expect, test } from '@playwright/test';
 import { signInAs } from './support/sign-in';
+import { openedDialog } from './support/dialogs';
 
 test('an engineer receives a bar against a heat, cuts it, and prints its tag with a QR code', async ({ page }) => {
   await signInAs(page, 'kiw-0101', '/bar-stock');
   await expect(page.getByRole('heading', { level: 1, name: 'Bar stock' })).toBeVisible();
   await page.getByRole('button', { name: 'Receive bar' }).click();
-  const dialog = page.getByRole('dialog', { name: 'Receive bar' });
+  const dialog = await openedDialog(page, 'Receive bar');
   await dialog.getByLabel('Heat', { exact: true }).click();
   await page.getByRole('option', { name: /NV-24-1162/ }).click();
   await dialog.getByLabel('Tag (scan or type)').fill('E2E-BAR-01');
@@ -18,7 +19,7 @@ test('an engineer receives a bar against a heat, cuts it, and prints its tag wit
   await expect(page.getByRole('figure', { name: 'Bar tag' }).locator('svg')).toBeVisible();
 
   await page.getByRole('button', { name: 'Cut this piece' }).click();
-  const cut = page.getByRole('dialog', { name: 'Cut E2E-BAR-01' });
+  const cut = await openedDialog(page, 'Cut E2E-BAR-01');
   await cut.getByLabel('Piece A (mm)').fill('1000');
   await cut.getByLabel('Piece B (mm)').fill('900');
   await cut.getByRole('button', { name: 'Record the cut' }).click();

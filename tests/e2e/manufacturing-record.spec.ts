@@ -1,6 +1,7 @@
 import { expect, test, type Page } from '@playwright/test';
 import { signInAs } from './support/sign-in';
 import { signWithPassword } from './support/signing';
+import { openedDialog } from './support/dialogs';
 
 /** Calls the API as the signed-in person (the browser's own session and CSRF token). */
 async function api(page: Page, method: 'get' | 'post', path: string, data?: unknown) {
@@ -34,7 +35,7 @@ test('an engineer opens a lot from a bar, records its operations, runs it with t
 
   // The lot under test goes through the screens.
   await page.getByRole('button', { name: 'Open a lot' }).click();
-  const open = page.getByRole('dialog', { name: 'Open a production lot' });
+  const open = await openedDialog(page, 'Open a production lot');
   await open.getByLabel('Part').click();
   await page.getByRole('option', { name: /KIW-CS35-40/ }).click();
   await open.getByLabel('Planned quantity (units)').fill('20');
@@ -60,7 +61,7 @@ test('an engineer opens a lot from a bar, records its operations, runs it with t
     [20, 0],
   ] as const) {
     await page.getByRole('button', { name: `Record step ${step}` }).click();
-    const dialog = page.getByRole('dialog', { name: new RegExp(`^Record step ${step}`) });
+    const dialog = await openedDialog(page, new RegExp(`^Record step ${step}`));
     await dialog.getByLabel('Work centre').fill(step === 10 ? 'Swiss lathe 2' : 'Machining cell 4');
     await dialog.getByLabel('Units in').fill(step === 10 ? '20' : '18');
     await dialog.getByLabel('Units in').press('Tab');
@@ -94,7 +95,7 @@ test('an engineer opens a lot from a bar, records its operations, runs it with t
     },
   ]) {
     await page.goto(`/process-runs?record=${run.kind}`);
-    const dialog = page.getByRole('dialog', { name: 'Record a process run' });
+    const dialog = await openedDialog(page, 'Record a process run');
     await dialog.getByLabel('Method').click();
     await page.getByRole('option', { name: run.method }).click();
     await dialog.getByLabel('Line or tank').fill(run.kind === 'passivation' ? 'Tank P1' : 'Ultrasonic U1');
@@ -116,7 +117,7 @@ test('an engineer opens a lot from a bar, records its operations, runs it with t
   await page.getByRole('link', { name: lotNumber }).click();
   await expect(page.getByRole('region', { name: 'Nonconformances touching this lot' })).toContainText('ran outside its window');
   await page.getByRole('button', { name: 'Raise a nonconformance' }).click();
-  const raise = page.getByRole('dialog', { name: /Raise a nonconformance/ });
+  const raise = await openedDialog(page, /Raise a nonconformance/);
   await raise.getByLabel('What is wrong').fill('Two parts with a scratched thread found at visual check');
   await raise.getByLabel('Containment').fill('Lot held on rack Q2 pending disposition');
   await raise.getByRole('button', { name: 'Raise nonconformance' }).click();

@@ -1,5 +1,6 @@
 import { expect, test } from '@playwright/test';
 import { signInAs } from './support/sign-in';
+import { openedDialog } from './support/dialogs';
 
 const certificatePdf = Buffer.from('%PDF-1.4\n1 0 obj << /Type /Catalog >> endobj\n% heat E2E-4711 certificate\ntrailer << /Root 1 0 R >>\n%%EOF\n');
 
@@ -10,7 +11,7 @@ test('an engineer receives a heat, attaches its certificate and enters results; 
   await expect(page.getByRole('table')).toContainText('NV-24-1107');
 
   await page.getByRole('button', { name: 'Receive a heat' }).click();
-  const dialog = page.getByRole('dialog', { name: 'Receive a heat' });
+  const dialog = await openedDialog(page, 'Receive a heat');
   await dialog.getByLabel('Heat number').fill('E2E-4711');
   await dialog.getByLabel('Supplier').click();
   await page.getByRole('option', { name: /Nordvik Titanium Mill/ }).click();
@@ -43,7 +44,7 @@ test('an engineer receives a heat, attaches its certificate and enters results; 
   const url = page.url();
   await signInAs(page, 'kiw-0201', new URL(url).pathname);
   await page.getByRole('button', { name: 'Accept' }).click();
-  const signing = page.getByRole('dialog', { name: 'Sign: Accepted' });
+  const signing = await openedDialog(page, 'Sign: Accepted');
   await expect(signing).toContainText('Heat E2E-4711 from Nordvik Titanium Mill');
   const popupOpened = page.waitForEvent('popup');
   await signing.getByRole('button', { name: 'Confirm with password and sign' }).click();

@@ -1,6 +1,7 @@
 import { expect, test } from '@playwright/test';
 import { demoPeople } from '../../scripts/stand-in-idp/demo-people';
 import { signInAs } from './support/sign-in';
+import { openedDialog } from './support/dialogs';
 
 test('an administrator finds a person, changes their roles with a reason, and deactivates and reactivates them', async ({ page }) => {
   await signInAs(page, 'kiw-0601', '/administration');
@@ -12,7 +13,7 @@ test('an administrator finds a person, changes their roles with a reason, and de
   await page.screenshot({ path: 'test-results/people-search.png', fullPage: true });
 
   await page.getByRole('button', { name: 'Change roles of Tomasz Wiśniewski' }).click();
-  const dialog = page.getByRole('dialog', { name: 'Roles of Tomasz Wiśniewski' });
+  const dialog = await openedDialog(page, 'Roles of Tomasz Wiśniewski');
   await dialog.getByLabel('Recall coordinator').check();
   await dialog.getByRole('button', { name: 'Save roles' }).click();
   await expect(dialog.getByText('Give a reason of at least 3 characters')).toBeVisible();
@@ -29,7 +30,7 @@ test('an administrator finds a person, changes their roles with a reason, and de
   await expect(dialog).toBeHidden();
 
   await page.getByRole('button', { name: 'Deactivate Tomasz Wiśniewski' }).click();
-  const confirm = page.getByRole('dialog', { name: 'Deactivate Tomasz Wiśniewski?' });
+  const confirm = await openedDialog(page, 'Deactivate Tomasz Wiśniewski?');
   await confirm.getByLabel('Reason').fill('On long leave');
   await confirm.getByRole('button', { name: 'Deactivate' }).click();
   await expect(table.getByRole('row').nth(1)).toContainText('Deactivated');

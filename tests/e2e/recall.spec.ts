@@ -3,6 +3,7 @@ import { expect, test } from '@playwright/test';
 import { parse } from 'csv-parse/sync';
 import { loadConfig } from '../../server/src/config/env';
 import { signInAs } from './support/sign-in';
+import { openedDialog } from './support/dialogs';
 
 const mailCatcher = `http://127.0.0.1:${loadConfig().MAIL_WEB_PORT}`;
 
@@ -23,7 +24,7 @@ test('a recall coordinator opens a recall from a heat, sees the lots and consign
   await page.getByRole('button', { name: 'Trace forward' }).click();
   await expect(page.getByRole('heading', { name: `From heat ${heat.heatNumber}` })).toBeVisible();
   await page.getByRole('button', { name: 'Open a recall investigation' }).click();
-  const dialog = page.getByRole('dialog', { name: 'Open a recall investigation' });
+  const dialog = await openedDialog(page, 'Open a recall investigation');
   await dialog.getByRole('button', { name: 'Open investigation and hold lots' }).click();
   await expect(dialog.getByText('Say in a sentence why the investigation is opened')).toBeVisible();
   await dialog.getByLabel('Why is it opened?').fill('The mill reports that bars of this heat may have been mixed up at straightening');

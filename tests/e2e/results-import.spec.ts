@@ -1,10 +1,11 @@
 import { expect, test } from '@playwright/test';
 import { signInAs } from './support/sign-in';
+import { openedDialog } from './support/dialogs';
 
 test('an engineer imports certificate results from CSV: the check lists bad rows, and only the valid ones are imported on request', async ({ page }) => {
   await signInAs(page, 'kiw-0101', '/heats');
   await page.getByRole('button', { name: 'Import results (CSV)' }).click();
-  const dialog = page.getByRole('dialog', { name: 'Import certificate results from CSV' });
+  const dialog = await openedDialog(page, 'Import certificate results from CSV');
   const csv = [
     'supplier,heat_number,Al,V,Fe,O,C,N,H,utsMPa,ysMPa,elongationPct,reductionOfAreaPct',
     'Oriel Bar & Wire,OB-55120,6.02,4.03,0.15,0.11,0.02,0.01,0.004,928,858,15,40',

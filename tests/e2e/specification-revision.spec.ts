@@ -1,5 +1,6 @@
 import { expect, test } from '@playwright/test';
 import { signInAs } from './support/sign-in';
+import { openedDialog } from './support/dialogs';
 
 test('a QA reviewer drafts a new revision with its source, and a QA approver signs it into the library', async ({ page }) => {
   await signInAs(page, 'kiw-0201', '/specifications');
@@ -7,7 +8,7 @@ test('a QA reviewer drafts a new revision with its source, and a QA approver sig
   await page.getByRole('button', { name: /ASTM F1295/ }).click();
   await expect(page.getByRole('table', { name: 'Chemistry limits of ASTM F1295' }).or(page.locator('table').first())).toContainText('unconfirmed');
   await page.getByRole('button', { name: 'Draft a new revision' }).click();
-  const dialog = page.getByRole('dialog', { name: 'Draft a new revision of ASTM F1295' });
+  const dialog = await openedDialog(page, 'Draft a new revision of ASTM F1295');
   await dialog.getByLabel('New revision').fill('L2');
   await dialog.getByLabel('Edition of the standard').fill('F1295 as in our licensed copy');
   await dialog.getByLabel('Why').fill('Tantalum limit confirmed against the licensed standard');
@@ -21,7 +22,7 @@ test('a QA reviewer drafts a new revision with its source, and a QA approver sig
 
   await signInAs(page, 'kiw-0301', '/specifications');
   await page.getByRole('article').filter({ hasText: 'ASTM F1295 L2' }).getByRole('button', { name: 'Approve' }).click();
-  const signing = page.getByRole('dialog', { name: 'Sign: Approved' });
+  const signing = await openedDialog(page, 'Sign: Approved');
   await expect(signing).toContainText('ASTM F1295 revision L2 (replacing L1)');
   const popupOpened = page.waitForEvent('popup');
   await signing.getByRole('button', { name: 'Confirm with password and sign' }).click();
