@@ -1,4 +1,5 @@
 import { queryOptions } from '@tanstack/vue-query';
+import type { GenealogyGraph } from '@shared/domain/trace/genealogy-graph';
 import type { BackwardTrace, ForwardTrace } from '@shared/schemas/trace';
 import { apiRequest, typed } from './http';
 
@@ -15,6 +16,17 @@ export const forwardTraceQuery = (start: Record<string, string> | null) =>
   queryOptions({
     queryKey: ['trace', 'forward', start] as const,
     queryFn: ({ signal }) => apiRequest(`/trace/forward?${new URLSearchParams(start ?? {})}`, typed<ForwardTrace>(), { signal }),
+    enabled: Boolean(start),
+    retry: false,
+  });
+
+export type GraphReply = GenealogyGraph & { start: string; lots: number; tooLarge: boolean };
+
+/** The same trace drawn as a graph (asked for only when the graph view is open). */
+export const traceGraphQuery = (direction: 'backward' | 'forward', start: Record<string, string> | null) =>
+  queryOptions({
+    queryKey: ['trace', direction, 'graph', start] as const,
+    queryFn: ({ signal }) => apiRequest(`/trace/${direction}/graph?${new URLSearchParams(start ?? {})}`, typed<GraphReply>(), { signal }),
     enabled: Boolean(start),
     retry: false,
   });

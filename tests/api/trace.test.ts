@@ -1,6 +1,7 @@
 import fc from 'fast-check';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { BackwardTrace, ForwardTrace } from '@shared/schemas/trace';
+import type { GenealogyGraph } from '@shared/domain/trace/genealogy-graph';
 import { createTestApp } from '../helpers/test-app';
 import { csrfTokenOf, SamlTestDriver } from '../helpers/saml-round-trip';
 
@@ -102,6 +103,35 @@ describe('genealogy both ways on a hand-built history with a cut bar, a split, a
     expect(await lotsOf(`runId=${ids.r2}`)).toEqual(numbers('M'));
     const refused = await auditor.get(`/api/trace/forward?heatId=${ids.h1}&runId=${ids.r1}`);
     expect(refused.status).toBe(400);
+  });
+
+  it('when drawn as a graph from the merged lot, then the links are exactly the ones built by hand', async () => {
+    const graph = (await auditor.get(`/api/trace/backward/graph?lot=${lot.M!.lotNumber}`)).body as GenealogyGraph & { tooLarge: boolean; lots: number };
+    expect(graph.tooLarge).toBe(false);
+    expect(graph.lots).toBe(3);
+    const name = new Map(graph.nodes.map((node) => [node.id, node.label]));
+    const links = graph.edges.map((edge) => `${name.get(edge.from)} -${edge.kind}-> ${name.get(edge.to)}`).sort();
+    const [b1, b2] = (await running.database.dataSource.query("SELECT tag FROM bar_piece WHERE tag IN ('TRC-B1', 'TRC-B2') ORDER BY tag")) as Array<{ tag: string }>;
+    const heats = (await running.database.dataSource.query('SELECT h.id, h.heat_number, s.name FROM heat h JOIN supplier s ON s.id = h.supplier_id WHERE h.id IN (?, ?)', [ids.h1, ids.h2])) as Array<{ id: number; heat_number: string; name: string }>;
+    const heat = (id: number) => heats.find((row) => row.id === id)!;
+    const run = (await auditor.get(`/api/process-runs/${ids.r2}`)).body.runNumber as string;
+    expect(links).toEqual(
+      [
+        `${heat(ids.h1!).name} -melted-> Heat ${heat(ids.h1!).heat_number}`,
+        `${heat(ids.h2!).name} -melted-> Heat ${heat(ids.h2!).heat_number}`,
+        `Heat ${heat(ids.h1!).heat_number} -cut-> Bar ${b1!.tag}`,
+        `Heat ${heat(ids.h2!).heat_number} -cut-> Bar ${b2!.tag}`,
+        'Bar TRC-B1 -cut-> Bar TRC-B1-B',
+        `Bar TRC-B1-B -issued-> Lot ${lot.L2!.lotNumber}`,
+        `Bar TRC-B2 -issued-> Lot ${lot.L3!.lotNumber}`,
+        `Lot ${lot.L2!.lotNumber} -merged-> Lot ${lot.M!.lotNumber}`,
+        `Lot ${lot.L3!.lotNumber} -merged-> Lot ${lot.M!.lotNumber}`,
+        `Lot ${lot.M!.lotNumber} -ran-> Run ${run}`,
+      ].sort(),
+    );
+    expect(graph.nodes.filter((node) => node.kind === 'supplier')).toHaveLength(new Set(heats.map((row) => row.name)).size);
+    const forwardGraph = (await auditor.get(`/api/trace/forward/graph?runId=${ids.r1}`)).body as GenealogyGraph;
+    expect(forwardGraph.nodes.filter((node) => node.kind === 'lot').map((node) => node.label).sort()).toEqual(numbers('L1', 'L1-A').map((number) => `Lot ${number}`));
   });
 });
 

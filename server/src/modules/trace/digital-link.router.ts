@@ -17,25 +17,27 @@ function notFoundPage(res: Response, title: string, detail: string): void {
 }
 
 /**
- * GS1 Digital Link resolver: /01/{gtin}/10/{lot}[/21/{serial}] opens that lot in the product
+ * GS1 Digital Link resolver: /01/{gtin}/10/{lot}[/21/{serial}] opens that lot's trace page
  * (the QR on every release packet points here). A person who is not signed in is sent to sign
  * in first, so lot numbers are not disclosed to anyone who scans a label.
  */
 export function digitalLinkRouter(context: AppContext, sessionHandlers: RequestHandler[]): Router {
   const router = Router();
   const resolve: RequestHandler = async (req, res) => {
-    const { gtin, lot } = req.params as { gtin: string; lot: string };
+    const { gtin, lot, serial } = req.params as { gtin: string; lot: string; serial?: string };
     const problem = gtinProblem(gtin) ?? lotNumberProblem(lot);
     if (problem) return notFoundPage(res, 'Not a valid GS1 Digital Link', `${problem}.`);
     const person = currentPerson(req);
     if (!person) return res.redirect(302, `/sign-in?returnTo=${encodeURIComponent(req.originalUrl)}`);
-    if (!rolesAllow(person.roles, 'lots.read')) return notFoundPage(res, 'Not permitted', 'Your roles do not include reading production lots.');
+    if (!rolesAllow(person.roles, 'trace.read')) return notFoundPage(res, 'Not permitted', 'Your roles do not include tracing lots.');
     const [row]: Array<{ id: number }> = await context.database.dataSource.query(
       'SELECT l.id FROM production_lot l JOIN part p ON p.id = l.part_id WHERE p.gtin = ? AND l.lot_number = ?',
       [gtin.padStart(14, '0'), lot],
     );
     if (!row) return notFoundPage(res, 'No such lot', `No lot ${lot} of GTIN ${gtin} is recorded in this Ingotrace.`);
-    res.redirect(302, `/lots/${row.id}`);
+    // The lot's trace page, started from the same key the label carries (GTIN + lot is unique; a lot number alone need not be).
+    const udi = `(01)${gtin.padStart(14, '0')}(10)${lot}${serial ? `(21)${serial}` : ''}`;
+    res.redirect(302, `/trace?q=${encodeURIComponent(udi)}`);
   };
   router.get('/01/:gtin/10/:lot', allowPublic(), ...sessionHandlers, resolve);
   router.get('/01/:gtin/10/:lot/21/:serial', allowPublic(), ...sessionHandlers, resolve);

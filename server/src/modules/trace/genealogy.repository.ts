@@ -19,29 +19,17 @@ async function reachable(manager: EntityManager, ids: number[], walk: { table: s
 export const ancestorLots = (manager: EntityManager, lotIds: number[]) =>
   reachable(manager, lotIds, { table: 'production_lot', step: 'SELECT k.parent_lot_id FROM lot_link k JOIN reached ON k.child_lot_id = reached.id' });
 
-/** The lots and every lot their units went on to through splits and merges. */
-export const descendantLots = (manager: EntityManager, lotIds: number[]) =>
-  reachable(manager, lotIds, { table: 'production_lot', step: 'SELECT k.child_lot_id FROM lot_link k JOIN reached ON k.parent_lot_id = reached.id' });
-
 /** Bar pieces and every piece cut from them. */
 export const descendantPieces = (manager: EntityManager, pieceIds: number[]) =>
   reachable(manager, pieceIds, { table: 'bar_piece', step: 'SELECT b.id FROM bar_piece b JOIN reached ON b.parent_id = reached.id' });
+
+/** Bar pieces and every piece they were cut from, up to the bar as received. */
+export const ancestorPieces = (manager: EntityManager, pieceIds: number[]) =>
+  reachable(manager, pieceIds, { table: 'bar_piece', step: 'SELECT b.parent_id FROM bar_piece b JOIN reached ON b.id = reached.id WHERE b.parent_id IS NOT NULL' });
 
 /** Lots that bar from these pieces was issued to. */
 export async function lotsFromPieces(manager: EntityManager, pieceIds: number[]): Promise<number[]> {
   if (!pieceIds.length) return [];
   const rows: Array<{ lot_id: number }> = await manager.query(`SELECT DISTINCT lot_id FROM material_movement WHERE kind = 'issue' AND bar_piece_id IN (${marks(pieceIds)})`, pieceIds);
-  return rows.map((row) => row.lot_id);
-}
-
-export async function piecesOfHeats(manager: EntityManager, heatIds: number[]): Promise<number[]> {
-  if (!heatIds.length) return [];
-  const rows: Array<{ id: number }> = await manager.query(`SELECT id FROM bar_piece WHERE heat_id IN (${marks(heatIds)})`, heatIds);
-  return rows.map((row) => row.id);
-}
-
-export async function lotsInRuns(manager: EntityManager, runIds: number[]): Promise<number[]> {
-  if (!runIds.length) return [];
-  const rows: Array<{ lot_id: number }> = await manager.query(`SELECT DISTINCT lot_id FROM lot_operation WHERE process_run_id IN (${marks(runIds)})`, runIds);
   return rows.map((row) => row.lot_id);
 }

@@ -4,6 +4,7 @@ import type { AppContext } from '../../app-context';
 import { requireAction } from '../../middleware/access';
 import { validate } from '../../middleware/validate';
 import { backwardTrace, forwardTrace } from './trace.service';
+import { backwardGraph, forwardGraph } from './genealogy-graph.service';
 
 /** Genealogy both ways: back from a unit, lot or bar to its heats; forward from a heat, bar, run or supplier to lots and consignees. */
 export function traceRouter(context: AppContext): Router {
@@ -14,6 +15,12 @@ export function traceRouter(context: AppContext): Router {
   });
   router.get('/trace/forward', requireAction('trace.read'), validate({ query: forwardQuerySchema }), async (_req, res) => {
     res.json(await forwardTrace(data(), (res.locals.valid as { query: ForwardStart }).query));
+  });
+  router.get('/trace/backward/graph', requireAction('trace.read'), validate({ query: backwardQuerySchema }), async (_req, res) => {
+    res.json(await backwardGraph(data(), (res.locals.valid as { query: BackwardQuery }).query));
+  });
+  router.get('/trace/forward/graph', requireAction('trace.read'), validate({ query: forwardQuerySchema }), async (_req, res) => {
+    res.json(await forwardGraph(data(), (res.locals.valid as { query: ForwardStart }).query));
   });
   return router;
 }

@@ -2,7 +2,7 @@ import type { DataSource, EntityManager } from 'typeorm';
 import { parseUdi, Gs1Error } from '@shared/domain/gs1/element-string';
 import type { BackwardTrace, ForwardStart, ForwardTrace, TracedLot } from '@shared/schemas/trace';
 import { AppError } from '../../errors';
-import { ancestorLots, descendantLots, descendantPieces, lotsFromPieces, lotsInRuns, piecesOfHeats } from './genealogy.repository';
+import { ancestorLots, descendantPieces, lotsFromPieces } from './genealogy.repository';
 
 const marks = (values: unknown[]) => values.map(() => '?').join(',');
 
@@ -102,58 +102,87 @@ export async function forwardTrace(dataSource: DataSource, start: ForwardStart):
   return forwardTraceIn(dataSource.manager, start);
 }
 
-/** The forward trace inside a caller's transaction (a recall freezes what it returns). */
+/**
+ * The forward trace inside a caller's transaction (a recall freezes what it returns). Every start
+ * becomes one seed query of lot ids; the walk through splits and merges and the facts of each lot
+ * are then one recursive statement, so that a supplier-wide trace of tens of thousands of lots
+ * never travels as a list of ids between the app and the database.
+ */
 export async function forwardTraceIn(manager: EntityManager, start: ForwardStart): Promise<ForwardTrace> {
-  let seedLots: number[];
-  let label: string;
-  const window = start.from || start.to ? [start.from ?? '1000-01-01', start.to ?? '9999-12-31'] : null;
-  if (start.heatId) {
-    const [heat] = await manager.query('SELECT heat_number FROM heat WHERE id = ?', [start.heatId]);
-    if (!heat) throw AppError.notFound('Heat');
-    seedLots = await lotsFromPieces(manager, await descendantPieces(manager, await piecesOfHeats(manager, [start.heatId])));
-    label = `heat ${heat.heat_number}`;
-  } else if (start.pieceId) {
-    const [piece] = await manager.query('SELECT tag FROM bar_piece WHERE id = ?', [start.pieceId]);
-    if (!piece) throw AppError.notFound('Bar piece');
-    seedLots = await lotsFromPieces(manager, await descendantPieces(manager, [start.pieceId]));
-    label = `bar ${piece.tag}`;
-  } else if (start.runId) {
-    const [run] = await manager.query('SELECT run_number FROM process_run WHERE id = ?', [start.runId]);
-    if (!run) throw AppError.notFound('Process run');
-    seedLots = await lotsInRuns(manager, [start.runId]);
-    label = `run ${run.run_number}`;
-  } else if (start.supplierId) {
-    const [supplier] = await manager.query('SELECT name FROM supplier WHERE id = ?', [start.supplierId]);
-    if (!supplier) throw AppError.notFound('Supplier');
-    const heats: Array<{ id: number }> = await manager.query(`SELECT id FROM heat WHERE supplier_id = ?${window ? ' AND received_at >= ? AND received_at < ? + INTERVAL 1 DAY' : ''}`, [start.supplierId, ...(window ?? [])]);
-    seedLots = await lotsFromPieces(manager, await descendantPieces(manager, await piecesOfHeats(manager, heats.map((heat) => heat.id))));
-    label = `supplier ${supplier.name}${window ? ` (heats received ${window[0]} to ${window[1]})` : ''}`;
-  } else {
-    throw new AppError('VALIDATION_FAILED', 'Start from a heat, a bar piece, a run or a supplier', { heatId: 'One of heatId, pieceId, runId or supplierId' });
-  }
-  const affected = await descendantLots(manager, seedLots);
-  const lots = await lotFacts(manager, affected);
+  const { seed, parameters, label } = await seedOf(manager, start);
+  const reached = `WITH RECURSIVE reached (id) AS (${seed} UNION SELECT k.child_lot_id FROM lot_link k JOIN reached ON k.parent_lot_id = reached.id)`;
+  const lots = toTracedLots(
+    await manager.query(
+      `${reached}
+       SELECT ${lotFactColumns}
+         FROM reached r JOIN production_lot l ON l.id = r.id JOIN part p ON p.id = l.part_id ORDER BY l.lot_number`,
+      parameters,
+    ),
+  );
   const totals = lots.reduce((sum, lot) => ({ made: sum.made + (lot.made ?? 0), released: sum.released + lot.released, shipped: sum.shipped + lot.shipped, onHand: sum.onHand + lot.onHand }), { made: 0, released: 0, shipped: 0, onHand: 0 });
-  const consignees: ForwardTrace['consignees'] = affected.length
+  const consignees: Array<{ id: number; name: string; kind: string; country: string; units: string; lots: string }> = lots.length
     ? await manager.query(
-        `SELECT c.id, c.name, c.kind, c.country, SUM(s.qty) AS units, COUNT(DISTINCT s.lot_id) AS lots FROM shipment s JOIN consignee c ON c.id = s.consignee_id
-          WHERE s.lot_id IN (${marks(affected)}) GROUP BY c.id, c.name, c.kind, c.country ORDER BY c.name`,
-        affected,
+        `${reached}
+         SELECT c.id, c.name, c.kind, c.country, SUM(s.qty) AS units, COUNT(DISTINCT s.lot_id) AS lots
+           FROM reached r JOIN shipment s ON s.lot_id = r.id JOIN consignee c ON c.id = s.consignee_id GROUP BY c.id, c.name, c.kind, c.country ORDER BY c.name`,
+        parameters,
       )
     : [];
   return { start: label, lots, totals, consignees: consignees.map((consignee) => ({ ...consignee, units: Number(consignee.units), lots: Number(consignee.lots) })) };
 }
 
-/** Status and quantities of each lot: made, released, shipped, and what is still here. */
-async function lotFacts(manager: EntityManager, lotIds: number[]): Promise<TracedLot[]> {
-  if (!lotIds.length) return [];
-  const rows: Array<{ id: number; lot_number: string; part_number: string; status: string; origin: string; start_qty: number | null; released_qty: number; shipped: string | null; parents: string | null }> = await manager.query(
-    `SELECT l.id, l.lot_number, p.part_number, l.status, l.origin, l.start_qty, l.released_qty,
-            (SELECT SUM(qty) FROM shipment s WHERE s.lot_id = l.id) AS shipped,
-            (SELECT GROUP_CONCAT(pl.lot_number ORDER BY pl.lot_number SEPARATOR ',') FROM lot_link k JOIN production_lot pl ON pl.id = k.parent_lot_id WHERE k.child_lot_id = l.id) AS parents
-       FROM production_lot l JOIN part p ON p.id = l.part_id WHERE l.id IN (${marks(lotIds)}) ORDER BY l.lot_number`,
-    lotIds,
-  );
+/** The lots a start touches directly: bar of the heat, the piece or its cuts issued to them; a run's lots. */
+async function seedOf(manager: EntityManager, start: ForwardStart): Promise<{ seed: string; parameters: unknown[]; label: string }> {
+  const window = start.from || start.to ? [start.from ?? '1000-01-01', start.to ?? '9999-12-31'] : null;
+  // Every piece cut from a bar carries the bar's heat, so a heat reaches its lots in one join.
+  const issuedFrom = (where: string) => `SELECT m.lot_id FROM bar_piece b JOIN material_movement m ON m.bar_piece_id = b.id AND m.kind = 'issue' ${where}`;
+  if (start.heatId) {
+    const [heat] = await manager.query('SELECT heat_number FROM heat WHERE id = ?', [start.heatId]);
+    if (!heat) throw AppError.notFound('Heat');
+    return { seed: issuedFrom('WHERE b.heat_id = ?'), parameters: [start.heatId], label: `heat ${heat.heat_number}` };
+  }
+  if (start.pieceId) {
+    const [piece] = await manager.query('SELECT tag FROM bar_piece WHERE id = ?', [start.pieceId]);
+    if (!piece) throw AppError.notFound('Bar piece');
+    const pieces = await descendantPieces(manager, [start.pieceId]);
+    return { seed: issuedFrom(`WHERE b.id IN (${marks(pieces)})`), parameters: pieces, label: `bar ${piece.tag}` };
+  }
+  if (start.runId) {
+    const [run] = await manager.query('SELECT run_number FROM process_run WHERE id = ?', [start.runId]);
+    if (!run) throw AppError.notFound('Process run');
+    return { seed: 'SELECT o.lot_id FROM lot_operation o WHERE o.process_run_id = ?', parameters: [start.runId], label: `run ${run.run_number}` };
+  }
+  if (start.supplierId) {
+    const [supplier] = await manager.query('SELECT name FROM supplier WHERE id = ?', [start.supplierId]);
+    if (!supplier) throw AppError.notFound('Supplier');
+    return {
+      seed: `SELECT m.lot_id FROM heat h JOIN bar_piece b ON b.heat_id = h.id JOIN material_movement m ON m.bar_piece_id = b.id AND m.kind = 'issue'
+              WHERE h.supplier_id = ?${window ? ' AND h.received_at >= ? AND h.received_at < ? + INTERVAL 1 DAY' : ''}`,
+      parameters: [start.supplierId, ...(window ?? [])],
+      label: `supplier ${supplier.name}${window ? ` (heats received ${window[0]} to ${window[1]})` : ''}`,
+    };
+  }
+  throw new AppError('VALIDATION_FAILED', 'Start from a heat, a bar piece, a run or a supplier', { heatId: 'One of heatId, pieceId, runId or supplierId' });
+}
+
+/** Each lot with its part, quantities made and released, units shipped and the lots it came from. */
+const lotFactColumns = `l.id, l.lot_number, p.part_number, l.status, l.origin, l.start_qty, l.released_qty,
+  (SELECT SUM(qty) FROM shipment s WHERE s.lot_id = l.id) AS shipped,
+  (SELECT GROUP_CONCAT(pl.lot_number ORDER BY pl.lot_number SEPARATOR ',') FROM lot_link k JOIN production_lot pl ON pl.id = k.parent_lot_id WHERE k.child_lot_id = l.id) AS parents`;
+
+interface LotFactRow {
+  id: number;
+  lot_number: string;
+  part_number: string;
+  status: string;
+  origin: string;
+  start_qty: number | null;
+  released_qty: number;
+  shipped: string | null;
+  parents: string | null;
+}
+
+function toTracedLots(rows: LotFactRow[]): TracedLot[] {
   return rows.map((row) => {
     const shipped = Number(row.shipped ?? 0);
     return {
@@ -169,4 +198,16 @@ async function lotFacts(manager: EntityManager, lotIds: number[]): Promise<Trace
       onHand: row.status === 'released' ? row.released_qty - shipped : 0,
     };
   });
+}
+
+/** Status and quantities of each lot: made, released, shipped, and what is still here. */
+async function lotFacts(manager: EntityManager, lotIds: number[]): Promise<TracedLot[]> {
+  if (!lotIds.length) return [];
+  return toTracedLots(
+    await manager.query(
+      `SELECT ${lotFactColumns}
+         FROM production_lot l JOIN part p ON p.id = l.part_id WHERE l.id IN (${marks(lotIds)}) ORDER BY l.lot_number`,
+      lotIds,
+    ),
+  );
 }
