@@ -10,6 +10,7 @@ export interface BootstrapOptions {
   /** Drop the database first and build it anew. */
   reset?: boolean;
   relaxedDurability?: boolean;
+  bufferPoolMb?: number;
 }
 
 export function accountsFor(config: AppConfig): DatabaseAccounts {
@@ -23,8 +24,8 @@ export function accountsFor(config: AppConfig): DatabaseAccounts {
   };
 }
 
-export function localServerFor(config: AppConfig, relaxedDurability = false): MariadbServer {
-  return new MariadbServer({ baseDir: `${config.DATA_DIR}/mariadb`, port: config.DB_PORT, relaxedDurability });
+export function localServerFor(config: AppConfig, relaxedDurability = false, bufferPoolMb?: number): MariadbServer {
+  return new MariadbServer({ baseDir: `${config.DATA_DIR}/mariadb`, port: config.DB_PORT, relaxedDurability, bufferPoolMb });
 }
 
 /**
@@ -32,7 +33,7 @@ export function localServerFor(config: AppConfig, relaxedDurability = false): Ma
  * accounts, runs the migrations and gives the app account its per-table grants.
  */
 export async function bootstrapDatabase(config: AppConfig, options: BootstrapOptions = {}): Promise<MariadbServer> {
-  const server = localServerFor(config, options.relaxedDurability);
+  const server = localServerFor(config, options.relaxedDurability, options.bufferPoolMb);
   await server.start();
   try {
     const accounts = accountsFor(config);

@@ -13,6 +13,8 @@ export interface MariadbServerOptions {
   host?: string;
   /** Test databases trade durability per commit for speed; production-like runs keep it. */
   relaxedDurability?: boolean;
+  /** InnoDB buffer pool; large benchmark databases need their working set in memory. */
+  bufferPoolMb?: number;
 }
 
 const SOCKET_PATH_LIMIT = 100;
@@ -99,7 +101,7 @@ export class MariadbServer {
       '--character-set-server=utf8mb4',
       '--collation-server=utf8mb4_unicode_ci',
       '--innodb-log-file-size=16M',
-      '--innodb-buffer-pool-size=256M',
+      `--innodb-buffer-pool-size=${this.options.bufferPoolMb ?? 256}M`,
       '--tmp-table-size=64M',
       '--max-heap-table-size=64M',
       '--max-connections=500',

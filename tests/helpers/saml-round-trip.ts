@@ -80,7 +80,7 @@ export class SamlTestDriver {
   }
 
   /** Signs a person in to the app through the identity provider; returns the app agent with its session cookie. */
-  async signIn(app: Express, subject: string, returnTo = '/'): Promise<{ agent: TestAgent; location: string }> {
+  async signIn(app: Express, subject: string, returnTo = '/'): Promise<{ agent: TestAgent; location: string; cookie: string; setCookie: string[] }> {
     const agent = request.agent(app);
     const login = await agent.get(`/auth/login?returnTo=${encodeURIComponent(returnTo)}`);
     if (login.status !== 302) throw new Error(`login answered ${login.status}`);
@@ -88,7 +88,10 @@ export class SamlTestDriver {
     const answer = await this.answerAtIdentityProvider(this.idpAgent(), query, person(subject));
     if (!answer.samlResponse) throw new Error(`identity provider answered ${answer.status}: ${answer.html.slice(0, 300)}`);
     const acs = await agent.post('/auth/saml/acs').type('form').send({ SAMLResponse: answer.samlResponse, RelayState: answer.relayState });
-    return { agent, location: acs.headers.location as string };
+    // The session cookie as a header, for clients other than this agent (benchmarks).
+    const setCookie = ([] as string[]).concat(acs.headers['set-cookie'] ?? []);
+    const cookie = setCookie.map((line) => line.split(';')[0]).join('; ');
+    return { agent, location: acs.headers.location as string, cookie, setCookie };
   }
 }
 

@@ -37,7 +37,9 @@ export function createSessionSupport(config: AppConfig): SessionSupport {
     store,
     resave: false,
     saveUninitialized: false,
-    rolling: true,
+    // No rolling cookie: the limits are enforced from the session's own times (below), and a
+    // rolling cookie would rewrite the session row on every request.
+    rolling: false,
     proxy: true,
     cookie: {
       httpOnly: true,
@@ -60,7 +62,9 @@ export function createSessionSupport(config: AppConfig): SessionSupport {
       req.session.destroy(() => next(new AppError('UNAUTHENTICATED', message)));
       return;
     }
-    req.session.lastSeenAt = now;
+    // Activity is recorded at most every 30 s (or a tenth of the idle limit), not on every request:
+    // each record is a write of the session row.
+    if (now - lastSeenAt >= Math.min(30_000, idleMs / 10) || req.session.lastSeenAt === undefined) req.session.lastSeenAt = now;
     next();
   };
   return { middleware, enforceTimeouts, close: () => store.close() };

@@ -41,10 +41,24 @@ function toPerson(row: PersonRow, roles: { grants: RoleGrant[]; withdrawn: Role[
 
 const personColumns = 'id, subject, name, email, active, last_sign_in_at';
 
+/**
+ * One person with their role grants and withdrawals in one round trip: every signed-in request
+ * reads it (a deactivation or a role change takes effect at the next request).
+ */
 export async function findPersonById(manager: EntityManager, id: number, lock = false): Promise<Person | null> {
-  const [row]: PersonRow[] = await manager.query(`SELECT ${personColumns} FROM person WHERE id = ?${lock ? ' FOR UPDATE' : ''}`, [id]);
+  const [row]: Array<PersonRow & { grants: string | null; withdrawn: string | null }> = await manager.query(
+    `SELECT ${personColumns},
+            (SELECT GROUP_CONCAT(CONCAT(r.role, ' ', r.source)) FROM person_role r WHERE r.person_id = person.id) AS grants,
+            (SELECT GROUP_CONCAT(w.role) FROM person_role_withdrawal w WHERE w.person_id = person.id) AS withdrawn
+       FROM person WHERE id = ?${lock ? ' FOR UPDATE' : ''}`,
+    [id],
+  );
   if (!row) return null;
-  return toPerson(row, (await rolesFor(manager, [row.id])).get(row.id)!);
+  const grants = (row.grants ? row.grants.split(',') : []).map((entry) => {
+    const [role, source] = entry.split(' ') as [Role, RoleGrant['source']];
+    return { role, source };
+  });
+  return toPerson(row, { grants, withdrawn: (row.withdrawn ? row.withdrawn.split(',') : []) as Role[] });
 }
 
 export async function findPersonBySubject(manager: EntityManager, subject: string): Promise<Person | null> {
