@@ -116,24 +116,36 @@ export async function forwardTrace(dataSource: DataSource, start: ForwardStart):
 export async function forwardTraceIn(manager: EntityManager, start: ForwardStart): Promise<ForwardTrace> {
   const { seed, parameters, label } = await seedOf(manager, start);
   const reached = `WITH RECURSIVE reached (id) AS (${seed} UNION SELECT k.child_lot_id FROM lot_link k JOIN reached ON k.parent_lot_id = reached.id)`;
-  const lots = toTracedLots(
-    await manager.query(
+  // Two reads side by side: the lots, and every shipment of them (from which both the units
+  // shipped per lot and the consignees' totals follow). Measured at a supplier's 25,000 lots:
+  // cheaper than a per-lot subquery for the units shipped plus a second walk for the consignees.
+  const [lotRows, shipments]: [Array<Omit<LotFactRow, 'shipped'>>, Array<{ lotId: number; consigneeId: number; qty: number }>] = await Promise.all([
+    manager.query(
       `${reached}
-       SELECT ${lotFactColumns}
+       SELECT l.id, l.lot_number, p.part_number, l.status, l.origin, l.start_qty, l.released_qty, ${parentsColumn}
          FROM reached r JOIN production_lot l ON l.id = r.id JOIN part p ON p.id = l.part_id ORDER BY l.lot_number`,
       parameters,
     ),
-  );
-  const totals = lots.reduce((sum, lot) => ({ made: sum.made + (lot.made ?? 0), released: sum.released + lot.released, shipped: sum.shipped + lot.shipped, onHand: sum.onHand + lot.onHand }), { made: 0, released: 0, shipped: 0, onHand: 0 });
-  const consignees: Array<{ id: number; name: string; kind: string; country: string; units: string; lots: string }> = lots.length
-    ? await manager.query(
-        `${reached}
-         SELECT c.id, c.name, c.kind, c.country, SUM(s.qty) AS units, COUNT(DISTINCT s.lot_id) AS lots
-           FROM reached r JOIN shipment s ON s.lot_id = r.id JOIN consignee c ON c.id = s.consignee_id GROUP BY c.id, c.name, c.kind, c.country ORDER BY c.name`,
-        parameters,
-      )
+    manager.query(`${reached} SELECT s.lot_id AS lotId, s.consignee_id AS consigneeId, s.qty FROM reached r JOIN shipment s ON s.lot_id = r.id`, parameters),
+  ]);
+  const shippedByLot = new Map<number, number>();
+  const byConsignee = new Map<number, { units: number; lots: Set<number> }>();
+  for (const shipment of shipments) {
+    const qty = Number(shipment.qty);
+    shippedByLot.set(shipment.lotId, (shippedByLot.get(shipment.lotId) ?? 0) + qty);
+    const entry = byConsignee.get(shipment.consigneeId) ?? { units: 0, lots: new Set<number>() };
+    entry.units += qty;
+    entry.lots.add(shipment.lotId);
+    byConsignee.set(shipment.consigneeId, entry);
+  }
+  const consigneeIds = [...byConsignee.keys()];
+  const consigneeRows: Array<{ id: number; name: string; kind: string; country: string }> = consigneeIds.length
+    ? await manager.query(`SELECT id, name, kind, country FROM consignee WHERE id IN (${marks(consigneeIds)}) ORDER BY name, id`, consigneeIds)
     : [];
-  return { start: label, lots, totals, consignees: consignees.map((consignee) => ({ ...consignee, units: Number(consignee.units), lots: Number(consignee.lots) })) };
+  const consignees = consigneeRows.map((row) => ({ ...row, units: byConsignee.get(row.id)!.units, lots: byConsignee.get(row.id)!.lots.size }));
+  const lots = toTracedLots(lotRows.map((row) => ({ ...row, shipped: String(shippedByLot.get(row.id) ?? 0) })));
+  const totals = lots.reduce((sum, lot) => ({ made: sum.made + (lot.made ?? 0), released: sum.released + lot.released, shipped: sum.shipped + lot.shipped, onHand: sum.onHand + lot.onHand }), { made: 0, released: 0, shipped: 0, onHand: 0 });
+  return { start: label, lots, totals, consignees };
 }
 
 /** The lots a start touches directly: bar of the heat, the piece or its cuts issued to them; a run's lots. */
@@ -171,9 +183,10 @@ async function seedOf(manager: EntityManager, start: ForwardStart): Promise<{ se
 }
 
 /** Each lot with its part, quantities made and released, units shipped and the lots it came from. */
+const parentsColumn = `(SELECT GROUP_CONCAT(pl.lot_number ORDER BY pl.lot_number SEPARATOR ',') FROM lot_link k JOIN production_lot pl ON pl.id = k.parent_lot_id WHERE k.child_lot_id = l.id) AS parents`;
 const lotFactColumns = `l.id, l.lot_number, p.part_number, l.status, l.origin, l.start_qty, l.released_qty,
   (SELECT SUM(qty) FROM shipment s WHERE s.lot_id = l.id) AS shipped,
-  (SELECT GROUP_CONCAT(pl.lot_number ORDER BY pl.lot_number SEPARATOR ',') FROM lot_link k JOIN production_lot pl ON pl.id = k.parent_lot_id WHERE k.child_lot_id = l.id) AS parents`;
+  ${parentsColumn}`;
 
 interface LotFactRow {
   id: number;
