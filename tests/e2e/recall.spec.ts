@@ -52,7 +52,7 @@ test('a recall coordinator opens a recall from a heat, sees the lots and consign
 
   // The held lot says so on its own page.
   await page.getByRole('region', { name: 'Holds' }).getByRole('link').first().click();
-  await expect(page.getByText(`On hold by recall investigation ${recallNumber}`)).toBeVisible();
+  await expect(page.getByText(`On hold by recall investigation ${recallNumber}: this lot cannot be released, shipped, split or merged`)).toBeVisible();
 
   // The recall team's mail reached the SMTP catcher.
   await expect

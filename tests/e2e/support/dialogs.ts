@@ -9,6 +9,8 @@ import { expect, type Locator, type Page } from '@playwright/test';
 export async function openedDialog(page: Page, name: string | RegExp): Promise<Locator> {
   const dialog = page.getByRole('dialog', { name });
   await expect(dialog).toBeVisible();
+  // The transition's classes go, and the focus moves in, in the same task when the animation ends.
+  await expect(dialog).not.toHaveClass(/-enter-/);
   await expect(dialog.locator(':focus')).toHaveCount(1);
   return dialog;
 }
