@@ -73,6 +73,7 @@ async function main(): Promise<void> {
   await appData.initialize();
   const pool = mysql.createPool({ host: config.DB_HOST, port: config.DB_PORT, user: config.DB_USER, password: config.DB_PASSWORD, database: config.DB_NAME, connectionLimit: 4, timezone: 'Z', supportBigNumbers: true, bigNumberStrings: true });
   let listening: import('node:http').Server | null = null;
+  let summary = '';
   let shutdown: (() => Promise<void>) | null = null;
   try {
     await seedDemoScenario(appData, config.roleMap);
@@ -198,7 +199,7 @@ async function main(): Promise<void> {
       for (const [name, figures] of Object.entries(queries)) process.stdout.write(`${line(name, figures)}\n`);
       process.stdout.write(`backward at 20 connections: ${throughput.requestsPerSecond} req/s, p99 ${throughput.p99Ms} ms, ${throughput.errors} errors\n`);
     }
-    process.stdout.write(`${JSON.stringify(result)}\n`);
+    summary = JSON.stringify(result);
   } finally {
     listening?.closeAllConnections();
     listening?.close();
@@ -209,6 +210,8 @@ async function main(): Promise<void> {
     if (!values.keep) await server.adminSql('DROP DATABASE IF EXISTS `ingotrace_bench_trace`;');
     await server.stop();
   }
+  // Last, after the database has stopped, so that it is the last line whatever else was printed.
+  process.stdout.write(`${summary}\n`);
 }
 
 main()
