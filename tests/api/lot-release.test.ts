@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp } from '../helpers/test-app';
 import { mailWithSubject } from '../helpers/mail-catcher';
-import { csrfTokenOf, SamlTestDriver } from '../helpers/saml-round-trip';
+import { SamlTestDriver, signInPeople } from '../helpers/saml-round-trip';
 import { signThroughApi } from '../helpers/signing';
 import { adminSql } from '../helpers/admin-sql';
 import { readPdf } from '../helpers/document-readers';
@@ -35,10 +35,7 @@ describe('lot release: readiness, submission, two signatures, shipment', () => {
 
   beforeAll(async () => {
     saml = await SamlTestDriver.create(running.config);
-    for (const [name, subject] of [['engineer', 'kiw-0102'], ['reviewer', 'kiw-0201'], ['approver', 'kiw-0301'], ['auditor', 'kiw-0401']] as const) {
-      const { agent } = await saml.signIn(running.app, subject);
-      people[name] = { agent, csrf: await csrfTokenOf(agent), subject };
-    }
+    Object.assign(people, await signInPeople(saml, running.app, { engineer: 'kiw-0102', reviewer: 'kiw-0201', approver: 'kiw-0301', auditor: 'kiw-0401' }));
     const db = await running.database.connect();
     const [heat] = await db.query("SELECT id FROM heat WHERE status = 'accepted' AND spec_id = 'ASTM F136' ORDER BY id LIMIT 1");
     await post('engineer', '/api/bar-pieces', { heatId: heat.id, tag: 'TST-REL-BAR', diameterMm: '25.4', lengthMm: '3000', location: 'Test rack' });

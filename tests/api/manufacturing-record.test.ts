@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { LotDetail } from '@shared/schemas/lot-detail';
 import { createTestApp } from '../helpers/test-app';
-import { csrfTokenOf, SamlTestDriver } from '../helpers/saml-round-trip';
+import { SamlTestDriver, signInPeople } from '../helpers/saml-round-trip';
 import { signThroughApi } from '../helpers/signing';
 
 type Agent = Awaited<ReturnType<SamlTestDriver['signIn']>>['agent'];
@@ -52,10 +52,7 @@ describe('the manufacturing record: parts, lots, material, operations, runs, non
 
   beforeAll(async () => {
     saml = await SamlTestDriver.create(running.config);
-    for (const [name, subject] of [['engineer', 'kiw-0102'], ['reviewer', 'kiw-0201'], ['approver', 'kiw-0301'], ['auditor', 'kiw-0401']] as const) {
-      const { agent } = await saml.signIn(running.app, subject);
-      people[name] = { agent, csrf: await csrfTokenOf(agent), subject };
-    }
+    Object.assign(people, await signInPeople(saml, running.app, { engineer: 'kiw-0102', reviewer: 'kiw-0201', approver: 'kiw-0301', auditor: 'kiw-0401' }));
     const db = await running.database.connect();
     // Two accepted F136 heats from the demo scenario; the test receives its own bar of each.
     const heats: Array<{ id: number }> = await db.query("SELECT id FROM heat WHERE status = 'accepted' AND spec_id = 'ASTM F136' ORDER BY id DESC LIMIT 2");

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { RecallDetail, RecallRerun } from '@shared/schemas/recall';
 import { createTestApp } from '../helpers/test-app';
 import { mailWithSubject } from '../helpers/mail-catcher';
-import { csrfTokenOf, SamlTestDriver } from '../helpers/saml-round-trip';
+import { SamlTestDriver, signInPeople } from '../helpers/saml-round-trip';
 import { signThroughApi } from '../helpers/signing';
 import { readPdf } from '../helpers/document-readers';
 import { parse } from 'csv-parse/sync';
@@ -53,10 +53,7 @@ describe('recall investigations: frozen snapshot, holds, re-run difference, expo
 
   beforeAll(async () => {
     saml = await SamlTestDriver.create(running.config);
-    for (const [name, subject] of [['engineer', 'kiw-0102'], ['reviewer', 'kiw-0201'], ['approver', 'kiw-0301'], ['auditor', 'kiw-0401'], ['coordinator', 'kiw-0501']] as const) {
-      const { agent } = await saml.signIn(running.app, subject);
-      people[name] = { agent, csrf: await csrfTokenOf(agent), subject };
-    }
+    Object.assign(people, await signInPeople(saml, running.app, { engineer: 'kiw-0102', reviewer: 'kiw-0201', approver: 'kiw-0301', auditor: 'kiw-0401', coordinator: 'kiw-0501' }));
     const db = await running.database.connect();
     const [heat] = await db.query("SELECT id FROM heat WHERE status = 'accepted' AND spec_id = 'ASTM F136' ORDER BY id LIMIT 1");
     pieceId = (await post('engineer', '/api/bar-pieces', { heatId: heat.id, tag: 'TST-RCL-BAR', diameterMm: '25.4', lengthMm: '3000', location: 'Test rack' })).body.id;
@@ -199,7 +196,7 @@ describe('recall investigations: frozen snapshot, holds, re-run difference, expo
   it('when closing, then the opener may not, open holds block it, and a QA approver signs it closed with a reason', async () => {
     const bySelf = await signThroughApi(saml, people.coordinator!, { recordType: 'recall-investigation', recordId: String(recall.id), meaning: 'closed' }, 'Done');
     expect(bySelf.status).toBe(422);
-    expect(bySelf.body.error.message).toMatch(/own record|author/i);
+    expect(bySelf.body.error.message).toBe('You authored this record, so you cannot approve it');
     const blocked = await signThroughApi(saml, people.approver!, { recordType: 'recall-investigation', recordId: String(recall.id), meaning: 'closed' }, 'Done');
     expect(blocked.status).toBe(422);
     expect(blocked.body.error.message).toBe('1 lot(s) are still held by this investigation; a QA approver lifts each hold (after its disposition) before it closes');

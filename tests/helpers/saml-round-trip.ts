@@ -116,3 +116,13 @@ export async function reauthenticate(saml: SamlTestDriver, agent: TestAgent, sub
   await agent.post('/auth/saml/reauth-acs').type('form').send({ SAMLResponse: answer.samlResponse, RelayState: answer.relayState });
   return started.body.id as string;
 }
+
+/** Signs each named person in through the real SAML round trip; returns their agents with CSRF tokens, by name. */
+export async function signInPeople<Name extends string>(saml: SamlTestDriver, app: Express, subjects: Record<Name, string>) {
+  const people = {} as Record<Name, { agent: TestAgent; csrf: string; subject: string }>;
+  for (const [name, subject] of Object.entries(subjects) as Array<[Name, string]>) {
+    const { agent } = await saml.signIn(app, subject);
+    people[name] = { agent, csrf: await csrfTokenOf(agent), subject };
+  }
+  return people;
+}

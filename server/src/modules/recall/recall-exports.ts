@@ -1,8 +1,14 @@
 import { stringify } from 'csv-stringify/sync';
+import type { DataSource } from 'typeorm';
 import type { TDocumentDefinitions } from 'pdfmake/interfaces';
 import type { RecallSnapshotContent, RecallSnapshotMeta } from '@shared/schemas/recall';
 import { cautionBox, documentStyles, hashBlock, heading, pageFooter, table } from '../../documents/pdf-blocks';
 import { renderPdf } from '../../documents/pdf-printer';
+import { AppError } from '../../errors';
+import { inTransaction } from '../../db/transaction';
+import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
+import { findOrganisation } from '../organisation/organisation.repository';
+import { findRecallRow, snapshotContent } from './recall.service';
 
 export const recallCaution =
   'Decisions on field actions, customer notification and regulatory reporting rest with the firm’s quality system. This export states what Ingotrace traced at the moment shown; it is not a decision.';
@@ -68,4 +74,22 @@ export async function recallPdf(meta: RecallSnapshotMeta, content: RecallSnapsho
     ],
   };
   return renderPdf(definition);
+}
+
+/** One snapshot (the opening one unless another is named) as CSV or PDF; each export is recorded in the ledger. */
+export async function recallExport(dataSource: DataSource, id: number, format: 'csv' | 'pdf', snapshotId: number | undefined, actor: Actor, origin: RequestOrigin) {
+  const recall = await findRecallRow(dataSource.manager, id);
+  if (!recall) throw AppError.notFound('Recall investigation');
+  const frozen = await snapshotContent(dataSource.manager, id, snapshotId);
+  const body =
+    format === 'csv' ? Buffer.from(recallCsv(frozen.meta, frozen.content), 'utf8') : await recallPdf(frozen.meta, frozen.content, (await findOrganisation(dataSource))?.name ?? '', recall.reason);
+  await inTransaction(dataSource, (manager) =>
+    appendLedgerEvent(manager, { actor, action: 'recall.exported', entity: { type: 'recall', id }, after: { format, snapshotId: frozen.meta.id, snapshotSha256: frozen.meta.sha256 }, origin }),
+  );
+  return {
+    body,
+    sha256: frozen.meta.sha256,
+    contentType: format === 'csv' ? 'text/csv; charset=utf-8' : 'application/pdf',
+    fileName: `${recall.recall_number}-${frozen.meta.kind === 'opening' ? 'opening' : `rerun-${frozen.meta.id}`}.${format}`,
+  };
 }

@@ -3,13 +3,10 @@ import { idParams } from '@shared/schemas/manufacturing';
 import { exportFormatSchema, openRecallInputSchema, recallListQuerySchema, type RecallListQuery } from '@shared/schemas/recall';
 import type { z } from 'zod';
 import type { AppContext } from '../../app-context';
-import { inTransaction } from '../../db/transaction';
 import { actorOf, currentPerson, originOf, requireAction } from '../../middleware/access';
 import { validate } from '../../middleware/validate';
-import { appendLedgerEvent } from '../ledger/ledger.repository';
-import { recallCsv, recallPdf } from './recall-exports';
-import { findRecallRow, listRecalls, openRecall, recallDetail, rerunRecall, snapshotContent } from './recall.service';
-import { AppError } from '../../errors';
+import { recallExport } from './recall-exports';
+import { listRecalls, openRecall, recallDetail, rerunRecall } from './recall.service';
 
 /** Recall investigations: open from a trace start, freeze, hold, re-run, export; closing is a signature. */
 export function recallRouter(context: AppContext): Router {
@@ -31,22 +28,8 @@ export function recallRouter(context: AppContext): Router {
   });
   router.get('/recalls/:recallId/export', requireAction('recall.read'), validate({ params: idParams('recallId'), query: exportFormatSchema }), async (req, res) => {
     const { format, snapshot } = (res.locals.valid as { query: z.infer<typeof exportFormatSchema> }).query;
-    const id = recallId(res);
-    const recall = await findRecallRow(data().manager, id);
-    if (!recall) throw AppError.notFound('Recall investigation');
-    const frozen = await snapshotContent(data().manager, id, snapshot);
-    const [organisation]: Array<{ name: string }> = await data().query('SELECT name FROM organisation ORDER BY id LIMIT 1');
-    const body = format === 'csv' ? Buffer.from(recallCsv(frozen.meta, frozen.content), 'utf8') : await recallPdf(frozen.meta, frozen.content, organisation?.name ?? '', recall.reason);
-    await inTransaction(data(), (manager) =>
-      appendLedgerEvent(manager, { actor: actorOf(req, 'recall.read'), action: 'recall.exported', entity: { type: 'recall', id }, after: { format, snapshotId: frozen.meta.id, snapshotSha256: frozen.meta.sha256 }, origin: originOf(req) }),
-    );
-    const name = `${recall.recall_number}-${frozen.meta.kind === 'opening' ? 'opening' : `rerun-${frozen.meta.id}`}.${format}`;
-    res
-      .type(format === 'csv' ? 'text/csv; charset=utf-8' : 'application/pdf')
-      .set('X-Content-Type-Options', 'nosniff')
-      .set('X-Snapshot-SHA256', frozen.meta.sha256)
-      .attachment(name)
-      .send(body);
+    const exported = await recallExport(data(), recallId(res), format, snapshot, actorOf(req, 'recall.read'), originOf(req));
+    res.type(exported.contentType).set('X-Content-Type-Options', 'nosniff').set('X-Snapshot-SHA256', exported.sha256).attachment(exported.fileName).send(exported.body);
   });
   return router;
 }
