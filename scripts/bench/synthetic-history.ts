@@ -2,6 +2,7 @@
 // INSERT … SELECT over its sequence tables (seq_1_to_N), so that a million lots take minutes.
 // Invented throughout: no record here describes real material or a real firm.
 import type { DataSource } from 'typeorm';
+import { derivedLotHeatsSql } from '../../server/src/modules/manufacturing/lot-heats';
 import { log } from '../lib/run';
 
 export interface HistoryShape {
@@ -90,6 +91,7 @@ export async function generateHistory(admin: DataSource, shape: HistoryShape): P
     `INSERT INTO material_movement (lot_id, bar_piece_id, kind, length_mm, recorded_by)
      SELECT seq, ${bars} + seq, 'issue', 50, ${by} FROM ${seq(n)} WHERE NOT (seq > 2 AND (seq MOD 100 = 50 OR seq MOD 33 = 0))`,
   );
+  await step('heats of each lot, through splits and merges', `INSERT INTO lot_heat (heat_id, lot_id) SELECT heat_id, lot_id FROM (${derivedLotHeatsSql}) AS derived`);
   await step(
     `${2 * runs} passivation and cleaning runs`,
     `INSERT INTO process_run (id, run_number, kind, method_id, equipment, parameters_json, window_check_json, in_window, operator_name, run_at, recorded_by)
@@ -124,10 +126,10 @@ export async function generateHistory(admin: DataSource, shape: HistoryShape): P
   );
   await admin.query('SET SESSION foreign_key_checks = 1, unique_checks = 1');
   const counts: HistoryCounts = {};
-  for (const table of ['supplier', 'heat', 'bar_piece', 'production_lot', 'lot_link', 'material_movement', 'process_run', 'lot_operation', 'consignee', 'shipment']) {
+  for (const table of ['supplier', 'heat', 'bar_piece', 'production_lot', 'lot_link', 'material_movement', 'lot_heat', 'process_run', 'lot_operation', 'consignee', 'shipment']) {
     const [row] = await admin.query(`SELECT COUNT(*) AS n FROM ${table}`);
     counts[table] = Number(row.n);
   }
-  await admin.query('ANALYZE TABLE heat, bar_piece, production_lot, lot_link, material_movement, lot_operation, shipment');
+  await admin.query('ANALYZE TABLE heat, bar_piece, production_lot, lot_link, material_movement, lot_heat, lot_operation, shipment');
   return counts;
 }

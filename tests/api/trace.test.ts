@@ -2,6 +2,7 @@ import fc from 'fast-check';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { BackwardTrace, ForwardTrace } from '@shared/schemas/trace';
 import type { GenealogyGraph } from '@shared/domain/trace/genealogy-graph';
+import { derivedLotHeatsSql } from '../../server/src/modules/manufacturing/lot-heats';
 import { createTestApp } from '../helpers/test-app';
 import { csrfTokenOf, SamlTestDriver } from '../helpers/saml-round-trip';
 
@@ -103,6 +104,22 @@ describe('genealogy both ways on a hand-built history with a cut bar, a split, a
     expect(await lotsOf(`runId=${ids.r2}`)).toEqual(numbers('M'));
     const refused = await auditor.get(`/api/trace/forward?heatId=${ids.h1}&runId=${ids.r1}`);
     expect(refused.status).toBe(400);
+  });
+
+  it('when traced forward from a supplier, then every lot of each of its heats is affected, and the heats kept per lot are what a walk of the genealogy finds', async () => {
+    const db = running.database.dataSource;
+    const [{ supplier_id: supplierId }] = await db.query('SELECT supplier_id FROM heat WHERE id = ?', [ids.h1]);
+    const heatsOfSupplier: Array<{ id: number }> = await db.query('SELECT id FROM heat WHERE supplier_id = ?', [supplierId]);
+    const expected = new Set<string>();
+    for (const heat of heatsOfSupplier) for (const entry of (await forward(`heatId=${heat.id}`)).lots) expected.add(entry.lotNumber);
+    const fromSupplier = (await forward(`supplierId=${supplierId}`)).lots.map((entry) => entry.lotNumber);
+    expect(fromSupplier.sort()).toEqual([...expected].sort());
+    expect(fromSupplier).toEqual(expect.arrayContaining(numbers('L1', 'L1-A', 'L2', 'M')));
+    // lot_heat is written by issue, split and merge; the recursive walk is the definition it must match.
+    const kept = await db.query('SELECT heat_id, lot_id FROM lot_heat ORDER BY heat_id, lot_id');
+    const walked = await db.query(`SELECT heat_id, lot_id FROM (${derivedLotHeatsSql}) AS walked ORDER BY heat_id, lot_id`);
+    expect(kept.length).toBeGreaterThan(5);
+    expect(kept).toEqual(walked);
   });
 
   it('when drawn as a graph from the merged lot, then the links are exactly the ones built by hand', async () => {

@@ -20,6 +20,8 @@ export const tableAccess: Record<string, TableAccess> = {
   release_packet: 'append-only',
   // What a recall investigation knew when: each frozen affected set is stored once.
   recall_snapshot: 'append-only',
+  // A heat a lot is made of stays a heat it is made of.
+  lot_heat: 'append-only',
 };
 
 const privilegesByAccess: Record<TableAccess, string> = {

@@ -9,6 +9,7 @@ import { CreateManufacturingRecord1764662400000 } from './1764662400000-create-m
 import { CreateRelease1764666000000 } from './1764666000000-create-release';
 import { CreateMailOutbox1764669600000 } from './1764669600000-create-mail-outbox';
 import { CreateRecall1764673200000 } from './1764673200000-create-recall';
+import { CreateLotHeat1764676800000 } from './1764676800000-create-lot-heat';
 
 /** Every migration in the order it runs. Add new ones at the end. */
 export const migrations = [
@@ -23,4 +24,5 @@ export const migrations = [
   CreateRelease1764666000000,
   CreateMailOutbox1764669600000,
   CreateRecall1764673200000,
+  CreateLotHeat1764676800000,
 ];

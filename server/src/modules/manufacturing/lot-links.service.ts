@@ -11,6 +11,7 @@ import { findPart } from './parts.service';
 import { findLotRow } from './lots.repository';
 import { lastStepOf, unitChains } from './lot-units';
 import { insertLot } from './lots.service';
+import { inheritHeats } from './lot-heats';
 
 /** Child lot numbers: the parent's number with -A, -B, … (a lot number stays within GS1's 20 characters). */
 async function childLotNumber(manager: import('typeorm').EntityManager, parentNumber: string): Promise<string> {
@@ -47,6 +48,7 @@ export async function splitLot(dataSource: DataSource, lotId: number, raw: Split
       const lotNumber = await childLotNumber(manager, lot.lot_number);
       const id = await insertLot(manager, { partId: part.id, partNumber: part.partNumber, pattern: part.lotPattern, plannedQty: qty, openedAt: new Date(), origin: 'split', startQty: qty, resumesAfterStep: afterStep, openedBy: person.id, lotNumber });
       await manager.query('INSERT INTO lot_link (parent_lot_id, child_lot_id, kind, qty, after_step, recorded_by) VALUES (?, ?, ?, ?, ?, ?)', [lotId, id, 'split', qty, afterStep, person.id]);
+      await inheritHeats(manager, id, [lotId]);
       children.push({ id, lotNumber, qty });
     }
     const remaining = chain.onHand - input.quantities.reduce((sum, qty) => sum + qty, 0);
@@ -90,6 +92,7 @@ export async function mergeLots(dataSource: DataSource, raw: MergeInput, person:
       await manager.query('INSERT INTO lot_link (parent_lot_id, child_lot_id, kind, qty, after_step, recorded_by) VALUES (?, ?, ?, ?, ?, ?)', [row.id, id, 'merge', candidates[index]!.onHand, afterStep, person.id]);
       await manager.query("UPDATE production_lot SET status = 'consumed' WHERE id = ?", [row.id]);
     }
+    await inheritHeats(manager, id, ids);
     const merged = (await findLotRow(manager, id))!;
     await appendLedgerEvent(manager, { actor, action: 'lot.merged', entity: { type: 'lot', id }, after: { lotNumber: merged.lot_number, parents: candidates.map((lot) => ({ lot: lot.lotNumber, qty: lot.onHand })), afterStep, total }, reason: input.reason, origin });
     return { id, lotNumber: merged.lot_number, qty: total };

@@ -158,17 +158,12 @@ export async function unitFacts(manager: EntityManager, lotIds: number[]) {
   return { lots, operations, links };
 }
 
-/** The heats each lot's units came from: its own bar, or its ancestors' through splits and merges. */
+/** The heats each lot's units came from: its own bar, or its ancestors' through splits and merges (lot_heat). */
 export async function heatsByLot(manager: EntityManager, lotIds: number[]): Promise<Map<number, string[]>> {
   const result = new Map<number, string[]>(lotIds.map((id) => [id, []]));
   if (!lotIds.length) return result;
   const rows: Array<{ root: number; heat_number: string }> = await manager.query(
-    `WITH RECURSIVE ancestry (lot_id, root) AS (
-       SELECT id, id FROM production_lot WHERE id IN (${lotIds.map(() => '?').join(',')})
-       UNION SELECT k.parent_lot_id, ancestry.root FROM lot_link k JOIN ancestry ON k.child_lot_id = ancestry.lot_id)
-     SELECT DISTINCT ancestry.root, h.heat_number FROM ancestry
-       JOIN material_movement m ON m.lot_id = ancestry.lot_id AND m.kind = 'issue' JOIN bar_piece b ON b.id = m.bar_piece_id JOIN heat h ON h.id = b.heat_id
-      ORDER BY h.heat_number`,
+    `SELECT lh.lot_id AS root, h.heat_number FROM lot_heat lh JOIN heat h ON h.id = lh.heat_id WHERE lh.lot_id IN (${lotIds.map(() => '?').join(',')}) ORDER BY h.heat_number`,
     lotIds,
   );
   for (const row of rows) result.get(row.root)?.push(row.heat_number);

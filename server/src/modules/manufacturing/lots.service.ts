@@ -14,6 +14,7 @@ import { findLotRow, heatsByLot, listLotRows, toLotSummary } from './lots.reposi
 import { nextSequence } from './numbering';
 import { unitChains } from './lot-units';
 import { heatMixingApproved } from './heat-mixing.record';
+import { addHeatToLot } from './lot-heats';
 
 export async function listLots(dataSource: DataSource, query: LotListQuery) {
   const { rows, total } = await listLotRows(dataSource.manager, query);
@@ -110,6 +111,7 @@ export async function issueMaterial(dataSource: DataSource, lotId: number, raw: 
       }
     }
     await manager.query('INSERT INTO material_movement (lot_id, bar_piece_id, kind, length_mm, recorded_by) VALUES (?, ?, ?, ?, ?)', [lotId, piece.id, 'issue', input.lengthMm, person.id]);
+    await addHeatToLot(manager, lotId, heat.id);
     await appendLedgerEvent(manager, { actor, action: 'lot.material-issued', entity: { type: 'lot', id: lotId }, after: { tag: piece.tag, heat: heat.heatNumber, lengthMm: input.lengthMm, remainingMm: new DecimalE29(piece.remainingMm).minus(input.lengthMm).toFixed(2) }, origin });
     return { tag: piece.tag, heatNumber: heat.heatNumber, lengthMm: input.lengthMm };
   });
