@@ -1,5 +1,6 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { MariaDbSessionStore } from '../../server/src/modules/auth/session-store';
 import { createTestApp } from '../helpers/test-app';
 import { csrfTokenOf, person, SamlTestDriver } from '../helpers/saml-round-trip';
 
@@ -67,6 +68,29 @@ describe('sessions', () => {
     } finally {
       await shortIdle.close();
     }
+  });
+
+  it('when a session is stored, then it holds the person\'s id only, their roles are read afresh with it, and a session past its limit is neither read nor kept', async () => {
+    const { agent, setCookie } = await saml.signIn(running.app, 'kiw-0401');
+    const sid = decodeURIComponent(sessionCookie(setCookie)!.split('=')[1]!).replace(/^s:/, '').split('.')[0]!;
+    const db = running.database.dataSource;
+    const [{ data }] = await db.query('SELECT data FROM http_session WHERE session_id = ?', [sid]);
+    const [{ id }] = await db.query("SELECT id FROM person WHERE subject = 'kiw-0401'");
+    expect(JSON.parse(data).passport).toEqual({ user: id });
+    // A role granted directly in the database is seen at the next request, without signing in again.
+    await db.query("INSERT INTO person_role (person_id, role, source) VALUES (?, 'qa-reviewer', 'administrator')", [id]);
+    try {
+      expect((await agent.get('/api/me')).body.person.roles).toContain('qa-reviewer');
+    } finally {
+      await db.query("DELETE FROM person_role WHERE person_id = ? AND role = 'qa-reviewer' AND source = 'administrator'", [id]);
+    }
+    expect((await agent.get('/api/me')).body.person.roles).not.toContain('qa-reviewer');
+    await db.query('UPDATE http_session SET expires = UNIX_TIMESTAMP() - 1 WHERE session_id = ?', [sid]);
+    expect((await agent.get('/api/me')).status).toBe(401);
+    const store = new MariaDbSessionStore(async () => db, { expirationMs: 60_000, sweepIntervalMs: 3_600_000 });
+    await store.sweep();
+    store.close();
+    expect(await db.query('SELECT session_id FROM http_session WHERE session_id = ?', [sid])).toEqual([]);
   });
 
   it('when a person signs out, then the session ends and the browser is sent to the identity provider with a LogoutRequest', async () => {

@@ -25,14 +25,17 @@ export function createAuthentication(context: AppContext): Authentication {
   instance.use(SIGN_IN_STRATEGY, strategies.signIn);
   instance.use(REAUTHENTICATION_STRATEGY, strategies.reauthentication);
   instance.serializeUser((user, done) => done(null, (user as Person).id));
-  instance.deserializeUser((id: number, done) => {
+  // The session store reads the person with the session (one round trip), so a person arrives
+  // here already read; an id alone means that no such person was found.
+  instance.deserializeUser((stored: number | Person, done) => {
+    if (typeof stored === 'object') return done(null, stored.active ? stored : false);
     context.database
       .connect()
-      .then((dataSource) => findPerson(dataSource, id))
+      .then((dataSource) => findPerson(dataSource, stored))
       // A person deactivated while signed in loses the session at the next request.
       .then((person) => done(null, person && person.active ? person : false), done);
   });
-  const sessions = createSessionSupport(context.config);
+  const sessions = createSessionSupport(context.config, () => context.database.connect());
   const csrf = csrfSync({
     getTokenFromRequest: (req) => {
       const header = req.headers['x-csrf-token'];

@@ -1,8 +1,9 @@
 import session from 'express-session';
-import createMySQLStore from 'express-mysql-session';
 import type { RequestHandler } from 'express';
+import type { DataSource } from 'typeorm';
 import type { AppConfig } from '../../config/env';
 import { AppError } from '../../errors';
+import { MariaDbSessionStore } from './session-store';
 
 export const SESSION_COOKIE = 'ingotrace_session';
 
@@ -14,23 +15,10 @@ export interface SessionSupport {
 }
 
 /** express-session stored in MariaDB (so any app instance can serve any person). */
-export function createSessionSupport(config: AppConfig): SessionSupport {
-  const MySQLStore = createMySQLStore(session);
+export function createSessionSupport(config: AppConfig, connect: () => Promise<DataSource>): SessionSupport {
   const absoluteMs = config.SESSION_ABSOLUTE_HOURS * 3600_000;
   const idleMs = config.SESSION_IDLE_MINUTES * 60_000;
-  const store = new MySQLStore({
-    host: config.DB_HOST,
-    port: config.DB_PORT,
-    user: config.DB_USER,
-    password: config.DB_PASSWORD,
-    database: config.DB_NAME,
-    connectionLimit: 5,
-    createDatabaseTable: false,
-    clearExpired: true,
-    checkExpirationInterval: 15 * 60_000,
-    expiration: absoluteMs,
-    schema: { tableName: 'http_session', columnNames: { session_id: 'session_id', expires: 'expires', data: 'data' } },
-  });
+  const store = new MariaDbSessionStore(connect, { expirationMs: absoluteMs, sweepIntervalMs: 15 * 60_000 });
   const middleware = session({
     name: SESSION_COOKIE,
     secret: config.SESSION_SECRET,
@@ -67,5 +55,5 @@ export function createSessionSupport(config: AppConfig): SessionSupport {
     if (now - lastSeenAt >= Math.min(30_000, idleMs / 10) || req.session.lastSeenAt === undefined) req.session.lastSeenAt = now;
     next();
   };
-  return { middleware, enforceTimeouts, close: () => store.close() };
+  return { middleware, enforceTimeouts, close: async () => store.close() };
 }

@@ -41,24 +41,26 @@ function toPerson(row: PersonRow, roles: { grants: RoleGrant[]; withdrawn: Role[
 
 const personColumns = 'id, subject, name, email, active, last_sign_in_at';
 
-/**
- * One person with their role grants and withdrawals in one round trip: every signed-in request
- * reads it (a deactivation or a role change takes effect at the next request).
- */
-export async function findPersonById(manager: EntityManager, id: number, lock = false): Promise<Person | null> {
-  const [row]: Array<PersonRow & { grants: string | null; withdrawn: string | null }> = await manager.query(
-    `SELECT ${personColumns},
-            (SELECT GROUP_CONCAT(CONCAT(r.role, ' ', r.source)) FROM person_role r WHERE r.person_id = person.id) AS grants,
-            (SELECT GROUP_CONCAT(w.role) FROM person_role_withdrawal w WHERE w.person_id = person.id) AS withdrawn
-       FROM person WHERE id = ?${lock ? ' FOR UPDATE' : ''}`,
-    [id],
-  );
-  if (!row) return null;
+/** Columns of a person (table alias p) with their role grants and withdrawals, for one round trip. */
+export const personWithRolesColumns = `p.id, p.subject, p.name, p.email, p.active, p.last_sign_in_at,
+  (SELECT GROUP_CONCAT(CONCAT(r.role, ' ', r.source)) FROM person_role r WHERE r.person_id = p.id) AS grants,
+  (SELECT GROUP_CONCAT(w.role) FROM person_role_withdrawal w WHERE w.person_id = p.id) AS withdrawn`;
+
+export type PersonWithRolesRow = PersonRow & { grants: string | null; withdrawn: string | null };
+
+/** A person read with personWithRolesColumns. */
+export function personFromRow(row: PersonWithRolesRow): Person {
   const grants = (row.grants ? row.grants.split(',') : []).map((entry) => {
     const [role, source] = entry.split(' ') as [Role, RoleGrant['source']];
     return { role, source };
   });
   return toPerson(row, { grants, withdrawn: (row.withdrawn ? row.withdrawn.split(',') : []) as Role[] });
+}
+
+/** One person with their role grants and withdrawals in one round trip. */
+export async function findPersonById(manager: EntityManager, id: number, lock = false): Promise<Person | null> {
+  const [row]: PersonWithRolesRow[] = await manager.query(`SELECT ${personWithRolesColumns} FROM person p WHERE p.id = ?${lock ? ' FOR UPDATE' : ''}`, [id]);
+  return row ? personFromRow(row) : null;
 }
 
 export async function findPersonBySubject(manager: EntityManager, subject: string): Promise<Person | null> {
