@@ -48,6 +48,9 @@ export const configSchema = z.object({
   SESSION_SECRET: z.string().min(16).default('local-session-secret-change-me'),
   SESSION_IDLE_MINUTES: z.coerce.number().min(0.05).max(24 * 60).default(15),
   SESSION_ABSOLUTE_HOURS: z.coerce.number().min(1).max(72).default(12),
+  // Sign-in attempts per client address, and signatures (with their password prompts) per person, in any 15 minutes.
+  SIGN_IN_ATTEMPTS_PER_15_MIN: z.coerce.number().int().min(1).max(1_000_000).default(30),
+  SIGNING_ATTEMPTS_PER_15_MIN: z.coerce.number().int().min(1).max(1_000_000).default(60),
 });
 
 const defaultRoleMap: Record<string, string> = {
@@ -136,6 +139,9 @@ export function testProfileEnvironment(
     MAIL_WEB_PORT: '1081',
     IDP_PORT: '7010',
     LOG_LEVEL: 'warn',
+    // The suites sign in hundreds of times from one address; the limits have their own test.
+    SIGN_IN_ATTEMPTS_PER_15_MIN: '100000',
+    SIGNING_ATTEMPTS_PER_15_MIN: '100000',
   };
   const result: Record<string, string> = {};
   for (const [key, value] of Object.entries(source)) if (value !== undefined) result[key] = value;

@@ -10,6 +10,7 @@ import { CreateRelease1764666000000 } from './1764666000000-create-release';
 import { CreateMailOutbox1764669600000 } from './1764669600000-create-mail-outbox';
 import { CreateRecall1764673200000 } from './1764673200000-create-recall';
 import { CreateLotHeat1764676800000 } from './1764676800000-create-lot-heat';
+import { CreateRateLimit1764680400000 } from './1764680400000-create-rate-limit';
 
 /** Every migration in the order it runs. Add new ones at the end. */
 export const migrations = [
@@ -25,4 +26,5 @@ export const migrations = [
   CreateMailOutbox1764669600000,
   CreateRecall1764673200000,
   CreateLotHeat1764676800000,
+  CreateRateLimit1764680400000,
 ];

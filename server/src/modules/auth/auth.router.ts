@@ -8,6 +8,7 @@ import { completeReauthentication, pendingReauthentication } from './reauthentic
 import { REAUTHENTICATION_STRATEGY, SamlRefusal, SIGN_IN_STRATEGY, type VerifiedAssertion } from './saml-strategies';
 import type { Strategy } from '@node-saml/passport-saml';
 import { SESSION_COOKIE } from './session';
+import { limitRate } from '../../middleware/rate-limits';
 
 /** A return path inside the app (never another site). */
 export function safeReturnPath(value: unknown): string {
@@ -37,12 +38,21 @@ export function authRouter(
 ): Router {
   const router = Router();
   const urlencoded = express.urlencoded({ extended: false, limit: '512kb' });
+  // Each answer from the identity provider counts as one attempt of the address it comes from.
+  const attempts = limitRate({
+    name: 'sign-in',
+    limit: context.config.SIGN_IN_ATTEMPTS_PER_15_MIN,
+    connect: () => context.database.connect(),
+    key: 'address',
+    message: (minutes) => `Too many sign-in attempts from this address; try again in ${minutes} minute${minutes === 1 ? '' : 's'}`,
+    answer: 'sign-in-page',
+  });
 
   router.get('/login', (req, res, next) => {
     passport.authenticate(SIGN_IN_STRATEGY, { additionalParams: { RelayState: safeReturnPath(req.query.returnTo) } } as object)(req, res, next);
   });
 
-  router.post('/saml/acs', urlencoded, (req: Request, res: Response, next) => {
+  router.post('/saml/acs', attempts, urlencoded, (req: Request, res: Response, next) => {
     const relayState = safeReturnPath((req.body as { RelayState?: unknown })?.RelayState);
     passport.authenticate(SIGN_IN_STRATEGY, { session: false }, async (error: unknown, verified: VerifiedAssertion | false) => {
       try {
@@ -109,7 +119,7 @@ export function authRouter(
     passport.authenticate(REAUTHENTICATION_STRATEGY, { additionalParams: { RelayState: row.id } } as object)(req, res, next);
   });
 
-  router.post('/saml/reauth-acs', urlencoded, (req: Request, res: Response, next) => {
+  router.post('/saml/reauth-acs', attempts, urlencoded, (req: Request, res: Response, next) => {
     const id = String((req.body as { RelayState?: unknown })?.RelayState ?? '');
     passport.authenticate(REAUTHENTICATION_STRATEGY, { session: false }, async (error: unknown, verified: VerifiedAssertion | false) => {
       try {

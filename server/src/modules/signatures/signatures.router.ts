@@ -3,14 +3,24 @@ import { signatureIntentSchema, signatureListQuerySchema, signatureRequestSchema
 import type { AppContext } from '../../app-context';
 import { currentPerson, originOf, requireSignedIn } from '../../middleware/access';
 import { validate } from '../../middleware/validate';
+import { limitRate } from '../../middleware/rate-limits';
 import { listSignatures, prepareSignature, signRecord } from './signatures.service';
 
 /** Signing is open to every signed-in person; each record type then checks the signer's roles. */
 export function signaturesRouter(context: AppContext): Router {
   const router = Router();
   const dataSource = () => context.database.dataSource;
+  // Each signature begins with a preparation (and its password prompt); they are counted per person.
+  const signing = limitRate({
+    name: 'signing',
+    limit: context.config.SIGNING_ATTEMPTS_PER_15_MIN,
+    connect: () => context.database.connect(),
+    key: 'person',
+    message: (minutes) => `Too many signatures begun in a short time; try again in ${minutes} minute${minutes === 1 ? '' : 's'}`,
+    answer: 'json',
+  });
 
-  router.post('/signatures/preparations', requireSignedIn(), validate({ body: signatureIntentSchema }), async (req, res) => {
+  router.post('/signatures/preparations', requireSignedIn(), signing, validate({ body: signatureIntentSchema }), async (req, res) => {
     res.json(await prepareSignature(dataSource(), currentPerson(req)!, res.locals.valid.body as SignatureIntent));
   });
 

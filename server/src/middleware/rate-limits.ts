@@ -1,0 +1,92 @@
+import type { RequestHandler } from 'express';
+import { rateLimit, type IncrementResponse, type Options, type Store } from 'express-rate-limit';
+import type { DataSource } from 'typeorm';
+import type { Person } from '@shared/schemas/people';
+import { AppError } from '../errors';
+
+const WINDOW_MS = 15 * 60_000;
+
+/**
+ * express-rate-limit's store in MariaDB (table rate_limit_window): hits per bucket and fixed
+ * window, so that the limits hold across every app instance. Old windows are swept now and then.
+ */
+export class MariaDbRateLimitStore implements Store {
+  localKeys = false;
+  prefix: string;
+  private windowMs = WINDOW_MS;
+  private calls = 0;
+
+  constructor(
+    private readonly connect: () => Promise<DataSource>,
+    name: string,
+  ) {
+    this.prefix = `${name}:`;
+  }
+
+  init(options: Options): void {
+    this.windowMs = options.windowMs;
+  }
+
+  private windowStart(now = Date.now()): number {
+    return Math.floor(now / this.windowMs) * this.windowMs;
+  }
+
+  async increment(key: string): Promise<IncrementResponse> {
+    const dataSource = await this.connect();
+    const bucket = `${this.prefix}${key}`.slice(0, 200);
+    const start = this.windowStart();
+    await dataSource.query('INSERT INTO rate_limit_window (bucket, window_start, hits) VALUES (?, ?, 1) ON DUPLICATE KEY UPDATE hits = hits + 1', [bucket, start]);
+    const [row]: Array<{ hits: number }> = await dataSource.query('SELECT hits FROM rate_limit_window WHERE bucket = ? AND window_start = ?', [bucket, start]);
+    if (++this.calls % 100 === 0) await dataSource.query('DELETE FROM rate_limit_window WHERE window_start < ?', [start - this.windowMs]);
+    return { totalHits: Number(row?.hits ?? 1), resetTime: new Date(start + this.windowMs) };
+  }
+
+  async decrement(key: string): Promise<void> {
+    const dataSource = await this.connect();
+    await dataSource.query('UPDATE rate_limit_window SET hits = GREATEST(hits, 1) - 1 WHERE bucket = ? AND window_start = ?', [`${this.prefix}${key}`.slice(0, 200), this.windowStart()]);
+  }
+
+  async resetKey(key: string): Promise<void> {
+    const dataSource = await this.connect();
+    await dataSource.query('DELETE FROM rate_limit_window WHERE bucket = ?', [`${this.prefix}${key}`.slice(0, 200)]);
+  }
+}
+
+interface LimitOptions {
+  name: string;
+  limit: number;
+  connect: () => Promise<DataSource>;
+  /** Whom the limit counts: a client address, or the signed-in person. */
+  key: 'address' | 'person';
+  /** What the person is told, given the minutes until the window ends. */
+  message: (minutes: number) => string;
+  /** Answer in the one JSON error shape (API) or by sending the browser to the sign-in page with the reason. */
+  answer: 'json' | 'sign-in-page';
+}
+
+/** A rate limit over 15-minute windows, counted in MariaDB, answering 429 (or, for a browser's sign-in, the sign-in page) with Retry-After. */
+export function limitRate(options: LimitOptions): RequestHandler {
+  return rateLimit({
+    windowMs: WINDOW_MS,
+    limit: options.limit,
+    standardHeaders: 'draft-7',
+    legacyHeaders: false,
+    store: new MariaDbRateLimitStore(options.connect, options.name),
+    // The app trusts only a proxy on loopback for the client address (app.set('trust proxy')).
+    keyGenerator: (req) => (options.key === 'person' && req.user ? `person-${(req.user as Person).id}` : `address-${req.ip ?? 'unknown'}`),
+    validate: { keyGeneratorIpFallback: false },
+    // A counter that cannot be reached must not lock everyone out, nor let the request through unlimited: it fails like any other database error.
+    passOnStoreError: false,
+    handler: (req, res, next, limitOptions) => {
+      const resetTime = (req as unknown as { rateLimit?: { resetTime?: Date } }).rateLimit?.resetTime;
+      const minutes = Math.max(1, Math.ceil(((resetTime?.getTime() ?? Date.now() + limitOptions.windowMs) - Date.now()) / 60_000));
+      const message = options.message(minutes);
+      if (options.answer === 'sign-in-page') {
+        res.set('Retry-After', String(minutes * 60)).redirect(303, `/sign-in?refused=${encodeURIComponent(message)}`);
+        return;
+      }
+      res.set('Retry-After', String(minutes * 60));
+      next(new AppError('RATE_LIMITED', message));
+    },
+  });
+}
