@@ -118,6 +118,25 @@ describe('material intake: suppliers, heats, certificates, results, disposition'
     const huge = await post().attach('certificate', Buffer.concat([pdf('big'), Buffer.alloc(10 * 1024 * 1024)]), 'big.pdf');
     expect(huge.status).toBe(413);
     expect(huge.body.error.code).toBe('PAYLOAD_TOO_LARGE');
+    const scripted = await post().attach('certificate', Buffer.from('%PDF-1.4\n1 0 obj << /Type /Catalog /OpenAction << /S /JavaScript /JS (app.alert\\(1\\)) >> >> endobj\ntrailer << /Root 1 0 R >>\n%%EOF\n'), 'certificate.pdf');
+    expect(scripted.status).toBe(422);
+    expect(scripted.body.error.message).toMatch(/^The PDF carries JavaScript; such files are refused, not cleaned/);
+    expect(scripted.body.error.fields).toEqual({ certificate: 'PDF with JavaScript' });
+  });
+
+  it('when a file name climbs out of its folder or carries SQL, then it is stored as a plain name and the upload works', async () => {
+    const engineer = as('engineer');
+    const uploaded = await engineer.agent
+      .post(`/api/heats/${heatId}/certificates`)
+      .set('X-CSRF-Token', engineer.csrf)
+      .attach('certificate', pdf(`traversal ${Date.now()}`), { filename: "../../etc/passwd'; DROP TABLE heat; --.pdf", contentType: 'application/pdf' });
+    expect(uploaded.status).toBe(201);
+    const listed = await engineer.agent.get(`/api/heats/${heatId}`);
+    const names: string[] = listed.body.certificates.map((certificate: { originalName: string }) => certificate.originalName);
+    const stored = names.find((name) => name.includes('passwd'))!;
+    expect(stored).toBeDefined();
+    expect(stored).not.toMatch(/[\\/]/);
+    expect(stored.startsWith('.')).toBe(false);
   });
 
   it('when a QA reviewer accepts the conforming heat with a signature, then its status changes; its results can no longer change', async () => {

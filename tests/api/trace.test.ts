@@ -92,6 +92,10 @@ describe('genealogy both ways on a hand-built history with a cut bar, a split, a
     const bad = await auditor.get(`/api/trace/backward?udi=${encodeURIComponent('(01)09521230000032(10)X')}`);
     expect(bad.status).toBe(400);
     expect(bad.body.error.fields).toEqual({ udi: 'AI 01 (GTIN): the check digit should be 1' });
+    // Found by the hostile-input fuzzing: a lot number outside GS1's characters was a 500.
+    const foreign = await auditor.get(`/api/trace/backward?lot=${encodeURIComponent('¡')}`);
+    expect(foreign.status).toBe(400);
+    expect(foreign.body.error.fields).toEqual({ 'query.lot': '“¡” cannot be used in a GS1 lot number' });
   });
 
   it('when traced forward from each heat, piece and run, then exactly the lots written out by hand are affected', async () => {

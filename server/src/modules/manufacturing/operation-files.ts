@@ -4,6 +4,7 @@ import { fileTypeFromBuffer } from 'file-type';
 import type { Person } from '@shared/schemas/people';
 import { AppError } from '../../errors';
 import { safeFileName } from '../../middleware/single-file-upload';
+import { refusePdfWithActiveContent } from '../../documents/pdf-active-content';
 import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
 import { storeDocument } from '../materials/heats.repository';
@@ -34,6 +35,7 @@ export async function inspectMeasurementFile(bytes: Buffer, originalName: string
       file: 'Attach measurements as PDF, PNG, JPEG, CSV or text',
     });
   }
+  if (mediaType === 'application/pdf') refusePdfWithActiveContent(bytes, 'file');
   return { mediaType, sha256: createHash('sha256').update(bytes).digest('hex'), name };
 }
 

@@ -2,6 +2,7 @@ import { createHash } from 'node:crypto';
 import { fileTypeFromBuffer } from 'file-type';
 import { AppError } from '../../errors';
 import { safeFileName } from '../../middleware/single-file-upload';
+import { refusePdfWithActiveContent } from '../../documents/pdf-active-content';
 
 export const CERTIFICATE_MAX_BYTES = 10 * 1024 * 1024;
 const accepted = new Map([
@@ -10,7 +11,7 @@ const accepted = new Map([
   ['image/jpeg', 'JPEG'],
 ]);
 
-/** Decides a certificate file's type from its bytes (never its name) and hashes it. */
+/** Decides a certificate file's type from its bytes (never its name), refuses PDFs with active content, and hashes it. */
 export async function inspectCertificateFile(bytes: Buffer, originalName: string): Promise<{ mediaType: string; sha256: string; name: string }> {
   if (bytes.length === 0) throw new AppError('UNSUPPORTED_MEDIA_TYPE', 'The file is empty', { certificate: 'Empty file' });
   const detected = await fileTypeFromBuffer(bytes);
@@ -19,6 +20,7 @@ export async function inspectCertificateFile(bytes: Buffer, originalName: string
       certificate: 'Upload the certificate as PDF, PNG or JPEG',
     });
   }
+  if (detected.mime === 'application/pdf') refusePdfWithActiveContent(bytes, 'certificate');
   const name = safeFileName(originalName, 'certificate');
   return { mediaType: detected.mime, sha256: createHash('sha256').update(bytes).digest('hex'), name };
 }
