@@ -93,6 +93,22 @@ describe('sessions', () => {
     expect(await db.query('SELECT session_id FROM http_session WHERE session_id = ?', [sid])).toEqual([]);
   });
 
+  it('when two app instances share the database, then a session begun on one is served by the other, and signing out on one ends it on both', async () => {
+    const other = createTestApp();
+    try {
+      const { cookie } = await saml.signIn(running.app, 'kiw-0201');
+      const onOther = await request(other.app).get('/api/me').set('Cookie', cookie);
+      expect(onOther.status).toBe(200);
+      expect(onOther.body.person.subject).toBe('kiw-0201');
+      // A state-changing request on the second instance with the token the session holds.
+      const logout = await request(other.app).post('/auth/logout').set('Cookie', cookie).set('X-CSRF-Token', onOther.body.csrfToken);
+      expect(logout.status).toBe(200);
+      expect((await request(running.app).get('/api/me').set('Cookie', cookie)).status).toBe(401);
+    } finally {
+      await other.close();
+    }
+  });
+
   it('when a person signs out, then the session ends and the browser is sent to the identity provider with a LogoutRequest', async () => {
     const { agent } = await saml.signIn(running.app, 'kiw-0501');
     const token = await csrfTokenOf(agent);

@@ -10,6 +10,8 @@ export const configSchema = z.object({
   NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),
   HOST: z.string().min(1).default('127.0.0.1'),
   PORT: port.default(8080),
+  // Processes serving the app on this machine (node:cluster); one per core serves the most.
+  APP_WORKERS: z.coerce.number().int().min(1).max(64).default(1),
   PUBLIC_URL: z.url().optional(),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
 

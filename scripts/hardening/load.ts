@@ -1,0 +1,109 @@
+// npm run test:load [-- --seconds N]: 200 connections for 60 s (by default) against the app as
+// it runs in production (a separate process, signed-in sessions in MariaDB), first on the main
+// read routes, then a mixed profile with one write in ten. Reports requests per second, p50 and
+// p99, errors, and that the ledger chain verifies afterwards. Targets on a 2-core machine: reads
+// at least 1,500 req/s with p99 at most 50 ms, and no errors.
+import { execFile, spawn, type ChildProcess } from 'node:child_process';
+import { parseArgs } from 'node:util';
+import type { Express } from 'express';
+import { loadConfig, loadDotEnv, testProfileEnvironment } from '../../server/src/config/env';
+import { createDataSource } from '../../server/src/db/connection-options';
+import { verifyLedger } from '../../server/src/modules/ledger/ledger-verification';
+import { csrfTokenOf, SamlTestDriver } from '../../tests/helpers/saml-round-trip';
+import { bootstrapDatabase } from '../lib/bootstrap-database';
+import { fail, log } from '../lib/run';
+import { seedIfEmpty } from '../seed/seed-if-empty';
+
+interface LoadResult {
+  requests: number;
+  requestsPerSecond: number;
+  p50Ms: number;
+  p99Ms: number;
+  errors: number;
+  timeouts: number;
+  non2xx: number;
+  statusCodes: Record<string, { count: number }>;
+}
+
+const { values } = parseArgs({ options: { seconds: { type: 'string' }, connections: { type: 'string' } } });
+loadDotEnv();
+Object.assign(process.env, testProfileEnvironment(), { DATA_DIR: '.data/load', DB_PORT: '3312', DB_NAME: 'ingotrace_load', PORT: '8094', LOG_LEVEL: 'error', SMTP_PORT: '1030', MAIL_WEB_PORT: '1083', IDP_PORT: '7014', DB_POOL_SIZE: '20', APP_WORKERS: process.env.APP_WORKERS ?? '2' });
+const config = loadConfig();
+const base = `http://127.0.0.1:${config.PORT}`;
+const seconds = Number(values.seconds ?? 60);
+const connections = Number(values.connections ?? 200);
+
+function load(options: object): Promise<LoadResult> {
+  return new Promise((resolveLoad, rejectLoad) => {
+    execFile(process.execPath, ['--import', 'tsx', 'scripts/hardening/load-client.ts', JSON.stringify(options)], { maxBuffer: 1 << 20 }, (error, stdout) => {
+      if (error) return rejectLoad(error);
+      resolveLoad(JSON.parse(stdout.trim().split('\n').at(-1)!));
+    });
+  });
+}
+
+async function untilHealthy(): Promise<void> {
+  for (let attempt = 0; attempt < 600; attempt += 1) {
+    try {
+      if ((await fetch(`${base}/api/health`)).status === 200) return;
+    } catch {
+      // not listening yet
+    }
+    await new Promise((done) => setTimeout(done, 100));
+  }
+  throw new Error('the app did not answer health within 60 s');
+}
+
+async function main(): Promise<void> {
+  if (!Number.isInteger(seconds) || seconds < 5 || seconds > 3600) throw new Error('--seconds: a whole number from 5 to 3600');
+  const server = await bootstrapDatabase(config, { reset: true });
+  let app: ChildProcess | null = null;
+  const admin = createDataSource(config, 'migration');
+  try {
+    await seedIfEmpty(config);
+    const saml = await SamlTestDriver.create(config);
+    app = spawn(process.execPath, ['--import', 'tsx', 'server/src/index.ts'], { env: process.env, stdio: ['ignore', 'ignore', 'ignore'] });
+    await untilHealthy();
+    const reader = await saml.signIn(base as unknown as Express, 'kiw-0201');
+    const writer = await saml.signIn(base as unknown as Express, 'kiw-0301');
+    const writerCsrf = await csrfTokenOf(writer.agent);
+    await admin.initialize();
+    const [lot] = await admin.query("SELECT lot_number FROM production_lot WHERE status = 'released' ORDER BY id LIMIT 1");
+    const [heat] = await admin.query("SELECT id FROM heat WHERE status = 'accepted' ORDER BY id LIMIT 1");
+    const readPaths = ['/api/me', '/api/lots?page=1&pageSize=25', '/api/heats?page=1&pageSize=25', `/api/trace/backward?lot=${lot.lot_number}`, `/api/trace/forward?heatId=${heat.id}`, '/api/audit/events?page=1&pageSize=25', '/api/bar-pieces?page=1&pageSize=25', '/api/recalls', '/api/suppliers', '/api/organisation'];
+    for (const path of readPaths) {
+      const response = await fetch(`${base}${path}`, { headers: { cookie: reader.cookie } });
+      if (response.status !== 200) throw new Error(`${path} answered ${response.status} before the load`);
+    }
+    const eventsBefore = Number((await admin.query('SELECT COUNT(*) AS n FROM audit_event'))[0].n);
+    log(`reads: ${connections} connections for ${seconds} s over ${readPaths.length} routes…`);
+    const reads = await load({ url: base, connections, duration: seconds, reader: reader.cookie, writer: { cookie: writer.cookie, csrf: writerCsrf }, readPaths, writeEvery: 0 });
+    log(`mixed: one write in ten, ${connections} connections for ${seconds} s…`);
+    const mixed = await load({ url: base, connections, duration: seconds, reader: reader.cookie, writer: { cookie: writer.cookie, csrf: writerCsrf }, readPaths, writeEvery: 10 });
+    const written = Number((await admin.query("SELECT COUNT(*) AS n FROM supplier WHERE name LIKE 'Load writer %'"))[0].n);
+    const eventsAfter = Number((await admin.query('SELECT COUNT(*) AS n FROM audit_event'))[0].n);
+    const ledger = await verifyLedger(admin.manager);
+    const line = (name: string, result: LoadResult) =>
+      `${name.padEnd(6)} ${String(result.requestsPerSecond).padStart(6)} req/s  p50 ${String(result.p50Ms).padStart(4)} ms  p99 ${String(result.p99Ms).padStart(5)} ms  ${result.requests} requests, ${result.errors} errors, ${result.timeouts} timeouts, ${result.non2xx} non-2xx ${JSON.stringify(result.statusCodes)}`;
+    process.stdout.write(`\n${line('reads', reads)}\n${line('mixed', mixed)}\n`);
+    const checks = [
+      [`reads at least 1,500 req/s (${reads.requestsPerSecond})`, reads.requestsPerSecond >= 1500],
+      [`reads p99 at most 50 ms (${reads.p99Ms})`, reads.p99Ms <= 50],
+      [`no errors, timeouts or failed answers (reads ${reads.errors + reads.timeouts + reads.non2xx}, mixed ${mixed.errors + mixed.timeouts + mixed.non2xx})`, reads.errors + reads.timeouts + reads.non2xx + mixed.errors + mixed.timeouts + mixed.non2xx === 0],
+      [`every write acknowledged is a supplier with its ledger event (${written} suppliers, ${eventsAfter - eventsBefore} events)`, eventsAfter - eventsBefore === written],
+      [ledger.summary, ledger.ok],
+    ] as const;
+    for (const [text, ok] of checks) log(`${ok ? 'ok    ' : 'FAILED'} ${text}`);
+    const failed = checks.filter(([, ok]) => !ok).length;
+    process.stdout.write(`${checks.length - failed} passed, ${failed} failed\n`);
+    if (failed) process.exitCode = 1;
+  } finally {
+    if (app && app.exitCode === null) app.kill('SIGTERM');
+    if (admin.isInitialized) await admin.destroy();
+    await server.stop();
+  }
+}
+
+main()
+  .then(() => process.exit(process.exitCode ?? 0))
+  .catch(fail('test:load'));
