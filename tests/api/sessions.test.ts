@@ -99,7 +99,7 @@ describe('sessions', () => {
       const { cookie } = await saml.signIn(running.app, 'kiw-0201');
       const onOther = await request(other.app).get('/api/me').set('Cookie', cookie);
       expect(onOther.status).toBe(200);
-      expect(onOther.body.person.subject).toBe('kiw-0201');
+      expect(onOther.body.person.roles).toEqual(['qa-reviewer']);
       // A state-changing request on the second instance with the token the session holds.
       const logout = await request(other.app).post('/auth/logout').set('Cookie', cookie).set('X-CSRF-Token', onOther.body.csrfToken);
       expect(logout.status).toBe(200);

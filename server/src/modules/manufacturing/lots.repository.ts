@@ -120,7 +120,7 @@ export async function operationRows(manager: EntityManager, lotIds: number[]): P
     `SELECT o.*, s.step_no, s.name AS step_name, s.kind, r.run_number, r.in_window, p.name AS recorded_by_name
        FROM lot_operation o JOIN routing_step s ON s.id = o.routing_step_id
        LEFT JOIN process_run r ON r.id = o.process_run_id JOIN person p ON p.id = o.recorded_by
-      WHERE o.lot_id IN (${lotIds.map(() => '?').join(',')}) ORDER BY o.lot_id, s.step_no`,
+      WHERE o.lot_id IN (${lotIds.map(() => '?').join(',')}) ORDER BY o.lot_id, s.step_no, o.id`,
     lotIds,
   );
 }

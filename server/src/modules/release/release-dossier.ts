@@ -46,7 +46,7 @@ export async function releaseDossierIn(manager: EntityManager, lotId: number): P
     : [];
   const operations: Array<{ lot_id: number; step_no: number; kind: string; name: string; verdict: 'accept' | 'reject' | null; process_run_id: number | null; recorded_by: number; lot_number: string }> = await manager.query(
     `SELECT o.lot_id, s.step_no, s.kind, s.name, o.verdict, o.process_run_id, o.recorded_by, l.lot_number
-       FROM lot_operation o JOIN routing_step s ON s.id = o.routing_step_id JOIN production_lot l ON l.id = o.lot_id WHERE o.lot_id IN (${marks}) ORDER BY s.step_no`,
+       FROM lot_operation o JOIN routing_step s ON s.id = o.routing_step_id JOIN production_lot l ON l.id = o.lot_id WHERE o.lot_id IN (${marks}) ORDER BY s.step_no, l.lot_number, o.id`,
     lineage,
   );
   const runIds = [...new Set(operations.flatMap((operation) => (operation.process_run_id ? [operation.process_run_id] : [])))];
