@@ -5,7 +5,7 @@
 // restarted. Afterwards every acknowledged write must be present, no record may lack its ledger
 // event (nor an event its record), the ledger chain must verify, the app must have answered
 // health again by itself, and no half-received upload may have left anything behind.
-import { spawn, type ChildProcess } from 'node:child_process';
+import type { ChildProcess } from 'node:child_process';
 import http from 'node:http';
 import { readFileSync } from 'node:fs';
 import type { Express } from 'express';
@@ -16,6 +16,7 @@ import { csrfTokenOf, SamlTestDriver } from '../../tests/helpers/saml-round-trip
 import { bootstrapDatabase } from '../lib/bootstrap-database';
 import { fail, log } from '../lib/run';
 import { seedIfEmpty } from '../seed/seed-if-empty';
+import { reportChecks, startAppProcess, untilHealthy } from './app-process';
 
 const WRITES = Number(process.env.FAULT_WRITES ?? 1000);
 const WRITERS = 4;
@@ -25,26 +26,6 @@ Object.assign(process.env, testProfileEnvironment(), { DATA_DIR: '.data/faults',
 const config = loadConfig();
 const base = `http://127.0.0.1:${config.PORT}`;
 const sleep = (ms: number) => new Promise((done) => setTimeout(done, ms));
-
-function startApp(): ChildProcess {
-  const child = spawn(process.execPath, ['--import', 'tsx', 'server/src/index.ts'], { env: process.env, stdio: ['ignore', 'ignore', 'ignore'] });
-  return child;
-}
-
-/** Milliseconds until /api/health answers 200 (polling every 50 ms), or a failure after the limit. */
-async function untilHealthy(limitMs = 60_000): Promise<number> {
-  const started = Date.now();
-  while (Date.now() - started < limitMs) {
-    try {
-      const response = await fetch(`${base}/api/health`);
-      if (response.status === 200) return Date.now() - started;
-    } catch {
-      // not listening yet
-    }
-    await sleep(50);
-  }
-  throw new Error(`the app did not answer health within ${limitMs / 1000} s`);
-}
 
 function killHard(pid: number, what: string): void {
   process.kill(pid, 'SIGKILL');
@@ -58,8 +39,8 @@ async function main(): Promise<void> {
   try {
     await seedIfEmpty(config);
     const saml = await SamlTestDriver.create(config);
-    app = startApp();
-    log(`app started; healthy after ${await untilHealthy()} ms`);
+    app = startAppProcess();
+    log(`app started; healthy after ${await untilHealthy(base)} ms`);
 
     const approver = await saml.signIn(base as unknown as Express, 'kiw-0301');
     const engineer = await saml.signIn(base as unknown as Express, 'kiw-0101');
@@ -105,15 +86,15 @@ async function main(): Promise<void> {
     await sleep(1_000);
     const restartedAt = Date.now();
     await server.start();
-    const dbRecoveryMs = await untilHealthy();
+    const dbRecoveryMs = await untilHealthy(base);
     log(`  MariaDB restarted in ${Date.now() - restartedAt - dbRecoveryMs} ms; the app answered health ${dbRecoveryMs} ms later`);
 
     // 2. The app, mid-request.
     await reached(Math.floor(WRITES * 0.6));
     killHard(app.pid!, 'the app');
     await sleep(300);
-    app = startApp();
-    const appRecoveryMs = await untilHealthy();
+    app = startAppProcess();
+    const appRecoveryMs = await untilHealthy(base);
     log(`  app restarted; healthy after ${appRecoveryMs} ms (the session in MariaDB still signs the writers in)`);
 
     // 3. The app, mid-upload of a certificate that never finishes arriving.
@@ -134,8 +115,8 @@ async function main(): Promise<void> {
     killHard(app.pid!, 'the app, mid-upload');
     upload.destroy();
     await sleep(300);
-    app = startApp();
-    const uploadRecoveryMs = await untilHealthy();
+    app = startAppProcess();
+    const uploadRecoveryMs = await untilHealthy(base);
     log(`  app restarted after the cut upload; healthy after ${uploadRecoveryMs} ms`);
 
     await writing;
@@ -157,10 +138,7 @@ async function main(): Promise<void> {
       [ledger.summary, ledger.ok],
       [`health again after the database restart: ${dbRecoveryMs} ms; after app restarts: ${appRecoveryMs} and ${uploadRecoveryMs} ms`, dbRecoveryMs < 30_000],
     ] as const;
-    for (const [line, ok] of results) log(`${ok ? 'ok    ' : 'FAILED'} ${line}`);
-    const failed = results.filter(([, ok]) => !ok).length;
-    process.stdout.write(`${results.length - failed} passed, ${failed} failed\n`);
-    if (failed) process.exitCode = 1;
+    reportChecks(results);
   } finally {
     if (app && app.exitCode === null) app.kill('SIGKILL');
     if (admin.isInitialized) await admin.destroy();

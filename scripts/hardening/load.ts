@@ -3,7 +3,7 @@
 // read routes, then a mixed profile with one write in ten. Reports requests per second, p50 and
 // p99, errors, and that the ledger chain verifies afterwards. Targets on a 2-core machine: reads
 // at least 1,500 req/s with p99 at most 50 ms, and no errors.
-import { execFile, spawn, type ChildProcess } from 'node:child_process';
+import { execFile, type ChildProcess } from 'node:child_process';
 import { parseArgs } from 'node:util';
 import type { Express } from 'express';
 import { loadConfig, loadDotEnv, testProfileEnvironment } from '../../server/src/config/env';
@@ -13,6 +13,7 @@ import { csrfTokenOf, SamlTestDriver } from '../../tests/helpers/saml-round-trip
 import { bootstrapDatabase } from '../lib/bootstrap-database';
 import { fail, log } from '../lib/run';
 import { seedIfEmpty } from '../seed/seed-if-empty';
+import { reportChecks, startAppProcess, untilHealthy } from './app-process';
 
 interface LoadResult {
   requests: number;
@@ -42,18 +43,6 @@ function load(options: object): Promise<LoadResult> {
   });
 }
 
-async function untilHealthy(): Promise<void> {
-  for (let attempt = 0; attempt < 600; attempt += 1) {
-    try {
-      if ((await fetch(`${base}/api/health`)).status === 200) return;
-    } catch {
-      // not listening yet
-    }
-    await new Promise((done) => setTimeout(done, 100));
-  }
-  throw new Error('the app did not answer health within 60 s');
-}
-
 async function main(): Promise<void> {
   if (!Number.isInteger(seconds) || seconds < 5 || seconds > 3600) throw new Error('--seconds: a whole number from 5 to 3600');
   const server = await bootstrapDatabase(config, { reset: true });
@@ -62,8 +51,8 @@ async function main(): Promise<void> {
   try {
     await seedIfEmpty(config);
     const saml = await SamlTestDriver.create(config);
-    app = spawn(process.execPath, ['--import', 'tsx', 'server/src/index.ts'], { env: process.env, stdio: ['ignore', 'ignore', 'ignore'] });
-    await untilHealthy();
+    app = startAppProcess();
+    await untilHealthy(base);
     const reader = await saml.signIn(base as unknown as Express, 'kiw-0201');
     const writer = await saml.signIn(base as unknown as Express, 'kiw-0301');
     const writerCsrf = await csrfTokenOf(writer.agent);
@@ -93,10 +82,7 @@ async function main(): Promise<void> {
       [`every write acknowledged is a supplier with its ledger event (${written} suppliers, ${eventsAfter - eventsBefore} events)`, eventsAfter - eventsBefore === written],
       [ledger.summary, ledger.ok],
     ] as const;
-    for (const [text, ok] of checks) log(`${ok ? 'ok    ' : 'FAILED'} ${text}`);
-    const failed = checks.filter(([, ok]) => !ok).length;
-    process.stdout.write(`${checks.length - failed} passed, ${failed} failed\n`);
-    if (failed) process.exitCode = 1;
+    reportChecks(checks);
   } finally {
     if (app && app.exitCode === null) app.kill('SIGTERM');
     if (admin.isInitialized) await admin.destroy();

@@ -6,7 +6,7 @@ import { roles, type Role } from '@shared/auth/roles';
 import { errorResponseSchema } from '@shared/errors';
 import { verifyLedger } from '../../server/src/modules/ledger/ledger-verification';
 import { createTestApp } from '../helpers/test-app';
-import { bySingleRole, csrfTokenOf, SamlTestDriver } from '../helpers/saml-round-trip';
+import { bySingleRole, SamlTestDriver, signInPeople } from '../helpers/saml-round-trip';
 import { routeTable, type RegisteredRoute } from '../helpers/route-table';
 
 type Agent = Awaited<ReturnType<SamlTestDriver['signIn']>>['agent'];
@@ -71,23 +71,19 @@ function callerFor(route: RegisteredRoute): Role | null {
 describe('hostile input on every API route', () => {
   const running = createTestApp();
   const apiRoutes = routeTable(running.app).filter((route) => route.path.startsWith('/api/'));
-  const agents = new Map<Role, { agent: Agent; csrf: string }>();
+  let agents: Record<Role, { agent: Agent; csrf: string }>;
   let inputs = 0;
   // State-changing calls that were accepted: random input that happened to be valid.
   const accepted: string[] = [];
 
   beforeAll(async () => {
-    const saml = await SamlTestDriver.create(running.config);
-    for (const role of roles) {
-      const { agent } = await saml.signIn(running.app, bySingleRole[role]);
-      agents.set(role, { agent, csrf: await csrfTokenOf(agent) });
-    }
+    agents = await signInPeople(await SamlTestDriver.create(running.config), running.app, bySingleRole);
   });
   afterAll(() => running.close());
 
   it.each(apiRoutes.map((route) => [`${route.method} ${route.path}`, route] as const))('%s: never a 500, always the one error shape', async (_name, route) => {
     const role = callerFor(route);
-    const caller = role ? agents.get(role)! : null;
+    const caller = role ? agents[role] : null;
     const parameterNames = [...route.path.matchAll(/:([A-Za-z]+)/g)].map((match) => match[1]!);
     await fc.assert(
       fc.asyncProperty(fc.array(hostileString, { minLength: parameterNames.length, maxLength: parameterNames.length }), query, body, async (parameters, search, payload) => {

@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { actions, permissionMatrix } from '@shared/auth/permissions';
 import { roles, type Role } from '@shared/auth/roles';
 import { createTestApp } from '../helpers/test-app';
-import { bySingleRole, csrfTokenOf, SamlTestDriver } from '../helpers/saml-round-trip';
+import { bySingleRole, SamlTestDriver, signInPeople } from '../helpers/saml-round-trip';
 import { routeTable } from '../helpers/route-table';
 
 type Agent = Awaited<ReturnType<SamlTestDriver['signIn']>>['agent'];
@@ -35,15 +35,11 @@ function concretePath(path: string): string {
 // Every API route × every role (and nobody signed in), asserted from the one permission matrix.
 describe('the route × role permission matrix', () => {
   const running = createTestApp();
-  const agents = new Map<Role, { agent: Agent; csrf: string }>();
+  let agents: Record<Role, { agent: Agent; csrf: string }>;
   const apiRoutes = routeTable(running.app).filter((route) => route.path.startsWith('/api/'));
 
   beforeAll(async () => {
-    const saml = await SamlTestDriver.create(running.config);
-    for (const role of roles) {
-      const { agent } = await saml.signIn(running.app, bySingleRole[role]);
-      agents.set(role, { agent, csrf: await csrfTokenOf(agent) });
-    }
+    agents = await signInPeople(await SamlTestDriver.create(running.config), running.app, bySingleRole);
   });
   afterAll(() => running.close());
 
@@ -73,7 +69,7 @@ describe('the route × role permission matrix', () => {
       else expect(anonymous.status, `${route.method} ${route.path} anonymous`).toBe(route.method === 'GET' ? 401 : 403);
       cells++;
       for (const role of roles) {
-        const { agent, csrf } = agents.get(role)!;
+        const { agent, csrf } = agents[role];
         const response = await send(agent, csrf);
         const allowed = route.access?.kind !== 'action' || permissionMatrix[role].includes(route.access.action);
         if (allowed) expect([401, 403], `${route.method} ${route.path} as ${role}: ${JSON.stringify(response.body)}`).not.toContain(response.status);
