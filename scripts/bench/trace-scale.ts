@@ -8,7 +8,6 @@ import { createHash } from 'node:crypto';
 import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { parseArgs } from 'node:util';
-import { execFile } from 'node:child_process';
 import mysql from 'mysql2/promise';
 import pino from 'pino';
 import type { DataSource, EntityManager } from 'typeorm';
@@ -20,6 +19,7 @@ import { Database } from '../../server/src/db/database';
 import { backwardTrace, forwardTraceIn } from '../../server/src/modules/trace/trace.service';
 import { SamlTestDriver } from '../../tests/helpers/saml-round-trip';
 import { bootstrapDatabase } from '../lib/bootstrap-database';
+import { loadFromAnotherProcess } from '../lib/load-generator';
 import { fail, log } from '../lib/run';
 import { seedDemoScenario } from '../seed/demo-scenario';
 import { generateHistory, shapeFor } from './synthetic-history';
@@ -54,16 +54,6 @@ function randomInts(count: number, max: number, seed: number): number[] {
   return Array.from({ length: count }, () => {
     state = (Math.imul(state, 1664525) + 1013904223) >>> 0;
     return 1 + (state % max);
-  });
-}
-
-/** autocannon in a child process: a load generator in the server's own process halves what it measures. */
-function loadFromAnotherProcess(options: { url: string; connections: number; duration: number; cookie: string; paths: string[] }): Promise<{ requestsPerSecond: number; p99Ms: number; errors: number }> {
-  return new Promise((resolveLoad, rejectLoad) => {
-    execFile(process.execPath, ['--import', 'tsx', 'scripts/bench/load-client.ts', JSON.stringify(options)], { maxBuffer: 1 << 20 }, (error, stdout) => {
-      if (error) return rejectLoad(error);
-      resolveLoad(JSON.parse(stdout.trim().split('\n').at(-1)!));
-    });
   });
 }
 
@@ -191,7 +181,8 @@ async function main(): Promise<void> {
       ),
     };
     log('backward trace throughput, 20 connections for 15 s…');
-    const throughput = await loadFromAnotherProcess({ url: base, connections: 20, duration: 15, cookie, paths: randomInts(200, lots, 23).map((id) => `/api/trace/backward?lot=${lotNumber(id)}`) });
+    const load = await loadFromAnotherProcess({ url: base, connections: 20, duration: 15, reader: cookie, readPaths: randomInts(200, lots, 23).map((id) => `/api/trace/backward?lot=${lotNumber(id)}`) });
+    const throughput = { requestsPerSecond: load.requestsPerSecond, p99Ms: load.p99Ms, errors: load.errors + load.timeouts + load.non2xx };
     const ratios = Object.fromEntries(Object.entries(queries).map(([name, figures]) => [name, round(figures.apiP50Ms / figures.sqlP50Ms)]));
     const result = { lots: counts.production_lot, heats: counts.heat, generateSeconds, rows: counts, sizes, queries, apiToSqlP50: ratios, backwardThroughput: throughput };
     if (!values.json) {

@@ -3,7 +3,7 @@
 // read routes, then a mixed profile with one write in ten. Reports requests per second, p50 and
 // p99, errors, and that the ledger chain verifies afterwards. Targets on a 2-core machine: reads
 // at least 1,500 req/s with p99 at most 50 ms, and no errors.
-import { execFile, type ChildProcess } from 'node:child_process';
+import type { ChildProcess } from 'node:child_process';
 import { parseArgs } from 'node:util';
 import type { Express } from 'express';
 import { loadConfig, loadDotEnv, testProfileEnvironment } from '../../server/src/config/env';
@@ -11,20 +11,10 @@ import { createDataSource } from '../../server/src/db/connection-options';
 import { verifyLedger } from '../../server/src/modules/ledger/ledger-verification';
 import { csrfTokenOf, SamlTestDriver } from '../../tests/helpers/saml-round-trip';
 import { bootstrapDatabase } from '../lib/bootstrap-database';
+import { loadFromAnotherProcess, type LoadResult } from '../lib/load-generator';
 import { fail, log } from '../lib/run';
 import { seedIfEmpty } from '../seed/seed-if-empty';
 import { reportChecks, startAppProcess, untilHealthy } from './app-process';
-
-interface LoadResult {
-  requests: number;
-  requestsPerSecond: number;
-  p50Ms: number;
-  p99Ms: number;
-  errors: number;
-  timeouts: number;
-  non2xx: number;
-  statusCodes: Record<string, { count: number }>;
-}
 
 const { values } = parseArgs({ options: { seconds: { type: 'string' }, connections: { type: 'string' } } });
 loadDotEnv();
@@ -33,15 +23,6 @@ const config = loadConfig();
 const base = `http://127.0.0.1:${config.PORT}`;
 const seconds = Number(values.seconds ?? 60);
 const connections = Number(values.connections ?? 200);
-
-function load(options: object): Promise<LoadResult> {
-  return new Promise((resolveLoad, rejectLoad) => {
-    execFile(process.execPath, ['--import', 'tsx', 'scripts/hardening/load-client.ts', JSON.stringify(options)], { maxBuffer: 1 << 20 }, (error, stdout) => {
-      if (error) return rejectLoad(error);
-      resolveLoad(JSON.parse(stdout.trim().split('\n').at(-1)!));
-    });
-  });
-}
 
 async function main(): Promise<void> {
   if (!Number.isInteger(seconds) || seconds < 5 || seconds > 3600) throw new Error('--seconds: a whole number from 5 to 3600');
@@ -66,9 +47,9 @@ async function main(): Promise<void> {
     }
     const eventsBefore = Number((await admin.query('SELECT COUNT(*) AS n FROM audit_event'))[0].n);
     log(`reads: ${connections} connections for ${seconds} s over ${readPaths.length} routes…`);
-    const reads = await load({ url: base, connections, duration: seconds, reader: reader.cookie, writer: { cookie: writer.cookie, csrf: writerCsrf }, readPaths, writeEvery: 0 });
+    const reads = await loadFromAnotherProcess({ url: base, connections, duration: seconds, reader: reader.cookie, readPaths });
     log(`mixed: one write in ten, ${connections} connections for ${seconds} s…`);
-    const mixed = await load({ url: base, connections, duration: seconds, reader: reader.cookie, writer: { cookie: writer.cookie, csrf: writerCsrf }, readPaths, writeEvery: 10 });
+    const mixed = await loadFromAnotherProcess({ url: base, connections, duration: seconds, reader: reader.cookie, writer: { cookie: writer.cookie, csrf: writerCsrf }, readPaths, writeEvery: 10 });
     const written = Number((await admin.query("SELECT COUNT(*) AS n FROM supplier WHERE name LIKE 'Load writer %'"))[0].n);
     const eventsAfter = Number((await admin.query('SELECT COUNT(*) AS n FROM audit_event'))[0].n);
     const ledger = await verifyLedger(admin.manager);

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { gtinProblem } from '../domain/gs1/gtin';
+import { checkedString } from './checked-string';
 import { lotPatternProblem } from '../domain/manufacturing/lot-number';
 import { samplingPlanProblem } from '../domain/manufacturing/inspection';
 
@@ -50,13 +51,7 @@ export const partCreateSchema = z
     partNumber: z.string().trim().regex(/^[A-Za-z0-9][A-Za-z0-9-]{1,39}$/, 'Letters, digits and hyphens, 2–40 characters'),
     revision: z.string().trim().regex(/^[A-Za-z0-9]{1,10}$/, 'Letters and digits, up to 10'),
     description: text(3, 200, 'Describe the part'),
-    gtin: z
-      .string()
-      .trim()
-      .superRefine((gtin, context) => {
-        const problem = gtinProblem(gtin);
-        if (problem) context.addIssue({ code: 'custom', message: problem });
-      }),
+    gtin: checkedString(z.string().trim(), gtinProblem),
     unitLengthMm: decimal('The finished length in mm, e.g. 42.5'),
     cutoffAllowanceMm: decimal('The cut-off allowance per unit in mm, e.g. 3.2', false),
     unitMassG: decimal('The unit mass in g').nullable().default(null),

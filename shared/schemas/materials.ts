@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { checkedString } from './checked-string';
 import { productForms } from '../domain/materials/specification';
 import { decimalPattern } from '../domain/materials/e29-rounding';
 
@@ -31,10 +32,7 @@ function receiptDayProblem(day: string): string | null {
   return null;
 }
 
-const calendarDay = z.string().superRefine((day, context) => {
-  const problem = receiptDayProblem(day);
-  if (problem) context.addIssue({ code: 'custom', message: problem });
-});
+const calendarDay = checkedString(z.string(), receiptDayProblem);
 
 export const heatCreateSchema = z.object({
   heatNumber: z

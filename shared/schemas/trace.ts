@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { lotNumberProblem } from '../domain/gs1/gtin';
+import { checkedString } from './checked-string';
 
 const id = z.coerce.number().int().positive().max(4_294_967_295);
 const day = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'A date as YYYY-MM-DD');
@@ -8,14 +9,7 @@ export const backwardQuerySchema = z
   .object({
     udi: z.string().trim().min(1).max(300).optional(),
     // Lot numbers are stored as GS1 AI 10 allows them; anything else cannot name a lot.
-    lot: z
-      .string()
-      .trim()
-      .superRefine((lot, context) => {
-        const problem = lotNumberProblem(lot);
-        if (problem) context.addIssue({ code: 'custom', message: problem });
-      })
-      .optional(),
+    lot: checkedString(z.string().trim(), lotNumberProblem).optional(),
     tag: z.string().trim().min(3).max(40).optional(),
   })
   .refine((query) => Boolean(query.udi ?? query.lot ?? query.tag), { message: 'Give a UDI, a lot number or a bar tag', path: ['udi'] });

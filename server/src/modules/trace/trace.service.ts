@@ -94,7 +94,7 @@ export async function backwardTrace(dataSource: DataSource, start: { udi?: strin
   ]);
   return {
     start: label,
-    lots: toTracedLots(lotRows),
+    lots: toTracedLots(lotRows, (row) => Number(row.shipped ?? 0)),
     barPieces: pieces,
     heats: heatRows,
     certificates,
@@ -149,7 +149,7 @@ export async function forwardTraceIn(manager: EntityManager, start: ForwardStart
     : [];
   consigneeRows.sort((a, b) => byName.compare(a.name, b.name) || a.id - b.id);
   const consignees = consigneeRows.map((row) => ({ ...row, units: byConsignee.get(row.id)!.units, lots: byConsignee.get(row.id)!.lots.size }));
-  const lots = toTracedLots(lotRows.map((row) => ({ ...row, shipped: String(shippedByLot.get(row.id) ?? 0) })));
+  const lots = toTracedLots(lotRows, (row) => shippedByLot.get(row.id) ?? 0);
   const totals = lots.reduce((sum, lot) => ({ made: sum.made + (lot.made ?? 0), released: sum.released + lot.released, shipped: sum.shipped + lot.shipped, onHand: sum.onHand + lot.onHand }), { made: 0, released: 0, shipped: 0, onHand: 0 });
   return { start: startLabel, lots, totals, consignees };
 }
@@ -213,9 +213,10 @@ interface LotFactRow {
   parents: string | null;
 }
 
-function toTracedLots(rows: LotFactRow[]): TracedLot[] {
+/** The lots as traced; `shippedOf` gives each lot's units shipped (read with it, or summed from its shipments). */
+function toTracedLots<Row extends Omit<LotFactRow, 'shipped'>>(rows: Row[], shippedOf: (row: Row) => number): TracedLot[] {
   return rows.map((row) => {
-    const shipped = Number(row.shipped ?? 0);
+    const shipped = shippedOf(row);
     return {
       id: row.id,
       lotNumber: row.lot_number,

@@ -1,22 +1,12 @@
-// The load generator for npm run test:load, in its own process so that it does not share the
-// server's event loop. Reads its options as JSON from argv[2]; prints one JSON line.
+// autocannon in its own process (started by load-generator.ts), so that the load does not share
+// the measured server's event loop. Reads LoadOptions as JSON from argv[2]; prints one JSON line.
 import autocannon, { type Request } from 'autocannon';
+import type { LoadOptions } from './load-generator';
 
-interface Options {
-  url: string;
-  connections: number;
-  duration: number;
-  reader: string;
-  writer: { cookie: string; csrf: string };
-  readPaths: string[];
-  /** One write in every `writeEvery` requests (0: reads only). */
-  writeEvery: number;
-}
-
-const options = JSON.parse(process.argv[2] ?? '{}') as Options;
+const options = JSON.parse(process.argv[2] ?? '{}') as LoadOptions;
 let written = 0;
 const reads = options.readPaths.map((path) => ({ method: 'GET' as const, path, headers: { cookie: options.reader } }));
-const write = {
+const write = options.writer && {
   method: 'POST' as const,
   path: '/api/suppliers',
   headers: { cookie: options.writer.cookie, 'x-csrf-token': options.writer.csrf, 'content-type': 'application/json' },
@@ -25,7 +15,7 @@ const write = {
     body: JSON.stringify({ name: `Load writer ${process.pid}-${written++}`, country: 'Nowhere', approval: 'approved', reason: 'written under load' }),
   }),
 };
-const requests: Request[] = options.writeEvery > 0 ? [...reads.slice(0, options.writeEvery - 1), write] : reads;
+const requests: Request[] = write && options.writeEvery ? [...reads.slice(0, options.writeEvery - 1), write] : reads;
 const result = await autocannon({ url: options.url, connections: options.connections, duration: options.duration, requests });
 process.stdout.write(
   `${JSON.stringify({
