@@ -1,14 +1,29 @@
 import 'reflect-metadata';
-import { DataSource } from 'typeorm';
+import { DataSource, type ObjectLiteral, type QueryRunner } from 'typeorm';
 import type { AppConfig } from '../config/env';
 import { entities } from './entities';
 import { migrations } from './migrations';
+import { readWithRetry } from './transient-errors';
 
 export type DatabaseRole = 'app' | 'migration';
 
+const readOnly = /^\s*(SELECT|WITH)\b/i;
+
+/**
+ * A DataSource whose reads outside a transaction are repeated while the database is briefly
+ * unavailable (a restarting server, a failed cluster node), so that a failover costs a read
+ * some seconds, not an error. Writes repeat only as whole transactions (inTransaction).
+ */
+class RetryingDataSource extends DataSource {
+  override query<T = unknown>(sql: string, parameters?: unknown[] | ObjectLiteral, queryRunner?: QueryRunner): Promise<T> {
+    if (queryRunner || !readOnly.test(sql)) return super.query<T>(sql, parameters, queryRunner);
+    return readWithRetry(() => super.query<T>(sql, parameters));
+  }
+}
+
 /** A DataSource for the running app (narrow grants) or for migrations (schema owner). */
 export function createDataSource(config: AppConfig, role: DatabaseRole = 'app'): DataSource {
-  return new DataSource({
+  return new RetryingDataSource({
     type: 'mariadb',
     host: config.DB_HOST,
     port: config.DB_PORT,

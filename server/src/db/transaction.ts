@@ -1,24 +1,45 @@
 import type { DataSource, EntityManager } from 'typeorm';
-
-const retryableCodes = new Set(['ER_LOCK_DEADLOCK', 'ER_LOCK_WAIT_TIMEOUT']);
-const MAX_ATTEMPTS = 6;
-
-function isRetryable(error: unknown): boolean {
-  const candidate = error as { code?: string; driverError?: { code?: string } };
-  return retryableCodes.has(candidate.code ?? '') || retryableCodes.has(candidate.driverError?.code ?? '');
-}
+import { AppError } from '../errors';
+import { connectionLost, retryDelay, tableWithUnreadableTriggers, transientKind } from './transient-errors';
 
 /**
- * Runs work in one transaction; retries the whole transaction on a deadlock or lock-wait time-out
- * (on a Galera cluster a certification conflict also arrives as a deadlock, ERROR 1213).
+ * Runs work in one transaction and repeats the whole transaction after a conflict (deadlock,
+ * lock-wait time-out, Galera certification conflict) or while the database is briefly
+ * unavailable. A connection lost while COMMIT was on its way is not repeated: the change may or
+ * may not have been saved, and saving it twice would be worse than saying so.
  */
 export async function inTransaction<T>(dataSource: DataSource, work: (manager: EntityManager) => Promise<T>): Promise<T> {
+  const started = Date.now();
   for (let attempt = 1; ; attempt++) {
+    const runner = dataSource.createQueryRunner();
+    let committing = false;
     try {
-      return await dataSource.transaction(work);
+      await runner.connect();
+      await runner.startTransaction();
+      const result = await work(runner.manager);
+      committing = true;
+      await runner.commitTransaction();
+      return result;
     } catch (error) {
-      if (!isRetryable(error) || attempt >= MAX_ATTEMPTS) throw error;
-      await new Promise((done) => setTimeout(done, Math.random() * 20 * attempt));
+      if (runner.isTransactionActive) await runner.rollbackTransaction().catch(() => undefined);
+      if (committing && connectionLost(error)) {
+        throw new AppError(
+          'SERVICE_UNAVAILABLE',
+          'The connection to the database was lost while this change was being committed; look whether it was saved before repeating it',
+        );
+      }
+      const brokenTable = tableWithUnreadableTriggers(error);
+      if (brokenTable !== null) {
+        // Clear this node's copy of the table ('' names none: clear all), then go again.
+        const target = brokenTable ? `\`${brokenTable}\`` : '';
+        await runner.query(`SET STATEMENT lock_wait_timeout = 5 FOR FLUSH LOCAL TABLES ${target}`).catch(() => undefined);
+        process.emitWarning(`cleared table ${brokenTable || '(all tables)'} on its database node, whose copy had unreadable triggers`, 'DatabaseNodeWarning');
+      }
+      const delay = retryDelay(brokenTable !== null ? 'conflict' : transientKind(error), attempt, Date.now() - started);
+      if (delay === null) throw error;
+      await new Promise((done) => setTimeout(done, delay));
+    } finally {
+      await runner.release().catch(() => undefined);
     }
   }
 }

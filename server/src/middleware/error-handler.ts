@@ -1,6 +1,7 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import type { ErrorResponse } from '@shared/errors';
 import { AppError } from '../errors';
+import { transientKind } from '../db/transient-errors';
 
 /** Unknown API routes get the same JSON error shape as every other failure. */
 export const apiNotFound: RequestHandler = (req, _res, next) => {
@@ -25,6 +26,9 @@ export function toAppError(error: unknown): AppError | null {
   if (httpish?.type === 'entity.too.large') return new AppError('PAYLOAD_TOO_LARGE', 'The request body is too large');
   if (httpish?.type === 'encoding.unsupported' || httpish?.type === 'charset.unsupported') {
     return new AppError('UNSUPPORTED_MEDIA_TYPE', 'The request body encoding is not supported');
+  }
+  if (transientKind(error) === 'unavailable') {
+    return new AppError('SERVICE_UNAVAILABLE', 'The database cannot be reached just now; try again in a few seconds');
   }
   return null;
 }
