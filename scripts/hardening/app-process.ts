@@ -1,11 +1,16 @@
 // What the hardening scripts share: the app as a separate process (as it runs in production),
 // waiting for its health, and reporting checks as "N passed, N failed".
 import { spawn, type ChildProcess } from 'node:child_process';
+import { openSync } from 'node:fs';
 import { log } from '../lib/run';
 
-/** Starts `server/src/index.ts` with this process's environment; its output is not kept. */
-export function startAppProcess(): ChildProcess {
-  return spawn(process.execPath, ['--import', 'tsx', 'server/src/index.ts'], { env: process.env, stdio: ['ignore', 'ignore', 'ignore'] });
+/**
+ * Starts `server/src/index.ts` with this process's environment (and `overrides`); its output
+ * goes to `logFile` when given, else nowhere.
+ */
+export function startAppProcess(overrides: Record<string, string> = {}, logFile?: string): ChildProcess {
+  const output = logFile ? openSync(logFile, 'a') : 'ignore';
+  return spawn(process.execPath, ['--import', 'tsx', 'server/src/index.ts'], { env: { ...process.env, ...overrides }, stdio: ['ignore', output, output] });
 }
 
 /** Milliseconds until `base`/api/health answers 200 (polled every 50 ms); throws after the limit. */

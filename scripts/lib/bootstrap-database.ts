@@ -11,6 +11,8 @@ export interface BootstrapOptions {
   reset?: boolean;
   relaxedDurability?: boolean;
   bufferPoolMb?: number;
+  /** A server that is already running (a cluster node) to administer instead of the local one. */
+  server?: MariadbServer;
 }
 
 export function accountsFor(config: AppConfig): DatabaseAccounts {
@@ -33,8 +35,8 @@ export function localServerFor(config: AppConfig, relaxedDurability = false, buf
  * accounts, runs the migrations and gives the app account its per-table grants.
  */
 export async function bootstrapDatabase(config: AppConfig, options: BootstrapOptions = {}): Promise<MariadbServer> {
-  const server = localServerFor(config, options.relaxedDurability, options.bufferPoolMb);
-  await server.start();
+  const server = options.server ?? localServerFor(config, options.relaxedDurability, options.bufferPoolMb);
+  if (!options.server) await server.start();
   try {
     const accounts = accountsFor(config);
     if (options.reset) {
@@ -49,7 +51,7 @@ export async function bootstrapDatabase(config: AppConfig, options: BootstrapOpt
     return server;
   } catch (error) {
     // A failed migration or grant must not leave a server behind that the next run finds "already running".
-    await server.stop();
+    if (!options.server) await server.stop();
     throw error;
   }
 }

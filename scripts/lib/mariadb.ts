@@ -15,6 +15,13 @@ export interface MariadbServerOptions {
   relaxedDurability?: boolean;
   /** InnoDB buffer pool; large benchmark databases need their working set in memory. */
   bufferPoolMb?: number;
+  /**
+   * An option file read instead of none (a Galera node's state-transfer scripts ignore
+   * --no-defaults and would read /etc/mysql otherwise).
+   */
+  defaultsFile?: string;
+  /** Further server options (a Galera node's wsrep settings). */
+  extraArgs?: string[];
 }
 
 const SOCKET_PATH_LIMIT = 100;
@@ -62,8 +69,11 @@ export class MariadbServer {
     }
   }
 
-  /** Initialises the data folder if needed and starts the server unless it already runs. */
-  async start(): Promise<void> {
+  /**
+   * Initialises the data folder if needed and starts the server unless it already runs;
+   * `runArgs` apply to this start only (e.g. --wsrep-new-cluster).
+   */
+  async start(runArgs: string[] = []): Promise<void> {
     await MariadbServer.ensureInstalled();
     mkdirSync(this.baseDir, { recursive: true });
     if (await this.isRunning()) {
@@ -88,8 +98,17 @@ export class MariadbServer {
       );
     }
     rmSync(this.pidFile, { force: true });
-    const args = [
-      '--no-defaults',
+    const child = spawn(this.tool('mariadbd'), [...this.serverArgs(), ...runArgs], { detached: true, stdio: 'ignore' });
+    child.unref();
+    this.startedHere = true;
+    await this.waitUntilReady(child.pid);
+    log(`MariaDB started on 127.0.0.1:${this.port} (data ${this.dataDir})`);
+  }
+
+  /** The options this server always runs with. */
+  serverArgs(): string[] {
+    return [
+      this.options.defaultsFile ? `--defaults-file=${this.options.defaultsFile}` : '--no-defaults',
       `--user=${userInfo().username}`,
       `--datadir=${this.dataDir}`,
       `--bind-address=${this.options.host ?? '127.0.0.1'}`,
@@ -101,20 +120,25 @@ export class MariadbServer {
       '--character-set-server=utf8mb4',
       '--collation-server=utf8mb4_unicode_ci',
       '--innodb-log-file-size=16M',
-      `--innodb-buffer-pool-size=${this.options.bufferPoolMb ?? 256}M`,
+      // mariabackup, which a Galera node runs for state transfers, is handed the command line and
+      // rejects this option; such a node sets it in its defaults file.
+      ...(this.options.defaultsFile ? [] : [`--innodb-buffer-pool-size=${this.options.bufferPoolMb ?? 256}M`]),
       '--tmp-table-size=64M',
       '--max-heap-table-size=64M',
       '--max-connections=500',
       ...(this.options.relaxedDurability ? ['--innodb-flush-log-at-trx-commit=2', '--sync-binlog=0'] : []),
+      ...(this.options.extraArgs ?? []),
     ];
-    const child = spawn(this.tool('mariadbd'), args, { detached: true, stdio: 'ignore' });
-    child.unref();
-    this.startedHere = true;
-    await this.waitUntilReady(child.pid);
-    log(`MariaDB started on 127.0.0.1:${this.port} (data ${this.dataDir})`);
   }
 
-  private async waitUntilReady(pid: number | undefined, timeoutMs = 60_000): Promise<void> {
+  /** The server's process id from its pid file, or null. */
+  pid(): number | null {
+    if (!existsSync(this.pidFile)) return null;
+    const pid = Number(readFileSync(this.pidFile, 'utf8').trim());
+    return Number.isInteger(pid) && pid > 0 ? pid : null;
+  }
+
+  private async waitUntilReady(pid: number | undefined, timeoutMs = 180_000): Promise<void> {
     const deadline = Date.now() + timeoutMs;
     while (Date.now() < deadline) {
       if (await this.isRunning()) return;

@@ -21,6 +21,8 @@ export function runCommand(
       if (code === 0) resolve(stdout);
       else reject(new Error(`${command} ${args.join(' ')} exited ${code}: ${stderr.trim() || stdout.trim()}`));
     });
+    // A command that exits before reading its input closes the pipe; that is not an error here.
+    child.stdin?.on('error', () => undefined);
     child.stdin?.end(options.input ?? '');
   });
 }

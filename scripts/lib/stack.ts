@@ -35,9 +35,13 @@ export async function startSupportingServices(config: AppConfig, options: StackO
     stop: () => (stopping ??= stopInReverse()),
   };
   try {
-    const database = await bootstrapDatabase(config, options);
-    stops.push(() => database.stop());
-    if (await seedIfEmpty(config)) log('demo scenario seeded into the empty database');
+    if (config.DB_SERVER === 'local') {
+      const database = await bootstrapDatabase(config, options);
+      stops.push(() => database.stop());
+      if (await seedIfEmpty(config)) log('demo scenario seeded into the empty database');
+    } else {
+      log(`using the database at ${config.DB_HOST}:${config.DB_PORT} as it is (DB_SERVER=external)`);
+    }
     // A rebuilt database starts with an empty mailbox too, so old mail cannot answer for new records.
     const mail = await startMailCatcher(config, { empty: Boolean(options.reset) });
     stops.push(mail.stop);

@@ -13,9 +13,16 @@ export const configSchema = z.object({
   // Processes serving the app on this machine (node:cluster); one per core serves the most.
   APP_WORKERS: z.coerce.number().int().min(1).max(64).default(1),
   PUBLIC_URL: z.url().optional(),
+  // Proxies whose X-Forwarded-For the app believes (Express "trust proxy": loopback, a subnet
+  // such as 10.0.0.0/8, or addresses, comma-separated); sign-in limits count per client address.
+  TRUST_PROXY: z.string().trim().min(1).default('loopback'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
 
   DATA_DIR: z.string().min(1).default('.data/dev'),
+  // local: npm start runs, migrates and seeds its own MariaDB. external: the database at
+  // DB_HOST:DB_PORT is run by someone else (a Galera cluster behind a load balancer, say), who
+  // also migrates it and gives the app account its grants (npm run cluster:start does both).
+  DB_SERVER: z.enum(['local', 'external']).default('local'),
   DB_HOST: z.string().min(1).default('127.0.0.1'),
   DB_PORT: port.default(3307),
   DB_NAME: z
