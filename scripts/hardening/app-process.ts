@@ -10,7 +10,9 @@ import { log } from '../lib/run';
  */
 export function startAppProcess(overrides: Record<string, string> = {}, logFile?: string): ChildProcess {
   const output = logFile ? openSync(logFile, 'a') : 'ignore';
-  return spawn(process.execPath, ['--import', 'tsx', 'server/src/index.ts'], { env: { ...process.env, ...overrides }, stdio: ['ignore', output, output] });
+  // APP_NODE_ARGS passes options to the app's Node, e.g. '--cpu-prof --cpu-prof-dir=.data/profiles'.
+  const nodeArgs = (process.env.APP_NODE_ARGS ?? '').split(' ').filter(Boolean);
+  return spawn(process.execPath, [...nodeArgs, '--import', 'tsx', 'server/src/index.ts'], { env: { ...process.env, ...overrides }, stdio: ['ignore', output, output] });
 }
 
 /** Milliseconds until `base`/api/health answers 200 (polled every 50 ms); throws after the limit. */
