@@ -45,8 +45,8 @@ async function main(): Promise<void> {
     const actor = { id: engineer.id, name: engineer.name, role: 'manufacturing-engineer' };
     const origin = { requestId: 'bench', clientAddress: null };
     const [{ id: partId }] = await dataSource.query("SELECT id FROM part WHERE part_number = 'KIW-CS35-40'");
-    const [{ id: heatId }] = await dataSource.query("SELECT id FROM heat WHERE status = 'accepted' AND spec_id = 'ASTM F136' ORDER BY id LIMIT 1");
-    await receiveBar(dataSource, { heatId, tag: 'BENCH-BAR-1', diameterMm: '25.4', lengthMm: '3000', location: 'bench' }, engineer, actor, origin);
+    const [{ id: heatId, heat_number: heatNumber }] = await dataSource.query("SELECT id, heat_number FROM heat WHERE status = 'accepted' AND spec_id = 'ASTM F136' ORDER BY id LIMIT 1");
+    await receiveBar(dataSource, { heatId, markedHeatNumber: heatNumber, tag: 'BENCH-BAR-1', diameterMm: '25.4', lengthMm: '3000', location: 'bench' }, engineer, actor, origin);
     const big = await openLot(dataSource, { partId, plannedQty: 40 }, engineer, actor, origin);
     log('recording 200 material movements on one lot…');
     for (let index = 0; index < 100; index++) {

@@ -1,4 +1,5 @@
 import type { DataSource } from 'typeorm';
+import { bunchingMill, bunchingMillHeats } from './demo-screening';
 import { findPersonBySubject } from '../../server/src/modules/people/people.repository';
 import { attachCertificate, receiveHeat, recordResults } from '../../server/src/modules/materials/heats.service';
 import { createSupplier } from '../../server/src/modules/materials/suppliers.service';
@@ -13,6 +14,7 @@ const mills = [
   { name: 'Nordvik Titanium Mill', country: 'Norway', approval: 'approved' as const },
   { name: 'Castellane Special Metals', country: 'France', approval: 'approved' as const },
   { name: 'Oriel Bar & Wire', country: 'United Kingdom', approval: 'conditional' as const },
+  bunchingMill,
 ];
 
 /** A small PDF whose text names the heat, standing in for the mill's scanned certificate. */
@@ -138,6 +140,7 @@ export async function seedDemoMaterials(dataSource: DataSource): Promise<void> {
   for (const [index, heat] of recentHeats.entries()) {
     await enterHeat(dataSource, { ...heat, daysAgo: 60 - index * 5 }, supplierIds, engineer);
   }
+  for (const heat of bunchingMillHeats(mills.indexOf(bunchingMill))) await enterHeat(dataSource, heat, supplierIds, engineer);
   await seedDemoBarStock(dataSource, accepted, engineer);
 }
 
@@ -148,7 +151,7 @@ async function seedDemoBarStock(dataSource: DataSource, heats: Array<{ id: numbe
     for (const bar of [1, 2, 3, 4, 5, 6]) {
       await receiveBar(
         dataSource,
-        { heatId: id, tag: `${heat.heatNumber.replace(/[^A-Z0-9]+/g, '-')}-B${bar}`, diameterMm: heat.sizeMm, lengthMm: '3000', massKg: barMassKg(heat.specId, heat.sizeMm, 3000), location: `Bar store rack ${String.fromCharCode(65 + (index % 4))}${bar}` },
+        { heatId: id, markedHeatNumber: heat.heatNumber, tag: `${heat.heatNumber.replace(/[^A-Z0-9]+/g, '-')}-B${bar}`, diameterMm: heat.sizeMm, lengthMm: '3000', massKg: barMassKg(heat.specId, heat.sizeMm, 3000), location: `Bar store rack ${String.fromCharCode(65 + (index % 4))}${bar}` },
         engineer,
         actor,
         origin,

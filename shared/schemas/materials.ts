@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { heatScreeningSchema } from './screening';
 import { checkedString } from './checked-string';
 import { productForms } from '../domain/materials/specification';
 import { decimalPattern } from '../domain/materials/e29-rounding';
@@ -98,6 +99,8 @@ export const heatDetailSchema = heatSummarySchema.extend({
   certificates: z.array(certificateDocumentSchema),
   /** Cross-certificate checks: other heats with exactly the same results or the very same document. */
   crossChecks: z.object({ identicalResultsOn: z.array(z.string()), sameDocumentOn: z.array(z.string()) }),
+  /** Screening of all certificates of the heat's supplier and specification (findings involving this heat). */
+  screening: heatScreeningSchema,
 });
 export type HeatDetail = z.infer<typeof heatDetailSchema>;
 
@@ -115,6 +118,8 @@ export const barPieceSchema = z.object({
   id: z.number().int(),
   tag: z.string(),
   heat: z.object({ id: z.number().int(), heatNumber: z.string(), status: z.enum(heatStatuses), specId: z.string(), grade: z.string().nullable() }),
+  /** The heat number read off the bar at receipt and matched to the certificate (null before receipts were confirmed). */
+  markedHeatNumber: z.string().nullable(),
   parentTag: z.string().nullable(),
   childTags: z.array(z.string()),
   diameterMm: z.string(),
@@ -130,6 +135,7 @@ export type BarPiece = z.infer<typeof barPieceSchema>;
 
 export const barReceiptSchema = z.object({
   heatId: z.number().int().positive('Choose the heat'),
+  markedHeatNumber: z.string().trim().min(1, 'Type or scan the heat number marked on the bar').max(60),
   tag: tagSchema,
   diameterMm: positiveDecimal,
   lengthMm: positiveDecimal,

@@ -3,6 +3,7 @@ import { z } from 'zod';
 import type { Specification } from '@shared/domain/materials/specification';
 import { heatDetailSchema, heatPageSchema, heatSummarySchema, resultsImportReportSchema, specificationDraftViewSchema, type SpecificationDraftInput, supplierSchema, trendSchema, type ResultsImport, type HeatCreate, type HeatListQuery, type HeatResults, type TrendQuery } from '@shared/schemas/materials';
 import { apiRequest, apiUpload } from './http';
+import { heatScreeningSchema, supplierScreeningSchema, type ScreeningAcknowledgementInput } from '@shared/schemas/screening';
 
 export const materialKeys = {
   all: ['materials'] as const,
@@ -37,6 +38,10 @@ export const specificationsQuery = () =>
 export const receiveHeat = (heat: HeatCreate) => apiRequest('/heats', heatSummarySchema, { method: 'POST', body: heat });
 export const recordHeatResults = (heatId: number, results: HeatResults) => apiRequest(`/heats/${heatId}/results`, heatDetailSchema, { method: 'PUT', body: results });
 const attachedSchema = z.object({ documentId: z.number(), sha256: z.string(), storedNow: z.boolean(), alsoOnHeats: z.array(z.string()) });
+export const supplierScreeningQuery = (supplierId: number) =>
+  queryOptions({ queryKey: [...materialKeys.suppliers(), supplierId, 'screening'], queryFn: ({ signal }) => apiRequest(`/suppliers/${supplierId}/screening`, supplierScreeningSchema, { signal }) });
+export const acknowledgeScreeningFinding = (heatId: number, input: ScreeningAcknowledgementInput) =>
+  apiRequest(`/heats/${heatId}/screening-acknowledgements`, heatScreeningSchema, { method: 'POST', body: input });
 export const uploadCertificate = (heatId: number, file: File) => apiUpload(`/heats/${heatId}/certificates`, 'certificate', file, attachedSchema);
 
 export const trendQuery = (query: TrendQuery) =>

@@ -1,11 +1,13 @@
 import { computed, type Ref } from 'vue';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/vue-query';
+import type { ScreeningAcknowledgementInput } from '@shared/schemas/screening';
 import type { HeatCreate, HeatListQuery, HeatResults, ResultsImport, SpecificationDraftInput, TrendQuery } from '@shared/schemas/materials';
-import { draftSpecificationRevision, heatQuery, heatsQuery, importResults, materialKeys, specificationDraftsQuery, receiveHeat, recordHeatResults, specificationsQuery, suppliersQuery, trendQuery, uploadCertificate } from '../api/materials';
+import { acknowledgeScreeningFinding, draftSpecificationRevision, heatQuery, heatsQuery, importResults, materialKeys, specificationDraftsQuery, receiveHeat, recordHeatResults, specificationsQuery, supplierScreeningQuery, suppliersQuery, trendQuery, uploadCertificate } from '../api/materials';
 
 export const useHeats = (query: Ref<HeatListQuery>) => useQuery(computed(() => heatsQuery(query.value)));
 export const useHeat = (id: Ref<number>) => useQuery(computed(() => heatQuery(id.value)));
 export const useSuppliers = () => useQuery(suppliersQuery());
+export const useSupplierScreening = (supplierId: Ref<number>) => useQuery(computed(() => supplierScreeningQuery(supplierId.value)));
 export const useSpecifications = () => useQuery(specificationsQuery());
 
 export function useReceiveHeat() {
@@ -27,6 +29,14 @@ export function useRecordHeatResults(heatId: Ref<number>) {
 export function useUploadCertificate(heatId: Ref<number>) {
   const queryClient = useQueryClient();
   return useMutation({ mutationFn: (file: File) => uploadCertificate(heatId.value, file), onSuccess: () => queryClient.invalidateQueries({ queryKey: materialKeys.heat(heatId.value) }) });
+}
+
+export function useAcknowledgeFinding(heatId: Ref<number>) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (input: ScreeningAcknowledgementInput) => acknowledgeScreeningFinding(heatId.value, input),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: materialKeys.heat(heatId.value) }),
+  });
 }
 
 export const useTrend = (query: Ref<TrendQuery | null>) =>

@@ -4,7 +4,7 @@ import { rolesAllow } from '@shared/auth/permissions';
 import { productAreas, type AreaRouteName } from '../navigation/areas';
 import { meQuery } from '../api/session';
 
-export type RouteName = 'overview' | AreaRouteName | 'heat' | 'bar-piece' | 'specifications' | 'lot' | 'parts' | 'process-run' | 'nonconformances' | 'nonconformance' | 'consignees' | 'recalls' | 'recall' | 'sign-in' | 'signed-out' | 'reauthentication-complete' | 'not-permitted' | 'not-found';
+export type RouteName = 'overview' | AreaRouteName | 'heat' | 'suppliers' | 'supplier' | 'bar-piece' | 'specifications' | 'lot' | 'parts' | 'process-run' | 'nonconformances' | 'nonconformance' | 'consignees' | 'recalls' | 'recall' | 'sign-in' | 'signed-out' | 'reauthentication-complete' | 'not-permitted' | 'not-found';
 
 /** Areas that are built; the rest show what they will hold. */
 const areaViews: Partial<Record<AreaRouteName, () => Promise<unknown>>> = {
@@ -45,6 +45,13 @@ export const routes: RouteRecordRaw[] = [
     name: 'lot',
     component: () => import('../views/LotDetailView.vue'),
     meta: { title: 'Lot', area: 'lots', action: 'lots.read' },
+  },
+  { path: '/suppliers', name: 'suppliers', component: () => import('../views/SuppliersView.vue'), meta: { title: 'Suppliers', area: 'heats', action: 'materials.read' } },
+  {
+    path: '/suppliers/:supplierId(\\d+)',
+    name: 'supplier',
+    component: () => import('../views/SupplierDetailView.vue'),
+    meta: { title: 'Supplier', area: 'heats', action: 'materials.read' },
   },
   { path: '/consignees', name: 'consignees', component: () => import('../views/ConsigneesView.vue'), meta: { title: 'Consignees', area: 'lots', action: 'lots.read' } },
   { path: '/parts', name: 'parts', component: () => import('../views/PartsView.vue'), meta: { title: 'Parts and routings', area: 'lots', action: 'lots.read' } },

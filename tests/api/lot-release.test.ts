@@ -37,8 +37,8 @@ describe('lot release: readiness, submission, two signatures, shipment', () => {
     saml = await SamlTestDriver.create(running.config);
     Object.assign(people, await signInPeople(saml, running.app, { engineer: 'kiw-0102', reviewer: 'kiw-0201', approver: 'kiw-0301', auditor: 'kiw-0401' }));
     const db = await running.database.connect();
-    const [heat] = await db.query("SELECT id FROM heat WHERE status = 'accepted' AND spec_id = 'ASTM F136' ORDER BY id LIMIT 1");
-    await post('engineer', '/api/bar-pieces', { heatId: heat.id, tag: 'TST-REL-BAR', diameterMm: '25.4', lengthMm: '3000', location: 'Test rack' });
+    const [heat] = await db.query("SELECT id, heat_number FROM heat WHERE status = 'accepted' AND spec_id = 'ASTM F136' ORDER BY id LIMIT 1");
+    await post('engineer', '/api/bar-pieces', { heatId: heat.id, markedHeatNumber: heat.heat_number, tag: 'TST-REL-BAR', diameterMm: '25.4', lengthMm: '3000', location: 'Test rack' });
     const created = await post('engineer', '/api/parts', part);
     for (let index = 0; index < 3; index++) {
       const lot = await post('engineer', '/api/lots', { partId: created.body.id, plannedQty: 20 });

@@ -55,10 +55,10 @@ describe('the manufacturing record: parts, lots, material, operations, runs, non
     Object.assign(people, await signInPeople(saml, running.app, { engineer: 'kiw-0102', reviewer: 'kiw-0201', approver: 'kiw-0301', auditor: 'kiw-0401' }));
     const db = await running.database.connect();
     // Two accepted F136 heats from the demo scenario; the test receives its own bar of each.
-    const heats: Array<{ id: number }> = await db.query("SELECT id FROM heat WHERE status = 'accepted' AND spec_id = 'ASTM F136' ORDER BY id DESC LIMIT 2");
+    const heats: Array<{ id: number; heat_number: string }> = await db.query("SELECT id, heat_number FROM heat WHERE status = 'accepted' AND spec_id = 'ASTM F136' ORDER BY id DESC LIMIT 2");
     tags = ['TST-BAR-01', 'TST-BAR-02'];
     for (const [index, heat] of heats.entries()) {
-      const received = await post('engineer', '/api/bar-pieces', { heatId: heat.id, tag: tags[index], diameterMm: '25.4', lengthMm: '3000', location: 'Test rack' });
+      const received = await post('engineer', '/api/bar-pieces', { heatId: heat.id, markedHeatNumber: heat.heat_number, tag: tags[index], diameterMm: '25.4', lengthMm: '3000', location: 'Test rack' });
       if (received.status !== 201) throw new Error(`receiving test bar answered ${received.status}`);
     }
   });
@@ -119,7 +119,7 @@ describe('the manufacturing record: parts, lots, material, operations, runs, non
 
   it('when a quarantined heat’s bar is issued, then it is refused with the heat’s status', async () => {
     const [heat] = await running.database.dataSource.query("SELECT id FROM heat WHERE heat_number = 'OB-55208'");
-    const received = await post('engineer', '/api/bar-pieces', { heatId: heat.id, tag: 'TST-Q-01', diameterMm: '19.05', lengthMm: '1000', location: 'Quarantine cage' });
+    const received = await post('engineer', '/api/bar-pieces', { heatId: heat.id, markedHeatNumber: 'OB 55208', tag: 'TST-Q-01', diameterMm: '19.05', lengthMm: '1000', location: 'Quarantine cage' });
     expect(received.status).toBe(201);
     const refused = await post('engineer', `/api/lots/${lots[0]!.id}/material-issues`, { tag: 'TST-Q-01', lengthMm: '10' });
     expect(refused.status).toBe(422);

@@ -55,8 +55,8 @@ describe('recall investigations: frozen snapshot, holds, re-run difference, expo
     saml = await SamlTestDriver.create(running.config);
     Object.assign(people, await signInPeople(saml, running.app, { engineer: 'kiw-0102', reviewer: 'kiw-0201', approver: 'kiw-0301', auditor: 'kiw-0401', coordinator: 'kiw-0501' }));
     const db = await running.database.connect();
-    const [heat] = await db.query("SELECT id FROM heat WHERE status = 'accepted' AND spec_id = 'ASTM F136' ORDER BY id LIMIT 1");
-    pieceId = (await post('engineer', '/api/bar-pieces', { heatId: heat.id, tag: 'TST-RCL-BAR', diameterMm: '25.4', lengthMm: '3000', location: 'Test rack' })).body.id;
+    const [heat] = await db.query("SELECT id, heat_number FROM heat WHERE status = 'accepted' AND spec_id = 'ASTM F136' ORDER BY id LIMIT 1");
+    pieceId = (await post('engineer', '/api/bar-pieces', { heatId: heat.id, markedHeatNumber: heat.heat_number, tag: 'TST-RCL-BAR', diameterMm: '25.4', lengthMm: '3000', location: 'Test rack' })).body.id;
     partId = (await post('engineer', '/api/parts', part)).body.id;
     lots.push(await readyLot());
   });

@@ -27,14 +27,14 @@ describe('genealogy both ways on a hand-built history with a cut bar, a split, a
       return response.body;
     };
     const db = await running.database.connect();
-    const [h1, h2] = await db.query("SELECT id FROM heat WHERE status = 'accepted' AND spec_id = 'ASTM F136' ORDER BY id LIMIT 2");
+    const [h1, h2] = await db.query("SELECT id, heat_number FROM heat WHERE status = 'accepted' AND spec_id = 'ASTM F136' ORDER BY id LIMIT 2");
     ids.h1 = h1.id;
     ids.h2 = h2.id;
-    const b1 = await post('/api/bar-pieces', { heatId: h1.id, tag: 'TRC-B1', diameterMm: '25.4', lengthMm: '2000', location: 'T' });
+    const b1 = await post('/api/bar-pieces', { heatId: h1.id, markedHeatNumber: h1.heat_number, tag: 'TRC-B1', diameterMm: '25.4', lengthMm: '2000', location: 'T' });
     ids.b1 = b1.id;
     const cut = await post(`/api/bar-pieces/${b1.id}/cuts`, { pieces: [{ lengthMm: '1000' }, { lengthMm: '997' }] });
     ids.b1a = cut[0].id;
-    await post('/api/bar-pieces', { heatId: h2.id, tag: 'TRC-B2', diameterMm: '25.4', lengthMm: '1000', location: 'T' });
+    await post('/api/bar-pieces', { heatId: h2.id, markedHeatNumber: h2.heat_number, tag: 'TRC-B2', diameterMm: '25.4', lengthMm: '1000', location: 'T' });
     const part = await post('/api/parts', {
       partNumber: 'TRC-PART',
       revision: 'A',

@@ -9,10 +9,16 @@ test('an engineer receives a bar against a heat, cuts it, and prints its tag wit
   const dialog = await openedDialog(page, 'Receive bar');
   await dialog.getByLabel('Heat', { exact: true }).click();
   await page.getByRole('option', { name: /NV-24-1162/ }).click();
+  const marking = dialog.getByLabel('Heat number marked on the bar (read it off the bar; type or scan)');
+  await marking.fill('NV 24 1163');
   await dialog.getByLabel('Tag (scan or type)').fill('E2E-BAR-01');
   await dialog.getByLabel('Diameter (mm)').fill('25.4');
   await dialog.getByLabel('Length (mm)').fill('2000');
   await dialog.getByLabel('Location').fill('Rack C1');
+  await dialog.getByRole('button', { name: 'Receive bar' }).click();
+  await expect(dialog).toContainText('The bar is marked NV 24 1163, the certificate is for heat NV-24-1162');
+  await expect(dialog).toContainText('Does not match heat NV-24-1162');
+  await marking.fill('NV 24 1162');
   await dialog.getByRole('button', { name: 'Receive bar' }).click();
   await expect(page.getByRole('heading', { level: 1, name: 'Bar piece E2E-BAR-01' })).toBeVisible();
   await expect(page.getByText('2000 mm remaining')).toBeVisible();

@@ -20,7 +20,7 @@ test('an engineer opens a lot from a bar, records its operations, runs it with t
   // A fresh bar from an accepted F136 heat, and two companion lots brought to the same step through the API.
   const heats = await api(page, 'get', '/heats?status=accepted&search=NV-25&pageSize=1');
   const heatId = heats.items[0].id;
-  await api(page, 'post', '/bar-pieces', { heatId, tag: 'E2E-LOT-BAR-1', diameterMm: '25.4', lengthMm: '3000', location: 'E2E rack' });
+  await api(page, 'post', '/bar-pieces', { heatId, markedHeatNumber: heats.items[0].heatNumber, tag: 'E2E-LOT-BAR-1', diameterMm: '25.4', lengthMm: '3000', location: 'E2E rack' });
   const parts = await api(page, 'get', '/parts');
   const screw = parts.find((part: { partNumber: string }) => part.partNumber === 'KIW-CS35-40');
   const companions: string[] = [];

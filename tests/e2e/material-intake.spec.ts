@@ -8,7 +8,7 @@ test('an engineer receives a heat, attaches its certificate and enters results; 
   await signInAs(page, 'kiw-0101', '/heats');
   await expect(page.getByRole('heading', { level: 1, name: 'Heats and certificates' })).toBeVisible();
   await expect(page.getByRole('note', { name: 'Specification limits caution' })).toContainText('verify them against your licensed copy');
-  await expect(page.getByRole('table')).toContainText('NV-24-1107');
+  await expect(page.getByRole('table')).toContainText('BAW-7905');
 
   await page.getByRole('button', { name: 'Receive a heat' }).click();
   const dialog = await openedDialog(page, 'Receive a heat');

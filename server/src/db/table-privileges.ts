@@ -22,6 +22,8 @@ export const tableAccess: Record<string, TableAccess> = {
   recall_snapshot: 'append-only',
   // A heat a lot is made of stays a heat it is made of.
   lot_heat: 'append-only',
+  // A reviewer's acknowledgement of a screening finding, with its reason, is kept as given.
+  screening_acknowledgement: 'append-only',
 };
 
 const privilegesByAccess: Record<TableAccess, string> = {

@@ -11,6 +11,8 @@ import { CreateMailOutbox1764669600000 } from './1764669600000-create-mail-outbo
 import { CreateRecall1764673200000 } from './1764673200000-create-recall';
 import { CreateLotHeat1764676800000 } from './1764676800000-create-lot-heat';
 import { CreateRateLimit1764680400000 } from './1764680400000-create-rate-limit';
+import { CreateScreeningAcknowledgement1764684000000 } from './1764684000000-create-screening-acknowledgement';
+import { AddBarHeatMarking1764687600000 } from './1764687600000-add-bar-heat-marking';
 
 /** Every migration in the order it runs. Add new ones at the end. */
 export const migrations = [
@@ -27,4 +29,6 @@ export const migrations = [
   CreateRecall1764673200000,
   CreateLotHeat1764676800000,
   CreateRateLimit1764680400000,
+  CreateScreeningAcknowledgement1764684000000,
+  AddBarHeatMarking1764687600000,
 ];

@@ -6,6 +6,7 @@ interface PieceRow {
   id: number;
   tag: string;
   heat_id: number;
+  marked_heat_number: string | null;
   heat_number: string;
   heat_status: BarPiece['heat']['status'];
   spec_id: string;
@@ -23,7 +24,7 @@ interface PieceRow {
 }
 
 const pieceSelect = `
-  SELECT b.id, b.tag, b.heat_id, h.heat_number, h.status AS heat_status, h.spec_id, h.grade, parent.tag AS parent_tag,
+  SELECT b.id, b.tag, b.heat_id, b.marked_heat_number, h.heat_number, h.status AS heat_status, h.spec_id, h.grade, parent.tag AS parent_tag,
          (SELECT GROUP_CONCAT(child.tag ORDER BY child.tag SEPARATOR ',') FROM bar_piece child WHERE child.parent_id = b.id) AS child_tags,
          b.diameter_mm, b.length_mm, b.mass_kg, b.location, b.status, b.created_at, p.name AS created_by_name,
          (SELECT SUM(CASE m.kind WHEN 'issue' THEN m.length_mm ELSE -m.length_mm END) FROM material_movement m WHERE m.bar_piece_id = b.id) AS net_issued_mm
@@ -34,6 +35,7 @@ function toPiece(row: PieceRow): BarPiece {
     id: row.id,
     tag: row.tag,
     heat: { id: row.heat_id, heatNumber: row.heat_number, status: row.heat_status, specId: row.spec_id, grade: row.grade },
+    markedHeatNumber: row.marked_heat_number,
     parentTag: row.parent_tag,
     childTags: row.child_tags ? row.child_tags.split(',') : [],
     diameterMm: row.diameter_mm,
@@ -80,11 +82,11 @@ export async function listPieces(manager: EntityManager, query: BarListQuery): P
 
 export async function insertPiece(
   manager: EntityManager,
-  piece: { tag: string; heatId: number; parentId: number | null; diameterMm: string; lengthMm: string; massKg: string | null; location: string; createdBy: number },
+  piece: { tag: string; heatId: number; markedHeatNumber: string | null; parentId: number | null; diameterMm: string; lengthMm: string; massKg: string | null; location: string; createdBy: number },
 ): Promise<number> {
   const result: { insertId: number } = await manager.query(
-    'INSERT INTO bar_piece (tag, heat_id, parent_id, diameter_mm, length_mm, mass_kg, location, created_by) VALUES (?, ?, ?, ?, ?, ?, ?, ?)',
-    [piece.tag, piece.heatId, piece.parentId, piece.diameterMm, piece.lengthMm, piece.massKg, piece.location, piece.createdBy],
+    'INSERT INTO bar_piece (tag, heat_id, marked_heat_number, parent_id, diameter_mm, length_mm, mass_kg, location, created_by) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)',
+    [piece.tag, piece.heatId, piece.markedHeatNumber, piece.parentId, piece.diameterMm, piece.lengthMm, piece.massKg, piece.location, piece.createdBy],
   );
   return Number(result.insertId);
 }

@@ -1,6 +1,7 @@
 import type { DataSource } from 'typeorm';
 import { checkCut } from '@shared/domain/materials/bar-cut';
 import { DecimalE29 } from '@shared/domain/materials/e29-rounding';
+import { compareHeatMarking } from '@shared/domain/materials/heat-marking';
 import type { BarCut, BarListQuery, BarPiece, BarReceipt } from '@shared/schemas/materials';
 import { barCutSchema, barReceiptSchema } from '@shared/schemas/materials';
 import type { Person } from '@shared/schemas/people';
@@ -29,16 +30,41 @@ export async function barPiece(dataSource: DataSource, id: number): Promise<BarP
 
 export async function receiveBar(dataSource: DataSource, raw: BarReceipt, person: Person, actor: Actor, origin: RequestOrigin): Promise<BarPiece> {
   const input = barReceiptSchema.parse(raw);
-  return inTransaction(dataSource, async (manager) => {
-    const heat = await findHeat(manager, input.heatId, true);
-    if (!heat) throw AppError.rule('Choose a received heat', { heatId: 'Unknown heat' });
-    if (heat.status === 'rejected') throw AppError.rule(`Heat ${heat.heatNumber} is rejected; its bar cannot be taken into stock`, { heatId: 'Rejected heat' });
-    if (await bars.findPieceByTag(manager, input.tag)) throw new AppError('CONFLICT', `Tag ${input.tag} is already in use`, { tag: 'Already in use' });
-    const id = await bars.insertPiece(manager, { ...input, parentId: null, createdBy: person.id });
-    const piece = (await bars.findPiece(manager, id))!;
-    await appendLedgerEvent(manager, { actor, action: 'bar.received', entity: { type: 'bar-piece', id: piece.tag }, after: piece, origin });
-    return piece;
-  });
+  let mismatch: { heatId: number; heatNumber: string; problem: string } | null = null;
+  try {
+    return await inTransaction(dataSource, async (manager) => {
+      mismatch = null;
+      const heat = await findHeat(manager, input.heatId, true);
+      if (!heat) throw AppError.rule('Choose a received heat', { heatId: 'Unknown heat' });
+      if (heat.status === 'rejected') throw AppError.rule(`Heat ${heat.heatNumber} is rejected; its bar cannot be taken into stock`, { heatId: 'Rejected heat' });
+      const marking = compareHeatMarking(input.markedHeatNumber, heat.heatNumber);
+      if (!marking.matches) {
+        mismatch = { heatId: heat.id, heatNumber: heat.heatNumber, problem: marking.problem! };
+        throw AppError.rule(`${marking.problem}. The bar was not taken into stock; set it aside and ask QA.`, { markedHeatNumber: `Does not match heat ${heat.heatNumber}` });
+      }
+      if (await bars.findPieceByTag(manager, input.tag)) throw new AppError('CONFLICT', `Tag ${input.tag} is already in use`, { tag: 'Already in use' });
+      const id = await bars.insertPiece(manager, { ...input, parentId: null, createdBy: person.id });
+      const piece = (await bars.findPiece(manager, id))!;
+      await appendLedgerEvent(manager, { actor, action: 'bar.received', entity: { type: 'bar-piece', id: piece.tag }, after: piece, origin });
+      return piece;
+    });
+  } catch (error) {
+    // A mismatch refuses the receipt, but is itself recorded: someone read a bar that does not
+    // belong to the heat it was about to be booked against.
+    const refused = mismatch as { heatId: number; heatNumber: string; problem: string } | null;
+    if (refused) {
+      await inTransaction(dataSource, (manager) =>
+        appendLedgerEvent(manager, {
+          actor,
+          action: 'bar.heat-marking-mismatch',
+          entity: { type: 'heat', id: refused.heatId },
+          after: { tag: input.tag, markedHeatNumber: input.markedHeatNumber, heatNumber: refused.heatNumber, problem: refused.problem },
+          origin,
+        }),
+      );
+    }
+    throw error;
+  }
 }
 
 /** Cuts a piece into child pieces; the children and the kerf must account for the whole piece. */
@@ -55,7 +81,7 @@ export async function cutBar(dataSource: DataSource, pieceId: number, raw: BarCu
       const tag = childTag(parent.tag, index);
       if (await bars.findPieceByTag(manager, tag)) throw new AppError('CONFLICT', `Tag ${tag} is already in use`, { pieces: `Tag ${tag} exists` });
       const share = parent.massKg ? new DecimalE29(parent.massKg).times(piece.lengthMm).div(parent.lengthMm).toDecimalPlaces(3).toFixed(3) : null;
-      const id = await bars.insertPiece(manager, { tag, heatId: parent.heat.id, parentId: parent.id, diameterMm: parent.diameterMm, lengthMm: piece.lengthMm, massKg: share, location: piece.location || parent.location, createdBy: person.id });
+      const id = await bars.insertPiece(manager, { tag, heatId: parent.heat.id, markedHeatNumber: parent.markedHeatNumber, parentId: parent.id, diameterMm: parent.diameterMm, lengthMm: piece.lengthMm, massKg: share, location: piece.location || parent.location, createdBy: person.id });
       children.push((await bars.findPiece(manager, id))!);
     }
     await bars.markCut(manager, parent.id);

@@ -2,6 +2,7 @@ import type { HeatSummary } from '@shared/schemas/materials';
 import type { SignableRecordType } from '../signatures/signable-records';
 import { appendLedgerEvent } from '../ledger/ledger.repository';
 import * as heats from './heats.repository';
+import { openFindings } from './certificate-screening.service';
 
 const statusByMeaning = { accepted: 'accepted', rejected: 'rejected', quarantined: 'quarantined' } as const;
 
@@ -39,15 +40,19 @@ export const heatRecordType: SignableRecordType = {
       status: heat.status,
       supplierApproval: heat.supplier.approval,
       hasCertificate: certificates.length > 0,
+      openFindings: await openFindings(manager, heatId),
     };
   },
   refusal({ meaning, record }) {
-    const facts = record as unknown as { status: HeatSummary['status']; supplierApproval: string; hasCertificate: boolean; content: { verdict: string } };
+    const facts = record as unknown as { status: HeatSummary['status']; supplierApproval: string; hasCertificate: boolean; openFindings: string[]; content: { verdict: string } };
     if (facts.status === 'accepted' || facts.status === 'rejected') return `The heat is already ${facts.status}`;
     if (meaning === 'accepted') {
       if (facts.supplierApproval === 'disqualified') return 'Heats from a disqualified supplier cannot be accepted';
       if (!facts.hasCertificate) return 'Attach the mill certificate before accepting the heat';
       if (facts.content.verdict !== 'conforms') return `Only a conforming heat can be accepted; its evaluation says ${facts.content.verdict}`;
+      if (facts.openFindings.length) {
+        return `Acknowledge the certificate screening finding${facts.openFindings.length > 1 ? 's' : ''} on this heat first (${facts.openFindings.length} open): ${facts.openFindings[0]}`;
+      }
     }
     return null;
   },

@@ -12,6 +12,7 @@ import { currentSpecifications, storedSpecification } from './specification-libr
 import * as heats from './heats.repository';
 import { findSupplier } from './suppliers.repository';
 import { inspectCertificateFile } from './certificate-files';
+import { screeningOfHeat } from './certificate-screening.service';
 
 export async function listHeats(dataSource: DataSource, query: HeatListQuery) {
   const { items, total } = await heats.listHeats(dataSource.manager, query);
@@ -32,6 +33,7 @@ export async function heatDetail(dataSource: DataSource, id: number): Promise<He
     evaluation: (await heats.latestEvaluation(manager, id))?.evaluation ?? null,
     certificates,
     crossChecks: { identicalResultsOn: await heats.heatsWithIdenticalResults(manager, id), sameDocumentOn: [...sameDocumentOn].sort() },
+    screening: await screeningOfHeat(manager, id),
   };
 }
 

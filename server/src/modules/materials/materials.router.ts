@@ -20,6 +20,7 @@ import {
   type HeatListQuery,
   type HeatResults,
 } from '@shared/schemas/materials';
+import { screeningAcknowledgementSchema, type ScreeningAcknowledgementInput } from '@shared/schemas/screening';
 import type { AppContext } from '../../app-context';
 import { AppError } from '../../errors';
 import { actorOf, currentPerson, originOf, requireAction } from '../../middleware/access';
@@ -32,6 +33,7 @@ import { changeSupplierApproval, createSupplier, listSuppliers } from './supplie
 import { elementTrend } from './trends.service';
 import { importResults } from './results-import.service';
 import { draftRevision, listDrafts } from './specification-drafts.service';
+import { acknowledgeFinding, screeningOfSupplier } from './certificate-screening.service';
 
 const certificateUpload = singleFileUpload('certificate', CERTIFICATE_MAX_BYTES, 'certificate');
 
@@ -78,6 +80,19 @@ export function materialsRouter(context: AppContext): Router {
   router.get('/heats/:heatId', requireAction('materials.read'), validate({ params: heatIdParamsSchema }), async (_req, res) => {
     res.json(await heatDetail(dataSource(), (res.locals.valid.params as { heatId: number }).heatId));
   });
+  router.get('/suppliers/:supplierId/screening', requireAction('materials.read'), validate({ params: supplierIdParamsSchema }), async (_req, res) => {
+    res.json(await screeningOfSupplier(dataSource().manager, (res.locals.valid.params as { supplierId: number }).supplierId));
+  });
+  router.post(
+    '/heats/:heatId/screening-acknowledgements',
+    requireAction('materials.disposition'),
+    validate({ params: heatIdParamsSchema, body: screeningAcknowledgementSchema }),
+    async (req, res) => {
+      const { heatId } = res.locals.valid.params as { heatId: number };
+      const body = res.locals.valid.body as ScreeningAcknowledgementInput;
+      res.status(201).json(await acknowledgeFinding(dataSource(), heatId, body, currentPerson(req)!, actorOf(req, 'materials.disposition'), originOf(req)));
+    },
+  );
   router.put('/heats/:heatId/results', requireAction('materials.write'), validate({ params: heatIdParamsSchema, body: heatResultsSchema }), async (req, res) => {
     const { heatId } = res.locals.valid.params as { heatId: number };
     res.json(await recordResults(dataSource(), heatId, res.locals.valid.body as HeatResults, currentPerson(req)!, actorOf(req, 'materials.write'), originOf(req)));
