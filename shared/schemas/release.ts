@@ -25,3 +25,22 @@ export const labelSheetQuerySchema = z.object({
   heightMm: z.coerce.number().min(20, 'At least 20 mm high').max(297).default(50),
 });
 export type LabelSheetQuery = z.infer<typeof labelSheetQuerySchema>;
+
+/** A ledger event on a lot (or a lot its units came through), as the release review shows it. */
+export interface TrailEvent {
+  seq: number;
+  occurredAt: string;
+  actor: string;
+  action: string;
+  lot: string;
+  reason: string | null;
+}
+
+/** A lot's audit trail since it was opened, and how far the latest release review covered it. */
+export interface AuditTrail {
+  events: TrailEvent[];
+  /** The last event the latest review covered, or null before any review. */
+  reviewedThroughSeq: number | null;
+  /** Events after that review (which void it). */
+  afterReview: TrailEvent[];
+}

@@ -1,7 +1,7 @@
 import { keepPreviousData, queryOptions } from '@tanstack/vue-query';
 import { z } from 'zod';
 import type { Readiness } from '@shared/domain/release/readiness';
-import type { LabelMovement, ReleaseQueueQuery } from '@shared/schemas/release';
+import type { AuditTrail, LabelMovement, ReleaseQueueQuery } from '@shared/schemas/release';
 import { apiRequest, typed } from './http';
 
 
@@ -14,6 +14,7 @@ export interface ReleaseView {
   dossierHash: string;
   submissions: Array<{ id: number; submittedAt: string; submittedBy: string; outcome: string; changedSinceSubmission: boolean }>;
   reviewedCurrent: boolean;
+  auditTrail: AuditTrail;
 }
 
 export interface QueueItem {

@@ -18,6 +18,11 @@ test('a QA reviewer and then a different QA approver sign a submitted lot, which
   await expect(checklist.locator('.fail')).toHaveCount(0);
   await page.getByRole('button', { name: 'Show the release dossier' }).click();
   await expect(page.getByRole('columnheader', { name: 'certificates' })).toBeVisible();
+  const trail = page.getByRole('region', { name: 'Audit trail' });
+  await expect(trail).toContainText('The reviewer’s signature will record that they reviewed them');
+  await trail.getByRole('button', { name: 'Show the audit trail' }).click();
+  await expect(trail.getByRole('list', { name: 'Audit trail events' })).toContainText('lot.submitted-for-release');
+  await page.screenshot({ path: 'test-results/release-audit-trail.png', fullPage: true });
   await page.getByRole('button', { name: 'Sign as reviewed' }).click();
   await expect(page.getByRole('dialog', { name: 'Sign: Reviewed' })).toContainText('Release of lot');
   await signWithPassword(page, 'Reviewed', 'Aisling Ní Bhriain — Reviewed', 'aisling-demo');

@@ -3,7 +3,8 @@ import { contentHash } from '@shared/domain/signatures';
 import type { SignableRecordType } from '../signatures/signable-records';
 import { signaturesFor } from '../signatures/signatures.repository';
 import { appendLedgerEvent, sha256Hex } from '../ledger/ledger.repository';
-import { releaseDossierIn } from './release-dossier';
+import { lotAuditTrail } from './audit-trail';
+import { ancestry, releaseDossierIn } from './release-dossier';
 import { queueReleaseMail } from './release-mails';
 
 const actions = { reviewed: 'release.review', 'approved-for-release': 'release.approve', rejected: 'release.reject' } as const;
@@ -27,6 +28,7 @@ export const lotReleaseRecordType: SignableRecordType = {
     const dossier = await releaseDossierIn(manager, lot.id);
     const hash = contentHash(dossier.content, sha256Hex);
     const reviews = (await signaturesFor(manager, 'lot-release', recordId)).filter((row) => row.meaning === 'reviewed');
+    const trail = await lotAuditTrail(manager, lot.id, await ancestry(manager, lot.id));
     return {
       title: `Release of lot ${lot.lot_number}`,
       content: dossier.content,
@@ -34,17 +36,22 @@ export const lotReleaseRecordType: SignableRecordType = {
       status: lot.status,
       ready: dossier.readiness.ready,
       reviewedCurrent: reviews.some((row) => row.content_hash === hash),
+      trailAfterReview: trail.afterReview.map((event) => `#${event.seq} ${event.action} by ${event.actor}`),
     };
   },
   refusal({ meaning, record }) {
-    const facts = record as unknown as { status: string; ready: boolean; reviewedCurrent: boolean };
+    const facts = record as unknown as { status: string; ready: boolean; reviewedCurrent: boolean; trailAfterReview: string[] };
+    const reviewVoid = !facts.reviewedCurrent || facts.trailAfterReview.length > 0;
     if (meaning === 'reviewed') {
-      if (facts.status !== 'submitted' && !(facts.status === 'reviewed' && !facts.reviewedCurrent)) return `The lot is ${facts.status}, not awaiting review`;
+      if (facts.status !== 'submitted' && !(facts.status === 'reviewed' && reviewVoid)) return `The lot is ${facts.status}, not awaiting review`;
       if (!facts.ready) return 'The lot is no longer ready for release; see its checklist';
     }
     if (meaning === 'approved-for-release') {
       if (facts.status !== 'reviewed') return `The lot is ${facts.status}, not reviewed`;
       if (!facts.reviewedCurrent) return 'The lot changed after it was reviewed; it must be reviewed again';
+      if (facts.trailAfterReview.length) {
+        return `The lot's audit trail has ${facts.trailAfterReview.length} event(s) after the review (${facts.trailAfterReview.join('; ')}); it must be reviewed again`;
+      }
       if (!facts.ready) return 'The lot is no longer ready for release; see its checklist';
     }
     if (meaning === 'rejected' && facts.status !== 'submitted' && facts.status !== 'reviewed') return `The lot is ${facts.status}; only a lot under review can be rejected`;
@@ -54,6 +61,8 @@ export const lotReleaseRecordType: SignableRecordType = {
     const lotId = Number(recordId);
     const [lot]: Array<{ status: string }> = await manager.query('SELECT status FROM production_lot WHERE id = ? FOR UPDATE', [lotId]);
     const next = meaning === 'reviewed' ? 'reviewed' : meaning === 'approved-for-release' ? 'released' : 'open';
+    // The review records how far the lot's audit trail went when it was signed.
+    const trail = meaning === 'reviewed' ? await lotAuditTrail(manager, lotId, await ancestry(manager, lotId)) : null;
     if (meaning === 'approved-for-release') {
       const dossier = await releaseDossierIn(manager, lotId);
       await manager.query("UPDATE production_lot SET status = 'released', released_qty = ? WHERE id = ?", [dossier.lot.onHand ?? 0, lotId]);
@@ -70,7 +79,7 @@ export const lotReleaseRecordType: SignableRecordType = {
       action: `lot.${meaning === 'approved-for-release' ? 'released' : meaning}`,
       entity: { type: 'lot', id: lotId },
       before: { status: lot?.status ?? null },
-      after: { status: next },
+      after: { status: next, ...(trail ? { auditTrail: { events: trail.events.length, throughSeq: trail.events.at(-1)?.seq ?? 0 } } : {}) },
       reason,
     });
   },
