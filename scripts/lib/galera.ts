@@ -5,7 +5,7 @@
 import { cpSync, existsSync, mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { MariadbServer } from './mariadb';
-import { ensureDebianPackages, log, runCommand } from './run';
+import { ensureDebianPackages, log, processAlive, runCommand } from './run';
 
 const GALERA_PROVIDER = '/usr/lib/galera/libgalera_smm.so';
 const NODE_READY_CHECK = resolve('scripts/cluster/node-ready.sh');
@@ -133,7 +133,7 @@ export class GaleraNode {
     const pid = this.server.pid();
     if (pid === null) throw new Error(`${this.name} has no pid file`);
     process.kill(pid, 'SIGKILL');
-    while (isAlive(pid)) await new Promise((done) => setTimeout(done, 50));
+    while (processAlive(pid)) await new Promise((done) => setTimeout(done, 50));
   }
 
   /** The last committed position (cluster uuid:seqno) recorded by a stopped node, from --wsrep-recover. */
@@ -169,15 +169,6 @@ export class GaleraNode {
 
 function groupPort(layout: ClusterLayout, index: number): number {
   return layout.portBase + 1300 + index;
-}
-
-function isAlive(pid: number): boolean {
-  try {
-    process.kill(pid, 0);
-    return true;
-  } catch {
-    return false;
-  }
 }
 
 export class GaleraCluster {
@@ -298,7 +289,7 @@ export class GaleraCluster {
     const file = `${this.proxyDir}/haproxy.pid`;
     if (!existsSync(file)) return null;
     const pid = Number(readFileSync(file, 'utf8').trim());
-    return Number.isInteger(pid) && pid > 0 && isAlive(pid) ? pid : null;
+    return Number.isInteger(pid) && pid > 0 && processAlive(pid) ? pid : null;
   }
 
   async startProxy(): Promise<void> {

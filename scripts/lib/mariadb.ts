@@ -4,7 +4,7 @@ import { existsSync, mkdirSync, readFileSync, rmSync } from 'node:fs';
 import { createHash } from 'node:crypto';
 import { resolve } from 'node:path';
 import { userInfo } from 'node:os';
-import { ensureDebianPackages, findExecutable, log, runCommand } from './run';
+import { ensureDebianPackages, findExecutable, log, processAlive, runCommand } from './run';
 
 export interface MariadbServerOptions {
   /** Folder that holds data/, the socket, the pid file and the error log. */
@@ -188,13 +188,4 @@ function portInUse(host: string, port: number): Promise<boolean> {
     });
     socket.once('error', () => resolve(false));
   });
-}
-
-function processAlive(pid: number): boolean {
-  try {
-    process.kill(pid, 0);
-    return true;
-  } catch {
-    return false;
-  }
 }

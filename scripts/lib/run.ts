@@ -38,6 +38,16 @@ export function findExecutable(name: string): string | null {
   return null;
 }
 
+/** Whether a process with this id exists (signal 0 checks without signalling). */
+export function processAlive(pid: number): boolean {
+  try {
+    process.kill(pid, 0);
+    return true;
+  } catch {
+    return false;
+  }
+}
+
 export function isRoot(): boolean {
   return typeof process.getuid === 'function' && process.getuid() === 0;
 }
