@@ -19,6 +19,8 @@ export interface ReleaseDossier {
   /** Exactly what the release signatures cover: the record as evaluated, without volatile times of reading. */
   content: Record<string, unknown>;
   authorIds: number[];
+  /** The lot and the lots its units came through, the lot first. */
+  lineage: number[];
 }
 
 /** Builds the release dossier of a lot: its record with its genealogy, and the readiness checklist. */
@@ -148,5 +150,5 @@ export async function releaseDossierIn(manager: EntityManager, lotId: number): P
     [...lineage, ...lineage, ...lineage, lotId],
   );
   const authorIds = [...new Set([...(authors?.ids ?? '').split(',').filter(Boolean).map(Number), ...runs.map((run) => run.recorded_by)])];
-  return { lot, readiness, content, authorIds };
+  return { lot, readiness, content, authorIds, lineage };
 }

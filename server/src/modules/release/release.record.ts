@@ -28,7 +28,7 @@ export const lotReleaseRecordType: SignableRecordType = {
     const dossier = await releaseDossierIn(manager, lot.id);
     const hash = contentHash(dossier.content, sha256Hex);
     const reviews = (await signaturesFor(manager, 'lot-release', recordId)).filter((row) => row.meaning === 'reviewed');
-    const trail = await lotAuditTrail(manager, lot.id, await ancestry(manager, lot.id));
+    const trail = await lotAuditTrail(manager, lot.id, dossier.lineage);
     return {
       title: `Release of lot ${lot.lot_number}`,
       content: dossier.content,

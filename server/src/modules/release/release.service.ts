@@ -8,7 +8,7 @@ import { AppError } from '../../errors';
 import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, sha256Hex, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
 import { signaturesFor } from '../signatures/signatures.repository';
-import { ancestry, releaseDossier, releaseDossierIn } from './release-dossier';
+import { releaseDossier, releaseDossierIn } from './release-dossier';
 import { packetData, renderReleasePacket } from './release-packet';
 import { queueReleaseMail } from './release-mails';
 
@@ -32,7 +32,7 @@ export async function releaseView(dataSource: DataSource, lotId: number) {
     dossierHash: hash,
     submissions: submissions.map((row) => ({ id: row.id, submittedAt: new Date(row.submitted_at).toISOString(), submittedBy: row.name, outcome: row.outcome, changedSinceSubmission: row.outcome === 'pending' && row.dossier_hash !== hash })),
     reviewedCurrent: signatures.some((row) => row.meaning === 'reviewed' && row.content_hash === hash),
-    auditTrail: await lotAuditTrail(dataSource.manager, lotId, await ancestry(dataSource.manager, lotId)),
+    auditTrail: await lotAuditTrail(dataSource.manager, lotId, dossier.lineage),
   };
 }
 
