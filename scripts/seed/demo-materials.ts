@@ -7,6 +7,7 @@ import { receiveBar } from '../../server/src/modules/materials/bar-stock.service
 import type { Person } from '@shared/schemas/people';
 import { demoHeatHistory, type DemoHeat } from './demo-heat-history';
 import { signAsDemoPerson } from './demo-signature';
+import { seedDemoCheckAnalysis } from './demo-check-analysis';
 import { registerProductRecordTypes } from '../../server/src/modules/signable-record-types';
 
 /** Invented mills; none is a real firm. */
@@ -142,6 +143,7 @@ export async function seedDemoMaterials(dataSource: DataSource): Promise<void> {
   }
   for (const heat of bunchingMillHeats(mills.indexOf(bunchingMill))) await enterHeat(dataSource, heat, supplierIds, engineer);
   await seedDemoBarStock(dataSource, accepted, engineer);
+  await seedDemoCheckAnalysis(dataSource, { castellane: supplierIds[1]! }, approver, engineer);
 }
 
 /** Bar from every accepted heat: six 3 m bars of each, in the bar store (production lots draw on them). */

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { heatScreeningSchema } from './screening';
+import { heatCheckAnalysisSchema } from './check-analysis';
 import { checkedString } from './checked-string';
 import { productForms } from '../domain/materials/specification';
 import { decimalPattern } from '../domain/materials/e29-rounding';
@@ -101,6 +102,7 @@ export const heatDetailSchema = heatSummarySchema.extend({
   crossChecks: z.object({ identicalResultsOn: z.array(z.string()), sameDocumentOn: z.array(z.string()) }),
   /** Screening of all certificates of the heat's supplier and specification (findings involving this heat). */
   screening: heatScreeningSchema,
+  checkAnalysis: heatCheckAnalysisSchema,
 });
 export type HeatDetail = z.infer<typeof heatDetailSchema>;
 

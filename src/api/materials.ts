@@ -4,6 +4,7 @@ import type { Specification } from '@shared/domain/materials/specification';
 import { heatDetailSchema, heatPageSchema, heatSummarySchema, resultsImportReportSchema, specificationDraftViewSchema, type SpecificationDraftInput, supplierSchema, trendSchema, type ResultsImport, type HeatCreate, type HeatListQuery, type HeatResults, type TrendQuery } from '@shared/schemas/materials';
 import { apiRequest, apiUpload } from './http';
 import { heatScreeningSchema, supplierScreeningSchema, type ScreeningAcknowledgementInput } from '@shared/schemas/screening';
+import { checkRuleSchema, heatAwaitingCheckSchema, heatCheckAnalysisSchema, type CheckAnalysisInput, type CheckRuleInput } from '@shared/schemas/check-analysis';
 
 export const materialKeys = {
   all: ['materials'] as const,
@@ -13,6 +14,8 @@ export const materialKeys = {
   specifications: () => [...materialKeys.all, 'specifications'] as const,
   trend: (query: TrendQuery) => [...materialKeys.all, 'trend', query] as const,
   drafts: () => [...materialKeys.all, 'specification-drafts'] as const,
+  checkRules: () => [...materialKeys.all, 'check-analysis-rules'] as const,
+  checksDue: () => [...materialKeys.all, 'check-analyses-due'] as const,
 };
 
 export const heatsQuery = (query: HeatListQuery) =>
@@ -59,3 +62,10 @@ export const importResults = (request: ResultsImport) => apiRequest('/heat-resul
 export const specificationDraftsQuery = () =>
   queryOptions({ queryKey: materialKeys.drafts(), queryFn: ({ signal }) => apiRequest('/specification-drafts', z.array(specificationDraftViewSchema), { signal }) });
 export const draftSpecificationRevision = (draft: SpecificationDraftInput) => apiRequest('/specification-drafts', specificationDraftViewSchema, { method: 'POST', body: draft });
+
+const checkRulesSchema = z.object({ rules: z.array(checkRuleSchema) });
+export const checkRulesQuery = () => queryOptions({ queryKey: materialKeys.checkRules(), queryFn: ({ signal }) => apiRequest('/check-analysis-rules', checkRulesSchema, { signal }) });
+export const setCheckRule = (input: CheckRuleInput) => apiRequest('/check-analysis-rules', checkRulesSchema, { method: 'POST', body: input });
+export const checksDueQuery = () =>
+  queryOptions({ queryKey: materialKeys.checksDue(), queryFn: ({ signal }) => apiRequest('/check-analyses/due', z.object({ heats: z.array(heatAwaitingCheckSchema) }), { signal }) });
+export const recordCheckAnalysis = (heatId: number, input: CheckAnalysisInput) => apiRequest(`/heats/${heatId}/check-analyses`, heatCheckAnalysisSchema, { method: 'POST', body: input });

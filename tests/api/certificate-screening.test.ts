@@ -88,6 +88,16 @@ describe('certificate screening', () => {
     const db = await running.database.connect();
     const events = await db.query("SELECT reason FROM audit_event WHERE action = 'heat.screening-finding-acknowledged' AND entity_id = ?", [String(flagged)]);
     expect(events).toEqual([{ reason }]);
+    // The mill is conditionally approved: the demo's plant-wide rule wants our own check analysis first.
+    const due = await signThroughApi(saml, people.reviewer, { recordType: 'heat', recordId: String(flagged), meaning: 'accepted' });
+    expect(due.status).toBe(422);
+    expect(due.body.error.message).toMatch(/^A check analysis of this heat is due \(Every heat from a conditionally approved supplier is checked\)/);
+    const checked = await people.engineer.agent
+      .post(`/api/heats/${flagged}/check-analyses`)
+      .set('X-CSRF-Token', people.engineer.csrf)
+      .send({ laboratory: 'Tarnbridge materials laboratory', reportReference: 'TML-API-1', chemistry: { O: '0.38', Fe: '0.25' } });
+    expect(checked.status).toBe(201);
+    expect(checked.body.status).toBe('conforms');
     const accepted = await signThroughApi(saml, people.reviewer, { recordType: 'heat', recordId: String(flagged), meaning: 'accepted' });
     expect(accepted.status).toBe(201);
     expect((await detail(flagged)).status).toBe('accepted');

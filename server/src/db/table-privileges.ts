@@ -24,6 +24,9 @@ export const tableAccess: Record<string, TableAccess> = {
   lot_heat: 'append-only',
   // A reviewer's acknowledgement of a screening finding, with its reason, is kept as given.
   screening_acknowledgement: 'append-only',
+  // Check analysis rules change by a new row; check results are kept as entered.
+  check_analysis_rule: 'append-only',
+  check_analysis: 'append-only',
 };
 
 const privilegesByAccess: Record<TableAccess, string> = {

@@ -12,6 +12,7 @@ import { CreateRecall1764673200000 } from './1764673200000-create-recall';
 import { CreateLotHeat1764676800000 } from './1764676800000-create-lot-heat';
 import { CreateRateLimit1764680400000 } from './1764680400000-create-rate-limit';
 import { CreateScreeningAcknowledgement1764684000000 } from './1764684000000-create-screening-acknowledgement';
+import { CreateCheckAnalysis1764691200000 } from './1764691200000-create-check-analysis';
 import { AddBarHeatMarking1764687600000 } from './1764687600000-add-bar-heat-marking';
 
 /** Every migration in the order it runs. Add new ones at the end. */
@@ -31,4 +32,5 @@ export const migrations = [
   CreateRateLimit1764680400000,
   CreateScreeningAcknowledgement1764684000000,
   AddBarHeatMarking1764687600000,
+  CreateCheckAnalysis1764691200000,
 ];

@@ -3,6 +3,7 @@ import type { SignableRecordType } from '../signatures/signable-records';
 import { appendLedgerEvent } from '../ledger/ledger.repository';
 import * as heats from './heats.repository';
 import { openFindings } from './certificate-screening.service';
+import { checkAnalysisOfHeat, checkAnalysisRefusal } from './check-analysis.service';
 
 const statusByMeaning = { accepted: 'accepted', rejected: 'rejected', quarantined: 'quarantined' } as const;
 
@@ -24,6 +25,8 @@ export const heatRecordType: SignableRecordType = {
     if (!heat) return null;
     const evaluation = (await heats.latestEvaluation(manager, heatId))?.evaluation as { verdict?: string; items?: Array<{ item: string; rounded: string | null; verdict: string }> } | undefined;
     const certificates = await heats.heatCertificates(manager, heatId);
+    const check = await checkAnalysisOfHeat(manager, heatId);
+    const latestCheck = check.analyses[0];
     return {
       title: `Heat ${heat.heatNumber} from ${heat.supplier.name} (${heat.spec.id} ${heat.spec.revision}${heat.spec.grade ? ` grade ${heat.spec.grade}` : ''})`,
       content: {
@@ -35,16 +38,18 @@ export const heatRecordType: SignableRecordType = {
         verdict: evaluation?.verdict ?? 'not evaluated',
         items: (evaluation?.items ?? []).map((item) => `${item.item}: ${item.rounded ?? '—'} ${item.verdict}`),
         certificates: certificates.map((certificate) => certificate.sha256),
+        checkAnalysis: latestCheck ? `${latestCheck.evaluation.verdict}: ${latestCheck.laboratory} report ${latestCheck.reportReference}` : check.required ? 'due, not recorded' : 'not required',
       },
       authorIds: [heat.receivedById, ...(await heats.evaluatorIds(manager, heatId))],
       status: heat.status,
       supplierApproval: heat.supplier.approval,
       hasCertificate: certificates.length > 0,
       openFindings: await openFindings(manager, heatId),
+      checkRefusal: await checkAnalysisRefusal(manager, heatId),
     };
   },
   refusal({ meaning, record }) {
-    const facts = record as unknown as { status: HeatSummary['status']; supplierApproval: string; hasCertificate: boolean; openFindings: string[]; content: { verdict: string } };
+    const facts = record as unknown as { status: HeatSummary['status']; supplierApproval: string; hasCertificate: boolean; openFindings: string[]; checkRefusal: string | null; content: { verdict: string } };
     if (facts.status === 'accepted' || facts.status === 'rejected') return `The heat is already ${facts.status}`;
     if (meaning === 'accepted') {
       if (facts.supplierApproval === 'disqualified') return 'Heats from a disqualified supplier cannot be accepted';
@@ -53,6 +58,7 @@ export const heatRecordType: SignableRecordType = {
       if (facts.openFindings.length) {
         return `Acknowledge the certificate screening finding${facts.openFindings.length > 1 ? 's' : ''} on this heat first (${facts.openFindings.length} open): ${facts.openFindings[0]}`;
       }
+      if (facts.checkRefusal) return facts.checkRefusal;
     }
     return null;
   },

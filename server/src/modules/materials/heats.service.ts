@@ -13,6 +13,7 @@ import * as heats from './heats.repository';
 import { findSupplier } from './suppliers.repository';
 import { inspectCertificateFile } from './certificate-files';
 import { screeningOfHeat } from './certificate-screening.service';
+import { checkAnalysisOfHeat } from './check-analysis.service';
 
 export async function listHeats(dataSource: DataSource, query: HeatListQuery) {
   const { items, total } = await heats.listHeats(dataSource.manager, query);
@@ -34,6 +35,7 @@ export async function heatDetail(dataSource: DataSource, id: number): Promise<He
     certificates,
     crossChecks: { identicalResultsOn: await heats.heatsWithIdenticalResults(manager, id), sameDocumentOn: [...sameDocumentOn].sort() },
     screening: await screeningOfHeat(manager, id),
+    checkAnalysis: await checkAnalysisOfHeat(manager, id),
   };
 }
 

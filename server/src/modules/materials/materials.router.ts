@@ -34,6 +34,8 @@ import { elementTrend } from './trends.service';
 import { importResults } from './results-import.service';
 import { draftRevision, listDrafts } from './specification-drafts.service';
 import { acknowledgeFinding, screeningOfSupplier } from './certificate-screening.service';
+import { checkAnalysisInputSchema, checkRuleInputSchema, type CheckAnalysisInput, type CheckRuleInput } from '@shared/schemas/check-analysis';
+import { currentRules, heatsAwaitingCheck, recordCheckAnalysis, setCheckRule } from './check-analysis.service';
 
 const certificateUpload = singleFileUpload('certificate', CERTIFICATE_MAX_BYTES, 'certificate');
 
@@ -93,6 +95,20 @@ export function materialsRouter(context: AppContext): Router {
       res.status(201).json(await acknowledgeFinding(dataSource(), heatId, body, currentPerson(req)!, actorOf(req, 'materials.disposition'), originOf(req)));
     },
   );
+  router.get('/check-analysis-rules', requireAction('materials.read'), async (_req, res) => {
+    res.json({ rules: await currentRules(dataSource().manager) });
+  });
+  router.post('/check-analysis-rules', requireAction('suppliers.manage'), validate({ body: checkRuleInputSchema }), async (req, res) => {
+    const rules = await setCheckRule(dataSource(), res.locals.valid.body as CheckRuleInput, currentPerson(req)!, actorOf(req, 'suppliers.manage'), originOf(req));
+    res.status(201).json({ rules });
+  });
+  router.get('/check-analyses/due', requireAction('materials.read'), async (_req, res) => {
+    res.json({ heats: await heatsAwaitingCheck(dataSource().manager) });
+  });
+  router.post('/heats/:heatId/check-analyses', requireAction('materials.write'), validate({ params: heatIdParamsSchema, body: checkAnalysisInputSchema }), async (req, res) => {
+    const { heatId } = res.locals.valid.params as { heatId: number };
+    res.status(201).json(await recordCheckAnalysis(dataSource(), heatId, res.locals.valid.body as CheckAnalysisInput, currentPerson(req)!, actorOf(req, 'materials.write'), originOf(req)));
+  });
   router.put('/heats/:heatId/results', requireAction('materials.write'), validate({ params: heatIdParamsSchema, body: heatResultsSchema }), async (req, res) => {
     const { heatId } = res.locals.valid.params as { heatId: number };
     res.json(await recordResults(dataSource(), heatId, res.locals.valid.body as HeatResults, currentPerson(req)!, actorOf(req, 'materials.write'), originOf(req)));
