@@ -4,6 +4,7 @@ import { isDatabaseEmpty, seedDemoScenario } from './demo-scenario';
 import { seedDemoMaterials } from './demo-materials';
 import { seedDemoManufacturing } from './demo-manufacturing';
 import { seedDemoRelease } from './demo-release';
+import { seedDemoDrill } from './demo-drill';
 
 /** Seeds the demo scenario if the database holds no organisation yet; returns whether it seeded. */
 export async function seedIfEmpty(config: AppConfig): Promise<boolean> {
@@ -15,6 +16,7 @@ export async function seedIfEmpty(config: AppConfig): Promise<boolean> {
     await seedDemoMaterials(dataSource);
     await seedDemoManufacturing(dataSource);
     await seedDemoRelease(dataSource);
+    await seedDemoDrill(dataSource);
     return true;
   } finally {
     await dataSource.destroy();

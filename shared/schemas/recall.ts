@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import type { SnapshotDiff } from '../domain/recall/snapshot-diff';
-import { forwardQuerySchema, type ForwardTrace } from './trace';
+import type { DrillAssessment } from '../domain/recall/drill-report';
+import { forwardQuerySchema, type ForwardTrace, type TracedLot } from './trace';
 
 export const recallModes = ['recall', 'drill'] as const;
 export type RecallMode = (typeof recallModes)[number];
@@ -19,6 +20,8 @@ export const recallListQuerySchema = z.object({
   pageSize: z.coerce.number().int().min(1).max(200).default(25),
 });
 export type RecallListQuery = z.infer<typeof recallListQuerySchema>;
+
+export const drillReportFormatSchema = z.object({ format: z.enum(['json', 'csv', 'pdf'], { error: 'Ask for json, csv or pdf' }).default('json') });
 
 export const exportFormatSchema = z.object({ format: z.enum(['csv', 'pdf'], { error: 'Export as csv or pdf' }), snapshot: z.coerce.number().int().positive().max(4_294_967_295).optional() });
 
@@ -43,6 +46,8 @@ export interface RecallSnapshotContent {
   trigger: z.infer<typeof forwardQuerySchema>;
   takenAt: string;
   takenBy: string;
+  /** How long computing the trace took (snapshots from before this was recorded lack it). */
+  tracedInMs?: number;
   trace: ForwardTrace;
 }
 
@@ -80,4 +85,14 @@ export interface RecallRerun {
   snapshot: RecallSnapshotMeta;
   diff: SnapshotDiff;
   heldNow: string[];
+}
+
+/** A drill's report: its timing, the scope it last traced, and whether that scope can be trusted. */
+export interface DrillReport {
+  drill: { id: number; recallNumber: string; status: 'open' | 'closed'; trigger: string; reason: string; openedBy: string; openedAt: string; closedAt: string | null };
+  scope: { snapshot: RecallSnapshotMeta; lotsAddedSinceOpening: string[]; lotsRemovedSinceOpening: string[] };
+  assessment: DrillAssessment;
+  lots: Array<TracedLot & { heats: string[] }>;
+  consignees: ForwardTrace['consignees'];
+  madeAt: string;
 }

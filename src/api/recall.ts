@@ -1,12 +1,13 @@
 import { keepPreviousData, queryOptions } from '@tanstack/vue-query';
 import { z } from 'zod';
-import type { OpenRecallInput, RecallDetail, RecallListQuery, RecallRerun, RecallSummary } from '@shared/schemas/recall';
+import type { DrillReport, OpenRecallInput, RecallDetail, RecallListQuery, RecallRerun, RecallSummary } from '@shared/schemas/recall';
 import { apiRequest, typed } from './http';
 
 export const recallKeys = {
   all: ['recalls'] as const,
   list: (query: RecallListQuery) => [...recallKeys.all, 'list', query] as const,
   one: (id: number) => [...recallKeys.all, 'one', id] as const,
+  drillReport: (id: number) => [...recallKeys.all, 'drill-report', id] as const,
 };
 
 export const recallListQuery = (query: RecallListQuery) =>
@@ -24,3 +25,6 @@ export const rerunRecall = (id: number) => apiRequest(`/recalls/${id}/reruns`, t
 
 /** Where the browser downloads an export of a snapshot (the server records each export in the ledger). */
 export const recallExportUrl = (id: number, format: 'csv' | 'pdf', snapshotId?: number) => `/api/recalls/${id}/export?format=${format}${snapshotId ? `&snapshot=${snapshotId}` : ''}`;
+
+export const drillReportQuery = (id: number) => queryOptions({ queryKey: recallKeys.drillReport(id), queryFn: ({ signal }) => apiRequest(`/recalls/${id}/drill-report`, typed<DrillReport>(), { signal }) });
+export const drillReportUrl = (id: number, format: 'csv' | 'pdf') => `/api/recalls/${id}/drill-report?format=${format}`;

@@ -7,6 +7,7 @@ import { releaseKeys } from '../api/release';
 
 export const useRecalls = (query: Ref<RecallListQuery>) => useQuery(computed(() => api.recallListQuery(query.value)));
 export const useRecall = (id: Ref<number>) => useQuery(computed(() => api.recallQuery(id.value)));
+export const useDrillReport = (id: Ref<number>) => useQuery(computed(() => api.drillReportQuery(id.value)));
 
 /** Opening or re-running places holds, which change lots and their release checklists too. */
 function useRecallChange<Input, Output>(change: (input: Input) => Promise<Output>) {

@@ -25,6 +25,7 @@ test('a QA reviewer meets a heat flagged by the certificate screening and acknow
   await page.getByRole('link', { name: 'Heats and certificates' }).first().click();
   await page.getByRole('link', { name: 'Suppliers' }).click();
   await expect(page.getByRole('heading', { level: 1, name: 'Suppliers' })).toBeVisible();
+  await page.getByRole('textbox', { name: 'Search suppliers' }).fill('Brannock');
   await expect(page.getByRole('table').first()).toContainText('conditional');
   await page.getByRole('link', { name: 'Brannock Alloy Works' }).click();
   await expect(page.getByRole('heading', { level: 1, name: 'Brannock Alloy Works' })).toBeVisible();

@@ -1,11 +1,12 @@
 import { Router } from 'express';
 import { idParams } from '@shared/schemas/manufacturing';
-import { exportFormatSchema, openRecallInputSchema, recallListQuerySchema, type RecallListQuery } from '@shared/schemas/recall';
+import { drillReportFormatSchema, exportFormatSchema, openRecallInputSchema, recallListQuerySchema, type RecallListQuery } from '@shared/schemas/recall';
 import type { z } from 'zod';
 import type { AppContext } from '../../app-context';
 import { actorOf, currentPerson, originOf, requireAction } from '../../middleware/access';
 import { validate } from '../../middleware/validate';
 import { recallExport } from './recall-exports';
+import { drillReportExport } from './drill-report-exports';
 import { listRecalls, openRecall, recallDetail, rerunRecall } from './recall.service';
 
 /** Recall investigations: open from a trace start, freeze, hold, re-run, export; closing is a signature. */
@@ -30,6 +31,15 @@ export function recallRouter(context: AppContext): Router {
     const { format, snapshot } = (res.locals.valid as { query: z.infer<typeof exportFormatSchema> }).query;
     const exported = await recallExport(data(), recallId(res), format, snapshot, actorOf(req, 'recall.read'), originOf(req));
     res.type(exported.contentType).set('X-Content-Type-Options', 'nosniff').set('X-Snapshot-SHA256', exported.sha256).attachment(exported.fileName).send(exported.body);
+  });
+  router.get('/recalls/:recallId/drill-report', requireAction('recall.read'), validate({ params: idParams('recallId'), query: drillReportFormatSchema }), async (req, res) => {
+    const { format } = (res.locals.valid as { query: z.infer<typeof drillReportFormatSchema> }).query;
+    const exported = await drillReportExport(data(), recallId(res), format, actorOf(req, 'recall.read'), originOf(req));
+    if (!exported.file) {
+      res.json(exported.report);
+      return;
+    }
+    res.type(exported.file.contentType).set('X-Content-Type-Options', 'nosniff').attachment(exported.file.fileName).send(exported.file.body);
   });
   return router;
 }

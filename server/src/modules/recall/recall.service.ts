@@ -12,7 +12,7 @@ import { forwardTraceIn } from '../trace/trace.service';
 import { holdsOfRecall, placeHolds } from './lot-holds';
 import { queueRecallOpenedMail, queueRecallWidenedMail } from './recall-mails';
 
-interface RecallRow {
+export interface RecallRow {
   id: number;
   recall_number: string;
   mode: 'recall' | 'drill';
@@ -124,9 +124,11 @@ export async function recallDetail(dataSource: DataSource, id: number): Promise<
 
 /** Traces now and stores what was found, unchangeable, with who asked and when. */
 async function freeze(manager: EntityManager, recall: { id: number; recallNumber: string; mode: 'recall' | 'drill' }, trigger: ForwardStart, kind: 'opening' | 'rerun', person: Person) {
+  const started = performance.now();
   const trace = await forwardTraceIn(manager, trigger);
+  const tracedInMs = Math.round(performance.now() - started);
   const takenAt = new Date();
-  const content: RecallSnapshotContent = { recallNumber: recall.recallNumber, mode: recall.mode, trigger, takenAt: takenAt.toISOString(), takenBy: person.name, trace };
+  const content: RecallSnapshotContent = { recallNumber: recall.recallNumber, mode: recall.mode, trigger, takenAt: takenAt.toISOString(), takenBy: person.name, tracedInMs, trace };
   const text = canonicalJson(content);
   const sha256 = sha256Hex(text);
   const result: { insertId: number } = await manager.query('INSERT INTO recall_snapshot (recall_id, kind, taken_by, taken_at, content, sha256) VALUES (?, ?, ?, ?, ?, ?)', [recall.id, kind, person.id, takenAt, text, sha256]);
