@@ -97,7 +97,7 @@ export async function drillReportPdf(report: DrillReport, organisation: string):
       ),
       heading('Affected lots'),
       table(
-        ['Lot', 'Part', 'Status', 'Heats', 'Made', 'Released', 'Shipped', 'Here'],
+        ['Lot', 'Part', 'Status', 'Heats', 'Started', 'Released', 'Shipped', 'Here'],
         report.lots.map((lot) => [lot.lotNumber, lot.partNumber, lot.status, lot.heats.join(', ') || '—', String(lot.made ?? '—'), String(lot.released), String(lot.shipped), String(lot.onHand)]),
         [60, '*', 50, 70, 30, 42, 40, 30],
       ),
