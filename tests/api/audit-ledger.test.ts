@@ -21,7 +21,7 @@ describe('the audit ledger', () => {
   const dataSource = createDataSource(config, 'app');
   afterAll(() => dataSource.destroy());
 
-  it('when the app account tries to UPDATE, DELETE or TRUNCATE the ledger, then MariaDB refuses', async () => {
+  it('[LEDGER-APPEND-ONLY] when the app account tries to UPDATE, DELETE or TRUNCATE the ledger, then MariaDB refuses', async () => {
     const connection = await createConnection({ host: '127.0.0.1', port: config.DB_PORT, user: config.DB_USER, password: config.DB_PASSWORD, database: config.DB_NAME });
     try {
       await expect(connection.query("UPDATE audit_event SET reason = 'x' WHERE seq = 1")).rejects.toThrow(/UPDATE command denied to user 'ingotrace_app'/);
@@ -33,7 +33,7 @@ describe('the audit ledger', () => {
     }
   });
 
-  it('when even the schema owner tries to change or delete an event, then the triggers refuse', async () => {
+  it('[LEDGER-TRIGGERS] when even the schema owner tries to change or delete an event, then the triggers refuse', async () => {
     const connection = await createConnection({ host: '127.0.0.1', port: config.DB_PORT, user: config.DB_MIGRATION_USER, password: config.DB_MIGRATION_PASSWORD, database: config.DB_NAME });
     try {
       await expect(connection.query("UPDATE audit_event SET reason = 'x' WHERE seq = 1")).rejects.toThrow('audit_event is append-only: rows cannot be changed');
@@ -43,7 +43,7 @@ describe('the audit ledger', () => {
     }
   });
 
-  it('when 20 connections each write 50 events at once, then the chain does not fork and verifies', async () => {
+  it('[LEDGER-NO-FORK] when 20 connections each write 50 events at once, then the chain does not fork and verifies', async () => {
     await dataSource.initialize();
     const before = await verifyLedger(dataSource.manager);
     expect(before.ok).toBe(true);
@@ -64,14 +64,14 @@ describe('the audit ledger', () => {
     expect(Number(seqs)).toBe(1000);
   });
 
-  it('when the CLI verifies the ledger, then it prints one summary line and exits 0', () => {
+  it('[LEDGER-VERIFY-CLI] when the CLI verifies the ledger, then it prints one summary line and exits 0', () => {
     const result = ingotrace('audit', 'verify');
     expect(result.stderr).toBe('');
     expect(result.code).toBe(0);
     expect(result.stdout).toMatch(/^ledger verified: \d+ events, \d+ signatures, chain head \d+ [0-9a-f]{64} \(\d+ ms\)\n$/);
   });
 
-  it('when an administrator changes one row behind the triggers, then verify names exactly that sequence number', async () => {
+  it('[LEDGER-TAMPER-NAMED] when an administrator changes one row behind the triggers, then verify names exactly that sequence number', async () => {
     const [victim] = await dataSource.query("SELECT seq, reason FROM audit_event WHERE action = 'test.concurrent-write' ORDER BY seq LIMIT 1 OFFSET 500");
     const seq = Number(victim.seq);
     const restoreTrigger = `CREATE TRIGGER audit_event_refuse_update BEFORE UPDATE ON audit_event FOR EACH ROW SIGNAL SQLSTATE '45000' SET MESSAGE_TEXT = 'audit_event is append-only: rows cannot be changed';`;
@@ -86,7 +86,7 @@ describe('the audit ledger', () => {
     expect(ingotrace('audit', 'verify').code).toBe(0);
   });
 
-  it('when the ledger is exported, then the file verifies offline, and a changed event in it is named', () => {
+  it('[LEDGER-EXPORT-OFFLINE] when the ledger is exported, then the file verifies offline, and a changed event in it is named', () => {
     const folder = mkdtempSync(join(tmpdir(), 'ingotrace-export-'));
     const file = join(folder, 'ledger.json');
     const exported = ingotrace('audit', 'export', '--out', file);

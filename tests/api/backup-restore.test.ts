@@ -24,7 +24,7 @@ describe('backup and restore', () => {
     await running.close();
   });
 
-  it('when backed up while records are being written and restored into a fresh database, then chain head, rows of every table and every document are identical', async () => {
+  it('[BACKUP-RESTORE] when backed up while records are being written and restored into a fresh database, then chain head, rows of every table and every document are identical', async () => {
     const saml = await SamlTestDriver.create(running.config);
     const { agent } = await saml.signIn(running.app, 'kiw-0301');
     const csrf = await csrfTokenOf(agent);
@@ -66,7 +66,7 @@ describe('backup and restore', () => {
     }
   });
 
-  it('when the dump was changed, or the target database already holds tables, then the restore refuses with a clear message', async () => {
+  it('[RESTORE-REFUSE] when the dump was changed, or the target database already holds tables, then the restore refuses with a clear message', async () => {
     const file = `${folder}/test.sql.gz`;
     await expect(restoreDatabase(server, running.config, file, restoredName)).rejects.toThrow(`database ${restoredName} already holds tables`);
     const changed = `${folder}/changed.sql.gz`;

@@ -32,7 +32,7 @@ describe('bar stock', () => {
     expect(barPieceSchema.parse(response.body).markedHeatNumber).toBe('NV 24 1107');
   });
 
-  it('when the heat number read off the bar does not match the certificate, then the receipt is refused, nothing is stocked, and the mismatch is recorded', async () => {
+  it('[BAR-MARKING] when the heat number read off the bar does not match the certificate, then the receipt is refused, nothing is stocked, and the mismatch is recorded', async () => {
     const refused = await post('/api/bar-pieces', { heatId, markedHeatNumber: 'NV-24-11O7', tag: 'NV-1107-X1', diameterMm: '25.4', lengthMm: '3000', location: 'Rack B2' });
     expect(refused.status).toBe(422);
     expect(refused.body.error.message).toBe(

@@ -32,7 +32,7 @@ describe('certificate screening', () => {
   const acknowledge = (who: 'engineer' | 'reviewer', body: object) =>
     people[who].agent.post(`/api/heats/${flagged}/screening-acknowledgements`).set('X-CSRF-Token', people[who].csrf).send(body);
 
-  it('when QA opens a heat reported just inside the oxygen limit, then the bunching finding is there with its statistic', async () => {
+  it('[SCREEN-FLAG] when QA opens a heat reported just inside the oxygen limit, then the bunching finding is there with its statistic', async () => {
     const { screening } = await detail(flagged);
     expect(screening.heatsScreened).toBe(16);
     expect(screening.findings).toHaveLength(1);
@@ -78,7 +78,7 @@ describe('certificate screening', () => {
     expect((await detail(flagged)).screening.findings[0]!.acknowledgement).toBeNull();
   });
 
-  it('when a QA reviewer acknowledges the finding with a reason, then it is recorded once and in the ledger, and the heat can be accepted', async () => {
+  it('[SCREEN-ACKNOWLEDGE] when a QA reviewer acknowledges the finding with a reason, then it is recorded once and in the ledger, and the heat can be accepted', async () => {
     const reason = 'Independent check analysis of this heat found O 0.38 %; supplier asked for its lab records';
     const acknowledged = await acknowledge('reviewer', { findingKey: 'bunched-at-limit:O:max', reason });
     expect(acknowledged.status).toBe(201);

@@ -84,7 +84,7 @@ describe('check analysis schedule', () => {
     expect(due).not.toContain(heatIds[1]);
   });
 
-  it('when the check is due, then acceptance is refused; a heat the rule skips can be accepted', async () => {
+  it('[CHECK-DUE] when the check is due, then acceptance is refused; a heat the rule skips can be accepted', async () => {
     const refused = await accept(heatIds[0]!);
     expect(refused.status).toBe(422);
     expect(refused.body.error.message).toBe(
@@ -109,7 +109,7 @@ describe('check analysis schedule', () => {
     expect(await running.database.dataSource.query('SELECT id FROM check_analysis WHERE heat_id = ?', [heatIds[0]])).toEqual([]);
   });
 
-  it('when the check finds oxygen beyond the tolerance, then it does not conform and acceptance is refused; a later conforming check frees it', async () => {
+  it('[CHECK-TOLERANCE] when the check finds oxygen beyond the tolerance, then it does not conform and acceptance is refused; a later conforming check frees it', async () => {
     const path = `/api/heats/${heatIds[0]}/check-analyses`;
     const failing = await post('engineer', path, { laboratory: 'Tarnbridge materials laboratory', reportReference: 'TML-1', chemistry: { O: '0.16', Fe: '0.18', H: '60 ppm' } });
     expect(failing.status).toBe(201);

@@ -77,7 +77,7 @@ describe('recall drill report', () => {
   });
   afterAll(() => running.close());
 
-  it('when a drill is opened, then its report counts the hand-built scope and every completeness check passes', async () => {
+  it('[DRILL-COUNTS] when a drill is opened, then its report counts the hand-built scope and every completeness check passes', async () => {
     const body = await report();
     expect(body.drill).toMatchObject({ recallNumber: drill.recallNumber, status: 'open', trigger: 'bar TST-DRL-BAR', closedAt: null });
     expect(body.assessment.totals).toEqual({ lots: 2, made: 40, released: 20, shipped: 12, onHand: 8, consignees: 2 });
@@ -108,7 +108,7 @@ describe('recall drill report', () => {
     expect(fresh.scope.snapshot.kind).toBe('rerun');
   });
 
-  it('when the drill is closed, then the report times the confirmed scope, and the CSV and PDF state it; each export is in the ledger', async () => {
+  it('[DRILL-REPORT] when the drill is closed, then the report times the confirmed scope, and the CSV and PDF state it; each export is in the ledger', async () => {
     expect((await signThroughApi(saml, people.approver!, { recordType: 'recall-investigation', recordId: String(drill.id), meaning: 'closed' }, 'Scope confirmed with shipping records')).status).toBe(201);
     const closed = await report();
     expect(closed.drill.closedAt).not.toBeNull();

@@ -48,7 +48,7 @@ describe('electronic signatures', () => {
       .send({ recordType: 'test-person-card', recordId, meaning, contentHash: preparation.contentHash, reauthenticationId: await reauthenticate(saml, signer.agent, subject, preparation.bindingHash), ...extra });
   }
 
-  it('when a reviewer re-authenticates and signs, then the signature shows name, meaning and time with zone, bound to the content hash', async () => {
+  it('[SIG-MANIFESTATION] when a reviewer re-authenticates and signs, then the signature shows name, meaning and time with zone, bound to the content hash', async () => {
     const { agent, csrf } = await signedIn('kiw-0201');
     const preparation = await prepare(agent, csrf, 'kiw-0101', 'reviewed');
     expect(preparation.statement).toBe(signatureStatement);
@@ -76,7 +76,7 @@ describe('electronic signatures', () => {
     expect(again.body.error.message).toBe('Sign again: the re-authentication was already used for a signature');
   });
 
-  it('when the record changes after signing, then its signatures show "changed after signing"', async () => {
+  it('[SIG-CHANGED-AFTER] when the record changes after signing, then its signatures show "changed after signing"', async () => {
     const { agent } = await signedIn('kiw-0201');
     const listed = async () => (await agent.get('/api/signatures?recordType=test-person-card&recordId=kiw-0101')).body as Array<{ changedAfterSigning: boolean }>;
     expect((await listed()).map((item) => item.changedAfterSigning)).toEqual([false]);
@@ -88,7 +88,7 @@ describe('electronic signatures', () => {
     }
   });
 
-  it('when someone signs without a fresh re-authentication, then it is refused and nothing is written', async () => {
+  it('[SIG-REAUTH-REQUIRED] when someone signs without a fresh re-authentication, then it is refused and nothing is written', async () => {
     const { agent, csrf } = await signedIn('kiw-0301');
     const preparation = await prepare(agent, csrf, 'kiw-0102', 'approved');
     const count = async () => Number((await running.database.dataSource.query('SELECT COUNT(*) AS n FROM electronic_signature'))[0].n);
@@ -102,7 +102,7 @@ describe('electronic signatures', () => {
     expect(await count()).toBe(before);
   });
 
-  it('when the re-authentication was for another meaning, then the signature is refused', async () => {
+  it('[SIG-REAUTH-MEANING] when the re-authentication was for another meaning, then the signature is refused', async () => {
     const { agent, csrf } = await signedIn('kiw-0301');
     const approve = await prepare(agent, csrf, 'kiw-0102', 'approved');
     const reject = await prepare(agent, csrf, 'kiw-0102', 'rejected');
@@ -115,13 +115,13 @@ describe('electronic signatures', () => {
     expect(response.body.error.message).toBe('Sign again: the record changed after you re-authenticated');
   });
 
-  it('when the author of a record would review it, then separation of duties refuses', async () => {
+  it('[SIG-SOD-AUTHOR] when the author of a record would review it, then separation of duties refuses', async () => {
     const response = await signCard(await signedIn('kiw-0201'), 'kiw-0201', 'kiw-0201', 'reviewed');
     expect(response.status).toBe(422);
     expect(response.body.error.message).toBe('You authored this record, so you cannot review it');
   });
 
-  it('when the reviewer would also approve, then separation of duties refuses', async () => {
+  it('[SIG-SOD-REVIEWER] when the reviewer would also approve, then separation of duties refuses', async () => {
     const chiara = await signedIn('kiw-0701');
     expect((await signCard(chiara, 'kiw-0701', 'kiw-0501', 'reviewed')).status).toBe(201);
     const approved = await signCard(chiara, 'kiw-0701', 'kiw-0501', 'approved');
@@ -129,7 +129,7 @@ describe('electronic signatures', () => {
     expect(approved.body.error.message).toBe('You reviewed this record, so someone else must approve it');
   });
 
-  it('when a rejection has no reason, then it is refused with the field named', async () => {
+  it('[SIG-REASON] when a rejection has no reason, then it is refused with the field named', async () => {
     const approver = await signedIn('kiw-0301');
     expect((await prepare(approver.agent, approver.csrf, 'kiw-0102', 'rejected')).reasonRequired).toBe(true);
     const response = await signCard(approver, 'kiw-0301', 'kiw-0102', 'rejected');
@@ -146,7 +146,7 @@ describe('electronic signatures', () => {
     expect(wrongMeaning.body.error.message).toBe('This audit-trail review cannot be signed as "approved"');
   });
 
-  it('when a signer withdraws their signature, then it is a new signature naming the old one; nobody else may withdraw it', async () => {
+  it('[SIG-WITHDRAW] when a signer withdraws their signature, then it is a new signature naming the old one; nobody else may withdraw it', async () => {
     const approver = await signedIn('kiw-0301');
     const { agent } = approver;
     const approved = await signCard(approver, 'kiw-0301', 'kiw-0601', 'approved');

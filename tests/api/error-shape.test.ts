@@ -66,7 +66,7 @@ describe('the validate middleware with the error handler', () => {
   });
   app.use(errorHandler);
 
-  it('when several fields are wrong, then 400 VALIDATION_FAILED lists each field with its message', async () => {
+  it('[INPUT-FIELDS] when several fields are wrong, then 400 VALIDATION_FAILED lists each field with its message', async () => {
     const response = await request(app).post('/heats/abc').send({ number: '', chemistry: { O: '0,12' } });
     expect(response.status).toBe(400);
     const body = errorResponseSchema.parse(response.body);
@@ -84,7 +84,7 @@ describe('the validate middleware with the error handler', () => {
     expect(response.body).toEqual({ params: { heatId: 12 }, body: { number: 'H-1', chemistry: { O: '0.12' } } });
   });
 
-  it('when a service breaks a rule, then 422 RULE_VIOLATION with its fields', async () => {
+  it('[INPUT-RULES] when a service breaks a rule, then 422 RULE_VIOLATION with its fields', async () => {
     const response = await request(app).get('/rule');
     expect(response.status).toBe(422);
     expect(response.body).toEqual({

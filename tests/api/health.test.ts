@@ -17,7 +17,7 @@ describe('GET /api/health', () => {
     expect(response.headers['cache-control']).toBe('no-store');
   });
 
-  it('when the database cannot be reached, then it answers 503 in the error shape with the reason', async () => {
+  it('[HEALTH-DB-DOWN] when the database cannot be reached, then it answers 503 in the error shape with the reason', async () => {
     // Port 9 (discard) has no MariaDB on this machine: the connection is refused for real.
     const unreachable = createTestApp({ DB_PORT: '9' });
     try {

@@ -115,7 +115,7 @@ describe('hostile input on every API route', () => {
     await Promise.all(Array.from({ length: lanes }, (_unused, lane) => fc.assert(property, { numRuns: Math.ceil(runs / lanes), seed: seed + lane })));
   }, Math.max(60_000, runs * 1_000));
 
-  it('when every route has been fed hostile input, then the audit ledger still verifies', async () => {
+  it('[FUZZ-LEDGER] when every route has been fed hostile input, then the audit ledger still verifies', async () => {
     const verification = await verifyLedger(running.database.dataSource.manager);
     expect(verification.ok, verification.summary).toBe(true);
     expect(inputs).toBeGreaterThanOrEqual(apiRoutes.length * runs);

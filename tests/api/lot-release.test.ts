@@ -57,7 +57,7 @@ describe('lot release: readiness, submission, two signatures, shipment', () => {
   }
   const view = async (lotId: number) => (await people.auditor!.agent.get(`/api/lots/${lotId}/release`)).body;
 
-  it('when labels are not yet printed, then the lot is not ready and submission is refused with the reason', async () => {
+  it('[RELEASE-NOT-READY] when labels are not yet printed, then the lot is not ready and submission is refused with the reason', async () => {
     const before = await view(lots[0]!);
     expect(before.readiness.ready).toBe(false);
     expect(before.readiness.items.filter((item: { verdict: string }) => item.verdict === 'fail').map((item: { key: string; why: string }) => [item.key, item.why])).toEqual([
@@ -87,7 +87,7 @@ describe('lot release: readiness, submission, two signatures, shipment', () => {
     expect(mail.text).toContain(`${running.config.PUBLIC_URL}/lots/${lots[0]}`);
   });
 
-  it('when the reviewer and a different approver sign, then the lot is released; shipping is limited to the released units', async () => {
+  it('[RELEASE-SIGNED] when the reviewer and a different approver sign, then the lot is released; shipping is limited to the released units', async () => {
     const early = await signThroughApi(saml, people.approver!, { recordType: 'lot-release', recordId: String(lots[0]), meaning: 'approved-for-release' });
     expect(early.body.error.message).toBe('The lot is submitted, not reviewed');
     expect((await signThroughApi(saml, people.engineer!, { recordType: 'lot-release', recordId: String(lots[0]), meaning: 'reviewed' })).status).toBe(403);
@@ -103,7 +103,7 @@ describe('lot release: readiness, submission, two signatures, shipment', () => {
     expect(late.status).toBe(422);
   });
 
-  it('when the released lot’s packet is requested, then a PDF with every section, a decodable UDI and a QR that the resolver opens is stored once', async () => {
+  it('[RELEASE-PACKET] when the released lot’s packet is requested, then a PDF with every section, a decodable UDI and a QR that the resolver opens is stored once', async () => {
     const lotNumber = (await view(lots[0]!)).lotNumber as string;
     const response = await people.auditor!.agent.get(`/api/lots/${lots[0]}/release-packet`).buffer(true).parse((res, callback) => {
       const chunks: Buffer[] = [];
@@ -151,7 +151,7 @@ describe('lot release: readiness, submission, two signatures, shipment', () => {
     expect((await people.auditor!.agent.get(`/api/lots/${lots[1]}/release-packet`)).status).toBe(422);
   });
 
-  it('when labels are printed, then each page is one label at the chosen size whose DataMatrix scans to the lot’s UDI', async () => {
+  it('[RELEASE-LABELS] when labels are printed, then each page is one label at the chosen size whose DataMatrix scans to the lot’s UDI', async () => {
     const lotNumber = (await view(lots[0]!)).lotNumber as string;
     const response = await people.engineer!.agent.get(`/api/lots/${lots[0]}/labels.pdf?count=2&widthMm=100&heightMm=50`).buffer(true).parse((res, callback) => {
       const chunks: Buffer[] = [];
@@ -170,7 +170,7 @@ describe('lot release: readiness, submission, two signatures, shipment', () => {
     expect((await people.auditor!.agent.get(`/api/lots/${lots[0]}/labels.pdf?count=1`)).status).toBe(403);
   });
 
-  it('when the lot changes after review, then approval is refused until it is reviewed again', async () => {
+  it('[RELEASE-REREVIEW] when the lot changes after review, then approval is refused until it is reviewed again', async () => {
     await post('engineer', `/api/lots/${lots[1]}/release-submissions`, {});
     expect((await signThroughApi(saml, people.reviewer!, { recordType: 'lot-release', recordId: String(lots[1]), meaning: 'reviewed' })).status).toBe(201);
     const raised = await post('reviewer', '/api/nonconformances', { subjectType: 'lot', subjectId: lots[1], description: 'Scratch on two parts seen at packing', containment: 'Lot held' });
@@ -185,7 +185,7 @@ describe('lot release: readiness, submission, two signatures, shipment', () => {
     expect((await view(lots[1]!)).status).toBe('open');
   });
 
-  it('when the approver authored part of the lot’s record, then separation of duties refuses the approval', async () => {
+  it('[RELEASE-SOD] when the approver authored part of the lot’s record, then separation of duties refuses the approval', async () => {
     await post('engineer', `/api/lots/${lots[2]}/release-submissions`, {});
     expect((await signThroughApi(saml, people.reviewer!, { recordType: 'lot-release', recordId: String(lots[2]), meaning: 'reviewed' })).status).toBe(201);
     // The approver is made the recorder of one step, as if they had entered it.

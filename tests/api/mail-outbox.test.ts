@@ -10,7 +10,7 @@ describe('the mail outbox', () => {
   const running = createTestApp({}, { mailWorker: false });
   afterAll(() => running.close());
 
-  it('when the mail server refuses, then the mail stays queued with the error and is sent on a later attempt', async () => {
+  it('[MAIL-QUEUE] when the mail server refuses, then the mail stays queued with the error and is sent on a later attempt', async () => {
     const db = await running.database.connect();
     const subject = `Outbox test ${Date.now()}`;
     await inTransaction(db, (manager) => queueMail(manager, { to: ['someone@kestrelmoor.example'], subject, text: 'body', event: 'test', entity: { type: 'test', id: 1 } }));

@@ -96,7 +96,7 @@ describe('the manufacturing record: parts, lots, material, operations, runs, non
     expect(lots.map((lot) => lot.lotNumber)).toEqual([1, 2, 3, 4].map((seq) => `T${year}${String(seq).padStart(4, '0')}`));
   });
 
-  it('when bar is issued, then over-issue, a second heat without approval and the wrong material are refused and nothing is written', async () => {
+  it('[LOT-ISSUE-REFUSED] when bar is issued, then over-issue, a second heat without approval and the wrong material are refused and nothing is written', async () => {
     const [first, second] = tags;
     const lot = lots[0]!;
     const before = await count('material_movement');
@@ -134,7 +134,7 @@ describe('the manufacturing record: parts, lots, material, operations, runs, non
     expect((await detail(lots[0]!.id)).heats).toHaveLength(2);
   });
 
-  it('when operations are recorded, then the routing order and the unit chain are enforced', async () => {
+  it('[LOT-UNIT-CHAIN] when operations are recorded, then the routing order and the unit chain are enforced', async () => {
     const lot = lots[0]!;
     const early = await post('engineer', `/api/lots/${lot.id}/operations`, operation(20, 40));
     expect(early.body.error.message).toBe('Record step 10 Turn first; the routing runs in order');
@@ -174,7 +174,7 @@ describe('the manufacturing record: parts, lots, material, operations, runs, non
     expect((await detail(lot.id)).operations.find((operation) => operation.id === turning.id)?.files).toEqual([{ documentId: attached.body.documentId, name: 'cmm-report.csv', sha256: attached.body.sha256 }]);
   });
 
-  it('when three lots go through a passivation run in window and a cleaning run out of window, then each out-of-window lot gets a nonconformance', async () => {
+  it('[LOT-RUN-WINDOW] when three lots go through a passivation run in window and a cleaning run out of window, then each out-of-window lot gets a nonconformance', async () => {
     const three = lots.slice(0, 3).map((lot) => lot.id);
     const missing = await post('engineer', '/api/process-runs', { kind: 'passivation', methodId: 'A967-NITRIC-2', equipment: 'Line P1', operatorName: 'Test Operator', runAt: '2026-11-03T08:00:00Z', parameters: { bath: 'N2-1' }, lotIds: three });
     expect(missing.status).toBe(400);
@@ -226,7 +226,7 @@ describe('the manufacturing record: parts, lots, material, operations, runs, non
     expect((await detail(lot.id)).nonconformances.filter((nc) => nc.status === 'open')).toHaveLength(1);
   });
 
-  it('when a lot is split and two lots merged, then units are conserved and the genealogy is kept', async () => {
+  it('[LOT-SPLIT-MERGE] when a lot is split and two lots merged, then units are conserved and the genealogy is kept', async () => {
     const [a, b] = [lots[1]!, lots[2]!];
     const over = await post('engineer', `/api/lots/${a.id}/splits`, { quantities: [6, 5], reason: 'Customer split' });
     expect(over.body.error.message).toBe('The lot holds 10 units; 11 cannot be split off');
@@ -241,7 +241,7 @@ describe('the manufacturing record: parts, lots, material, operations, runs, non
     expect(mergeable.body.error.message).toMatch(/cannot be merged: it has not started$/);
   });
 
-  it('when a lot is not released, then it cannot ship; the material reconciliation explains the bar used', async () => {
+  it('[SHIP-RELEASED-ONLY] when a lot is not released, then it cannot ship; the material reconciliation explains the bar used', async () => {
     const consignee = await post('engineer', '/api/consignees', { name: 'Test Orthopaedic Centre', kind: 'hospital', country: 'Ireland', contactEmail: null });
     expect(consignee.status).toBe(201);
     const before = await count('shipment');

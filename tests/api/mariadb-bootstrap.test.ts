@@ -68,7 +68,7 @@ describe('the MariaDB bootstrap', () => {
     await server.adminSql(`INSERT INTO \`${config.DB_NAME}\`.migrations (timestamp, name) VALUES (1764633600000, 'CreateOrganisation1764633600000');`);
   });
 
-  it('when the server stops, then health says the database is unreachable, and after a restart it recovers by itself', async () => {
+  it('[DB-RECOVER] when the server stops, then health says the database is unreachable, and after a restart it recovers by itself', async () => {
     await server.stop(true);
     expect(await server.isRunning()).toBe(false);
     const down = await healthOf(app);

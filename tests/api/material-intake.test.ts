@@ -72,7 +72,7 @@ describe('material intake: suppliers, heats, certificates, results, disposition'
     expect(response.body.receivedAt).toBe('2025-03-14T00:00:00.000Z');
   });
 
-  it('when results are entered, then they are evaluated against the specification and kept with the revision used', async () => {
+  it('[HEAT-EVALUATE] when results are entered, then they are evaluated against the specification and kept with the revision used', async () => {
     const engineer = as('engineer');
     const response = await engineer.agent.put(`/api/heats/${heatId}/results`).set('X-CSRF-Token', engineer.csrf).send(conforming);
     expect(response.status).toBe(200);
@@ -87,7 +87,7 @@ describe('material intake: suppliers, heats, certificates, results, disposition'
     expect(bad.body.error.fields).toEqual({ 'chemistry.O': '"high" is not a decimal number (write e.g. 0.12 or 40 ppm)' });
   });
 
-  it('when a certificate is uploaded, then its type comes from its bytes, it is hashed, stored once and downloadable', async () => {
+  it('[UPLOAD-HASH] when a certificate is uploaded, then its type comes from its bytes, it is hashed, stored once and downloadable', async () => {
     const engineer = as('engineer');
     const bytes = pdf('certificate TA-90001');
     const uploaded = await engineer.agent.post(`/api/heats/${heatId}/certificates`).set('X-CSRF-Token', engineer.csrf).attach('certificate', bytes, { filename: 'Zertifikat Łódź.pdf', contentType: 'application/pdf' });
@@ -106,7 +106,7 @@ describe('material intake: suppliers, heats, certificates, results, disposition'
     expect(again.status).toBe(409);
   });
 
-  it('when the bytes are not a PDF, PNG or JPEG, or too large, or empty, then the upload is refused', async () => {
+  it('[UPLOAD-REFUSE] when the bytes are not a PDF, PNG or JPEG, or too large, or empty, then the upload is refused', async () => {
     const engineer = as('engineer');
     const post = () => engineer.agent.post(`/api/heats/${heatId}/certificates`).set('X-CSRF-Token', engineer.csrf);
     const disguised = await post().attach('certificate', Buffer.from('MZ\x90\x00 this is not a pdf at all, just text pretending'), { filename: 'certificate.pdf', contentType: 'application/pdf' });
@@ -139,7 +139,7 @@ describe('material intake: suppliers, heats, certificates, results, disposition'
     expect(stored.startsWith('.')).toBe(false);
   });
 
-  it('when a QA reviewer accepts the conforming heat with a signature, then its status changes; its results can no longer change', async () => {
+  it('[HEAT-ACCEPT] when a QA reviewer accepts the conforming heat with a signature, then its status changes; its results can no longer change', async () => {
     const reviewer = as('reviewer');
     const intent = { recordType: 'heat', recordId: String(heatId), meaning: 'accepted' };
     const preparation = (await reviewer.agent.post('/api/signatures/preparations').set('X-CSRF-Token', reviewer.csrf).send(intent)).body;
@@ -156,7 +156,7 @@ describe('material intake: suppliers, heats, certificates, results, disposition'
     expect(late.body.error.message).toBe('The heat is accepted; its results can no longer change');
   });
 
-  it('when a heat does not conform, has no certificate, or comes from a disqualified supplier, then acceptance is refused', async () => {
+  it('[HEAT-ACCEPT-REFUSED] when a heat does not conform, has no certificate, or comes from a disqualified supplier, then acceptance is refused', async () => {
     const engineer = as('engineer');
     const reviewer = as('reviewer');
     const receive = async (heatNumber: string, chemistry: Record<string, string>) => {

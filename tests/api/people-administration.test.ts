@@ -46,7 +46,7 @@ describe('people administration', () => {
     expect(Object.keys(response.body.error.fields).sort()).toEqual(['query.page', 'query.pageSize', 'query.status']);
   });
 
-  it('when an administrator changes roles with a reason, then they take effect and the ledger records before, after and reason', async () => {
+  it('[PEOPLE-ROLES] when an administrator changes roles with a reason, then they take effect and the ledger records before, after and reason', async () => {
     const id = await idOf('kiw-0102');
     const response = await admin.put(`/api/people/${id}/roles`).set('X-CSRF-Token', csrf).send({ roles: ['manufacturing-engineer', 'recall-coordinator'], reason: 'Backs up the recall team in December' });
     expect(response.status).toBe(200);
@@ -69,7 +69,7 @@ describe('people administration', () => {
     expect((await agent.get('/api/me')).body.person.roles).toEqual(['qa-reviewer']);
   });
 
-  it('when a person is deactivated, then their open session ends and they cannot sign in again', async () => {
+  it('[PEOPLE-DEACTIVATE] when a person is deactivated, then their open session ends and they cannot sign in again', async () => {
     const { agent: auditor } = await saml.signIn(running.app, 'kiw-0401');
     expect((await auditor.get('/api/me')).status).toBe(200);
     const id = await idOf('kiw-0401');
@@ -82,7 +82,7 @@ describe('people administration', () => {
     await admin.put(`/api/people/${id}/activation`).set('X-CSRF-Token', csrf).send({ active: true, reason: 'Rehired' });
   });
 
-  it('when an administrator would lock themselves out, then it is refused with 422 and nothing changes', async () => {
+  it('[PEOPLE-LOCKOUT] when an administrator would lock themselves out, then it is refused with 422 and nothing changes', async () => {
     const id = await idOf('kiw-0601');
     const deactivate = await admin.put(`/api/people/${id}/activation`).set('X-CSRF-Token', csrf).send({ active: false, reason: 'testing' });
     expect(deactivate.status).toBe(422);

@@ -17,7 +17,7 @@ describe('rate limits on sign-in and signing', () => {
   // Addresses from TEST-NET-3 (RFC 5737), each run its own, forwarded by a proxy on loopback (which the app trusts).
   const address = () => `203.0.113.${1 + Math.floor(Math.random() * 254)}`;
 
-  it('when one address sends more answers from the identity provider than the limit, then it is sent to the sign-in page with the reason and Retry-After; another address is not', async () => {
+  it('[RATE-SIGN-IN] when one address sends more answers from the identity provider than the limit, then it is sent to the sign-in page with the reason and Retry-After; another address is not', async () => {
     const from = address();
     const attempt = (ip: string) => request(running.app).post('/auth/saml/acs').set('X-Forwarded-For', ip).type('form').send({ SAMLResponse: 'bm90IGEgcmVzcG9uc2U=', RelayState: '/' });
     for (let index = 0; index < 3; index += 1) {
@@ -35,7 +35,7 @@ describe('rate limits on sign-in and signing', () => {
     expect(decodeURIComponent((await attempt(other)).headers.location ?? '')).not.toContain('Too many');
   });
 
-  it('when a person begins more signatures than the limit, then the next is refused with 429 in the one error shape', async () => {
+  it('[RATE-SIGNING] when a person begins more signatures than the limit, then the next is refused with 429 in the one error shape', async () => {
     const saml = await SamlTestDriver.create(signing.config);
     const { agent } = await saml.signIn(signing.app, 'kiw-0701');
     const csrf = await csrfTokenOf(agent);

@@ -34,7 +34,7 @@ describe('re-authentication before an electronic signature', () => {
 
   const status = async (agent: Awaited<ReturnType<typeof start>>['agent'], id: string) => (await agent.get(`/api/reauthentications/${id}`)).body;
 
-  it('when the same person enters the password again, then a one-time signing ticket is confirmed', async () => {
+  it('[REAUTH-SAME-PERSON] when the same person enters the password again, then a one-time signing ticket is confirmed', async () => {
     const { agent, idp, id, authnRequest, query, personId } = await start();
     expect(authnRequest.forceAuthn).toBe(true);
     expect(authnRequest.assertionConsumerServiceUrl).toBe(`${running.config.PUBLIC_URL}/auth/saml/reauth-acs`);
@@ -51,14 +51,14 @@ describe('re-authentication before an electronic signature', () => {
     await expect(dataSource.transaction((manager) => consumeReauthentication(manager, { id, personId, bindingHash }))).rejects.toThrow('was already used for a signature');
   });
 
-  it('when ForceAuthn is asked, then the identity provider asks for the password even though its session is open', async () => {
+  it('[REAUTH-FORCE] when ForceAuthn is asked, then the identity provider asks for the password even though its session is open', async () => {
     const { idp, query } = await start();
     const page = await idp.get(`/sso${query}`);
     expect(page.text).toContain('Confirm it is you');
     expect(page.text).toContain('name="password"');
   });
 
-  it('when a different person re-authenticates, then it is refused and the ticket cannot be used', async () => {
+  it('[REAUTH-OTHER-PERSON] when a different person re-authenticates, then it is refused and the ticket cannot be used', async () => {
     const { agent, idp, id, query, personId } = await start();
     const answer = await saml.answerAtIdentityProvider(idp, query, person('kiw-0301'));
     await agent.post('/auth/saml/reauth-acs').type('form').send({ SAMLResponse: answer.samlResponse, RelayState: answer.relayState });
@@ -66,7 +66,7 @@ describe('re-authentication before an electronic signature', () => {
     await expect(running.database.dataSource.transaction((manager) => consumeReauthentication(manager, { id, personId, bindingHash }))).rejects.toThrow(/was refused/);
   });
 
-  it('when the identity provider answers with an old authentication instant, then it is refused as stale', async () => {
+  it('[REAUTH-STALE] when the identity provider answers with an old authentication instant, then it is refused as stale', async () => {
     const { agent, id, authnRequest } = await start();
     const reviewer = person('kiw-0201');
     const acs = `${running.config.PUBLIC_URL}/auth/saml/reauth-acs`;

@@ -90,7 +90,7 @@ describe('recall investigations: frozen snapshot, holds, re-run difference, expo
     expect(await db.query("SELECT id FROM mail_outbox WHERE entity_type = 'recall' AND entity_id = ?", [String(drill.id)])).toEqual([]);
   });
 
-  it('when a recall is opened, then its snapshot is stored with its hash, the unshipped lot is held and the recall team is mailed', async () => {
+  it('[RECALL-SNAPSHOT] when a recall is opened, then its snapshot is stored with its hash, the unshipped lot is held and the recall team is mailed', async () => {
     const opened = await post('coordinator', '/api/recalls', { trigger: { pieceId }, mode: 'recall', reason: 'Mill reports a possible mix-up of bars in this heat' });
     expect(opened.status).toBe(201);
     recall = opened.body as RecallDetail;
@@ -131,7 +131,7 @@ describe('recall investigations: frozen snapshot, holds, re-run difference, expo
     await expect(db.query("UPDATE recall_snapshot SET content = '{}' WHERE recall_id = ?", [recall.id])).rejects.toThrow(/UPDATE command denied/);
   });
 
-  it('when exported, then the CSV and the PDF state the frozen set with its hash, opening and re-run apart', async () => {
+  it('[RECALL-EXPORT] when exported, then the CSV and the PDF state the frozen set with its hash, opening and re-run apart', async () => {
     const csv = await people.auditor!.agent.get(`/api/recalls/${recall.id}/export?format=csv`);
     expect(csv.status).toBe(200);
     expect(csv.headers['content-type']).toBe('text/csv; charset=utf-8');
@@ -158,7 +158,7 @@ describe('recall investigations: frozen snapshot, holds, re-run difference, expo
     expect((await people.auditor!.agent.get(`/api/recalls/${recall.id}/export?format=xls`)).status).toBe(400);
   });
 
-  it('when a lot is held, then it can be neither shipped, split nor released until a QA approver lifts the hold with a signature', async () => {
+  it('[RECALL-HOLD] when a lot is held, then it can be neither shipped, split nor released until a QA approver lifts the hold with a signature', async () => {
     const hold = (await detail(recall.id)).holds.find((entry) => entry.lotNumber === lots[0]!.lotNumber)!;
     const split = await post('engineer', `/api/lots/${lots[0]!.id}/splits`, { quantities: [5], reason: 'try to move units' });
     expect(split.status).toBe(422);
@@ -194,7 +194,7 @@ describe('recall investigations: frozen snapshot, holds, re-run difference, expo
     expect(refused.body.error.fields).toEqual({ qty: 'Lot on hold' });
   });
 
-  it('when closing, then the opener may not, open holds block it, and a QA approver signs it closed with a reason', async () => {
+  it('[RECALL-CLOSE] when closing, then the opener may not, open holds block it, and a QA approver signs it closed with a reason', async () => {
     const bySelf = await signThroughApi(saml, people.coordinator!, { recordType: 'recall-investigation', recordId: String(recall.id), meaning: 'closed' }, 'Done');
     expect(bySelf.status).toBe(422);
     expect(bySelf.body.error.message).toBe('You authored this record, so you cannot approve it');

@@ -30,7 +30,7 @@ describe('the release review covers the lot’s audit trail', () => {
   const view = async () => (await people.reviewer.agent.get(`/api/lots/${lotId}/release`)).body;
   const sign = (who: 'reviewer' | 'approver', meaning: string) => signThroughApi(saml, people[who], { recordType: 'lot-release', recordId: String(lotId), meaning });
 
-  it('when a lot has been reviewed, then its view lists the trail and the review recorded how far it went', async () => {
+  it('[TRAIL-REVIEW] when a lot has been reviewed, then its view lists the trail and the review recorded how far it went', async () => {
     const { auditTrail } = await view();
     const actions = auditTrail.events.map((event: { action: string }) => event.action);
     expect(actions).toContain('lot.opened');
@@ -56,7 +56,7 @@ describe('the release review covers the lot’s audit trail', () => {
     expect(inherited.every((event: { seq: number }) => event.seq < began)).toBe(true);
   });
 
-  it('when an event reaches the lot after the review, then approval is refused until the lot is reviewed again', async () => {
+  it('[TRAIL-VOID] when an event reaches the lot after the review, then approval is refused until the lot is reviewed again', async () => {
     await inTransaction(running.database.dataSource, (manager) =>
       appendLedgerEvent(manager, { actor: { id: null, name: 'test administrator', role: null }, action: 'lot.note-added', entity: { type: 'lot', id: lotId }, after: { note: 'corrected a typing error' } }),
     );

@@ -43,7 +43,7 @@ describe('the route × role permission matrix', () => {
   });
   afterAll(() => running.close());
 
-  it('when the app is built, then every API route starts with an access guard', () => {
+  it('[AUTHZ-GUARDED] when the app is built, then every API route starts with an access guard', () => {
     expect(apiRoutes.length).toBeGreaterThan(5);
     expect(apiRoutes.filter((route) => route.access === null).map((route) => `${route.method} ${route.path}`)).toEqual([]);
   });
@@ -54,7 +54,7 @@ describe('the route × role permission matrix', () => {
     for (const action of actions) expect(granted.has(action)).toBe(true);
   });
 
-  it('when each route is called by each role, then the server allows exactly what the matrix allows', async () => {
+  it('[AUTHZ-MATRIX] when each route is called by each role, then the server allows exactly what the matrix allows', async () => {
     let cells = 0;
     for (const route of apiRoutes) {
       const path = concretePath(route.path);

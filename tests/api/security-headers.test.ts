@@ -16,7 +16,7 @@ describe('security headers and cookies', () => {
     await behindTls.close();
   });
 
-  it('when any answer is sent, then it carries a strict content security policy without inline script, and no framework banner', async () => {
+  it('[SEC-CSP] when any answer is sent, then it carries a strict content security policy without inline script, and no framework banner', async () => {
     for (const path of ['/api/organisation', '/api/nothing-here', '/auth/login']) {
       const response = await request(plain.app).get(path);
       const policy = directives(response.headers['content-security-policy']);
@@ -32,7 +32,7 @@ describe('security headers and cookies', () => {
     }
   });
 
-  it('when served behind TLS (a proxy on loopback forwarding https), then HSTS is sent and the session cookie is Secure, HttpOnly and SameSite', async () => {
+  it('[SEC-TLS-COOKIE] when served behind TLS (a proxy on loopback forwarding https), then HSTS is sent and the session cookie is Secure, HttpOnly and SameSite', async () => {
     expect((await request(behindTls.app).get('/api/organisation')).headers['strict-transport-security']).toMatch(/max-age=\d+/);
     const saml = await SamlTestDriver.create(behindTls.config);
     const agent = request.agent(behindTls.app);

@@ -17,7 +17,7 @@ describe('sessions', () => {
   });
   afterAll(() => running.close());
 
-  it('when a person signs in again, then the session id changes and the old one no longer works (no fixation)', async () => {
+  it('[SESSION-ROTATE] when a person signs in again, then the session id changes and the old one no longer works (no fixation)', async () => {
     // The cookie is issued once, at sign-in (it does not roll with every response).
     const first = await saml.signIn(running.app, 'kiw-0101');
     const firstCookie = sessionCookie(first.setCookie);
@@ -34,14 +34,14 @@ describe('sessions', () => {
     expect(withOld.status).toBe(401);
   });
 
-  it('when the session cookie is issued, then it is HttpOnly and SameSite=Lax', async () => {
+  it('[SESSION-COOKIE] when the session cookie is issued, then it is HttpOnly and SameSite=Lax', async () => {
     const { setCookie } = await saml.signIn(running.app, 'kiw-0401');
     const cookie = setCookie.find((value) => value.startsWith('ingotrace_session='));
     expect(cookie).toMatch(/HttpOnly/i);
     expect(cookie).toMatch(/SameSite=Lax/i);
   });
 
-  it('when a state-changing request has no CSRF token, then it is refused with 403, and with the token it goes through', async () => {
+  it('[SESSION-CSRF] when a state-changing request has no CSRF token, then it is refused with 403, and with the token it goes through', async () => {
     const { agent } = await saml.signIn(running.app, 'kiw-0601');
     const token = await csrfTokenOf(agent);
     const body = { roles: ['auditor'], reason: 'covering audit week' };
@@ -55,7 +55,7 @@ describe('sessions', () => {
     expect(accepted.body.error.fields).toEqual({ reason: 'Give a reason of at least 3 characters' });
   });
 
-  it('when a signed-in person stays idle longer than the idle time-out, then the session ends with a clear message', async () => {
+  it('[SESSION-IDLE] when a signed-in person stays idle longer than the idle time-out, then the session ends with a clear message', async () => {
     const shortIdle = createTestApp({ SESSION_IDLE_MINUTES: '0.05' });
     try {
       const { agent } = await saml.signIn(shortIdle.app, 'kiw-0401');
@@ -109,7 +109,7 @@ describe('sessions', () => {
     }
   });
 
-  it('when a person signs out, then the session ends and the browser is sent to the identity provider with a LogoutRequest', async () => {
+  it('[SESSION-SIGN-OUT] when a person signs out, then the session ends and the browser is sent to the identity provider with a LogoutRequest', async () => {
     const { agent } = await saml.signIn(running.app, 'kiw-0501');
     const token = await csrfTokenOf(agent);
     const out = await agent.post('/auth/logout').set('X-CSRF-Token', token);

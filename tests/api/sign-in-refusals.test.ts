@@ -64,13 +64,13 @@ describe('sign-in refusals', () => {
     expect((await agent.get('/api/me')).status).toBe(200);
   });
 
-  it('when the response is signed by another key, then it is refused', async () => {
+  it('[SIGNIN-WRONG-KEY] when the response is signed by another key, then it is refused', async () => {
     const { agent, requestId } = await startSignIn();
     const intruder = await createSigningKey('someone else');
     await expectRefused(agent, buildSignedResponse(validInput(requestId, { privateKeyPem: intruder.privateKeyPem, certificatePem: intruder.certificatePem })), /Invalid (document )?signature/i);
   });
 
-  it('when an attribute was altered after signing, then it is refused', async () => {
+  it('[SIGNIN-ALTERED] when an attribute was altered after signing, then it is refused', async () => {
     const { agent, requestId } = await startSignIn();
     const signed = buildSignedResponse(validInput(requestId));
     const altered = signed.replace('ingotrace-auditors', 'ingotrace-administrators');
@@ -85,7 +85,7 @@ describe('sign-in refusals', () => {
     await expectRefused(agent, buildSignedResponse(validInput(requestId, { issueInstant: anHourAgo, authnInstant: anHourAgo })), /No valid subject confirmation|expired/i);
   });
 
-  it('when a response is replayed, then the second use is refused', async () => {
+  it('[SIGNIN-REPLAY] when a response is replayed, then the second use is refused', async () => {
     const { agent, requestId } = await startSignIn();
     const xml = buildSignedResponse(validInput(requestId));
     const first = await agent.post('/auth/saml/acs').type('form').send({ SAMLResponse: encodeForPost(xml), RelayState: '/' });
@@ -118,7 +118,7 @@ describe('sign-in refusals', () => {
     await expectRefused(agent, buildSignedResponse(validInput(undefined)), /InResponseTo is missing/);
   });
 
-  it('when the person is deactivated in Ingotrace, then the sign-in is refused', async () => {
+  it('[SIGNIN-DEACTIVATED] when the person is deactivated in Ingotrace, then the sign-in is refused', async () => {
     const { agent, query } = await startSignIn();
     const answer = await saml.answerAtIdentityProvider(saml.idpAgent(), query, person('kiw-0901'));
     expect(answer.samlResponse).toBeDefined();

@@ -32,7 +32,7 @@ describe('sign-in through the identity provider', () => {
   });
 
   for (const demo of demoPeople.filter((candidate) => !candidate.note)) {
-    it(`when ${demo.name} signs in, then the session carries the roles from the groups ${demo.groups.join(', ')}`, async () => {
+    it(`[SIGNIN-ROLES] when ${demo.name} signs in, then the session carries the roles from the groups ${demo.groups.join(', ')}`, async () => {
       const { agent, location } = await saml.signIn(running.app, demo.subject, '/lots');
       expect(location).toBe('/lots');
       const me = meSchema.parse((await agent.get('/api/me')).body);
@@ -42,7 +42,7 @@ describe('sign-in through the identity provider', () => {
     });
   }
 
-  it('when the wrong password is given, then the identity provider refuses and nothing reaches the app', async () => {
+  it('[SIGNIN-WRONG-PASSWORD] when the wrong password is given, then the identity provider refuses and nothing reaches the app', async () => {
     const login = await request(running.app).get('/auth/login');
     const { query } = SamlTestDriver.authnRequestFrom(login.headers.location);
     const answer = await saml.answerAtIdentityProvider(saml.idpAgent(), query, demoPeople[0]!, 'not-the-password');

@@ -27,7 +27,7 @@ describe('the specification library in the database', () => {
     );
   });
 
-  it('when the app account tries to change a stored revision, then MariaDB refuses', async () => {
+  it('[SPEC-IMMUTABLE] when the app account tries to change a stored revision, then MariaDB refuses', async () => {
     const dataSource = await running.database.connect();
     await expect(dataSource.query("UPDATE specification_revision SET edition = 'x'")).rejects.toThrow(/UPDATE command denied/);
   });

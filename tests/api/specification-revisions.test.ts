@@ -22,7 +22,7 @@ describe('new specification revisions', () => {
     return agent.post('/api/signatures').set('X-CSRF-Token', csrf).send({ ...intent, reason, contentHash: preparation.contentHash, reauthenticationId: await reauthenticate(saml, agent, subject, preparation.bindingHash) });
   };
 
-  it('when a QA reviewer drafts F1537 L2 and a QA approver signs it, then new heats use L2 while L1 stays stored', async () => {
+  it('[SPEC-REVISION] when a QA reviewer drafts F1537 L2 and a QA approver signs it, then new heats use L2 while L1 stays stored', async () => {
     const { agent, csrf } = people.reviewer!;
     const draft = await agent.post('/api/specification-drafts').set('X-CSRF-Token', csrf).send({
       specId: 'ASTM F1537',

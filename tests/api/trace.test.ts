@@ -68,7 +68,7 @@ describe('genealogy both ways on a hand-built history with a cut bar, a split, a
   const forward = async (query: string) => (await auditor.get(`/api/trace/forward?${query}`)).body as ForwardTrace;
   const numbers = (...names: string[]) => names.map((name) => lot[name]!.lotNumber).sort();
 
-  it('when traced back from the split lot, then it reaches its parent, the cut piece and its bar, one heat and one run', async () => {
+  it('[TRACE-BACKWARD] when traced back from the split lot, then it reaches its parent, the cut piece and its bar, one heat and one run', async () => {
     const trace = await backward(`lot=${lot['L1-A']!.lotNumber}`);
     expect(trace.lots.map((entry) => entry.lotNumber).sort()).toEqual(numbers('L1', 'L1-A'));
     expect(trace.barPieces.map((piece) => piece.tag).sort()).toEqual(['TRC-B1', 'TRC-B1-A']);
@@ -86,7 +86,7 @@ describe('genealogy both ways on a hand-built history with a cut bar, a split, a
     expect(trace.runs.map((run) => run.id)).toEqual([ids.r2]);
   });
 
-  it('when traced back from a scanned UDI or a Digital Link, then the same lot is found; a bad check digit is refused', async () => {
+  it('[TRACE-UDI] when traced back from a scanned UDI or a Digital Link, then the same lot is found; a bad check digit is refused', async () => {
     expect((await backward(`udi=${encodeURIComponent(`(01)09521230000031(10)${lot['L1-A']!.lotNumber}`)}`)).start).toBe(`UDI (01)09521230000031(10)${lot['L1-A']!.lotNumber}`);
     expect((await backward(`udi=${encodeURIComponent(`https://id.gs1.org/01/09521230000031/10/${lot.M!.lotNumber}`)}`)).lots).toHaveLength(3);
     const bad = await auditor.get(`/api/trace/backward?udi=${encodeURIComponent('(01)09521230000032(10)X')}`);
@@ -98,7 +98,7 @@ describe('genealogy both ways on a hand-built history with a cut bar, a split, a
     expect(foreign.body.error.fields).toEqual({ 'query.lot': '“¡” cannot be used in a GS1 lot number' });
   });
 
-  it('when traced forward from each heat, piece and run, then exactly the lots written out by hand are affected', async () => {
+  it('[TRACE-FORWARD] when traced forward from each heat, piece and run, then exactly the lots written out by hand are affected', async () => {
     const lotsOf = async (query: string) => (await forward(query)).lots.map((entry) => entry.lotNumber).sort();
     expect((await lotsOf(`heatId=${ids.h1}`)).filter((number) => numbers('L1', 'L1-A', 'L2', 'L3', 'M').includes(number))).toEqual(numbers('L1', 'L1-A', 'L2', 'M'));
     expect((await lotsOf(`heatId=${ids.h2}`)).filter((number) => numbers('L1', 'L1-A', 'L2', 'L3', 'M').includes(number))).toEqual(numbers('L3', 'M'));
@@ -160,7 +160,7 @@ describe('genealogy consistency over the demo production (property)', () => {
   const running = createTestApp();
   afterAll(() => running.close());
 
-  it('when any lot is traced back, then it is in the forward trace of each heat and run in its backward trace', async () => {
+  it('[TRACE-CONSISTENT] when any lot is traced back, then it is in the forward trace of each heat and run in its backward trace', async () => {
     const saml = await SamlTestDriver.create(running.config);
     const { agent } = await saml.signIn(running.app, 'kiw-0501');
     const lotNumbers: string[] = (await running.database.dataSource.query("SELECT lot_number FROM production_lot WHERE lot_number NOT LIKE 'T%' ORDER BY id")).map((row: { lot_number: string }) => row.lot_number);

@@ -16,7 +16,7 @@ describe('transactions when the connection is lost', () => {
   const eventsFor = async (id: string) =>
     Number((await dataSource.query("SELECT COUNT(*) AS n FROM audit_event WHERE action = 'test.retry' AND entity_id = ?", [id]))[0].n);
 
-  it('when the connection is cut before COMMIT, then the whole transaction runs again on a new connection and is saved once', async () => {
+  it('[TXN-RETRY] when the connection is cut before COMMIT, then the whole transaction runs again on a new connection and is saved once', async () => {
     await dataSource.initialize();
     const id = `before-commit-${Date.now()}`;
     let attempts = 0;
@@ -33,7 +33,7 @@ describe('transactions when the connection is lost', () => {
     expect(await eventsFor(id)).toBe(1);
   });
 
-  it('when the connection is cut while COMMIT is on its way, then nothing is repeated and the caller is told to look before repeating', async () => {
+  it('[TXN-COMMIT-CUT] when the connection is cut while COMMIT is on its way, then nothing is repeated and the caller is told to look before repeating', async () => {
     const id = `at-commit-${Date.now()}`;
     let attempts = 0;
     const outcome = inTransaction(dataSource, async (manager) => {

@@ -2,7 +2,7 @@ import { expect, test } from '@playwright/test';
 import { signInAs } from './support/sign-in';
 import { openedDialog } from './support/dialogs';
 
-test('an auditor filters the ledger, runs the verification and signs a review of the trail', async ({ page }) => {
+test('[E2E-LEDGER] an auditor filters the ledger, runs the verification and signs a review of the trail', async ({ page }) => {
   await signInAs(page, 'kiw-0401', '/audit');
   await expect(page.getByRole('heading', { level: 1, name: 'Audit ledger' })).toBeVisible();
   const table = page.getByRole('table');

@@ -2,7 +2,7 @@ import { expect, test } from '@playwright/test';
 import { signInAs } from './support/sign-in';
 import { openedDialog } from './support/dialogs';
 
-test('an engineer receives a bar against a heat, cuts it, and prints its tag with a QR code', async ({ page }) => {
+test('[E2E-BAR-STOCK] an engineer receives a bar against a heat, cuts it, and prints its tag with a QR code', async ({ page }) => {
   await signInAs(page, 'kiw-0101', '/bar-stock');
   await expect(page.getByRole('heading', { level: 1, name: 'Bar stock' })).toBeVisible();
   await page.getByRole('button', { name: 'Receive bar' }).click();

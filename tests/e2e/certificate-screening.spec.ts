@@ -2,7 +2,7 @@ import { expect, test } from '@playwright/test';
 import { signInAs } from './support/sign-in';
 import { openedDialog } from './support/dialogs';
 
-test('a QA reviewer meets a heat flagged by the certificate screening and acknowledges the finding with a reason', async ({ page }) => {
+test('[E2E-SCREENING] a QA reviewer meets a heat flagged by the certificate screening and acknowledges the finding with a reason', async ({ page }) => {
   await signInAs(page, 'kiw-0201', '/heats');
   await page.getByRole('table').getByRole('link', { name: 'BAW-7892' }).click();
   await expect(page.getByRole('heading', { level: 1, name: 'Heat BAW-7892' })).toBeVisible();

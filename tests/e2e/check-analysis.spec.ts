@@ -3,7 +3,7 @@ import { signInAs } from './support/sign-in';
 import { openedDialog } from './support/dialogs';
 
 // ASTM F67 grade 4 oxygen: heat limit ≤ 0.40, product-analysis tolerance 0.03 over (DOMAIN.md §1.1, S1).
-test('an engineer records our own check analysis of a heat the schedule marks, and the heat page judges it against the widened limits', async ({ page }) => {
+test('[E2E-CHECK-ANALYSIS] an engineer records our own check analysis of a heat the schedule marks, and the heat page judges it against the widened limits', async ({ page }) => {
   await signInAs(page, 'kiw-0101', '/heats');
   const due = page.getByRole('region', { name: /heats? awaiting our check analysis/ });
   await expect(due).toContainText('Every heat from a conditionally approved supplier is checked');

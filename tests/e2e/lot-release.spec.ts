@@ -3,7 +3,7 @@ import { signInAs } from './support/sign-in';
 import { signWithPassword } from './support/signing';
 
 
-test('a QA reviewer and then a different QA approver sign a submitted lot, which is released', async ({ page }) => {
+test('[E2E-RELEASE] a QA reviewer and then a different QA approver sign a submitted lot, which is released', async ({ page }) => {
   test.setTimeout(90_000);
   await signInAs(page, 'kiw-0201', '/release');
   await expect(page.getByRole('heading', { level: 1, name: 'Release desk' })).toBeVisible();

@@ -12,7 +12,7 @@ async function api(page: Page, method: 'get' | 'post', path: string, data?: unkn
 }
 
 
-test('an engineer opens a lot from a bar, records its operations, runs it with two other lots through passivation and cleaning, and raises a nonconformance that QA closes', async ({ page }) => {
+test('[E2E-MANUFACTURING] an engineer opens a lot from a bar, records its operations, runs it with two other lots through passivation and cleaning, and raises a nonconformance that QA closes', async ({ page }) => {
   test.setTimeout(120_000);
   await signInAs(page, 'kiw-0102', '/lots');
   await expect(page.getByRole('heading', { level: 1, name: 'Production lots' })).toBeVisible();

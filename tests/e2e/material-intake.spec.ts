@@ -4,7 +4,7 @@ import { openedDialog } from './support/dialogs';
 
 const certificatePdf = Buffer.from('%PDF-1.4\n1 0 obj << /Type /Catalog >> endobj\n% heat E2E-4711 certificate\ntrailer << /Root 1 0 R >>\n%%EOF\n');
 
-test('an engineer receives a heat, attaches its certificate and enters results; a QA reviewer accepts it with a signature', async ({ page }) => {
+test('[E2E-INTAKE] an engineer receives a heat, attaches its certificate and enters results; a QA reviewer accepts it with a signature', async ({ page }) => {
   await signInAs(page, 'kiw-0101', '/heats');
   await expect(page.getByRole('heading', { level: 1, name: 'Heats and certificates' })).toBeVisible();
   await expect(page.getByRole('note', { name: 'Specification limits caution' })).toContainText('verify them against your licensed copy');

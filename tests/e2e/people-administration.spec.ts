@@ -3,7 +3,7 @@ import { demoPeople } from '../../scripts/stand-in-idp/demo-people';
 import { signInAs } from './support/sign-in';
 import { openedDialog } from './support/dialogs';
 
-test('an administrator finds a person, changes their roles with a reason, and deactivates and reactivates them', async ({ page }) => {
+test('[E2E-PEOPLE] an administrator finds a person, changes their roles with a reason, and deactivates and reactivates them', async ({ page }) => {
   await signInAs(page, 'kiw-0601', '/administration');
   await expect(page.getByRole('heading', { level: 1, name: 'People and roles' })).toBeVisible();
   const table = page.getByRole('table');

@@ -3,7 +3,7 @@ import { expect, test } from '@playwright/test';
 import { parse } from 'csv-parse/sync';
 import { signInAs } from './support/sign-in';
 
-test('an auditor lists the plant’s recall drills with their durations and reads one drill’s report, on screen, as CSV and as PDF', async ({ page }) => {
+test('[E2E-DRILL] an auditor lists the plant’s recall drills with their durations and reads one drill’s report, on screen, as CSV and as PDF', async ({ page }) => {
   await signInAs(page, 'kiw-0401', '/recalls');
   await expect(page.getByRole('heading', { level: 1 })).toBeVisible();
   await page.getByLabel('Filter by kind').click();

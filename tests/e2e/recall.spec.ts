@@ -7,7 +7,7 @@ import { openedDialog } from './support/dialogs';
 
 const mailCatcher = `http://127.0.0.1:${loadConfig().MAIL_WEB_PORT}`;
 
-test('a recall coordinator opens a recall from a heat, sees the lots and consignees it reaches, exports them, and the recall team is mailed', async ({ page }) => {
+test('[E2E-RECALL] a recall coordinator opens a recall from a heat, sees the lots and consignees it reaches, exports them, and the recall team is mailed', async ({ page }) => {
   test.setTimeout(60_000);
   await signInAs(page, 'kiw-0501', '/trace');
   await expect(page.getByRole('heading', { level: 1, name: 'Trace and recall' })).toBeVisible();

@@ -1,7 +1,7 @@
 import { expect, test } from '@playwright/test';
 import { signInAs } from './support/sign-in';
 
-test('an auditor scans a UDI and reaches the bar, the heat and its certificate; then sees what that heat touches', async ({ page }) => {
+test('[E2E-TRACE] an auditor scans a UDI and reaches the bar, the heat and its certificate; then sees what that heat touches', async ({ page }) => {
   await signInAs(page, 'kiw-0401', '/lots');
   // Signed in once the lots page shows; the API calls below use the same session.
   await expect(page.getByRole('heading', { level: 1, name: 'Production lots' })).toBeVisible();

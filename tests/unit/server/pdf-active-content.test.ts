@@ -25,7 +25,7 @@ describe('active content in PDFs', () => {
     expect(pdfActiveContent(pdf(catalog, pages))).toEqual([]);
   });
 
-  it('when JavaScript opens with the document, is spelled with #xx escapes, or hides in a compressed object stream, then it is found', () => {
+  it('[UPLOAD-PDF-SCRIPT] when JavaScript opens with the document, is spelled with #xx escapes, or hides in a compressed object stream, then it is found', () => {
     expect(pdfActiveContent(pdf('<< /Type /Catalog /Pages 2 0 R /OpenAction 3 0 R >>', pages, '<< /S /JavaScript /JS (app.alert\\(1\\)) >>'))).toEqual(['JavaScript']);
     expect(pdfActiveContent(pdf('<< /Type /Catalog /Pages 2 0 R /OpenAction << /S /J#61vaScript /J#53 (x) >> >>', pages))).toEqual(['JavaScript']);
     const hidden = deflateSync(Buffer.from('3 0 << /S /JavaScript /JS (this.exportDataObject\\(\\)) >>', 'latin1'));

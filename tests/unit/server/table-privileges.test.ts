@@ -23,7 +23,7 @@ describe('table privileges', () => {
     expect(sql).not.toMatch(/GRANT (?!RELOAD ON \*\.\* )[^;]* TO 'app'/);
   });
 
-  it('when granting the app user, then each table gets exactly its access level', () => {
+  it('[DB-GRANTS] when granting the app user, then each table gets exactly its access level', () => {
     tableAccess.audit_event_example = 'append-only';
     try {
       const sql = appGrantsSql(accounts, ['organisation', 'migrations', 'audit_event_example'], [{ host: '127.0.0.1', table: 'dropped_table' }]);

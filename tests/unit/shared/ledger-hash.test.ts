@@ -69,13 +69,13 @@ describe('the ledger hash chain', () => {
     expect(firstBrokenEvent(chain(['received', 'accepted', 'issued']), sha256)).toBeNull();
   });
 
-  it('when one event’s content is changed, then verification names exactly that event', () => {
+  it('[LEDGER-HASH-CHANGE] when one event’s content is changed, then verification names exactly that event', () => {
     const events = chain(['received', 'accepted', 'issued']);
     events[1]!.content.after = { status: 'rejected' };
     expect(firstBrokenEvent(events, sha256)).toEqual({ seq: 2, why: 'its content no longer matches its hash' });
   });
 
-  it('when an event is removed, then the gap is named', () => {
+  it('[LEDGER-HASH-GAP] when an event is removed, then the gap is named', () => {
     const events = chain(['received', 'accepted', 'issued']);
     expect(firstBrokenEvent([events[0]!, events[2]!], sha256)).toEqual({ seq: 3, why: 'sequence 2 expected, found 3' });
   });

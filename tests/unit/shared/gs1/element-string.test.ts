@@ -7,7 +7,7 @@ import { gs1CheckDigit } from '@shared/domain/gs1/gtin';
 const example = { gtin: '09506000134352', expiry: '261231', lot: 'ABC123', serial: '12345', productionDate: null };
 
 describe('GS1 element strings', () => {
-  it('when the syntax dictionary’s example is built, then fixed-length AIs come first and GS follows the lot only', () => {
+  it('[GS1-ELEMENT-STRING] when the syntax dictionary’s example is built, then fixed-length AIs come first and GS follows the lot only', () => {
     // Source: GS1 Barcode Syntax Dictionary AI formats; vector (01)09506000134352(17)261231(10)ABC123(21)12345 as worked on the reference sheet.
     expect(buildElementString(example)).toBe('(01)09506000134352(17)261231(10)ABC123(21)12345');
     expect(buildBarcodeData(example)).toBe(`0109506000134352172612311` + `0ABC123${GS}2112345`);
@@ -29,7 +29,7 @@ describe('GS1 element strings', () => {
     expect(() => parseUdi('(10)ABC')).toThrow('No GTIN (AI 01) found');
     expect(() => parseUdi('0109506000134352(10)x')).toThrow();
   });
-  it('when bwip-js (BWIPP’s GS1 linter) checks what we build, then it accepts it; a bad check digit it refuses like we do', async () => {
+  it('[GS1-BWIPP] when bwip-js (BWIPP’s GS1 linter) checks what we build, then it accepts it; a bad check digit it refuses like we do', async () => {
     // Reference library from the registry as the outside oracle.
     await expect(bwipjs.toBuffer({ bcid: 'gs1datamatrix', text: buildElementString(example) })).resolves.toBeInstanceOf(Buffer);
     await expect(bwipjs.toBuffer({ bcid: 'gs1dlqrcode', text: buildDigitalLink(example) })).resolves.toBeInstanceOf(Buffer);

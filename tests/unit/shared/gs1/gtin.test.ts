@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { gs1CheckDigit, gtinProblem, lotNumberProblem, toGtin14 } from '@shared/domain/gs1/gtin';
 
 describe('GTIN check digits (GS1 mod-10)', () => {
-  it('when the GS1 worked example 0952123454321 is checked, then the weighted sum is 77 and the check digit 3', () => {
+  it('[GS1-CHECK-DIGIT] when the GS1 worked example 0952123454321 is checked, then the weighted sum is 77 and the check digit 3', () => {
     // Source: GS1 check digit rule (gs1.org calculator); GTIN 09521234543213 as used in GS1 Digital Link examples.
     expect(gs1CheckDigit('0952123454321')).toBe(3);
     expect(gtinProblem('09521234543213')).toBeNull();
@@ -35,7 +35,7 @@ describe('GTIN check digits (GS1 mod-10)', () => {
 });
 
 describe('lot numbers as GS1 AI 10 values', () => {
-  it('when a lot number uses only CSET 82 and at most 20 characters, then it is accepted', () => {
+  it('[GS1-LOT-CHARACTERS] when a lot number uses only CSET 82 and at most 20 characters, then it is accepted', () => {
     // Source: GS1 Barcode Syntax Dictionary, AI 10 = X..20 in CSET 82.
     expect(lotNumberProblem('KIW-2614-0001')).toBeNull();
     expect(lotNumberProblem('A:;<=>?_z')).toBeNull();
