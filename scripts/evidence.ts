@@ -1,5 +1,6 @@
 // npm run evidence: runs every test suite (the npm test bootstrap and runners), then writes the
-// validation evidence report as PDF and HTML into .data/evidence/<time>/ with SHA256SUMS beside it.
+// validation evidence report as PDF and HTML (and its facts as JSON) into .data/evidence/<time>/
+// with SHA256SUMS beside it.
 // The report records failures as they are; the command exits non-zero when any runner failed or
 // any requirement is not shown, after writing the report.
 import { execFileSync, spawn } from 'node:child_process';
@@ -106,10 +107,13 @@ async function main(): Promise<void> {
   const pdf = await evidencePdf(data, hash);
   writeFileSync(join(folder, 'evidence.html'), html);
   writeFileSync(join(folder, 'evidence.pdf'), pdf);
-  writeFileSync(join(folder, 'SHA256SUMS'), `${sha256(pdf)}  evidence.pdf\n${sha256(html)}  evidence.html\n`);
+  // What the report states, for machines: the same facts the content hash covers.
+  const json = Buffer.from(`${JSON.stringify({ ...data, screenshots: data.screenshots.map(({ name, sha256: hash }) => ({ name, sha256: hash })), contentSha256: hash }, null, 2)}\n`, 'utf8');
+  writeFileSync(join(folder, 'evidence.json'), json);
+  writeFileSync(join(folder, 'SHA256SUMS'), `${sha256(pdf)}  evidence.pdf\n${sha256(html)}  evidence.html\n${sha256(json)}  evidence.json\n`);
 
   const counts = countsOf(data);
-  log(`evidence report written to ${folder}/ (evidence.pdf, evidence.html, SHA256SUMS)`);
+  log(`evidence report written to ${folder}/ (evidence.pdf, evidence.html, evidence.json, SHA256SUMS)`);
   log(`content SHA-256 ${hash}`);
   log(`${counts.requirements} requirements: ${counts.shown} shown by passing tests, ${counts.notShown} not shown, ${counts.procedural} by the firm's procedures alone; ${counts.testsPassed} of ${counts.testsCited} cited tests passed; ${screenshots.length} screenshots`);
   for (const requirement of requirements.filter((entry) => entry.status === 'not-shown')) {

@@ -1,6 +1,7 @@
 // The validation evidence report: what was tested, where, when, and what each requirement's tests
 // showed, as HTML and as PDF (pdfmake with the shipped Noto Sans), with the SHA-256 of its content.
 import { createHash } from 'node:crypto';
+import { PNG } from 'pngjs';
 import type { Content, TDocumentDefinitions } from 'pdfmake/interfaces';
 import { canonicalJson } from '../../shared/domain/ledger-hash';
 import { cautionBox, documentStyles, heading, pageFooter, table } from '../../server/src/documents/pdf-blocks';
@@ -51,6 +52,24 @@ export function contentHash(data: EvidenceData): string {
 export function runnerLines(output: string): Array<{ name: string; passed: number; failed: number }> {
   const summary = output.slice(output.lastIndexOf('\nSummary\n'));
   return [...summary.matchAll(/^ {2}(.+?)\s+(\d+) passed\s+(\d+) failed/gm)].map((match) => ({ name: match[1]!.trim(), passed: Number(match[2]), failed: Number(match[3]) }));
+}
+
+/**
+ * A full-page screenshot cut into page-shaped slices (at most `most`), so that the PDF shows it
+ * readable rather than shrunk to a strip; the HTML report keeps the whole image.
+ */
+export function screenshotSlices(pngBase64: string, most = 3): { slices: string[]; total: number } {
+  const image = PNG.sync.read(Buffer.from(pngBase64, 'base64'));
+  const height = Math.round(image.width * 1.25);
+  const total = Math.ceil(image.height / height);
+  const slices: string[] = [];
+  for (let index = 0; index < Math.min(total, most); index++) {
+    const top = index * height;
+    const slice = new PNG({ width: image.width, height: Math.min(height, image.height - top) });
+    image.data.copy(slice.data, 0, top * image.width * 4, (top + slice.height) * image.width * 4);
+    slices.push(PNG.sync.write(slice).toString('base64'));
+  }
+  return { slices, total };
 }
 
 const statusText = { shown: 'SHOWN', 'not-shown': 'NOT SHOWN', procedural: 'PROCEDURE' } as const;
@@ -165,9 +184,16 @@ export async function evidencePdf(data: EvidenceData, hash: string): Promise<Buf
       heading('Requirements'),
       ...requirementBlocks,
       ...(data.screenshots.length ? [{ text: 'Screenshots from the browser journeys', style: 'heading', pageBreak: 'before' } as Content] : []),
-      ...data.screenshots.map(
-        (shot): Content => ({ stack: [{ text: `${shot.name} · SHA-256 ${shot.sha256.slice(0, 32)}…`, fontSize: 8, margin: [0, 6, 0, 2] }, { image: `data:image/png;base64,${shot.png}`, fit: [515, 330] }], unbreakable: true }),
-      ),
+      ...data.screenshots.flatMap((shot): Content[] => {
+        const { slices, total } = screenshotSlices(shot.png);
+        return slices.map((slice, index) => ({
+          stack: [
+            { text: `${shot.name}${total > 1 ? ` (part ${index + 1} of ${total}${total > slices.length ? `; parts ${slices.length + 1}–${total} in the HTML report` : ''})` : ''} · SHA-256 ${shot.sha256.slice(0, 32)}…`, fontSize: 8, margin: [0, 6, 0, 2] },
+            { image: `data:image/png;base64,${slice}`, fit: [515, 640] },
+          ],
+          unbreakable: true,
+        }));
+      }),
       table(['Content SHA-256'], [[hash]]),
       { text: 'The SHA-256 of the RFC 8785 canonical JSON of what this report states (screenshots by their own hashes). SHA256SUMS beside this file holds the hashes of the report’s files.', fontSize: 8, color: '#555' },
     ],

@@ -4,7 +4,8 @@
 import { createHash } from 'node:crypto';
 import canonicalize from 'canonicalize';
 import { describe, expect, it } from 'vitest';
-import { contentHash, countsOf, evidenceHtml, evidencePdf, runnerLines, type EvidenceData } from '../../../scripts/compliance/evidence-report';
+import { PNG } from 'pngjs';
+import { contentHash, countsOf, evidenceHtml, evidencePdf, runnerLines, screenshotSlices, type EvidenceData } from '../../../scripts/compliance/evidence-report';
 import { judge, type Requirement, type TestResult } from '../../../scripts/compliance/matrix';
 import { readPdf } from '../../helpers/document-readers';
 
@@ -57,6 +58,19 @@ describe('the validation evidence report', () => {
     expect(html).toContain('<code>B-TWO</code> failed');
     expect(html).toContain("3 requirements: 1 shown by passing tests, 1 not shown, 1 met by the firm's procedures alone");
     expect(html).toContain('c'.repeat(64));
+  });
+
+  it('cuts a tall screenshot into page-shaped slices (width × 1.25) without losing or moving a row', () => {
+    // 10 px wide, 30 rows, each row's red value is its row number: slices of 13, 13 and 4 rows.
+    const image = new PNG({ width: 10, height: 30 });
+    for (let y = 0; y < 30; y++) for (let x = 0; x < 10; x++) image.data.set([y, 0, 0, 255], (y * 10 + x) * 4);
+    const { slices, total } = screenshotSlices(PNG.sync.write(image).toString('base64'));
+    expect(total).toBe(3);
+    const read = slices.map((slice) => PNG.sync.read(Buffer.from(slice, 'base64')));
+    expect(read.map((slice) => slice.height)).toEqual([13, 13, 4]);
+    expect(read.map((slice) => slice.data[0])).toEqual([0, 13, 26]);
+    expect(read[2]!.data[(3 * 10 + 9) * 4]).toBe(29);
+    expect(screenshotSlices(PNG.sync.write(image).toString('base64'), 2)).toMatchObject({ total: 3, slices: [expect.any(String), expect.any(String)] });
   });
 
   it('renders a PDF that says NOT SHOWN where a test failed and carries the content hash', async () => {
