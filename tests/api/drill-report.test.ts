@@ -8,24 +8,11 @@ import { createTestApp } from '../helpers/test-app';
 import { SamlTestDriver, signInPeople } from '../helpers/saml-round-trip';
 import { signThroughApi } from '../helpers/signing';
 import { readPdf } from '../helpers/document-readers';
+import { readyLotOf, twoStepPart } from '../helpers/two-step-part';
 
 type Agent = Awaited<ReturnType<SamlTestDriver['signIn']>>['agent'];
 
-const part = {
-  partNumber: 'TST-DRL-01',
-  revision: 'A',
-  description: 'Drill test screw',
-  gtin: '09521230000055',
-  unitLengthMm: '30',
-  cutoffAllowanceMm: '2',
-  lotPattern: 'DRL{SEQ:4}',
-  specifications: [{ specId: 'ASTM F136' }],
-  routing: [
-    { kind: 'machining', name: 'Turn' },
-    { kind: 'inspection', name: 'Final inspection', sampleSize: 5, acceptNumber: 0, rejectNumber: 1 },
-  ],
-};
-const times = { operatorName: 'Test', workCentre: 'Cell 2', startedAt: '2026-11-20T08:00:00Z', endedAt: '2026-11-20T09:00:00Z' };
+const part = twoStepPart({ partNumber: 'TST-DRL-01', description: 'Drill test screw', gtin: '09521230000055', lotPattern: 'DRL{SEQ:4}' });
 
 describe('recall drill report', () => {
   const running = createTestApp();
@@ -49,14 +36,7 @@ describe('recall drill report', () => {
         response.on('data', (chunk: Buffer) => chunks.push(chunk));
         response.on('end', () => done(null, Buffer.concat(chunks)));
       });
-  async function madeLot(): Promise<{ id: number; lotNumber: string }> {
-    const lot = (await post('engineer', '/api/lots', { partId, plannedQty: 20 })).body;
-    expect((await post('engineer', `/api/lots/${lot.id}/material-issues`, { tag: 'TST-DRL-BAR', lengthMm: '640' })).status).toBe(201);
-    await post('engineer', `/api/lots/${lot.id}/operations`, { ...times, stepNo: 10, qtyIn: 20, qtyGood: 20, qtyScrap: 0 });
-    await post('engineer', `/api/lots/${lot.id}/operations`, { ...times, stepNo: 20, qtyIn: 20, qtyGood: 20, qtyScrap: 0, inspected: 5, defectsFound: 0 });
-    await post('engineer', `/api/lots/${lot.id}/labels`, { kind: 'print', qty: 20 });
-    return { id: lot.id, lotNumber: lot.lotNumber };
-  }
+  const madeLot = () => readyLotOf((path, body) => post('engineer', path, body), partId, 'TST-DRL-BAR');
 
   beforeAll(async () => {
     saml = await SamlTestDriver.create(running.config);

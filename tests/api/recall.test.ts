@@ -8,25 +8,11 @@ import { readPdf } from '../helpers/document-readers';
 import { parse } from 'csv-parse/sync';
 import { createHash } from 'node:crypto';
 import canonicalize from 'canonicalize';
+import { readyLotOf, twoStepPart } from '../helpers/two-step-part';
 
 type Agent = Awaited<ReturnType<SamlTestDriver['signIn']>>['agent'];
 
-// Two steps, so that a lot can be brought to "ready for release" in a few calls.
-const part = {
-  partNumber: 'TST-RCL-01',
-  revision: 'A',
-  description: 'Recall test pin',
-  gtin: '09521230000048',
-  unitLengthMm: '30',
-  cutoffAllowanceMm: '2',
-  lotPattern: 'Q{SEQ:4}',
-  specifications: [{ specId: 'ASTM F136' }],
-  routing: [
-    { kind: 'machining', name: 'Turn' },
-    { kind: 'inspection', name: 'Final inspection', sampleSize: 5, acceptNumber: 0, rejectNumber: 1 },
-  ],
-};
-const times = { operatorName: 'Test', workCentre: 'Cell 1', startedAt: '2026-11-20T08:00:00Z', endedAt: '2026-11-20T09:00:00Z' };
+const part = twoStepPart({ partNumber: 'TST-RCL-01', description: 'Recall test pin', gtin: '09521230000048', lotPattern: 'Q{SEQ:4}' });
 
 describe('recall investigations: frozen snapshot, holds, re-run difference, exports, mail, closing signature, drills', () => {
   const running = createTestApp();
@@ -40,14 +26,7 @@ describe('recall investigations: frozen snapshot, holds, re-run difference, expo
   function post(who: string, path: string, body: unknown) {
     return people[who]!.agent.post(path).set('X-CSRF-Token', people[who]!.csrf).send(body as object);
   }
-  async function readyLot(): Promise<{ id: number; lotNumber: string }> {
-    const lot = (await post('engineer', '/api/lots', { partId, plannedQty: 20 })).body;
-    await post('engineer', `/api/lots/${lot.id}/material-issues`, { tag: 'TST-RCL-BAR', lengthMm: '640' });
-    await post('engineer', `/api/lots/${lot.id}/operations`, { ...times, stepNo: 10, qtyIn: 20, qtyGood: 20, qtyScrap: 0 });
-    await post('engineer', `/api/lots/${lot.id}/operations`, { ...times, stepNo: 20, qtyIn: 20, qtyGood: 20, qtyScrap: 0, inspected: 5, defectsFound: 0 });
-    await post('engineer', `/api/lots/${lot.id}/labels`, { kind: 'print', qty: 20 });
-    return { id: lot.id, lotNumber: lot.lotNumber };
-  }
+  const readyLot = () => readyLotOf((path, body) => post('engineer', path, body), partId, 'TST-RCL-BAR');
   const detail = async (id: number) => (await people.auditor!.agent.get(`/api/recalls/${id}`)).body as RecallDetail;
   const readiness = async (lotId: number) => (await people.auditor!.agent.get(`/api/lots/${lotId}/release`)).body.readiness;
 

@@ -9,7 +9,7 @@ import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
 import { findOrganisation } from '../organisation/organisation.repository';
 import { drillReport } from './drill-report.service';
-import { recallCaution } from './recall-exports';
+import { consigneeSection, recallCaution } from './recall-exports';
 
 const utc = (iso: string) => iso.replace('T', ' ').replace(/\.\d+Z$|Z$/, '');
 
@@ -89,12 +89,7 @@ export async function drillReportPdf(report: DrillReport, organisation: string):
       { text: 'Units made: what each lot started with, less what it passed on to lots split or merged from it (counted there, not twice).', fontSize: 8, color: '#555', margin: [0, 2, 0, 0] },
       heading('Completeness checks'),
       ...checkRows,
-      heading('Consignees who received affected units'),
-      table(
-        ['Consignee', 'Kind', 'Country', 'Units', 'Lots'],
-        report.consignees.map((consignee) => [consignee.name, consignee.kind, consignee.country, String(consignee.units), String(consignee.lots)]),
-        ['*', 80, 50, 50, 40],
-      ),
+      ...consigneeSection(report.consignees),
       heading('Affected lots'),
       table(
         ['Lot', 'Part', 'Status', 'Heats', 'Started', 'Released', 'Shipped', 'Here'],

@@ -1,6 +1,6 @@
 import { stringify } from 'csv-stringify/sync';
 import type { DataSource } from 'typeorm';
-import type { TDocumentDefinitions } from 'pdfmake/interfaces';
+import type { Content, TDocumentDefinitions } from 'pdfmake/interfaces';
 import type { RecallSnapshotContent, RecallSnapshotMeta } from '@shared/schemas/recall';
 import { cautionBox, documentStyles, hashBlock, heading, pageFooter, table } from '../../documents/pdf-blocks';
 import { renderPdf } from '../../documents/pdf-printer';
@@ -22,6 +22,18 @@ export function recallCsv(meta: RecallSnapshotMeta, content: RecallSnapshotConte
   ];
   const header = ['investigation', 'mode', 'snapshot', 'traced_at_utc', 'traced_by', 'snapshot_sha256', 'row', 'lot', 'part', 'lot_status', 'came_from_lots', 'units_made', 'units_released', 'units_shipped', 'units_on_hand', 'consignee', 'consignee_kind', 'country', 'affected_lots_received'];
   return stringify(rows, { header: true, columns: header });
+}
+
+/** The consignees an affected set reached, as every recall document prints them. */
+export function consigneeSection(consignees: RecallSnapshotContent['trace']['consignees']): Content[] {
+  return [
+    heading('Consignees who received affected units'),
+    table(
+      ['Consignee', 'Kind', 'Country', 'Units', 'Lots'],
+      consignees.map((consignee) => [consignee.name, consignee.kind, consignee.country, String(consignee.units), String(consignee.lots)]),
+      ['*', 80, 50, 50, 40],
+    ),
+  ];
 }
 
 /** The printable account of an affected set: totals, lots, consignees and the snapshot's hash. */
@@ -59,12 +71,7 @@ export async function recallPdf(meta: RecallSnapshotMeta, content: RecallSnapsho
         ['Affected lots', 'Units made', 'Released', 'Shipped', 'Released, still here', 'Consignees'],
         [[String(trace.lots.length), String(trace.totals.made), String(trace.totals.released), String(trace.totals.shipped), String(trace.totals.onHand), String(trace.consignees.length)]],
       ),
-      heading('Consignees who received affected units'),
-      table(
-        ['Consignee', 'Kind', 'Country', 'Units', 'Lots'],
-        trace.consignees.map((consignee) => [consignee.name, consignee.kind, consignee.country, String(consignee.units), String(consignee.lots)]),
-        ['*', 80, 50, 50, 40],
-      ),
+      ...consigneeSection(trace.consignees),
       heading('Affected lots'),
       table(
         ['Lot', 'Part', 'Status', 'Came from', 'Made', 'Released', 'Shipped', 'Here'],
