@@ -9,23 +9,11 @@ import { buildBarcodeData } from '@shared/domain/gs1/element-string';
 import { packetData, renderReleasePacket } from '../../server/src/modules/release/release-packet';
 import request from 'supertest';
 import { createHash } from 'node:crypto';
+import { twoStepPart } from '../helpers/two-step-part';
 
 type Agent = Awaited<ReturnType<SamlTestDriver['signIn']>>['agent'];
 
-const part = {
-  partNumber: 'TST-PIN-02',
-  revision: 'A',
-  description: 'Test pin 2.0 × 30',
-  gtin: '09521230000024',
-  unitLengthMm: '30',
-  cutoffAllowanceMm: '2',
-  lotPattern: 'R{YY}{SEQ:4}',
-  specifications: [{ specId: 'ASTM F136' }],
-  routing: [
-    { kind: 'machining', name: 'Turn' },
-    { kind: 'inspection', name: 'Final inspection', sampleSize: 5, acceptNumber: 0, rejectNumber: 1 },
-  ],
-};
+const part = twoStepPart({ partNumber: 'TST-PIN-02', description: 'Test pin 2.0 × 30', gtin: '09521230000024', lotPattern: 'R{YY}{SEQ:4}' });
 
 describe('lot release: readiness, submission, two signatures, shipment', () => {
   const running = createTestApp();
