@@ -104,12 +104,18 @@ describe('lot release: readiness, submission, two signatures, shipment', () => {
     const sha256 = createHash('sha256').update(pdf).digest('hex');
     expect(response.headers['x-packet-sha256']).toBe(sha256);
     const { text, qrCodes, dataMatrix } = readPdf(pdf);
-    for (const section of ['Release packet', 'Release signatures', 'Genealogy', 'Material certificates and their evaluation', 'Operations', 'Passivation and cleaning runs', 'Inspections', 'Nonconformances', 'Release checklist as evaluated', 'Every signature in this record', 'Packet content SHA-256']) {
+    for (const section of ['Release packet', 'Release signatures', 'Genealogy', 'Material certificates and their evaluation', 'Operations', 'Passivation and cleaning runs', 'Inspections', 'Nonconformances', 'Release checklist as evaluated', 'Audit trail reviewed before release', 'Every signature in this record', 'Packet content SHA-256']) {
       expect(text, section).toContain(section);
     }
     expect(text).toContain('Regulated release rests with the firm’s quality system');
     expect(text).toContain('Aisling Ní Bhriain — Reviewed —');
     expect(text).toContain('Joaquín Ferreira — Approved for release —');
+    // The trail the reviewer's signature recorded is printed with the packet, event by event.
+    const { auditTrail } = await view(lots[0]!);
+    const reviewed = auditTrail.events.filter((event: { seq: number }) => event.seq <= auditTrail.reviewedThroughSeq);
+    expect(text).toContain(`The QA review covered ${reviewed.length} ledger event(s) on this lot`);
+    expect(text).toContain('lot.opened');
+    expect(text).toContain('lot.material-issued');
     expect(text).toContain('TST-REL-BAR');
     const [certificate] = await running.database.dataSource.query(
       "SELECT d.sha256 FROM bar_piece b JOIN heat_certificate c ON c.heat_id = b.heat_id JOIN certificate_document d ON d.id = c.document_id WHERE b.tag = 'TST-REL-BAR' LIMIT 1",

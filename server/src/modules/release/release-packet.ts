@@ -7,7 +7,9 @@ import { contentHash } from '@shared/domain/signatures';
 import { cautionBox, documentStyles, hashBlock as hash, heading, pageFooter, table } from '../../documents/pdf-blocks';
 import { renderPdf } from '../../documents/pdf-printer';
 import { sha256Hex } from '../ledger/ledger.repository';
+import type { AuditTrail } from '@shared/schemas/release';
 import { ancestry, releaseDossierIn } from './release-dossier';
+import { lotAuditTrail } from './audit-trail';
 
 export const releaseCaution =
   'Regulated release rests with the firm’s quality system. Ingotrace keeps the records and computes the checks; the decision to release belongs to the firm’s validated procedures and authorised people.';
@@ -26,6 +28,8 @@ export interface PacketData {
   barPieces: Array<{ tag: string; heat: string }>;
   signatures: SignatureLine[];
   releasedAt: Date;
+  /** The ledger events the QA review covered (the lot's and those of the lots its units came through). */
+  auditTrail: { reviewedThroughSeq: number | null; events: AuditTrail['events'] };
   elementString: string;
   digitalLink: string;
   /** SHA-256 of the canonical JSON of everything the packet states. */
@@ -69,6 +73,8 @@ export async function packetData(manager: EntityManager, lotId: number, publicUr
   const [organisation]: Array<{ name: string }> = await manager.query('SELECT name FROM organisation ORDER BY id LIMIT 1');
   const content = dossier.content as PacketData['dossier'];
   const udi = { gtin: content.gtin, lot: content.lot, serial: null, expiry: null, productionDate: null };
+  const trail = await lotAuditTrail(manager, lotId, lineage);
+  const reviewed = trail.reviewedThroughSeq;
   const data = {
     organisation: organisation?.name ?? '',
     lotId,
@@ -76,6 +82,7 @@ export async function packetData(manager: EntityManager, lotId: number, publicUr
     barPieces,
     signatures,
     releasedAt,
+    auditTrail: { reviewedThroughSeq: reviewed, events: reviewed === null ? [] : trail.events.filter((event) => event.seq <= reviewed) },
     elementString: buildElementString(udi),
     digitalLink: buildDigitalLink(udi, publicUrl),
   };
@@ -179,6 +186,19 @@ export async function renderReleasePacket(data: PacketData): Promise<Buffer> {
       ),
       heading('Release checklist as evaluated'),
       table(['Item', 'Result', 'Why'], dossier.readiness.map((item) => [item.item, item.verdict, item.why]), [150, 40, '*']),
+      heading('Audit trail reviewed before release'),
+      {
+        text:
+          data.auditTrail.reviewedThroughSeq === null
+            ? 'No review of the audit trail is recorded.'
+            : `The QA review covered ${data.auditTrail.events.length} ledger event(s) on this lot and the lots its units came through, up to ledger event ${data.auditTrail.reviewedThroughSeq}.`,
+        margin: [0, 0, 0, 4],
+      },
+      table(
+        ['Event', 'Time (UTC)', 'By', 'What', 'Lot', 'Reason'],
+        data.auditTrail.events.map((event) => [String(event.seq), event.occurredAt.replace('T', ' ').slice(0, 19), event.actor, event.action, event.lot, event.reason ?? '']),
+        [34, 78, 80, 90, 50, '*'],
+      ),
       heading('Every signature in this record'),
       table(
         ['Record', 'Signature', 'Reason', 'Signed content SHA-256'],
