@@ -197,7 +197,7 @@ export async function renderReleasePacket(data: PacketData): Promise<Buffer> {
       table(
         ['Event', 'Time (UTC)', 'By', 'What', 'Lot', 'Reason'],
         data.auditTrail.events.map((event) => [String(event.seq), event.occurredAt.replace('T', ' ').slice(0, 19), event.actor, event.action, event.lot, event.reason ?? '']),
-        [34, 78, 80, 90, 50, '*'],
+        [34, 94, 76, 92, 50, '*'],
       ),
       heading('Every signature in this record'),
       table(
