@@ -3,7 +3,7 @@
 // read routes, then a mixed profile with one write in ten. Reports requests per second, p50 and
 // p99, errors, and that the ledger chain verifies afterwards. Targets on a 2-core machine: reads
 // at least 1,500 req/s with p99 at most 50 ms, and no errors.
-import type { ChildProcess } from 'node:child_process';
+import { spawn, type ChildProcess } from 'node:child_process';
 import { parseArgs } from 'node:util';
 import type { Express } from 'express';
 import { loadConfig, loadDotEnv, testProfileEnvironment } from '../../server/src/config/env';
@@ -45,6 +45,11 @@ async function main(): Promise<void> {
       const response = await fetch(`${base}${path}`, { headers: { cookie: reader.cookie } });
       if (response.status !== 200) throw new Error(`${path} answered ${response.status} before the load`);
     }
+    // What this machine can do at all, for reading the figures below: a bare Node HTTP server
+    // answering a fixed JSON, and the cheapest signed-in route (one session read), under the same load.
+    const calibration = Math.min(seconds, 15);
+    const bare = await bareServerLoad(calibration);
+    const cheapest = await loadFromAnotherProcess({ url: base, connections, duration: calibration, reader: reader.cookie, readPaths: ['/api/me'] });
     const eventsBefore = Number((await admin.query('SELECT COUNT(*) AS n FROM audit_event'))[0].n);
     log(`reads: ${connections} connections for ${seconds} s over ${readPaths.length} routes…`);
     const reads = await loadFromAnotherProcess({ url: base, connections, duration: seconds, reader: reader.cookie, readPaths });
@@ -58,7 +63,7 @@ async function main(): Promise<void> {
     const ledger = await verifyLedger(admin.manager);
     const line = (name: string, result: LoadResult) =>
       `${name.padEnd(6)} ${String(result.requestsPerSecond).padStart(6)} req/s  p50 ${String(result.p50Ms).padStart(4)} ms  p99 ${String(result.p99Ms).padStart(5)} ms  ${result.requests} requests, ${result.errors} errors, ${result.timeouts} timeouts, ${result.non2xx} non-2xx ${JSON.stringify(result.statusCodes)}`;
-    process.stdout.write(`\n${line('reads', reads)}\n${line('mixed', mixed)}\n`);
+    process.stdout.write(`\n${line('bare', bare)}   (a bare Node HTTP server, fixed JSON: this machine's ceiling)\n${line('me', cheapest)}   (GET /api/me: the cheapest signed-in route)\n${line('reads', reads)}\n${line('mixed', mixed)}\n`);
     // Little's law for a closed loop of connections: mean latency = connections / throughput.
     log(`with ${connections} connections each waiting for its answer, the mean latency is ${connections} / throughput (Little's law): ${Math.round((connections / Math.max(1, reads.requestsPerSecond)) * 1000)} ms here; a p99 of 50 ms needs more than ${Math.round(connections / 0.05)} req/s`);
     const checks = [
@@ -73,6 +78,19 @@ async function main(): Promise<void> {
     if (app && app.exitCode === null) app.kill('SIGTERM');
     if (admin.isInitialized) await admin.destroy();
     await server.stop();
+  }
+}
+
+/** Load on a bare node:http server in its own process (no framework, no database), for comparison. */
+async function bareServerLoad(duration: number): Promise<LoadResult> {
+  const port = config.PORT + 7;
+  const code = `require('node:http').createServer((q, r) => { r.writeHead(200, { 'content-type': 'application/json' }); r.end(JSON.stringify({ id: 1, name: 'bare', roles: ['qa-reviewer'] })); }).listen(${port}, '127.0.0.1', () => console.log('up'));`;
+  const bareServer = spawn(process.execPath, ['-e', code], { stdio: ['ignore', 'pipe', 'inherit'] });
+  try {
+    await new Promise<void>((ready) => bareServer.stdout.once('data', () => ready()));
+    return await loadFromAnotherProcess({ url: `http://127.0.0.1:${port}`, connections, duration, reader: '', readPaths: ['/'] });
+  } finally {
+    bareServer.kill('SIGTERM');
   }
 }
 
