@@ -29,3 +29,25 @@ test('[E2E-CHECK-ANALYSIS] an engineer records our own check analysis of a heat 
   await expect(check).toContainText('The latest check analysis does not conform; the heat cannot be accepted.');
   await page.screenshot({ path: 'test-results/check-analysis.png', fullPage: true });
 });
+
+test('[E2E-CHECK-RULE] a QA approver sets a check analysis rule for one mill and specification from the supplier page', async ({ page }) => {
+  await signInAs(page, 'kiw-0301', '/suppliers');
+  await page.getByRole('textbox', { name: 'Search suppliers' }).fill('Castellane');
+  await page.getByRole('link', { name: 'Castellane Special Metals' }).click();
+  const rules = page.getByRole('region', { name: 'Check analysis rules' });
+  await expect(rules).toContainText('ASTM F136');
+  await rules.getByRole('button', { name: 'Set a rule…' }).click();
+  const dialog = await openedDialog(page, 'Set a check analysis rule');
+  await dialog.getByLabel('Specification').click();
+  await page.getByRole('option', { name: 'ASTM F67' }).click();
+  await dialog.getByLabel(/Check the first heat and every Nth/).fill('1');
+  await dialog.getByRole('button', { name: 'Set rule' }).click();
+  await expect(dialog).toContainText('Give a reason of at least 3 characters');
+  await dialog.getByLabel('Reason').fill('Grade 2 bar is new from this mill: check every heat for now');
+  await dialog.getByRole('button', { name: 'Set rule' }).click();
+  await expect(dialog).toBeHidden();
+  const row = rules.getByRole('row', { name: /ASTM F67/ });
+  await expect(row).toContainText('every heat');
+  await expect(row).toContainText('Grade 2 bar is new from this mill');
+  await page.screenshot({ path: 'test-results/check-analysis-rule.png', fullPage: true });
+});
