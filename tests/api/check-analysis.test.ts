@@ -125,7 +125,7 @@ describe('check analysis schedule', () => {
     const accepted = await accept(heatIds[0]!);
     expect(accepted.status).toBe(201);
     const [signed] = await running.database.dataSource.query("SELECT content_json FROM electronic_signature WHERE record_type = 'heat' AND record_id = ?", [String(heatIds[0])]);
-    expect(JSON.parse(signed.content_json).checkAnalysis).toBe('conforms: Second laboratory report SL-7');
+    expect(JSON.parse(signed.content_json).checkAnalyses).toEqual(['conforms: Second laboratory report SL-7', 'does-not-conform: Tarnbridge materials laboratory report TML-1']);
     expect((await detail(heatIds[0]!)).status).toBe('accepted');
     expect((await post('engineer', path, { laboratory: 'Lab', reportReference: 'late', chemistry: { O: '0.12' } })).status).toBe(422);
   });
@@ -134,6 +134,9 @@ describe('check analysis schedule', () => {
     await people.approver.agent.put(`/api/suppliers/${supplierId}/approval`).set('X-CSRF-Token', people.approver.csrf).send({ approval: 'conditional', reason: 'Findings at surveillance audit' });
     const heat = await post('engineer', '/api/heats', { heatNumber: `CK-${Date.now()}-4`, supplierId, specId: 'ASTM F136', meltRoute: 'VAR ×3', productForm: 'bar', sizeMm: '25.4' });
     expect((await detail(heat.body.id)).checkAnalysis).toMatchObject({ status: 'awaiting', position: 4, why: 'Every heat from a conditionally approved supplier is checked' });
+    // Heat 2, accepted while the rule skipped it, would now be due; a heat accepted earlier keeps an intact signature: what it signed does not move with the rules.
+    const signatures = (await people.reviewer.agent.get(`/api/signatures?recordType=heat&recordId=${heatIds[1]}`)).body as Array<{ meaning: string; changedAfterSigning: boolean }>;
+    expect(signatures.map((signature) => [signature.meaning, signature.changedAfterSigning])).toEqual([['accepted', false]]);
     expect((await rule({ everyNthHeat: null, everyHeatWhenConditional: false, reason: 'Exempted: the mill’s lab is accredited for us' })).status).toBe(201);
     expect((await detail(heat.body.id)).checkAnalysis).toMatchObject({ status: 'not-required', why: 'The rule selects no heats' });
     const rows = await running.database.dataSource.query('SELECT every_nth_heat FROM check_analysis_rule WHERE supplier_id = ? ORDER BY id', [supplierId]);

@@ -26,7 +26,6 @@ export const heatRecordType: SignableRecordType = {
     const evaluation = (await heats.latestEvaluation(manager, heatId))?.evaluation as { verdict?: string; items?: Array<{ item: string; rounded: string | null; verdict: string }> } | undefined;
     const certificates = await heats.heatCertificates(manager, heatId);
     const check = await checkAnalysisOfHeat(manager, heatId);
-    const latestCheck = check.analyses[0];
     return {
       title: `Heat ${heat.heatNumber} from ${heat.supplier.name} (${heat.spec.id} ${heat.spec.revision}${heat.spec.grade ? ` grade ${heat.spec.grade}` : ''})`,
       content: {
@@ -38,7 +37,10 @@ export const heatRecordType: SignableRecordType = {
         verdict: evaluation?.verdict ?? 'not evaluated',
         items: (evaluation?.items ?? []).map((item) => `${item.item}: ${item.rounded ?? '—'} ${item.verdict}`),
         certificates: certificates.map((certificate) => certificate.sha256),
-        checkAnalysis: latestCheck ? `${latestCheck.evaluation.verdict}: ${latestCheck.laboratory} report ${latestCheck.reportReference}` : check.required ? 'due, not recorded' : 'not required',
+        // Only the checks recorded, which cannot change once the heat is dispositioned; whether a
+        // rule wants one is not signed (rules change later), and a heat without checks signs the
+        // same content as before checks existed.
+        ...(check.analyses.length ? { checkAnalyses: check.analyses.map((analysis) => `${analysis.evaluation.verdict}: ${analysis.laboratory} report ${analysis.reportReference}`) } : {}),
       },
       authorIds: [heat.receivedById, ...(await heats.evaluatorIds(manager, heatId))],
       status: heat.status,
