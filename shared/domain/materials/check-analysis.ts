@@ -68,6 +68,15 @@ export function checkRequirement(rule: CheckRule | null, position: number, appro
   return { required: false, why: rule.everyHeatWhenConditional ? 'Only heats from conditionally approved suppliers are checked; this supplier is ' + approval : 'The rule selects no heats' };
 }
 
+/** "the first heat and every 5th after it; every heat while the supplier is conditional", or null when the rule selects nothing. */
+export function ruleText(rule: CheckRule): string | null {
+  const parts = [
+    rule.everyNthHeat === null ? null : rule.everyNthHeat === 1 ? 'every heat' : `the first heat and every ${ordinal(rule.everyNthHeat)} after it`,
+    rule.everyHeatWhenConditional ? 'every heat while the supplier is conditional' : null,
+  ].filter((part): part is string => part !== null);
+  return parts.length ? parts.join('; ') : null;
+}
+
 export type CheckItemVerdict = 'within-limit' | 'within-tolerance' | 'beyond-tolerance' | 'not-measured';
 
 export interface CheckItem {

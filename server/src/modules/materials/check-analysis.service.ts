@@ -138,8 +138,7 @@ export async function checkAnalysisOfHeat(manager: EntityManager, heatId: number
 }
 
 /** Why the heat cannot be accepted for its check analysis, or null. */
-export async function checkAnalysisRefusal(manager: EntityManager, heatId: number): Promise<string | null> {
-  const check = await checkAnalysisOfHeat(manager, heatId);
+export function checkAnalysisRefusal(check: HeatCheckAnalysis): string | null {
   if (check.status === 'awaiting') return `A check analysis of this heat is due (${check.why}); record its results before accepting the heat`;
   if (check.status === 'does-not-conform') return `The latest check analysis does not conform (${checkFailureText(check.analyses[0]!.evaluation)}); the heat cannot be accepted`;
   return null;

@@ -47,7 +47,7 @@ export const heatRecordType: SignableRecordType = {
       supplierApproval: heat.supplier.approval,
       hasCertificate: certificates.length > 0,
       openFindings: await openFindings(manager, heatId),
-      checkRefusal: await checkAnalysisRefusal(manager, heatId),
+      checkRefusal: checkAnalysisRefusal(check),
     };
   },
   refusal({ meaning, record }) {

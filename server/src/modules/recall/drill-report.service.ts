@@ -16,14 +16,24 @@ async function perLots<Row>(manager: EntityManager, sql: (marks: string) => stri
   return rows;
 }
 
+function groupBy<T>(rows: T[], key: (row: T) => number): Map<number, T[]> {
+  const groups = new Map<number, T[]>();
+  for (const row of rows) {
+    const group = groups.get(key(row));
+    if (group) group.push(row);
+    else groups.set(key(row), [row]);
+  }
+  return groups;
+}
+
 export async function drillReport(dataSource: DataSource, id: number, now = new Date()): Promise<DrillReport> {
   const manager = dataSource.manager;
   const row = await findRecallRow(manager, id);
   if (!row) throw AppError.notFound('Recall investigation');
   if (row.mode !== 'drill') throw AppError.rule(`${row.recall_number} is a recall, not a drill; export its affected set instead`);
   const opening = await snapshotContent(manager, id);
-  const [last]: Array<{ id: number }> = await manager.query("SELECT id FROM recall_snapshot WHERE recall_id = ? AND kind = 'rerun' ORDER BY id DESC LIMIT 1", [id]);
-  const [counted]: Array<{ reruns: string }> = await manager.query("SELECT COUNT(*) AS reruns FROM recall_snapshot WHERE recall_id = ? AND kind = 'rerun'", [id]);
+  const reruns: Array<{ id: number }> = await manager.query("SELECT id FROM recall_snapshot WHERE recall_id = ? AND kind = 'rerun' ORDER BY id", [id]);
+  const last = reruns.at(-1);
   const latest = last ? await snapshotContent(manager, id, last.id) : opening;
   const diff = diffAffectedSets(opening.content.trace, latest.content.trace);
   const { lots, consignees } = latest.content.trace;
@@ -43,19 +53,22 @@ export async function drillReport(dataSource: DataSource, id: number, now = new 
     ids,
   );
   const shippedNow = new Map(shipped.map((entry) => [entry.lot_id, Number(entry.units)]));
+  // Grouped once: a supplier-wide scope holds tens of thousands of lots.
+  const heatsOf = groupBy(heats, (heat) => heat.lot_id);
+  const childrenOf = groupBy(children, (child) => child.parent_lot_id);
   const facts: DrillLotFacts[] = lots.map((lot) => ({
     lotNumber: lot.lotNumber,
     status: lot.status,
     origin: lot.origin,
     parents: lot.parents,
     made: lot.made,
-    passedOn: children.filter((child) => child.parent_lot_id === lot.id).reduce((sum, child) => sum + Number(child.qty), 0),
+    passedOn: (childrenOf.get(lot.id) ?? []).reduce((sum, child) => sum + Number(child.qty), 0),
     released: lot.released,
     shipped: lot.shipped,
     onHand: lot.onHand,
     shippedNow: shippedNow.get(lot.id) ?? 0,
-    sourceHeats: heats.filter((heat) => heat.lot_id === lot.id).map((heat) => ({ heatNumber: heat.heat_number, status: heat.status, certificates: Number(heat.certificates) })),
-    childrenOutsideScope: children.filter((child) => child.parent_lot_id === lot.id && !inScope.has(child.child_lot_id)).map((child) => child.lot_number),
+    sourceHeats: (heatsOf.get(lot.id) ?? []).map((heat) => ({ heatNumber: heat.heat_number, status: heat.status, certificates: Number(heat.certificates) })),
+    childrenOutsideScope: (childrenOf.get(lot.id) ?? []).filter((child) => !inScope.has(child.child_lot_id)).map((child) => child.lot_number),
   }));
   const openedAt = new Date(row.opened_at).toISOString();
   const closedAt = row.closed_at ? new Date(row.closed_at).toISOString() : null;
@@ -65,7 +78,7 @@ export async function drillReport(dataSource: DataSource, id: number, now = new 
     asOf: now.toISOString(),
     openingTakenAt: opening.content.takenAt,
     tracedInMs: opening.content.tracedInMs ?? null,
-    reruns: Number(counted?.reruns ?? 0),
+    reruns: reruns.length,
     lotsAddedSinceOpening: diff.lotsAdded.map((lot) => lot.lotNumber),
     lotsRemovedSinceOpening: diff.lotsRemoved.map((lot) => lot.lotNumber),
     lots: facts,

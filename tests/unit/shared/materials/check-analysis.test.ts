@@ -4,7 +4,7 @@
 // that a check analysis may lie outside a heat limit by no more than the tolerance (DOMAIN.md,
 // "Heat analysis vs product (check) analysis", S5). Rounding is ASTM E29 (half to even).
 import { describe, expect, it } from 'vitest';
-import { applicableRule, checkFailureText, checkRequirement, evaluateCheckAnalysis, CheckAnalysisInputError, type ScopedCheckRule } from '@shared/domain/materials/check-analysis';
+import { applicableRule, checkFailureText, checkRequirement, ruleText, evaluateCheckAnalysis, CheckAnalysisInputError, type ScopedCheckRule } from '@shared/domain/materials/check-analysis';
 import { findSpecification } from '@shared/domain/materials/library';
 
 const f136 = findSpecification('ASTM F136')!.grades[0]!.chemistry;
@@ -97,6 +97,13 @@ describe('which heats a rule selects', () => {
     expect(checkRequirement(everyFifth, 7, 'conditional')).toEqual({ required: true, why: 'Every heat from a conditionally approved supplier is checked' });
     expect(checkRequirement({ everyNthHeat: null, everyHeatWhenConditional: true }, 2, 'approved').required).toBe(false);
     expect(checkRequirement({ everyNthHeat: 5, everyHeatWhenConditional: false }, 7, 'conditional').required).toBe(false);
+  });
+
+  it('describes what a rule selects in words', () => {
+    expect(ruleText(everyFifth)).toBe('the first heat and every 5th after it; every heat while the supplier is conditional');
+    expect(ruleText({ everyNthHeat: 1, everyHeatWhenConditional: false })).toBe('every heat');
+    expect(ruleText({ everyNthHeat: 22, everyHeatWhenConditional: false })).toBe('the first heat and every 22nd after it');
+    expect(ruleText({ everyNthHeat: null, everyHeatWhenConditional: false })).toBeNull();
   });
 
   it('every heat, no rule, and impossible positions', () => {
