@@ -1,4 +1,4 @@
-// npm run test:load [-- --seconds N]: 200 connections for 60 s (by default) against the app as
+// npm run test:load [-- --seconds N] [--each-route N]: 200 connections for 60 s (by default) against the app as
 // it runs in production (a separate process, signed-in sessions in MariaDB), first on the main
 // read routes, then a mixed profile with one write in ten. Reports requests per second, p50 and
 // p99, errors, and that the ledger chain verifies afterwards. Targets on a 2-core machine: reads
@@ -16,7 +16,7 @@ import { fail, log } from '../lib/run';
 import { seedIfEmpty } from '../seed/seed-if-empty';
 import { reportChecks, startAppProcess, untilHealthy } from './app-process';
 
-const { values } = parseArgs({ options: { seconds: { type: 'string' }, connections: { type: 'string' } } });
+const { values } = parseArgs({ options: { seconds: { type: 'string' }, connections: { type: 'string' }, 'each-route': { type: 'string' } } });
 loadDotEnv();
 Object.assign(process.env, testProfileEnvironment(), { DATA_DIR: '.data/load', DB_PORT: '3312', DB_NAME: 'ingotrace_load', PORT: '8094', LOG_LEVEL: 'error', SMTP_PORT: '1030', MAIL_WEB_PORT: '1083', IDP_PORT: '7014', DB_POOL_SIZE: '20', APP_WORKERS: process.env.APP_WORKERS ?? '2' });
 const config = loadConfig();
@@ -50,6 +50,11 @@ async function main(): Promise<void> {
     const calibration = Math.min(seconds, 15);
     const bare = await bareServerLoad(calibration);
     const cheapest = await loadFromAnotherProcess({ url: base, connections, duration: calibration, reader: reader.cookie, readPaths: ['/api/me'] });
+    // --each-route N: each read route alone for N seconds, to see which routes cost the most.
+    const eachRoute: Array<[string, LoadResult]> = [];
+    for (const path of values['each-route'] ? readPaths : []) {
+      eachRoute.push([path, await loadFromAnotherProcess({ url: base, connections, duration: Number(values['each-route']), reader: reader.cookie, readPaths: [path] })]);
+    }
     const eventsBefore = Number((await admin.query('SELECT COUNT(*) AS n FROM audit_event'))[0].n);
     log(`reads: ${connections} connections for ${seconds} s over ${readPaths.length} routes…`);
     const reads = await loadFromAnotherProcess({ url: base, connections, duration: seconds, reader: reader.cookie, readPaths });
@@ -63,7 +68,7 @@ async function main(): Promise<void> {
     const ledger = await verifyLedger(admin.manager);
     const line = (name: string, result: LoadResult) =>
       `${name.padEnd(6)} ${String(result.requestsPerSecond).padStart(6)} req/s  p50 ${String(result.p50Ms).padStart(4)} ms  p99 ${String(result.p99Ms).padStart(5)} ms  ${result.requests} requests, ${result.errors} errors, ${result.timeouts} timeouts, ${result.non2xx} non-2xx ${JSON.stringify(result.statusCodes)}`;
-    process.stdout.write(`\n${line('bare', bare)}   (a bare Node HTTP server, fixed JSON: this machine's ceiling)\n${line('me', cheapest)}   (GET /api/me: the cheapest signed-in route)\n${line('reads', reads)}\n${line('mixed', mixed)}\n`);
+    process.stdout.write(`\n${line('bare', bare)}   (a bare Node HTTP server, fixed JSON: this machine's ceiling)\n${line('me', cheapest)}   (GET /api/me: the cheapest signed-in route)\n${eachRoute.map(([path, result]) => `${line('route', result)}   ${path}\n`).join('')}${line('reads', reads)}\n${line('mixed', mixed)}\n`);
     // Little's law for a closed loop of connections: mean latency = connections / throughput.
     log(`with ${connections} connections each waiting for its answer, the mean latency is ${connections} / throughput (Little's law): ${Math.round((connections / Math.max(1, reads.requestsPerSecond)) * 1000)} ms here; a p99 of 50 ms needs more than ${Math.round(connections / 0.05)} req/s`);
     const checks = [

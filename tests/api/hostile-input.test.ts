@@ -112,7 +112,11 @@ describe('hostile input on every API route', () => {
         if (response.status >= 400) expect(errorResponseSchema.safeParse(response.body).success, context).toBe(true);
       });
     const seed = Number(process.env.FUZZ_SEED ?? Date.now() % 2 ** 31);
+    const before = inputs;
+    const started = Date.now();
     await Promise.all(Array.from({ length: lanes }, (_unused, lane) => fc.assert(property, { numRuns: Math.ceil(runs / lanes), seed: seed + lane })));
+    // One line per route, so that a long run shows how far it has come.
+    if (runs >= 1000) console.log(`hostile input: ${route.method} ${route.path}: ${inputs - before} inputs, no 500, in ${Math.round((Date.now() - started) / 1000)} s (seed ${seed})`);
   }, Math.max(60_000, runs * 1_000));
 
   it('[FUZZ-LEDGER] when every route has been fed hostile input, then the audit ledger still verifies', async () => {

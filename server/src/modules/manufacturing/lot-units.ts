@@ -1,10 +1,13 @@
 import type { EntityManager } from 'typeorm';
 import { unitChain, type UnitChain } from '@shared/domain/manufacturing/unit-chain';
-import { unitFacts } from './lots.repository';
+import { unitFacts, type LotStart } from './lots.repository';
 
-/** The unit chain of each lot, computed from its recorded steps and the splits and merges out of it. */
-export async function unitChains(manager: EntityManager, lotIds: number[]): Promise<Map<number, UnitChain>> {
-  const { lots, operations, links } = await unitFacts(manager, lotIds);
+/**
+ * The unit chain of each lot, computed from its recorded steps and the splits and merges out of it.
+ * `known`: the lots' start rows when the caller has already read them.
+ */
+export async function unitChains(manager: EntityManager, lotIds: number[], known?: LotStart[]): Promise<Map<number, UnitChain>> {
+  const { lots, operations, links } = await unitFacts(manager, lotIds, known);
   const chains = new Map<number, UnitChain>();
   for (const lot of lots) {
     const steps = operations

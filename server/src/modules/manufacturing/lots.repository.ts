@@ -82,7 +82,11 @@ export async function listLotRows(manager: EntityManager, query: LotListQuery): 
   const clause = where.length ? `WHERE ${where.join(' AND ')}` : '';
   const [count]: Array<{ total: string }> = await manager.query(`SELECT COUNT(*) AS total FROM production_lot l JOIN part p ON p.id = l.part_id ${clause}`, parameters);
   const order = `${sortColumns[query.sort]} ${query.order === 'asc' ? 'ASC' : 'DESC'}, l.id ${query.order === 'asc' ? 'ASC' : 'DESC'}`;
-  const rows: LotRow[] = await manager.query(`${lotSelect} ${clause} ORDER BY ${order} LIMIT ? OFFSET ?`, [...parameters, query.pageSize, (query.page - 1) * query.pageSize]);
+  // The page's ids first, so that the per-lot subqueries run for one page of lots, not all of them.
+  const rows: LotRow[] = await manager.query(
+    `${lotSelect} JOIN (SELECT l.id FROM production_lot l JOIN part p ON p.id = l.part_id ${clause} ORDER BY ${order} LIMIT ? OFFSET ?) page ON page.id = l.id ORDER BY ${order}`,
+    [...parameters, query.pageSize, (query.page - 1) * query.pageSize],
+  );
   return { rows, total: Number(count?.total ?? 0) };
 }
 
@@ -148,13 +152,31 @@ export async function linkRows(manager: EntityManager, lotIds: number[]): Promis
   );
 }
 
-/** What unit-chain needs for a set of lots: start, recorded steps and outflows. */
-export async function unitFacts(manager: EntityManager, lotIds: number[]) {
-  const lots: Array<{ id: number; start_qty: number | null; resumes_after_step: number }> = lotIds.length
-    ? await manager.query(`SELECT id, start_qty, resumes_after_step FROM production_lot WHERE id IN (${lotIds.map(() => '?').join(',')})`, lotIds)
-    : [];
-  const operations = await operationRows(manager, lotIds);
-  const links = await linkRows(manager, lotIds);
+export interface LotStart {
+  id: number;
+  start_qty: number | null;
+  resumes_after_step: number;
+}
+
+/** What unit-chain needs for a set of lots: start, recorded steps and outflows (only those columns). */
+export async function unitFacts(manager: EntityManager, lotIds: number[], known?: LotStart[]) {
+  if (!lotIds.length) return { lots: [], operations: [], links: [] };
+  const marks = lotIds.map(() => '?').join(',');
+  const [lots, operations, links] = await Promise.all([
+    known ?? (manager.query(`SELECT id, start_qty, resumes_after_step FROM production_lot WHERE id IN (${marks})`, lotIds) as Promise<LotStart[]>),
+    manager.query(
+      `SELECT o.lot_id, s.step_no, s.name AS step_name, o.qty_in, o.qty_good, o.qty_scrap
+         FROM lot_operation o JOIN routing_step s ON s.id = o.routing_step_id
+        WHERE o.lot_id IN (${marks}) ORDER BY o.lot_id, s.step_no, o.id`,
+      lotIds,
+    ) as Promise<Array<Pick<OperationRow, 'lot_id' | 'step_no' | 'step_name' | 'qty_in' | 'qty_good' | 'qty_scrap'>>>,
+    manager.query(
+      `SELECT k.parent_lot_id, k.after_step, k.qty, cl.lot_number AS child_number
+         FROM lot_link k JOIN production_lot cl ON cl.id = k.child_lot_id
+        WHERE k.parent_lot_id IN (${marks}) ORDER BY k.parent_lot_id, k.child_lot_id`,
+      lotIds,
+    ) as Promise<Array<Pick<LinkRow, 'parent_lot_id' | 'after_step' | 'qty' | 'child_number'>>>,
+  ]);
   return { lots, operations, links };
 }
 

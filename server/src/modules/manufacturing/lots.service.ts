@@ -19,8 +19,7 @@ import { addHeatToLot } from './lot-heats';
 export async function listLots(dataSource: DataSource, query: LotListQuery) {
   const { rows, total } = await listLotRows(dataSource.manager, query);
   const ids = rows.map((row) => row.id);
-  const chains = await unitChains(dataSource.manager, ids);
-  const heats = await heatsByLot(dataSource.manager, ids);
+  const [chains, heats] = await Promise.all([unitChains(dataSource.manager, ids, rows), heatsByLot(dataSource.manager, ids)]);
   const items: LotSummary[] = rows.map((row) => toLotSummary(row, chains.get(row.id)?.started === null ? null : (chains.get(row.id)?.onHand ?? null), heats.get(row.id) ?? []));
   return { items, total, page: query.page, pageSize: query.pageSize };
 }
