@@ -110,6 +110,14 @@ describe('genealogy both ways on a hand-built history with a cut bar, a split, a
     expect(refused.status).toBe(400);
   });
 
+  it('[TRACE-UNITS-ONCE] when traced forward, then a unit passed on to a split or merged lot is counted once in the units made', async () => {
+    // Worked by hand: L1 started 10 and passed 4 to L1-A (6 + 4 = 10, not 14); L2 passed its 10 to
+    // M, which holds them with L3's 10 (6 + 4 + 0 + 20 = 30, not 44).
+    expect((await forward(`pieceId=${ids.b1a}`)).totals.made).toBe(10);
+    expect((await forward(`pieceId=${ids.b1}`)).totals.made).toBe(30);
+    expect((await forward(`runId=${ids.r2}`)).totals.made).toBe(20);
+  });
+
   it('when traced forward from a supplier, then every lot of each of its heats is affected, and the heats kept per lot are what a walk of the genealogy finds', async () => {
     const db = running.database.dataSource;
     const [{ supplier_id: supplierId }] = await db.query('SELECT supplier_id FROM heat WHERE id = ?', [ids.h1]);

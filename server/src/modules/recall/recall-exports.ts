@@ -71,6 +71,7 @@ export async function recallPdf(meta: RecallSnapshotMeta, content: RecallSnapsho
         ['Affected lots', 'Units made', 'Released', 'Shipped', 'Released, still here', 'Consignees'],
         [[String(trace.lots.length), String(trace.totals.made), String(trace.totals.released), String(trace.totals.shipped), String(trace.totals.onHand), String(trace.consignees.length)]],
       ),
+      { text: 'Units made counts each unit once: units a lot passed on to a split or merged lot count in that lot.', fontSize: 8, color: '#555', margin: [0, 4, 0, 0] },
       ...consigneeSection(trace.consignees),
       heading('Affected lots'),
       table(

@@ -2,6 +2,7 @@ import type { DataSource, EntityManager } from 'typeorm';
 import { parseUdi, Gs1Error } from '@shared/domain/gs1/element-string';
 import type { BackwardTrace, ForwardStart, ForwardTrace, TracedLot } from '@shared/schemas/trace';
 import { AppError } from '../../errors';
+import { unitTotals } from '@shared/domain/trace/unit-totals';
 import { descendantPieces, lotsFromPieces } from './genealogy.repository';
 
 const marks = (values: unknown[]) => values.map(() => '?').join(',');
@@ -122,7 +123,9 @@ export async function forwardTraceIn(manager: EntityManager, start: ForwardStart
   // units shipped per lot and the consignees' totals follow). Measured at a heat's 200 lots and a
   // supplier's 25,000: cheaper than a per-lot subquery for the units shipped plus a second walk
   // for the consignees, or than joining each consignee onto every shipment.
-  const [startLabel, lotRows, shipments]: [string, Array<Omit<LotFactRow, 'shipped'>>, Array<{ lotId: number; consigneeId: number; qty: number }>] = await Promise.all([
+  // A third read gives the units each lot passed on to lots split or merged from it (all of them in
+  // the scope: the walk goes down every link), so that the total made counts each unit once.
+  const [startLabel, lotRows, shipments, passedOnRows]: [string, Array<Omit<LotFactRow, 'shipped'>>, Array<{ lotId: number; consigneeId: number; qty: number }>, Array<{ lotId: number; qty: string }>] = await Promise.all([
     label,
     manager.query(
       `${reached}
@@ -131,7 +134,9 @@ export async function forwardTraceIn(manager: EntityManager, start: ForwardStart
       parameters,
     ),
     manager.query(`${reached} SELECT s.lot_id AS lotId, s.consignee_id AS consigneeId, s.qty FROM reached r JOIN shipment s ON s.lot_id = r.id`, parameters),
+    manager.query(`${reached} SELECT k.parent_lot_id AS lotId, SUM(k.qty) AS qty FROM reached r JOIN lot_link k ON k.parent_lot_id = r.id GROUP BY k.parent_lot_id`, parameters),
   ]);
+  const passedOn = new Map(passedOnRows.map((row) => [row.lotId, Number(row.qty)]));
   const shippedByLot = new Map<number, number>();
   const byConsignee = new Map<number, { units: number; lots: Set<number> }>();
   for (const shipment of shipments) {
@@ -150,7 +155,7 @@ export async function forwardTraceIn(manager: EntityManager, start: ForwardStart
   consigneeRows.sort((a, b) => byName.compare(a.name, b.name) || a.id - b.id);
   const consignees = consigneeRows.map((row) => ({ ...row, units: byConsignee.get(row.id)!.units, lots: byConsignee.get(row.id)!.lots.size }));
   const lots = toTracedLots(lotRows, (row) => shippedByLot.get(row.id) ?? 0);
-  const totals = lots.reduce((sum, lot) => ({ made: sum.made + (lot.made ?? 0), released: sum.released + lot.released, shipped: sum.shipped + lot.shipped, onHand: sum.onHand + lot.onHand }), { made: 0, released: 0, shipped: 0, onHand: 0 });
+  const totals = unitTotals(lots, passedOn);
   return { start: startLabel, lots, totals, consignees };
 }
 
