@@ -21,6 +21,10 @@ export const signaturePreparationSchema = z.object({
   bindingHash: z.string(),
   statement: z.string(),
   reasonRequired: z.boolean(),
+  /** The signature also covers the record's audit trail through this ledger event (else null). */
+  trailThroughSeq: z.number().int().nullable(),
+  /** How many events of the audit trail that is. */
+  trailEvents: z.number().int().nullable(),
 });
 export type SignaturePreparation = z.infer<typeof signaturePreparationSchema>;
 
@@ -29,6 +33,8 @@ export const signatureRequestSchema = signatureIntentSchema.extend({
   reauthenticationId: z.string().regex(/^[0-9a-f]{32}$/, 'Re-authenticate before signing'),
   reason: z.string().trim().max(1000).optional(),
   withdrawsSignatureId: z.number().int().positive().optional(),
+  /** The trailThroughSeq of the preparation, when it had one. */
+  trailThroughSeq: z.number().int().nonnegative().optional(),
 });
 export type SignatureRequest = z.infer<typeof signatureRequestSchema>;
 

@@ -71,6 +71,7 @@ export function useSigning() {
         recordId: prepared.recordId,
         meaning: prepared.meaning,
         contentHash: prepared.contentHash,
+        ...(prepared.trailThroughSeq === null ? {} : { trailThroughSeq: prepared.trailThroughSeq }),
         reauthenticationId: reauthentication.id,
         ...(reason.trim() ? { reason: reason.trim() } : {}),
       });

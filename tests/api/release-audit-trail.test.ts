@@ -4,7 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { inTransaction } from '../../server/src/db/transaction';
 import { appendLedgerEvent } from '../../server/src/modules/ledger/ledger.repository';
 import { createTestApp } from '../helpers/test-app';
-import { csrfTokenOf, SamlTestDriver } from '../helpers/saml-round-trip';
+import { csrfTokenOf, reauthenticate, SamlTestDriver } from '../helpers/saml-round-trip';
 import { signThroughApi } from '../helpers/signing';
 
 type Agent = Awaited<ReturnType<SamlTestDriver['signIn']>>['agent'];
@@ -56,7 +56,7 @@ describe('the release review covers the lot’s audit trail', () => {
     expect(inherited.every((event: { seq: number }) => event.seq < began)).toBe(true);
   });
 
-  it('[TRAIL-VOID] when an event reaches the lot after the review, then approval is refused until the lot is reviewed again', async () => {
+  it('[TRAIL-VOID] when an event reaches the lot after the review or while the reviewer signs, then the signature is refused until the lot is reviewed again', async () => {
     await inTransaction(running.database.dataSource, (manager) =>
       appendLedgerEvent(manager, { actor: { id: null, name: 'test administrator', role: null }, action: 'lot.note-added', entity: { type: 'lot', id: lotId }, after: { note: 'corrected a typing error' } }),
     );
@@ -65,6 +65,29 @@ describe('the release review covers the lot’s audit trail', () => {
     const refused = await sign('approver', 'approved-for-release');
     expect(refused.status).toBe(422);
     expect(refused.body.error.message).toMatch(/^The lot's audit trail has 1 event\(s\) after the review \(#\d+ lot\.note-added by test administrator\); it must be reviewed again$/);
+
+    // An event that arrives while the reviewer's signing dialog is open refuses the review.
+    const intent = { recordType: 'lot-release', recordId: String(lotId), meaning: 'reviewed' };
+    const { reviewer } = people;
+    const preparation = (await reviewer.agent.post('/api/signatures/preparations').set('X-CSRF-Token', reviewer.csrf).send(intent)).body;
+    expect(preparation.trailThroughSeq).toBe((await view()).auditTrail.events.at(-1).seq);
+    expect(preparation.trailEvents).toBe((await view()).auditTrail.events.length);
+    await inTransaction(running.database.dataSource, (manager) =>
+      appendLedgerEvent(manager, { actor: { id: null, name: 'test administrator', role: null }, action: 'lot.note-added', entity: { type: 'lot', id: lotId }, after: { note: 'a second correction' } }),
+    );
+    const late = await reviewer.agent
+      .post('/api/signatures')
+      .set('X-CSRF-Token', reviewer.csrf)
+      .send({ ...intent, contentHash: preparation.contentHash, trailThroughSeq: preparation.trailThroughSeq, reauthenticationId: await reauthenticate(saml, reviewer.agent, reviewer.subject, preparation.bindingHash) });
+    expect(late.status).toBe(422);
+    expect(late.body.error.message).toMatch(/^The audit trail gained events while you were signing \(now through event #\d+, you were shown through #\d+\); review them and sign anew$/);
+    expect(late.body.error.fields).toEqual({ trailThroughSeq: 'Outdated' });
+    // Without the mark, the signature is refused too.
+    const unmarked = await reviewer.agent
+      .post('/api/signatures')
+      .set('X-CSRF-Token', reviewer.csrf)
+      .send({ ...intent, contentHash: preparation.contentHash, reauthenticationId: await reauthenticate(saml, reviewer.agent, reviewer.subject, preparation.bindingHash) });
+    expect(unmarked.status).toBe(422);
 
     expect((await sign('reviewer', 'reviewed')).status).toBe(201);
     expect((await view()).auditTrail.afterReview).toEqual([]);

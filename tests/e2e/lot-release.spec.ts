@@ -25,6 +25,9 @@ test('[E2E-RELEASE] a QA reviewer and then a different QA approver sign a submit
   await page.screenshot({ path: 'test-results/release-audit-trail.png', fullPage: true });
   await page.getByRole('button', { name: 'Sign as reviewed' }).click();
   await expect(page.getByRole('dialog', { name: 'Sign: Reviewed' })).toContainText('Release of lot');
+  await expect(page.getByTestId('signature-trail')).toContainText(/covers the record's audit trail as it stands now: \d+ events, through event #\d+/);
+  await page.getByTestId('signature-trail').scrollIntoViewIfNeeded();
+  await page.getByRole('dialog', { name: 'Sign: Reviewed' }).screenshot({ path: 'test-results/release-review-dialog.png' });
   await signWithPassword(page, 'Reviewed', 'Aisling Ní Bhriain — Reviewed', 'aisling-demo');
   await expect(page.getByRole('heading', { level: 1, name: new RegExp(`^Lot ${lotNumber}`) })).toContainText('reviewed');
   await expect(page.getByRole('button', { name: 'Approve for release' })).toHaveCount(0);

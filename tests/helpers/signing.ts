@@ -15,5 +15,5 @@ export async function signThroughApi(
   return signer.agent
     .post('/api/signatures')
     .set('X-CSRF-Token', signer.csrf)
-    .send({ ...intent, contentHash: preparation.body.contentHash, reason, reauthenticationId: await reauthenticate(saml, signer.agent, signer.subject, preparation.body.bindingHash) });
+    .send({ ...intent, contentHash: preparation.body.contentHash, ...(preparation.body.trailThroughSeq === null ? {} : { trailThroughSeq: preparation.body.trailThroughSeq }), reason, reauthenticationId: await reauthenticate(saml, signer.agent, signer.subject, preparation.body.bindingHash) });
 }

@@ -35,8 +35,9 @@ async function loadSignable(manager: EntityManager, person: Person, intent: Sign
 
 /** What the signer sees before signing, and the hash their re-authentication must be bound to. */
 export async function prepareSignature(dataSource: DataSource, person: Person, intent: SignatureIntent): Promise<SignaturePreparation> {
-  const { record } = await loadSignable(dataSource.manager, person, intent);
+  const { type, record } = await loadSignable(dataSource.manager, person, intent);
   const hash = contentHash(record.content, sha256Hex);
+  const trailThroughSeq = type.trailMark?.(record, intent.meaning) ?? null;
   return {
     recordType: intent.recordType,
     recordId: intent.recordId,
@@ -47,6 +48,8 @@ export async function prepareSignature(dataSource: DataSource, person: Person, i
     bindingHash: signatureBinding({ ...intent, contentHash: hash }, sha256Hex),
     statement: signatureStatement,
     reasonRequired: meaningsNeedingReason.includes(intent.meaning),
+    trailThroughSeq,
+    trailEvents: trailThroughSeq === null ? null : Number(record.trailEvents ?? 0),
   };
 }
 
@@ -89,6 +92,15 @@ export async function signRecord(dataSource: DataSource, person: Person, request
     const { type, record } = await loadSignable(manager, person, request);
     const hash = contentHash(record.content, sha256Hex);
     if (hash !== request.contentHash) throw AppError.rule('The record changed while you were signing; review it again and sign anew', { contentHash: 'Outdated' });
+    const trailThroughSeq = type.trailMark?.(record, request.meaning);
+    if (trailThroughSeq !== undefined && request.trailThroughSeq !== trailThroughSeq) {
+      throw AppError.rule(
+        request.trailThroughSeq === undefined
+          ? `This signature covers the audit trail (through event #${trailThroughSeq}); prepare it again to see how far the trail goes`
+          : `The audit trail gained events while you were signing (now through event #${trailThroughSeq}, you were shown through #${request.trailThroughSeq}); review them and sign anew`,
+        { trailThroughSeq: 'Outdated' },
+      );
+    }
     const reason = request.reason?.trim() || null;
     if (meaningsNeedingReason.includes(request.meaning) && (!reason || reason.length < 3)) {
       throw AppError.rule('Give a reason for this signature', { reason: 'A reason of at least 3 characters is required' });
