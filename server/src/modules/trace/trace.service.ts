@@ -1,8 +1,8 @@
 import type { DataSource, EntityManager } from 'typeorm';
 import { parseUdi, Gs1Error } from '@shared/domain/gs1/element-string';
 import type { BackwardTrace, ForwardStart, ForwardTrace, TracedLot } from '@shared/schemas/trace';
-import { AppError } from '../../errors';
 import { unitTotals } from '@shared/domain/trace/unit-totals';
+import { AppError } from '../../errors';
 import { descendantPieces, lotsFromPieces } from './genealogy.repository';
 
 const marks = (values: unknown[]) => values.map(() => '?').join(',');
