@@ -16,7 +16,7 @@ const write = options.writer && {
   }),
 };
 const requests: Request[] = write && options.writeEvery ? [...reads.slice(0, options.writeEvery - 1), write] : reads;
-const result = await autocannon({ url: options.url, connections: options.connections, duration: options.duration, requests, ...(options.overallRate ? { overallRate: options.overallRate } : {}) });
+const result = await autocannon({ url: options.url, connections: options.connections, duration: options.duration, requests });
 process.stdout.write(
   `${JSON.stringify({
     requests: result.requests.total,

@@ -13,8 +13,6 @@ export interface LoadOptions {
   /** A signed-in writer, and one write (a new supplier) in every `writeEvery` requests. */
   writer?: { cookie: string; csrf: string };
   writeEvery?: number;
-  /** Requests per second over all connections (a steady offered load); as fast as possible when absent. */
-  overallRate?: number;
 }
 
 export interface LoadResult {
