@@ -37,12 +37,11 @@ export const lotReleaseRecordType: SignableRecordType = {
       ready: dossier.readiness.ready,
       reviewedCurrent: reviews.some((row) => row.content_hash === hash),
       trailAfterReview: trail.afterReview.map((event) => `#${event.seq} ${event.action} by ${event.actor}`),
-      trailThroughSeq: trail.events.at(-1)?.seq ?? 0,
-      trailEvents: trail.events.length,
+      trail: { throughSeq: trail.events.at(-1)?.seq ?? 0, events: trail.events.length },
     };
   },
   // The review covers the trail as the reviewer was shown it; an event in between refuses the signature.
-  trailMark: (record, meaning) => (meaning === 'reviewed' ? Number(record.trailThroughSeq) : undefined),
+  trailMark: (record, meaning) => (meaning === 'reviewed' ? (record.trail as { throughSeq: number; events: number }) : undefined),
   refusal({ meaning, record }) {
     const facts = record as unknown as { status: string; ready: boolean; reviewedCurrent: boolean; trailAfterReview: string[] };
     const reviewVoid = !facts.reviewedCurrent || facts.trailAfterReview.length > 0;

@@ -24,10 +24,11 @@ export interface SignableRecordType {
   load(manager: EntityManager, recordId: string): Promise<SignableContent | null>;
   /**
    * For signatures that also cover what the signer was shown beside the signed content (a lot's
-   * audit trail at its review): the last audit event seq shown. It goes out with the preparation
-   * and must come back unchanged with the signature, else the signature is refused.
+   * audit trail at its review): the last audit event seq shown and how many events that is. The
+   * seq goes out with the preparation and must come back unchanged with the signature, else the
+   * signature is refused.
    */
-  trailMark?(record: SignableContent, meaning: SignatureMeaning): number | undefined;
+  trailMark?(record: SignableContent, meaning: SignatureMeaning): { throughSeq: number; events: number } | undefined;
   /** Extra rules (separation of duties); returns the reason to refuse, or null. */
   refusal?(input: { signerId: number; meaning: SignatureMeaning; record: SignableContent; earlierSignatures: Array<{ signerId: number; meaning: SignatureMeaning }> }): string | null;
   /** What the signature changes on the record (e.g. a heat's status), inside the signature's transaction. */

@@ -37,7 +37,7 @@ async function loadSignable(manager: EntityManager, person: Person, intent: Sign
 export async function prepareSignature(dataSource: DataSource, person: Person, intent: SignatureIntent): Promise<SignaturePreparation> {
   const { type, record } = await loadSignable(dataSource.manager, person, intent);
   const hash = contentHash(record.content, sha256Hex);
-  const trailThroughSeq = type.trailMark?.(record, intent.meaning) ?? null;
+  const trail = type.trailMark?.(record, intent.meaning);
   return {
     recordType: intent.recordType,
     recordId: intent.recordId,
@@ -48,8 +48,8 @@ export async function prepareSignature(dataSource: DataSource, person: Person, i
     bindingHash: signatureBinding({ ...intent, contentHash: hash }, sha256Hex),
     statement: signatureStatement,
     reasonRequired: meaningsNeedingReason.includes(intent.meaning),
-    trailThroughSeq,
-    trailEvents: trailThroughSeq === null ? null : Number(record.trailEvents ?? 0),
+    trailThroughSeq: trail?.throughSeq ?? null,
+    trailEvents: trail?.events ?? null,
   };
 }
 
@@ -92,7 +92,7 @@ export async function signRecord(dataSource: DataSource, person: Person, request
     const { type, record } = await loadSignable(manager, person, request);
     const hash = contentHash(record.content, sha256Hex);
     if (hash !== request.contentHash) throw AppError.rule('The record changed while you were signing; review it again and sign anew', { contentHash: 'Outdated' });
-    const trailThroughSeq = type.trailMark?.(record, request.meaning);
+    const trailThroughSeq = type.trailMark?.(record, request.meaning)?.throughSeq;
     if (trailThroughSeq !== undefined && request.trailThroughSeq !== trailThroughSeq) {
       throw AppError.rule(
         request.trailThroughSeq === undefined
