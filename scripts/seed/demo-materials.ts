@@ -99,7 +99,7 @@ async function enterHeat(dataSource: DataSource, heat: DemoHeat, supplierIds: nu
   const actor = { id: engineer.id, name: engineer.name, role: 'manufacturing-engineer' };
   const received = await receiveHeat(
     dataSource,
-    { heatNumber: heat.heatNumber, supplierId: supplierIds[heat.mill]!, specId: heat.specId, grade: heat.grade ?? null, meltRoute: heat.specId === 'ASTM F138' ? 'VIM + ESR' : 'VAR ×3', productForm: 'bar', sizeMm: heat.sizeMm, receivedOn: dayOf(heat.daysAgo) },
+    { heatNumber: heat.heatNumber, supplierId: supplierIds[heat.mill]!, specId: heat.specId, grade: heat.grade ?? null, meltRoute: heat.specId === 'ASTM F138' ? 'VIM + ESR' : 'VAR ×3', productForm: 'bar', condition: 'annealed', sizeMm: heat.sizeMm, receivedOn: dayOf(heat.daysAgo) },
     engineer,
     actor,
     origin,

@@ -10,6 +10,7 @@ export const actions = [
   'materials.read',
   'materials.write',
   'materials.disposition',
+  'materials.justify',
   'suppliers.manage',
   'specifications.draft',
   'specifications.approve',
@@ -45,6 +46,7 @@ export const permissionMatrix: Record<Role, readonly Action[]> = {
   'qa-approver': [
     'system.read',
     'materials.read',
+    'materials.justify',
     'suppliers.manage',
     'specifications.draft',
     'specifications.approve',

@@ -1,7 +1,7 @@
 import { canonicalJson } from './ledger-hash';
 
 /** What a signature means; each record type allows some of these. */
-export const signatureMeanings = ['reviewed', 'approved', 'approved-for-release', 'rejected', 'accepted', 'quarantined', 'dispositioned', 'closed', 'withdrawn', 'lifted'] as const;
+export const signatureMeanings = ['reviewed', 'approved', 'approved-for-release', 'rejected', 'accepted', 'quarantined', 'dispositioned', 'closed', 'withdrawn', 'lifted', 'justified'] as const;
 export type SignatureMeaning = (typeof signatureMeanings)[number];
 
 export const meaningLabels: Record<SignatureMeaning, string> = {
@@ -15,10 +15,11 @@ export const meaningLabels: Record<SignatureMeaning, string> = {
   closed: 'Closed',
   withdrawn: 'Signature withdrawn',
   lifted: 'Hold lifted',
+  justified: 'Justified for acceptance',
 };
 
 /** Meanings that must carry a reason. */
-export const meaningsNeedingReason: readonly SignatureMeaning[] = ['rejected', 'quarantined', 'closed', 'withdrawn', 'lifted'];
+export const meaningsNeedingReason: readonly SignatureMeaning[] = ['rejected', 'quarantined', 'closed', 'withdrawn', 'lifted', 'justified'];
 
 /** The statement shown beside every signature (21 CFR 11.100(c) / 11.50 manifestation). */
 export const signatureStatement =

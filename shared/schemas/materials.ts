@@ -2,7 +2,8 @@ import { z } from 'zod';
 import { heatScreeningSchema } from './screening';
 import { heatCheckAnalysisSchema } from './check-analysis';
 import { checkedString } from './checked-string';
-import { productForms } from '../domain/materials/specification';
+import { productConditions, productForms } from '../domain/materials/specification';
+import { evaluationSchema, overallVerdicts } from './evaluation';
 import { decimalPattern } from '../domain/materials/e29-rounding';
 
 export const supplierApprovals = ['approved', 'conditional', 'disqualified'] as const;
@@ -49,7 +50,7 @@ export const heatCreateSchema = z.object({
   meltRoute: z.string().trim().min(2, 'Give the melt route, e.g. VAR ×2').max(100),
   productForm: z.enum(productForms),
   sizeMm: positiveDecimal,
-  condition: z.string().trim().min(2).max(40).default('annealed'),
+  condition: z.enum(productConditions, 'Choose the condition stated on the certificate'),
   /** The day the heat arrived, when it is recorded later than that (YYYY-MM-DD, not in the future). */
   receivedOn: calendarDay.optional(),
 });
@@ -65,7 +66,7 @@ export const heatSummarySchema = z.object({
   sizeMm: z.string(),
   condition: z.string(),
   status: z.enum(heatStatuses),
-  verdict: z.enum(['conforms', 'does-not-conform', 'incomplete']).nullable(),
+  verdict: z.enum(overallVerdicts).nullable(),
   receivedAt: z.string(),
   receivedBy: z.string(),
 });
@@ -96,7 +97,9 @@ export type CertificateDocument = z.infer<typeof certificateDocumentSchema>;
 
 export const heatDetailSchema = heatSummarySchema.extend({
   results: z.object({ chemistry: z.record(z.string(), z.string()), mechanical: z.record(z.string(), z.string()) }),
-  evaluation: z.unknown().nullable(),
+  evaluation: evaluationSchema.nullable(),
+  /** A QA approver's signed justification covering the current evaluation, when some items cannot be evaluated. */
+  justification: z.object({ signatureId: z.number().int(), manifestation: z.string(), reason: z.string() }).nullable(),
   certificates: z.array(certificateDocumentSchema),
   /** Cross-certificate checks: other heats with exactly the same results or the very same document. */
   crossChecks: z.object({ identicalResultsOn: z.array(z.string()), sameDocumentOn: z.array(z.string()) }),
@@ -170,6 +173,13 @@ export const trendQuerySchema = z.object({
 });
 export type TrendQuery = z.infer<typeof trendQuerySchema>;
 
+const capabilityIndexSchema = z.object({
+  value: z.string().nullable(),
+  sigma: z.string().nullable(),
+  formula: z.string(),
+  interval: z.object({ low: z.string(), high: z.string() }).nullable(),
+});
+
 export const trendSchema = z.object({
   element: z.string(),
   limit: z.object({ min: z.string().optional(), max: z.string().optional(), text: z.string() }),
@@ -178,7 +188,10 @@ export const trendSchema = z.object({
     n: z.number().int(),
     mean: z.string().nullable(),
     sigma: z.string().nullable(),
-    cpk: z.string().nullable(),
+    ppk: capabilityIndexSchema,
+    cpk: capabilityIndexSchema,
+    minimumForClaim: z.number().int(),
+    indicativeOnly: z.boolean(),
     formula: z.string(),
     runRule: z.object({ triggered: z.boolean(), fromIndex: z.number().int().nullable(), rule: z.string() }),
   }),
@@ -224,6 +237,10 @@ export const specificationDraftSchema = z.object({
         min: limitValue,
         max: limitValue,
         reference: z.string().trim().min(3, 'Name the source of the value').max(300),
+        /** How sure the drafter is: published (with its citation), the firm's own value, or unverified. */
+        confidence: z.enum(['published', 'firm', 'unconfirmed'], 'Say how sure the value is: published, the firm’s own, or unverified'),
+        /** The product (check) analysis tolerance; re-entered whenever the limit changes, as it may depend on the limit. */
+        tolerance: z.object({ under: limitValue, over: limitValue }).optional(),
       }),
     )
     .min(1, 'Change at least one limit')

@@ -63,7 +63,7 @@ describe('check analysis schedule', () => {
 
   it('when three heats arrive, then the 1st and 3rd are due for a check and listed as awaiting, the 2nd is not', async () => {
     for (const [index, oxygen] of ['0.11', '0.10', '0.12'].entries()) {
-      const heat = await post('engineer', '/api/heats', { heatNumber: `CK-${Date.now()}-${index}`, supplierId, specId: 'ASTM F136', meltRoute: 'VAR ×3', productForm: 'bar', sizeMm: '25.4' });
+      const heat = await post('engineer', '/api/heats', { heatNumber: `CK-${Date.now()}-${index}`, supplierId, specId: 'ASTM F136', meltRoute: 'VAR ×3', productForm: 'bar', condition: 'annealed', sizeMm: '25.4' });
       expect(heat.status).toBe(201);
       heatIds.push(heat.body.id);
       const certificate = await people.engineer.agent.post(`/api/heats/${heat.body.id}/certificates`).set('X-CSRF-Token', people.engineer.csrf).attach('certificate', pdf(`check ${heat.body.id}`), 'certificate.pdf');
@@ -132,7 +132,7 @@ describe('check analysis schedule', () => {
 
   it('when the supplier becomes conditional, then every heat is due; a later rule for the scope replaces the earlier and both stay on record', async () => {
     await people.approver.agent.put(`/api/suppliers/${supplierId}/approval`).set('X-CSRF-Token', people.approver.csrf).send({ approval: 'conditional', reason: 'Findings at surveillance audit' });
-    const heat = await post('engineer', '/api/heats', { heatNumber: `CK-${Date.now()}-4`, supplierId, specId: 'ASTM F136', meltRoute: 'VAR ×3', productForm: 'bar', sizeMm: '25.4' });
+    const heat = await post('engineer', '/api/heats', { heatNumber: `CK-${Date.now()}-4`, supplierId, specId: 'ASTM F136', meltRoute: 'VAR ×3', productForm: 'bar', condition: 'annealed', sizeMm: '25.4' });
     expect((await detail(heat.body.id)).checkAnalysis).toMatchObject({ status: 'awaiting', position: 4, why: 'Every heat from a conditionally approved supplier is checked' });
     // Heat 2, accepted while the rule skipped it, would now be due; a heat accepted earlier keeps an intact signature: what it signed does not move with the rules.
     const signatures = (await people.reviewer.agent.get(`/api/signatures?recordType=heat&recordId=${heatIds[1]}`)).body as Array<{ meaning: string; changedAfterSigning: boolean }>;

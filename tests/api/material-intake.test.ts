@@ -40,25 +40,25 @@ describe('material intake: suppliers, heats, certificates, results, disposition'
   });
 
   it('when an engineer receives a heat, then it is stored against the current revision of its specification', async () => {
-    const response = await as('engineer').agent.post('/api/heats').set('X-CSRF-Token', as('engineer').csrf).send({ heatNumber: 'TA-90001', supplierId, specId: 'astm f136', meltRoute: 'VAR ×3', productForm: 'bar', sizeMm: '25.4' });
+    const response = await as('engineer').agent.post('/api/heats').set('X-CSRF-Token', as('engineer').csrf).send({ heatNumber: 'TA-90001', supplierId, specId: 'astm f136', meltRoute: 'VAR ×3', productForm: 'bar', condition: 'annealed', sizeMm: '25.4' });
     expect(response.status).toBe(201);
-    expect(response.body).toMatchObject({ heatNumber: 'TA-90001', spec: { id: 'ASTM F136', revision: 'L1', grade: null }, sizeMm: '25.400', status: 'received', verdict: null });
+    expect(response.body).toMatchObject({ heatNumber: 'TA-90001', spec: { id: 'ASTM F136', revision: 'L2', grade: null }, sizeMm: '25.400', status: 'received', verdict: null });
     heatId = response.body.id;
   });
 
   it('when the heat input is wrong, then the errors name the fields and nothing is stored', async () => {
     const engineer = as('engineer');
-    const duplicate = await engineer.agent.post('/api/heats').set('X-CSRF-Token', engineer.csrf).send({ heatNumber: 'TA-90001', supplierId, specId: 'ASTM F136', meltRoute: 'VAR', productForm: 'bar', sizeMm: '25' });
+    const duplicate = await engineer.agent.post('/api/heats').set('X-CSRF-Token', engineer.csrf).send({ heatNumber: 'TA-90001', supplierId, specId: 'ASTM F136', meltRoute: 'VAR', productForm: 'bar', condition: 'annealed', sizeMm: '25' });
     expect(duplicate.status).toBe(409);
-    const noGrade = await engineer.agent.post('/api/heats').set('X-CSRF-Token', engineer.csrf).send({ heatNumber: 'CP-1', supplierId, specId: 'ASTM F67', meltRoute: 'VAR', productForm: 'bar', sizeMm: '25' });
+    const noGrade = await engineer.agent.post('/api/heats').set('X-CSRF-Token', engineer.csrf).send({ heatNumber: 'CP-1', supplierId, specId: 'ASTM F67', meltRoute: 'VAR', productForm: 'bar', condition: 'annealed', sizeMm: '25' });
     expect(noGrade.status).toBe(422);
     expect(noGrade.body.error.fields).toEqual({ grade: 'One of 1, 2, 3, 4' });
     const invalid = await engineer.agent.post('/api/heats').set('X-CSRF-Token', engineer.csrf).send({ heatNumber: '', supplierId: 0, specId: 'ASTM F136', meltRoute: 'V', productForm: 'ingot', sizeMm: '-3' });
     expect(invalid.status).toBe(400);
-    expect(Object.keys(invalid.body.error.fields).sort()).toEqual(['heatNumber', 'meltRoute', 'productForm', 'sizeMm', 'supplierId']);
+    expect(Object.keys(invalid.body.error.fields).sort()).toEqual(['condition', 'heatNumber', 'meltRoute', 'productForm', 'sizeMm', 'supplierId']);
     const tomorrow = new Date(Date.now() + 2 * 86_400_000).toISOString().slice(0, 10);
     for (const [receivedOn, message] of [[tomorrow, 'Not in the future'], ['2025-02-30', 'Not a calendar date'], ['02/03/2025', 'A date as YYYY-MM-DD']]) {
-      const refused = await engineer.agent.post('/api/heats').set('X-CSRF-Token', engineer.csrf).send({ heatNumber: 'TA-90009', supplierId, specId: 'ASTM F136', meltRoute: 'VAR ×3', productForm: 'bar', sizeMm: '25', receivedOn });
+      const refused = await engineer.agent.post('/api/heats').set('X-CSRF-Token', engineer.csrf).send({ heatNumber: 'TA-90009', supplierId, specId: 'ASTM F136', meltRoute: 'VAR ×3', productForm: 'bar', condition: 'annealed', sizeMm: '25', receivedOn });
       expect(refused.status).toBe(400);
       expect(refused.body.error.fields).toEqual({ receivedOn: message });
     }
@@ -67,7 +67,7 @@ describe('material intake: suppliers, heats, certificates, results, disposition'
 
   it('when a heat is recorded after the day it arrived, then the receipt date given is kept', async () => {
     const engineer = as('engineer');
-    const response = await engineer.agent.post('/api/heats').set('X-CSRF-Token', engineer.csrf).send({ heatNumber: 'TA-90008', supplierId, specId: 'ASTM F136', meltRoute: 'VAR ×3', productForm: 'bar', sizeMm: '25.4', receivedOn: '2025-03-14' });
+    const response = await engineer.agent.post('/api/heats').set('X-CSRF-Token', engineer.csrf).send({ heatNumber: 'TA-90008', supplierId, specId: 'ASTM F136', meltRoute: 'VAR ×3', productForm: 'bar', condition: 'annealed', sizeMm: '25.4', receivedOn: '2025-03-14' });
     expect(response.status).toBe(201);
     expect(response.body.receivedAt).toBe('2025-03-14T00:00:00.000Z');
   });
@@ -80,7 +80,7 @@ describe('material intake: suppliers, heats, certificates, results, disposition'
     expect(heat.verdict).toBe('conforms');
     expect(heat.results.chemistry).toMatchObject({ H: '45 ppm', O: '0.11' });
     const evaluation = heat.evaluation as { spec: { revision: string }; items: Array<{ item: string; note?: string }> };
-    expect(evaluation.spec.revision).toBe('L1');
+    expect(evaluation.spec.revision).toBe('L2');
     expect(evaluation.items.find((item) => item.item === 'H')?.note).toBe('45 ppm = 0.0045 %');
     const bad = await engineer.agent.put(`/api/heats/${heatId}/results`).set('X-CSRF-Token', engineer.csrf).send({ chemistry: { O: 'high' } });
     expect(bad.status).toBe(400);
@@ -160,7 +160,7 @@ describe('material intake: suppliers, heats, certificates, results, disposition'
     const engineer = as('engineer');
     const reviewer = as('reviewer');
     const receive = async (heatNumber: string, chemistry: Record<string, string>) => {
-      const heat = await engineer.agent.post('/api/heats').set('X-CSRF-Token', engineer.csrf).send({ heatNumber, supplierId, specId: 'ASTM F136', meltRoute: 'VAR', productForm: 'bar', sizeMm: '25' });
+      const heat = await engineer.agent.post('/api/heats').set('X-CSRF-Token', engineer.csrf).send({ heatNumber, supplierId, specId: 'ASTM F136', meltRoute: 'VAR', productForm: 'bar', condition: 'annealed', sizeMm: '25' });
       await engineer.agent.put(`/api/heats/${heat.body.id}/results`).set('X-CSRF-Token', engineer.csrf).send({ ...conforming, chemistry });
       return heat.body.id as number;
     };
@@ -177,7 +177,7 @@ describe('material intake: suppliers, heats, certificates, results, disposition'
     expect(copied.crossChecks.identicalResultsOn).toContain('TA-90001');
     expect(heatDetailSchema.parse((await reviewer.agent.get(`/api/heats/${highOxygen}`)).body).crossChecks.identicalResultsOn).not.toContain('TA-90001');
     await engineer.agent.post(`/api/heats/${highOxygen}/certificates`).set('X-CSRF-Token', engineer.csrf).attach('certificate', pdf('TA-90003'), 'c.pdf');
-    expect((await tryAccept(highOxygen)).body.error.message).toBe('Only a conforming heat can be accepted; its evaluation says does-not-conform');
+    expect((await tryAccept(highOxygen)).body.error.message).toBe('Only a conforming heat can be accepted; its evaluation says does not conform');
 
     await as('approver').agent.put(`/api/suppliers/${supplierId}/approval`).set('X-CSRF-Token', as('approver').csrf).send({ approval: 'disqualified', reason: 'Failed re-audit' });
     const fromDisqualified = await receive('TA-90004', conforming.chemistry);
@@ -236,7 +236,9 @@ describe('element trends per supplier and specification', () => {
       ['NV-25-0388', '0.15'],
     ]);
     expect(response.body.limit).toEqual({ max: '0.13', text: '≤ 0.13' });
-    expect(response.body.capability.formula).toMatch(/^Cpk = min/);
+    expect(response.body.capability.ppk.formula).toMatch(/^Ppk = min\(\(USL − x̄\) \/ 3s/);
+    expect(response.body.capability.cpk.formula).toMatch(/σ̂ = MR̄ \/ 1\.128/);
+    expect(response.body.capability.indicativeOnly).toBe(points.length < 25);
     const missing = await agent.get(`/api/trends?supplierId=${supplier.id}&specId=ASTM%20F136&element=Zr`);
     expect(missing.status).toBe(422);
   });

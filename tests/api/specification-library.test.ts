@@ -23,7 +23,7 @@ describe('the specification library in the database', () => {
         : specification,
     );
     await expect(dataSource.transaction((manager) => syncSpecificationLibrary(manager, changed))).rejects.toThrow(
-      'Revision L1 of ASTM F136 in the shipped library differs from the stored one; stored revisions are immutable, so ship the change as a new revision',
+      'Revision L2 of ASTM F136 in the shipped library differs from the stored one; stored revisions are immutable, so ship the change as a new revision',
     );
   });
 

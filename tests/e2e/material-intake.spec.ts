@@ -17,6 +17,10 @@ test('[E2E-INTAKE] an engineer receives a heat, attaches its certificate and ent
   await page.getByRole('option', { name: /Nordvik Titanium Mill/ }).click();
   await dialog.getByLabel('Specification').click();
   await page.getByRole('option', { name: 'ASTM F136' }).click();
+  await dialog.getByLabel('Product form').click();
+  await page.getByRole('option', { name: 'Bar', exact: true }).click();
+  // F136 in the library covers the annealed condition only, so it is chosen already.
+  await expect(dialog.getByLabel('Condition')).toContainText('Annealed');
   await dialog.getByLabel('Melt route').fill('VAR ×3');
   await dialog.getByLabel('Diameter or thickness (mm)').fill('25.4');
   await dialog.getByRole('button', { name: 'Receive heat' }).click();
@@ -53,6 +57,6 @@ test('[E2E-INTAKE] an engineer receives a heat, attaches its certificate and ent
   await popup.getByRole('button', { name: 'Sign in' }).click();
   await expect(signing.getByTestId('signature-manifestation')).toContainText('Aisling Ní Bhriain — Accepted', { timeout: 15_000 });
   await signing.getByRole('button', { name: 'Done' }).click();
-  await expect(page.locator('.status')).toContainText('accepted');
+  await expect(page.locator('.status')).toContainText('Accepted');
   await page.screenshot({ path: 'test-results/heat-accepted.png', fullPage: true });
 });

@@ -17,11 +17,15 @@ export function evaluateCommand(): Command {
       'after',
       `
 Input, for example:
-  {"spec": "ASTM F136", "grade": null, "form": "bar", "sizeMm": "25",
+  {"spec": "ASTM F136", "grade": null, "form": "bar", "condition": "annealed", "sizeMm": "25",
    "chemistry": {"Al": "6.1", "V": "4.0", "Fe": "0.18", "O": "0.12", "C": "0.02", "N": "0.01", "H": "0.004"},
    "mechanical": {"utsMPa": "950", "ysMPa": "880", "elongationPct": "14", "reductionOfAreaPct": "40"}}
-Chemistry in wt % (or "40 ppm"); numbers may be JSON strings or numbers. Exit 0 whatever the
-verdict; exit 2 with a message for invalid input or an unknown specification.`,
+Chemistry in wt % (or "40 ppm"); numbers may be JSON strings or numbers. The condition is one of
+annealed, cold-worked, hot-worked, warm-worked, extra-hard. The verdict is conforms,
+does-not-conform or cannot-be-evaluated (each such item gives its reason: no-requirement,
+missing-value, unverified-written-form); restsOnUnverified names the items judged against
+unverified limits. Exit 0 whatever the verdict; exit 2 with a message for invalid input or an
+unknown specification.`,
     )
     .action(async () => {
       const text = await readStdin();

@@ -1,5 +1,6 @@
 import { ledgerReviewRecordType } from './ledger/ledger-review.record';
 import { heatRecordType } from './materials/heat.record';
+import { heatEvaluationRecordType } from './materials/heat-evaluation.record';
 import { specificationDraftRecordType } from './materials/specification-drafts.service';
 import { heatMixingRecordType } from './manufacturing/heat-mixing.record';
 import { nonconformanceRecordType } from './manufacturing/nonconformances.service';
@@ -12,6 +13,7 @@ import { registerSignableRecordType } from './signatures/signable-records';
 export function registerProductRecordTypes(): void {
   registerSignableRecordType(ledgerReviewRecordType);
   registerSignableRecordType(heatRecordType);
+  registerSignableRecordType(heatEvaluationRecordType);
   registerSignableRecordType(specificationDraftRecordType);
   registerSignableRecordType(heatMixingRecordType);
   registerSignableRecordType(nonconformanceRecordType);

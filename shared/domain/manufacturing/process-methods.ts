@@ -19,12 +19,27 @@ export interface ParameterWindow {
   confidence: Confidence;
 }
 
+/** One published temperature band with the minimum time that goes with it. */
+export interface TemperatureTimePairing {
+  label: string;
+  minC: string;
+  maxC: string;
+  minMinutes: string;
+  source: string;
+  confidence: Confidence;
+}
+
 export interface ProcessMethod {
   id: string;
   kind: ProcessKind;
   title: string;
   basis: string;
   parameters: ParameterWindow[];
+  /**
+   * Methods that pair each temperature band with its own minimum time: a run is in window only when
+   * its temperature and time both meet one pairing (the parameters' own windows are the envelope).
+   */
+  pairings?: TemperatureTimePairing[];
 }
 
 const a967 = 'ASTM A967 nitric treatments as listed by a processor citing A967-05 (Advance Surface Technologies, Passivation specifications)';
@@ -41,6 +56,7 @@ const nitric = (id: string, title: string, acid: [string, string], temperature: 
   kind: 'passivation',
   title,
   basis: source,
+  pairings: [{ label: title.split(' (')[0]!, minC: temperature[0], maxC: temperature[1], minMinutes: minutes, source, confidence: 'secondary-source' }],
   parameters: [
     bath(firm),
     { key: 'acidConcentration', label: 'Nitric acid concentration', unit: 'vol %', min: acid[0], max: acid[1], source, confidence: 'secondary-source' },
@@ -50,12 +66,29 @@ const nitric = (id: string, title: string, acid: [string, string], temperature: 
   ],
 });
 
-/** F86's room-temperature nitric immersion: the source gives no temperature, so the firm's own room-temperature window applies. */
+/**
+ * F86's nitric passivation: 20–40 % at room temperature for at least 30 minutes (the source gives
+ * no temperature, so the firm's own room-temperature window applies), or heated to 49–60 °C
+ * (120–140 °F) for at least 20 minutes.
+ */
 function f86Nitric(): ProcessMethod {
-  const method = nitric('F86-NITRIC', 'ASTM F86 nitric (20–40 % HNO₃, room temperature, ≥ 30 min)', ['20', '40'], ['15', '35'], '30', f86);
-  method.parameters = method.parameters.map((parameter) => (parameter.key === 'temperature' ? { ...parameter, label: 'Bath temperature (room)', source: firm, confidence: 'firm-validated' } : parameter));
+  const method = nitric('F86-NITRIC', 'ASTM F86 nitric (20–40 % HNO₃; room temperature ≥ 30 min, or 49–60 °C ≥ 20 min)', ['20', '40'], ['15', '60'], '20', f86);
+  method.parameters = method.parameters.map((parameter) => (parameter.key === 'temperature' ? { ...parameter, source: `${f86}; room temperature band: ${firm}`, confidence: 'firm-validated' } : parameter));
+  method.pairings = [
+    { label: 'Room temperature', minC: '15', maxC: '35', minMinutes: '30', source: `${f86}; room temperature band: ${firm}`, confidence: 'firm-validated' },
+    { label: 'Accelerated (120–140 °F)', minC: '49', maxC: '60', minMinutes: '20', source: f86, confidence: 'secondary-source' },
+  ];
   return method;
 }
+
+const citricPairing = (label: string, minC: string, maxC: string, minMinutes: string) => ({
+  label,
+  minC,
+  maxC,
+  minMinutes,
+  source: `ASTM A967 ${label}: unverified (no published source consulted gives the citric temperatures and times; check your licensed copy)`,
+  confidence: 'unconfirmed' as const,
+});
 
 export const processMethods: ProcessMethod[] = [
   nitric('A967-NITRIC-2', 'ASTM A967 Nitric 2 (20–45 vol % HNO₃, 21–32 °C, ≥ 30 min)', ['20', '45'], ['21', '32'], '30', `${a967}; concentration also ${a967Nitric2}`),
@@ -65,13 +98,14 @@ export const processMethods: ProcessMethod[] = [
   {
     id: 'A967-CITRIC',
     kind: 'passivation',
-    title: 'ASTM A967 citric (4–10 % citric acid; temperature and time unconfirmed)',
+    title: 'ASTM A967 citric (4–10 % citric acid; temperature and time pairings unverified)',
     basis: citric,
+    pairings: [citricPairing('Citric 1', '60', '71', '4'), citricPairing('Citric 2', '49', '60', '10'), citricPairing('Citric 3', '21', '49', '20')],
     parameters: [
       bath(firm),
       { key: 'acidConcentration', label: 'Citric acid concentration', unit: 'wt %', min: '4', max: '10', source: citric, confidence: 'secondary-source' },
-      { key: 'temperature', label: 'Bath temperature', unit: '°C', min: '21', max: '71', source: 'ASTM A967 Citric 1–3 range from memory, not confirmed by any source consulted', confidence: 'unconfirmed' },
-      { key: 'immersionTime', label: 'Immersion time', unit: 'min', min: '4', source: 'ASTM A967 Citric 1 minimum from memory, not confirmed by any source consulted', confidence: 'unconfirmed' },
+      { key: 'temperature', label: 'Bath temperature', unit: '°C', min: '21', max: '71', source: 'ASTM A967 Citric 1–3 envelope, unverified: the pairings below decide', confidence: 'unconfirmed' },
+      { key: 'immersionTime', label: 'Immersion time', unit: 'min', min: '4', source: 'ASTM A967 Citric 1 minimum, unverified: the pairings below decide', confidence: 'unconfirmed' },
       rinse,
     ],
   },

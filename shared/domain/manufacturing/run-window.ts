@@ -14,6 +14,8 @@ export interface WindowCheck {
   inWindow: boolean;
   items: WindowItem[];
   missing: string[];
+  /** For methods with temperature/time pairings: the pairing the run meets, or null when none holds. */
+  pairing?: string | null;
 }
 
 export function windowText(min?: string, max?: string, unit = ''): string {
@@ -49,5 +51,28 @@ export function checkRunWindow(method: ProcessMethod, parameters: Record<string,
     if (window.max !== undefined && value.greaterThan(window.max)) why = `${raw} ${window.unit} is above the maximum ${window.max} ${window.unit}`;
     items.push({ key: window.key, label: window.label, value: raw, window: text, verdict: why ? 'out-of-window' : 'in-window', why });
   }
-  return { inWindow: missing.length === 0 && items.every((item) => item.verdict !== 'out-of-window'), items, missing };
+  const pairing = method.pairings ? checkPairings(method, items) : undefined;
+  return { inWindow: missing.length === 0 && items.every((item) => item.verdict !== 'out-of-window'), items, missing, ...(pairing !== undefined ? { pairing } : {}) };
+}
+
+/**
+ * A run is in window only if its temperature and time meet one pairing together: a citric bath
+ * at 25 °C for 5 minutes meets neither Citric 1 (hot, short) nor Citric 3 (cool, long).
+ */
+function checkPairings(method: ProcessMethod, items: WindowItem[]): string | null {
+  const temperature = items.find((item) => item.key === 'temperature');
+  const time = items.find((item) => item.key === 'immersionTime');
+  if (!temperature || !time) return null;
+  const held = method.pairings!.find(
+    (pairing) => !toDecimal(temperature.value).lessThan(pairing.minC) && !toDecimal(temperature.value).greaterThan(pairing.maxC) && !toDecimal(time.value).lessThan(pairing.minMinutes),
+  );
+  if (held) return held.label;
+  const options = method.pairings!.map((pairing) => `${pairing.label}: ${pairing.minC}–${pairing.maxC} °C for ≥ ${pairing.minMinutes} min`).join('; ');
+  const why = `${temperature.value} °C for ${time.value} min meets no temperature and time pairing of the method (${options})`;
+  for (const item of [temperature, time]) {
+    if (item.verdict === 'out-of-window') continue;
+    item.verdict = 'out-of-window';
+    item.why = why;
+  }
+  return null;
 }

@@ -1,9 +1,12 @@
-import { certificateInputSchema, type CertificateInput, type Evaluation, type EvaluationFlag, type EvaluationItem, type ParsedCertificateInput } from '../../schemas/evaluation';
-import { compareDecimal, decimalsOf, DecimalE29, roundE29, toDecimal } from './e29-rounding';
+import { certificateInputSchema, type CannotEvaluateReason, type CertificateInput, type Evaluation, type EvaluationFlag, type EvaluationItem, type ParsedCertificateInput } from '../../schemas/evaluation';
+import { DecimalE29, toDecimal } from './e29-rounding';
 import { findSpecification } from './library';
+import { conformsAbsolutely, judgeAgainstLimits } from './limit-judgement';
+import { plausibilityFlags } from './plausibility';
 import { readChemistryValue, readMechanicalValue, ReportedValueError } from './reported-value';
-import { limitCaution, mechanicalLabels, type ElementLimit, type MechanicalSet, type Specification, type SpecificationGrade, type ValueSource } from './specification';
-import { aluminiumEquivalent, alloyClass, molybdenumEquivalentBania, molybdenumEquivalentBoyer, oxygenEquivalent } from './titanium-indices';
+import { chooseMechanicalSet } from './requirement-selection';
+import { limitCaution, mechanicalLabels, mechanicalProperties, productConditionLabels, type Specification, type SpecificationGrade, type ValueSource } from './specification';
+import { titaniumIndices } from './titanium-indices';
 
 export class EvaluationInputError extends Error {
   constructor(
@@ -20,16 +23,36 @@ function limitText(min?: string, max?: string): string {
   return `≥ ${min}`;
 }
 
-/** Rounds the reported value to the limit's place (ASTM E29) and compares. */
-function judge(value: string, min?: string, max?: string): { rounded: string; conforms: boolean } {
-  const decimals = Math.max(min !== undefined ? decimalsOf(min) : 0, max !== undefined ? decimalsOf(max) : 0);
-  const rounded = roundE29(value, decimals);
-  const conforms = (min === undefined || compareDecimal(rounded, min) >= 0) && (max === undefined || compareDecimal(rounded, max) <= 0);
-  return { rounded, conforms };
+interface LimitUnderTest {
+  min?: string;
+  max?: string;
+  source: ValueSource;
+  writtenFormUnverified?: boolean;
 }
 
-function sourceFields(source: ValueSource) {
-  return { source: source.reference, confidence: source.confidence };
+/**
+ * Judges one reported value against one limit: E29 rounding to each limit's own place; when the
+ * limit's written form is unverified and rounding at the stored place decides differently from no
+ * rounding at all (the finest place the standard could write), no verdict is given.
+ */
+function judgedItem(base: Pick<EvaluationItem, 'item' | 'kind'>, value: string, limit: LimitUnderTest, note?: string): EvaluationItem {
+  const judgement = judgeAgainstLimits(value, limit.min, limit.max);
+  const unverified = limit.source.confidence === 'unconfirmed' || limit.writtenFormUnverified === true;
+  const common = { ...base, reported: value, rounded: judgement.rounded, limit: limitText(limit.min, limit.max), source: limit.source.reference, confidence: limit.source.confidence, unverified };
+  if (limit.writtenFormUnverified && conformsAbsolutely(value, limit.min, limit.max) !== judgement.conforms) {
+    const written = limit.min !== undefined && judgement.atMin !== undefined && judgement.rounded === judgement.atMin ? limit.min : (limit.max ?? limit.min)!;
+    return {
+      ...common,
+      verdict: 'cannot-be-evaluated',
+      reason: 'unverified-written-form',
+      note: `${judgement.conforms ? 'Conforms' : 'Does not conform'} when the limit is written ${written}, but ${judgement.conforms ? 'not' : 'does'} if the standard writes it to more decimals: check your licensed copy`,
+    };
+  }
+  return { ...common, verdict: judgement.conforms ? 'conforms' : 'does-not-conform', ...(note ? { note } : {}) };
+}
+
+function cannotEvaluate(base: Pick<EvaluationItem, 'item' | 'kind' | 'limit'>, reason: CannotEvaluateReason, note: string, source: ValueSource, reported: string | null = null): EvaluationItem {
+  return { ...base, reported, rounded: null, verdict: 'cannot-be-evaluated', reason, note, source: source.reference, confidence: source.confidence, unverified: source.confidence === 'unconfirmed' };
 }
 
 function chooseGrade(specification: Specification, grade: string | null): SpecificationGrade {
@@ -42,26 +65,17 @@ function chooseGrade(specification: Specification, grade: string | null): Specif
   return found;
 }
 
-function inSize(set: MechanicalSet, sizeMm: string): boolean {
-  if (!set.size) return true;
-  const from = compareDecimal(sizeMm, set.size.fromMm);
-  const to = compareDecimal(sizeMm, set.size.toMm);
-  return (set.size.fromInclusive ? from >= 0 : from > 0) && (set.size.toInclusive ? to <= 0 : to < 0);
-}
-
-function plausibility(limit: ElementLimit, value: string, asReported: string): EvaluationFlag[] {
-  const flags: EvaluationFlag[] = [];
-  const decimal = toDecimal(value);
-  if (decimal.isNegative() || decimal.greaterThan(100)) flags.push({ kind: 'out-of-range', item: limit.element, message: `${limit.element} ${asReported} is outside 0–100 %` });
-  const reference = limit.max ?? limit.min!;
-  const reportedDecimals = value.split('.')[1]?.length ?? 0;
-  if (reportedDecimals > decimalsOf(reference) + 3) {
-    flags.push({ kind: 'excess-precision', item: limit.element, message: `${limit.element} is reported to ${reportedDecimals} decimals, far finer than a mill's method reports against a limit of ${reference}` });
+function readChemistry(input: ParsedCertificateInput): Record<string, { value: string; asReported: string; conversion?: string | null }> {
+  const chemistry: Record<string, { value: string; asReported: string; conversion?: string | null }> = {};
+  for (const [element, value] of Object.entries(input.chemistry)) {
+    try {
+      chemistry[element] = readChemistryValue(value);
+    } catch (error) {
+      if (error instanceof ReportedValueError) throw new EvaluationInputError(error.message, { [`chemistry.${element}`]: error.message });
+      throw error;
+    }
   }
-  if (limit.max !== undefined && limit.min === undefined && toDecimal(limit.max).lessThan(0.1) && decimal.greaterThanOrEqualTo(1) && decimal.greaterThan(toDecimal(limit.max).times(50))) {
-    flags.push({ kind: 'looks-like-ppm', item: limit.element, message: `${limit.element} ${asReported} % against a limit of ${limit.max} %: was it reported in ppm?` });
-  }
-  return flags;
+  return chemistry;
 }
 
 /**
@@ -79,97 +93,92 @@ export function evaluateCertificate(raw: CertificateInput): Evaluation {
   return evaluateAgainst(specification, parsed.data);
 }
 
-/** Evaluates parsed input against a given specification revision (e.g. the one a heat was bought to). */
-export function evaluateAgainst(specification: Specification, input: ParsedCertificateInput): Evaluation {
-  const grade = chooseGrade(specification, input.grade === null || input.grade === undefined ? null : String(input.grade));
+function chemistryItems(specification: Specification, grade: SpecificationGrade, chemistry: ReturnType<typeof readChemistry>, flags: EvaluationFlag[]): EvaluationItem[] {
   const items: EvaluationItem[] = [];
-  const flags: EvaluationFlag[] = [];
-  const chemistry: Record<string, string> = {};
-
-  for (const [element, value] of Object.entries(input.chemistry)) {
-    try {
-      chemistry[element] = readChemistryValue(value).value;
-    } catch (error) {
-      if (error instanceof ReportedValueError) throw new EvaluationInputError(error.message, { [`chemistry.${element}`]: error.message });
-      throw error;
-    }
-  }
-
   for (const limit of grade.chemistry) {
-    const raw = input.chemistry[limit.element];
-    const limitLabel = limitText(limit.min, limit.max);
-    if (raw === undefined) {
-      items.push({ item: limit.element, kind: 'chemistry', reported: null, rounded: null, limit: limitLabel, verdict: 'missing', note: 'not reported', ...sourceFields(limit.source) });
+    const reported = chemistry[limit.element];
+    if (!reported) {
+      items.push(cannotEvaluate({ item: limit.element, kind: 'chemistry', limit: limitText(limit.min, limit.max) }, 'missing-value', 'not reported', limit.source));
       continue;
     }
-    const reported = readChemistryValue(raw);
-    const { rounded, conforms } = judge(reported.value, limit.min, limit.max);
-    items.push({
-      item: limit.element,
-      kind: 'chemistry',
-      reported: reported.value,
-      rounded,
-      limit: limitLabel,
-      verdict: conforms ? 'conforms' : 'does-not-conform',
-      ...(reported.conversion ? { note: reported.conversion } : {}),
-      ...sourceFields(limit.source),
-    });
-    flags.push(...plausibility(limit, reported.value, reported.asReported));
+    items.push(judgedItem({ item: limit.element, kind: 'chemistry' }, reported.value, limit, reported.conversion ?? undefined));
+    flags.push(...plausibilityFlags(limit, reported.value, reported.asReported));
   }
-  for (const element of Object.keys(input.chemistry)) {
+  for (const element of Object.keys(chemistry)) {
     if (!grade.chemistry.some((limit) => limit.element === element)) {
       flags.push({ kind: 'not-in-specification', item: element, message: `${element} is reported but ${specification.id} sets no limit for it` });
     }
   }
-
   for (const requirement of grade.weightedSums) {
     const missing = requirement.terms.filter((term) => chemistry[term.element] === undefined).map((term) => term.element);
-    const limitLabel = limitText(requirement.min, requirement.max);
     if (missing.length) {
-      items.push({ item: requirement.label, kind: 'requirement', reported: null, rounded: null, limit: limitLabel, verdict: 'missing', note: `needs ${missing.join(', ')}`, ...sourceFields(requirement.source) });
+      items.push(cannotEvaluate({ item: requirement.label, kind: 'requirement', limit: limitText(requirement.min, requirement.max) }, 'missing-value', `needs ${missing.join(', ')}`, requirement.source));
       continue;
     }
-    const total = requirement.terms.reduce((sum, term) => sum.plus(toDecimal(chemistry[term.element]!).times(term.factor)), new DecimalE29(0));
-    const exact = total.toFixed();
-    const { rounded, conforms } = judge(exact, requirement.min, requirement.max);
-    items.push({ item: requirement.label, kind: 'requirement', reported: exact, rounded, limit: limitLabel, verdict: conforms ? 'conforms' : 'does-not-conform', ...sourceFields(requirement.source) });
+    const total = requirement.terms.reduce((sum, term) => sum.plus(toDecimal(chemistry[term.element]!.value).times(term.factor)), new DecimalE29(0));
+    items.push(judgedItem({ item: requirement.label, kind: 'requirement' }, total.toFixed(), requirement));
   }
+  return items;
+}
 
-  const sets = grade.mechanical.filter((set) => set.forms.includes(input.form) && set.condition === input.condition);
+function mechanicalItems(specification: Specification, grade: SpecificationGrade, input: ParsedCertificateInput): EvaluationItem[] {
   const sizeMm = input.sizeMm === null || input.sizeMm === undefined ? null : readMechanicalValue(input.sizeMm);
-  const sized = sets.some((set) => set.size);
-  let chosen: MechanicalSet | undefined;
-  if (sized && sizeMm === null) {
-    items.push({ item: 'size', kind: 'selection', reported: null, rounded: null, limit: 'diameter or thickness in mm', verdict: 'missing', note: 'the mechanical minima depend on size', source: 'specification', confidence: 'secondary' });
-  } else {
-    chosen = sets.find((set) => sizeMm === null || inSize(set, sizeMm));
-    if (sets.length && !chosen) {
-      items.push({ item: 'size', kind: 'selection', reported: sizeMm, rounded: null, limit: 'within a size range of the specification', verdict: 'does-not-conform', note: `${sizeMm} mm is outside every size range for ${input.form}`, source: 'specification', confidence: 'secondary' });
-    }
+  const selection = chooseMechanicalSet(specification, grade, { form: input.form, condition: input.condition, sizeMm });
+  if (selection.kind !== 'chosen') {
+    const selectionSource: ValueSource = { reference: `${specification.id} revision ${specification.revision} in the library`, confidence: 'secondary' };
+    return [cannotEvaluate({ item: 'Mechanical requirements', kind: 'selection', limit: selection.wanted }, selection.reason, selection.note, selectionSource, sizeMm)];
   }
-  for (const limit of chosen?.limits ?? []) {
-    const raw = input.mechanical[limit.property];
-    const label = mechanicalLabels[limit.property];
-    if (raw === undefined) {
-      items.push({ item: label, kind: 'mechanical', reported: null, rounded: null, limit: limitText(limit.min), verdict: 'missing', note: 'not reported', ...sourceFields(chosen!.source) });
+  const set = selection.set;
+  const required = grade.mechanicalProperties ?? mechanicalProperties.filter((property) => grade.mechanical.some((candidate) => candidate.limits.some((limit) => limit.property === property)));
+  const items: EvaluationItem[] = [];
+  for (const property of required) {
+    const label = mechanicalLabels[property];
+    const limit = set.limits.find((candidate) => candidate.property === property);
+    if (!limit) {
+      if (set.notRequired?.some((entry) => entry.property === property)) continue;
+      items.push(
+        cannotEvaluate(
+          { item: label, kind: 'mechanical', limit: 'no requirement in the library' },
+          'no-requirement',
+          `${specification.id} ${specification.revision} gives no ${label.toLowerCase()} minimum for ${input.form}, ${productConditionLabels[input.condition].toLowerCase()}${sizeMm ? `, ${sizeMm} mm` : ''}`,
+          set.source,
+        ),
+      );
       continue;
     }
-    const value = readMechanicalValue(raw);
-    const { rounded, conforms } = judge(value, limit.min);
-    items.push({ item: label, kind: 'mechanical', reported: value, rounded, limit: limitText(limit.min), verdict: conforms ? 'conforms' : 'does-not-conform', ...sourceFields(chosen!.source) });
+    const raw = input.mechanical[property];
+    if (raw === undefined) {
+      items.push(cannotEvaluate({ item: label, kind: 'mechanical', limit: limitText(limit.min) }, 'missing-value', 'not reported', set.source));
+      continue;
+    }
+    items.push(judgedItem({ item: label, kind: 'mechanical' }, readMechanicalValue(raw), { min: limit.min, source: set.source, ...(limit.writtenFormUnverified ? { writtenFormUnverified: true } : {}) }));
   }
+  return items;
+}
 
-  const derived: Evaluation['derived'] = {};
-  if (specification.family === 'titanium-unalloyed' || specification.family === 'titanium-alloy') {
-    if (specification.family === 'titanium-unalloyed') derived.oxygenEquivalent = oxygenEquivalent(chemistry);
-    derived.aluminiumEquivalent = aluminiumEquivalent(chemistry);
-    derived.molybdenumEquivalentBania = molybdenumEquivalentBania(chemistry);
-    derived.molybdenumEquivalentBoyer = molybdenumEquivalentBoyer(chemistry);
-    const classified = alloyClass(derived.molybdenumEquivalentBania.value);
-    derived.alloyClass = classified.alloyClass;
-    derived.alloyClassRule = classified.rule;
-  }
+/** Does not conform if any item does not; else cannot be evaluated if any item cannot; else conforms. */
+export function overallVerdict(items: readonly Pick<EvaluationItem, 'verdict'>[]): Evaluation['verdict'] {
+  if (items.some((item) => item.verdict === 'does-not-conform')) return 'does-not-conform';
+  if (items.some((item) => item.verdict === 'cannot-be-evaluated')) return 'cannot-be-evaluated';
+  return 'conforms';
+}
 
-  const verdict = items.some((item) => item.verdict === 'does-not-conform') ? 'does-not-conform' : items.some((item) => item.verdict === 'missing') ? 'incomplete' : 'conforms';
-  return { verdict, items, derived, flags, spec: { id: specification.id, revision: specification.revision, edition: specification.edition, grade: grade.grade }, caution: limitCaution };
+/** Evaluates parsed input against a given specification revision (e.g. the one a heat was bought to). */
+export function evaluateAgainst(specification: Specification, input: ParsedCertificateInput): Evaluation {
+  const grade = chooseGrade(specification, input.grade === null || input.grade === undefined ? null : String(input.grade));
+  const flags: EvaluationFlag[] = [];
+  const chemistry = readChemistry(input);
+  const items = [...chemistryItems(specification, grade, chemistry, flags), ...mechanicalItems(specification, grade, input)];
+  const values = Object.fromEntries(Object.entries(chemistry).map(([element, reported]) => [element, reported.value]));
+  const sizeMm = input.sizeMm === null || input.sizeMm === undefined ? null : readMechanicalValue(input.sizeMm);
+  return {
+    verdict: overallVerdict(items),
+    items,
+    derived: titaniumIndices(specification.family, values),
+    flags,
+    spec: { id: specification.id, revision: specification.revision, edition: specification.edition, grade: grade.grade },
+    basis: { form: input.form, condition: input.condition, sizeMm },
+    restsOnUnverified: items.filter((item) => item.unverified && item.verdict !== 'cannot-be-evaluated').map((item) => item.item),
+    caution: limitCaution,
+  };
 }

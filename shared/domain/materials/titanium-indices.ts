@@ -25,7 +25,7 @@ export function oxygenEquivalent(chemistry: Chemistry): TitaniumIndex {
   return {
     value: sum(chemistry, [['O', '1'], ['N', '2'], ['C', '0.67']]).toFixed(),
     formula: 'O + 2 N + 0.67 C',
-    source: 'attributed to Ogden & Jaffee; coefficients from memory, not confirmed',
+    source: 'attributed to Ogden & Jaffee; coefficients unverified',
   };
 }
 
@@ -33,7 +33,7 @@ export function oxygenEquivalent(chemistry: Chemistry): TitaniumIndex {
 export function aluminiumEquivalent(chemistry: Chemistry): TitaniumIndex {
   const interstitials = sum(chemistry, [['O', '1'], ['C', '1'], ['N', '2']]).times(10);
   const value = get(chemistry, 'Al').plus(get(chemistry, 'Sn').div(3)).plus(get(chemistry, 'Zr').div(6)).plus(interstitials);
-  return { value: trimmed(value), formula: 'Al + Sn/3 + Zr/6 + 10 (O + C + 2 N)', source: 'attributed to Rosenberg (1970); from memory, not confirmed' };
+  return { value: trimmed(value), formula: 'Al + Sn/3 + Zr/6 + 10 (O + C + 2 N)', source: 'attributed to Rosenberg (1970); unverified' };
 }
 
 /** [Mo]eq after Bania (1993): Mo + 0.2 Ta + 0.28 Nb + 0.4 W + 0.67 V + 1.25 Cr + 1.25 Ni + 1.7 Mn + 1.7 Co + 2.5 Fe. */
@@ -53,7 +53,7 @@ export function molybdenumEquivalentBania(chemistry: Chemistry): TitaniumIndex {
   return {
     value: sum(chemistry, terms).toFixed(),
     formula: 'Mo + 0.2 Ta + 0.28 Nb + 0.4 W + 0.67 V + 1.25 Cr + 1.25 Ni + 1.7 Mn + 1.7 Co + 2.5 Fe',
-    source: 'Bania (1993) form; coefficients from memory, not confirmed',
+    source: 'Bania (1993) form; coefficients unverified',
   };
 }
 
@@ -72,7 +72,7 @@ export function molybdenumEquivalentBoyer(chemistry: Chemistry): TitaniumIndex {
   return {
     value: sum(chemistry, terms).toFixed(),
     formula: 'Mo + 0.67 V + 0.44 W + 0.28 Nb + 0.22 Ta + 2.9 Fe + 1.6 Cr − Al',
-    source: 'Boyer, Welsch & Collings, Materials Properties Handbook: Titanium Alloys (1994); coefficients from memory, not confirmed',
+    source: 'Boyer, Welsch & Collings, Materials Properties Handbook: Titanium Alloys (1994); coefficients unverified',
   };
 }
 
@@ -84,10 +84,24 @@ export type AlloyClass = 'alpha' | 'near-alpha' | 'alpha-beta' | 'metastable-bet
  */
 export function alloyClass(molybdenumEquivalent: string): { alloyClass: AlloyClass; rule: string } {
   const value = new DecimalE29(molybdenumEquivalent);
-  const rule = 'Bania [Mo]eq: alpha < 1 ≤ near-alpha < 2 ≤ alpha-beta < 10 ≤ metastable beta < 30 ≤ beta (thresholds vary by author; from memory)';
+  const rule = 'Bania [Mo]eq: alpha < 1 ≤ near-alpha < 2 ≤ alpha-beta < 10 ≤ metastable beta < 30 ≤ beta (thresholds vary by author; unverified)';
   if (value.lessThan(1)) return { alloyClass: 'alpha', rule };
   if (value.lessThan(2)) return { alloyClass: 'near-alpha', rule };
   if (value.lessThan(10)) return { alloyClass: 'alpha-beta', rule };
   if (value.lessThan(30)) return { alloyClass: 'metastable-beta', rule };
   return { alloyClass: 'beta', rule };
+}
+
+/** The indices shown for titanium heats (empty for other families). */
+export function titaniumIndices(family: string, chemistry: Chemistry): Record<string, TitaniumIndex | string> {
+  if (family !== 'titanium-unalloyed' && family !== 'titanium-alloy') return {};
+  const derived: Record<string, TitaniumIndex | string> = {};
+  if (family === 'titanium-unalloyed') derived.oxygenEquivalent = oxygenEquivalent(chemistry);
+  derived.aluminiumEquivalent = aluminiumEquivalent(chemistry);
+  derived.molybdenumEquivalentBania = molybdenumEquivalentBania(chemistry);
+  derived.molybdenumEquivalentBoyer = molybdenumEquivalentBoyer(chemistry);
+  const classified = alloyClass(molybdenumEquivalentBania(chemistry).value);
+  derived.alloyClass = classified.alloyClass;
+  derived.alloyClassRule = classified.rule;
+  return derived;
 }

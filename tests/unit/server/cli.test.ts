@@ -59,7 +59,8 @@ describe('ingotrace evaluate', () => {
     expect(result.status).toBe(0);
     const evaluation = JSON.parse(result.stdout);
     expect(evaluation.verdict).toBe('conforms');
-    expect(evaluation.spec).toMatchObject({ id: 'ASTM F136', revision: 'L1' });
+    expect(evaluation.spec).toMatchObject({ id: 'ASTM F136', revision: 'L2' });
+    expect(evaluation.basis).toEqual({ form: 'bar', condition: 'annealed', sizeMm: '25' });
     expect(evaluation.items[3]).toMatchObject({ item: 'O', reported: '0.12', rounded: '0.12', limit: '≤ 0.13', verdict: 'conforms' });
   });
 
@@ -67,6 +68,17 @@ describe('ingotrace evaluate', () => {
     const result = evaluate(JSON.stringify({ ...certificate, spec: 'astm f136', chemistry: { ...certificate.chemistry, O: 0.135 } }));
     expect(result.status).toBe(0);
     expect(JSON.parse(result.stdout).verdict).toBe('does-not-conform');
+  });
+
+  it('when no requirement applies to the form (F136 plate is outside the library), then the verdict is cannot-be-evaluated with the reason, not conforms', () => {
+    const result = evaluate(JSON.stringify({ ...certificate, form: 'plate', condition: 'Annealed' }));
+    expect(result.status).toBe(0);
+    const evaluation = JSON.parse(result.stdout);
+    expect(evaluation.verdict).toBe('cannot-be-evaluated');
+    expect(evaluation.items.at(-1)).toMatchObject({ kind: 'selection', verdict: 'cannot-be-evaluated', reason: 'no-requirement' });
+    const typedCondition = evaluate(JSON.stringify({ ...certificate, condition: 'as rolled' }));
+    expect(typedCondition.status).toBe(2);
+    expect(typedCondition.stderr).toContain('condition: Choose one of: annealed, cold-worked, hot-worked, warm-worked, extra-hard');
   });
 
   it('when the input is not JSON or names an unknown specification, then it exits non-zero with a clear message', () => {

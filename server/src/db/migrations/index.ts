@@ -14,6 +14,7 @@ import { CreateRateLimit1764680400000 } from './1764680400000-create-rate-limit'
 import { CreateScreeningAcknowledgement1764684000000 } from './1764684000000-create-screening-acknowledgement';
 import { CreateCheckAnalysis1764691200000 } from './1764691200000-create-check-analysis';
 import { AddBarHeatMarking1764687600000 } from './1764687600000-add-bar-heat-marking';
+import { AddCannotBeEvaluated1764694800000 } from './1764694800000-add-cannot-be-evaluated';
 
 /** Every migration in the order it runs. Add new ones at the end. */
 export const migrations = [
@@ -33,4 +34,5 @@ export const migrations = [
   CreateScreeningAcknowledgement1764684000000,
   AddBarHeatMarking1764687600000,
   CreateCheckAnalysis1764691200000,
+  AddCannotBeEvaluated1764694800000,
 ];

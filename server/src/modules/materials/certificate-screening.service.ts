@@ -4,7 +4,7 @@
 import type { DataSource, EntityManager } from 'typeorm';
 import { screenSupplierHistory, type PropertyLimits, type ScreenedHeat } from '@shared/domain/materials/certificate-screening';
 import { readChemistryValue, ReportedValueError } from '@shared/domain/materials/reported-value';
-import type { Specification } from '@shared/domain/materials/specification';
+import { conditionOf, type Specification } from '@shared/domain/materials/specification';
 import type { Person } from '@shared/schemas/people';
 import { screeningAcknowledgementSchema, type HeatScreening, type ScreeningAcknowledgementInput, type SupplierScreening } from '@shared/schemas/screening';
 import { AppError } from '../../errors';
@@ -63,7 +63,7 @@ export function limitsOf(specification: Specification | null, grade: string | nu
   const chosen = specification?.grades.find((candidate) => candidate.grade === grade) ?? specification?.grades[0];
   if (!chosen) return limits;
   for (const element of chosen.chemistry) limits[element.element] = { ...(element.min ? { min: element.min } : {}), ...(element.max ? { max: element.max } : {}) };
-  const set = chosen.mechanical.find((candidate) => candidate.forms.includes(form as never) && candidate.condition === condition);
+  const set = chosen.mechanical.find((candidate) => candidate.forms.includes(form as never) && conditionOf(candidate.condition) === conditionOf(condition));
   for (const limit of set?.limits ?? []) limits[limit.property] = { min: limit.min };
   return limits;
 }

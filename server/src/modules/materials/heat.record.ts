@@ -4,6 +4,7 @@ import { appendLedgerEvent } from '../ledger/ledger.repository';
 import * as heats from './heats.repository';
 import { openFindings } from './certificate-screening.service';
 import { checkAnalysisOfHeat, checkAnalysisRefusal } from './check-analysis.service';
+import { currentJustification } from './heat-evaluation.record';
 
 const statusByMeaning = { accepted: 'accepted', rejected: 'rejected', quarantined: 'quarantined' } as const;
 
@@ -23,7 +24,8 @@ export const heatRecordType: SignableRecordType = {
     const heatId = Number(recordId);
     const heat = await heats.findHeat(manager, heatId);
     if (!heat) return null;
-    const evaluation = (await heats.latestEvaluation(manager, heatId))?.evaluation as { verdict?: string; items?: Array<{ item: string; rounded: string | null; verdict: string }> } | undefined;
+    const evaluation = (await heats.latestEvaluation(manager, heatId))?.evaluation;
+    const justification = await currentJustification(manager, heatId);
     const certificates = await heats.heatCertificates(manager, heatId);
     const check = await checkAnalysisOfHeat(manager, heatId);
     return {
@@ -35,7 +37,10 @@ export const heatRecordType: SignableRecordType = {
         form: `${heat.productForm} ${heat.sizeMm} mm ${heat.condition}`,
         results: await heats.heatResults(manager, heatId),
         verdict: evaluation?.verdict ?? 'not evaluated',
-        items: (evaluation?.items ?? []).map((item) => `${item.item}: ${item.rounded ?? '—'} ${item.verdict}`),
+        items: (evaluation?.items ?? []).map((item) => `${item.item}: ${item.rounded ?? '—'} ${item.verdict}${item.unverified ? ' (unverified limit)' : ''}`),
+        // Added only when present, so that heats without them sign the same content as before.
+        ...(evaluation?.restsOnUnverified.length ? { restsOnUnverifiedLimits: evaluation.restsOnUnverified } : {}),
+        ...(justification ? { justification: `${justification.manifestation}: ${justification.reason}` } : {}),
         certificates: certificates.map((certificate) => certificate.sha256),
         // Only the checks recorded, which cannot change once the heat is dispositioned; whether a
         // rule wants one is not signed (rules change later), and a heat without checks signs the
@@ -51,12 +56,17 @@ export const heatRecordType: SignableRecordType = {
     };
   },
   refusal({ meaning, record }) {
-    const facts = record as unknown as { status: HeatSummary['status']; supplierApproval: string; hasCertificate: boolean; openFindings: string[]; checkRefusal: string | null; content: { verdict: string } };
+    const facts = record as unknown as { status: HeatSummary['status']; supplierApproval: string; hasCertificate: boolean; openFindings: string[]; checkRefusal: string | null; content: { verdict: string; justification?: string } };
     if (facts.status === 'accepted' || facts.status === 'rejected') return `The heat is already ${facts.status}`;
     if (meaning === 'accepted') {
       if (facts.supplierApproval === 'disqualified') return 'Heats from a disqualified supplier cannot be accepted';
       if (!facts.hasCertificate) return 'Attach the mill certificate before accepting the heat';
-      if (facts.content.verdict !== 'conforms') return `Only a conforming heat can be accepted; its evaluation says ${facts.content.verdict}`;
+      if (facts.content.verdict === 'cannot-be-evaluated' && !facts.content.justification) {
+        return 'Some items of this heat cannot be evaluated: correct the record, or have a QA approver sign a justification, before accepting it';
+      }
+      if (facts.content.verdict !== 'conforms' && facts.content.verdict !== 'cannot-be-evaluated') {
+        return `Only a conforming heat can be accepted; its evaluation says ${facts.content.verdict === 'does-not-conform' ? 'does not conform' : facts.content.verdict}`;
+      }
       if (facts.openFindings.length) {
         return `Acknowledge the certificate screening finding${facts.openFindings.length > 1 ? 's' : ''} on this heat first (${facts.openFindings.length} open): ${facts.openFindings[0]}`;
       }

@@ -1,5 +1,6 @@
 import type { EntityManager } from 'typeorm';
 import type { CertificateDocument, HeatListQuery, HeatSummary } from '@shared/schemas/materials';
+import { readStoredEvaluation, type Evaluation } from '@shared/schemas/evaluation';
 
 interface HeatRow {
   id: number;
@@ -21,10 +22,18 @@ interface HeatRow {
   received_by: number;
 }
 
+/**
+ * The verdict of a heat's newest evaluation; evaluations stored before the third outcome existed
+ * said "incomplete", which reads as cannot be evaluated.
+ */
+export function latestVerdictSql(heatIdColumn: string): string {
+  return `(SELECT CASE e.verdict WHEN 'incomplete' THEN 'cannot-be-evaluated' ELSE e.verdict END FROM heat_evaluation e WHERE e.heat_id = ${heatIdColumn} ORDER BY e.id DESC LIMIT 1)`;
+}
+
 const heatSelect = `
   SELECT h.id, h.heat_number, h.supplier_id, s.name AS supplier_name, s.approval AS supplier_approval, h.spec_id, h.spec_revision,
          h.grade, h.melt_route, h.product_form, h.size_mm, h.heat_condition, h.status, h.received_at, h.received_by, p.name AS received_by_name,
-         (SELECT e.verdict FROM heat_evaluation e WHERE e.heat_id = h.id ORDER BY e.id DESC LIMIT 1) AS verdict
+         ${latestVerdictSql('h.id')} AS verdict
   FROM heat h JOIN supplier s ON s.id = h.supplier_id JOIN person p ON p.id = h.received_by`;
 
 function toSummary(row: HeatRow): HeatSummary & { receivedById: number } {
@@ -118,9 +127,12 @@ export async function insertEvaluation(manager: EntityManager, evaluation: { hea
   ]);
 }
 
-export async function latestEvaluation(manager: EntityManager, heatId: number): Promise<{ evaluation: unknown; evaluatedBy: number } | null> {
-  const [row]: Array<{ evaluation_json: string; evaluated_by: number }> = await manager.query('SELECT evaluation_json, evaluated_by FROM heat_evaluation WHERE heat_id = ? ORDER BY id DESC LIMIT 1', [heatId]);
-  return row ? { evaluation: JSON.parse(row.evaluation_json), evaluatedBy: row.evaluated_by } : null;
+export async function latestEvaluation(manager: EntityManager, heatId: number): Promise<{ id: number; evaluation: Evaluation; evaluatedBy: number } | null> {
+  const [row]: Array<{ id: number; evaluation_json: string; evaluated_by: number }> = await manager.query(
+    'SELECT id, evaluation_json, evaluated_by FROM heat_evaluation WHERE heat_id = ? ORDER BY id DESC LIMIT 1',
+    [heatId],
+  );
+  return row ? { id: Number(row.id), evaluation: readStoredEvaluation(JSON.parse(row.evaluation_json)), evaluatedBy: row.evaluated_by } : null;
 }
 
 export async function evaluatorIds(manager: EntityManager, heatId: number): Promise<number[]> {

@@ -2,6 +2,7 @@ import type { DataSource, EntityManager } from 'typeorm';
 import { evaluateAgainst, EvaluationInputError } from '@shared/domain/materials/evaluate-certificate';
 import { readChemistryValue, readMechanicalValue, ReportedValueError } from '@shared/domain/materials/reported-value';
 import { certificateInputSchema } from '@shared/schemas/evaluation';
+import { scopeOf } from '@shared/domain/materials/specification';
 import type { HeatCreate, HeatDetail, HeatListQuery, HeatResults, HeatSummary } from '@shared/schemas/materials';
 import { heatCreateSchema, heatResultsSchema } from '@shared/schemas/materials';
 import type { Person } from '@shared/schemas/people';
@@ -14,6 +15,7 @@ import { findSupplier } from './suppliers.repository';
 import { inspectCertificateFile } from './certificate-files';
 import { screeningOfHeat } from './certificate-screening.service';
 import { checkAnalysisOfHeat } from './check-analysis.service';
+import { currentJustification } from './heat-evaluation.record';
 
 export async function listHeats(dataSource: DataSource, query: HeatListQuery) {
   const { items, total } = await heats.listHeats(dataSource.manager, query);
@@ -32,6 +34,7 @@ export async function heatDetail(dataSource: DataSource, id: number): Promise<He
     ...summary,
     results: await heats.heatResults(manager, id),
     evaluation: (await heats.latestEvaluation(manager, id))?.evaluation ?? null,
+    justification: await currentJustification(manager, id),
     certificates,
     crossChecks: { identicalResultsOn: await heats.heatsWithIdenticalResults(manager, id), sameDocumentOn: [...sameDocumentOn].sort() },
     screening: await screeningOfHeat(manager, id),
@@ -49,6 +52,13 @@ export async function receiveHeat(dataSource: DataSource, raw: HeatCreate, perso
     const grades = specification.grades.map((grade) => grade.grade);
     const grade = specification.grades.length === 1 ? specification.grades[0]!.grade : input.grade;
     if (!grades.includes(grade)) throw AppError.rule(`${specification.id} needs a grade: one of ${grades.join(', ')}`, { grade: `One of ${grades.join(', ')}` });
+    const scope = scopeOf(specification);
+    if (!scope.forms.includes(input.productForm)) {
+      throw AppError.rule(`${specification.id} ${specification.revision} covers ${scope.forms.join(', ')}, not ${input.productForm}`, { productForm: `One of ${scope.forms.join(', ')}` });
+    }
+    if (!scope.conditions.includes(input.condition)) {
+      throw AppError.rule(`${specification.id} ${specification.revision} covers the conditions ${scope.conditions.join(', ')}, not ${input.condition}`, { condition: `One of ${scope.conditions.join(', ')}` });
+    }
     const [duplicate] = await manager.query('SELECT id FROM heat WHERE supplier_id = ? AND heat_number = ?', [supplier.id, input.heatNumber]);
     if (duplicate) throw new AppError('CONFLICT', `Heat ${input.heatNumber} from ${supplier.name} is already received`, { heatNumber: 'Already received' });
     const id = await heats.insertHeat(manager, { ...input, specId: specification.id, specRevision: specification.revision, grade, receivedBy: person.id });

@@ -13,6 +13,9 @@ import { currentSpecifications, storedSpecification } from './specification-libr
 const limitText = (limit: Pick<ElementLimit, 'min' | 'max'> | undefined) =>
   !limit ? '—' : limit.min !== undefined && limit.max !== undefined ? `${limit.min}–${limit.max}` : limit.max !== undefined ? `≤ ${limit.max}` : `≥ ${limit.min}`;
 
+const toleranceText = (tolerance: NonNullable<ElementLimit['tolerance']>) =>
+  [tolerance.under !== undefined ? `${tolerance.under} under` : '', tolerance.over !== undefined ? `${tolerance.over} over` : ''].filter(Boolean).join(', ');
+
 interface DraftRow {
   id: number;
   spec_id: string;
@@ -85,10 +88,23 @@ export async function draftRevision(dataSource: DataSource, input: Specification
       if (!grade) return void (fields[`limits.${index}.grade`] = `${current.id} has no grade ${change.grade ?? '(none)'}`);
       if (change.min === undefined && change.max === undefined) return void (fields[`limits.${index}`] = 'Give a minimum, a maximum or both');
       if (change.min !== undefined && change.max !== undefined && compareDecimal(change.min, change.max) > 0) return void (fields[`limits.${index}`] = 'The minimum is above the maximum');
-      const limit: ElementLimit = { element: change.element, ...(change.min !== undefined ? { min: change.min } : {}), ...(change.max !== undefined ? { max: change.max } : {}), source: { reference: change.reference, confidence: 'published' } };
+      const limit: ElementLimit = {
+        element: change.element,
+        ...(change.min !== undefined ? { min: change.min } : {}),
+        ...(change.max !== undefined ? { max: change.max } : {}),
+        source: { reference: change.reference, confidence: change.confidence },
+      };
       const existing = grade.chemistry.findIndex((candidate) => candidate.element === change.element);
-      if (existing >= 0) grade.chemistry[existing] = { ...limit, ...(grade.chemistry[existing]!.tolerance ? { tolerance: grade.chemistry[existing]!.tolerance } : {}) };
-      else grade.chemistry.push(limit);
+      const before = existing >= 0 ? grade.chemistry[existing]! : undefined;
+      // A tolerance may depend on the limit (F67 Fe: 0.10 up to 0.25, 0.15 above), so a changed limit never keeps the old one.
+      const limitChanged = !before || limitText(before) !== limitText(limit);
+      if (before?.tolerance && limitChanged && !change.tolerance) {
+        return void (fields[`limits.${index}.tolerance`] = `The limit changes, so re-enter its product-analysis tolerance (was ${toleranceText(before.tolerance)})`);
+      }
+      const tolerance = change.tolerance && (change.tolerance.under !== undefined || change.tolerance.over !== undefined) ? change.tolerance : limitChanged ? undefined : before?.tolerance;
+      const drafted: ElementLimit = { ...limit, ...(tolerance ? { tolerance: { ...(tolerance.under !== undefined ? { under: tolerance.under } : {}), ...(tolerance.over !== undefined ? { over: tolerance.over } : {}) } } : {}) };
+      if (existing >= 0) grade.chemistry[existing] = drafted;
+      else grade.chemistry.push(drafted);
     });
     if (Object.keys(fields).length) throw new AppError('VALIDATION_FAILED', 'Some limit changes are not valid', fields);
     const result: { insertId: number } = await manager.query(

@@ -7,6 +7,8 @@ import { ancestorLots } from '../trace/genealogy.repository';
 import { nonconformancesWhere } from '../manufacturing/nonconformances.repository';
 import { reconcileMaterial } from '@shared/domain/manufacturing/material-reconciliation';
 import { DecimalE29 } from '@shared/domain/materials/e29-rounding';
+import { latestVerdictSql } from '../materials/heats.repository';
+import { currentJustification } from '../materials/heat-evaluation.record';
 
 /** The lot and every lot its units came through (splits and merges), the lot itself first. */
 export async function ancestry(manager: EntityManager, lotId: number): Promise<number[]> {
@@ -35,7 +37,7 @@ export async function releaseDossierIn(manager: EntityManager, lotId: number): P
   const marks = lineage.map(() => '?').join(',');
   const heats: Array<{ id: number; heat_number: string; status: string; supplier: string; spec_id: string; spec_revision: string; grade: string | null; verdict: string | null }> = await manager.query(
     `SELECT DISTINCT h.id, h.heat_number, h.status, s.name AS supplier, h.spec_id, h.spec_revision, h.grade,
-            (SELECT e.verdict FROM heat_evaluation e WHERE e.heat_id = h.id ORDER BY e.id DESC LIMIT 1) AS verdict
+            ${latestVerdictSql('h.id')} AS verdict
        FROM material_movement m JOIN bar_piece b ON b.id = m.bar_piece_id JOIN heat h ON h.id = b.heat_id JOIN supplier s ON s.id = h.supplier_id
       WHERE m.lot_id IN (${marks}) AND m.kind = 'issue' ORDER BY h.heat_number`,
     lineage,
@@ -114,6 +116,11 @@ export async function releaseDossierIn(manager: EntityManager, lotId: number): P
     labels: { printed: Number(labels?.printed ?? 0), voided: Number(labels?.voided ?? 0) },
   };
   const readiness = releaseReadiness(facts);
+  const justifications = new Map<number, string>();
+  for (const heat of heats.filter((candidate) => candidate.verdict === 'cannot-be-evaluated')) {
+    const justification = await currentJustification(manager, heat.id);
+    if (justification) justifications.set(heat.id, `${justification.manifestation}: ${justification.reason}`);
+  }
   const content = {
     lot: lot.lotNumber,
     part: `${lot.part.partNumber} rev ${lot.part.revision} — ${lot.part.description}`,
@@ -126,6 +133,8 @@ export async function releaseDossierIn(manager: EntityManager, lotId: number): P
       specification: `${heat.spec_id} ${heat.spec_revision}${heat.grade ? ` grade ${heat.grade}` : ''}`,
       disposition: heat.status,
       evaluation: heat.verdict,
+      // Only for heats accepted on a QA approver's justification, so that other packets sign what they signed before.
+      ...(justifications.has(heat.id) ? { justification: justifications.get(heat.id)! } : {}),
       certificates: certificates.filter((certificate) => certificate.heat_id === heat.id).map((certificate) => certificate.sha256),
     })),
     steps: operations.map((operation) => ({ lot: operation.lot_number, step: `${operation.step_no} ${operation.name}`, verdict: operation.verdict })),

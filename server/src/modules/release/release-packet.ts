@@ -1,3 +1,4 @@
+import { verdictLabels, type OverallVerdict } from '@shared/schemas/evaluation';
 import type { EntityManager } from 'typeorm';
 import bwipjs from 'bwip-js/node';
 import QRCode from 'qrcode';
@@ -92,7 +93,7 @@ export async function packetData(manager: EntityManager, lotId: number, publicUr
 /** The release packet PDF: what an auditor, a customer or a notified body sees of the release decision. */
 export async function renderReleasePacket(data: PacketData): Promise<Buffer> {
   const dossier = data.dossier as PacketData['dossier'] & {
-    heats: Array<{ heat: string; supplier: string; specification: string; disposition: string; evaluation: string | null; certificates: string[] }>;
+    heats: Array<{ heat: string; supplier: string; specification: string; disposition: string; evaluation: string | null; justification?: string; certificates: string[] }>;
     operations: Array<{ step: string; units: string; by: string; ended: string; files: string[] }>;
     steps: Array<{ lot: string; step: string; verdict: string | null }>;
     runs: Array<{ run: string; method: string; inWindow: boolean; parameters: Record<string, string> }>;
@@ -160,9 +161,19 @@ export async function renderReleasePacket(data: PacketData): Promise<Buffer> {
       heading('Material certificates and their evaluation'),
       table(
         ['Heat', 'Supplier', 'Specification', 'Evaluation', 'Disposition', 'Certificate SHA-256'],
-        dossier.heats.map((heat) => [heat.heat, heat.supplier, heat.specification, heat.evaluation ?? '—', heat.disposition, { stack: heat.certificates.map(hash) } as never]),
+        dossier.heats.map((heat) => [
+          heat.heat,
+          heat.supplier,
+          heat.specification,
+          heat.evaluation ? (verdictLabels[heat.evaluation as OverallVerdict] ?? heat.evaluation) : '—',
+          heat.disposition,
+          { stack: heat.certificates.map(hash) } as never,
+        ]),
         [50, 70, 70, 50, 50, '*'],
       ),
+      ...dossier.heats
+        .filter((heat) => heat.justification)
+        .map((heat) => ({ text: `Heat ${heat.heat} was accepted although some items cannot be evaluated, on this signed justification: ${heat.justification}`, fontSize: 8, bold: true, color: '#7a4b00', margin: [0, 4, 0, 0] }) as never),
       heading('Operations'),
       table(
         ['Step', 'Units', 'Operator, work centre', 'Ended (UTC)'],

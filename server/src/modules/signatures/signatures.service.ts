@@ -19,7 +19,7 @@ import { appendLedgerEvent, sha256Hex, type RequestOrigin } from '../ledger/ledg
 import { signableRecordType, type SignableContent, type SignableRecordType } from './signable-records';
 import { insertSignature, newestSignaturesOfType, signaturesFor, type SignatureRow } from './signatures.repository';
 
-const approvalMeanings: readonly SignatureMeaning[] = ['approved', 'approved-for-release', 'accepted'];
+const approvalMeanings: readonly SignatureMeaning[] = ['approved', 'approved-for-release', 'accepted', 'justified'];
 
 async function loadSignable(manager: EntityManager, person: Person, intent: SignatureIntent): Promise<{ type: SignableRecordType; record: SignableContent }> {
   const type = signableRecordType(intent.recordType);

@@ -4,6 +4,7 @@ import type { BackwardTrace, ForwardStart, ForwardTrace, TracedLot } from '@shar
 import { unitTotals } from '@shared/domain/trace/unit-totals';
 import { AppError } from '../../errors';
 import { descendantPieces, lotsFromPieces } from './genealogy.repository';
+import { latestVerdictSql } from '../materials/heats.repository';
 
 const marks = (values: unknown[]) => values.map(() => '?').join(',');
 const byName = new Intl.Collator('en', { sensitivity: 'base', numeric: true });
@@ -69,7 +70,7 @@ export async function backwardTrace(dataSource: DataSource, start: { udi?: strin
     ) as Promise<BackwardTrace['barPieces']>,
     manager.query(
       `SELECT h.id, h.heat_number AS heatNumber, h.status, h.spec_id AS specId, su.id AS supplierId, su.name AS supplier, su.approval,
-              (SELECT e.verdict FROM heat_evaluation e WHERE e.heat_id = h.id ORDER BY e.id DESC LIMIT 1) AS verdict
+              ${latestVerdictSql('h.id')} AS verdict
          FROM heat h JOIN supplier su ON su.id = h.supplier_id WHERE h.id IN (${heats}) ORDER BY h.heat_number`,
       lineage,
     ) as Promise<BackwardTrace['heats']>,

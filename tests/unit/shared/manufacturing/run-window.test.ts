@@ -44,3 +44,29 @@ describe('passivation runs against their method window', () => {
     expect(processMethod('A967-CITRIC')!.parameters.find((parameter) => parameter.key === 'temperature')?.confidence).toBe('unconfirmed');
   });
 });
+
+describe('temperature and time are judged as published pairings', () => {
+  const citric = processMethod('A967-CITRIC')!;
+  const citricRun = (temperature: string, immersionTime: string) => ({ bath: 'C-1', acidConcentration: '6', temperature, immersionTime, rinseConductivity: '2' });
+
+  it('when a citric run is 6 wt % at 25 °C for 5 minutes, then it is outside window: each value sits in the envelope but no pairing holds (A967 Citric 1–3 pairings, unverified)', () => {
+    const check = checkRunWindow(citric, citricRun('25', '5'));
+    expect(check).toMatchObject({ inWindow: false, pairing: null });
+    expect(check.items.find((item) => item.key === 'immersionTime')).toMatchObject({ verdict: 'out-of-window' });
+    expect(check.items.find((item) => item.key === 'temperature')?.why).toContain('meets no temperature and time pairing');
+  });
+
+  it('when the same bath runs 20 minutes at 25 °C, or 4 minutes at 65 °C, then one pairing holds and says which', () => {
+    expect(checkRunWindow(citric, citricRun('25', '20'))).toMatchObject({ inWindow: true, pairing: 'Citric 3' });
+    expect(checkRunWindow(citric, citricRun('65', '4'))).toMatchObject({ inWindow: true, pairing: 'Citric 1' });
+    expect(checkRunWindow(citric, citricRun('55', '9'))).toMatchObject({ inWindow: false, pairing: null });
+  });
+
+  it('when an F86 nitric run is heated to 50 °C for 20 minutes it is in window, but 20 minutes at room temperature is not (F86 as quoted on finishing.com: room temperature ≥ 30 min, or 120–140 °F ≥ 20 min)', () => {
+    const f86 = processMethod('F86-NITRIC')!;
+    expect(checkRunWindow(f86, run({ temperature: '50', immersionTime: '20' }))).toMatchObject({ inWindow: true, pairing: 'Accelerated (120–140 °F)' });
+    expect(checkRunWindow(f86, run({ temperature: '22', immersionTime: '20' }))).toMatchObject({ inWindow: false, pairing: null });
+    expect(checkRunWindow(f86, run({ temperature: '22', immersionTime: '30' }))).toMatchObject({ inWindow: true, pairing: 'Room temperature' });
+    expect(checkRunWindow(f86, run({ temperature: '42', immersionTime: '60' }))).toMatchObject({ inWindow: false });
+  });
+});

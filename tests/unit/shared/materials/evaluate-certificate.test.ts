@@ -15,7 +15,7 @@ describe('certificate evaluation', () => {
   it('when an F136 bar certificate is inside every limit, then it conforms item by item (limits: F136 Table 1 and bar minima as reproduced by bktitanium)', () => {
     const evaluation = evaluateCertificate(f136);
     expect(evaluation.verdict).toBe('conforms');
-    expect(evaluation.spec).toMatchObject({ id: 'ASTM F136', revision: 'L1', grade: null });
+    expect(evaluation.spec).toMatchObject({ id: 'ASTM F136', revision: 'L2', grade: null });
     expect(evaluation.items.find((item) => item.item === 'O')).toMatchObject({ reported: '0.12', rounded: '0.12', limit: '≤ 0.13', verdict: 'conforms' });
     expect(evaluation.items.find((item) => item.item === 'Al')).toMatchObject({ rounded: '6.10', limit: '5.50–6.50' });
     expect(evaluation.items.find((item) => item.item === 'Tensile strength (MPa)')).toMatchObject({ reported: '950', limit: '≥ 860', verdict: 'conforms' });
@@ -36,16 +36,18 @@ describe('certificate evaluation', () => {
     expect(evaluation.items.filter((item) => item.verdict === 'does-not-conform').map((item) => item.item)).toEqual(['O']);
   });
 
-  it('when a required value is missing, then the verdict is incomplete and the item says so', () => {
+  it('when a required value is missing, then it cannot be evaluated and the item says why', () => {
     const { H: _h, ...withoutHydrogen } = f136.chemistry;
     const evaluation = evaluateCertificate({ ...f136, chemistry: withoutHydrogen });
-    expect(evaluation.verdict).toBe('incomplete');
-    expect(evaluation.items.find((item) => item.item === 'H')).toMatchObject({ reported: null, verdict: 'missing', note: 'not reported' });
+    expect(evaluation.verdict).toBe('cannot-be-evaluated');
+    expect(evaluation.items.find((item) => item.item === 'H')).toMatchObject({ reported: null, verdict: 'cannot-be-evaluated', reason: 'missing-value', note: 'not reported' });
   });
 
-  it('when the size is not given for a size-dependent specification, then it is incomplete', () => {
+  it('when the size is not given for a size-dependent specification, then the mechanical items cannot be evaluated', () => {
     const { sizeMm: _size, ...withoutSize } = f136;
-    expect(evaluateCertificate(withoutSize).items.find((item) => item.item === 'size')).toMatchObject({ verdict: 'missing' });
+    const evaluation = evaluateCertificate(withoutSize);
+    expect(evaluation.verdict).toBe('cannot-be-evaluated');
+    expect(evaluation.items.find((item) => item.kind === 'selection')).toMatchObject({ verdict: 'cannot-be-evaluated', reason: 'missing-value' });
   });
 
   it('when hydrogen is given in ppm, then it is converted explicitly (1 ppm = 0.0001 wt %) and shown', () => {
@@ -61,7 +63,7 @@ describe('certificate evaluation', () => {
   });
 
   it('when an unalloyed grade is evaluated, then the grade chooses the limits (F67: Fe ≤ 0.20 for grade 1, ≤ 0.50 for grade 4)', () => {
-    const certificate = { spec: 'astm f67', form: 'bar' as const, chemistry: { N: '0.01', C: '0.01', H: '0.002', Fe: '0.35', O: '0.30' }, mechanical: { utsMPa: '600', ysMPa: '500', elongationPct: '25', reductionOfAreaPct: '35' } };
+    const certificate = { spec: 'astm f67', form: 'bar' as const, sizeMm: '20', chemistry: { N: '0.01', C: '0.01', H: '0.002', Fe: '0.35', O: '0.30' }, mechanical: { utsMPa: '600', ysMPa: '500', elongationPct: '25', reductionOfAreaPct: '35' } };
     expect(evaluateCertificate({ ...certificate, grade: '4' }).verdict).toBe('conforms');
     const grade1 = evaluateCertificate({ ...certificate, grade: 1 });
     expect(grade1.items.filter((item) => item.verdict === 'does-not-conform').map((item) => item.item)).toEqual(['Fe', 'O']);
@@ -71,7 +73,7 @@ describe('certificate evaluation', () => {
 
   it('when stainless is checked against Cr + 3.3 × Mo ≥ 26.0, then the sum is rounded by E29 before comparing (test vectors on the domain sheet §1.5)', () => {
     const stainless = (cr: string, mo: string) =>
-      evaluateCertificate({ spec: 'ASTM F138', chemistry: { C: '0.020', Mn: '1.50', P: '0.015', S: '0.002', Si: '0.40', Cr: cr, Ni: '14.20', Mo: mo, N: '0.05', Cu: '0.10' } }).items.find(
+      evaluateCertificate({ spec: 'ASTM F138', sizeMm: '10', chemistry: { C: '0.020', Mn: '1.50', P: '0.015', S: '0.002', Si: '0.40', Cr: cr, Ni: '14.20', Mo: mo, N: '0.05', Cu: '0.10' } }).items.find(
         (item) => item.kind === 'requirement',
       );
     expect(stainless('17.00', '2.25')).toMatchObject({ reported: '24.425', rounded: '24.4', verdict: 'does-not-conform' });
