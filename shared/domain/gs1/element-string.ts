@@ -90,8 +90,14 @@ export function buildBarcodeData(parts: UdiParts): string {
   return list.map(([ai, value], index) => `${ai}${value}${ai in variable && index < list.length - 1 ? GS : ''}`).join('');
 }
 
-/** A path segment: percent-encoded, and dots encoded too when the value is only dots (browsers would drop it). */
-const segment = (value: string) => (/^\.+$/.test(value) ? value.replace(/\./g, '%2E') : encodeURIComponent(value));
+/**
+ * A path segment as GS1 Digital Link writes it: everything outside RFC 3986's unreserved set
+ * (A–Z a–z 0–9 - . _ ~) percent-encoded, including the ! ' ( ) * that encodeURIComponent leaves;
+ * dots encoded too when the value is only dots (browsers would drop it).
+ */
+export const digitalLinkSegment = (value: string) =>
+  /^\.+$/.test(value) ? value.replace(/\./g, '%2E') : encodeURIComponent(value).replace(/[!'()*]/g, (character) => `%${character.charCodeAt(0).toString(16).toUpperCase()}`);
+const segment = digitalLinkSegment;
 
 export function buildDigitalLink(parts: UdiParts, base = 'https://id.gs1.org'): string {
   elements(parts);
@@ -159,8 +165,10 @@ export function parseDigitalLink(input: string): UdiParts {
   if (!match) throw new Gs1Error('Not a URI');
   const segments = (match[1] ?? '').split('/').filter(Boolean);
   const query = new URLSearchParams(match[2] ?? '');
-  const start = segments.lastIndexOf('01');
-  if (start < 0 || start + 1 >= segments.length) throw new Gs1Error('No /01/{GTIN} in the Digital Link path');
+  // The primary key is the first /01/ followed by a GTIN and by nothing but key-qualifier pairs:
+  // a lot or serial that is itself "01" must not be taken for it, nor a path prefix.
+  const start = segments.findIndex((name, index) => name === '01' && /^\d{8,14}$/.test(segments[index + 1] ?? '') && (segments.length - index) % 2 === 0);
+  if (start < 0) throw new Gs1Error('No /01/{GTIN} in the Digital Link path');
   const parts: Partial<UdiParts> = {};
   const gtin = segments[start + 1]!;
   assign(parts, '01', /^\d{8,14}$/.test(gtin) ? gtin.padStart(14, '0') : gtin);
@@ -193,4 +201,25 @@ export function parseUdi(input: string): UdiParts {
   if (/^https?:\/\//i.test(text)) return parseDigitalLink(text);
   if (text.startsWith('(')) return parseBracketed(text);
   return parseUnbracketed(text);
+}
+
+/**
+ * Why a lot number could not be read back the way it was written: through a bracketed element
+ * string, raw scan data and a Digital Link, or null when all three give it back unchanged.
+ */
+export function lotRoundTripProblem(lot: string): string | null {
+  const parts: UdiParts = { gtin: '09521234543213', lot, serial: null, expiry: null, productionDate: null };
+  try {
+    for (const [form, read] of [
+      ['a bracketed element string', parseUdi(buildElementString(parts))],
+      ['scan data', parseUdi(buildBarcodeData(parts))],
+      ['a GS1 Digital Link', parseUdi(buildDigitalLink(parts))],
+    ] as const) {
+      if (read.lot !== lot) return `${lot} reads back from ${form} as ${read.lot ?? 'nothing'}`;
+    }
+  } catch (error) {
+    return `${lot} cannot be read back: ${error instanceof Error ? error.message : String(error)}`;
+  }
+  if (/[()]/.test(lot)) return 'Parentheses in a lot number cannot be told apart from the (AI) brackets of an element string';
+  return null;
 }

@@ -1,4 +1,5 @@
 import { lotNumberProblem } from '../gs1/gtin';
+import { lotRoundTripProblem } from '../gs1/element-string';
 
 /**
  * Lot numbers come from a pattern per part. Tokens: {YYYY}, {YY}, {MM}, {DD} (the lot's opening
@@ -42,5 +43,13 @@ export function lotPatternProblem(pattern: string, partNumber: string): string |
   if (unknown) return 'Only {YYYY}, {YY}, {MM}, {DD}, {PART} and {SEQ:n} may appear in braces';
   const { width } = lotNumberParts(pattern, { partNumber, openedOn: new Date(Date.UTC(2099, 11, 31)) });
   const longest = formatLotNumber(pattern, { partNumber, openedOn: new Date(Date.UTC(2099, 11, 31)) }, 10 ** Math.max(width, 1) - 1);
-  return lotNumberProblem(longest);
+  const lengthProblem = lotNumberProblem(longest);
+  if (lengthProblem) return lengthProblem;
+  // Every lot it makes must read back unchanged from the label's codes; the literal text is what
+  // varies least, so the first and the longest lot numbers stand for the rest.
+  for (const sequence of [1, 10 ** Math.max(width, 1) - 1]) {
+    const problem = lotRoundTripProblem(formatLotNumber(pattern, { partNumber, openedOn: new Date(Date.UTC(2026, 0, 1)) }, sequence));
+    if (problem) return problem;
+  }
+  return null;
 }

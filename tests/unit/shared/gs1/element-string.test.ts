@@ -1,7 +1,8 @@
 import bwipjs from 'bwip-js/node';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { buildBarcodeData, buildDigitalLink, buildElementString, centuryOf, GS, gs1DateToIso, parseUdi } from '@shared/domain/gs1/element-string';
+import { buildBarcodeData, buildDigitalLink, buildElementString, centuryOf, GS, gs1DateToIso, parseDigitalLink, parseUdi } from '@shared/domain/gs1/element-string';
+import { formatLotNumber, lotNumberParts, lotPatternProblem } from '@shared/domain/manufacturing/lot-number';
 import { gs1CheckDigit } from '@shared/domain/gs1/gtin';
 
 const example = { gtin: '09506000134352', expiry: '261231', lot: 'ABC123', serial: '12345', productionDate: null };
@@ -69,5 +70,48 @@ describe('GS1 dates', () => {
   it('when the day is 00, then the month’s last day is used (GS1 wording, unconfirmed here)', () => {
     expect(gs1DateToIso('280200')).toBe('2028-02-29');
     expect(gs1DateToIso('261231')).toBe('2026-12-31');
+  });
+});
+
+describe('lots the product itself makes', () => {
+  // GS1 CSET 82 (GS1 syntax dictionary's linter, domain sheet §4.2) minus the brace characters our patterns use as tokens.
+  const cset82 = `!"%&'()*+,-./0123456789:;<=>?ABCDEFGHIJKLMNOPQRSTUVWXYZ_abcdefghijklmnopqrstuvwxyz`;
+
+  it('[GS1-LOT-PATTERN] when any pattern passes validation, then every lot it makes round-trips through our build → parse and bwip-js accepts it', async () => {
+    const literal = fc.string({ unit: fc.constantFrom(...cset82), maxLength: 6 });
+    const token = fc.constantFrom('{YYYY}', '{YY}', '{MM}', '{DD}', '{PART}', '');
+    const pattern = fc.tuple(literal, token, literal, fc.constantFrom('{SEQ}', '{SEQ:3}', '{SEQ:5}'), literal).map((pieces) => pieces.join(''));
+    const accepted: string[] = [];
+    fc.assert(
+      fc.property(pattern, fc.integer({ min: 1, max: 99_999 }), (candidate, sequence) => {
+        if (lotPatternProblem(candidate, 'BS-3.5x40') !== null) return;
+        const { width } = lotNumberParts(candidate, { partNumber: 'BS-3.5x40', openedOn: new Date() });
+        const lot = formatLotNumber(candidate, { partNumber: 'BS-3.5x40', openedOn: new Date(Date.UTC(2026, 11, 5)) }, sequence % 10 ** Math.max(width, 1) || 1);
+        const parts = { gtin: '09521234543213', lot, serial: null, expiry: null, productionDate: null };
+        expect(parseUdi(buildElementString(parts)).lot).toBe(lot);
+        expect(parseUdi(buildBarcodeData(parts)).lot).toBe(lot);
+        expect(parseUdi(buildDigitalLink(parts)).lot).toBe(lot);
+        accepted.push(buildElementString(parts));
+      }),
+      { numRuns: 400 },
+    );
+    expect(accepted.length).toBeGreaterThan(50);
+    for (const text of accepted.slice(0, 60)) await expect(bwipjs.toBuffer({ bcid: 'gs1datamatrix', text }), text).resolves.toBeInstanceOf(Buffer);
+  });
+
+  it('when a pattern would make a lot with parentheses, then it is refused when saved (bwip-js cannot read it back either)', async () => {
+    expect(lotPatternProblem('LOT({SEQ:3})', 'P-1')).toMatch(/cannot be read back|Parentheses/);
+    await expect(bwipjs.toBuffer({ bcid: 'gs1datamatrix', text: '(01)09521234543213(10)LOT(001)' })).rejects.toThrow();
+  });
+
+  it('when the lot itself is "01", then the Digital Link parser still takes the GTIN at the primary key’s place (GS1 Digital Link: /01/{gtin}/10/{lot})', () => {
+    expect(parseDigitalLink('https://id.gs1.org/01/09521234543213/10/01')).toMatchObject({ gtin: '09521234543213', lot: '01' });
+    expect(parseDigitalLink('https://example.com/products/01/09521234543213/10/01/21/01')).toMatchObject({ gtin: '09521234543213', lot: '01', serial: '01' });
+  });
+
+  it('when a lot holds ! \' * characters, then the Digital Link percent-encodes them like everything outside RFC 3986 unreserved', () => {
+    const link = buildDigitalLink({ gtin: '09521234543213', lot: "A!B'C*D", serial: null, expiry: null, productionDate: null });
+    expect(link).toBe('https://id.gs1.org/01/09521234543213/10/A%21B%27C%2AD');
+    expect(parseDigitalLink(link).lot).toBe("A!B'C*D");
   });
 });
