@@ -39,7 +39,7 @@ test('[E2E-CANNOT-EVALUATE] a heat the library cannot fully judge is shown as su
   await results.getByLabel('0.2 % yield strength (MPa)').pressSequentially('295', typing);
   await results.getByLabel('Elongation (%)').pressSequentially('48', typing);
   await results.getByRole('button', { name: 'Save and evaluate' }).click();
-  const evaluation = page.getByRole('table', { name: 'Evaluation items' });
+  const evaluation = page.getByRole('region', { name: 'Evaluation', exact: true });
   await expect(evaluation).toContainText('Mechanical requirements');
   await expect(evaluation).toContainText('No requirement for this form, condition or size');
   await expect(page.locator('.status')).toContainText('Cannot be evaluated');

@@ -13,7 +13,7 @@ test('a QA reviewer drafts a new revision with its source, and a QA approver sig
   await dialog.getByLabel('Edition of the standard').fill('F1295 as in our licensed copy');
   await dialog.getByLabel('Why').fill('Tantalum limit confirmed against the licensed standard');
   await dialog.getByRole('combobox', { name: 'Element' }).fill('Ta');
-  await dialog.getByLabel('Maximum').fill('0.50');
+  await dialog.getByLabel('Maximum', { exact: true }).fill('0.50');
   await dialog.getByLabel('Source of the value').fill('Licensed copy of ASTM F1295, Table 1');
   await dialog.getByLabel('How sure is the value').click();
   await page.getByRole('option', { name: 'published, with its citation' }).click();

@@ -121,12 +121,17 @@ function chemistryItems(specification: Specification, grade: SpecificationGrade,
   return items;
 }
 
+/** The size as a plain decimal (12.700 → 12.7), or null. */
+function sizeOf(input: ParsedCertificateInput): string | null {
+  return input.sizeMm === null || input.sizeMm === undefined ? null : toDecimal(readMechanicalValue(input.sizeMm)).toFixed();
+}
+
 function mechanicalItems(specification: Specification, grade: SpecificationGrade, input: ParsedCertificateInput): EvaluationItem[] {
-  const sizeMm = input.sizeMm === null || input.sizeMm === undefined ? null : readMechanicalValue(input.sizeMm);
+  const sizeMm = sizeOf(input);
   const selection = chooseMechanicalSet(specification, grade, { form: input.form, condition: input.condition, sizeMm });
   if (selection.kind !== 'chosen') {
     const selectionSource: ValueSource = { reference: `${specification.id} revision ${specification.revision} in the library`, confidence: 'secondary' };
-    return [cannotEvaluate({ item: 'Mechanical requirements', kind: 'selection', limit: selection.wanted }, selection.reason, selection.note, selectionSource, sizeMm)];
+    return [cannotEvaluate({ item: 'Mechanical requirements', kind: 'selection', limit: selection.wanted }, selection.reason, selection.note, selectionSource)];
   }
   const set = selection.set;
   const required = grade.mechanicalProperties ?? mechanicalProperties.filter((property) => grade.mechanical.some((candidate) => candidate.limits.some((limit) => limit.property === property)));
@@ -170,7 +175,7 @@ export function evaluateAgainst(specification: Specification, input: ParsedCerti
   const chemistry = readChemistry(input);
   const items = [...chemistryItems(specification, grade, chemistry, flags), ...mechanicalItems(specification, grade, input)];
   const values = Object.fromEntries(Object.entries(chemistry).map(([element, reported]) => [element, reported.value]));
-  const sizeMm = input.sizeMm === null || input.sizeMm === undefined ? null : readMechanicalValue(input.sizeMm);
+  const sizeMm = sizeOf(input);
   return {
     verdict: overallVerdict(items),
     items,
