@@ -1,6 +1,7 @@
 import { expect, test } from '@playwright/test';
 import { signInAs } from './support/sign-in';
 import { openedDialog } from './support/dialogs';
+import { signWithPassword } from './support/signing';
 
 const typing = { delay: 60 };
 
@@ -55,13 +56,7 @@ test('[E2E-CANNOT-EVALUATE] a heat the library cannot fully judge is shown as su
   await expect(signing).toContainText('Mechanical requirements');
   await signing.getByLabel(/^Reason/).pressSequentially('Minima checked against our licensed ISO 5832-1:2024, table 3', { delay: 30 });
   await page.screenshot({ path: 'test-results/heat-justification-dialog.png', fullPage: true });
-  const popupOpened = page.waitForEvent('popup');
-  await signing.getByRole('button', { name: 'Confirm with password and sign' }).click();
-  const popup = await popupOpened;
-  await popup.getByLabel('Password').pressSequentially('joaquin-demo', { delay: 20 });
-  await popup.getByRole('button', { name: 'Sign in' }).click();
-  await expect(signing.getByTestId('signature-manifestation')).toContainText('Joaquín Ferreira — Justified for acceptance', { timeout: 15_000 });
-  await signing.getByRole('button', { name: 'Done' }).click();
+  await signWithPassword(page, 'Justified for acceptance', 'Joaquín Ferreira — Justified for acceptance', 'joaquin-demo', undefined, 20);
   await expect(page.getByText('covered by a QA approver’s signed justification')).toBeVisible();
 
   // The QA reviewer can now accept it.
@@ -69,13 +64,7 @@ test('[E2E-CANNOT-EVALUATE] a heat the library cannot fully judge is shown as su
   await page.getByRole('button', { name: 'Accept' }).click();
   const accepting = await openedDialog(page, 'Sign: Accepted');
   await expect(accepting).toContainText('Minima checked against our licensed ISO 5832-1:2024');
-  const acceptPopup = page.waitForEvent('popup');
-  await accepting.getByRole('button', { name: 'Confirm with password and sign' }).click();
-  const acceptWindow = await acceptPopup;
-  await acceptWindow.getByLabel('Password').pressSequentially('aisling-demo', { delay: 20 });
-  await acceptWindow.getByRole('button', { name: 'Sign in' }).click();
-  await expect(accepting.getByTestId('signature-manifestation')).toContainText('Aisling Ní Bhriain — Accepted', { timeout: 15_000 });
-  await accepting.getByRole('button', { name: 'Done' }).click();
+  await signWithPassword(page, 'Accepted', 'Aisling Ní Bhriain — Accepted', 'aisling-demo', undefined, 20);
   await expect(page.locator('.status')).toContainText('Accepted');
   await page.screenshot({ path: 'test-results/heat-accepted-on-justification.png', fullPage: true });
 });

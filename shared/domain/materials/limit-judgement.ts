@@ -1,4 +1,4 @@
-import { compareDecimal, decimalsOf, roundE29 } from './e29-rounding';
+import { compareDecimal, decimalsOf, roundE29, toDecimal } from './e29-rounding';
 
 export interface LimitJudgement {
   conforms: boolean;
@@ -24,9 +24,9 @@ export function judgeAgainstLimits(value: string, min?: string, max?: string): L
   else if (aboveMax) rounded = atMax!;
   else if (atMin !== undefined && atMax !== undefined) {
     // The nearer limit is the one whose rounding matters to a reader.
-    const toMin = Math.abs(Number(value) - Number(min));
-    const toMax = Math.abs(Number(max) - Number(value));
-    rounded = toMin <= toMax ? atMin : atMax;
+    const toMin = toDecimal(value).minus(toDecimal(min!)).abs();
+    const toMax = toDecimal(max!).minus(toDecimal(value)).abs();
+    rounded = toMin.lessThanOrEqualTo(toMax) ? atMin : atMax;
   } else rounded = (atMin ?? atMax)!;
   return { conforms: !belowMin && !aboveMax, rounded, ...(atMin !== undefined ? { atMin } : {}), ...(atMax !== undefined ? { atMax } : {}) };
 }
