@@ -69,7 +69,7 @@ export async function generateHistory(admin: DataSource, shape: HistoryShape): P
   );
   await admin.query(`INSERT INTO part (id, part_number, revision, description, gtin, unit_length_mm, cutoff_allowance_mm, reconciliation_tolerance_pct, lot_pattern, created_by)
      SELECT seq, CONCAT('SYN-', seq), 'A', CONCAT('Synthetic part ', seq), CONCAT('0952123999', LPAD(seq, 3, '0'), '0'), 40, 2, 2, 'S{SEQ:8}', ${by} FROM seq_1_to_5`);
-  await admin.query(`INSERT INTO routing_step (part_id, step_no, kind, name, process_method) SELECT seq, 10, 'passivation', 'Passivate', 'A967-NITRIC-2' FROM seq_1_to_5`);
+  await admin.query(`INSERT INTO routing_step (part_id, step_no, kind, name, process_method) SELECT seq, 10, 'passivation', 'Passivate', 'F86-NITRIC' FROM seq_1_to_5`);
   await admin.query(`INSERT INTO routing_step (part_id, step_no, kind, name, process_method) SELECT seq, 20, 'cleaning', 'Final clean', 'KIW-CLEAN-AQ' FROM seq_1_to_5`);
   // The last 1 % are still open; merges and splits come from the lots just before them.
   const child = (column: string) => `CASE WHEN ${column} MOD 100 = 50 THEN 'merge' WHEN ${column} MOD 33 = 0 THEN 'split' ELSE 'bar' END`;
@@ -95,7 +95,7 @@ export async function generateHistory(admin: DataSource, shape: HistoryShape): P
   await step(
     `${2 * runs} passivation and cleaning runs`,
     `INSERT INTO process_run (id, run_number, kind, method_id, equipment, parameters_json, window_check_json, in_window, operator_name, run_at, recorded_by)
-     SELECT seq, CONCAT(IF(seq <= ${runs}, 'SP-', 'SL-'), LPAD(seq, 7, '0')), IF(seq <= ${runs}, 'passivation', 'cleaning'), IF(seq <= ${runs}, 'A967-NITRIC-2', 'KIW-CLEAN-AQ'),
+     SELECT seq, CONCAT(IF(seq <= ${runs}, 'SP-', 'SL-'), LPAD(seq, 7, '0')), IF(seq <= ${runs}, 'passivation', 'cleaning'), IF(seq <= ${runs}, 'F86-NITRIC', 'KIW-CLEAN-AQ'),
             'synthetic line', '{}', '{}', 1, 'synthetic', ${start} + INTERVAL FLOOR(((seq - 1) MOD ${runs}) * ${days} / ${runs}) DAY, ${by}
        FROM ${seq(2 * runs)}`,
   );

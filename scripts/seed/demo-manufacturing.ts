@@ -2,6 +2,7 @@ import type { DataSource } from 'typeorm';
 import type { Person } from '@shared/schemas/people';
 import type { Part, PartCreate } from '@shared/schemas/manufacturing';
 import { findPersonBySubject } from '../../server/src/modules/people/people.repository';
+import { recordMethodValidation } from '../../server/src/modules/manufacturing/process-methods.service';
 import { createPart } from '../../server/src/modules/manufacturing/parts.service';
 import { issueMaterial, openLot, returnMaterial } from '../../server/src/modules/manufacturing/lots.service';
 import { recordOperation } from '../../server/src/modules/manufacturing/operations.service';
@@ -53,8 +54,9 @@ export const demoParts: Array<PartCreate & { units: [number, number]; weight: nu
     unitLengthMm: '42',
     cutoffAllowanceMm: '3',
     lotPattern: 'CS{YY}{SEQ:4}',
+    contactCategory: 'general-tissue',
     specifications: [{ specId: 'ASTM F136', grade: null }],
-    routing: [{ kind: 'machining', name: 'Swiss-turn and thread' }, { kind: 'machining', name: 'Hex drive and deburr' }, ...finishing('A967-NITRIC-2')],
+    routing: [{ kind: 'machining', name: 'Swiss-turn and thread' }, { kind: 'machining', name: 'Hex drive and deburr' }, ...finishing('F86-NITRIC')],
     units: [30, 60],
     weight: 5,
   },
@@ -66,8 +68,9 @@ export const demoParts: Array<PartCreate & { units: [number, number]; weight: nu
     unitLengthMm: '110',
     cutoffAllowanceMm: '4',
     lotPattern: 'LP{YY}{SEQ:4}',
+    contactCategory: 'general-tissue',
     specifications: [{ specId: 'ASTM F136', grade: null }],
-    routing: [{ kind: 'machining', name: 'Mill profile and holes' }, { kind: 'machining', name: 'Thread locking holes' }, ...finishing('A967-NITRIC-2')],
+    routing: [{ kind: 'machining', name: 'Mill profile and holes' }, { kind: 'machining', name: 'Thread locking holes' }, ...finishing('F86-NITRIC')],
     units: [10, 24],
     weight: 3,
   },
@@ -79,8 +82,9 @@ export const demoParts: Array<PartCreate & { units: [number, number]; weight: nu
     unitLengthMm: '480',
     cutoffAllowanceMm: '5',
     lotPattern: 'SR{YY}{SEQ:4}',
+    contactCategory: 'general-tissue',
     specifications: [{ specId: 'ASTM F136', grade: null }],
-    routing: [{ kind: 'machining', name: 'Centreless grind' }, { kind: 'machining', name: 'Cut to length and chamfer' }, ...finishing('A967-NITRIC-2')],
+    routing: [{ kind: 'machining', name: 'Centreless grind' }, { kind: 'machining', name: 'Cut to length and chamfer' }, ...finishing('F86-NITRIC')],
     units: [4, 5],
     weight: 1,
   },
@@ -92,8 +96,9 @@ export const demoParts: Array<PartCreate & { units: [number, number]; weight: nu
     unitLengthMm: '14',
     cutoffAllowanceMm: '2.5',
     lotPattern: 'DI{YY}{SEQ:4}',
+    contactCategory: 'general-tissue',
     specifications: [{ specId: 'ASTM F67', grade: '4' }],
-    routing: [{ kind: 'machining', name: 'Swiss-turn body and thread' }, { kind: 'machining', name: 'Connection and polish' }, ...finishing('A967-NITRIC-2')],
+    routing: [{ kind: 'machining', name: 'Swiss-turn body and thread' }, { kind: 'machining', name: 'Connection and polish' }, ...finishing('F86-NITRIC')],
     units: [60, 120],
     weight: 2,
   },
@@ -105,6 +110,7 @@ export const demoParts: Array<PartCreate & { units: [number, number]; weight: nu
     unitLengthMm: '180',
     cutoffAllowanceMm: '5',
     lotPattern: 'HT{YY}{SEQ:4}',
+    contactCategory: 'general-tissue',
     specifications: [{ specId: 'ASTM F138', grade: null }],
     routing: [{ kind: 'machining', name: 'Turn and mill profile' }, { kind: 'machining', name: 'Polish' }, ...finishing('A967-NITRIC-3')],
     units: [6, 12],
@@ -145,6 +151,15 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
   const between = (low: number, high: number) => low + Math.floor(random() * (high - low + 1));
 
   for (const consignee of demoConsignees) await createConsignee(dataSource, { ...consignee, contactEmail: null }, actor, origin);
+  // The firm's own validation of the citric method for titanium alloy parts: shown as the firm's own beside the method's stainless-steel scope.
+  await recordMethodValidation(
+    dataSource,
+    'A967-CITRIC',
+    { materialFamily: 'titanium-alloy', reference: 'VR-2025-031 (demo)', reason: 'Three worst-case lots of F136 parts passed water immersion and iron contamination checks after citric treatment (demo scenario)' },
+    approver,
+    { id: approver.id, name: approver.name, role: 'qa-approver' },
+    origin,
+  );
   const parts: Array<{ part: Part; demo: (typeof demoParts)[number] }> = [];
   for (const demo of demoParts) {
     const { units: _units, weight: _weight, ...create } = demo;
@@ -198,7 +213,7 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
           parameters: {
             bath: hot ? 'P2 bath 2024-07' : 'P1 bath 2024-09',
             acidConcentration: hot ? '22' : String(between(28, 34)),
-            temperature: outOfWindow && !hot ? '34.5' : hot ? '54' : String(between(23, 28)),
+            temperature: outOfWindow && !hot ? '37.5' : hot ? '54' : String(between(23, 28)),
             immersionTime: hot ? '25' : String(between(32, 40)),
             rinseConductivity: (1 + random() * 2).toFixed(1),
           },

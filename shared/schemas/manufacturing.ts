@@ -3,6 +3,7 @@ import { gtinProblem } from '../domain/gs1/gtin';
 import { checkedString } from './checked-string';
 import { lotPatternProblem } from '../domain/manufacturing/lot-number';
 import { samplingPlanProblem } from '../domain/manufacturing/inspection';
+import { contactCategories } from '../domain/manufacturing/contact-categories';
 
 const decimalPattern = /^\d+(\.\d+)?$/;
 const decimal = (message: string, positive = true) =>
@@ -57,6 +58,7 @@ export const partCreateSchema = z
     unitMassG: decimal('The unit mass in g').nullable().default(null),
     reconciliationTolerancePct: decimal('A percentage such as 2', false).default('2'),
     lotPattern: z.string().trim().min(5).max(60).default('{PART}-{YY}{SEQ:4}'),
+    contactCategory: z.enum(contactCategories, { error: 'Choose where the finished device touches the body' }),
     specifications: z.array(z.object({ specId: z.string().trim().min(1), grade: z.string().trim().max(20).nullable().default(null) })).min(1, 'Allow at least one material specification'),
     routing: z.array(routingStepInputSchema).min(1, 'A routing has at least one step').max(40),
   })
@@ -89,6 +91,7 @@ export const partSchema = z.object({
   unitMassG: z.string().nullable(),
   reconciliationTolerancePct: z.string(),
   lotPattern: z.string(),
+  contactCategory: z.enum(contactCategories),
   specifications: z.array(z.object({ specId: z.string(), grade: z.string().nullable() })),
   routing: z.array(routingStepSchema),
   lots: z.number().int(),

@@ -1,6 +1,6 @@
 import { keepPreviousData, queryOptions } from '@tanstack/vue-query';
 import { z } from 'zod';
-import type { ProcessMethod } from '@shared/domain/manufacturing/process-methods';
+import { processMethodViewSchema, type MethodValidationInput } from '@shared/schemas/process-methods';
 import type { LotDetail, NonconformanceSummary, ProcessRunDetail, ProcessRunSummary } from '@shared/schemas/lot-detail';
 import {
   lotPageSchema,
@@ -52,7 +52,7 @@ export const processRunsQuery = (query: ProcessRunListQuery) =>
   queryOptions({ queryKey: manufacturingKeys.runs(query), queryFn: ({ signal }) => apiRequest(`/process-runs?${search({ ...query })}`, page<ProcessRunSummary>(), { signal }), placeholderData: keepPreviousData });
 export const processRunQuery = (id: number) => queryOptions({ queryKey: manufacturingKeys.run(id), queryFn: ({ signal }) => apiRequest(`/process-runs/${id}`, typed<ProcessRunDetail>(), { signal }) });
 export const processMethodsQuery = () =>
-  queryOptions({ queryKey: manufacturingKeys.methods(), queryFn: ({ signal }) => apiRequest('/process-methods', z.array(typed<ProcessMethod>()), { signal }), staleTime: Infinity });
+  queryOptions({ queryKey: manufacturingKeys.methods(), queryFn: ({ signal }) => apiRequest('/process-methods', z.array(processMethodViewSchema), { signal }) });
 export const nonconformancesQuery = (query: NonconformanceListQuery) =>
   queryOptions({
     queryKey: manufacturingKeys.nonconformances(query),
@@ -67,6 +67,8 @@ export const consigneesQuery = () =>
     queryFn: ({ signal }) => apiRequest('/consignees', z.array(typed<{ id: number; name: string; kind: string; country: string; shipments: number }>()), { signal }),
   });
 
+export const recordMethodValidation = (methodId: string, input: MethodValidationInput) =>
+  apiRequest(`/process-methods/${encodeURIComponent(methodId)}/validations`, processMethodViewSchema, { method: 'POST', body: input });
 export const createPart = (part: PartCreate) => apiRequest('/parts', partSchema, { method: 'POST', body: part });
 export const openLot = (lot: LotOpen) => apiRequest('/lots', lotSummarySchema, { method: 'POST', body: lot });
 export const issueMaterial = (lotId: number, movement: MaterialMovementInput) => apiRequest(`/lots/${lotId}/material-issues`, typed<{ tag: string; heatNumber: string }>(), { method: 'POST', body: movement });

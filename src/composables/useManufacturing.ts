@@ -16,6 +16,7 @@ import type {
   ShipmentInput,
   SplitInput,
 } from '@shared/schemas/manufacturing';
+import type { MethodValidationInput } from '@shared/schemas/process-methods';
 import * as api from '../api/manufacturing';
 import { barKeys } from '../api/bar-stock';
 
@@ -41,6 +42,7 @@ function useRecordChange<Input, Output>(change: (input: Input) => Promise<Output
   });
 }
 
+export const useRecordMethodValidation = () => useRecordChange((input: { methodId: string } & MethodValidationInput) => api.recordMethodValidation(input.methodId, input));
 export const useCreatePart = () => useRecordChange((part: PartCreate) => api.createPart(part));
 export const useOpenLot = () => useRecordChange((lot: LotOpen) => api.openLot(lot));
 export const useIssueMaterial = (lotId: Ref<number>) => useRecordChange((movement: MaterialMovementInput) => api.issueMaterial(lotId.value, movement));

@@ -4,7 +4,7 @@ import { rolesAllow } from '@shared/auth/permissions';
 import { productAreas, type AreaRouteName } from '../navigation/areas';
 import { meQuery } from '../api/session';
 
-export type RouteName = 'overview' | AreaRouteName | 'heat' | 'suppliers' | 'supplier' | 'bar-piece' | 'specifications' | 'lot' | 'parts' | 'process-run' | 'nonconformances' | 'nonconformance' | 'consignees' | 'recalls' | 'recall' | 'sign-in' | 'signed-out' | 'reauthentication-complete' | 'not-permitted' | 'not-found';
+export type RouteName = 'overview' | AreaRouteName | 'heat' | 'suppliers' | 'supplier' | 'bar-piece' | 'specifications' | 'lot' | 'parts' | 'process-run' | 'process-methods' | 'nonconformances' | 'nonconformance' | 'consignees' | 'recalls' | 'recall' | 'sign-in' | 'signed-out' | 'reauthentication-complete' | 'not-permitted' | 'not-found';
 
 /** Areas that are built; the rest show what they will hold. */
 const areaViews: Partial<Record<AreaRouteName, () => Promise<unknown>>> = {
@@ -55,6 +55,7 @@ export const routes: RouteRecordRaw[] = [
   },
   { path: '/consignees', name: 'consignees', component: () => import('../views/ConsigneesView.vue'), meta: { title: 'Consignees', area: 'lots', action: 'lots.read' } },
   { path: '/parts', name: 'parts', component: () => import('../views/PartsView.vue'), meta: { title: 'Parts and routings', area: 'lots', action: 'lots.read' } },
+  { path: '/process-methods', name: 'process-methods', component: () => import('../views/ProcessMethodsView.vue'), meta: { title: 'Process methods', area: 'process-runs', action: 'lots.read' } },
   {
     path: '/process-runs/:runId(\\d+)',
     name: 'process-run',

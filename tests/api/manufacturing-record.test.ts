@@ -9,7 +9,7 @@ type Agent = Awaited<ReturnType<SamlTestDriver['signIn']>>['agent'];
 const routing = [
   { kind: 'machining', name: 'Turn' },
   { kind: 'machining', name: 'Mill flats' },
-  { kind: 'passivation', name: 'Passivate', processMethod: 'A967-NITRIC-2' },
+  { kind: 'passivation', name: 'Passivate', processMethod: 'F86-NITRIC' },
   { kind: 'cleaning', name: 'Final clean', processMethod: 'KIW-CLEAN-AQ' },
   { kind: 'inspection', name: 'Final inspection', sampleSize: 8, acceptNumber: 0, rejectNumber: 1 },
   { kind: 'packaging', name: 'Pack and label' },
@@ -23,6 +23,7 @@ const part = {
   cutoffAllowanceMm: '3',
   reconciliationTolerancePct: '2',
   lotPattern: 'T{YY}{SEQ:4}',
+  contactCategory: 'general-tissue',
   specifications: [{ specId: 'ASTM F136' }],
   routing,
 };
@@ -176,12 +177,12 @@ describe('the manufacturing record: parts, lots, material, operations, runs, non
 
   it('[LOT-RUN-WINDOW] when three lots go through a passivation run in window and a cleaning run out of window, then each out-of-window lot gets a nonconformance', async () => {
     const three = lots.slice(0, 3).map((lot) => lot.id);
-    const missing = await post('engineer', '/api/process-runs', { kind: 'passivation', methodId: 'A967-NITRIC-2', equipment: 'Line P1', operatorName: 'Test Operator', runAt: '2026-11-03T08:00:00Z', parameters: { bath: 'N2-1' }, lotIds: three });
+    const missing = await post('engineer', '/api/process-runs', { kind: 'passivation', methodId: 'F86-NITRIC', equipment: 'Line P1', operatorName: 'Test Operator', runAt: '2026-11-03T08:00:00Z', parameters: { bath: 'N2-1' }, lotIds: three });
     expect(missing.status).toBe(400);
     expect(Object.keys(missing.body.error.fields).sort()).toEqual(['parameters.acidConcentration', 'parameters.immersionTime', 'parameters.rinseConductivity', 'parameters.temperature']);
-    const notDue = await post('engineer', '/api/process-runs', { kind: 'passivation', methodId: 'A967-NITRIC-2', equipment: 'Line P1', operatorName: 'Test Operator', runAt: '2026-11-03T08:00:00Z', parameters: passivation, lotIds: [...three, lots[3]!.id] });
+    const notDue = await post('engineer', '/api/process-runs', { kind: 'passivation', methodId: 'F86-NITRIC', equipment: 'Line P1', operatorName: 'Test Operator', runAt: '2026-11-03T08:00:00Z', parameters: passivation, lotIds: [...three, lots[3]!.id] });
     expect(notDue.body.error.message).toBe(`Lot ${lots[3]!.lotNumber} is not due for passivation: its next step is 10 Turn`);
-    const passivated = await post('engineer', '/api/process-runs', { kind: 'passivation', methodId: 'A967-NITRIC-2', equipment: 'Line P1', operatorName: 'Test Operator', runAt: '2026-11-03T08:00:00Z', parameters: passivation, lotIds: three });
+    const passivated = await post('engineer', '/api/process-runs', { kind: 'passivation', methodId: 'F86-NITRIC', equipment: 'Line P1', operatorName: 'Test Operator', runAt: '2026-11-03T08:00:00Z', parameters: passivation, lotIds: three });
     expect(passivated.status).toBe(201);
     expect(passivated.body).toMatchObject({ inWindow: true, lotsInRun: expect.arrayContaining([expect.objectContaining({ qty: 38 })]), nonconformances: [] });
     const before = await count('nonconformance');

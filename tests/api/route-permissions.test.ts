@@ -21,6 +21,7 @@ const sampleParameters: Record<string, string> = {
   ncId: '999999',
   recallId: '999999',
   operationId: '999999',
+  methodId: 'NO-SUCH-METHOD',
   reauthenticationId: '0'.repeat(32),
 };
 

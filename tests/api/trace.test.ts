@@ -43,8 +43,9 @@ describe('genealogy both ways on a hand-built history with a cut bar, a split, a
       unitLengthMm: '40',
       cutoffAllowanceMm: '2',
       lotPattern: 'TR{SEQ:3}',
+      contactCategory: 'general-tissue',
       specifications: [{ specId: 'ASTM F136' }],
-      routing: [{ kind: 'machining', name: 'Turn' }, { kind: 'passivation', name: 'Passivate', processMethod: 'A967-NITRIC-2' }],
+      routing: [{ kind: 'machining', name: 'Turn' }, { kind: 'passivation', name: 'Passivate', processMethod: 'F86-NITRIC' }],
     });
     for (const [name, tag] of [['L1', 'TRC-B1-A'], ['L2', 'TRC-B1-B'], ['L3', 'TRC-B2']] as const) {
       const opened = await post('/api/lots', { partId: part.id, plannedQty: 10 });
@@ -57,8 +58,8 @@ describe('genealogy both ways on a hand-built history with a cut bar, a split, a
     const merged = await post('/api/lots/merges', { lotIds: [lot.L2!.id, lot.L3!.id], reason: 'test merge' });
     lot.M = { id: merged.id, lotNumber: merged.lotNumber };
     const parameters = { bath: 'T', acidConcentration: '30', temperature: '25', immersionTime: '35', rinseConductivity: '1' };
-    const r1 = await post('/api/process-runs', { kind: 'passivation', methodId: 'A967-NITRIC-2', equipment: 'T1', operatorName: 'Test', runAt: '2026-11-21T08:00:00Z', parameters, lotIds: [lot.L1!.id, lot['L1-A']!.id] });
-    const r2 = await post('/api/process-runs', { kind: 'passivation', methodId: 'A967-NITRIC-2', equipment: 'T1', operatorName: 'Test', runAt: '2026-11-21T09:00:00Z', parameters, lotIds: [lot.M!.id] });
+    const r1 = await post('/api/process-runs', { kind: 'passivation', methodId: 'F86-NITRIC', equipment: 'T1', operatorName: 'Test', runAt: '2026-11-21T08:00:00Z', parameters, lotIds: [lot.L1!.id, lot['L1-A']!.id] });
+    const r2 = await post('/api/process-runs', { kind: 'passivation', methodId: 'F86-NITRIC', equipment: 'T1', operatorName: 'Test', runAt: '2026-11-21T09:00:00Z', parameters, lotIds: [lot.M!.id] });
     ids.r1 = r1.id;
     ids.r2 = r2.id;
   });

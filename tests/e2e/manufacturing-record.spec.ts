@@ -77,7 +77,7 @@ test('[E2E-MANUFACTURING] an engineer opens a lot from a bar, records its operat
 
   // Passivation in window, then cleaning out of window, each with the two companion lots.
   for (const run of [
-    { kind: 'passivation', method: /A967 Nitric 2/, values: { 'Bath identity': 'P1 E2E', 'Nitric acid concentration': '30', 'Bath temperature': '25', 'Immersion time': '35', 'Final rinse water conductivity': '1.5' } },
+    { kind: 'passivation', method: /ASTM F86 nitric/, values: { 'Bath identity': 'P1 E2E', 'Nitric acid concentration': '30', 'Bath temperature': '25', 'Immersion time': '35', 'Final rinse water conductivity': '1.5' } },
     {
       kind: 'cleaning',
       method: /Final aqueous ultrasonic clean/,

@@ -10,6 +10,7 @@ export function twoStepPart(own: { partNumber: string; description: string; gtin
     revision: 'A',
     unitLengthMm: '30',
     cutoffAllowanceMm: '2',
+    contactCategory: 'general-tissue',
     specifications: [{ specId: 'ASTM F136' }],
     routing: [
       { kind: 'machining', name: 'Turn' },

@@ -27,6 +27,8 @@ export const tableAccess: Record<string, TableAccess> = {
   // Check analysis rules change by a new row; check results are kept as entered.
   check_analysis_rule: 'append-only',
   check_analysis: 'append-only',
+  // A firm's validation of a method for a material is withdrawn by a new row, never rewritten.
+  process_method_validation: 'append-only',
 };
 
 const privilegesByAccess: Record<TableAccess, string> = {

@@ -4,8 +4,18 @@
  * are the firm's own validated values (here: the demo firm's) and say so. The firm must verify
  * published values against its licensed copy of the current standard.
  */
+import type { MaterialFamily } from '../materials/specification';
+import { endotoxinLimits, type ContactCategory } from './contact-categories';
+
 export type ProcessKind = 'passivation' | 'cleaning';
-export type Confidence = 'secondary-source' | 'unconfirmed' | 'firm-validated';
+export type Confidence = 'published' | 'secondary-source' | 'unconfirmed' | 'firm-validated';
+
+export const methodConfidenceLabels: Record<Confidence, string> = {
+  published: 'published by the standard’s publisher',
+  'secondary-source': 'published, secondary source',
+  unconfirmed: 'unverified — check your licensed copy',
+  'firm-validated': 'firm’s validated window',
+};
 
 export interface ParameterWindow {
   key: string;
@@ -15,6 +25,15 @@ export interface ParameterWindow {
   max?: string;
   /** Text parameters (e.g. a bath identity) that must be recorded but have no numeric window. */
   text?: boolean;
+  /** A limit that depends on where the device touches the body: the run is judged against the strictest among its lots. */
+  byContactCategory?: Array<{ category: ContactCategory; max: string; source: string }>;
+  source: string;
+  confidence: Confidence;
+}
+
+/** The materials a method's own scope covers, with the source that says so. */
+export interface MaterialScope {
+  families: MaterialFamily[];
   source: string;
   confidence: Confidence;
 }
@@ -34,6 +53,7 @@ export interface ProcessMethod {
   kind: ProcessKind;
   title: string;
   basis: string;
+  materialScope: MaterialScope;
   parameters: ParameterWindow[];
   /**
    * Methods that pair each temperature band with its own minimum time: a run is in window only when
@@ -48,6 +68,17 @@ const f86 = 'ASTM F86 nitric passivation as quoted in a practitioner’s letter 
 const citric = 'ASTM A967 citric treatments, 4–10 % citric acid (Birmingham Springs, "Citric acid passivation")';
 const firm = 'Kestrelmoor validated process window (firm’s own validation report; demo values)';
 
+const stainlessOnly: MaterialScope = {
+  families: ['stainless-steel'],
+  source: 'ASTM A967 scope: chemical passivation treatments for stainless steel parts (scope as quoted from A967-13; see the firm’s licensed copy)',
+  confidence: 'secondary-source',
+};
+const f86Scope: MaterialScope = {
+  families: ['stainless-steel', 'cobalt-chromium', 'titanium-unalloyed', 'titanium-alloy'],
+  source: 'ASTM F86 significance and use 3.1: implants of iron-, cobalt-, titanium- and tantalum-based materials (astm.org, ASTM F86-13)',
+  confidence: 'published',
+};
+
 const bath = (source: string): ParameterWindow => ({ key: 'bath', label: 'Bath identity', unit: '', text: true, source, confidence: 'firm-validated' });
 const rinse: ParameterWindow = { key: 'rinseConductivity', label: 'Final rinse water conductivity', unit: 'µS/cm', max: '5', source: firm, confidence: 'firm-validated' };
 
@@ -56,6 +87,7 @@ const nitric = (id: string, title: string, acid: [string, string], temperature: 
   kind: 'passivation',
   title,
   basis: source,
+  materialScope: stainlessOnly,
   pairings: [{ label: title.split(' (')[0]!, minC: temperature[0], maxC: temperature[1], minMinutes: minutes, source, confidence: 'secondary-source' }],
   parameters: [
     bath(firm),
@@ -73,6 +105,7 @@ const nitric = (id: string, title: string, acid: [string, string], temperature: 
  */
 function f86Nitric(): ProcessMethod {
   const method = nitric('F86-NITRIC', 'ASTM F86 nitric (20–40 % HNO₃; room temperature ≥ 30 min, or 49–60 °C ≥ 20 min)', ['20', '40'], ['15', '60'], '20', f86);
+  method.materialScope = f86Scope;
   method.parameters = method.parameters.map((parameter) => (parameter.key === 'temperature' ? { ...parameter, source: `${f86}; room temperature band: ${firm}`, confidence: 'firm-validated' } : parameter));
   method.pairings = [
     { label: 'Room temperature', minC: '15', maxC: '35', minMinutes: '30', source: `${f86}; room temperature band: ${firm}`, confidence: 'firm-validated' },
@@ -100,6 +133,7 @@ export const processMethods: ProcessMethod[] = [
     kind: 'passivation',
     title: 'ASTM A967 citric (4–10 % citric acid; temperature and time pairings unverified)',
     basis: citric,
+    materialScope: stainlessOnly,
     pairings: [citricPairing('Citric 1', '60', '71', '4'), citricPairing('Citric 2', '49', '60', '10'), citricPairing('Citric 3', '21', '49', '20')],
     parameters: [
       bath(firm),
@@ -114,6 +148,7 @@ export const processMethods: ProcessMethod[] = [
     kind: 'cleaning',
     title: 'Final aqueous ultrasonic clean (firm-validated window)',
     basis: `${firm}; validated following ASTM F3127 and ISO 19227, which leave chemical residue limits to the manufacturer`,
+    materialScope: { families: ['titanium-unalloyed', 'titanium-alloy', 'stainless-steel', 'cobalt-chromium'], source: `${firm}: validated on worst-case parts of each of these materials`, confidence: 'firm-validated' },
     parameters: [
       { key: 'detergent', label: 'Detergent and lot', unit: '', text: true, source: firm, confidence: 'firm-validated' },
       { key: 'detergentConcentration', label: 'Detergent concentration', unit: 'vol %', min: '1.5', max: '3', source: firm, confidence: 'firm-validated' },
@@ -128,7 +163,8 @@ export const processMethods: ProcessMethod[] = [
         label: 'Residue: bacterial endotoxin',
         unit: 'EU/device',
         max: '20',
-        source: 'FDA Q&A guidance and USP <161>: ≤ 20 EU/device for cardiovascular/lymphatic contact (as reproduced by Nelson Labs, "Specifications for Endotoxin levels for Medical Devices")',
+        byContactCategory: endotoxinLimits.map((limit) => ({ category: limit.category, max: limit.maxEuPerDevice, source: limit.source })),
+        source: 'Per the devices’ contact category: ' + endotoxinLimits.map((limit) => limit.source).join('; '),
         confidence: 'secondary-source',
       },
     ],

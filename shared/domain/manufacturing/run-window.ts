@@ -1,5 +1,6 @@
 import { toDecimal } from '../materials/e29-rounding';
-import type { ProcessMethod } from './process-methods';
+import { contactCategoryLabels, type ContactCategory } from './contact-categories';
+import type { ParameterWindow, ProcessMethod } from './process-methods';
 
 export interface WindowItem {
   key: string;
@@ -27,14 +28,29 @@ export function windowText(min?: string, max?: string, unit = ''): string {
 }
 
 /**
+ * The window that applies to a run's devices: a limit set per contact category (endotoxin) takes
+ * the strictest among the categories of the lots in the run. Without categories (no lot known yet)
+ * it is the strictest of all, so nothing is judged against a looser limit than it may need.
+ */
+export function windowForRun(window: ParameterWindow, categories: readonly ContactCategory[] = []): ParameterWindow & { appliesTo?: ContactCategory } {
+  if (!window.byContactCategory?.length) return window;
+  const candidates = categories.length ? window.byContactCategory.filter((limit) => categories.includes(limit.category)) : window.byContactCategory;
+  const pool = candidates.length ? candidates : window.byContactCategory;
+  const strictest = pool.reduce((lowest, limit) => (toDecimal(limit.max).lessThan(lowest.max) ? limit : lowest));
+  return { ...window, max: strictest.max, source: strictest.source, appliesTo: strictest.category };
+}
+
+/**
  * Checks a run's recorded parameters against its method's window, bounds inclusive and values
  * compared as decimals exactly as recorded (a value outside by any amount is outside). A missing
- * parameter is reported in `missing`, which the caller refuses rather than storing.
+ * parameter is reported in `missing`, which the caller refuses rather than storing. `categories`
+ * are the contact categories of the devices in the run.
  */
-export function checkRunWindow(method: ProcessMethod, parameters: Record<string, string>): WindowCheck {
+export function checkRunWindow(method: ProcessMethod, parameters: Record<string, string>, categories: readonly ContactCategory[] = []): WindowCheck {
   const items: WindowItem[] = [];
   const missing: string[] = [];
-  for (const window of method.parameters) {
+  for (const declared of method.parameters) {
+    const window = windowForRun(declared, categories);
     const raw = parameters[window.key]?.trim();
     if (!raw) {
       missing.push(window.key);
@@ -45,7 +61,7 @@ export function checkRunWindow(method: ProcessMethod, parameters: Record<string,
       continue;
     }
     const value = toDecimal(raw);
-    const text = windowText(window.min, window.max, window.unit);
+    const text = windowText(window.min, window.max, window.unit) + (window.appliesTo ? ` (${contactCategoryLabels[window.appliesTo].toLowerCase()} contact)` : '');
     let why: string | null = null;
     if (window.min !== undefined && value.lessThan(window.min)) why = `${raw} ${window.unit} is below the minimum ${window.min} ${window.unit}`;
     if (window.max !== undefined && value.greaterThan(window.max)) why = `${raw} ${window.unit} is above the maximum ${window.max} ${window.unit}`;

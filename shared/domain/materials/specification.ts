@@ -118,7 +118,16 @@ export interface SpecificationGrade {
   mechanicalProperties?: MechanicalProperty[];
 }
 
-export type MaterialFamily = 'titanium-unalloyed' | 'titanium-alloy' | 'stainless-steel' | 'cobalt-chromium' | 'nickel-titanium';
+export const materialFamilies = ['titanium-unalloyed', 'titanium-alloy', 'stainless-steel', 'cobalt-chromium', 'nickel-titanium'] as const;
+export type MaterialFamily = (typeof materialFamilies)[number];
+
+export const materialFamilyLabels: Record<MaterialFamily, string> = {
+  'titanium-unalloyed': 'Unalloyed titanium',
+  'titanium-alloy': 'Titanium alloy',
+  'stainless-steel': 'Stainless steel',
+  'cobalt-chromium': 'Cobalt-chromium alloy',
+  'nickel-titanium': 'Nickel-titanium alloy',
+};
 
 /** The product forms and conditions a specification covers: what a heat received to it can be. */
 export interface SpecificationScope {

@@ -15,6 +15,7 @@ import { CreateScreeningAcknowledgement1764684000000 } from './1764684000000-cre
 import { CreateCheckAnalysis1764691200000 } from './1764691200000-create-check-analysis';
 import { AddBarHeatMarking1764687600000 } from './1764687600000-add-bar-heat-marking';
 import { AddCannotBeEvaluated1764694800000 } from './1764694800000-add-cannot-be-evaluated';
+import { AddContactCategoryAndMethodValidation1764698400000 } from './1764698400000-add-contact-category-and-method-validation';
 
 /** Every migration in the order it runs. Add new ones at the end. */
 export const migrations = [
@@ -35,4 +36,5 @@ export const migrations = [
   AddBarHeatMarking1764687600000,
   CreateCheckAnalysis1764691200000,
   AddCannotBeEvaluated1764694800000,
+  AddContactCategoryAndMethodValidation1764698400000,
 ];

@@ -1,6 +1,6 @@
 import { Router } from 'express';
 import { z } from 'zod';
-import { processMethods } from '@shared/domain/manufacturing/process-methods';
+import { methodValidationInputSchema } from '@shared/schemas/process-methods';
 import {
   consigneeInputSchema,
   dispositionInputSchema,
@@ -28,6 +28,7 @@ import { lotDetail } from './lot-detail.service';
 import { recordOperation } from './operations.service';
 import { mergeLots, splitLot } from './lot-links.service';
 import { listProcessRuns, processRunDetail, recordProcessRun } from './process-runs.service';
+import { listProcessMethods, recordMethodValidation } from './process-methods.service';
 import { listNonconformances, nonconformanceDetail, proposeDisposition, raiseNonconformance } from './nonconformances.service';
 import { createConsignee, listConsignees, shipLot } from './shipments.service';
 import { attachOperationFile, MEASUREMENT_FILE_MAX_BYTES, operationFile } from './operation-files';
@@ -55,9 +56,18 @@ export function manufacturingRouter(context: AppContext): Router {
   router.post('/parts', requireAction('parts.manage'), validate({ body: partCreateSchema }), async (req, res) => {
     res.status(201).json(await createPart(data(), req.body, currentPerson(req)!, actorOf(req, 'parts.manage'), originOf(req)));
   });
-  router.get('/process-methods', requireAction('lots.read'), (_req, res) => {
-    res.json(processMethods);
+  router.get('/process-methods', requireAction('lots.read'), async (_req, res) => {
+    res.json(await listProcessMethods(data().manager));
   });
+  router.post(
+    '/process-methods/:methodId/validations',
+    requireAction('methods.validate'),
+    validate({ params: z.object({ methodId: z.string().trim().min(1).max(40) }), body: methodValidationInputSchema }),
+    async (req, res) => {
+      const methodId = valid<{ methodId: string }>(res, 'params').methodId;
+      res.status(201).json(await recordMethodValidation(data(), methodId, req.body, currentPerson(req)!, actorOf(req, 'methods.validate'), originOf(req)));
+    },
+  );
 
   router.get('/lots', requireAction('lots.read'), validate({ query: lotListQuerySchema }), async (_req, res) => {
     res.json(await listLots(data(), valid(res, 'query')));

@@ -1,11 +1,13 @@
 import type { DataSource, EntityManager } from 'typeorm';
 import { processMethod } from '@shared/domain/manufacturing/process-methods';
+import type { ContactCategory } from '@shared/domain/manufacturing/contact-categories';
 import { partCreateSchema, type Part, type PartCreate, type RoutingStep } from '@shared/schemas/manufacturing';
 import type { Person } from '@shared/schemas/people';
 import { AppError } from '../../errors';
 import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
 import { currentSpecifications } from '../materials/specification-library.repository';
+import { familiesOfSpecifications, methodScopeProblem } from './process-methods.service';
 
 interface PartRow {
   id: number;
@@ -18,6 +20,7 @@ interface PartRow {
   unit_mass_g: string | null;
   reconciliation_tolerance_pct: string;
   lot_pattern: string;
+  contact_category: ContactCategory;
   lots: string | number;
 }
 
@@ -67,6 +70,7 @@ export async function loadParts(manager: EntityManager, ids?: number[]): Promise
     unitMassG: row.unit_mass_g,
     reconciliationTolerancePct: row.reconciliation_tolerance_pct,
     lotPattern: row.lot_pattern,
+    contactCategory: row.contact_category,
     specifications: specs.filter((spec) => spec.part_id === row.id).map((spec) => ({ specId: spec.spec_id, grade: spec.grade || null })),
     routing: steps.filter((step) => step.part_id === row.id).map(toStep),
     lots: Number(row.lots),
@@ -95,21 +99,26 @@ export async function createPart(dataSource: DataSource, raw: PartCreate, person
       else if (allowed.grade && !specification.grades.some((grade) => grade.grade === allowed.grade)) fields[`specifications.${index}.grade`] = `${specification.id} has no grade ${allowed.grade}`;
       else allowed.specId = specification.id;
     });
-    input.routing.forEach((step, index) => {
-      if (!step.processMethod) return;
+    const families = await familiesOfSpecifications(manager, input.specifications.map((allowed) => allowed.specId));
+    for (const [index, step] of input.routing.entries()) {
+      if (!step.processMethod) continue;
       const method = processMethod(step.processMethod);
       if (!method) fields[`routing.${index}.processMethod`] = `Unknown process method ${step.processMethod}`;
       else if (method.kind !== step.kind) fields[`routing.${index}.processMethod`] = `${method.id} is a ${method.kind} method, not ${step.kind}`;
-    });
+      else {
+        const problem = await methodScopeProblem(manager, method, families, `The part's material`);
+        if (problem) fields[`routing.${index}.processMethod`] = problem;
+      }
+    }
     if (Object.keys(fields).length) throw AppError.rule('Some of the part’s data does not match the library', fields);
     const [sameNumber] = await manager.query('SELECT id FROM part WHERE part_number = ? AND revision = ?', [input.partNumber, input.revision]);
     if (sameNumber) throw new AppError('CONFLICT', `Part ${input.partNumber} revision ${input.revision} exists already`, { revision: 'Already registered' });
     const [sameGtin] = await manager.query('SELECT part_number FROM part WHERE gtin = ?', [input.gtin.padStart(14, '0')]);
     if (sameGtin) throw new AppError('CONFLICT', `GTIN ${input.gtin} already identifies part ${sameGtin.part_number}`, { gtin: 'Already in use' });
     const result: { insertId: number } = await manager.query(
-      `INSERT INTO part (part_number, revision, description, gtin, unit_length_mm, cutoff_allowance_mm, unit_mass_g, reconciliation_tolerance_pct, lot_pattern, created_by)
-       VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
-      [input.partNumber, input.revision, input.description, input.gtin.padStart(14, '0'), input.unitLengthMm, input.cutoffAllowanceMm, input.unitMassG, input.reconciliationTolerancePct, input.lotPattern, person.id],
+      `INSERT INTO part (part_number, revision, description, gtin, unit_length_mm, cutoff_allowance_mm, unit_mass_g, reconciliation_tolerance_pct, lot_pattern, contact_category, created_by)
+       VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
+      [input.partNumber, input.revision, input.description, input.gtin.padStart(14, '0'), input.unitLengthMm, input.cutoffAllowanceMm, input.unitMassG, input.reconciliationTolerancePct, input.lotPattern, input.contactCategory, person.id],
     );
     const id = Number(result.insertId);
     const seen = new Set<string>();

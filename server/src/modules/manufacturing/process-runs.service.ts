@@ -4,6 +4,8 @@ import { checkRunWindow, type WindowCheck } from '@shared/domain/manufacturing/r
 import type { ProcessRunDetail, ProcessRunSummary } from '@shared/schemas/lot-detail';
 import { processRunInputSchema, type ProcessRunInput, type ProcessRunListQuery } from '@shared/schemas/manufacturing';
 import type { Person } from '@shared/schemas/people';
+import type { Part } from '@shared/schemas/manufacturing';
+import { familiesOfSpecifications, methodScopeProblem } from './process-methods.service';
 import { AppError } from '../../errors';
 import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
@@ -97,9 +99,9 @@ export async function recordProcessRun(dataSource: DataSource, raw: ProcessRunIn
   const method = processMethod(input.methodId);
   if (!method) throw AppError.rule(`Unknown process method ${input.methodId}`, { methodId: 'Not a known method' });
   if (method.kind !== input.kind) throw AppError.rule(`${method.id} is a ${method.kind} method`, { methodId: `Choose a ${input.kind} method` });
-  const check = checkRunWindow(method, input.parameters);
-  if (check.missing.length) {
-    const fields = Object.fromEntries(check.missing.map((key) => [`parameters.${key}`, `Record the ${method.parameters.find((parameter) => parameter.key === key)?.label.toLowerCase() ?? key}`]));
+  const missing = checkRunWindow(method, input.parameters).missing;
+  if (missing.length) {
+    const fields = Object.fromEntries(missing.map((key) => [`parameters.${key}`, `Record the ${method.parameters.find((parameter) => parameter.key === key)?.label.toLowerCase() ?? key}`]));
     throw new AppError('VALIDATION_FAILED', 'Some of the method’s parameters are missing', fields);
   }
   const unknown = Object.keys(input.parameters).filter((key) => !method.parameters.some((parameter) => parameter.key === key));
@@ -109,14 +111,10 @@ export async function recordProcessRun(dataSource: DataSource, raw: ProcessRunIn
   if (runAt.getTime() > Date.now() + 5 * 60_000) throw new AppError('VALIDATION_FAILED', 'The run is in the future', { runAt: 'Not in the future' });
 
   const id = await inTransaction(dataSource, async (manager) => {
-    const prefix = `${input.kind === 'passivation' ? 'PV' : 'CL'}-${runAt.getUTCFullYear()}-`;
-    const runNumber = `${prefix}${String(await nextSequence(manager, 'process_run', prefix)).padStart(4, '0')}`;
-    const result: { insertId: number } = await manager.query(
-      'INSERT INTO process_run (run_number, kind, method_id, equipment, parameters_json, window_check_json, in_window, operator_name, run_at, recorded_by) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)',
-      [runNumber, input.kind, method.id, input.equipment, JSON.stringify(input.parameters), JSON.stringify(check), check.inWindow ? 1 : 0, input.operatorName, runAt, person.id],
-    );
-    const runId = Number(result.insertId);
-    const lotNumbers: string[] = [];
+    // Every lot is checked before anything is written: its due step, its material against the
+    // method's scope, and where its device touches the body (which sets the run's endotoxin limit).
+    const due: Array<{ lotId: number; lotNumber: string; stepId: number; onHand: number }> = [];
+    const categories = new Set<Part['contactCategory']>();
     for (const lotId of input.lotIds) {
       const lot = await findLotRow(manager, lotId, true);
       if (!lot) throw AppError.rule(`Lot ${lotId} does not exist`, { lotIds: 'Unknown lot' });
@@ -131,20 +129,35 @@ export async function recordProcessRun(dataSource: DataSource, raw: ProcessRunIn
       if (next.processMethod && next.processMethod !== method.id) {
         throw AppError.rule(`Lot ${lot.lot_number}'s routing calls for ${next.processMethod}, not ${method.id}`, { lotIds: `${lot.lot_number} needs ${next.processMethod}` });
       }
+      const families = await familiesOfSpecifications(manager, part.specifications.map((allowed) => allowed.specId));
+      const outOfScope = await methodScopeProblem(manager, method, families, `Lot ${lot.lot_number}`);
+      if (outOfScope) throw AppError.rule(outOfScope, { lotIds: `${lot.lot_number} is outside ${method.id}'s scope` });
       const chain = (await unitChains(manager, [lotId])).get(lotId)!;
       if (chain.onHand < 1) throw AppError.rule(`Lot ${lot.lot_number} holds no units`, { lotIds: `${lot.lot_number} is empty` });
+      categories.add(part.contactCategory);
+      due.push({ lotId, lotNumber: lot.lot_number, stepId: next.id, onHand: chain.onHand });
+    }
+    const check = checkRunWindow(method, input.parameters, [...categories]);
+
+    const prefix = `${input.kind === 'passivation' ? 'PV' : 'CL'}-${runAt.getUTCFullYear()}-`;
+    const runNumber = `${prefix}${String(await nextSequence(manager, 'process_run', prefix)).padStart(4, '0')}`;
+    const result: { insertId: number } = await manager.query(
+      'INSERT INTO process_run (run_number, kind, method_id, equipment, parameters_json, window_check_json, in_window, operator_name, run_at, recorded_by) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)',
+      [runNumber, input.kind, method.id, input.equipment, JSON.stringify(input.parameters), JSON.stringify(check), check.inWindow ? 1 : 0, input.operatorName, runAt, person.id],
+    );
+    const runId = Number(result.insertId);
+    for (const lot of due) {
       await manager.query(
         `INSERT INTO lot_operation (lot_id, routing_step_id, operator_name, work_centre, started_at, ended_at, qty_in, qty_good, qty_scrap, scrap_reasons, process_run_id, recorded_by)
          VALUES (?, ?, ?, ?, ?, ?, ?, ?, 0, '[]', ?, ?)`,
-        [lotId, next.id, input.operatorName, input.equipment, runAt, runAt, chain.onHand, chain.onHand, runId, person.id],
+        [lot.lotId, lot.stepId, input.operatorName, input.equipment, runAt, runAt, lot.onHand, lot.onHand, runId, person.id],
       );
-      lotNumbers.push(lot.lot_number);
       if (!check.inWindow) {
         const outside = check.items.filter((item) => item.verdict === 'out-of-window').map((item) => `${item.label}: ${item.why}`);
         const nc = await insertNonconformance(manager, {
           subjectType: 'lot',
-          subjectId: lotId,
-          lotId,
+          subjectId: lot.lotId,
+          lotId: lot.lotId,
           runId,
           source: 'run-window',
           description: `${input.kind === 'passivation' ? 'Passivation' : 'Cleaning'} run ${runNumber} (${method.id}) ran outside its window — ${outside.join('; ')}`,
@@ -152,9 +165,10 @@ export async function recordProcessRun(dataSource: DataSource, raw: ProcessRunIn
           raisedBy: person.id,
           raisedAt: runAt,
         });
-        await appendLedgerEvent(manager, { actor, action: 'nonconformance.raised', entity: { type: 'nonconformance', id: nc.id }, after: { ncNumber: nc.ncNumber, lot: lot.lot_number, run: runNumber, cause: 'run outside its window' }, origin });
+        await appendLedgerEvent(manager, { actor, action: 'nonconformance.raised', entity: { type: 'nonconformance', id: nc.id }, after: { ncNumber: nc.ncNumber, lot: lot.lotNumber, run: runNumber, cause: 'run outside its window' }, origin });
       }
     }
+    const lotNumbers = due.map((lot) => lot.lotNumber);
     await appendLedgerEvent(manager, { actor, action: 'process-run.recorded', entity: { type: 'process-run', id: runId }, after: { runNumber, method: method.id, parameters: input.parameters, inWindow: check.inWindow, lots: lotNumbers }, origin });
     return runId;
   });

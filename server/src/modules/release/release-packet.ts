@@ -169,7 +169,7 @@ export async function renderReleasePacket(data: PacketData): Promise<Buffer> {
           heat.disposition,
           { stack: heat.certificates.map(hash) } as never,
         ]),
-        [50, 70, 70, 50, 50, '*'],
+        [50, 70, 70, 60, 58, '*'],
       ),
       ...dossier.heats
         .filter((heat) => heat.justification)

@@ -27,12 +27,12 @@ describe('passivation runs against their method window', () => {
     const { bath: _bath, ...withoutBath } = run();
     expect(checkRunWindow(nitric2, withoutBath)).toMatchObject({ inWindow: false, missing: ['bath'] });
   });
-  it('when the cleaning run’s endotoxin result exceeds 20 EU/device, then it is out of window', () => {
+  it('when the cleaning run’s endotoxin result exceeds 20 EU/device for blood or tissue contact, then it is out of window', () => {
     // Source: FDA Q&A guidance and USP <161>, ≤ 20 EU/device (as reproduced by Nelson Labs).
     const cleaning = processMethod('KIW-CLEAN-AQ')!;
     const parameters = { detergent: 'D-1 lot 44', detergentConcentration: '2', washTemperature: '55', washTime: '15', rinseTemperature: '30', rinseTime: '6', rinseConductivity: '1.2', toc: '120', endotoxin: '20' };
-    expect(checkRunWindow(cleaning, parameters).inWindow).toBe(true);
-    expect(checkRunWindow(cleaning, { ...parameters, endotoxin: '20.5' }).inWindow).toBe(false);
+    expect(checkRunWindow(cleaning, parameters, ['general-tissue']).inWindow).toBe(true);
+    expect(checkRunWindow(cleaning, { ...parameters, endotoxin: '20.5' }, ['general-tissue']).inWindow).toBe(false);
   });
   it('when the library is read, then every numeric window names its source and how sure it is', () => {
     for (const method of processMethods) {
