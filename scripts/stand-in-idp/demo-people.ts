@@ -21,6 +21,8 @@ export const demoPeople: DemoPerson[] = [
   { subject: 'kiw-0401', name: 'Priya Raghunathan', email: 'priya.raghunathan@kestrelmoor.example', password: 'priya-demo', groups: ['ingotrace-auditors'] },
   { subject: 'kiw-0501', name: 'Oluwaseun Adeyemi', email: 'oluwaseun.adeyemi@kestrelmoor.example', password: 'oluwaseun-demo', groups: ['ingotrace-recall-coordinators'] },
   { subject: 'kiw-0601', name: 'Henrik Dahl', email: 'henrik.dahl@kestrelmoor.example', password: 'henrik-demo', groups: ['ingotrace-administrators'] },
+  // A second administrator: a change of a signing role takes effect only once another administrator confirms it.
+  { subject: 'kiw-0602', name: 'Mirela Vasilescu', email: 'mirela.vasilescu@kestrelmoor.example', password: 'mirela-demo', groups: ['ingotrace-administrators'] },
   {
     subject: 'kiw-0701',
     name: 'Chiara Bellandi',

@@ -1,7 +1,7 @@
 import { canonicalJson } from './ledger-hash';
 
 /** What a signature means; each record type allows some of these. */
-export const signatureMeanings = ['reviewed', 'approved', 'approved-for-release', 'rejected', 'accepted', 'quarantined', 'dispositioned', 'closed', 'withdrawn', 'lifted', 'justified'] as const;
+export const signatureMeanings = ['reviewed', 'approved', 'approved-for-release', 'rejected', 'accepted', 'quarantined', 'dispositioned', 'closed', 'withdrawn', 'lifted', 'justified', 'confirmed'] as const;
 export type SignatureMeaning = (typeof signatureMeanings)[number];
 
 export const meaningLabels: Record<SignatureMeaning, string> = {
@@ -16,6 +16,7 @@ export const meaningLabels: Record<SignatureMeaning, string> = {
   withdrawn: 'Signature withdrawn',
   lifted: 'Hold lifted',
   justified: 'Justified for acceptance',
+  confirmed: 'Role change confirmed',
 };
 
 /** Meanings that must carry a reason. */

@@ -46,6 +46,33 @@ export const roleChangeSchema = z.object({
 });
 export type RoleChange = z.infer<typeof roleChangeSchema>;
 
+export const roleChangeRequestSchema = z.object({
+  id: z.number().int(),
+  personId: z.number().int(),
+  personName: z.string(),
+  rolesBefore: z.array(roleSchema),
+  rolesAfter: z.array(roleSchema),
+  reason: z.string(),
+  requestedBy: z.string(),
+  requestedById: z.number().int(),
+  requestedAt: z.string(),
+});
+export type RoleChangeRequest = z.infer<typeof roleChangeRequestSchema>;
+
+/** A role change either takes effect at once or, when it touches a signing role, waits for a second administrator. */
+export const roleChangeOutcomeSchema = z.object({
+  applied: z.boolean(),
+  person: personSchema,
+  pending: roleChangeRequestSchema.nullable(),
+});
+export type RoleChangeOutcome = z.infer<typeof roleChangeOutcomeSchema>;
+
+export const peopleSettingsSchema = z.object({
+  administratorsMayApprove: z.boolean(),
+  pendingRoleChanges: z.array(roleChangeRequestSchema),
+});
+export type PeopleSettings = z.infer<typeof peopleSettingsSchema>;
+
 export const activationChangeSchema = z.object({
   active: z.boolean(),
   reason: reasonSchema,

@@ -1,11 +1,14 @@
 import { keepPreviousData, queryOptions } from '@tanstack/vue-query';
-import { peoplePageSchema, personSchema, type ActivationChange, type PeopleQuery, type RoleChange } from '@shared/schemas/people';
+import { peoplePageSchema, peopleSettingsSchema, personSchema, roleChangeOutcomeSchema, type ActivationChange, type PeopleQuery, type RoleChange } from '@shared/schemas/people';
 import { apiRequest } from './http';
 
 export const peopleKeys = {
   all: ['people'] as const,
   list: (query: PeopleQuery) => [...peopleKeys.all, 'list', query] as const,
+  settings: () => [...peopleKeys.all, 'settings'] as const,
 };
+
+export const peopleSettingsQuery = () => queryOptions({ queryKey: peopleKeys.settings(), queryFn: ({ signal }) => apiRequest('/people/settings', peopleSettingsSchema, { signal }) });
 
 export const peopleListQuery = (query: PeopleQuery) =>
   queryOptions({
@@ -19,7 +22,7 @@ export const peopleListQuery = (query: PeopleQuery) =>
   });
 
 export function changePersonRoles(personId: number, change: RoleChange) {
-  return apiRequest(`/people/${personId}/roles`, personSchema, { method: 'PUT', body: change });
+  return apiRequest(`/people/${personId}/roles`, roleChangeOutcomeSchema, { method: 'PUT', body: change });
 }
 
 export function changePersonActivation(personId: number, change: ActivationChange) {

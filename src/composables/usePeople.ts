@@ -1,11 +1,13 @@
 import { computed, type Ref } from 'vue';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/vue-query';
 import type { ActivationChange, PeopleQuery, RoleChange } from '@shared/schemas/people';
-import { changePersonActivation, changePersonRoles, peopleKeys, peopleListQuery } from '../api/people';
+import { changePersonActivation, changePersonRoles, peopleKeys, peopleListQuery, peopleSettingsQuery } from '../api/people';
 
 export function usePeopleList(query: Ref<PeopleQuery>) {
   return useQuery(computed(() => peopleListQuery(query.value)));
 }
+
+export const usePeopleSettings = () => useQuery(peopleSettingsQuery());
 
 export function useChangePersonRoles() {
   const queryClient = useQueryClient();

@@ -82,7 +82,7 @@ export function limitRate(options: LimitOptions): RequestHandler {
       const minutes = Math.max(1, Math.ceil(((resetTime?.getTime() ?? Date.now() + limitOptions.windowMs) - Date.now()) / 60_000));
       const message = options.message(minutes);
       if (options.answer === 'sign-in-page') {
-        res.set('Retry-After', String(minutes * 60)).redirect(303, `/sign-in?refused=${encodeURIComponent(message)}`);
+        res.set('Retry-After', String(minutes * 60)).redirect(303, `/sign-in?refused=too-many-attempts&minutes=${minutes}`);
         return;
       }
       res.set('Retry-After', String(minutes * 60));

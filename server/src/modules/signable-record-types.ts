@@ -8,6 +8,7 @@ import { lotReleaseRecordType } from './release/release.record';
 import { lotHoldRecordType } from './recall/lot-holds';
 import { recallInvestigationRecordType } from './recall/recall.record';
 import { registerSignableRecordType } from './signatures/signable-records';
+import { roleChangeRecordType } from './people/role-change.record';
 
 /** Every kind of record the product lets people sign; the app and the demo seed register the same set. */
 export function registerProductRecordTypes(): void {
@@ -20,4 +21,5 @@ export function registerProductRecordTypes(): void {
   registerSignableRecordType(lotReleaseRecordType);
   registerSignableRecordType(lotHoldRecordType);
   registerSignableRecordType(recallInvestigationRecordType);
+  registerSignableRecordType(roleChangeRecordType);
 }

@@ -16,6 +16,7 @@ import { CreateCheckAnalysis1764691200000 } from './1764691200000-create-check-a
 import { AddBarHeatMarking1764687600000 } from './1764687600000-add-bar-heat-marking';
 import { AddCannotBeEvaluated1764694800000 } from './1764694800000-add-cannot-be-evaluated';
 import { AddContactCategoryAndMethodValidation1764698400000 } from './1764698400000-add-contact-category-and-method-validation';
+import { AddRoleChangeConfirmation1764702000000 } from './1764702000000-add-role-change-confirmation';
 
 /** Every migration in the order it runs. Add new ones at the end. */
 export const migrations = [
@@ -37,4 +38,5 @@ export const migrations = [
   CreateCheckAnalysis1764691200000,
   AddCannotBeEvaluated1764694800000,
   AddContactCategoryAndMethodValidation1764698400000,
+  AddRoleChangeConfirmation1764702000000,
 ];

@@ -7,6 +7,8 @@ const ASSERTION = 'urn:oasis:names:tc:SAML:2.0:assertion';
 export interface AssertionFacts {
   responseIssuer: string | null;
   destination: string | null;
+  /** The AuthnRequest ID the response answers. */
+  inResponseTo: string | null;
   assertionId: string | null;
   assertionIssuer: string | null;
   recipients: string[];
@@ -33,6 +35,7 @@ export function readAssertionFacts(responseXml: string): AssertionFacts {
   return {
     responseIssuer: response?.namespaceURI === PROTOCOL ? (directChild(response, ASSERTION, 'Issuer')?.textContent?.trim() ?? null) : null,
     destination: response?.getAttribute('Destination') ?? null,
+    inResponseTo: response?.getAttribute('InResponseTo') || null,
     assertionId: assertion?.getAttribute('ID') ?? null,
     assertionIssuer: directChild(assertion, ASSERTION, 'Issuer')?.textContent?.trim() ?? null,
     recipients: confirmations.map((element) => element.getAttribute('Recipient') ?? ''),

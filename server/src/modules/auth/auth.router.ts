@@ -3,7 +3,9 @@ import type { PassportStatic } from 'passport';
 import type { AppContext } from '../../app-context';
 import { AppError } from '../../errors';
 import { originOf, currentPerson } from '../../middleware/access';
-import { recordRefusedSignIn, recordSignOut, signIn } from '../people/people.service';
+import { recordRefusedSignIn, recordSignOut, signIn, SignInRefused } from '../people/people.service';
+import type { SignInRefusalCode } from '@shared/auth/sign-in-refusals';
+import { bindingCookieOptions, bindingNonceFrom, carriesDoctype, isBoundToThisBrowser, newBindingNonce, SIGN_IN_BINDING_COOKIE, withBindingNonce } from './sign-in-binding';
 import { completeReauthentication, pendingReauthentication } from './reauthentication.service';
 import { REAUTHENTICATION_STRATEGY, SamlRefusal, SIGN_IN_STRATEGY, type VerifiedAssertion } from './saml-strategies';
 import type { Strategy } from '@node-saml/passport-saml';
@@ -48,30 +50,48 @@ export function authRouter(
     answer: 'sign-in-page',
   });
 
+  const secret = context.config.SESSION_SECRET;
+  const cookieOptions = bindingCookieOptions(context.config.PUBLIC_URL);
+
   router.get('/login', (req, res, next) => {
-    passport.authenticate(SIGN_IN_STRATEGY, { additionalParams: { RelayState: safeReturnPath(req.query.returnTo) } } as object)(req, res, next);
+    // The AuthnRequest's ID is derived from a nonce only this browser holds (see sign-in-binding).
+    const nonce = newBindingNonce();
+    res.cookie(SIGN_IN_BINDING_COOKIE, nonce, cookieOptions);
+    withBindingNonce(nonce, () => passport.authenticate(SIGN_IN_STRATEGY, { additionalParams: { RelayState: safeReturnPath(req.query.returnTo) } } as object)(req, res, next));
   });
+
+  /** Records why in the audit trail and sends the browser to the sign-in page with the code only. */
+  async function refuse(req: Request, res: Response, code: SignInRefusalCode, reason: string, subject: string | null): Promise<void> {
+    await recordRefusedSignIn(context.database.dataSource, refusalMessage(reason), subject, originOf(req));
+    res.clearCookie(SIGN_IN_BINDING_COOKIE, { ...cookieOptions, maxAge: undefined });
+    res.redirect(303, `/sign-in?refused=${code}`);
+  }
 
   router.post('/saml/acs', attempts, urlencoded, (req: Request, res: Response, next) => {
     const relayState = safeReturnPath((req.body as { RelayState?: unknown })?.RelayState);
+    if (carriesDoctype((req.body as { SAMLResponse?: unknown })?.SAMLResponse)) {
+      refuse(req, res, 'not-confirmed', 'The identity provider’s answer contains a DOCTYPE and is refused', null).catch(next);
+      return;
+    }
     passport.authenticate(SIGN_IN_STRATEGY, { session: false }, async (error: unknown, verified: VerifiedAssertion | false) => {
       try {
         const origin = originOf(req);
         if (error || !verified) {
-          const reason = refusalMessage(error ?? 'The identity provider did not confirm who you are');
-          await recordRefusedSignIn(context.database.dataSource, reason, error instanceof SamlRefusal ? error.subject : null, origin);
-          res.redirect(303, `/sign-in?refused=${encodeURIComponent(reason)}`);
+          await refuse(req, res, 'not-confirmed', refusalMessage(error ?? 'The identity provider did not confirm who you are'), error instanceof SamlRefusal ? error.subject : null);
+          return;
+        }
+        if (!isBoundToThisBrowser(verified.inResponseTo, bindingNonceFrom(req.get('cookie')), secret)) {
+          await refuse(req, res, 'other-browser', `The response answers a sign-in started in another browser (InResponseTo ${verified.inResponseTo ?? 'missing'})`, verified.subject);
           return;
         }
         let person;
         try {
           person = await signIn(context.database.dataSource, verified, origin);
         } catch (refused) {
-          const reason = refusalMessage(refused);
-          await recordRefusedSignIn(context.database.dataSource, reason, verified.subject, origin);
-          res.redirect(303, `/sign-in?refused=${encodeURIComponent(reason)}`);
+          await refuse(req, res, refused instanceof SignInRefused ? refused.code : 'not-confirmed', refusalMessage(refused), verified.subject);
           return;
         }
+        res.clearCookie(SIGN_IN_BINDING_COOKIE, { ...cookieOptions, maxAge: undefined });
         // passport regenerates the session id here (no session fixation).
         req.login(person, (loginError) => {
           if (loginError) return next(loginError);
@@ -121,6 +141,10 @@ export function authRouter(
 
   router.post('/saml/reauth-acs', attempts, urlencoded, (req: Request, res: Response, next) => {
     const id = String((req.body as { RelayState?: unknown })?.RelayState ?? '');
+    if (carriesDoctype((req.body as { SAMLResponse?: unknown })?.SAMLResponse)) {
+      next(new AppError('VALIDATION_FAILED', 'The identity provider’s answer contains a DOCTYPE and is refused'));
+      return;
+    }
     passport.authenticate(REAUTHENTICATION_STRATEGY, { session: false }, async (error: unknown, verified: VerifiedAssertion | false) => {
       try {
         const outcome = await completeReauthentication(context.database.dataSource, {

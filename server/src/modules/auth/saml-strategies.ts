@@ -5,6 +5,7 @@ import { attributeValues, rolesFromGroups } from '../people/people.domain';
 import type { SignInIdentity } from '../people/people.service';
 import { assertionRefusal, readAssertionFacts } from './assertion-facts';
 import { claimAssertionId, MariadbSamlRequestCache } from './saml-request-cache';
+import { requestIdGenerator } from './sign-in-binding';
 
 export const SIGN_IN_STRATEGY = 'saml';
 export const REAUTHENTICATION_STRATEGY = 'saml-reauthentication';
@@ -21,6 +22,7 @@ export class SamlRefusal extends Error {
 
 export interface VerifiedAssertion extends SignInIdentity {
   assertionId: string;
+  inResponseTo: string | null;
   sessionIndex: string | undefined;
 }
 
@@ -56,6 +58,7 @@ export function createSamlStrategies(context: AppContext): { signIn: Strategy; r
     validateInResponseTo: ValidateInResponseTo.always,
     requestIdExpirationPeriodMs: REQUEST_LIFETIME_MS,
     cacheProvider,
+    generateUniqueId: requestIdGenerator(config.SESSION_SECRET),
     disableRequestedAuthnContext: true,
     identifierFormat: 'urn:oasis:names:tc:SAML:2.0:nameid-format:persistent',
     signatureAlgorithm: 'sha256',
@@ -100,6 +103,7 @@ async function verifyProfile(context: AppContext, profile: Profile | null, acsUr
     identityProviderRoles: rolesFromGroups(attributeValues(profile[context.config.SAML_GROUP_ATTRIBUTE]), context.config.roleMap),
     authnInstant: facts.authnInstant as Date,
     assertionId: facts.assertionId as string,
+    inResponseTo: facts.inResponseTo,
     sessionIndex: typeof profile.sessionIndex === 'string' ? profile.sessionIndex : undefined,
   };
 }

@@ -1,10 +1,13 @@
 import type { DataSource } from 'typeorm';
 import type { Role } from '@shared/auth/roles';
-import type { ActivationChange, PeopleQuery, PeoplePage, Person, RoleChange } from '@shared/schemas/people';
+import type { SignInRefusalCode } from '@shared/auth/sign-in-refusals';
+import { ownRoleChangeRefusal, roleCombinationRefusal, signingRolesChanged } from '@shared/auth/role-changes';
+import type { ActivationChange, PeopleQuery, PeoplePage, PeopleSettings, Person, RoleChange, RoleChangeOutcome } from '@shared/schemas/people';
 import { AppError } from '../../errors';
 import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
 import * as people from './people.repository';
+import { administratorsMayApprove, insertRoleChangeRequest, pendingRoleChanges } from './role-change-requests.repository';
 
 export interface SignInIdentity {
   subject: string;
@@ -14,7 +17,14 @@ export interface SignInIdentity {
   authnInstant: Date;
 }
 
-export class SignInRefused extends Error {}
+export class SignInRefused extends Error {
+  constructor(
+    readonly code: SignInRefusalCode,
+    message: string,
+  ) {
+    super(message);
+  }
+}
 
 const systemActor: Actor = { id: null, name: 'identity provider', role: null };
 
@@ -36,7 +46,7 @@ export async function signIn(dataSource: DataSource, identity: SignInIdentity, o
       });
       existing = (await people.findPersonById(manager, id, true))!;
     }
-    if (!existing.active) throw new SignInRefused('Your Ingotrace account is deactivated; ask an administrator');
+    if (!existing.active) throw new SignInRefused('deactivated', 'Your Ingotrace account is deactivated; ask an administrator');
     const before = existing.identityProviderRoles;
     if (before.join() !== identity.identityProviderRoles.join()) {
       await people.replaceIdentityProviderRoles(manager, existing.id, identity.identityProviderRoles);
@@ -51,7 +61,9 @@ export async function signIn(dataSource: DataSource, identity: SignInIdentity, o
     }
     await people.updatePersonProfile(manager, existing.id, { name: identity.name, email: identity.email, signedInAt: new Date() });
     const person = (await people.findPersonById(manager, existing.id))!;
-    if (person.roles.length === 0) throw new SignInRefused('You hold no Ingotrace role; ask an administrator to give you one');
+    if (person.roles.length === 0) throw new SignInRefused('no-role', 'You hold no Ingotrace role; ask an administrator to give you one');
+    const combination = roleCombinationRefusal(person.roles, await administratorsMayApprove(manager));
+    if (combination) throw new SignInRefused('role-combination', `${combination}; ask an administrator to remove one of them`);
     await appendLedgerEvent(manager, {
       actor: { id: person.id, name: person.name, role: null },
       action: 'session.signed-in',
@@ -92,15 +104,37 @@ export async function listPeople(dataSource: DataSource, query: PeopleQuery): Pr
   return { items, total, page: query.page, pageSize: query.pageSize };
 }
 
-export async function changeRoles(dataSource: DataSource, personId: number, change: RoleChange, actor: Actor, origin: RequestOrigin): Promise<Person> {
+/**
+ * Changes a person's roles. Nobody changes their own; a change that grants or removes a signing
+ * role waits for a second administrator's signed confirmation (the `role-change` record type);
+ * other changes take effect at once. Roles that may not be held together are refused.
+ */
+export async function changeRoles(dataSource: DataSource, personId: number, change: RoleChange, actor: Actor, origin: RequestOrigin): Promise<RoleChangeOutcome> {
+  const own = ownRoleChangeRefusal(actor.id, personId);
+  if (own) throw new AppError('FORBIDDEN', own);
   return inTransaction(dataSource, async (manager) => {
     const person = await people.findPersonById(manager, personId, true);
     if (!person) throw AppError.notFound('Person');
     const wanted = [...new Set(change.roles)].sort();
-    if (actor.id === personId && person.roles.includes('administrator') && !wanted.includes('administrator')) {
-      throw AppError.rule('You cannot take the administrator role from yourself; ask another administrator', { roles: 'Keep administrator' });
-    }
     if (wanted.join() === person.roles.join()) throw AppError.rule('These are already the person’s roles', { roles: 'Nothing to change' });
+    const combination = roleCombinationRefusal(wanted, await administratorsMayApprove(manager));
+    if (combination) throw AppError.rule(combination, { roles: combination });
+    if (signingRolesChanged(person.roles, wanted).length) {
+      const [waiting] = await pendingRoleChanges(manager, personId);
+      if (waiting) throw new AppError('CONFLICT', `A change of ${person.name}’s roles asked by ${waiting.requestedBy} is waiting for confirmation`, { roles: 'Waiting for confirmation' });
+      const id = await insertRoleChangeRequest(manager, { personId, rolesBefore: person.roles, rolesAfter: wanted, reason: change.reason, requestedBy: actor.id! });
+      await appendLedgerEvent(manager, {
+        actor,
+        action: 'person.role-change-requested',
+        entity: { type: 'person', id: personId },
+        before: { roles: person.roles },
+        after: { roles: wanted, request: id },
+        reason: change.reason,
+        origin,
+      });
+      const [pending] = await pendingRoleChanges(manager, personId);
+      return { applied: false, person, pending: pending! };
+    }
     await people.setAdministratorRoles(manager, personId, wanted, person.identityProviderRoles);
     const after = (await people.findPersonById(manager, personId))!;
     await appendLedgerEvent(manager, {
@@ -112,8 +146,12 @@ export async function changeRoles(dataSource: DataSource, personId: number, chan
       reason: change.reason,
       origin,
     });
-    return after;
+    return { applied: true, person: after, pending: null };
   });
+}
+
+export async function peopleSettings(dataSource: DataSource): Promise<PeopleSettings> {
+  return { administratorsMayApprove: await administratorsMayApprove(dataSource.manager), pendingRoleChanges: await pendingRoleChanges(dataSource.manager) };
 }
 
 export async function changeActivation(dataSource: DataSource, personId: number, change: ActivationChange, actor: Actor, origin: RequestOrigin): Promise<Person> {

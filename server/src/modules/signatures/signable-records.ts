@@ -1,6 +1,7 @@
 import type { EntityManager } from 'typeorm';
 import type { Action } from '@shared/auth/permissions';
 import type { SignatureMeaning } from '@shared/domain/signatures';
+import type { RequestOrigin } from '../ledger/ledger.repository';
 
 /** What a record type tells the signing service about one of its records. */
 export interface SignableContent {
@@ -32,7 +33,7 @@ export interface SignableRecordType {
   /** Extra rules (separation of duties); returns the reason to refuse, or null. */
   refusal?(input: { signerId: number; meaning: SignatureMeaning; record: SignableContent; earlierSignatures: Array<{ signerId: number; meaning: SignatureMeaning }> }): string | null;
   /** What the signature changes on the record (e.g. a heat's status), inside the signature's transaction. */
-  afterSign?(manager: EntityManager, input: { recordId: string; meaning: SignatureMeaning; signerId: number; signerName: string; reason: string | null; signatureLedgerSeq: number }): Promise<void>;
+  afterSign?(manager: EntityManager, input: { recordId: string; meaning: SignatureMeaning; signerId: number; signerName: string; reason: string | null; signatureLedgerSeq: number; origin?: RequestOrigin }): Promise<void>;
 }
 
 const registry = new Map<string, SignableRecordType>();

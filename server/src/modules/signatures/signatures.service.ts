@@ -19,7 +19,7 @@ import { appendLedgerEvent, sha256Hex, type RequestOrigin } from '../ledger/ledg
 import { signableRecordType, type SignableContent, type SignableRecordType } from './signable-records';
 import { insertSignature, newestSignaturesOfType, signaturesFor, type SignatureRow } from './signatures.repository';
 
-const approvalMeanings: readonly SignatureMeaning[] = ['approved', 'approved-for-release', 'accepted', 'justified'];
+const approvalMeanings: readonly SignatureMeaning[] = ['approved', 'approved-for-release', 'accepted', 'justified', 'confirmed'];
 
 async function loadSignable(manager: EntityManager, person: Person, intent: SignatureIntent): Promise<{ type: SignableRecordType; record: SignableContent }> {
   const type = signableRecordType(intent.recordType);
@@ -153,7 +153,7 @@ export async function signRecord(dataSource: DataSource, person: Person, request
       ledger_seq: String(ledger.seq),
     };
     const id = await insertSignature(manager, row);
-    await type.afterSign?.(manager, { recordId: request.recordId, meaning: request.meaning, signerId: person.id, signerName: person.name, reason, signatureLedgerSeq: ledger.seq });
+    await type.afterSign?.(manager, { recordId: request.recordId, meaning: request.meaning, signerId: person.id, signerName: person.name, reason, signatureLedgerSeq: ledger.seq, origin });
     return toSignature({ ...row, id: String(id) }, hash);
   });
 }
