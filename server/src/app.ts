@@ -40,7 +40,7 @@ export function createApp(context: AppContext, options: AppOptions = {}): Ingotr
   configureLinks(context.config.PUBLIC_URL);
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', context.config.TRUST_PROXY.split(',').map((entry) => entry.trim()));
+  app.set('trust proxy', context.config.TRUST_PROXY ? context.config.TRUST_PROXY.split(',').map((entry) => entry.trim()) : false);
 
   app.use(
     pinoHttp({

@@ -1,6 +1,6 @@
 import { keepPreviousData, queryOptions } from '@tanstack/vue-query';
 import { ledgerActionsSchema, ledgerPageSchema, verificationSchema, type LedgerQuery } from '@shared/schemas/audit';
-import { apiRequest } from './http';
+import { apiDownload, apiRequest } from './http';
 
 export const auditKeys = {
   all: ['audit'] as const,
@@ -29,3 +29,6 @@ export const ledgerActionsQuery = () =>
 export function runVerification() {
   return apiRequest('/audit/verification', verificationSchema);
 }
+
+/** The verifiable bundle of the whole ledger (recorded as an export in the ledger itself). */
+export const exportLedgerBundle = () => apiDownload('/audit/export', 'ingotrace-ledger-export.json');

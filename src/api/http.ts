@@ -46,6 +46,27 @@ export async function apiUpload<T>(path: string, field: string, file: File, sche
   return readResponse(response, schema);
 }
 
+/**
+ * Asks for a file with a state-changing request (POST with the CSRF token: the export is recorded
+ * in the audit trail) and hands it to the browser as a download under the server's file name.
+ */
+export async function apiDownload(path: string, fallbackName: string): Promise<void> {
+  let response: Response;
+  try {
+    response = await fetch(`/api${path}`, { method: 'POST', headers: csrfToken ? { 'X-CSRF-Token': csrfToken } : {}, credentials: 'same-origin' });
+  } catch (error) {
+    throw new ApiError(0, 'NETWORK', `The server could not be reached (${error instanceof Error ? error.message : 'network error'})`);
+  }
+  if (!response.ok) await readResponse(response, errorResponseSchema);
+  const name = /filename="?([^";]+)"?/.exec(response.headers.get('Content-Disposition') ?? '')?.[1] ?? fallbackName;
+  const url = URL.createObjectURL(await response.blob());
+  const link = Object.assign(document.createElement('a'), { href: url, download: name });
+  document.body.append(link);
+  link.click();
+  link.remove();
+  setTimeout(() => URL.revokeObjectURL(url), 10_000);
+}
+
 async function readResponse<T>(response: Response, schema: z.ZodType<T>): Promise<T> {
   const payload: unknown = response.status === 204 ? undefined : await response.json().catch(() => undefined);
   if (!response.ok) {

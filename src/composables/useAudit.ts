@@ -1,7 +1,7 @@
 import { computed, type Ref } from 'vue';
 import { useMutation, useQuery } from '@tanstack/vue-query';
 import type { LedgerQuery } from '@shared/schemas/audit';
-import { ledgerActionsQuery, ledgerEventsQuery, runVerification } from '../api/audit';
+import { exportLedgerBundle, ledgerActionsQuery, ledgerEventsQuery, runVerification } from '../api/audit';
 
 export function useLedgerEvents(query: Ref<LedgerQuery>) {
   return useQuery(computed(() => ledgerEventsQuery(query.value)));
@@ -13,4 +13,8 @@ export function useLedgerActions() {
 
 export function useLedgerVerification() {
   return useMutation({ mutationFn: runVerification });
+}
+
+export function useExportLedgerBundle() {
+  return useMutation({ mutationFn: exportLedgerBundle });
 }

@@ -13,6 +13,7 @@ registerSignableRecordType({
   type: 'test-person-card',
   label: 'person card',
   action: 'system.read',
+  readAction: 'system.read',
   meanings: ['reviewed', 'approved', 'rejected', 'withdrawn'],
   async load(manager, recordId) {
     const [row] = await manager.query('SELECT id, subject, name, email FROM person WHERE subject = ?', [recordId]);
@@ -161,5 +162,17 @@ describe('electronic signatures', () => {
     expect(withdrawn.body).toMatchObject({ meaning: 'withdrawn', withdrawsSignatureId: approved.body.id, reason: 'Approved the wrong card' });
     const listed = (await agent.get('/api/signatures?recordType=test-person-card&recordId=kiw-0601')).body as Array<{ meaning: string }>;
     expect(listed.map((item) => item.meaning)).toEqual(['approved', 'withdrawn']);
+  });
+
+  it('[SIG-LIST-PERMISSION] when someone lists the signatures of a record type they may not read, then 403; an unknown type is 404', async () => {
+    const engineer = await signedIn('kiw-0101');
+    expect((await engineer.agent.get('/api/signatures?recordType=ledger-review&recordId=1')).status).toBe(403);
+    expect((await engineer.agent.get('/api/signatures?recordType=role-change&recordId=1')).status).toBe(403);
+    const administrator = await signedIn('kiw-0601');
+    expect((await administrator.agent.get('/api/signatures?recordType=heat&recordId=1')).status).toBe(403);
+    expect((await administrator.agent.get('/api/signatures?recordType=lot-release&recordId=1')).status).toBe(403);
+    expect((await administrator.agent.get('/api/signatures?recordType=role-change&recordId=1')).status).toBe(200);
+    expect((await engineer.agent.get('/api/signatures?recordType=heat&recordId=1')).status).toBe(200);
+    expect((await engineer.agent.get('/api/signatures?recordType=no-such-type&recordId=1')).status).toBe(404);
   });
 });

@@ -53,6 +53,9 @@ describe('the MariaDB bootstrap', () => {
       await expect(connection.query("UPDATE migrations SET name = 'x'")).rejects.toThrow(/UPDATE command denied/);
       await expect(connection.query('CREATE TABLE intruder (id INT)')).rejects.toThrow(/CREATE command denied/);
       await expect(connection.query('DROP TABLE organisation')).rejects.toThrow(/DROP command denied/);
+      // No global privilege: neither a global read lock nor a flush (both need RELOAD).
+      await expect(connection.query('FLUSH TABLES WITH READ LOCK')).rejects.toThrow(/RELOAD/);
+      await expect(connection.query('FLUSH LOCAL TABLES organisation')).rejects.toThrow(/RELOAD/);
       const [rows] = await connection.query('SELECT COUNT(*) AS n FROM organisation');
       expect(rows).toEqual([{ n: 0 }]);
     } finally {

@@ -7,11 +7,13 @@ import { csrfTokenOf, SamlTestDriver } from '../helpers/saml-round-trip';
 // Limits of 3 sign-in attempts and 2 signatures begun per 15 minutes (the defaults are 30 and 60;
 // common practice for interactive sign-in, no source).
 describe('rate limits on sign-in and signing', () => {
-  const running = createTestApp({ SIGN_IN_ATTEMPTS_PER_15_MIN: '3' });
+  const running = createTestApp({ SIGN_IN_ATTEMPTS_PER_15_MIN: '3', TRUST_PROXY: 'loopback' });
+  const unproxied = createTestApp({ SIGN_IN_ATTEMPTS_PER_15_MIN: '3', TRUST_PROXY: '' });
   // Its own app: the other suites' sign-ins from 127.0.0.1 count against the low sign-in limit above.
   const signing = createTestApp({ SIGNING_ATTEMPTS_PER_15_MIN: '2' });
   afterAll(async () => {
     await running.close();
+    await unproxied.close();
     await signing.close();
   });
   // Addresses from TEST-NET-3 (RFC 5737), each run its own, forwarded by a proxy on loopback (which the app trusts).
@@ -35,6 +37,15 @@ describe('rate limits on sign-in and signing', () => {
     expect((await attempt(other)).headers.location ?? '').not.toContain('too-many-attempts');
   });
 
+  it('[RATE-NO-PROXY] when no proxy is configured, then X-Forwarded-For is not believed: changing it does not escape the sign-in limit', async () => {
+    let last = '';
+    for (let index = 0; index < 4; index += 1) {
+      const answer = await request(unproxied.app).post('/auth/saml/acs').set('X-Forwarded-For', address()).type('form').send({ SAMLResponse: 'bm90IGEgcmVzcG9uc2U=', RelayState: '/' });
+      last = answer.headers.location ?? '';
+    }
+    expect(last).toMatch(/^\/sign-in\?refused=too-many-attempts/);
+  });
+
   it('[RATE-SIGNING] when a person begins more signatures than the limit, then the next is refused with 429 in the one error shape', async () => {
     const saml = await SamlTestDriver.create(signing.config);
     const { agent } = await saml.signIn(signing.app, 'kiw-0701');
@@ -54,5 +65,17 @@ describe('rate limits on sign-in and signing', () => {
     expect(body.error.code).toBe('RATE_LIMITED');
     expect(body.error.message).toMatch(/^Too many signatures begun in a short time; try again in \d+ minutes?$/);
     expect(Number(limited!.headers['retry-after'])).toBeGreaterThan(0);
+  });
+
+  it('[RATE-REAUTH-START] when a person starts more password confirmations than the limit, then the next is refused with 429', async () => {
+    const saml = await SamlTestDriver.create(signing.config);
+    const { agent } = await saml.signIn(signing.app, 'kiw-0201');
+    const csrf = await csrfTokenOf(agent);
+    await signing.database.dataSource.query("DELETE FROM rate_limit_window WHERE bucket LIKE 'reauthentication-start:%'");
+    const statuses: number[] = [];
+    for (let index = 0; index < 3; index += 1) {
+      statuses.push((await agent.post('/api/reauthentications').set('X-CSRF-Token', csrf).send({ purpose: 'sign a test record', bindingHash: 'a'.repeat(64) })).status);
+    }
+    expect(statuses).toEqual([201, 201, 429]);
   });
 });

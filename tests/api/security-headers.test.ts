@@ -10,7 +10,7 @@ function directives(header: string | undefined): Map<string, string[]> {
 
 describe('security headers and cookies', () => {
   const plain = createTestApp();
-  const behindTls = createTestApp({ PUBLIC_URL: 'https://ingotrace.example.test' });
+  const behindTls = createTestApp({ PUBLIC_URL: 'https://ingotrace.example.test', TRUST_PROXY: 'loopback' });
   afterAll(async () => {
     await plain.close();
     await behindTls.close();
@@ -37,9 +37,20 @@ describe('security headers and cookies', () => {
     const saml = await SamlTestDriver.create(behindTls.config);
     const agent = request.agent(behindTls.app);
     const login = await agent.get('/auth/login').set('X-Forwarded-Proto', 'https');
+    // The sign-in binding cookie comes back with the identity provider's cross-site POST only as SameSite=None, hence Secure.
+    const binding = ([] as string[]).concat(login.headers['set-cookie'] ?? []).find((line) => line.startsWith('ingotrace_signin='));
+    expect(binding).toMatch(/;\s*Secure/i);
+    expect(binding).toMatch(/;\s*HttpOnly/i);
+    expect(binding).toMatch(/;\s*SameSite=None/i);
     const { query } = SamlTestDriver.authnRequestFrom(login.headers.location);
     const answer = await saml.answerAtIdentityProvider(saml.idpAgent(), query, person('kiw-0401'));
-    const acs = await agent.post('/auth/saml/acs').set('X-Forwarded-Proto', 'https').type('form').send({ SAMLResponse: answer.samlResponse, RelayState: answer.relayState });
+    // The test agent does not send Secure cookies over its plain connection to the app; the browser behind TLS would.
+    const acs = await agent
+      .post('/auth/saml/acs')
+      .set('X-Forwarded-Proto', 'https')
+      .set('Cookie', binding!.split(';')[0]!)
+      .type('form')
+      .send({ SAMLResponse: answer.samlResponse, RelayState: answer.relayState });
     expect(acs.status).toBe(303);
     const cookie = ([] as string[]).concat(acs.headers['set-cookie'] ?? []).find((line) => line.startsWith('ingotrace_session='));
     expect(cookie).toMatch(/;\s*Secure/i);

@@ -25,6 +25,11 @@ test('[E2E-LEDGER] an auditor filters the ledger, runs the verification and sign
   await expect(table.getByRole('row').nth(1)).toContainText('person.provisioned');
   await page.screenshot({ path: 'test-results/audit-history.png', fullPage: true });
 
+  // The verifiable bundle downloads through a POST that carries the CSRF token.
+  const download = page.waitForEvent('download');
+  await page.getByRole('button', { name: 'Export verifiable bundle' }).click();
+  expect((await download).suggestedFilename()).toMatch(/^ingotrace-ledger-export-\d+\.json$/);
+
   // Verify the chain.
   await page.getByRole('button', { name: 'Verify the chain' }).click();
   await expect(page.getByTestId('verification-result')).toContainText(/ledger verified: \d+ events, \d+ signatures, chain head \d+ [0-9a-f]{64}/);

@@ -15,7 +15,8 @@ export const configSchema = z.object({
   PUBLIC_URL: z.url().optional(),
   // Proxies whose X-Forwarded-For the app believes (Express "trust proxy": loopback, a subnet
   // such as 10.0.0.0/8, or addresses, comma-separated); sign-in limits count per client address.
-  TRUST_PROXY: z.string().trim().min(1).default('loopback'),
+  // Unset, no proxy is believed: a local process cannot choose the address a limit counts.
+  TRUST_PROXY: z.string().trim().optional(),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
 
   DATA_DIR: z.string().min(1).default('.data/dev'),
@@ -98,6 +99,10 @@ export function loadConfig(source: Record<string, string | undefined> = process.
   }
   const config = parsed.data;
   const publicUrl = (config.PUBLIC_URL ?? `http://${config.HOST}:${config.PORT}`).replace(/\/$/, '');
+  const exampleSecrets = (['SESSION_SECRET', 'DB_PASSWORD', 'DB_MIGRATION_PASSWORD'] as const).filter((key) => config[key] === configSchema.shape[key].parse(undefined));
+  if (publicUrl.startsWith('https:') && exampleSecrets.length) {
+    throw new ConfigError(`Invalid configuration:\n${exampleSecrets.map((key) => `  ${key}: still the example value; set your own before serving ${publicUrl}`).join('\n')}`);
+  }
   const idpBase = `http://127.0.0.1:${config.IDP_PORT}`;
   let roleMap = defaultRoleMap;
   if (config.SAML_ROLE_MAP) {
@@ -148,6 +153,10 @@ export function testProfileEnvironment(
     MAIL_WEB_PORT: '1081',
     IDP_PORT: '7010',
     LOG_LEVEL: 'warn',
+    // Not the example values: the suites also run the app as if served over https, which refuses those.
+    SESSION_SECRET: 'test-profile-session-secret',
+    DB_PASSWORD: 'test-profile-app-password',
+    DB_MIGRATION_PASSWORD: 'test-profile-migration-password',
     // The suites sign in hundreds of times from one address; the limits have their own test.
     SIGN_IN_ATTEMPTS_PER_15_MIN: '100000',
     SIGNING_ATTEMPTS_PER_15_MIN: '100000',

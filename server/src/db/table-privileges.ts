@@ -69,9 +69,9 @@ export function accountsSql(accounts: DatabaseAccounts): string {
       statements.push(`ALTER USER ${account} IDENTIFIED BY ${sqlString(password)};`);
     }
     statements.push(`GRANT ALL PRIVILEGES ON ${db}.* TO ${sqlString(accounts.migrationUser)}@${sqlString(host)};`);
-    // RELOAD (FLUSH, nothing that reads or changes data) lets the app clear a table that a
-    // Galera node holds with unreadable triggers after a certification conflict (see transaction.ts).
-    statements.push(`GRANT RELOAD ON *.* TO ${sqlString(accounts.appUser)}@${sqlString(host)};`);
+    // The app account holds no global privilege: a RELOAD it once held (to clear a cluster node's
+    // table) also let it take a global read lock. Installations bootstrapped with it lose it here.
+    statements.push(`REVOKE RELOAD ON *.* FROM ${sqlString(accounts.appUser)}@${sqlString(host)};`);
   }
   return statements.join('\n');
 }

@@ -5,7 +5,7 @@ import { connectionLost, retryDelay, tableWithUnreadableTriggers, transientKind 
 /**
  * Runs work in one transaction and repeats the whole transaction after a conflict (deadlock,
  * lock-wait time-out, Galera certification conflict) or while the database is briefly
- * unavailable. A connection lost while COMMIT was on its way is not repeated: the change may or
+ * unavailable (including a cluster node whose table triggers are briefly unreadable). A connection lost while COMMIT was on its way is not repeated: the change may or
  * may not have been saved, and saving it twice would be worse than saying so.
  */
 export async function inTransaction<T>(dataSource: DataSource, work: (manager: EntityManager) => Promise<T>): Promise<T> {
@@ -28,14 +28,11 @@ export async function inTransaction<T>(dataSource: DataSource, work: (manager: E
           'The connection to the database was lost while this change was being committed; look whether it was saved before repeating it',
         );
       }
-      const brokenTable = tableWithUnreadableTriggers(error);
-      if (brokenTable !== null) {
-        // Clear this node's copy of the table ('' names none: clear all), then go again.
-        const target = brokenTable ? `\`${brokenTable}\`` : '';
-        await runner.query(`SET STATEMENT lock_wait_timeout = 5 FOR FLUSH LOCAL TABLES ${target}`).catch(() => undefined);
-        process.emitWarning(`cleared table ${brokenTable || '(all tables)'} on its database node, whose copy had unreadable triggers`, 'DatabaseNodeWarning');
-      }
-      const delay = retryDelay(brokenTable !== null ? 'conflict' : transientKind(error), attempt, Date.now() - started);
+      // A Galera node can keep a table's triggers unreadable for some seconds after a certification
+      // conflict; the app holds no RELOAD to clear it, so it waits as for a briefly unavailable database.
+      const brokenTriggers = tableWithUnreadableTriggers(error) !== null;
+      if (brokenTriggers) process.emitWarning('a database node reports a table with unreadable triggers; waiting for it to clear', 'DatabaseNodeWarning');
+      const delay = retryDelay(brokenTriggers ? 'unavailable' : transientKind(error), attempt, Date.now() - started);
       if (delay === null) throw error;
       await new Promise((done) => setTimeout(done, delay));
     } finally {

@@ -5,6 +5,7 @@ import { reauthenticationIdSchema, reauthenticationStartSchema, type Reauthentic
 import type { AppContext } from '../../app-context';
 import { currentPerson, requireSignedIn } from '../../middleware/access';
 import { validate } from '../../middleware/validate';
+import { limitRate } from '../../middleware/rate-limits';
 import { reauthenticationStatus, startReauthentication } from './reauthentication.service';
 
 /** The signed-in person, their permitted actions and CSRF token; and starting a re-authentication. */
@@ -25,7 +26,17 @@ export function meRouter(context: AppContext, generateCsrfToken: (req: Request) 
     res.set('Cache-Control', 'no-store').json(body);
   });
 
-  router.post('/reauthentications', requireSignedIn(), validate({ body: reauthenticationStartSchema }), async (req, res) => {
+  // Each re-authentication opens a password prompt at the identity provider: counted per person.
+  const starts = limitRate({
+    name: 'reauthentication-start',
+    limit: context.config.SIGNING_ATTEMPTS_PER_15_MIN,
+    connect: () => context.database.connect(),
+    key: 'person',
+    message: (minutes) => `Too many password confirmations begun in a short time; try again in ${minutes} minute${minutes === 1 ? '' : 's'}`,
+    answer: 'json',
+  });
+
+  router.post('/reauthentications', requireSignedIn(), starts, validate({ body: reauthenticationStartSchema }), async (req, res) => {
     const start = res.locals.valid.body as ReauthenticationStart;
     res.status(201).json(await startReauthentication(context.database.dataSource, currentPerson(req)!, start));
   });

@@ -63,7 +63,8 @@ export function auditRouter(context: AppContext): Router {
       .send(`\uFEFF${stringify([header, ...rows])}`);
   });
 
-  router.get('/audit/export', requireAction('audit.read'), async (req, res) => {
+  // A POST: the export is recorded in the audit trail, so it changes state and carries the CSRF token.
+  router.post('/audit/export', requireAction('audit.read'), async (req, res) => {
     const bundle = await exportLedger(dataSource());
     await inTransaction(dataSource(), (manager) =>
       appendLedgerEvent(manager, { actor: actorOf(req, 'audit.read'), action: 'audit.exported', entity: { type: 'audit-ledger', id: null }, after: { format: 'bundle', chainHead: bundle.chainHead }, origin: originOf(req) }),

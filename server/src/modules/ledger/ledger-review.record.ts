@@ -10,6 +10,7 @@ export const ledgerReviewRecordType: SignableRecordType = {
   type: 'ledger-review',
   label: 'audit-trail review',
   action: 'audit.read',
+  readAction: 'audit.read',
   meanings: ['reviewed'],
   async load(manager, recordId) {
     if (!/^\d{1,18}$/.test(recordId)) return null;

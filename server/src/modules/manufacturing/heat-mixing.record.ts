@@ -20,6 +20,7 @@ export const heatMixingRecordType: SignableRecordType = {
   type: 'heat-mixing',
   label: 'heat mixing approval',
   action: 'heat-mixing.approve',
+  readAction: 'lots.read',
   meanings: ['approved', 'withdrawn'],
   async load(manager, recordId) {
     const match = /^(\d{1,10})-(\d{1,10})$/.exec(recordId);

@@ -63,6 +63,7 @@ export const nonconformanceRecordType: SignableRecordType = {
   type: 'nonconformance',
   label: 'nonconformance',
   action: 'nonconformances.disposition',
+  readAction: 'lots.read',
   meanings: ['dispositioned', 'closed'],
   async load(manager, recordId) {
     if (!/^\d{1,10}$/.test(recordId)) return null;

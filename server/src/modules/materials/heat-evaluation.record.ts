@@ -51,6 +51,7 @@ export const heatEvaluationRecordType: SignableRecordType = {
   type: 'heat-evaluation',
   label: 'heat evaluation justification',
   action: 'materials.justify',
+  readAction: 'materials.read',
   meanings: ['justified', 'withdrawn'],
   async load(manager, recordId) {
     if (!/^\d{1,10}$/.test(recordId)) return null;

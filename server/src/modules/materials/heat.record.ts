@@ -18,6 +18,7 @@ export const heatRecordType: SignableRecordType = {
   type: 'heat',
   label: 'heat disposition',
   action: 'materials.disposition',
+  readAction: 'materials.read',
   meanings: ['accepted', 'rejected', 'quarantined'],
   async load(manager, recordId) {
     if (!/^\d{1,10}$/.test(recordId)) return null;

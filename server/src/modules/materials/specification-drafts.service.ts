@@ -122,6 +122,7 @@ export const specificationDraftRecordType: SignableRecordType = {
   type: 'specification-draft',
   label: 'specification revision',
   action: 'specifications.approve',
+  readAction: 'materials.read',
   meanings: ['approved', 'rejected'],
   async load(manager, recordId) {
     if (!/^\d{1,10}$/.test(recordId)) return null;

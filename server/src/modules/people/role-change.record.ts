@@ -16,6 +16,7 @@ export const roleChangeRecordType: SignableRecordType = {
   type: 'role-change',
   label: 'role change',
   action: 'people.manage',
+  readAction: 'people.read',
   meanings: ['confirmed', 'rejected'],
   async load(manager, recordId) {
     if (!/^\d{1,10}$/.test(recordId)) return null;

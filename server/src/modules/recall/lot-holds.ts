@@ -91,6 +91,7 @@ export const lotHoldRecordType: SignableRecordType = {
   type: 'lot-hold',
   label: 'lot hold',
   action: 'holds.lift',
+  readAction: 'lots.read',
   meanings: ['lifted'],
   async load(manager, recordId) {
     if (!/^\d{1,10}$/.test(recordId)) return null;

@@ -12,6 +12,7 @@ export const recallInvestigationRecordType: SignableRecordType = {
   type: 'recall-investigation',
   label: 'recall investigation',
   action: 'recall.close',
+  readAction: 'recall.read',
   meanings: ['closed'],
   async load(manager, recordId) {
     if (!/^\d{1,10}$/.test(recordId)) return null;

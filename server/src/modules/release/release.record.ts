@@ -19,6 +19,7 @@ export const lotReleaseRecordType: SignableRecordType = {
   type: 'lot-release',
   label: 'lot release',
   action: 'release.review',
+  readAction: 'release.read',
   actionFor: (meaning: SignatureMeaning) => actions[meaning as keyof typeof actions] ?? 'release.approve',
   meanings: ['reviewed', 'approved-for-release', 'rejected'],
   async load(manager, recordId) {

@@ -19,6 +19,8 @@ export interface SignableRecordType {
   label: string;
   /** The action a signer's roles must allow. */
   action: Action;
+  /** The action a person's roles must allow to see the record's signatures. */
+  readAction: Action;
   /** When meanings belong to different roles (reviewed, approved for release): the action per meaning. */
   actionFor?(meaning: SignatureMeaning): Action;
   meanings: readonly SignatureMeaning[];

@@ -5,6 +5,9 @@ import { currentPerson, originOf, requireSignedIn } from '../../middleware/acces
 import { validate } from '../../middleware/validate';
 import { limitRate } from '../../middleware/rate-limits';
 import { listSignatures, prepareSignature, signRecord } from './signatures.service';
+import { signableRecordType } from './signable-records';
+import { rolesAllow } from '@shared/auth/permissions';
+import { AppError } from '../../errors';
 
 /** Signing is open to every signed-in person; each record type then checks the signer's roles. */
 export function signaturesRouter(context: AppContext): Router {
@@ -28,8 +31,12 @@ export function signaturesRouter(context: AppContext): Router {
     res.status(201).json(await signRecord(dataSource(), currentPerson(req)!, res.locals.valid.body as SignatureRequest, originOf(req)));
   });
 
-  router.get('/signatures', requireSignedIn(), validate({ query: signatureListQuerySchema }), async (_req, res) => {
+  router.get('/signatures', requireSignedIn(), validate({ query: signatureListQuerySchema }), async (req, res) => {
     const { recordType, recordId } = res.locals.valid.query as { recordType: string; recordId?: string };
+    // Signatures are read with the right to read the record they sign, not by anyone signed in.
+    const type = signableRecordType(recordType);
+    if (!type) throw new AppError('NOT_FOUND', `Records of type ${recordType} are not signed`);
+    if (!rolesAllow(currentPerson(req)!.roles, type.readAction)) throw new AppError('FORBIDDEN', `Your roles do not allow reading ${type.label} signatures`);
     res.json(await listSignatures(dataSource(), recordType, recordId));
   });
 

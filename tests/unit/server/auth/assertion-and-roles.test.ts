@@ -23,6 +23,7 @@ describe('assertion facts', () => {
     expect(facts).toEqual({
       responseIssuer: 'http://idp/metadata',
       destination: 'http://app/auth/saml/acs',
+      inResponseTo: '_req1',
       assertionId: '_assertion1',
       assertionIssuer: 'http://idp/metadata',
       recipients: ['http://app/auth/saml/acs'],
