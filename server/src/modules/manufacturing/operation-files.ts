@@ -35,7 +35,7 @@ export async function inspectMeasurementFile(bytes: Buffer, originalName: string
       file: 'Attach measurements as PDF, PNG, JPEG, CSV or text',
     });
   }
-  if (mediaType === 'application/pdf') refusePdfWithActiveContent(bytes, 'file');
+  if (mediaType === 'application/pdf') await refusePdfWithActiveContent(bytes, 'file');
   return { mediaType, sha256: createHash('sha256').update(bytes).digest('hex'), name };
 }
 

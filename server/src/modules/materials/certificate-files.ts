@@ -20,7 +20,7 @@ export async function inspectCertificateFile(bytes: Buffer, originalName: string
       certificate: 'Upload the certificate as PDF, PNG or JPEG',
     });
   }
-  if (detected.mime === 'application/pdf') refusePdfWithActiveContent(bytes, 'certificate');
+  if (detected.mime === 'application/pdf') await refusePdfWithActiveContent(bytes, 'certificate');
   const name = safeFileName(originalName, 'certificate');
   return { mediaType: detected.mime, sha256: createHash('sha256').update(bytes).digest('hex'), name };
 }
