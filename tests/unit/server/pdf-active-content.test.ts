@@ -48,7 +48,7 @@ function lzw(data: Buffer): Buffer {
 /** An object stream holding one object, number `number`, written as the filters' chain asks (last filter applied first). */
 function objectStream(number: number, object: string, filters: Array<'hex' | 'a85' | 'lzw' | 'flate'>): Buffer {
   const header = `${number} 0 `;
-  let data = Buffer.from(`${header}${object}`, 'latin1');
+  let data: Buffer = Buffer.from(`${header}${object}`, 'latin1');
   for (const filter of [...filters].reverse()) data = filter === 'hex' ? asciiHex(data) : filter === 'a85' ? ascii85(data) : filter === 'lzw' ? lzw(data) : deflateSync(data);
   const names = { hex: '/ASCIIHexDecode', a85: '/ASCII85Decode', lzw: '/LZWDecode', flate: '/FlateDecode' };
   return streamOf(data, `/Type /ObjStm /N 1 /First ${header.length} /Filter [${filters.map((filter) => names[filter]).join(' ')}]`);
