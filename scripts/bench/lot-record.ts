@@ -12,6 +12,7 @@ import { seedDemoScenario } from '../seed/demo-scenario';
 import { seedDemoMaterials } from '../seed/demo-materials';
 import { seedDemoManufacturing } from '../seed/demo-manufacturing';
 import { seedDemoRelease } from '../seed/demo-release';
+import { checkpointTriggers } from '../../server/src/modules/ledger/ledger-checkpoints';
 import { receiveBar } from '../../server/src/modules/materials/bar-stock.service';
 import { packetData, renderReleasePacket } from '../../server/src/modules/release/release-packet';
 
@@ -36,6 +37,7 @@ async function main(): Promise<void> {
   try {
     log('seeding the demo scenario…');
     const seedStarted = performance.now();
+    checkpointTriggers.onRelease = false;
     await seedDemoScenario(dataSource, config.roleMap);
     await seedDemoMaterials(dataSource);
     await seedDemoManufacturing(dataSource);

@@ -13,6 +13,7 @@ import { createDataSource } from '../../server/src/db/connection-options';
 import { accountsSql, sqlString } from '../../server/src/db/table-privileges';
 import { verifyLedger } from '../../server/src/modules/ledger/ledger-verification';
 import { accountsFor, applyAppGrants } from './bootstrap-database';
+import { readWitnessFile, witnessFilePath } from '../../server/src/modules/ledger/ledger-checkpoints';
 import type { MariadbServer } from './mariadb';
 
 /** Tables that hold working state rather than records (sessions, sign-in handshakes); their rows may differ. */
@@ -169,7 +170,8 @@ export async function restoreDatabase(server: MariadbServer, config: AppConfig, 
   const restored = createDataSource(target, 'app');
   await restored.initialize();
   try {
-    const verification = await verifyLedger(restored.manager);
+    // Checkpoints of the target's own ledger: a restore over a ledger checkpointed after the backup is reported as cut off.
+    const verification = await verifyLedger(restored.manager, { checkpoints: readWitnessFile(witnessFilePath(target)) });
     const differences = compareContent(manifest, await readContent(restored));
     if (!verification.ok) differences.unshift(`ledger: ${verification.summary}`);
     return { differences, ledger: verification.summary };

@@ -1,3 +1,5 @@
+import { rmSync } from 'node:fs';
+import { witnessFilePath } from '../../server/src/modules/ledger/ledger-checkpoints';
 import type { AppConfig } from '../../server/src/config/env';
 import { accountsSql, appGrantsSql, type DatabaseAccounts } from '../../server/src/db/table-privileges';
 import { MariadbServer } from './mariadb';
@@ -42,6 +44,8 @@ export async function bootstrapDatabase(config: AppConfig, options: BootstrapOpt
     if (options.reset) {
       log(`dropping database ${config.DB_NAME} to rebuild it`);
       await server.adminSql(`DROP DATABASE IF EXISTS \`${config.DB_NAME}\`;`);
+      // The dropped ledger's checkpoints witness a ledger that no longer exists.
+      rmSync(witnessFilePath(config), { force: true });
     }
     await server.adminSql(accountsSql(accounts));
     const ran = await runMigrations(config);

@@ -22,6 +22,7 @@ import { digitalLinkRouter } from './modules/trace/digital-link.router';
 import { traceRouter } from './modules/trace/trace.router';
 import { recallRouter } from './modules/recall/recall.router';
 import { startMailWorker } from './modules/mail/mail-outbox';
+import { startDailyCheckpoints } from './modules/ledger/ledger-checkpoints';
 import { configureLinks } from './modules/mail/links';
 import { registerProductRecordTypes } from './modules/signable-record-types';
 
@@ -30,6 +31,8 @@ export interface AppOptions {
   clientDir?: string;
   /** Deliver queued e-mail in the background (default); tests of the outbox itself turn it off. */
   mailWorker?: boolean;
+  /** Checkpoint the audit ledger daily (default, except in the test profile, whose suites checkpoint when they mean to). */
+  dailyCheckpoints?: boolean;
 }
 
 export type IngotraceApp = Express & { shutdown(): Promise<void> };
@@ -109,9 +112,14 @@ export function createApp(context: AppContext, options: AppOptions = {}): Ingotr
   app.use(apiNotFound);
   app.use(errorHandler);
   const stopMailWorker = options.mailWorker === false ? () => undefined : startMailWorker(context.config, () => context.database.dataSource, context.logger);
+  const stopCheckpoints =
+    (options.dailyCheckpoints ?? context.config.NODE_ENV !== 'test')
+      ? startDailyCheckpoints(context.config, () => context.database.dataSource, (error) => context.logger.error({ err: error }, 'the daily audit ledger checkpoint failed'))
+      : () => undefined;
   return Object.assign(app, {
     shutdown: async () => {
       stopMailWorker();
+      stopCheckpoints();
       await authentication.close();
     },
   });

@@ -43,6 +43,10 @@ export const verificationSchema = z.object({
   ok: z.boolean(),
   events: z.number().int(),
   signatures: z.number().int(),
+  /** Events signed with the ledger's key, that key's id, and the checkpoints held by the witness file. */
+  signedEvents: z.number().int(),
+  keyId: z.string(),
+  checkpoints: z.number().int(),
   chainHead: z.object({ seq: z.number().int(), hash: z.string() }),
   firstBroken: z.object({ seq: z.number().int(), why: z.string() }).nullable(),
   signatureProblems: z.array(z.object({ id: z.number().int(), why: z.string() })),

@@ -6,6 +6,8 @@ import { createDataSource } from '../db/connection-options';
 import { inTransaction } from '../db/transaction';
 import { appendLedgerEvent } from '../modules/ledger/ledger.repository';
 import { exportLedger, verifyLedger, verifyLedgerExport } from '../modules/ledger/ledger-verification';
+import { checkpointLedger, readWitnessFile, witnessFilePath } from '../modules/ledger/ledger-checkpoints';
+import { installationPublicKey } from '../modules/ledger/ledger-signing-key';
 import { CliExit } from './cli-exit';
 
 
@@ -30,22 +32,53 @@ export function auditCommand(): Command {
 
   audit
     .command('verify')
-    .description('recompute every hash of the ledger (and every signature), or of an export file with --file; exit 1 naming the first broken event')
+    .description(
+      "recompute every hash of the ledger, check every event's Ed25519 signature and every checkpoint with the public key alone (and every electronic signature), or of an export file with --file; exit 1 naming the first broken event",
+    )
     .option('--file <path>', 'verify an export file offline, without a database')
-    .action(async (options: { file?: string }) => {
+    .option('--public-key <path>', "the firm's published ledger public key (PEM); by default this installation's")
+    .option('--witness <path>', 'the checkpoints file (one JSON checkpoint a line); by default this installation\'s')
+    .action(async (options: { file?: string; publicKey?: string; witness?: string }) => {
+      loadDotEnv();
+      const readOrExit = (path: string) => {
+        try {
+          return readFileSync(path, 'utf8');
+        } catch (error) {
+          throw new CliExit(2, `cannot read ${path}: ${error instanceof Error ? error.message : String(error)}`);
+        }
+      };
+      const config = loadConfig();
+      const checkpoints = readWitnessFile(options.witness ?? witnessFilePath(config));
       if (options.file) {
         let bundle: unknown;
         try {
-          bundle = JSON.parse(readFileSync(options.file, 'utf8'));
+          bundle = JSON.parse(readOrExit(options.file));
         } catch (error) {
+          if (error instanceof CliExit) throw error;
           throw new CliExit(2, `cannot read ${options.file}: ${error instanceof Error ? error.message : String(error)}`);
         }
-        const result = verifyLedgerExport(bundle);
+        // A file is checked against the installation's (or the given) key when there is one, else against its own key, saying so.
+        let publicKeyPem: string | null = options.publicKey ? readOrExit(options.publicKey) : null;
+        if (!publicKeyPem) {
+          try {
+            publicKeyPem = installationPublicKey(config);
+          } catch {
+            publicKeyPem = null;
+          }
+        }
+        const result = verifyLedgerExport(bundle, { publicKeyPem, checkpoints: options.witness || publicKeyPem ? checkpoints : [] });
         if (!result.ok) throw new CliExit(1, result.summary);
         process.stdout.write(`${result.summary}\n`);
         return;
       }
-      const result = await withDatabase((dataSource) => verifyLedger(dataSource.manager));
+      let publicKeyPem: string;
+      try {
+        publicKeyPem = options.publicKey ? readOrExit(options.publicKey) : installationPublicKey(config);
+      } catch (error) {
+        if (error instanceof CliExit) throw error;
+        throw new CliExit(2, error instanceof Error ? error.message : String(error));
+      }
+      const result = await withDatabase((dataSource) => verifyLedger(dataSource.manager, { publicKeyPem, checkpoints }));
       if (!result.ok) throw new CliExit(1, result.summary);
       process.stdout.write(`${result.summary} (${result.milliseconds} ms)\n`);
     });
@@ -65,6 +98,7 @@ export function auditCommand(): Command {
             after: { format: 'bundle', chainHead: exported.chainHead, file: options.out },
           }),
         );
+        await checkpointLedger(dataSource, loadConfig(), 'export');
         return exported;
       });
       try {

@@ -1,5 +1,7 @@
 import { Command } from 'commander';
+import { existsSync, readFileSync } from 'node:fs';
 import { loadConfig, loadDotEnv } from '../config/env';
+import { keyIdOf, ledgerKeyPath, publicKeyPathOf } from '../modules/ledger/ledger-signing-key';
 
 const secretKeys = new Set(['DB_PASSWORD', 'DB_MIGRATION_PASSWORD']);
 
@@ -13,6 +15,9 @@ export function configCommand(): Command {
       const shown = Object.fromEntries(
         Object.entries(config).map(([key, value]) => [key, secretKeys.has(key) ? '********' : value]),
       );
-      process.stdout.write(`${JSON.stringify(shown, null, 2)}\n`);
+      // The ledger's public key is published with the configuration (never the key itself).
+      const publicKeyFile = publicKeyPathOf(ledgerKeyPath(config));
+      const ledgerPublicKey = existsSync(publicKeyFile) ? { file: publicKeyFile, keyId: keyIdOf(readFileSync(publicKeyFile, 'utf8')) } : { file: publicKeyFile, keyId: null };
+      process.stdout.write(`${JSON.stringify({ ...shown, ledgerPublicKey }, null, 2)}\n`);
     });
 }

@@ -40,6 +40,11 @@ export const configSchema = z.object({
   SMTP_PORT: port.default(1025),
   MAIL_WEB_PORT: port.default(1080),
   MAIL_FROM: z.string().min(3).default('Ingotrace <ingotrace@localhost>'),
+  // Where the audit ledger's checkpoints are mailed (a witness outside the database): the quality mailbox.
+  QUALITY_MAILBOX: z.string().trim().regex(/^[^\s@<>]+@[^\s@<>]+$/, 'an e-mail address').default('quality-records@localhost'),
+  // The Ed25519 key that signs every audit ledger event; readable only by the app's user. Created
+  // at first use under DATA_DIR/keys unless set (a firm may keep it elsewhere, see the README).
+  LEDGER_KEY_FILE: z.string().min(1).optional(),
 
   // Sign-in through SAML 2.0. The defaults point at the local stand-in identity provider that
   // npm start runs; production sets the firm's identity provider here.

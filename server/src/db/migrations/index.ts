@@ -17,6 +17,7 @@ import { AddBarHeatMarking1764687600000 } from './1764687600000-add-bar-heat-mar
 import { AddCannotBeEvaluated1764694800000 } from './1764694800000-add-cannot-be-evaluated';
 import { AddContactCategoryAndMethodValidation1764698400000 } from './1764698400000-add-contact-category-and-method-validation';
 import { AddRoleChangeConfirmation1764702000000 } from './1764702000000-add-role-change-confirmation';
+import { AddLedgerSignatures1764705600000 } from './1764705600000-add-ledger-signatures';
 
 /** Every migration in the order it runs. Add new ones at the end. */
 export const migrations = [
@@ -39,4 +40,5 @@ export const migrations = [
   AddCannotBeEvaluated1764694800000,
   AddContactCategoryAndMethodValidation1764698400000,
   AddRoleChangeConfirmation1764702000000,
+  AddLedgerSignatures1764705600000,
 ];

@@ -7,6 +7,8 @@ import { actorOf, originOf, requireAction } from '../../middleware/access';
 import { validate } from '../../middleware/validate';
 import { distinctActions, findEvents, matchingEvents } from './ledger-events.repository';
 import { exportLedger, verifyLedger } from './ledger-verification';
+import { checkpointLedger, readWitnessFile, witnessFilePath } from './ledger-checkpoints';
+import { ledgerSigner } from './ledger-signing-key';
 import { appendLedgerEvent } from './ledger.repository';
 
 const CSV_LIMIT = 200_000;
@@ -26,8 +28,14 @@ export function auditRouter(context: AppContext): Router {
     res.json(await distinctActions(dataSource().manager));
   });
 
+  // The public key that verifies every event and checkpoint (also beside the key file and in every export).
+  router.get('/audit/public-key', requireAction('audit.read'), (_req, res) => {
+    const signer = ledgerSigner(context.config);
+    res.json({ keyId: signer.keyId, publicKey: signer.publicKeyPem });
+  });
+
   router.get('/audit/verification', requireAction('audit.read'), async (_req, res) => {
-    res.set('Cache-Control', 'no-store').json(await verifyLedger(dataSource().manager));
+    res.set('Cache-Control', 'no-store').json(await verifyLedger(dataSource().manager, { publicKeyPem: ledgerSigner(context.config).publicKeyPem, checkpoints: readWitnessFile(witnessFilePath(context.config)) }));
   });
 
   router.get('/audit/events.csv', requireAction('audit.read'), validate({ query: ledgerQuerySchema }), async (req, res) => {
@@ -69,6 +77,8 @@ export function auditRouter(context: AppContext): Router {
     await inTransaction(dataSource(), (manager) =>
       appendLedgerEvent(manager, { actor: actorOf(req, 'audit.read'), action: 'audit.exported', entity: { type: 'audit-ledger', id: null }, after: { format: 'bundle', chainHead: bundle.chainHead }, origin: originOf(req) }),
     );
+    // Every export is witnessed outside the database (mail to the quality mailbox and the checkpoints file).
+    await checkpointLedger(dataSource(), context.config, 'export');
     res.type('application/json').attachment(`ingotrace-ledger-export-${bundle.chainHead.seq}.json`).send(JSON.stringify(bundle));
   });
 

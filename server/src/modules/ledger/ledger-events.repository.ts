@@ -2,7 +2,7 @@ import type { EntityManager } from 'typeorm';
 import type { LedgerEventContent } from '@shared/domain/ledger-hash';
 import type { LedgerEvent, LedgerQuery } from '@shared/schemas/audit';
 
-interface EventRow {
+export interface EventRow {
   seq: string;
   occurred_at: Date;
   actor_id: number | null;
@@ -18,6 +18,8 @@ interface EventRow {
   client_address: string | null;
   previous_hash: string;
   hash: string;
+  signature: string | null;
+  key_id: string | null;
 }
 
 /** The hashed content of a stored event, rebuilt exactly as it was hashed when written. */

@@ -1,6 +1,7 @@
 import { createHash } from 'node:crypto';
 import type { EntityManager } from 'typeorm';
 import { canonicalJson, ledgerHashInput, type LedgerEventContent } from '@shared/domain/ledger-hash';
+import { ledgerSigner, type LedgerSigner } from './ledger-signing-key';
 
 export interface Actor {
   id: number | null;
@@ -28,13 +29,31 @@ export const sha256Hex = (text: string): string => createHash('sha256').update(t
 /**
  * Appends one event to the audit ledger inside the caller's transaction, so that the event and
  * the change it records commit or roll back together. The chain-head row lock serialises writers.
+ * Each event is signed (Ed25519) with the installation's ledger key; when the event before it is
+ * unsigned (written before signing began), a signed ledger.signing-started event comes first.
  */
 export async function appendLedgerEvent(manager: EntityManager, input: LedgerEventInput, now = new Date()): Promise<{ seq: number; hash: string }> {
   if (!manager.queryRunner?.isTransactionActive) throw new Error('ledger events are written inside the transaction of the change they record');
-  const [head] = (await manager.query('SELECT seq, hash FROM audit_chain_head WHERE id = 1 FOR UPDATE')) as Array<{ seq: string; hash: string }>;
+  const [head] = (await manager.query('SELECT seq, hash, signed FROM audit_chain_head WHERE id = 1 FOR UPDATE')) as Array<{ seq: string; hash: string; signed: number }>;
   if (!head) throw new Error('the audit chain head is missing; run the migrations');
+  const signer = ledgerSigner();
+  let previous = { seq: Number(head.seq), hash: head.hash };
+  if (previous.seq > 0 && !Number(head.signed)) {
+    previous = await insertSigned(manager, signer, previous, {
+      actor: { id: null, name: 'Ingotrace', role: null },
+      action: 'ledger.signing-started',
+      entity: { type: 'audit-ledger', id: null },
+      after: { unsignedThrough: previous.seq, keyId: signer.keyId, publicKey: signer.publicKeyPem },
+    }, now);
+  }
+  const written = await insertSigned(manager, signer, previous, input, now);
+  await manager.query('UPDATE audit_chain_head SET seq = ?, hash = ?, signed = 1 WHERE id = 1', [written.seq, written.hash]);
+  return written;
+}
+
+async function insertSigned(manager: EntityManager, signer: LedgerSigner, previous: { seq: number; hash: string }, input: LedgerEventInput, now: Date): Promise<{ seq: number; hash: string }> {
   const content: LedgerEventContent = {
-    seq: Number(head.seq) + 1,
+    seq: previous.seq + 1,
     occurredAt: now.toISOString(),
     actor: { id: input.actor.id, name: input.actor.name, role: input.actor.role },
     action: input.action,
@@ -45,11 +64,11 @@ export async function appendLedgerEvent(manager: EntityManager, input: LedgerEve
     requestId: input.origin?.requestId ?? null,
     clientAddress: input.origin?.clientAddress ?? null,
   };
-  const hash = sha256Hex(ledgerHashInput(head.hash, content));
+  const hash = sha256Hex(ledgerHashInput(previous.hash, content));
   await manager.query(
     `INSERT INTO audit_event (seq, occurred_at, actor_id, actor_name, actor_role, action, entity_type, entity_id,
-       before_json, after_json, reason, request_id, client_address, previous_hash, hash)
-     VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
+       before_json, after_json, reason, request_id, client_address, previous_hash, hash, signature, key_id)
+     VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
     [
       content.seq,
       now,
@@ -64,10 +83,11 @@ export async function appendLedgerEvent(manager: EntityManager, input: LedgerEve
       content.reason,
       content.requestId,
       content.clientAddress,
-      head.hash,
+      previous.hash,
       hash,
+      signer.signEvent(hash),
+      signer.keyId,
     ],
   );
-  await manager.query('UPDATE audit_chain_head SET seq = ?, hash = ? WHERE id = 1', [content.seq, hash]);
   return { seq: content.seq, hash };
 }

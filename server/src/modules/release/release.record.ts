@@ -1,5 +1,7 @@
 import type { SignatureMeaning } from '@shared/domain/signatures';
 import { contentHash } from '@shared/domain/signatures';
+import { checkpointLedger, checkpointTriggers } from '../ledger/ledger-checkpoints';
+import { loadConfig } from '../../config/env';
 import type { SignableRecordType } from '../signatures/signable-records';
 import { signaturesFor } from '../signatures/signatures.repository';
 import { appendLedgerEvent, sha256Hex } from '../ledger/ledger.repository';
@@ -22,6 +24,10 @@ export const lotReleaseRecordType: SignableRecordType = {
   readAction: 'release.read',
   actionFor: (meaning: SignatureMeaning) => actions[meaning as keyof typeof actions] ?? 'release.approve',
   meanings: ['reviewed', 'approved-for-release', 'rejected'],
+  // Every release is witnessed outside the database: the audit ledger is checkpointed once it commits.
+  async afterCommit(dataSource, { meaning }) {
+    if (meaning === 'approved-for-release' && checkpointTriggers.onRelease) await checkpointLedger(dataSource, loadConfig(), 'release');
+  },
   async load(manager, recordId) {
     if (!/^\d{1,10}$/.test(recordId)) return null;
     const [lot]: Array<{ id: number; lot_number: string; status: string }> = await manager.query('SELECT id, lot_number, status FROM production_lot WHERE id = ?', [Number(recordId)]);

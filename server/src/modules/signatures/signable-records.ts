@@ -1,4 +1,4 @@
-import type { EntityManager } from 'typeorm';
+import type { DataSource, EntityManager } from 'typeorm';
 import type { Action } from '@shared/auth/permissions';
 import type { SignatureMeaning } from '@shared/domain/signatures';
 import type { RequestOrigin } from '../ledger/ledger.repository';
@@ -34,6 +34,8 @@ export interface SignableRecordType {
   trailMark?(record: SignableContent, meaning: SignatureMeaning): { throughSeq: number; events: number } | undefined;
   /** Extra rules (separation of duties); returns the reason to refuse, or null. */
   refusal?(input: { signerId: number; meaning: SignatureMeaning; record: SignableContent; earlierSignatures: Array<{ signerId: number; meaning: SignatureMeaning }> }): string | null;
+  /** Work after the signature has committed (e.g. a release checkpoints the audit ledger); its failure does not undo the signature. */
+  afterCommit?(dataSource: DataSource, input: { recordId: string; meaning: SignatureMeaning }): Promise<void>;
   /** What the signature changes on the record (e.g. a heat's status), inside the signature's transaction. */
   afterSign?(manager: EntityManager, input: { recordId: string; meaning: SignatureMeaning; signerId: number; signerName: string; reason: string | null; signatureLedgerSeq: number; origin?: RequestOrigin }): Promise<void>;
 }

@@ -88,7 +88,7 @@ function toSignature(row: SignatureRow, currentHash: string | null): Signature {
  * must allow it; the signature and its ledger event are written in one transaction.
  */
 export async function signRecord(dataSource: DataSource, person: Person, request: SignatureRequest, origin: RequestOrigin): Promise<Signature> {
-  return inTransaction(dataSource, async (manager) => {
+  const signature = await inTransaction(dataSource, async (manager) => {
     const { type, record } = await loadSignable(manager, person, request);
     const hash = contentHash(record.content, sha256Hex);
     if (hash !== request.contentHash) throw AppError.rule('The record changed while you were signing; review it again and sign anew', { contentHash: 'Outdated' });
@@ -156,6 +156,8 @@ export async function signRecord(dataSource: DataSource, person: Person, request
     await type.afterSign?.(manager, { recordId: request.recordId, meaning: request.meaning, signerId: person.id, signerName: person.name, reason, signatureLedgerSeq: ledger.seq, origin });
     return toSignature({ ...row, id: String(id) }, hash);
   });
+  await signableRecordType(request.recordType)?.afterCommit?.(dataSource, { recordId: request.recordId, meaning: request.meaning });
+  return signature;
 }
 
 /**
