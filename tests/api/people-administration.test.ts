@@ -3,6 +3,12 @@ import { peoplePageSchema, roleChangeOutcomeSchema } from '@shared/schemas/peopl
 import { createTestApp } from '../helpers/test-app';
 import { csrfTokenOf, SamlTestDriver } from '../helpers/saml-round-trip';
 import { signThroughApi } from '../helpers/signing';
+import { spawnSync } from 'node:child_process';
+
+function ingotrace(...args: string[]) {
+  const result = spawnSync(process.execPath, ['bin/ingotrace.mjs', ...args], { encoding: 'utf8', env: process.env });
+  return { code: result.status, stdout: result.stdout, stderr: result.stderr };
+}
 
 describe('people administration', () => {
   const running = createTestApp();
@@ -110,6 +116,25 @@ describe('people administration', () => {
     const response = await askRoles(second, await idOf('kiw-0601'), ['administrator', 'qa-approver'], 'Extra approver for the audit');
     expect(response.status).toBe(422);
     expect(response.body.error.fields).toEqual({ roles: 'Administrator and QA approver cannot be held together (organisation setting)' });
+  });
+
+  it('[PEOPLE-ADMIN-APPROVER-SETTING] when the organisation allows administrators to approve, then such a change may be asked; turned off again, its confirmation is refused', async () => {
+    expect(ingotrace('organisation', 'administrators-may-approve', 'maybe', '--reason', 'x').code).toBe(2);
+    const on = ingotrace('organisation', 'administrators-may-approve', 'yes', '--reason', 'Two-person site during the audit week');
+    expect(on.stdout).toBe('administrators may now also be QA approvers\n');
+    expect((await lastEvent('organisation.setting-changed')).reason).toBe('Two-person site during the audit week');
+    expect((await admin.get('/api/people/settings')).body.administratorsMayApprove).toBe(true);
+    const asked = await askRoles(second, await idOf('kiw-0601'), ['administrator', 'qa-approver'], 'Extra approver for the audit');
+    expect(asked.status).toBe(202);
+    try {
+      expect(ingotrace('organisation', 'administrators-may-approve', 'no', '--reason', 'Audit week over').code).toBe(0);
+      const confirm = await signThroughApi(saml, first, { recordType: 'role-change', recordId: String(asked.body.pending.id), meaning: 'confirmed' });
+      // Henrik is the person concerned (an author), and the combination is refused again besides.
+      expect(confirm.status).toBe(422);
+    } finally {
+      await signThroughApi(saml, second, { recordType: 'role-change', recordId: String(asked.body.pending.id), meaning: 'rejected' }, 'Setting turned off');
+    }
+    expect((await admin.get('/api/people/settings')).body).toMatchObject({ administratorsMayApprove: false, pendingRoleChanges: [] });
   });
 
   it('when an administrator withdraws a signing role the identity provider grants, then once confirmed it stays withdrawn at the next sign-in', async () => {

@@ -2,29 +2,14 @@ import { Command } from 'commander';
 import { readFileSync, writeFileSync } from 'node:fs';
 import { userInfo } from 'node:os';
 import { loadConfig, loadDotEnv } from '../config/env';
-import { createDataSource } from '../db/connection-options';
 import { inTransaction } from '../db/transaction';
 import { appendLedgerEvent } from '../modules/ledger/ledger.repository';
 import { exportLedger, verifyLedger, verifyLedgerExport } from '../modules/ledger/ledger-verification';
 import { checkpointLedger, readWitnessFile, witnessFilePath } from '../modules/ledger/ledger-checkpoints';
 import { installationPublicKey } from '../modules/ledger/ledger-signing-key';
 import { CliExit } from './cli-exit';
+import { withDatabase } from './cli-database';
 
-
-async function withDatabase<T>(work: (dataSource: ReturnType<typeof createDataSource>) => Promise<T>): Promise<T> {
-  loadDotEnv();
-  const dataSource = createDataSource(loadConfig(), 'app');
-  try {
-    await dataSource.initialize();
-  } catch (error) {
-    throw new CliExit(2, `cannot reach the database: ${error instanceof Error ? error.message : String(error)}`);
-  }
-  try {
-    return await work(dataSource);
-  } finally {
-    await dataSource.destroy();
-  }
-}
 
 /** `ingotrace audit verify [--file F]` and `ingotrace audit export --out F`. */
 export function auditCommand(): Command {

@@ -5,6 +5,7 @@ import { CliExit } from './cli-exit';
 import { evaluateCommand } from './evaluate.command';
 import { configCommand } from './config.command';
 import { gs1Command } from './gs1.command';
+import { organisationCommand } from './organisation.command';
 
 /** Builds the ingotrace command-line program; later features add their commands here. */
 export function buildProgram(): Command {
@@ -17,6 +18,7 @@ export function buildProgram(): Command {
   program.addCommand(auditCommand());
   program.addCommand(evaluateCommand());
   program.addCommand(gs1Command());
+  program.addCommand(organisationCommand());
   return program;
 }
 

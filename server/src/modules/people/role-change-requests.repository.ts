@@ -64,3 +64,18 @@ export async function administratorsMayApprove(manager: EntityManager): Promise<
   const [row]: Array<{ administrators_may_approve: number }> = await manager.query('SELECT administrators_may_approve FROM organisation ORDER BY id LIMIT 1');
   return Boolean(row?.administrators_may_approve);
 }
+
+export async function setAdministratorsMayApprove(manager: EntityManager, allowed: boolean): Promise<void> {
+  await manager.query('UPDATE organisation SET administrators_may_approve = ?', [allowed ? 1 : 0]);
+}
+
+/** Names of people who hold Administrator and QA approver together (granted and not withdrawn). */
+export async function peopleHoldingBoth(manager: EntityManager): Promise<string[]> {
+  const rows: Array<{ name: string }> = await manager.query(
+    `SELECT p.name FROM person p
+      WHERE (SELECT COUNT(DISTINCT r.role) FROM person_role r WHERE r.person_id = p.id AND r.role IN ('administrator', 'qa-approver')
+              AND NOT EXISTS (SELECT 1 FROM person_role_withdrawal w WHERE w.person_id = p.id AND w.role = r.role)) = 2
+      ORDER BY p.name`,
+  );
+  return rows.map((row) => row.name);
+}
