@@ -30,6 +30,10 @@ export function reauthenticationStatus(id: string) {
   return apiRequest(`/reauthentications/${id}`, reauthenticationStatusSchema);
 }
 
+export function cancelReauthentication(id: string) {
+  return apiRequest(`/reauthentications/${id}/cancel`, reauthenticationStatusSchema, { method: 'POST' });
+}
+
 export function submitSignature(request: SignatureRequest) {
   return apiRequest('/signatures', signatureSchema, { method: 'POST', body: request });
 }

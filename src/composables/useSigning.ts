@@ -2,12 +2,15 @@ import { ref } from 'vue';
 import { useQueryClient } from '@tanstack/vue-query';
 import type { Signature, SignatureIntent, SignaturePreparation } from '@shared/schemas/signatures';
 import { isApiError } from '../api/http';
-import { prepareSignature, reauthenticationStatus, signatureKeys, startReauthentication, submitSignature } from '../api/signatures';
+import { cancelReauthentication, prepareSignature, reauthenticationStatus, signatureKeys, startReauthentication, submitSignature } from '../api/signatures';
 
 export type SigningStep = 'loading' | 'review' | 'reauthenticating' | 'submitting' | 'signed' | 'failed';
 
 const POLL_MS = 800;
-const GIVE_UP_MS = 5 * 60_000;
+/** A little beyond the server's own five minutes for a pending re-authentication, which then reports it expired. */
+const GIVE_UP_MS = 6 * 60_000;
+
+class Cancelled extends Error {}
 
 /**
  * The signing sequence: show exactly what will be signed, have the identity provider ask for the
@@ -20,6 +23,8 @@ export function useSigning() {
   const error = ref<string | null>(null);
   const fieldErrors = ref<Record<string, string>>({});
   const signature = ref<Signature | null>(null);
+  let cancelled = false;
+  let current: { id: string; popup: Window | null } | null = null;
 
   async function prepare(intent: SignatureIntent) {
     step.value = 'loading';
@@ -33,19 +38,34 @@ export function useSigning() {
     }
   }
 
-  async function waitForReauthentication(id: string, popup: Window | null): Promise<void> {
+  /**
+   * Waits for the server's answer to the re-authentication. The window's own state is never
+   * consulted: once it shows the identity provider (another origin), the browser reports it as
+   * closed to this page, however long the person takes to type their password.
+   */
+  async function waitForReauthentication(id: string): Promise<void> {
     const deadline = Date.now() + GIVE_UP_MS;
-    let closedChecks = 0;
     while (Date.now() < deadline) {
       await new Promise((done) => setTimeout(done, POLL_MS));
+      if (cancelled) throw new Cancelled('You stopped the password confirmation; nothing was signed');
       const status = await reauthenticationStatus(id);
       if (status.status === 'confirmed') return;
       if (status.status !== 'pending') throw new Error(status.reason ?? `The re-authentication is ${status.status}`);
-      // The window closes itself once the identity provider has answered; give the answer a
-      // moment to be recorded before concluding that the person closed it.
-      if (popup && popup.closed && ++closedChecks > 3) throw new Error('The sign-in window was closed before you confirmed your password');
     }
     throw new Error('No password was entered in time; sign again');
+  }
+
+  /** Stops waiting for the password window: the server ends the re-authentication (not counted against the person) and the window is closed. */
+  async function cancel() {
+    cancelled = true;
+    const waiting = current;
+    if (!waiting) return;
+    try {
+      waiting.popup?.close();
+    } catch {
+      // A window on another origin may refuse; the server's answer decides anyway.
+    }
+    await cancelReauthentication(waiting.id).catch(() => undefined);
   }
 
   async function sign(reason: string) {
@@ -60,11 +80,13 @@ export function useSigning() {
     // Opened now, inside the click, so that the browser does not block it.
     const popup = window.open('about:blank', 'ingotrace-reauthentication', 'width=560,height=720');
     step.value = 'reauthenticating';
+    cancelled = false;
     try {
       const reauthentication = await startReauthentication(`${prepared.meaning}: ${prepared.title}`.slice(0, 300), prepared.bindingHash);
+      current = { id: reauthentication.id, popup };
       if (popup) popup.location.href = reauthentication.url;
       else window.open(reauthentication.url, 'ingotrace-reauthentication');
-      await waitForReauthentication(reauthentication.id, popup);
+      await waitForReauthentication(reauthentication.id);
       step.value = 'submitting';
       signature.value = await submitSignature({
         recordType: prepared.recordType,
@@ -78,12 +100,18 @@ export function useSigning() {
       step.value = 'signed';
       await queryClient.invalidateQueries({ queryKey: signatureKeys.type(prepared.recordType) });
     } catch (failure) {
-      if (popup && !popup.closed) popup.close();
+      try {
+        popup?.close();
+      } catch {
+        // see cancel()
+      }
       error.value = failure instanceof Error ? failure.message : String(failure);
       fieldErrors.value = isApiError(failure) ? failure.fields : {};
       step.value = 'review';
+    } finally {
+      current = null;
     }
   }
 
-  return { step, preparation, error, fieldErrors, signature, prepare, sign };
+  return { step, preparation, error, fieldErrors, signature, prepare, sign, cancel };
 }

@@ -42,7 +42,10 @@ describe('electronic signatures', () => {
 
   /** Prepares, re-authenticates as the signer and submits one signature on a person card. */
   async function signCard(signer: { agent: Awaited<ReturnType<typeof signedIn>>['agent']; csrf: string }, subject: string, recordId: string, meaning: string, extra: Record<string, unknown> = {}) {
-    const preparation = await prepare(signer.agent, signer.csrf, recordId, meaning);
+    // A refusal that does not depend on the password comes at preparation, before any password is asked.
+    const prepared = await signer.agent.post('/api/signatures/preparations').set('X-CSRF-Token', signer.csrf).send({ recordType: 'test-person-card', recordId, meaning });
+    if (prepared.status !== 200) return prepared;
+    const preparation = signaturePreparationSchema.parse(prepared.body);
     return signer.agent
       .post('/api/signatures')
       .set('X-CSRF-Token', signer.csrf)
@@ -120,6 +123,16 @@ describe('electronic signatures', () => {
     const response = await signCard(await signedIn('kiw-0201'), 'kiw-0201', 'kiw-0201', 'reviewed');
     expect(response.status).toBe(422);
     expect(response.body.error.message).toBe('You authored this record, so you cannot review it');
+  });
+
+  it('[SIG-REFUSE-BEFORE-PASSWORD] when a signature would be refused whatever the password, then the preparation says so and no password is asked', async () => {
+    const aisling = await signedIn('kiw-0201');
+    const reauthentications = async () => Number((await running.database.dataSource.query('SELECT COUNT(*) AS n FROM reauthentication'))[0].n);
+    const before = await reauthentications();
+    const prepared = await aisling.agent.post('/api/signatures/preparations').set('X-CSRF-Token', aisling.csrf).send({ recordType: 'test-person-card', recordId: 'kiw-0201', meaning: 'reviewed' });
+    expect(prepared.status).toBe(422);
+    expect(prepared.body.error).toMatchObject({ message: 'You authored this record, so you cannot review it', fields: { meaning: 'Separation of duties' } });
+    expect(await reauthentications()).toBe(before);
   });
 
   it('[SIG-SOD-REVIEWER] when the reviewer would also approve, then separation of duties refuses', async () => {

@@ -129,8 +129,9 @@ describe('lot release: readiness, submission, two signatures, shipment', () => {
     expect(dataMatrix[0]).toBe(buildBarcodeData({ gtin: '09521230000024', lot: lotNumber, serial: null, expiry: null, productionDate: null }));
     const resolved = await people.auditor!.agent.get(new URL(digitalLink).pathname);
     expect(resolved.status).toBe(302);
-    expect(resolved.headers.location).toBe(`/trace?q=${encodeURIComponent(`(01)09521230000024(10)${lotNumber}`)}`);
-    // The trace page it opens starts from exactly that lot.
+    // The QR opens the lot itself.
+    expect(resolved.headers.location).toBe(`/lots/${lots[0]}`);
+    // The same key traced back finds exactly that lot.
     const traced = await people.auditor!.agent.get(`/api/trace/backward?udi=${encodeURIComponent(`(01)09521230000024(10)${lotNumber}`)}`);
     expect(traced.body.lots.map((entry: { id: number }) => entry.id)).toEqual([lots[0]]);
     const anonymous = await request(running.app).get(new URL(digitalLink).pathname);

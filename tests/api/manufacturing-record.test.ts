@@ -53,7 +53,7 @@ describe('the manufacturing record: parts, lots, material, operations, runs, non
 
   beforeAll(async () => {
     saml = await SamlTestDriver.create(running.config);
-    Object.assign(people, await signInPeople(saml, running.app, { engineer: 'kiw-0102', reviewer: 'kiw-0201', approver: 'kiw-0301', auditor: 'kiw-0401' }));
+    Object.assign(people, await signInPeople(saml, running.app, { engineer: 'kiw-0102', reviewer: 'kiw-0201', approver: 'kiw-0301', auditor: 'kiw-0401', coordinator: 'kiw-0501' }));
     const db = await running.database.connect();
     // Two accepted F136 heats from the demo scenario; the test receives its own bar of each.
     const heats: Array<{ id: number; heat_number: string }> = await db.query("SELECT id, heat_number FROM heat WHERE status = 'accepted' AND spec_id = 'ASTM F136' ORDER BY id DESC LIMIT 2");
@@ -125,6 +125,34 @@ describe('the manufacturing record: parts, lots, material, operations, runs, non
     const refused = await post('engineer', `/api/lots/${lots[0]!.id}/material-issues`, { tag: 'TST-Q-01', lengthMm: '10' });
     expect(refused.status).toBe(422);
     expect(refused.body.error.message).toBe('Heat OB-55208 is quarantined, not accepted; its bar cannot be issued');
+  });
+
+  it('[LOT-ISSUE-HELD] when bar is under an open nonconformance or an open recall, then it is refused naming the record; a drill holds nothing', async () => {
+    const [heat] = await running.database.dataSource.query('SELECT h.id, h.heat_number FROM heat h JOIN bar_piece b ON b.heat_id = h.id WHERE b.tag = ?', [tags[0]]);
+    const receive = async (tag: string) => {
+      const received = await post('engineer', '/api/bar-pieces', { heatId: heat.id, markedHeatNumber: heat.heat_number, tag, diameterMm: '25.4', lengthMm: '500', location: 'Test rack' });
+      expect(received.status).toBe(201);
+      return received.body.id as number;
+    };
+    const issue = (tag: string) => post('engineer', `/api/lots/${lots[0]!.id}/material-issues`, { tag, lengthMm: '10' });
+    const flagged = await receive('TST-HOLD-NC');
+    const nc = await post('reviewer', '/api/nonconformances', { subjectType: 'bar-piece', subjectId: flagged, description: 'Surface crack found at receipt', containment: 'Tagged red in the rack' });
+    expect(nc.status).toBe(201);
+    const refusedNc = await issue('TST-HOLD-NC');
+    expect(refusedNc.status).toBe(422);
+    expect(refusedNc.body.error.message).toBe(`Bar TST-HOLD-NC of heat ${heat.heat_number} is held: nonconformance ${nc.body.ncNumber} on the bar piece is open. It cannot be issued until that is closed`);
+    expect(refusedNc.body.error.fields).toEqual({ tag: 'Material on hold' });
+
+    const recalled = await receive('TST-HOLD-RC');
+    const recall = await post('coordinator', '/api/recalls', { trigger: { pieceId: recalled }, mode: 'recall', reason: 'Piece suspected mixed with another heat at the saw' });
+    expect(recall.status).toBe(201);
+    expect((await issue('TST-HOLD-RC')).body.error.message).toMatch(new RegExp(`is held: recall investigation ${recall.body.recallNumber} is open \\(`));
+
+    const drilled = await receive('TST-HOLD-DR');
+    expect((await post('coordinator', '/api/recalls', { trigger: { pieceId: drilled }, mode: 'drill', reason: 'Quarterly drill on a fresh piece' })).status).toBe(201);
+    expect((await issue('TST-HOLD-DR')).status).toBe(201);
+    // Returned at once, so that the lot's bar reconciliation further on is not changed by this test.
+    expect((await post('engineer', `/api/lots/${lots[0]!.id}/material-returns`, { tag: 'TST-HOLD-DR', lengthMm: '10' })).status).toBe(201);
   });
 
   it('when a QA approver signs the mixing of a second heat, then its bar can be issued to the lot', async () => {

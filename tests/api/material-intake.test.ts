@@ -177,7 +177,9 @@ describe('material intake: suppliers, heats, certificates, results, disposition'
     };
     const tryAccept = async (id: number) => {
       const intent = { recordType: 'heat', recordId: String(id), meaning: 'accepted' };
-      const preparation = (await reviewer.agent.post('/api/signatures/preparations').set('X-CSRF-Token', reviewer.csrf).send(intent)).body;
+      const prepared = await reviewer.agent.post('/api/signatures/preparations').set('X-CSRF-Token', reviewer.csrf).send(intent);
+      if (prepared.status !== 200) return prepared;
+      const preparation = prepared.body;
       return reviewer.agent.post('/api/signatures').set('X-CSRF-Token', reviewer.csrf).send({ ...intent, contentHash: preparation.contentHash, reauthenticationId: await reauthenticate(saml, reviewer.agent, 'kiw-0201', preparation.bindingHash) });
     };
     const noCertificate = await receive('TA-90002', conforming.chemistry);

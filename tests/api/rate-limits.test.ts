@@ -78,4 +78,21 @@ describe('rate limits on sign-in and signing', () => {
     }
     expect(statuses).toEqual([201, 201, 429]);
   });
+
+  it('[RATE-REAUTH-REFUND] when a person stops waiting for the password window, then that start is given back and does not count against the limit', async () => {
+    const saml = await SamlTestDriver.create(signing.config);
+    const { agent } = await saml.signIn(signing.app, 'kiw-0301');
+    const csrf = await csrfTokenOf(agent);
+    await signing.database.dataSource.query("DELETE FROM rate_limit_window WHERE bucket LIKE 'reauthentication-start:%'");
+    const start = () => agent.post('/api/reauthentications').set('X-CSRF-Token', csrf).send({ purpose: 'sign a test record', bindingHash: 'b'.repeat(64) });
+    const first = await start();
+    expect((await start()).status).toBe(201);
+    const cancelled = await agent.post(`/api/reauthentications/${first.body.id}/cancel`).set('X-CSRF-Token', csrf);
+    expect(cancelled.body).toMatchObject({ status: 'refused', reason: 'Cancelled by the person signing' });
+    expect((await start()).status).toBe(201);
+    expect((await start()).status).toBe(429);
+    // Another person cannot cancel it.
+    const other = await saml.signIn(signing.app, 'kiw-0201');
+    expect((await other.agent.post(`/api/reauthentications/${first.body.id}/cancel`).set('X-CSRF-Token', await csrfTokenOf(other.agent))).status).toBe(404);
+  });
 });

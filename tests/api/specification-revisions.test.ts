@@ -18,7 +18,9 @@ describe('new specification revisions', () => {
   const sign = async (name: string, subject: string, recordId: string, meaning: string, reason?: string) => {
     const { agent, csrf } = people[name]!;
     const intent = { recordType: 'specification-draft', recordId, meaning };
-    const preparation = (await agent.post('/api/signatures/preparations').set('X-CSRF-Token', csrf).send(intent)).body;
+    const prepared = await agent.post('/api/signatures/preparations').set('X-CSRF-Token', csrf).send(intent);
+    if (prepared.status !== 200) return prepared;
+    const preparation = prepared.body;
     return agent.post('/api/signatures').set('X-CSRF-Token', csrf).send({ ...intent, reason, contentHash: preparation.contentHash, reauthenticationId: await reauthenticate(saml, agent, subject, preparation.bindingHash) });
   };
 

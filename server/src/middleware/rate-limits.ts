@@ -52,6 +52,15 @@ export class MariaDbRateLimitStore implements Store {
   }
 }
 
+/**
+ * Gives back one counted attempt (a re-authentication the person cancelled, or that the identity
+ * provider refused): failures of the sign-in window must not lock a person out of signing.
+ */
+export async function refundRateLimit(dataSource: DataSource | import('typeorm').EntityManager, name: string, key: string): Promise<void> {
+  const start = Math.floor(Date.now() / WINDOW_MS) * WINDOW_MS;
+  await dataSource.query('UPDATE rate_limit_window SET hits = GREATEST(hits, 1) - 1 WHERE bucket = ? AND window_start = ?', [`${name}:${key}`.slice(0, 200), start]);
+}
+
 interface LimitOptions {
   name: string;
   limit: number;

@@ -3,10 +3,10 @@ import { allowedActions } from '@shared/auth/permissions';
 import type { Me } from '@shared/schemas/people';
 import { reauthenticationIdSchema, reauthenticationStartSchema, type ReauthenticationStart } from '@shared/schemas/reauthentication';
 import type { AppContext } from '../../app-context';
-import { currentPerson, requireSignedIn } from '../../middleware/access';
+import { currentPerson, originOf, requireSignedIn } from '../../middleware/access';
 import { validate } from '../../middleware/validate';
 import { limitRate } from '../../middleware/rate-limits';
-import { reauthenticationStatus, startReauthentication } from './reauthentication.service';
+import { cancelReauthentication, REAUTHENTICATION_START_LIMIT, reauthenticationStatus, startReauthentication } from './reauthentication.service';
 
 /** The signed-in person, their permitted actions and CSRF token; and starting a re-authentication. */
 export function meRouter(context: AppContext, generateCsrfToken: (req: Request) => string): Router {
@@ -28,7 +28,7 @@ export function meRouter(context: AppContext, generateCsrfToken: (req: Request) 
 
   // Each re-authentication opens a password prompt at the identity provider: counted per person.
   const starts = limitRate({
-    name: 'reauthentication-start',
+    name: REAUTHENTICATION_START_LIMIT,
     limit: context.config.SIGNING_ATTEMPTS_PER_15_MIN,
     connect: () => context.database.connect(),
     key: 'person',
@@ -44,6 +44,11 @@ export function meRouter(context: AppContext, generateCsrfToken: (req: Request) 
   router.get('/reauthentications/:reauthenticationId', requireSignedIn(), validate({ params: reauthenticationIdSchema }), async (req, res) => {
     const { reauthenticationId } = res.locals.valid.params as { reauthenticationId: string };
     res.set('Cache-Control', 'no-store').json(await reauthenticationStatus(context.database.dataSource, reauthenticationId, currentPerson(req)!));
+  });
+
+  router.post('/reauthentications/:reauthenticationId/cancel', requireSignedIn(), validate({ params: reauthenticationIdSchema }), async (req, res) => {
+    const { reauthenticationId } = res.locals.valid.params as { reauthenticationId: string };
+    res.json(await cancelReauthentication(context.database.dataSource, reauthenticationId, currentPerson(req)!, originOf(req)));
   });
 
   return router;

@@ -6,6 +6,10 @@ import type { ReauthenticationStart, ReauthenticationStatus } from '@shared/sche
 import { AppError } from '../../errors';
 import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, type RequestOrigin } from '../ledger/ledger.repository';
+import { refundRateLimit } from '../../middleware/rate-limits';
+
+/** The limiter that counts re-authentications begun (me.router); a refused or cancelled one is given back. */
+export const REAUTHENTICATION_START_LIMIT = 'reauthentication-start';
 
 interface ReauthenticationRow {
   id: string;
@@ -82,6 +86,7 @@ export async function completeReauthentication(
         : 'The identity provider did not confirm who you are');
     if (refusal) {
       await manager.query('UPDATE reauthentication SET refused_reason = ? WHERE id = ?', [refusal.slice(0, 300), row.id]);
+      await refundRateLimit(manager, REAUTHENTICATION_START_LIMIT, `person-${row.person_id}`);
     } else {
       await manager.query('UPDATE reauthentication SET confirmed_at = ?, authn_instant = ? WHERE id = ?', [new Date(), input.authnInstant, row.id]);
     }
@@ -94,6 +99,20 @@ export async function completeReauthentication(
       origin: input.origin,
     });
     return { returnTo: row.return_to, refusedReason: refusal };
+  });
+}
+
+/** The person stops waiting for the password window: a pending re-authentication ends as cancelled and does not count against their limit. */
+export async function cancelReauthentication(dataSource: DataSource, id: string, person: Person, origin: RequestOrigin): Promise<ReauthenticationStatus> {
+  return inTransaction(dataSource, async (manager) => {
+    const row = await findRow(manager, id, true);
+    if (!row || row.person_id !== person.id) throw AppError.notFound('Re-authentication');
+    if (statusOf(row) !== 'pending') return { id, status: statusOf(row), reason: row.refused_reason, url: urlFor(id) };
+    const reason = 'Cancelled by the person signing';
+    await manager.query('UPDATE reauthentication SET refused_reason = ? WHERE id = ?', [reason, row.id]);
+    await refundRateLimit(manager, REAUTHENTICATION_START_LIMIT, `person-${person.id}`);
+    await appendLedgerEvent(manager, { actor: { id: person.id, name: person.name, role: null }, action: 'signature.reauthentication-cancelled', entity: { type: 'reauthentication', id: row.id }, after: { purpose: row.purpose }, origin });
+    return { id, status: 'refused', reason, url: urlFor(id) };
   });
 }
 

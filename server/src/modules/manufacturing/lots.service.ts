@@ -5,6 +5,7 @@ import { lotNumberProblem } from '@shared/domain/gs1/gtin';
 import { lotOpenSchema, materialMovementSchema, type LotListQuery, type LotOpen, type LotSummary, type MaterialMovementInput } from '@shared/schemas/manufacturing';
 import type { Person } from '@shared/schemas/people';
 import { AppError } from '../../errors';
+import { materialHolds } from './material-holds.repository';
 import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
 import { findPieceByTag } from '../materials/bar-stock.repository';
@@ -91,6 +92,8 @@ export async function issueMaterial(dataSource: DataSource, lotId: number, raw: 
     const heat = (await findHeat(manager, piece.heat.id))!;
     if (piece.status !== 'in-stock') throw AppError.rule(`Piece ${piece.tag} was cut; issue one of its pieces (${piece.childTags.join(', ')})`, { tag: 'Cut piece' });
     if (heat.status !== 'accepted') throw AppError.rule(`Heat ${heat.heatNumber} is ${heat.status}, not accepted; its bar cannot be issued`, { tag: `Heat ${heat.status}` });
+    const holds = await materialHolds(manager, { heatId: heat.id, pieceId: piece.id, supplierId: heat.supplier.id });
+    if (holds.length) throw AppError.rule(`Bar ${piece.tag} of heat ${heat.heatNumber} is held: ${holds.join('; ')}. It cannot be issued until that is closed`, { tag: 'Material on hold' });
     const part = (await findPart(manager, lot.part_id))!;
     const allowed = part.specifications.some((spec) => spec.specId === heat.spec.id && (spec.grade === null || spec.grade === heat.spec.grade));
     if (!allowed) {

@@ -36,6 +36,12 @@ async function loadSignable(manager: EntityManager, person: Person, intent: Sign
 /** What the signer sees before signing, and the hash their re-authentication must be bound to. */
 export async function prepareSignature(dataSource: DataSource, person: Person, intent: SignatureIntent): Promise<SignaturePreparation> {
   const { type, record } = await loadSignable(dataSource.manager, person, intent);
+  // Refusals that do not depend on the password are told now, before anyone is asked for it.
+  if (intent.meaning !== 'withdrawn') {
+    const earlier = await signaturesFor(dataSource.manager, intent.recordType, intent.recordId);
+    const refusal = signingRefusal(person.id, intent.meaning, type, record, earlier);
+    if (refusal) throw AppError.rule(refusal, { meaning: 'Separation of duties' });
+  }
   const hash = contentHash(record.content, sha256Hex);
   const trail = type.trailMark?.(record, intent.meaning);
   return {
@@ -62,6 +68,15 @@ function separationRefusal(personId: number, meaning: SignatureMeaning, record: 
     return separationOfDutiesRefusal(personId, 'approval', { authorIds: record.authorIds, reviewerIds });
   }
   return null;
+}
+
+/** Separation of duties and the record type's own rules: the same answer when preparing and when signing. */
+function signingRefusal(personId: number, meaning: SignatureMeaning, type: SignableRecordType, record: SignableContent, earlier: SignatureRow[]): string | null {
+  return (
+    separationRefusal(personId, meaning, record, earlier) ??
+    type.refusal?.({ signerId: personId, meaning, record, earlierSignatures: earlier.map((row) => ({ signerId: row.signer_id, meaning: row.meaning })) }) ??
+    null
+  );
 }
 
 function toSignature(row: SignatureRow, currentHash: string | null): Signature {
@@ -116,10 +131,7 @@ export async function signRecord(dataSource: DataSource, person: Person, request
     } else if (request.withdrawsSignatureId !== undefined) {
       throw AppError.rule('Only a withdrawal names another signature', { withdrawsSignatureId: 'Not allowed here' });
     }
-    const refusal =
-      separationRefusal(person.id, request.meaning, record, earlier) ??
-      type.refusal?.({ signerId: person.id, meaning: request.meaning, record, earlierSignatures: earlier.map((row) => ({ signerId: row.signer_id, meaning: row.meaning })) }) ??
-      null;
+    const refusal = signingRefusal(person.id, request.meaning, type, record, earlier);
     if (refusal) throw AppError.rule(refusal, { meaning: 'Separation of duties' });
 
     const binding = signatureBinding({ recordType: request.recordType, recordId: request.recordId, meaning: request.meaning, contentHash: hash }, sha256Hex);

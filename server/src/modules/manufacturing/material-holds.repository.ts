@@ -1,0 +1,27 @@
+import type { EntityManager } from 'typeorm';
+
+/**
+ * Why a heat's bar may not go into a lot now, besides the heat's own status: an open recall (not a
+ * drill) started from the heat, the bar piece or the heat's supplier (within its received-date window), or a nonconformance
+ * on the heat or the piece that is not closed. Each reason names its record number.
+ */
+export async function materialHolds(manager: EntityManager, material: { heatId: number; pieceId: number; supplierId: number }): Promise<string[]> {
+  const recalls: Array<{ recall_number: string; trigger_label: string }> = await manager.query(
+    `SELECT r.recall_number, r.trigger_label FROM recall_investigation r JOIN heat h ON h.id = ?
+      WHERE r.status = 'open' AND r.mode = 'recall'
+        AND ((r.trigger_kind = 'heat' AND r.trigger_id = h.id) OR (r.trigger_kind = 'piece' AND r.trigger_id = ?)
+          OR (r.trigger_kind = 'supplier' AND r.trigger_id = ? AND (r.window_from IS NULL OR DATE(h.received_at) >= r.window_from) AND (r.window_to IS NULL OR DATE(h.received_at) <= r.window_to)))
+      ORDER BY r.recall_number`,
+    [material.heatId, material.pieceId, material.supplierId],
+  );
+  const nonconformances: Array<{ nc_number: string; subject_type: string; status: string }> = await manager.query(
+    `SELECT nc_number, subject_type, status FROM nonconformance
+      WHERE status <> 'closed' AND ((subject_type = 'heat' AND subject_id = ?) OR (subject_type = 'bar-piece' AND subject_id = ?))
+      ORDER BY nc_number`,
+    [material.heatId, material.pieceId],
+  );
+  return [
+    ...recalls.map((recall) => `recall investigation ${recall.recall_number} is open (${recall.trigger_label})`),
+    ...nonconformances.map((nc) => `nonconformance ${nc.nc_number} on the ${nc.subject_type === 'heat' ? 'heat' : 'bar piece'} is ${nc.status === 'open' ? 'open' : 'not yet closed'}`),
+  ];
+}
