@@ -142,6 +142,10 @@ describe('the manufacturing record: parts, lots, material, operations, runs, non
     expect(refusedNc.status).toBe(422);
     expect(refusedNc.body.error.message).toBe(`Bar TST-HOLD-NC of heat ${heat.heat_number} is held: nonconformance ${nc.body.ncNumber} on the bar piece is open. It cannot be issued until that is closed`);
     expect(refusedNc.body.error.fields).toEqual({ tag: 'Material on hold' });
+    // Cutting the piece does not free its pieces.
+    const cut = await post('engineer', `/api/bar-pieces/${flagged}/cuts`, { pieces: [{ lengthMm: '248.5' }, { lengthMm: '248.5' }] });
+    expect(cut.status).toBe(201);
+    expect((await issue('TST-HOLD-NC-A')).body.error.message).toContain(`nonconformance ${nc.body.ncNumber} on the bar piece is open`);
 
     const recalled = await receive('TST-HOLD-RC');
     const recall = await post('coordinator', '/api/recalls', { trigger: { pieceId: recalled }, mode: 'recall', reason: 'Piece suspected mixed with another heat at the saw' });

@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { RecallDetail, RecallRerun } from '@shared/schemas/recall';
 import { createTestApp } from '../helpers/test-app';
+import { adminSql } from '../helpers/admin-sql';
 import { mailWithSubject } from '../helpers/mail-catcher';
 import { SamlTestDriver, signInPeople } from '../helpers/saml-round-trip';
 import { signThroughApi } from '../helpers/signing';
@@ -90,7 +91,14 @@ describe('recall investigations: frozen snapshot, holds, re-run difference, expo
 
   it('when records change after opening, then the opening snapshot stays as it was and a re-run shows the difference and holds the new lot', async () => {
     const before = await detail(recall.id);
-    lots.push(await readyLot());
+    // Bar under an open recall can no longer be issued, so a lot that reaches the affected set after opening is one whose
+    // issue is recorded late, behind the product's back: the database administrator sets the recall aside for that moment.
+    await adminSql(`UPDATE recall_investigation SET status = 'closed' WHERE id = ${recall.id}`);
+    try {
+      lots.push(await readyLot());
+    } finally {
+      await adminSql(`UPDATE recall_investigation SET status = 'open' WHERE id = ${recall.id}`);
+    }
     const again = await detail(recall.id);
     expect(again.opening).toEqual(before.opening);
     const rerun = await post('coordinator', `/api/recalls/${recall.id}/reruns`, {});

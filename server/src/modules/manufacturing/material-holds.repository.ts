@@ -6,19 +6,26 @@ import type { EntityManager } from 'typeorm';
  * on the heat or the piece that is not closed. Each reason names its record number.
  */
 export async function materialHolds(manager: EntityManager, material: { heatId: number; pieceId: number; supplierId: number }): Promise<string[]> {
+  // A piece cut from a recalled or nonconforming piece is held with it: the piece and every piece it was cut from.
+  const lineage: Array<{ id: number }> = await manager.query(
+    `WITH RECURSIVE up (id, parent_id) AS (SELECT id, parent_id FROM bar_piece WHERE id = ? UNION ALL SELECT b.id, b.parent_id FROM bar_piece b JOIN up ON b.id = up.parent_id)
+     SELECT id FROM up`,
+    [material.pieceId],
+  );
+  const pieces = lineage.map((row) => Number(row.id));
   const recalls: Array<{ recall_number: string; trigger_label: string }> = await manager.query(
     `SELECT r.recall_number, r.trigger_label FROM recall_investigation r JOIN heat h ON h.id = ?
       WHERE r.status = 'open' AND r.mode = 'recall'
-        AND ((r.trigger_kind = 'heat' AND r.trigger_id = h.id) OR (r.trigger_kind = 'piece' AND r.trigger_id = ?)
+        AND ((r.trigger_kind = 'heat' AND r.trigger_id = h.id) OR (r.trigger_kind = 'piece' AND r.trigger_id IN (?))
           OR (r.trigger_kind = 'supplier' AND r.trigger_id = ? AND (r.window_from IS NULL OR DATE(h.received_at) >= r.window_from) AND (r.window_to IS NULL OR DATE(h.received_at) <= r.window_to)))
       ORDER BY r.recall_number`,
-    [material.heatId, material.pieceId, material.supplierId],
+    [material.heatId, pieces, material.supplierId],
   );
   const nonconformances: Array<{ nc_number: string; subject_type: string; status: string }> = await manager.query(
     `SELECT nc_number, subject_type, status FROM nonconformance
-      WHERE status <> 'closed' AND ((subject_type = 'heat' AND subject_id = ?) OR (subject_type = 'bar-piece' AND subject_id = ?))
+      WHERE status <> 'closed' AND ((subject_type = 'heat' AND subject_id = ?) OR (subject_type = 'bar-piece' AND subject_id IN (?)))
       ORDER BY nc_number`,
-    [material.heatId, material.pieceId],
+    [material.heatId, pieces],
   );
   return [
     ...recalls.map((recall) => `recall investigation ${recall.recall_number} is open (${recall.trigger_label})`),
