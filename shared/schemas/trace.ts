@@ -5,6 +5,18 @@ import { checkedString } from './checked-string';
 const id = z.coerce.number().int().positive().max(4_294_967_295);
 const day = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'A date as YYYY-MM-DD');
 
+/** Finding where a forward trace starts, by the numbers people hold: heat number, bar tag, run number, supplier name. */
+export const traceStartQuerySchema = z.object({ q: z.string().trim().min(1, 'Type part of a heat number, bar tag, run number or supplier name').max(60) });
+export const traceStartKinds = ['heat', 'piece', 'run', 'supplier'] as const;
+export const traceStartSchema = z.object({
+  kind: z.enum(traceStartKinds),
+  id: z.number().int(),
+  label: z.string(),
+  detail: z.string(),
+});
+export type TraceStart = z.infer<typeof traceStartSchema>;
+export const traceStartsSchema = z.array(traceStartSchema);
+
 export const backwardQuerySchema = z
   .object({
     udi: z.string().trim().min(1).max(300).optional(),

@@ -1,6 +1,6 @@
 import { queryOptions } from '@tanstack/vue-query';
 import type { GenealogyGraph } from '@shared/domain/trace/genealogy-graph';
-import type { BackwardTrace, ForwardTrace } from '@shared/schemas/trace';
+import { traceStartsSchema, type BackwardTrace, type ForwardTrace } from '@shared/schemas/trace';
 import { apiRequest, typed } from './http';
 
 
@@ -18,6 +18,15 @@ export const forwardTraceQuery = (start: Record<string, string> | null) =>
     queryFn: ({ signal }) => apiRequest(`/trace/forward?${new URLSearchParams(start ?? {})}`, typed<ForwardTrace>(), { signal }),
     enabled: Boolean(start),
     retry: false,
+  });
+
+/** Where a forward trace may start, for what the person is typing (asked once they have typed something). */
+export const traceStartsQuery = (text: string) =>
+  queryOptions({
+    queryKey: ['trace', 'starts', text] as const,
+    queryFn: ({ signal }) => apiRequest(`/trace/starts?${new URLSearchParams({ q: text })}`, traceStartsSchema, { signal }),
+    enabled: text.trim().length > 0,
+    staleTime: 30_000,
   });
 
 export type GraphReply = GenealogyGraph & { start: string; lots: number; tooLarge: boolean };

@@ -99,6 +99,28 @@ describe('genealogy both ways on a hand-built history with a cut bar, a split, a
     expect(foreign.body.error.fields).toEqual({ 'query.lot': '“¡” cannot be used in a GS1 lot number' });
   });
 
+  it('[TRACE-SCANNER] when a scanner sends a symbology identifier or a leading GS before the UDI, then the same lot is found', async () => {
+    const raw = `0109521230000031` + `10${lot['L1-A']!.lotNumber}`;
+    for (const sent of [`]d2${raw}`, `]C1${raw}`, `\u001d${raw}`, `]Q3${raw}`]) {
+      expect((await backward(`udi=${encodeURIComponent(sent)}`)).lots.map((entry) => entry.lotNumber), JSON.stringify(sent)).toContain(lot['L1-A']!.lotNumber);
+    }
+  });
+
+  it('[TRACE-STARTS] when part of a heat number, bar tag, run number or supplier name is typed, then the matching starts come back named, each with its record behind it', async () => {
+    const [heat] = await running.database.dataSource.query('SELECT heat_number FROM heat WHERE id = ?', [ids.h1]);
+    const starts = async (q: string) => (await auditor.get(`/api/trace/starts?q=${encodeURIComponent(q)}`)).body as Array<{ kind: string; id: number; label: string; detail: string }>;
+    const byHeat = await starts(heat.heat_number.slice(0, -1));
+    expect(byHeat).toContainEqual(expect.objectContaining({ kind: 'heat', id: ids.h1, label: heat.heat_number, detail: expect.stringMatching(/^Heat from .+ · ASTM F136$/) }));
+    expect(await starts('TRC-B1')).toContainEqual(expect.objectContaining({ kind: 'piece', id: ids.b1, label: 'TRC-B1', detail: `Bar of heat ${heat.heat_number}` }));
+    const [run] = await running.database.dataSource.query('SELECT run_number FROM process_run WHERE id = ?', [ids.r1]);
+    expect(await starts(run.run_number)).toContainEqual(expect.objectContaining({ kind: 'run', id: ids.r1, detail: 'Passivation run · F86-NITRIC' }));
+    expect((await starts('nordvik')).some((start) => start.kind === 'supplier' && /^Supplier, /.test(start.detail))).toBe(true);
+    // LIKE's own characters are searched for as typed, not as wildcards.
+    expect(await starts('%')).toEqual([]);
+    expect(await starts('_')).toEqual([]);
+    expect((await auditor.get('/api/trace/starts?q=')).status).toBe(400);
+  });
+
   it('[TRACE-FORWARD] when traced forward from each heat, piece and run, then exactly the lots written out by hand are affected', async () => {
     const lotsOf = async (query: string) => (await forward(query)).lots.map((entry) => entry.lotNumber).sort();
     expect((await lotsOf(`heatId=${ids.h1}`)).filter((number) => numbers('L1', 'L1-A', 'L2', 'L3', 'M').includes(number))).toEqual(numbers('L1', 'L1-A', 'L2', 'M'));

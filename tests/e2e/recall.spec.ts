@@ -18,9 +18,13 @@ test('[E2E-RECALL] a recall coordinator opens a recall from a heat, sees the lot
   const expected = await (await page.request.get(`/api/trace/forward?heatId=${heat.id}`)).json();
 
   await page.getByRole('tab', { name: 'What does this touch?' }).click();
-  await page.getByLabel('Start from').click();
-  await page.getByRole('option', { name: 'Heat id' }).click();
-  await page.getByLabel('Start id').fill(String(heat.id));
+  // Typed as a person holds it: the heat number, key by key; the match names its supplier.
+  const start = page.getByRole('combobox', { name: 'Start from a heat, bar, run or supplier' });
+  await start.pressSequentially(heat.heatNumber, { delay: 80 });
+  const match = page.getByRole('option', { name: new RegExp(`^Heat ${heat.heatNumber.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}`) });
+  await expect(match).toContainText('Heat from');
+  await page.screenshot({ path: 'test-results/trace-forward-search.png' });
+  await match.click();
   await page.getByRole('button', { name: 'Trace forward' }).click();
   await expect(page.getByRole('heading', { name: `From heat ${heat.heatNumber}` })).toBeVisible();
   await page.getByRole('button', { name: 'Open a recall investigation' }).click();

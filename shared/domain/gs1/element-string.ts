@@ -194,9 +194,18 @@ export function parseDigitalLink(input: string): UdiParts {
   return finish(parts);
 }
 
-/** Reads a UDI as scanned or typed: a Digital Link URI, an element string with parentheses, or raw scan data. */
+/**
+ * What a scanner may put before the data: a symbology identifier (ISO/IEC 15424: "]d2" GS1
+ * DataMatrix, "]C1" GS1-128, "]Q3" GS1 QR, "]Q1" QR with a URL, …) and a leading GS standing for the
+ * FNC1 that starts GS1 data. Removed before reading.
+ */
+export function withoutScannerPrefix(input: string): string {
+  return input.trim().replace(/^\][A-Za-z][0-9A-Za-z]/, '').replace(new RegExp(`^${GS}+`), '');
+}
+
+/** Reads a UDI as scanned or typed: a Digital Link URI, an element string with parentheses, or raw scan data, with or without a scanner's prefix. */
 export function parseUdi(input: string): UdiParts {
-  const text = input.trim();
+  const text = withoutScannerPrefix(input);
   if (!text) throw new Gs1Error('Nothing to read');
   if (/^https?:\/\//i.test(text)) return parseDigitalLink(text);
   if (text.startsWith('(')) return parseBracketed(text);

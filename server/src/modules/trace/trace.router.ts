@@ -1,5 +1,6 @@
 import { Router } from 'express';
-import { backwardQuerySchema, forwardQuerySchema, type BackwardQuery, type ForwardStart } from '@shared/schemas/trace';
+import { backwardQuerySchema, forwardQuerySchema, traceStartQuerySchema, type BackwardQuery, type ForwardStart } from '@shared/schemas/trace';
+import { findTraceStarts } from './trace-starts.repository';
 import type { AppContext } from '../../app-context';
 import { requireAction } from '../../middleware/access';
 import { validate } from '../../middleware/validate';
@@ -12,6 +13,9 @@ export function traceRouter(context: AppContext): Router {
   const data = () => context.database.dataSource;
   router.get('/trace/backward', requireAction('trace.read'), validate({ query: backwardQuerySchema }), async (_req, res) => {
     res.json(await backwardTrace(data(), (res.locals.valid as { query: BackwardQuery }).query));
+  });
+  router.get('/trace/starts', requireAction('trace.read'), validate({ query: traceStartQuerySchema }), async (_req, res) => {
+    res.json(await findTraceStarts(data().manager, (res.locals.valid as { query: { q: string } }).query.q));
   });
   router.get('/trace/forward', requireAction('trace.read'), validate({ query: forwardQuerySchema }), async (_req, res) => {
     res.json(await forwardTrace(data(), (res.locals.valid as { query: ForwardStart }).query));

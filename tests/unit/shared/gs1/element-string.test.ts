@@ -22,6 +22,16 @@ describe('GS1 element strings', () => {
     expect(parseUdi('https://id.gs1.org/01/09521234543213/10/ABC123?17=261231')).toMatchObject({ lot: 'ABC123', expiry: '261231' });
     expect(parseUdi('https://example.com/products/01/09521234543213')).toMatchObject({ gtin: '09521234543213', lot: null });
   });
+  it('[GS1-SCANNER-PREFIX] when a scanner sends a symbology identifier or a leading GS, then the data behind it is read', () => {
+    // Symbology identifiers per ISO/IEC 15424 as listed in the GS1 General Specifications (5.4.x): ]d2 GS1 DataMatrix, ]C1 GS1-128, ]Q3 GS1 QR Code; ]Q1 QR carrying a URL.
+    const expected = { gtin: '09506000134352', lot: 'ABC123', serial: '12345', expiry: '261231', productionDate: null };
+    const raw = `010950600013435217261231` + `10ABC123${GS}2112345`;
+    for (const prefix of [']d2', ']C1', ']Q3', GS, `]d2${GS}`, `${GS}${GS}`]) expect(parseUdi(`${prefix}${raw}`), JSON.stringify(prefix)).toEqual(expected);
+    expect(parseUdi(`]C1(01)09506000134352(17)261231(10)ABC123(21)12345`)).toEqual(expected);
+    expect(parseUdi(']Q1https://id.gs1.org/01/09521234543213/10/ABC123')).toMatchObject({ gtin: '09521234543213', lot: 'ABC123' });
+    // Not a prefix: a lot that merely contains "]" stays an error about the data, not silently shortened.
+    expect(() => parseUdi(']0109506000134352')).toThrow();
+  });
   it('when the input is wrong, then the reason is named', () => {
     expect(() => parseUdi('(01)09506000134353(10)A')).toThrow('AI 01 (GTIN): the check digit should be 2');
     expect(() => parseUdi('(01)09506000134352(17)261331')).toThrow('AI 17: invalid month 13');

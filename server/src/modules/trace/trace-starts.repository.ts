@@ -1,0 +1,34 @@
+import type { EntityManager } from 'typeorm';
+import type { TraceStart } from '@shared/schemas/trace';
+
+const PER_KIND = 6;
+const like = (text: string) => `%${text.replace(/[\\%_]/g, (character) => `\\${character}`)}%`;
+
+/**
+ * Where a forward trace can start, matching what a person types: part of a heat number (shown with
+ * its supplier), a bar tag (with its heat), a run number (with its method) or a supplier's name.
+ * Ids stay behind the choice; people never see or type them.
+ */
+export async function findTraceStarts(manager: EntityManager, text: string): Promise<TraceStart[]> {
+  const pattern = like(text);
+  const [heats, pieces, runs, suppliers] = await Promise.all([
+    manager.query(
+      `SELECT h.id, h.heat_number AS label, CONCAT('Heat from ', s.name, ' · ', h.spec_id) AS detail FROM heat h JOIN supplier s ON s.id = h.supplier_id
+        WHERE h.heat_number LIKE ? ORDER BY h.heat_number LIMIT ?`,
+      [pattern, PER_KIND],
+    ) as Promise<Array<{ id: number; label: string; detail: string }>>,
+    manager.query(
+      `SELECT b.id, b.tag AS label, CONCAT('Bar of heat ', h.heat_number) AS detail FROM bar_piece b JOIN heat h ON h.id = b.heat_id
+        WHERE b.tag LIKE ? ORDER BY b.tag LIMIT ?`,
+      [pattern, PER_KIND],
+    ) as Promise<Array<{ id: number; label: string; detail: string }>>,
+    manager.query(`SELECT id, run_number AS label, CONCAT(IF(kind = 'passivation', 'Passivation run', 'Cleaning run'), ' · ', method_id) AS detail FROM process_run WHERE run_number LIKE ? ORDER BY run_number DESC LIMIT ?`, [pattern, PER_KIND]) as Promise<
+      Array<{ id: number; label: string; detail: string }>
+    >,
+    manager.query(`SELECT id, name AS label, CONCAT('Supplier, ', country, ' · ', CASE approval WHEN 'approved' THEN 'approved' WHEN 'conditional' THEN 'conditionally approved' ELSE 'disqualified' END) AS detail FROM supplier WHERE name LIKE ? ORDER BY name LIMIT ?`, [pattern, PER_KIND]) as Promise<
+      Array<{ id: number; label: string; detail: string }>
+    >,
+  ]);
+  const as = (kind: TraceStart['kind'], rows: Array<{ id: number; label: string; detail: string }>) => rows.map((row) => ({ kind, id: Number(row.id), label: row.label, detail: row.detail }));
+  return [...as('heat', heats), ...as('piece', pieces), ...as('run', runs), ...as('supplier', suppliers)];
+}
