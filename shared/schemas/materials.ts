@@ -7,6 +7,11 @@ import { evaluationSchema, overallVerdicts } from './evaluation';
 import { decimalPattern } from '../domain/materials/e29-rounding';
 
 export const supplierApprovals = ['approved', 'conditional', 'disqualified'] as const;
+export const supplierApprovalLabels: Record<(typeof supplierApprovals)[number], string> = {
+  approved: 'Approved',
+  conditional: 'Conditionally approved',
+  disqualified: 'Disqualified',
+};
 export const supplierSchema = z.object({ id: z.number().int(), name: z.string(), country: z.string(), approval: z.enum(supplierApprovals), heats: z.number().int() });
 export type Supplier = z.infer<typeof supplierSchema>;
 

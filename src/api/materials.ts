@@ -1,7 +1,7 @@
 import { keepPreviousData, queryOptions } from '@tanstack/vue-query';
 import { z } from 'zod';
 import type { Specification } from '@shared/domain/materials/specification';
-import { heatDetailSchema, heatPageSchema, heatSummarySchema, resultsImportReportSchema, specificationDraftViewSchema, type SpecificationDraftInput, supplierSchema, trendSchema, type ResultsImport, type HeatCreate, type HeatListQuery, type HeatResults, type TrendQuery } from '@shared/schemas/materials';
+import { heatDetailSchema, heatPageSchema, heatSummarySchema, resultsImportReportSchema, specificationDraftViewSchema, type SpecificationDraftInput, supplierApprovalSchema, supplierCreateSchema, supplierSchema, trendSchema, type ResultsImport, type HeatCreate, type HeatListQuery, type HeatResults, type TrendQuery } from '@shared/schemas/materials';
 import { apiRequest, apiUpload } from './http';
 import { heatScreeningSchema, supplierScreeningSchema, type ScreeningAcknowledgementInput } from '@shared/schemas/screening';
 import { checkRuleSchema, heatAwaitingCheckSchema, heatCheckAnalysisSchema, type CheckAnalysisInput, type CheckRuleInput } from '@shared/schemas/check-analysis';
@@ -38,6 +38,8 @@ const specificationsSchema = z.object({ caution: z.string(), specifications: z.a
 export const specificationsQuery = () =>
   queryOptions({ queryKey: materialKeys.specifications(), queryFn: ({ signal }) => apiRequest('/specifications', specificationsSchema, { signal }), staleTime: 5 * 60_000 });
 
+export const createSupplier = (input: z.input<typeof supplierCreateSchema>) => apiRequest('/suppliers', supplierSchema, { method: 'POST', body: input });
+export const changeSupplierApproval = (supplierId: number, input: z.input<typeof supplierApprovalSchema>) => apiRequest(`/suppliers/${supplierId}/approval`, supplierSchema, { method: 'PUT', body: input });
 export const receiveHeat = (heat: HeatCreate) => apiRequest('/heats', heatSummarySchema, { method: 'POST', body: heat });
 export const recordHeatResults = (heatId: number, results: HeatResults) => apiRequest(`/heats/${heatId}/results`, heatDetailSchema, { method: 'PUT', body: results });
 const attachedSchema = z.object({ documentId: z.number(), sha256: z.string(), storedNow: z.boolean(), alsoOnHeats: z.array(z.string()) });

@@ -2,13 +2,26 @@ import { computed, type Ref } from 'vue';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/vue-query';
 import type { ScreeningAcknowledgementInput } from '@shared/schemas/screening';
 import type { HeatCreate, HeatListQuery, HeatResults, ResultsImport, SpecificationDraftInput, TrendQuery } from '@shared/schemas/materials';
-import { acknowledgeScreeningFinding, draftSpecificationRevision, heatQuery, heatsQuery, importResults, materialKeys, specificationDraftsQuery, receiveHeat, recordHeatResults, specificationsQuery, supplierScreeningQuery, suppliersQuery, trendQuery, uploadCertificate } from '../api/materials';
+import { changeSupplierApproval, createSupplier, acknowledgeScreeningFinding, draftSpecificationRevision, heatQuery, heatsQuery, importResults, materialKeys, specificationDraftsQuery, receiveHeat, recordHeatResults, specificationsQuery, supplierScreeningQuery, suppliersQuery, trendQuery, uploadCertificate } from '../api/materials';
 
 export const useHeats = (query: Ref<HeatListQuery>) => useQuery(computed(() => heatsQuery(query.value)));
 export const useHeat = (id: Ref<number>) => useQuery(computed(() => heatQuery(id.value)));
 export const useSuppliers = () => useQuery(suppliersQuery());
 export const useSupplierScreening = (supplierId: Ref<number>) => useQuery(computed(() => supplierScreeningQuery(supplierId.value)));
 export const useSpecifications = () => useQuery(specificationsQuery());
+
+export function useCreateSupplier() {
+  const queryClient = useQueryClient();
+  return useMutation({ mutationFn: createSupplier, onSuccess: () => queryClient.invalidateQueries({ queryKey: materialKeys.all }) });
+}
+
+export function useChangeSupplierApproval(supplierId: Ref<number>) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (input: Parameters<typeof changeSupplierApproval>[1]) => changeSupplierApproval(supplierId.value, input),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: materialKeys.all }),
+  });
+}
 
 export function useReceiveHeat() {
   const queryClient = useQueryClient();
