@@ -18,7 +18,7 @@ import type {
 } from '@shared/schemas/manufacturing';
 import type { MethodValidationInput } from '@shared/schemas/process-methods';
 import * as api from '../api/manufacturing';
-import { barKeys } from '../api/bar-stock';
+import { invalidateAfter } from '../api/invalidation';
 
 export const useParts = () => useQuery(api.partsQuery());
 export const useLots = (query: Ref<LotListQuery>) => useQuery(computed(() => api.lotsQuery(query.value)));
@@ -35,10 +35,7 @@ function useRecordChange<Input, Output>(change: (input: Input) => Promise<Output
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: change,
-    onSuccess: async () => {
-      await queryClient.invalidateQueries({ queryKey: api.manufacturingKeys.all });
-      await queryClient.invalidateQueries({ queryKey: barKeys.all });
-    },
+    onSuccess: () => invalidateAfter(queryClient, 'manufacturing'),
   });
 }
 

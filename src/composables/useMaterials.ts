@@ -1,5 +1,6 @@
 import { computed, type Ref } from 'vue';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/vue-query';
+import { invalidateAfter } from '../api/invalidation';
 import type { ScreeningAcknowledgementInput } from '@shared/schemas/screening';
 import type { HeatCreate, HeatListQuery, HeatResults, ResultsImport, SpecificationDraftInput, TrendQuery } from '@shared/schemas/materials';
 import { changeSupplierApproval, createSupplier, acknowledgeScreeningFinding, draftSpecificationRevision, heatQuery, heatsQuery, importResults, materialKeys, specificationDraftsQuery, receiveHeat, recordHeatResults, specificationsQuery, supplierScreeningQuery, suppliersQuery, trendQuery, uploadCertificate } from '../api/materials';
@@ -12,20 +13,20 @@ export const useSpecifications = () => useQuery(specificationsQuery());
 
 export function useCreateSupplier() {
   const queryClient = useQueryClient();
-  return useMutation({ mutationFn: createSupplier, onSuccess: () => queryClient.invalidateQueries({ queryKey: materialKeys.all }) });
+  return useMutation({ mutationFn: createSupplier, onSuccess: () => invalidateAfter(queryClient, 'materials') });
 }
 
 export function useChangeSupplierApproval(supplierId: Ref<number>) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (input: Parameters<typeof changeSupplierApproval>[1]) => changeSupplierApproval(supplierId.value, input),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: materialKeys.all }),
+    onSuccess: () => invalidateAfter(queryClient, 'materials'),
   });
 }
 
 export function useReceiveHeat() {
   const queryClient = useQueryClient();
-  return useMutation({ mutationFn: (heat: HeatCreate) => receiveHeat(heat), onSuccess: () => queryClient.invalidateQueries({ queryKey: materialKeys.all }) });
+  return useMutation({ mutationFn: (heat: HeatCreate) => receiveHeat(heat), onSuccess: () => invalidateAfter(queryClient, 'materials') });
 }
 
 export function useRecordHeatResults(heatId: Ref<number>) {
@@ -34,21 +35,21 @@ export function useRecordHeatResults(heatId: Ref<number>) {
     mutationFn: (results: HeatResults) => recordHeatResults(heatId.value, results),
     onSuccess: (detail) => {
       queryClient.setQueryData(materialKeys.heat(heatId.value), detail);
-      return queryClient.invalidateQueries({ queryKey: [...materialKeys.all, 'heats'] });
+      return invalidateAfter(queryClient, 'materials');
     },
   });
 }
 
 export function useUploadCertificate(heatId: Ref<number>) {
   const queryClient = useQueryClient();
-  return useMutation({ mutationFn: (file: File) => uploadCertificate(heatId.value, file), onSuccess: () => queryClient.invalidateQueries({ queryKey: materialKeys.heat(heatId.value) }) });
+  return useMutation({ mutationFn: (file: File) => uploadCertificate(heatId.value, file), onSuccess: () => invalidateAfter(queryClient, 'materials') });
 }
 
 export function useAcknowledgeFinding(heatId: Ref<number>) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (input: ScreeningAcknowledgementInput) => acknowledgeScreeningFinding(heatId.value, input),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: materialKeys.heat(heatId.value) }),
+    onSuccess: () => invalidateAfter(queryClient, 'materials'),
   });
 }
 
@@ -59,7 +60,7 @@ export function useImportResults() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (request: ResultsImport) => importResults(request),
-    onSuccess: (report) => (report.imported ? queryClient.invalidateQueries({ queryKey: materialKeys.all }) : undefined),
+    onSuccess: (report) => (report.imported ? invalidateAfter(queryClient, 'materials') : undefined),
   });
 }
 
@@ -67,5 +68,5 @@ export const useSpecificationDrafts = () => useQuery(specificationDraftsQuery())
 
 export function useDraftSpecificationRevision() {
   const queryClient = useQueryClient();
-  return useMutation({ mutationFn: (draft: SpecificationDraftInput) => draftSpecificationRevision(draft), onSuccess: () => queryClient.invalidateQueries({ queryKey: materialKeys.all }) });
+  return useMutation({ mutationFn: (draft: SpecificationDraftInput) => draftSpecificationRevision(draft), onSuccess: () => invalidateAfter(queryClient, 'materials') });
 }

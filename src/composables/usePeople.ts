@@ -1,7 +1,8 @@
 import { computed, type Ref } from 'vue';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/vue-query';
+import { invalidateAfter } from '../api/invalidation';
 import type { ActivationChange, PeopleQuery, RoleChange } from '@shared/schemas/people';
-import { changePersonActivation, changePersonRoles, peopleKeys, peopleListQuery, peopleSettingsQuery } from '../api/people';
+import { changePersonActivation, changePersonRoles, peopleListQuery, peopleSettingsQuery } from '../api/people';
 
 export function usePeopleList(query: Ref<PeopleQuery>) {
   return useQuery(computed(() => peopleListQuery(query.value)));
@@ -13,7 +14,7 @@ export function useChangePersonRoles() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: ({ personId, change }: { personId: number; change: RoleChange }) => changePersonRoles(personId, change),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: peopleKeys.all }),
+    onSuccess: () => invalidateAfter(queryClient, 'people'),
   });
 }
 
@@ -21,6 +22,6 @@ export function useChangePersonActivation() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: ({ personId, change }: { personId: number; change: ActivationChange }) => changePersonActivation(personId, change),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: peopleKeys.all }),
+    onSuccess: () => invalidateAfter(queryClient, 'people'),
   });
 }

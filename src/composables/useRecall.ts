@@ -2,8 +2,7 @@ import { computed, type Ref } from 'vue';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/vue-query';
 import type { OpenRecallInput, RecallListQuery } from '@shared/schemas/recall';
 import * as api from '../api/recall';
-import { manufacturingKeys } from '../api/manufacturing';
-import { releaseKeys } from '../api/release';
+import { invalidateAfter } from '../api/invalidation';
 
 export const useRecalls = (query: Ref<RecallListQuery>) => useQuery(computed(() => api.recallListQuery(query.value)));
 export const useRecall = (id: Ref<number>) => useQuery(computed(() => api.recallQuery(id.value)));
@@ -14,11 +13,7 @@ function useRecallChange<Input, Output>(change: (input: Input) => Promise<Output
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: change,
-    onSuccess: async () => {
-      await queryClient.invalidateQueries({ queryKey: api.recallKeys.all });
-      await queryClient.invalidateQueries({ queryKey: manufacturingKeys.all });
-      await queryClient.invalidateQueries({ queryKey: releaseKeys.all });
-    },
+    onSuccess: () => invalidateAfter(queryClient, 'recall'),
   });
 }
 

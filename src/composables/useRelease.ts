@@ -2,7 +2,7 @@ import { computed, type Ref } from 'vue';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/vue-query';
 import type { LabelMovement, ReleaseQueueQuery } from '@shared/schemas/release';
 import * as api from '../api/release';
-import { manufacturingKeys } from '../api/manufacturing';
+import { invalidateAfter } from '../api/invalidation';
 
 export const useReleaseView = (lotId: Ref<number>) => useQuery(computed(() => api.releaseViewQuery(lotId.value)));
 export const useReleaseQueue = (query: Ref<ReleaseQueueQuery>) => useQuery(computed(() => api.releaseQueueQuery(query.value)));
@@ -11,10 +11,7 @@ function useReleaseChange<Input, Output>(change: (input: Input) => Promise<Outpu
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: change,
-    onSuccess: async () => {
-      await queryClient.invalidateQueries({ queryKey: api.releaseKeys.all });
-      await queryClient.invalidateQueries({ queryKey: manufacturingKeys.all });
-    },
+    onSuccess: () => invalidateAfter(queryClient, 'release'),
   });
 }
 

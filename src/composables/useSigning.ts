@@ -2,7 +2,8 @@ import { ref } from 'vue';
 import { useQueryClient } from '@tanstack/vue-query';
 import type { Signature, SignatureIntent, SignaturePreparation } from '@shared/schemas/signatures';
 import { isApiError } from '../api/http';
-import { cancelReauthentication, prepareSignature, reauthenticationStatus, signatureKeys, startReauthentication, submitSignature } from '../api/signatures';
+import { cancelReauthentication, prepareSignature, reauthenticationStatus, startReauthentication, submitSignature } from '../api/signatures';
+import { invalidateAfterSignature } from '../api/invalidation';
 
 export type SigningStep = 'loading' | 'review' | 'reauthenticating' | 'submitting' | 'signed' | 'failed';
 
@@ -98,7 +99,7 @@ export function useSigning() {
         ...(reason.trim() ? { reason: reason.trim() } : {}),
       });
       step.value = 'signed';
-      await queryClient.invalidateQueries({ queryKey: signatureKeys.type(prepared.recordType) });
+      await invalidateAfterSignature(queryClient, prepared.recordType);
     } catch (failure) {
       try {
         popup?.close();

@@ -26,7 +26,7 @@ test('[E2E-SCREENING] a QA reviewer meets a heat flagged by the certificate scre
   await page.getByRole('link', { name: 'Suppliers' }).click();
   await expect(page.getByRole('heading', { level: 1, name: 'Suppliers' })).toBeVisible();
   await page.getByRole('textbox', { name: 'Search suppliers' }).fill('Brannock');
-  await expect(page.getByRole('table').first()).toContainText('conditional');
+  await expect(page.getByRole('table').first()).toContainText('Conditionally approved');
   await page.getByRole('link', { name: 'Brannock Alloy Works' }).click();
   await expect(page.getByRole('heading', { level: 1, name: 'Brannock Alloy Works' })).toBeVisible();
   const group = page.getByRole('region', { name: 'ASTM F67 grade 4' });

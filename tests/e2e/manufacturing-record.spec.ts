@@ -56,6 +56,9 @@ test('[E2E-MANUFACTURING] an engineer opens a lot from a bar, records its operat
   await page.getByRole('button', { name: 'Issue bar' }).click();
   await expect(page.getByRole('status')).toContainText('Issued 900 mm of E2E-LOT-BAR-1');
 
+  // The release checklist on the same page follows each record without a reload.
+  const checklist = page.getByRole('list', { name: 'Release checklist' });
+  await expect(checklist).toContainText('step 10 Swiss-turn and thread is not recorded');
   for (const [step, scrap] of [
     [10, 2],
     [20, 0],
@@ -73,6 +76,9 @@ test('[E2E-MANUFACTURING] an engineer opens a lot from a bar, records its operat
     await expect(dialog).toBeHidden();
   }
   await expect(page.getByRole('table', { name: 'Routing steps' })).toContainText('20 / 18 / 2');
+  await expect(checklist).not.toContainText('step 10 Swiss-turn and thread is not recorded');
+  await expect(checklist).not.toContainText('step 20 Hex drive and deburr is not recorded');
+  await expect(checklist).toContainText('step 30 Passivate is not recorded');
   await expect(page.getByText('Next: step 30 Passivate')).toBeVisible();
 
   // Passivation in window, then cleaning out of window, each with the two companion lots.
