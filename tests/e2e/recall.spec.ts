@@ -11,6 +11,8 @@ test('[E2E-RECALL] a recall coordinator opens a recall from a heat, sees the lot
   test.setTimeout(60_000);
   await signInAs(page, 'kiw-0501', '/trace');
   await expect(page.getByRole('heading', { level: 1, name: 'Trace and recall' })).toBeVisible();
+  // The investigations are reachable without running a trace first.
+  await expect(page.locator('.page-lead').getByRole('link', { name: 'recall investigations' })).toHaveAttribute('href', '/recalls');
   // A heat that reaches both shipped lots and lots still in the plant.
   const open = await (await page.request.get('/api/lots?status=open&pageSize=1&sort=lotNumber&order=desc')).json();
   const back = await (await page.request.get(`/api/trace/backward?lot=${open.items[0].lotNumber}`)).json();
