@@ -1,5 +1,3 @@
-import { toDecimal } from '../materials/e29-rounding';
-
 /**
  * Where a finished device touches the body decides its bacterial endotoxin limit. The product
  * ships the two limits it can show from a published source; a firm whose devices touch other
@@ -27,10 +25,3 @@ export const endotoxinLimits: readonly EndotoxinLimit[] = [
   { category: 'general-tissue', maxEuPerDevice: '20', source: `${fdaGuidance}: ≤ 20 EU/device (0.5 EU/mL at 40 mL rinse per device) for devices in contact with the cardiovascular and lymphatic systems and devices generally` },
   { category: 'cerebrospinal-fluid', maxEuPerDevice: '2.15', source: `${fdaGuidance}: ≤ 2.15 EU/device (0.06 EU/mL at 40 mL rinse per device) for devices in contact with cerebrospinal fluid` },
 ];
-
-/** The strictest published limit among the categories of the devices in one run (a run is judged once, for all its lots). */
-export function strictestEndotoxinLimit(categories: readonly ContactCategory[]): EndotoxinLimit | null {
-  const limits = endotoxinLimits.filter((limit) => categories.includes(limit.category));
-  if (!limits.length) return null;
-  return limits.reduce((lowest, limit) => (toDecimal(limit.maxEuPerDevice).lessThan(lowest.maxEuPerDevice) ? limit : lowest));
-}

@@ -7,7 +7,7 @@ import { AppError } from '../../errors';
 import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
 import { currentSpecifications } from '../materials/specification-library.repository';
-import { familiesOfSpecifications, methodScopeProblem } from './process-methods.service';
+import { methodScopeChecker } from './process-methods.service';
 
 interface PartRow {
   id: number;
@@ -99,14 +99,15 @@ export async function createPart(dataSource: DataSource, raw: PartCreate, person
       else if (allowed.grade && !specification.grades.some((grade) => grade.grade === allowed.grade)) fields[`specifications.${index}.grade`] = `${specification.id} has no grade ${allowed.grade}`;
       else allowed.specId = specification.id;
     });
-    const families = await familiesOfSpecifications(manager, input.specifications.map((allowed) => allowed.specId));
+    const scopeProblem = await methodScopeChecker(manager);
+    const specIds = input.specifications.map((allowed) => allowed.specId);
     for (const [index, step] of input.routing.entries()) {
       if (!step.processMethod) continue;
       const method = processMethod(step.processMethod);
       if (!method) fields[`routing.${index}.processMethod`] = `Unknown process method ${step.processMethod}`;
       else if (method.kind !== step.kind) fields[`routing.${index}.processMethod`] = `${method.id} is a ${method.kind} method, not ${step.kind}`;
       else {
-        const problem = await methodScopeProblem(manager, method, families, `The part's material`);
+        const problem = scopeProblem(method, specIds, `The part's material`);
         if (problem) fields[`routing.${index}.processMethod`] = problem;
       }
     }

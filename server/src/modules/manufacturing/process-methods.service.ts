@@ -15,17 +15,18 @@ export async function listProcessMethods(manager: EntityManager): Promise<Proces
   return processMethods.map((method) => ({ ...method, firmValidations: validations.filter((validation) => validation.methodId === method.id) }));
 }
 
-/** The material families a part may be made of, from the specifications it allows. */
-export async function familiesOfSpecifications(manager: EntityManager, specIds: readonly string[]): Promise<MaterialFamily[]> {
-  const library = await currentSpecifications(manager);
-  const families = specIds.map((specId) => library.find((specification) => specification.id.toUpperCase() === specId.toUpperCase())?.family);
-  return [...new Set(families.filter((family): family is MaterialFamily => Boolean(family)))];
-}
-
-/** Null when the method may treat parts of these materials (its scope or the firm's standing validation), else why not. */
-export async function methodScopeProblem(manager: EntityManager, method: ProcessMethod, families: readonly MaterialFamily[], subject: string): Promise<string | null> {
-  const outside = familiesOutsideScope(method, families, await standingMethodValidations(manager));
-  return outside.length ? outsideScopeMessage(method, outside, subject) : null;
+/**
+ * Checks methods against the materials of parts, with the specification library and the firm's
+ * standing validations read once (a run checks every lot it holds, a part every step it names).
+ */
+export async function methodScopeChecker(manager: EntityManager): Promise<(method: ProcessMethod, specIds: readonly string[], subject: string) => string | null> {
+  const [library, validations] = await Promise.all([currentSpecifications(manager), standingMethodValidations(manager)]);
+  return (method, specIds, subject) => {
+    const families = specIds.map((specId) => library.find((specification) => specification.id.toUpperCase() === specId.toUpperCase())?.family);
+    const known = [...new Set(families.filter((family): family is MaterialFamily => Boolean(family)))];
+    const outside = familiesOutsideScope(method, known, validations);
+    return outside.length ? outsideScopeMessage(method, outside, subject) : null;
+  };
 }
 
 /**

@@ -5,7 +5,7 @@ import type { ProcessRunDetail, ProcessRunSummary } from '@shared/schemas/lot-de
 import { processRunInputSchema, type ProcessRunInput, type ProcessRunListQuery } from '@shared/schemas/manufacturing';
 import type { Person } from '@shared/schemas/people';
 import type { Part } from '@shared/schemas/manufacturing';
-import { familiesOfSpecifications, methodScopeProblem } from './process-methods.service';
+import { methodScopeChecker } from './process-methods.service';
 import { AppError } from '../../errors';
 import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
@@ -115,6 +115,7 @@ export async function recordProcessRun(dataSource: DataSource, raw: ProcessRunIn
     // method's scope, and where its device touches the body (which sets the run's endotoxin limit).
     const due: Array<{ lotId: number; lotNumber: string; stepId: number; onHand: number }> = [];
     const categories = new Set<Part['contactCategory']>();
+    const scopeProblem = await methodScopeChecker(manager);
     for (const lotId of input.lotIds) {
       const lot = await findLotRow(manager, lotId, true);
       if (!lot) throw AppError.rule(`Lot ${lotId} does not exist`, { lotIds: 'Unknown lot' });
@@ -129,8 +130,7 @@ export async function recordProcessRun(dataSource: DataSource, raw: ProcessRunIn
       if (next.processMethod && next.processMethod !== method.id) {
         throw AppError.rule(`Lot ${lot.lot_number}'s routing calls for ${next.processMethod}, not ${method.id}`, { lotIds: `${lot.lot_number} needs ${next.processMethod}` });
       }
-      const families = await familiesOfSpecifications(manager, part.specifications.map((allowed) => allowed.specId));
-      const outOfScope = await methodScopeProblem(manager, method, families, `Lot ${lot.lot_number}`);
+      const outOfScope = scopeProblem(method, part.specifications.map((allowed) => allowed.specId), `Lot ${lot.lot_number}`);
       if (outOfScope) throw AppError.rule(outOfScope, { lotIds: `${lot.lot_number} is outside ${method.id}'s scope` });
       const chain = (await unitChains(manager, [lotId])).get(lotId)!;
       if (chain.onHand < 1) throw AppError.rule(`Lot ${lot.lot_number} holds no units`, { lotIds: `${lot.lot_number} is empty` });

@@ -1,8 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { strictestEndotoxinLimit } from '@shared/domain/manufacturing/contact-categories';
 import { familiesOutsideScope, outsideScopeMessage } from '@shared/domain/manufacturing/method-scope';
 import { processMethod, processMethods } from '@shared/domain/manufacturing/process-methods';
-import { checkRunWindow } from '@shared/domain/manufacturing/run-window';
+import { checkRunWindow, windowForRun } from '@shared/domain/manufacturing/run-window';
 
 const cleaningMethod = processMethod('KIW-CLEAN-AQ')!;
 const clean = (endotoxin: string) => ({ detergent: 'D-1', detergentConcentration: '2', washTemperature: '55', washTime: '15', rinseTemperature: '30', rinseTime: '6', rinseConductivity: '1.1', toc: '150', endotoxin });
@@ -25,8 +24,9 @@ describe('endotoxin limits follow where the device touches the body', () => {
 
   it('when a run holds lots of both categories, then the strictest limit applies to the whole run', () => {
     expect(endotoxinItem(checkRunWindow(cleaningMethod, clean('3'), ['general-tissue', 'cerebrospinal-fluid'])).verdict).toBe('out-of-window');
-    expect(strictestEndotoxinLimit(['general-tissue', 'cerebrospinal-fluid'])?.maxEuPerDevice).toBe('2.15');
-    expect(strictestEndotoxinLimit([])).toBeNull();
+    const endotoxin = cleaningMethod.parameters.find((parameter) => parameter.key === 'endotoxin')!;
+    expect(windowForRun(endotoxin, ['general-tissue', 'cerebrospinal-fluid'])).toMatchObject({ max: '2.15', appliesTo: 'cerebrospinal-fluid' });
+    expect(windowForRun(endotoxin, ['general-tissue'])).toMatchObject({ max: '20', appliesTo: 'general-tissue' });
   });
 
   it('when no lot is known yet, then the run is judged against the strictest limit, never the looser one', () => {
