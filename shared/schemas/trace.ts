@@ -6,8 +6,8 @@ const id = z.coerce.number().int().positive().max(4_294_967_295);
 const day = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'A date as YYYY-MM-DD');
 
 /** Finding where a forward trace starts, by the numbers people hold: heat number, bar tag, run number, supplier name. */
-export const traceStartQuerySchema = z.object({ q: z.string().trim().min(1, 'Type part of a heat number, bar tag, run number or supplier name').max(60) });
-export const traceStartKinds = ['heat', 'piece', 'run', 'supplier'] as const;
+export const traceStartQuerySchema = z.object({ q: z.string().trim().min(1, 'Type part of a heat number, bar tag, run number, supplier name, part number or GTIN').max(60) });
+export const traceStartKinds = ['heat', 'piece', 'run', 'supplier', 'part'] as const;
 export const traceStartSchema = z.object({
   kind: z.enum(traceStartKinds),
   id: z.number().int(),
@@ -28,9 +28,9 @@ export const backwardQuerySchema = z
 export type BackwardQuery = z.infer<typeof backwardQuerySchema>;
 
 export const forwardQuerySchema = z
-  .object({ heatId: id.optional(), pieceId: id.optional(), runId: id.optional(), supplierId: id.optional(), from: day.optional(), to: day.optional() })
-  .refine((query) => [query.heatId, query.pieceId, query.runId, query.supplierId].filter((value) => value !== undefined).length === 1, {
-    message: 'Start from exactly one of a heat, a bar piece, a run or a supplier',
+  .object({ heatId: id.optional(), pieceId: id.optional(), runId: id.optional(), supplierId: id.optional(), partId: id.optional(), from: day.optional(), to: day.optional() })
+  .refine((query) => [query.heatId, query.pieceId, query.runId, query.supplierId, query.partId].filter((value) => value !== undefined).length === 1, {
+    message: 'Start from exactly one of a heat, a bar piece, a run, a supplier or a part',
     path: ['heatId'],
   });
 export type ForwardStart = z.infer<typeof forwardQuerySchema>;

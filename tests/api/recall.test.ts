@@ -47,7 +47,7 @@ describe('recall investigations: frozen snapshot, holds, re-run difference, expo
     const [before] = await db.query('SELECT COUNT(*) AS n FROM recall_investigation');
     const twoStarts = await post('coordinator', '/api/recalls', { trigger: { heatId: 1, pieceId }, mode: 'recall', reason: 'Suspected inclusion in the bar' });
     expect(twoStarts.status).toBe(400);
-    expect(twoStarts.body.error.fields['trigger.heatId']).toBe('Start from exactly one of a heat, a bar piece, a run or a supplier');
+    expect(twoStarts.body.error.fields['trigger.heatId']).toBe('Start from exactly one of a heat, a bar piece, a run, a supplier or a part');
     const noReason = await post('coordinator', '/api/recalls', { trigger: { pieceId }, mode: 'drill', reason: 'bad' });
     expect(noReason.status).toBe(400);
     expect(noReason.body.error.fields.reason).toBe('Say in a sentence why the investigation is opened');
@@ -66,6 +66,7 @@ describe('recall investigations: frozen snapshot, holds, re-run difference, expo
     expect(drill.opening.content.trace.lots.map((lot) => lot.lotNumber)).toEqual([lots[0]!.lotNumber]);
     expect(drill.holds).toEqual([]);
     expect((await readiness(lots[0]!.id)).items.find((item: { key: string }) => item.key === 'holds').verdict).toBe('pass');
+    expect((await readiness(lots[0]!.id)).items.find((item: { key: string }) => item.key === 'held-material').verdict).toBe('pass');
     const db = await running.database.connect();
     expect(await db.query("SELECT id FROM mail_outbox WHERE entity_type = 'recall' AND entity_id = ?", [String(drill.id)])).toEqual([]);
   });
@@ -81,9 +82,17 @@ describe('recall investigations: frozen snapshot, holds, re-run difference, expo
     expect(recall.holds.map((hold) => [hold.lotNumber, hold.liftedAt])).toEqual([[lots[0]!.lotNumber, null]]);
     const checklist = await readiness(lots[0]!.id);
     expect(checklist.items.find((item: { key: string }) => item.key === 'holds')).toMatchObject({ verdict: 'fail', why: `on hold by recall investigation ${recall.recallNumber}` });
+    // The bar issued to it is named too, with the recall that holds it (the drill on the same bar holds nothing).
+    expect(checklist.items.find((item: { key: string }) => item.key === 'held-material')).toMatchObject({
+      verdict: 'fail',
+      why: `bar TST-RCL-BAR: recall investigation ${recall.recallNumber} is open (bar TST-RCL-BAR)`,
+    });
     const refused = await post('engineer', `/api/lots/${lots[0]!.id}/release-submissions`, {});
     expect(refused.status).toBe(422);
-    expect(refused.body.error.fields).toEqual({ holds: `on hold by recall investigation ${recall.recallNumber}` });
+    expect(refused.body.error.fields).toEqual({
+      holds: `on hold by recall investigation ${recall.recallNumber}`,
+      'held-material': `bar TST-RCL-BAR: recall investigation ${recall.recallNumber} is open (bar TST-RCL-BAR)`,
+    });
     const mail = await mailWithSubject(running.config.MAIL_WEB_PORT, `Recall investigation ${recall.recallNumber} opened: bar TST-RCL-BAR`);
     expect(mail.to.map((to) => to.address).sort()).toEqual(expect.arrayContaining(['joaquin.ferreira@kestrelmoor.example', 'oluwaseun.adeyemi@kestrelmoor.example']));
     expect(mail.text).toContain(`Lots placed on hold (not yet shipped): ${lots[0]!.lotNumber}`);

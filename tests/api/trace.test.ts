@@ -47,6 +47,7 @@ describe('genealogy both ways on a hand-built history with a cut bar, a split, a
       specifications: [{ specId: 'ASTM F136' }],
       routing: [{ kind: 'machining', name: 'Turn' }, { kind: 'passivation', name: 'Passivate', processMethod: 'F86-NITRIC' }],
     });
+    ids.part = part.id;
     for (const [name, tag] of [['L1', 'TRC-B1-A'], ['L2', 'TRC-B1-B'], ['L3', 'TRC-B2']] as const) {
       const opened = await post('/api/lots', { partId: part.id, plannedQty: 10 });
       lot[name] = { id: opened.id, lotNumber: opened.lotNumber };
@@ -106,7 +107,7 @@ describe('genealogy both ways on a hand-built history with a cut bar, a split, a
     }
   });
 
-  it('[TRACE-STARTS] when part of a heat number, bar tag, run number or supplier name is typed, then the matching starts come back named, each with its record behind it', async () => {
+  it('[TRACE-STARTS] when part of a heat number, bar tag, run number, supplier name, part number or GTIN is typed, then the matching starts come back named, each with its record behind it', async () => {
     const [heat] = await running.database.dataSource.query('SELECT heat_number FROM heat WHERE id = ?', [ids.h1]);
     const starts = async (q: string) => (await auditor.get(`/api/trace/starts?q=${encodeURIComponent(q)}`)).body as Array<{ kind: string; id: number; label: string; detail: string }>;
     const byHeat = await starts(heat.heat_number.slice(0, -1));
@@ -116,12 +117,21 @@ describe('genealogy both ways on a hand-built history with a cut bar, a split, a
     expect(await starts(run.run_number)).toContainEqual(expect.objectContaining({ kind: 'run', id: ids.r1, detail: 'Passivation run · F86-NITRIC' }));
     expect((await starts('nordvik')).some((start) => start.kind === 'supplier' && /^Supplier, /.test(start.detail))).toBe(true);
     // LIKE's own characters are searched for as typed, not as wildcards.
+    // A part by number or GTIN: as GTIN-14, as the GTIN-13 printed under an EAN-13 bar code (the
+    // leading zero dropped, GS1 General Specifications §3.3.2), and as a bracketed element string.
+    const isPart = (found: Array<{ kind: string; id: number }>) => found.some((start) => start.kind === 'part' && start.id === ids.part);
+    expect(await starts('TRC-PART')).toContainEqual(expect.objectContaining({ kind: 'part', id: ids.part, label: 'TRC-PART rev A', detail: 'Part · Trace test part · GTIN 09521230000031' }));
+    expect(isPart(await starts('09521230000031'))).toBe(true);
+    expect(isPart(await starts('9521230000031'))).toBe(true);
+    expect(isPart(await starts('(01)09521230000031'))).toBe(true);
+    // A neighbouring GTIN (last digit off by one) is a different trade item and must not match.
+    expect(isPart(await starts('9521230000032'))).toBe(false);
     expect(await starts('%')).toEqual([]);
     expect(await starts('_')).toEqual([]);
     expect((await auditor.get('/api/trace/starts?q=')).status).toBe(400);
   });
 
-  it('[TRACE-FORWARD] when traced forward from each heat, piece and run, then exactly the lots written out by hand are affected', async () => {
+  it('[TRACE-FORWARD] when traced forward from each heat, piece, run and part, then exactly the lots written out by hand are affected', async () => {
     const lotsOf = async (query: string) => (await forward(query)).lots.map((entry) => entry.lotNumber).sort();
     expect((await lotsOf(`heatId=${ids.h1}`)).filter((number) => numbers('L1', 'L1-A', 'L2', 'L3', 'M').includes(number))).toEqual(numbers('L1', 'L1-A', 'L2', 'M'));
     expect((await lotsOf(`heatId=${ids.h2}`)).filter((number) => numbers('L1', 'L1-A', 'L2', 'L3', 'M').includes(number))).toEqual(numbers('L3', 'M'));
@@ -129,6 +139,9 @@ describe('genealogy both ways on a hand-built history with a cut bar, a split, a
     expect(await lotsOf(`pieceId=${ids.b1}`)).toEqual(numbers('L1', 'L1-A', 'L2', 'M'));
     expect(await lotsOf(`runId=${ids.r1}`)).toEqual(numbers('L1', 'L1-A'));
     expect(await lotsOf(`runId=${ids.r2}`)).toEqual(numbers('M'));
+    // Every lot made as the part, including those split and merged from its lots.
+    expect(await lotsOf(`partId=${ids.part}`)).toEqual(numbers('L1', 'L1-A', 'L2', 'L3', 'M'));
+    expect((await forward(`partId=${ids.part}`)).start).toBe('part TRC-PART (GTIN 09521230000031)');
     const refused = await auditor.get(`/api/trace/forward?heatId=${ids.h1}&runId=${ids.r1}`);
     expect(refused.status).toBe(400);
   });

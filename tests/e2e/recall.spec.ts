@@ -21,7 +21,7 @@ test('[E2E-RECALL] a recall coordinator opens a recall from a heat, sees the lot
 
   await page.getByRole('tab', { name: 'What does this touch?' }).click();
   // Typed as a person holds it: the heat number, key by key; the match names its supplier.
-  const start = page.getByRole('combobox', { name: 'Start from a heat, bar, run or supplier' });
+  const start = page.getByRole('combobox', { name: 'Start from a heat, bar, run, supplier or part' });
   await start.pressSequentially(heat.heatNumber, { delay: 80 });
   const match = page.getByRole('option', { name: new RegExp(`^Heat ${heat.heatNumber.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}`) });
   await expect(match).toContainText('Heat from');

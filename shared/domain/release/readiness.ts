@@ -14,11 +14,13 @@ export interface ReadinessFacts {
   material: Array<{ lotNumber: string; lotId: number; verdict: string; why: string }>;
   openNonconformances: Array<{ id: number; ncNumber: string; status: string }>;
   holds: Array<{ id: number; reference: string }>;
+  /** Each bar issued to the lot or its ancestors that an open recall or a nonconformance holds, with why. */
+  heldMaterial: Array<{ tag: string; reasons: string[] }>;
   labels: { printed: number; voided: number };
 }
 
 export interface ReadinessItem {
-  key: 'heats' | 'routing' | 'runs' | 'inspections' | 'units' | 'material' | 'nonconformances' | 'holds' | 'labels';
+  key: 'heats' | 'routing' | 'runs' | 'inspections' | 'units' | 'material' | 'held-material' | 'nonconformances' | 'holds' | 'labels';
   title: string;
   verdict: 'pass' | 'fail';
   why: string;
@@ -67,6 +69,13 @@ export function releaseReadiness(facts: ReadinessFacts): Readiness {
     item('inspections', 'Inspections passed', inspectionFailures, facts.inspections.length ? `${facts.inspections.length} inspection(s) accepted` : 'the routing has no inspection', lotLink),
     item('units', 'Unit counts reconciled', facts.unitsConsistent ? [] : facts.unitProblems.length ? facts.unitProblems : ['unit counts do not chain'], `${units} units on hand, every step accounted for`, lotLink),
     item('material', 'Bar length reconciled', materialFailures, facts.material.map((entry) => `lot ${entry.lotNumber} reconciled`).join(', ') || 'no bar issued', lotLink),
+    item(
+      'held-material',
+      'No bar under a recall or an open nonconformance',
+      facts.heldMaterial.flatMap((bar) => bar.reasons.map((reason) => `bar ${bar.tag}: ${reason}`)),
+      'no issued bar is held',
+      lotLink,
+    ),
     item(
       'nonconformances',
       'No open nonconformance',

@@ -18,6 +18,7 @@ import { AddCannotBeEvaluated1764694800000 } from './1764694800000-add-cannot-be
 import { AddContactCategoryAndMethodValidation1764698400000 } from './1764698400000-add-contact-category-and-method-validation';
 import { AddRoleChangeConfirmation1764702000000 } from './1764702000000-add-role-change-confirmation';
 import { AddLedgerSignatures1764705600000 } from './1764705600000-add-ledger-signatures';
+import { AddPartRecallTrigger1764709200000 } from './1764709200000-add-part-recall-trigger';
 
 /** Every migration in the order it runs. Add new ones at the end. */
 export const migrations = [
@@ -41,4 +42,5 @@ export const migrations = [
   AddContactCategoryAndMethodValidation1764698400000,
   AddRoleChangeConfirmation1764702000000,
   AddLedgerSignatures1764705600000,
+  AddPartRecallTrigger1764709200000,
 ];

@@ -17,7 +17,7 @@ export interface RecallRow {
   recall_number: string;
   mode: 'recall' | 'drill';
   status: 'open' | 'closed';
-  trigger_kind: 'heat' | 'piece' | 'run' | 'supplier';
+  trigger_kind: 'heat' | 'piece' | 'run' | 'supplier' | 'part';
   trigger_id: number;
   window_from: string | null;
   window_to: string | null;
@@ -46,7 +46,7 @@ const recallSelect = `SELECT r.id, r.recall_number, r.mode, r.status, r.trigger_
                              (SELECT COUNT(*) FROM lot_hold h WHERE h.recall_id = r.id AND h.lifted_at IS NULL) AS active_holds
                         FROM recall_investigation r JOIN person p ON p.id = r.opened_by`;
 
-const triggerKey = { heat: 'heatId', piece: 'pieceId', run: 'runId', supplier: 'supplierId' } as const;
+const triggerKey = { heat: 'heatId', piece: 'pieceId', run: 'runId', supplier: 'supplierId', part: 'partId' } as const;
 
 function triggerOf(row: RecallRow): ForwardStart {
   return { [triggerKey[row.trigger_kind]]: row.trigger_id, ...(row.window_from ? { from: row.window_from } : {}), ...(row.window_to ? { to: row.window_to } : {}) } as ForwardStart;

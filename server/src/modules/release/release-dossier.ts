@@ -5,6 +5,7 @@ import type { LotDetail } from '@shared/schemas/lot-detail';
 import { lotDetailIn } from '../manufacturing/lot-detail.service';
 import { ancestorLots } from '../trace/genealogy.repository';
 import { nonconformancesWhere } from '../manufacturing/nonconformances.repository';
+import { materialHolds } from '../manufacturing/material-holds.repository';
 import { reconcileMaterial } from '@shared/domain/manufacturing/material-reconciliation';
 import { DecimalE29 } from '@shared/domain/materials/e29-rounding';
 import { latestVerdictSql } from '../materials/heats.repository';
@@ -94,6 +95,17 @@ export async function releaseDossierIn(manager: EntityManager, lotId: number): P
     });
     material.push({ lotId: ancestorId, lotNumber: bar[0].lot_number, verdict: result.verdict, why: result.why });
   }
+  // Bar held by an open recall or a nonconformance on it, its heat or a bar it was cut from.
+  const issuedPieces: Array<{ piece_id: number; tag: string; heat_id: number; supplier_id: number }> = await manager.query(
+    `SELECT DISTINCT b.id AS piece_id, b.tag, h.id AS heat_id, h.supplier_id FROM material_movement m JOIN bar_piece b ON b.id = m.bar_piece_id JOIN heat h ON h.id = b.heat_id
+      WHERE m.lot_id IN (${marks}) AND m.kind = 'issue' ORDER BY b.tag`,
+    lineage,
+  );
+  const heldMaterial: ReadinessFacts['heldMaterial'] = [];
+  for (const piece of issuedPieces) {
+    const reasons = await materialHolds(manager, { heatId: piece.heat_id, pieceId: piece.piece_id, supplierId: piece.supplier_id }, lineage);
+    if (reasons.length) heldMaterial.push({ tag: piece.tag, reasons });
+  }
   const recordedStep = new Map(operations.map((operation) => [operation.step_no, operation.lot_number]));
   const facts: ReadinessFacts = {
     lot: { id: lot.id, lotNumber: lot.lotNumber, onHand: lot.onHand },
@@ -113,6 +125,7 @@ export async function releaseDossierIn(manager: EntityManager, lotId: number): P
     material,
     openNonconformances: nonconformances.filter((nc) => nc.status !== 'closed').map((nc) => ({ id: nc.id, ncNumber: nc.ncNumber, status: nc.status })),
     holds: (await activeHolds(manager, [lot.id])).map((hold) => ({ id: hold.id, reference: hold.reference })),
+    heldMaterial,
     labels: { printed: Number(labels?.printed ?? 0), voided: Number(labels?.voided ?? 0) },
   };
   const readiness = releaseReadiness(facts);

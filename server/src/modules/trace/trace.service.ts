@@ -197,7 +197,12 @@ async function seedOf(manager: EntityManager, start: ForwardStart): Promise<{ se
       includesDescendants: true,
     };
   }
-  throw new AppError('VALIDATION_FAILED', 'Start from a heat, a bar piece, a run or a supplier', { heatId: 'One of heatId, pieceId, runId or supplierId' });
+  if (start.partId) {
+    // Every lot made as the part; a lot split or merged from one is made as the same part.
+    const label = named("SELECT CONCAT(part_number, ' (GTIN ', gtin, ')') AS name FROM part WHERE id = ?", start.partId, 'Part', (name) => `part ${name}`);
+    return { seed: 'SELECT id FROM production_lot WHERE part_id = ?', parameters: [start.partId], label, includesDescendants: true };
+  }
+  throw new AppError('VALIDATION_FAILED', 'Start from a heat, a bar piece, a run, a supplier or a part', { heatId: 'One of heatId, pieceId, runId, supplierId or partId' });
 }
 
 /** Each lot with its part, quantities made and released, units shipped and the lots it came from. */
