@@ -16,6 +16,7 @@ export const demoOrganisation = {
   site: 'Tarnbridge machining and finishing plant',
   address: 'Unit 4, Fellgate Park, Tarnbridge TB4 9QZ',
   gs1CompanyPrefix: '9520123',
+  timeZone: 'Europe/London',
 } as const;
 
 /** People whom the demo deactivates in Ingotrace (the identity provider still knows them). */

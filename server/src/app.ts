@@ -114,7 +114,7 @@ export function createApp(context: AppContext, options: AppOptions = {}): Ingotr
   const stopMailWorker = options.mailWorker === false ? () => undefined : startMailWorker(context.config, () => context.database.dataSource, context.logger);
   const stopCheckpoints =
     (options.dailyCheckpoints ?? context.config.NODE_ENV !== 'test')
-      ? startDailyCheckpoints(context.config, () => context.database.dataSource, (error) => context.logger.error({ err: error }, 'the daily audit ledger checkpoint failed'))
+      ? startDailyCheckpoints(context.config, () => context.database.dataSource, (error) => context.logger.error({ err: error }, 'the daily audit trail checkpoint failed'))
       : () => undefined;
   return Object.assign(app, {
     shutdown: async () => {

@@ -1,7 +1,7 @@
 import { canonicalJson } from './ledger-hash';
 
 /** What a signature means; each record type allows some of these. */
-export const signatureMeanings = ['reviewed', 'approved', 'approved-for-release', 'rejected', 'accepted', 'quarantined', 'dispositioned', 'closed', 'withdrawn', 'lifted', 'justified', 'confirmed'] as const;
+export const signatureMeanings = ['reviewed', 'approved', 'approved-for-release', 'rejected', 'accepted', 'quarantined', 'dispositioned', 'closed', 'withdrawn', 'lifted', 'justified', 'confirmed', 'returned-to-engineering', 'refused'] as const;
 export type SignatureMeaning = (typeof signatureMeanings)[number];
 
 export const meaningLabels: Record<SignatureMeaning, string> = {
@@ -17,10 +17,12 @@ export const meaningLabels: Record<SignatureMeaning, string> = {
   lifted: 'Hold lifted',
   justified: 'Justified for acceptance',
   confirmed: 'Role change confirmed',
+  'returned-to-engineering': 'Returned to engineering',
+  refused: 'Role change refused',
 };
 
 /** Meanings that must carry a reason. */
-export const meaningsNeedingReason: readonly SignatureMeaning[] = ['rejected', 'quarantined', 'closed', 'withdrawn', 'lifted', 'justified'];
+export const meaningsNeedingReason: readonly SignatureMeaning[] = ['rejected', 'quarantined', 'closed', 'withdrawn', 'lifted', 'justified', 'returned-to-engineering', 'refused'];
 
 /** The statement shown beside every signature (21 CFR 11.100(c) / 11.50 manifestation). */
 export const signatureStatement =

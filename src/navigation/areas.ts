@@ -96,10 +96,10 @@ export const productAreas: ProductArea[] = [
     name: 'audit',
     action: 'audit.read',
     path: '/audit',
-    title: 'Audit ledger',
+    title: 'Audit trail',
     icon: 'pi pi-history',
     summary: 'The append-only, hash-chained record of every change, signature and sign-in.',
-    plannedWork: ['Filter the ledger by person, action, record and time', 'Verify the hash chain', 'Export a self-verifying bundle'],
+    plannedWork: ['Filter the audit trail by person, action, record and time', 'Verify the hash chain', 'Export a self-verifying bundle'],
     releaseRelated: false,
   },
   {

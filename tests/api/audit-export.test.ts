@@ -40,7 +40,7 @@ describe('the verifiable ledger export', () => {
     expect(checkpoint).toMatchObject({ reason: 'export', seq: expect.any(Number), hash: expect.stringMatching(/^[0-9a-f]{64}$/), signature: expect.any(String) });
     const [event] = await running.database.dataSource.query('SELECT hash FROM audit_event WHERE seq = ?', [checkpoint.seq]);
     expect(event.hash).toBe(checkpoint.hash);
-    const mail = await mailWithSubject(running.config.MAIL_WEB_PORT, `Audit ledger checkpoint: event ${checkpoint.seq}`);
+    const mail = await mailWithSubject(running.config.MAIL_WEB_PORT, `Audit trail checkpoint: event ${checkpoint.seq}`);
     expect(mail.to.map((to) => to.address)).toEqual([running.config.QUALITY_MAILBOX]);
     expect(mail.text).toContain(checkpoint.signature);
   });

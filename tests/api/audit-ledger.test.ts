@@ -62,7 +62,7 @@ describe('the audit ledger', () => {
       }),
     );
     const after = await verifyLedger(dataSource.manager);
-    expect(after.summary).toMatch(/^ledger verified/);
+    expect(after.summary).toMatch(/^audit trail verified/);
     expect(after.events).toBe(before.events + 1000);
     expect(after.chainHead.seq).toBe(before.chainHead.seq + 1000);
     const [{ seqs }] = await dataSource.query("SELECT COUNT(DISTINCT seq) AS seqs FROM audit_event WHERE action = 'test.concurrent-write'");
@@ -73,7 +73,7 @@ describe('the audit ledger', () => {
     const result = ingotrace('audit', 'verify');
     expect(result.stderr).toBe('');
     expect(result.code).toBe(0);
-    expect(result.stdout).toMatch(/^ledger verified: \d+ events, \d+ signatures, chain head \d+ [0-9a-f]{64}; \d+ events signed with key [0-9a-f]{16}, \d+ checkpoints hold \(\d+ ms\)\n$/);
+    expect(result.stdout).toMatch(/^audit trail verified: \d+ events, \d+ signatures, chain head \d+ [0-9a-f]{64}; \d+ events signed with key [0-9a-f]{16}, \d+ checkpoints hold \(\d+ ms\)\n$/);
   });
 
   it('[LEDGER-TAMPER-NAMED] when an administrator changes one row behind the triggers, then verify names exactly that sequence number', async () => {
@@ -84,7 +84,7 @@ describe('the audit ledger', () => {
     try {
       const result = ingotrace('audit', 'verify');
       expect(result.code).toBe(1);
-      expect(result.stderr).toBe(`ingotrace: ledger BROKEN at event ${seq}: its content no longer matches its hash\n`);
+      expect(result.stderr).toBe(`ingotrace: audit trail BROKEN at event ${seq}: its content no longer matches its hash\n`);
     } finally {
       await adminSql(`DROP TRIGGER audit_event_refuse_update; UPDATE audit_event SET reason = NULL WHERE seq = ${seq}; ${restoreTrigger}`);
     }
@@ -114,7 +114,7 @@ describe('the audit ledger', () => {
     writeFileSync(join(folder, 'garbage.json'), '{"hello": 1}');
     const garbage = ingotrace('audit', 'verify', '--file', join(folder, 'garbage.json'));
     expect(garbage.code).toBe(1);
-    expect(garbage.stderr).toContain('not an Ingotrace ledger export');
+    expect(garbage.stderr).toContain('not an Ingotrace audit trail export');
     const missing = ingotrace('audit', 'verify', '--file', join(folder, 'absent.json'));
     expect(missing.code).toBe(2);
     expect(missing.stderr).toMatch(/^ingotrace: cannot read .*absent\.json/);
@@ -161,7 +161,7 @@ describe('the audit ledger', () => {
     try {
       const result = ingotrace('audit', 'verify');
       expect(result.code).toBe(1);
-      expect(result.stderr).toMatch(new RegExp(`^ingotrace: ledger BROKEN at event ${unsigned.seq}: it is not signed, although the ledger is signed from event \\d+ on\\n$`));
+      expect(result.stderr).toMatch(new RegExp(`^ingotrace: audit trail BROKEN at event ${unsigned.seq}: it is not signed, although the audit trail is signed from event \\d+ on\\n$`));
     } finally {
       await removeForged(unsigned);
     }
@@ -169,7 +169,7 @@ describe('the audit ledger', () => {
     const realKeyId = ledgerSigner().keyId;
     const wrongKey = await forgeAppend((hash) => ({ signature: sign(null, Buffer.from(eventStatement(hash)), intruderKey).toString('base64'), keyId: realKeyId }));
     try {
-      expect(ingotrace('audit', 'verify').stderr).toBe(`ingotrace: ledger BROKEN at event ${wrongKey.seq}: its signature does not verify with the ledger's public key\n`);
+      expect(ingotrace('audit', 'verify').stderr).toBe(`ingotrace: audit trail BROKEN at event ${wrongKey.seq}: its signature does not verify with the audit trail's public key\n`);
     } finally {
       await removeForged(wrongKey);
     }
@@ -192,7 +192,7 @@ describe('the audit ledger', () => {
     bundle.chainHead = { seq: bundle.events.at(-1).seq, hash: bundle.events.at(-1).hash };
     const rehashed = join(folder, 'rehashed.json');
     writeFileSync(rehashed, JSON.stringify(bundle));
-    expect(ingotrace('audit', 'verify', '--file', rehashed).stderr).toBe(`ingotrace: export BROKEN at event ${bundle.events[from].seq}: its signature does not verify with the ledger's public key\n`);
+    expect(ingotrace('audit', 'verify', '--file', rehashed).stderr).toBe(`ingotrace: export BROKEN at event ${bundle.events[from].seq}: its signature does not verify with the audit trail's public key\n`);
     // Re-sign everything with a key of one's own and put its public key in the file.
     const { privateKey, publicKey } = generateKeyPairSync('ed25519');
     const publicPem = publicKey.export({ type: 'spki', format: 'pem' }).toString();
@@ -206,11 +206,11 @@ describe('the audit ledger', () => {
     writeFileSync(resigned, JSON.stringify(bundle));
     const refused = ingotrace('audit', 'verify', '--file', resigned);
     expect(refused.code).toBe(1);
-    expect(refused.stderr).toMatch(new RegExp(`^ingotrace: export BROKEN at event 1: it is signed with another key \\(key ${keyIdOf(publicPem)}, this ledger's key is ${ledgerSigner().keyId}\\)\\n$`));
+    expect(refused.stderr).toMatch(new RegExp(`^ingotrace: export BROKEN at event 1: it is signed with another key \\(key ${keyIdOf(publicPem)}, this audit trail's key is ${ledgerSigner().keyId}\\)\\n$`));
     // Even taking the forger's key as the trusted one, the installation's signed checkpoints refuse the file;
     // only with the forger's key and no witness would it pass — which is why the firm publishes its key and keeps its checkpoints.
     writeFileSync(join(folder, 'forger.pub.pem'), publicPem);
-    expect(ingotrace('audit', 'verify', '--file', resigned, '--public-key', join(folder, 'forger.pub.pem')).stderr).toMatch(/is not signed with the ledger's key\n$/);
+    expect(ingotrace('audit', 'verify', '--file', resigned, '--public-key', join(folder, 'forger.pub.pem')).stderr).toMatch(/is not signed with the audit trail's key\n$/);
     writeFileSync(join(folder, 'no-witness.jsonl'), '');
     expect(ingotrace('audit', 'verify', '--file', resigned, '--public-key', join(folder, 'forger.pub.pem'), '--witness', join(folder, 'no-witness.jsonl')).code).toBe(0);
   });
@@ -224,12 +224,12 @@ describe('the audit ledger', () => {
     };
     const beyond = join(folder, 'beyond.jsonl');
     writeFileSync(beyond, `${checkpoint(10_000_000, 'a'.repeat(64))}\n`);
-    expect(ingotrace('audit', 'verify', '--witness', beyond).stderr).toMatch(/^ingotrace: ledger BROKEN at event 10000000: the checkpoint of .* names this event, which the ledger no longer holds: it was cut off after the checkpoint\n$/);
+    expect(ingotrace('audit', 'verify', '--witness', beyond).stderr).toMatch(/^ingotrace: audit trail BROKEN at event 10000000: the checkpoint of .* names this event, which the audit trail no longer holds: it was cut off after the checkpoint\n$/);
     const rewritten = join(folder, 'rewritten.jsonl');
     writeFileSync(rewritten, `${checkpoint(2, 'b'.repeat(64))}\n`);
-    expect(ingotrace('audit', 'verify', '--witness', rewritten).stderr).toMatch(/^ingotrace: ledger BROKEN at event 2: the checkpoint of .* gives this event another hash: the ledger was rewritten after the checkpoint\n$/);
+    expect(ingotrace('audit', 'verify', '--witness', rewritten).stderr).toMatch(/^ingotrace: audit trail BROKEN at event 2: the checkpoint of .* gives this event another hash: the audit trail was rewritten after the checkpoint\n$/);
     const unsignedCheckpoint = join(folder, 'unsigned.jsonl');
     writeFileSync(unsignedCheckpoint, `${JSON.stringify({ seq: 2, hash: 'b'.repeat(64), at: new Date().toISOString(), keyId: signer.keyId, reason: 'daily', signature: 'AAAA' })}\n`);
-    expect(ingotrace('audit', 'verify', '--witness', unsignedCheckpoint).stderr).toMatch(/checkpoint of .* is not signed with the ledger's key/);
+    expect(ingotrace('audit', 'verify', '--witness', unsignedCheckpoint).stderr).toMatch(/checkpoint of .* is not signed with the audit trail's key/);
   });
 });

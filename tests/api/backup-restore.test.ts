@@ -50,7 +50,7 @@ describe('backup and restore', () => {
     expect(manifest.documents.length).toBeGreaterThan(0);
     const result = await restoreDatabase(server, running.config, file, restoredName);
     expect(result.differences).toEqual([]);
-    expect(result.ledger).toMatch(/^ledger verified/);
+    expect(result.ledger).toMatch(/^audit trail verified/);
     expect(result.ledger).toContain(manifest.chainHead.hash);
 
     // Independently of the manifest: each document's bytes, hashed here, are the same in both databases.

@@ -1,6 +1,6 @@
 // The recall drill report on a hand-built scenario: one bar, two lots of 20. Lot A is released and
-// ships 5 units to one consignee and 7 to another; lot B stays open. Worked by hand: 2 lots, 40
-// made, 20 released, 12 shipped, 8 on hand, 2 consignees.
+// ships 5 units to one consignee and 7 to another; lot B stays open with its 20 units in work.
+// Worked by hand: 2 lots, 40 started, 20 released, 12 shipped, 8 + 20 = 28 in plant, 2 consignees.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { parse } from 'csv-parse/sync';
 import type { DrillReport, RecallDetail } from '@shared/schemas/recall';
@@ -60,7 +60,7 @@ describe('recall drill report', () => {
   it('[DRILL-COUNTS] when a drill is opened, then its report counts the hand-built scope and every completeness check passes', async () => {
     const body = await report();
     expect(body.drill).toMatchObject({ recallNumber: drill.recallNumber, status: 'open', trigger: 'bar TST-DRL-BAR', closedAt: null });
-    expect(body.assessment.totals).toEqual({ lots: 2, made: 40, released: 20, shipped: 12, onHand: 8, consignees: 2 });
+    expect(body.assessment.totals).toEqual({ lots: 2, made: 40, released: 20, shipped: 12, onHand: 28, consignees: 2 });
     expect(body.consignees.map((consignee) => [consignee.name, consignee.units]).sort()).toEqual(
       [
         [consignees[0]!.name, 5],
@@ -83,7 +83,7 @@ describe('recall drill report', () => {
     expect((await post('coordinator', `/api/recalls/${drill.id}/reruns`, {})).status).toBe(201);
     const fresh = await report();
     expect(fresh.assessment.complete).toBe(true);
-    expect(fresh.assessment.totals).toMatchObject({ shipped: 15, onHand: 5 });
+    expect(fresh.assessment.totals).toMatchObject({ shipped: 15, onHand: 25 });
     expect(fresh.assessment.timing).toMatchObject({ reruns: 1, scopeChanged: false });
     expect(fresh.scope.snapshot.kind).toBe('rerun');
   });
@@ -97,7 +97,7 @@ describe('recall drill report', () => {
     const csv = await people.auditor!.agent.get(`/api/recalls/${drill.id}/drill-report?format=csv`);
     expect(csv.headers['content-type']).toBe('text/csv; charset=utf-8');
     const rows = parse(csv.text, { columns: true }) as Array<{ section: string; name: string; value: string; detail: string }>;
-    expect(Object.fromEntries(rows.filter((row) => row.section === 'totals').map((row) => [row.name, row.value]))).toEqual({ lots: '2', made: '40', released: '20', shipped: '15', onHand: '5', consignees: '2' });
+    expect(Object.fromEntries(rows.filter((row) => row.section === 'totals').map((row) => [row.name, row.value]))).toEqual({ lots: '2', started: '40', released: '20', shipped: '15', 'in plant': '25', consignees: '2' });
     expect(rows.filter((row) => row.section === 'check').map((row) => row.value)).toEqual(['passed', 'passed', 'passed', 'passed', 'passed']);
     expect(rows.filter((row) => row.section === 'lot').map((row) => row.name).sort()).toEqual([lotA.lotNumber, lotB.lotNumber].sort());
 

@@ -66,7 +66,11 @@ describe('electronic signatures', () => {
       .send({ recordType: 'test-person-card', recordId: 'kiw-0101', meaning: 'reviewed', contentHash: preparation.contentHash, reauthenticationId });
     expect(signed.status).toBe(201);
     const signature = signatureSchema.parse(signed.body);
-    expect(signature.manifestation).toMatch(/^Aisling Ní Bhriain — Reviewed — \d{4}-\d{2}-\d{2} \d{2}:\d{2}:\d{2} UTC$/);
+    expect(signature.manifestation).toMatch(/^Aisling Ní Bhriain — Reviewed — \d{4}-\d{2}-\d{2} \d{2}:\d{2}:\d{2} (GMT|BST)$/);
+    // On the plant's clock (the demo plant is in Europe/London): GMT is UTC+0, BST UTC+1.
+    const [, stamp, zone] = /— (\S+ \S+) (GMT|BST)$/.exec(signature.manifestation)!;
+    const offsetHours = zone === 'BST' ? 1 : 0;
+    expect(Math.abs(Date.parse(`${stamp!.replace(' ', 'T')}Z`) - offsetHours * 3600_000 - Date.parse(signature.signedAt))).toBeLessThan(1000);
     expect(signature).toMatchObject({ signerRole: 'qa-reviewer', contentHash: preparation.contentHash, changedAfterSigning: false });
     const [event] = await running.database.dataSource.query("SELECT action, actor_name FROM audit_event WHERE action = 'signature.signed' ORDER BY seq DESC LIMIT 1");
     expect(event).toEqual({ action: 'signature.signed', actor_name: 'Aisling Ní Bhriain' });

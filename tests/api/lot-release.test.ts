@@ -115,9 +115,11 @@ describe('lot release: readiness, submission, two signatures, shipment', () => {
     // The trail the reviewer's signature recorded is printed with the packet, event by event.
     const { auditTrail } = await view(lots[0]!);
     const reviewed = auditTrail.events.filter((event: { seq: number }) => event.seq <= auditTrail.reviewedThroughSeq);
-    expect(text).toContain(`The QA review covered ${reviewed.length} ledger event(s) on this lot`);
-    expect(text).toContain('lot.opened');
-    expect(text).toContain('lot.material-issued');
+    expect(text).toContain(`The QA review covered ${reviewed.length} audit trail event(s) on this lot`);
+    // Events are named in words in the packet, never by their stored code.
+    expect(text).toContain('Lot opened');
+    expect(text).not.toContain('lot.opened');
+    expect(text).toContain('Bar issued to lot');
     expect(text).toContain('TST-REL-BAR');
     const [certificate] = await running.database.dataSource.query(
       "SELECT d.sha256 FROM bar_piece b JOIN heat_certificate c ON c.heat_id = b.heat_id JOIN certificate_document d ON d.id = c.document_id WHERE b.tag = 'TST-REL-BAR' LIMIT 1",
@@ -177,9 +179,15 @@ describe('lot release: readiness, submission, two signatures, shipment', () => {
     expect(refused.body.error.message).toBe('The lot changed after it was reviewed; it must be reviewed again');
     const signatures = (await people.auditor!.agent.get(`/api/signatures?recordType=lot-release&recordId=${lots[1]}`)).body;
     expect(signatures).toEqual([expect.objectContaining({ meaning: 'reviewed', changedAfterSigning: true })]);
-    const rejected = await signThroughApi(saml, people.approver!, { recordType: 'lot-release', recordId: String(lots[1]), meaning: 'rejected' }, 'Open nonconformance on the lot');
-    expect(rejected.status).toBe(201);
+    // Sending it back is "returned to engineering"; "rejected" is not a meaning of a release signature.
+    const wrongWord = await signThroughApi(saml, people.approver!, { recordType: 'lot-release', recordId: String(lots[1]), meaning: 'rejected' }, 'Open nonconformance on the lot');
+    expect(wrongWord.status).toBe(422);
+    const returned = await signThroughApi(saml, people.approver!, { recordType: 'lot-release', recordId: String(lots[1]), meaning: 'returned-to-engineering' }, 'Open nonconformance on the lot');
+    expect(returned.status).toBe(201);
     expect((await view(lots[1]!)).status).toBe('open');
+    expect((await view(lots[1]!)).submissions[0]).toMatchObject({ outcome: 'returned' });
+    const mail = await mailWithSubject(running.config.MAIL_WEB_PORT, `Lot ${(await view(lots[1]!)).lotNumber} was returned to engineering`);
+    expect(mail.text).toContain('was returned to engineering for correction');
   });
 
   it('[RELEASE-SOD] when the approver authored part of the lot’s record, then separation of duties refuses the approval', async () => {

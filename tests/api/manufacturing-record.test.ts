@@ -274,6 +274,27 @@ describe('the manufacturing record: parts, lots, material, operations, runs, non
     expect(mergeable.body.error.message).toMatch(/cannot be merged: it has not started$/);
   });
 
+  it('[LOT-REJECTED] when a lot’s own nonconformance is dispositioned Scrap and signed, then the lot is Rejected for good; Rework leaves it open', async () => {
+    const opened = await post('engineer', '/api/lots', { partId, plannedQty: 5 });
+    expect(opened.status).toBe(201);
+    const scrapped = await post('reviewer', '/api/nonconformances', { subjectType: 'lot', subjectId: opened.body.id, description: 'Wrong bar diameter turned; all parts undersize', containment: 'Lot quarantined on rack Q' });
+    const reworked = await post('reviewer', '/api/nonconformances', { subjectType: 'lot', subjectId: lots[3]!.id, description: 'Burr on two parts', containment: 'Parts segregated' });
+    const decide = async (ncId: number, disposition: string) => {
+      expect((await people.approver!.agent.put(`/api/nonconformances/${ncId}/disposition`).set('X-CSRF-Token', people.approver!.csrf).send({ disposition, note: 'Decided by the review board' })).status).toBe(200);
+      expect((await signThroughApi(saml, people.approver!, { recordType: 'nonconformance', recordId: String(ncId), meaning: 'dispositioned' })).status).toBe(201);
+    };
+    const before = (await detail(lots[3]!.id)).status;
+    await decide(reworked.body.id, 'rework');
+    expect((await detail(lots[3]!.id)).status).toBe(before);
+    await decide(scrapped.body.id, 'scrap');
+    expect((await detail(opened.body.id)).status).toBe('rejected');
+    const [event] = await running.database.dataSource.query("SELECT action, before_json, after_json FROM audit_event WHERE entity_type = 'lot' AND entity_id = ? ORDER BY seq DESC LIMIT 1", [String(opened.body.id)]);
+    expect([event.action, JSON.parse(event.before_json), JSON.parse(event.after_json)]).toEqual(['lot.rejected', { status: 'open' }, { status: 'rejected', nonconformance: scrapped.body.ncNumber, disposition: 'scrap' }]);
+    // Nothing more happens to a rejected lot: no bar, no step, no submission for release.
+    expect((await post('engineer', `/api/lots/${opened.body.id}/material-issues`, { tag: tags[0], lengthMm: '10' })).status).toBe(422);
+    expect((await post('engineer', `/api/lots/${opened.body.id}/release-submissions`, {})).status).toBe(422);
+  });
+
   it('[SHIP-RELEASED-ONLY] when a lot is not released, then it cannot ship; the material reconciliation explains the bar used', async () => {
     const consignee = await post('engineer', '/api/consignees', { name: 'Test Orthopaedic Centre', kind: 'hospital', country: 'Ireland', contactEmail: null });
     expect(consignee.status).toBe(201);

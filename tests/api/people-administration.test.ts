@@ -47,8 +47,8 @@ describe('people administration', () => {
     expect(firstPage.items.map((item) => item.name)).toEqual(['Aisling Ní Bhriain', 'Chiara Bellandi', 'Dieter Kranz']);
     expect(firstPage.total).toBeGreaterThanOrEqual(9);
     const secondPage = peoplePageSchema.parse((await admin.get('/api/people?page=2&pageSize=3')).body);
-    expect(secondPage.items[0]?.name).toBe('Henrik Dahl');
-    const search = peoplePageSchema.parse((await admin.get('/api/people?search=wiśniewski')).body);
+    expect(secondPage.items[0]?.name).toBe('Helmer Dalvang');
+    const search = peoplePageSchema.parse((await admin.get('/api/people?search=wierzchlas')).body);
     expect(search.items.map((item) => item.subject)).toEqual(['kiw-0102']);
     const deactivated = peoplePageSchema.parse((await admin.get('/api/people?status=deactivated')).body);
     expect(deactivated.items.map((item) => item.subject)).toEqual(['kiw-0901']);
@@ -70,7 +70,7 @@ describe('people administration', () => {
     const event = await lastEvent('person.roles-changed');
     expect(JSON.parse(event.before_json)).toEqual({ roles: ['manufacturing-engineer'] });
     expect(JSON.parse(event.after_json)).toEqual({ roles: ['auditor', 'manufacturing-engineer'] });
-    expect(event).toMatchObject({ reason: 'Covers the internal audit in December', actor_name: 'Henrik Dahl', actor_role: 'administrator', entity_id: String(id) });
+    expect(event).toMatchObject({ reason: 'Covers the internal audit in December', actor_name: 'Helmer Dalvang', actor_role: 'administrator', entity_id: String(id) });
     expect((await askRoles(first, id, ['manufacturing-engineer'], 'Audit done')).status).toBe(200);
   });
 
@@ -80,7 +80,7 @@ describe('people administration', () => {
     expect(asked.status).toBe(202);
     const outcome = roleChangeOutcomeSchema.parse(asked.body);
     expect(outcome.applied).toBe(false);
-    expect(outcome.pending).toMatchObject({ personName: 'Tomasz Wiśniewski', rolesBefore: ['manufacturing-engineer'], rolesAfter: ['manufacturing-engineer', 'recall-coordinator'], requestedBy: 'Henrik Dahl' });
+    expect(outcome.pending).toMatchObject({ personName: 'Tobiasz Wierzchlas', rolesBefore: ['manufacturing-engineer'], rolesAfter: ['manufacturing-engineer', 'recall-coordinator'], requestedBy: 'Helmer Dalvang' });
     expect((await lastEvent('person.role-change-requested')).reason).toBe('Backs up the recall team in December');
     // Not in effect yet: the person's next sign-in still carries the old roles.
     expect((await (await saml.signIn(running.app, 'kiw-0102')).agent.get('/api/me')).body.person.roles).toEqual(['manufacturing-engineer']);
@@ -96,7 +96,7 @@ describe('people administration', () => {
     expect(confirmed.status).toBe(201);
     const changed = await lastEvent('person.roles-changed');
     expect(changed).toMatchObject({ actor_name: 'Mirela Vasilescu', actor_role: 'administrator', reason: 'Backs up the recall team in December' });
-    expect(JSON.parse(changed.after_json)).toMatchObject({ roles: ['manufacturing-engineer', 'recall-coordinator'], requestedBy: 'Henrik Dahl' });
+    expect(JSON.parse(changed.after_json)).toMatchObject({ roles: ['manufacturing-engineer', 'recall-coordinator'], requestedBy: 'Helmer Dalvang' });
     expect((await (await saml.signIn(running.app, 'kiw-0102')).agent.get('/api/me')).body.person.roles).toEqual(['manufacturing-engineer', 'recall-coordinator']);
     expect((await signThroughApi(saml, second, record)).status).toBe(422);
   });
@@ -129,10 +129,10 @@ describe('people administration', () => {
     try {
       expect(ingotrace('organisation', 'administrators-may-approve', 'no', '--reason', 'Audit week over').code).toBe(0);
       const confirm = await signThroughApi(saml, first, { recordType: 'role-change', recordId: String(asked.body.pending.id), meaning: 'confirmed' });
-      // Henrik is the person concerned (an author), and the combination is refused again besides.
+      // Helmer is the person concerned (an author), and the combination is refused again besides.
       expect(confirm.status).toBe(422);
     } finally {
-      await signThroughApi(saml, second, { recordType: 'role-change', recordId: String(asked.body.pending.id), meaning: 'rejected' }, 'Setting turned off');
+      await signThroughApi(saml, second, { recordType: 'role-change', recordId: String(asked.body.pending.id), meaning: 'refused' }, 'Setting turned off');
     }
     expect((await admin.get('/api/people/settings')).body).toMatchObject({ administratorsMayApprove: false, pendingRoleChanges: [] });
   });
@@ -150,7 +150,7 @@ describe('people administration', () => {
     const id = await idOf('kiw-0102');
     const asked = await askRoles(first, id, ['manufacturing-engineer', 'qa-reviewer', 'recall-coordinator'], 'Wants to review as well');
     expect(asked.status).toBe(202);
-    const refused = await signThroughApi(saml, second, { recordType: 'role-change', recordId: String(asked.body.pending.id), meaning: 'rejected' }, 'Reviewer must not be the engineer of these lots');
+    const refused = await signThroughApi(saml, second, { recordType: 'role-change', recordId: String(asked.body.pending.id), meaning: 'refused' }, 'Reviewer must not be the engineer of these lots');
     expect(refused.status).toBe(201);
     expect((await lastEvent('person.role-change-refused')).reason).toBe('Reviewer must not be the engineer of these lots');
     expect((await admin.get('/api/people/settings')).body.pendingRoleChanges).toEqual([]);

@@ -135,7 +135,7 @@ describe('recall investigations: frozen snapshot, holds, re-run difference, expo
     const rows = parse(csv.text, { columns: true }) as Array<Record<string, string>>;
     expect(rows.filter((row) => row.row === 'lot').map((row) => row.lot)).toEqual([lots[0]!.lotNumber]);
     expect(rows.every((row) => row.snapshot_sha256 === recall.opening.sha256 && row.investigation === recall.recallNumber)).toBe(true);
-    expect(rows.find((row) => row.row === 'lot')).toMatchObject({ lot_status: 'open', units_made: '20', units_shipped: '0' });
+    expect(rows.find((row) => row.row === 'lot')).toMatchObject({ lot_status: 'open', units_started: '20', units_shipped: '0' });
     const rerunId = (await detail(recall.id)).reruns[0]!.id;
     const rerunCsv = parse((await people.auditor!.agent.get(`/api/recalls/${recall.id}/export?format=csv&snapshot=${rerunId}`)).text, { columns: true }) as Array<Record<string, string>>;
     expect(rerunCsv.filter((row) => row.row === 'lot').map((row) => row.lot).sort()).toEqual(lots.map((lot) => lot.lotNumber).sort());

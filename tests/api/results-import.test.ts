@@ -18,7 +18,7 @@ describe('importing certificate results from CSV', () => {
     (await running.database.dataSource.query('SELECT r.item, r.as_reported FROM heat_result r JOIN heat h ON h.id = r.heat_id WHERE h.heat_number = ? ORDER BY r.item', [heatNumber])) as Array<{ item: string; as_reported: string }>;
 
   const csv = [
-    'supplier,heat_number,Al,V,Fe,O,C,N,H,utsMPa,ysMPa,elongationPct,reductionOfAreaPct',
+    'supplier,heat_number,Al,V,Fe,O,C,N,H,uts_mpa,ys_mpa,elongation_pct,reduction_of_area_pct',
     'Castellane Special Metals,CS-7781,6.00,4.00,0.19,0.105,0.02,0.01,35 ppm,931,861,15,40',
     'Castellane Special Metals,CS-9999,6.00,4.00,0.19,0.10,0.02,0.01,0.003,930,860,15,40',
     '"Castellane Special Metals",CS-7790,6.00,four,0.19,0.10,0.02,0.01,0.003,930,860,15,40',

@@ -154,6 +154,18 @@ describe('genealogy both ways on a hand-built history with a cut bar, a split, a
     expect((await forward(`runId=${ids.r2}`)).totals.made).toBe(20);
   });
 
+  it('[TRACE-IN-PLANT] when traced forward, then units in plant count an open lot’s work in progress, and none for a lot merged away', async () => {
+    // Worked by hand: L1 holds 10 − 4 split off = 6; L1-A 4; L2 passed all 10 into M (consumed: 0); M holds 20.
+    const inPlant = Object.fromEntries((await forward(`pieceId=${ids.b1}`)).lots.map((entry) => [entry.lotNumber, [entry.status, entry.onHand]]));
+    expect(inPlant).toEqual({
+      [lot.L1!.lotNumber]: ['open', 6],
+      [lot['L1-A']!.lotNumber]: ['open', 4],
+      [lot.L2!.lotNumber]: ['consumed', 0],
+      [lot.M!.lotNumber]: ['open', 20],
+    });
+    expect((await forward(`pieceId=${ids.b1}`)).totals.onHand).toBe(30);
+  });
+
   it('when traced forward from a supplier, then every lot of each of its heats is affected, and the heats kept per lot are what a walk of the genealogy finds', async () => {
     const db = running.database.dataSource;
     const [{ supplier_id: supplierId }] = await db.query('SELECT supplier_id FROM heat WHERE id = ?', [ids.h1]);

@@ -2,17 +2,18 @@ import { expect, test } from '@playwright/test';
 import { signInAs } from './support/sign-in';
 import { openedDialog } from './support/dialogs';
 
-test('[E2E-LEDGER] an auditor filters the ledger, runs the verification and signs a review of the trail', async ({ page }) => {
+test('[E2E-LEDGER] an auditor filters the audit trail, runs the verification and signs a review of the trail', async ({ page }) => {
   await signInAs(page, 'kiw-0401', '/audit');
-  await expect(page.getByRole('heading', { level: 1, name: 'Audit ledger' })).toBeVisible();
+  await expect(page.getByRole('heading', { level: 1, name: 'Audit trail' })).toBeVisible();
   const table = page.getByRole('table');
   await expect(table.getByRole('row').nth(1)).toBeVisible();
 
-  // Filter by action and person.
-  await page.getByLabel('Action').click();
-  await page.getByRole('option', { name: 'session.signed-in' }).click();
+  // Filter by event and person; events are named in words, never by their stored code.
+  await page.getByLabel('Event').click();
+  await page.getByRole('option', { name: 'Signed in', exact: true }).click();
   await page.getByLabel('Who').fill('Priya');
-  await expect(table.getByRole('row').nth(1)).toContainText('session.signed-in');
+  await expect(table.getByRole('row').nth(1)).toContainText('Signed in');
+  await expect(table.getByRole('row').nth(1)).not.toContainText('session.signed-in');
   await expect(table.getByRole('row').nth(1)).toContainText('Priya Raghunathan');
   // Every row but the header is Priya's sign-in.
   await expect(table.getByRole('row').filter({ hasNotText: 'Priya Raghunathan' })).toHaveCount(1);
@@ -22,7 +23,7 @@ test('[E2E-LEDGER] an auditor filters the ledger, runs the verification and sign
   await expect(page.getByText('Previous hash')).toBeVisible();
   await page.getByRole('button', { name: /^History of person \d+$/ }).click();
   await expect(page.getByRole('heading', { name: /^History of person \d+, oldest first$/ })).toBeVisible();
-  await expect(table.getByRole('row').nth(1)).toContainText('person.provisioned');
+  await expect(table.getByRole('row').nth(1)).toContainText('Person added at first sign-in');
   await page.screenshot({ path: 'test-results/audit-history.png', fullPage: true });
 
   // The verifiable bundle downloads through a POST that carries the CSRF token.
@@ -32,7 +33,7 @@ test('[E2E-LEDGER] an auditor filters the ledger, runs the verification and sign
 
   // Verify the chain.
   await page.getByRole('button', { name: 'Verify the chain' }).click();
-  await expect(page.getByTestId('verification-result')).toContainText(/ledger verified: \d+ events, \d+ signatures, chain head \d+ [0-9a-f]{64}/);
+  await expect(page.getByTestId('verification-result')).toContainText(/audit trail verified: \d+ events, \d+ signatures, chain head \d+ [0-9a-f]{64}/);
 
   // Sign a review of the trail: the identity provider asks for the password again in a small window.
   await page.getByRole('button', { name: 'Sign the review of this trail' }).click();
@@ -46,7 +47,7 @@ test('[E2E-LEDGER] an auditor filters the ledger, runs the verification and sign
   await expect(popup.getByRole('heading', { name: 'Confirm it is you' })).toBeVisible();
   await popup.getByLabel('Password').fill('priya-demo');
   await popup.getByRole('button', { name: 'Sign in' }).click();
-  await expect(dialog.getByTestId('signature-manifestation')).toContainText(/Signed: Priya Raghunathan — Reviewed — \d{4}-\d{2}-\d{2} \d{2}:\d{2}:\d{2} UTC/, { timeout: 15_000 });
+  await expect(dialog.getByTestId('signature-manifestation')).toContainText(/Signed: Priya Raghunathan — Reviewed — \d{4}-\d{2}-\d{2} \d{2}:\d{2}:\d{2} (GMT|BST)/, { timeout: 15_000 });
   await dialog.getByRole('button', { name: 'Done' }).click();
   await expect(page.getByRole('list', { name: 'Signatures' })).toContainText('Priya Raghunathan — Reviewed');
   await page.screenshot({ path: 'test-results/audit-signed-review.png', fullPage: true });

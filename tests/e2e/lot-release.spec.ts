@@ -16,7 +16,7 @@ test('[E2E-RELEASE] a QA reviewer and then a different QA approver sign a submit
   const checklist = page.getByRole('list', { name: 'Release checklist' });
   await expect(checklist.getByRole('listitem')).toHaveCount(9);
   await expect(checklist.locator('.fail')).toHaveCount(0);
-  await page.getByRole('button', { name: 'Show the release dossier' }).click();
+  await page.getByRole('button', { name: 'Show the release content' }).click();
   await expect(page.getByRole('columnheader', { name: 'certificates' })).toBeVisible();
   const trail = page.getByRole('region', { name: 'Audit trail' });
   await expect(trail).toContainText('The reviewer’s signature will record that they reviewed them');
@@ -38,7 +38,7 @@ test('[E2E-RELEASE] a QA reviewer and then a different QA approver sign a submit
   await page.getByRole('button', { name: 'Approve for release' }).click();
   await expect(page.getByRole('dialog', { name: 'Sign: Approved for release' })).toContainText('Release of lot');
   await signWithPassword(page, 'Approved for release', 'Joaquín Ferreira — Approved for release', 'joaquin-demo');
-  await expect(page.getByRole('heading', { level: 1, name: new RegExp(`^Lot ${lotNumber}`) })).toContainText('released');
+  await expect(page.getByRole('heading', { level: 1, name: new RegExp(`^Lot ${lotNumber}`) })).toContainText('Released');
   await expect(page.getByRole('region', { name: /^Release (checklist passes|not ready)$/ })).toContainText('Joaquín Ferreira — Approved for release');
   const downloading = page.waitForEvent('download');
   await page.getByRole('link', { name: 'Download the release packet (PDF)' }).click();

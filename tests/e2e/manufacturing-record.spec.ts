@@ -134,7 +134,7 @@ test('[E2E-MANUFACTURING] an engineer opens a lot from a bar, records its operat
   // A QA approver decides the disposition and closes it, each with a signature.
   await signInAs(page, 'kiw-0301', ncPath);
   await page.getByLabel('Decision').click();
-  await page.getByRole('option', { name: 'rework' }).click();
+  await page.getByRole('option', { name: 'Rework', exact: true }).click();
   await page.getByLabel('Justification').fill('Re-chase the threads of the two parts and re-inspect them');
   await page.getByRole('button', { name: 'Save disposition' }).click();
   await expect(page.getByRole('button', { name: 'Sign the disposition' })).toBeEnabled();
@@ -142,6 +142,6 @@ test('[E2E-MANUFACTURING] an engineer opens a lot from a bar, records its operat
   await signWithPassword(page, 'Disposition decided', 'Joaquín Ferreira — Disposition decided', 'joaquin-demo');
   await page.getByRole('button', { name: 'Close with a signature' }).click();
   await signWithPassword(page, 'Closed', 'Joaquín Ferreira — Closed', 'joaquin-demo', 'Rework done; both parts re-inspected and accepted');
-  await expect(page.getByRole('heading', { level: 1, name: /^NC-/ })).toContainText('closed');
+  await expect(page.getByRole('heading', { level: 1, name: /^NC-/ })).toContainText('Closed');
   await page.screenshot({ path: 'test-results/nonconformance-closed.png', fullPage: true });
 });

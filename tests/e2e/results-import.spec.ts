@@ -7,7 +7,7 @@ test('an engineer imports certificate results from CSV: the check lists bad rows
   await page.getByRole('button', { name: 'Import results (CSV)' }).click();
   const dialog = await openedDialog(page, 'Import certificate results from CSV');
   const csv = [
-    'supplier,heat_number,Al,V,Fe,O,C,N,H,utsMPa,ysMPa,elongationPct,reductionOfAreaPct',
+    'supplier,heat_number,Al,V,Fe,O,C,N,H,uts_mpa,ys_mpa,elongation_pct,reduction_of_area_pct',
     'Oriel Bar & Wire,OB-55120,6.02,4.03,0.15,0.11,0.02,0.01,0.004,928,858,15,40',
     'Oriel Bar & Wire,OB-00000,6.02,4.03,0.15,0.11,0.02,0.01,0.004,928,858,15,40',
   ].join('\n');

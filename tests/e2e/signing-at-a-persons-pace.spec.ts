@@ -7,7 +7,7 @@ async function openPasswordWindow(page: Page) {
   await page.goto('/audit');
   // A review is signed after the chain has been verified on screen.
   await page.getByRole('button', { name: 'Verify the chain' }).click();
-  await expect(page.getByTestId('verification-result')).toContainText('ledger verified');
+  await expect(page.getByTestId('verification-result')).toContainText('audit trail verified');
   await page.getByRole('button', { name: 'Sign the review of this trail' }).click();
   const dialog = await openedDialog(page, 'Sign: Reviewed');
   await expect(dialog.getByTestId('signature-signer')).toContainText('Signed by Priya Raghunathan');
@@ -21,7 +21,7 @@ async function openPasswordWindow(page: Page) {
 test('[E2E-SIGN-SLOWLY] a person who reads the password window for 30 seconds before typing still signs, and the window closes itself', async ({ page }) => {
   test.setTimeout(120_000);
   await signInAs(page, 'kiw-0401', '/audit');
-  await expect(page.getByRole('heading', { level: 1, name: 'Audit ledger' })).toBeVisible();
+  await expect(page.getByRole('heading', { level: 1, name: 'Audit trail' })).toBeVisible();
   const { dialog, popup } = await openPasswordWindow(page);
   // A person's pace: half a minute before typing, then one key at a time.
   await popup.waitForTimeout(30_000);
@@ -29,7 +29,7 @@ test('[E2E-SIGN-SLOWLY] a person who reads the password window for 30 seconds be
   await popup.getByLabel('Password').pressSequentially('priya-demo', { delay: 150 });
   const closed = popup.waitForEvent('close');
   await popup.getByRole('button', { name: 'Sign in' }).click();
-  await expect(dialog.getByTestId('signature-manifestation')).toContainText(/Signed: Priya Raghunathan — Reviewed — \d{4}-\d{2}-\d{2} \d{2}:\d{2}:\d{2} UTC/, { timeout: 20_000 });
+  await expect(dialog.getByTestId('signature-manifestation')).toContainText(/Signed: Priya Raghunathan — Reviewed — \d{4}-\d{2}-\d{2} \d{2}:\d{2}:\d{2} (GMT|BST)/, { timeout: 20_000 });
   await closed;
   await page.screenshot({ path: 'test-results/signing-after-a-pause.png' });
   await dialog.getByRole('button', { name: 'Done' }).click();
@@ -38,7 +38,7 @@ test('[E2E-SIGN-SLOWLY] a person who reads the password window for 30 seconds be
 test('[E2E-SIGN-CANCEL] a person who stops waiting for the password window can sign again at once; stopping does not count against the signing limit', async ({ page }) => {
   test.setTimeout(120_000);
   await signInAs(page, 'kiw-0401', '/audit');
-  await expect(page.getByRole('heading', { level: 1, name: 'Audit ledger' })).toBeVisible();
+  await expect(page.getByRole('heading', { level: 1, name: 'Audit trail' })).toBeVisible();
   for (let attempt = 0; attempt < 3; attempt++) {
     const { dialog, popup } = await openPasswordWindow(page);
     await popup.waitForTimeout(1_500);
@@ -61,7 +61,7 @@ test('[E2E-SIGN-FOUR-MINUTES] a person called away for four minutes before typin
   test.skip(!process.env.E2E_FOUR_MINUTES, 'set E2E_FOUR_MINUTES=1 to wait four minutes');
   test.setTimeout(8 * 60_000);
   await signInAs(page, 'kiw-0401', '/audit');
-  await expect(page.getByRole('heading', { level: 1, name: 'Audit ledger' })).toBeVisible();
+  await expect(page.getByRole('heading', { level: 1, name: 'Audit trail' })).toBeVisible();
   const { dialog, popup } = await openPasswordWindow(page);
   await popup.waitForTimeout(4 * 60_000);
   await popup.getByLabel('Password').pressSequentially('priya-demo', { delay: 120 });

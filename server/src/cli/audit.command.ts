@@ -13,15 +13,15 @@ import { withDatabase } from './cli-database';
 
 /** `ingotrace audit verify [--file F]` and `ingotrace audit export --out F`. */
 export function auditCommand(): Command {
-  const audit = new Command('audit').description('verify and export the audit ledger');
+  const audit = new Command('audit').description('verify and export the audit trail');
 
   audit
     .command('verify')
     .description(
-      "recompute every hash of the ledger, check every event's Ed25519 signature and every checkpoint with the public key alone (and every electronic signature), or of an export file with --file; exit 1 naming the first broken event",
+      "recompute every hash of the audit trail, check every event's Ed25519 signature and every checkpoint with the public key alone (and every electronic signature), or of an export file with --file; exit 1 naming the first broken event",
     )
     .option('--file <path>', 'verify an export file offline, without a database')
-    .option('--public-key <path>', "the firm's published ledger public key (PEM); by default this installation's")
+    .option('--public-key <path>', "the firm's published audit trail public key (PEM); by default this installation's")
     .option('--witness <path>', 'the checkpoints file (one JSON checkpoint a line); by default this installation\'s')
     .action(async (options: { file?: string; publicKey?: string; witness?: string }) => {
       loadDotEnv();
@@ -70,7 +70,7 @@ export function auditCommand(): Command {
 
   audit
     .command('export')
-    .description('write every ledger event with its content and hash, and the chain head, as JSON')
+    .description('write every audit trail event with its content and hash, and the chain head, as JSON')
     .requiredOption('--out <path>', 'the file to write')
     .action(async (options: { out: string }) => {
       const bundle = await withDatabase(async (dataSource) => {

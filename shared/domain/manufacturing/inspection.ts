@@ -1,7 +1,7 @@
 /**
  * Single sampling by attributes: inspect a sample of n units; accept when the defects found are
  * at most the acceptance number Ac, reject when they reach the rejection number Re.
- * Source: ISO 2859-1 single sampling plans (from memory: for single sampling Re = Ac + 1).
+ * Source: ISO 2859-1 single sampling plans (unverified: for single sampling Re = Ac + 1).
  */
 export interface SamplingPlan {
   sampleSize: number;

@@ -3,7 +3,7 @@ import { DecimalE29 } from './e29-rounding';
 
 /**
  * Empirical indices for titanium heats, from the reported chemistry (wt %). Each formula names its
- * source; the coefficients and class thresholds are from memory where the sheet says so.
+ * source; the coefficients and class thresholds are unverified where the sheet says so.
  */
 export type Chemistry = Record<string, string>;
 
@@ -20,7 +20,7 @@ export interface TitaniumIndex {
   source: string;
 }
 
-/** O-eq = O + 2N + 0.67C, for unalloyed grades (coefficients from memory, attributed to Ogden & Jaffee). */
+/** O-eq = O + 2N + 0.67C, for unalloyed grades (coefficients unverified, attributed to Ogden & Jaffee). */
 export function oxygenEquivalent(chemistry: Chemistry): TitaniumIndex {
   return {
     value: sum(chemistry, [['O', '1'], ['N', '2'], ['C', '0.67']]).toFixed(),
@@ -29,7 +29,7 @@ export function oxygenEquivalent(chemistry: Chemistry): TitaniumIndex {
   };
 }
 
-/** [Al]eq = Al + Sn/3 + Zr/6 + 10 (O + C + 2N) (Rosenberg 1970; from memory). */
+/** [Al]eq = Al + Sn/3 + Zr/6 + 10 (O + C + 2N) (Rosenberg 1970; unverified). */
 export function aluminiumEquivalent(chemistry: Chemistry): TitaniumIndex {
   const interstitials = sum(chemistry, [['O', '1'], ['C', '1'], ['N', '2']]).times(10);
   const value = get(chemistry, 'Al').plus(get(chemistry, 'Sn').div(3)).plus(get(chemistry, 'Zr').div(6)).plus(interstitials);
@@ -79,7 +79,7 @@ export function molybdenumEquivalentBoyer(chemistry: Chemistry): TitaniumIndex {
 export type AlloyClass = 'alpha' | 'near-alpha' | 'alpha-beta' | 'metastable-beta' | 'beta';
 
 /**
- * Alloy class from the Bania Mo-equivalent. Thresholds vary by author (from memory): alpha below
+ * Alloy class from the Bania Mo-equivalent. Thresholds vary by author (unverified): alpha below
  * 1, near-alpha to 2, alpha-beta to 10 (βc), metastable beta to 30 (βs), stable beta above.
  */
 export function alloyClass(molybdenumEquivalent: string): { alloyClass: AlloyClass; rule: string } {

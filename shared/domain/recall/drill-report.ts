@@ -88,7 +88,10 @@ export function assessDrill(facts: DrillFacts): DrillAssessment {
   const overReleased = facts.lots
     .filter((lot) => lot.made !== null && (lot.released > kept(lot) || kept(lot) < 0))
     .map((lot) => `${lot.lotNumber}: released ${lot.released} of ${lot.made} started${lot.passedOn ? ` less ${lot.passedOn} passed on` : ''}`);
-  const negative = facts.lots.filter((lot) => lot.onHand !== lot.released - lot.shipped || lot.onHand < 0).map((lot) => `${lot.lotNumber}: ${lot.onHand} on hand ≠ ${lot.released} released − ${lot.shipped} shipped`);
+  // In plant: a released lot's released units not shipped; a lot not yet released holds its work in progress (never below 0).
+  const negative = facts.lots
+    .filter((lot) => lot.onHand < 0 || (lot.status === 'released' && lot.onHand !== lot.released - lot.shipped))
+    .map((lot) => (lot.onHand < 0 ? `${lot.lotNumber}: ${lot.onHand} in plant` : `${lot.lotNumber}: ${lot.onHand} in plant ≠ ${lot.released} released − ${lot.shipped} shipped`));
 
   const genealogy: string[] = [];
   for (const lot of facts.lots) {

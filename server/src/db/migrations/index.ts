@@ -19,6 +19,8 @@ import { AddContactCategoryAndMethodValidation1764698400000 } from './1764698400
 import { AddRoleChangeConfirmation1764702000000 } from './1764702000000-add-role-change-confirmation';
 import { AddLedgerSignatures1764705600000 } from './1764705600000-add-ledger-signatures';
 import { AddPartRecallTrigger1764709200000 } from './1764709200000-add-part-recall-trigger';
+import { AddPlantTimeZone1764712800000 } from './1764712800000-add-plant-time-zone';
+import { NameReturnedReleaseOutcome1764716400000 } from './1764716400000-name-returned-release-outcome';
 
 /** Every migration in the order it runs. Add new ones at the end. */
 export const migrations = [
@@ -43,4 +45,6 @@ export const migrations = [
   AddRoleChangeConfirmation1764702000000,
   AddLedgerSignatures1764705600000,
   AddPartRecallTrigger1764709200000,
+  AddPlantTimeZone1764712800000,
+  NameReturnedReleaseOutcome1764716400000,
 ];

@@ -49,11 +49,11 @@ export async function checkpointLedger(dataSource: DataSource, config: Pick<AppC
     const signed: Checkpoint = { ...unsigned, signature: signer.signStatement(checkpointStatement(unsigned)) };
     await queueMail(manager, {
       to: [config.QUALITY_MAILBOX],
-      subject: `Audit ledger checkpoint: event ${signed.seq}`,
+      subject: `Audit trail checkpoint: event ${signed.seq}`,
       text: [
-        'Keep this message: it witnesses the state of the Ingotrace audit ledger outside its database.',
+        'Keep this message: it witnesses the state of the Ingotrace audit trail outside its database.',
         `Event ${signed.seq}, hash ${signed.hash}, at ${signed.at} (${reason}).`,
-        `Key ${signed.keyId}. A ledger that no longer holds this event with this hash was cut off or rewritten.`,
+        `Key ${signed.keyId}. An audit trail that no longer holds this event with this hash was cut off or rewritten.`,
         '',
         JSON.stringify(signed),
       ].join('\n'),
@@ -75,11 +75,11 @@ export function checkpointProblem(checkpoints: readonly Checkpoint[], hashAt: (s
   for (const checkpoint of checkpoints) {
     const { signature, ...statement } = checkpoint;
     if (checkpoint.keyId !== keyId || !verifyWithPublicKey(publicKeyPem, checkpointStatement(statement), signature)) {
-      return { seq: checkpoint.seq, why: `the checkpoint of ${checkpoint.at} is not signed with the ledger's key` };
+      return { seq: checkpoint.seq, why: `the checkpoint of ${checkpoint.at} is not signed with the audit trail's key` };
     }
     const hash = hashAt(checkpoint.seq);
-    if (hash === null) return { seq: checkpoint.seq, why: `the checkpoint of ${checkpoint.at} names this event, which the ledger no longer holds: it was cut off after the checkpoint` };
-    if (hash !== checkpoint.hash) return { seq: checkpoint.seq, why: `the checkpoint of ${checkpoint.at} gives this event another hash: the ledger was rewritten after the checkpoint` };
+    if (hash === null) return { seq: checkpoint.seq, why: `the checkpoint of ${checkpoint.at} names this event, which the audit trail no longer holds: it was cut off after the checkpoint` };
+    if (hash !== checkpoint.hash) return { seq: checkpoint.seq, why: `the checkpoint of ${checkpoint.at} gives this event another hash: the audit trail was rewritten after the checkpoint` };
   }
   return null;
 }

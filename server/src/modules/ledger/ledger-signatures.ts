@@ -28,13 +28,13 @@ export class SignatureWalk {
   step(event: SignedEvent): Broken | null {
     const seq = event.content.seq;
     if (event.signature === null) {
-      if (this.firstSigned !== null) return { seq, why: `it is not signed, although the ledger is signed from event ${this.firstSigned} on` };
+      if (this.firstSigned !== null) return { seq, why: `it is not signed, although the audit trail is signed from event ${this.firstSigned} on` };
       this.firstUnsigned ??= seq;
       this.lastUnsigned = seq;
       return null;
     }
-    if (event.keyId !== this.keyId) return { seq, why: `it is signed with another key (key ${event.keyId ?? 'unnamed'}, this ledger's key is ${this.keyId})` };
-    if (!verifyWithPublicKey(this.publicKeyPem, eventStatement(event.hash), event.signature)) return { seq, why: "its signature does not verify with the ledger's public key" };
+    if (event.keyId !== this.keyId) return { seq, why: `it is signed with another key (key ${event.keyId ?? 'unnamed'}, this audit trail's key is ${this.keyId})` };
+    if (!verifyWithPublicKey(this.publicKeyPem, eventStatement(event.hash), event.signature)) return { seq, why: "its signature does not verify with the audit trail's public key" };
     this.signed += 1;
     if (this.firstSigned === null) {
       this.firstSigned = seq;
@@ -45,7 +45,7 @@ export class SignatureWalk {
   }
 
   finish(): Broken | null {
-    if (this.firstSigned === null && this.firstUnsigned !== null) return { seq: this.firstUnsigned, why: 'it is not signed (no event of this ledger is signed)' };
+    if (this.firstSigned === null && this.firstUnsigned !== null) return { seq: this.firstUnsigned, why: 'it is not signed (no event of this audit trail is signed)' };
     return null;
   }
 }

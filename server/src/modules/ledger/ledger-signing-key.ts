@@ -54,9 +54,9 @@ function createKeyFile(path: string): void {
 export function loadLedgerSigner(path: string): LedgerSigner {
   if (!existsSync(path)) createKeyFile(path);
   const mode = statSync(path).mode & 0o777;
-  if (mode & 0o077) throw new Error(`The ledger signing key ${path} can be read by other users (mode ${mode.toString(8)}); make it readable by the app's user only (chmod 600)`);
+  if (mode & 0o077) throw new Error(`The audit trail signing key ${path} can be read by other users (mode ${mode.toString(8)}); make it readable by the app's user only (chmod 600)`);
   const privateKey: KeyObject = createPrivateKey(readFileSync(path, 'utf8'));
-  if (privateKey.asymmetricKeyType !== 'ed25519') throw new Error(`The ledger signing key ${path} is not an Ed25519 key`);
+  if (privateKey.asymmetricKeyType !== 'ed25519') throw new Error(`The audit trail signing key ${path} is not an Ed25519 key`);
   const publicKeyPem = createPublicKey(privateKey).export({ type: 'spki', format: 'pem' }).toString();
   const publicPath = publicKeyPathOf(path);
   if (!existsSync(publicPath) || readFileSync(publicPath, 'utf8') !== publicKeyPem) {
@@ -94,5 +94,5 @@ export function installationPublicKey(config: Pick<AppConfig, 'LEDGER_KEY_FILE' 
   const publicPath = publicKeyPathOf(path);
   if (existsSync(publicPath)) return readFileSync(publicPath, 'utf8');
   if (existsSync(path)) return ledgerSigner(config).publicKeyPem;
-  throw new Error(`No ledger public key at ${publicPath}; give the firm's published key with --public-key`);
+  throw new Error(`No audit trail public key at ${publicPath}; give the firm's published key with --public-key`);
 }

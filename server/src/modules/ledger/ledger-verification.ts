@@ -22,12 +22,12 @@ function trusted(keys: VerificationKeys): { publicKeyPem: string; checkpoints: C
 }
 
 function summaryOf(result: Omit<Verification, 'summary'>): string {
-  if (result.firstBroken) return `ledger BROKEN at event ${result.firstBroken.seq}: ${result.firstBroken.why}`;
+  if (result.firstBroken) return `audit trail BROKEN at event ${result.firstBroken.seq}: ${result.firstBroken.why}`;
   if (result.signatureProblems.length) {
     const first = result.signatureProblems[0]!;
     return `signatures BROKEN: signature ${first.id}: ${first.why}${result.signatureProblems.length > 1 ? ` (and ${result.signatureProblems.length - 1} more)` : ''}`;
   }
-  return `ledger verified: ${result.events} events, ${result.signatures} signatures, chain head ${result.chainHead.seq} ${result.chainHead.hash}; ${result.signedEvents} events signed with key ${result.keyId}, ${result.checkpoints} checkpoints hold`;
+  return `audit trail verified: ${result.events} events, ${result.signatures} signatures, chain head ${result.chainHead.seq} ${result.chainHead.hash}; ${result.signedEvents} events signed with key ${result.keyId}, ${result.checkpoints} checkpoints hold`;
 }
 
 /**
@@ -151,7 +151,7 @@ export async function exportLedger(dataSource: DataSource): Promise<LedgerExport
 export function verifyLedgerExport(bundle: unknown, keys: { publicKeyPem?: string | null; checkpoints?: Checkpoint[] } = {}): { ok: boolean; summary: string; events: number } {
   const candidate = bundle as Partial<LedgerExport>;
   if (!candidate || candidate.format !== 'ingotrace-ledger-export/2' || !Array.isArray(candidate.events) || !candidate.chainHead || typeof candidate.publicKey !== 'string') {
-    return { ok: false, events: 0, summary: 'not an Ingotrace ledger export (format ingotrace-ledger-export/2 expected)' };
+    return { ok: false, events: 0, summary: 'not an Ingotrace audit trail export (format ingotrace-ledger-export/2 expected)' };
   }
   for (const event of candidate.events) {
     if (!event || typeof event.seq !== 'number' || !event.content || typeof event.content.seq !== 'number' || event.content.seq !== event.seq) {

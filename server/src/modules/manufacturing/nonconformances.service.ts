@@ -1,4 +1,4 @@
-import type { DataSource } from 'typeorm';
+import type { DataSource, EntityManager } from 'typeorm';
 import { dispositionInputSchema, nonconformanceInputSchema, type DispositionInput, type NonconformanceInput, type NonconformanceListQuery } from '@shared/schemas/manufacturing';
 import type { Person } from '@shared/schemas/people';
 import { AppError } from '../../errors';
@@ -56,6 +56,28 @@ export async function proposeDisposition(dataSource: DataSource, id: number, raw
 }
 
 /**
+ * A lot whose own nonconformance is dispositioned Scrap may never be released: it becomes
+ * Rejected (terminal), and a release submission still pending ends with it. A released lot is
+ * left as it is; its units in the field are a matter for a recall investigation.
+ */
+async function rejectScrappedLot(manager: EntityManager, ncId: number, actor: Actor, reason: string | null) {
+  const nc = await findNonconformance(manager, ncId);
+  if (!nc || nc.disposition !== 'scrap' || nc.subjectType !== 'lot') return;
+  const [lot]: Array<{ status: string }> = await manager.query('SELECT status FROM production_lot WHERE id = ? FOR UPDATE', [nc.subjectId]);
+  if (!lot || lot.status === 'released' || lot.status === 'rejected') return;
+  await manager.query("UPDATE production_lot SET status = 'rejected' WHERE id = ?", [nc.subjectId]);
+  await manager.query("UPDATE release_submission SET outcome = 'returned', closed_at = ? WHERE lot_id = ? AND outcome = 'pending'", [new Date(), nc.subjectId]);
+  await appendLedgerEvent(manager, {
+    actor,
+    action: 'lot.rejected',
+    entity: { type: 'lot', id: nc.subjectId },
+    before: { status: lot.status },
+    after: { status: 'rejected', nonconformance: nc.ncNumber, disposition: 'scrap' },
+    reason,
+  });
+}
+
+/**
  * A nonconformance's disposition and its closure are each an electronic signature by a QA
  * approver who did not raise it; closing needs the disposition signed first and a reason.
  */
@@ -105,5 +127,6 @@ export const nonconformanceRecordType: SignableRecordType = {
       after: { status },
       reason,
     });
+    if (status === 'dispositioned') await rejectScrappedLot(manager, Number(recordId), { id: signerId, name: signerName, role: 'qa-approver' }, reason);
   },
 };

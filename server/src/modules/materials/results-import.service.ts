@@ -8,7 +8,10 @@ import { inTransaction } from '../../db/transaction';
 import type { Actor, RequestOrigin } from '../ledger/ledger.repository';
 import { recordResultsIn } from './heats.service';
 
-const mechanicalColumns = ['utsMPa', 'ysMPa', 'elongationPct', 'reductionOfAreaPct'] as const;
+/** The file's columns for mechanical properties, in the same lower-case style as its other columns, with the unit. */
+const mechanicalColumns = { uts_mpa: 'utsMPa', ys_mpa: 'ysMPa', elongation_pct: 'elongationPct', reduction_of_area_pct: 'reductionOfAreaPct' } as const;
+const mechanicalNames = Object.keys(mechanicalColumns);
+const isMechanical = (column: string): column is keyof typeof mechanicalColumns => mechanicalNames.includes(column);
 const required = ['supplier', 'heat_number'];
 
 interface CheckedRow {
@@ -21,7 +24,7 @@ interface CheckedRow {
 
 /**
  * Imports certificate results from CSV: one row per heat, columns supplier, heat_number, then
- * element symbols (wt %, or "45 ppm") and utsMPa, ysMPa, elongationPct, reductionOfAreaPct.
+ * element symbols (wt %, or "45 ppm") and uts_mpa, ys_mpa, elongation_pct, reduction_of_area_pct.
  * Every bad row is reported with its line and field; nothing is written unless every row is valid
  * or the person chose to import only the valid rows; what is written is written in one transaction.
  */
@@ -36,8 +39,8 @@ export async function importResults(dataSource: DataSource, request: ResultsImpo
   const missing = required.filter((column) => !header.includes(column));
   if (records.length === 0) throw new AppError('VALIDATION_FAILED', 'The file has no data rows', { csv: 'No rows' });
   if (missing.length) throw new AppError('VALIDATION_FAILED', `The header lacks ${missing.join(', ')}`, { csv: `Add the columns ${missing.join(', ')}` });
-  const unknown = header.filter((column) => !required.includes(column) && !/^[A-Z][a-z]?$/.test(column) && !(mechanicalColumns as readonly string[]).includes(column));
-  if (unknown.length) throw new AppError('VALIDATION_FAILED', `Unknown columns: ${unknown.join(', ')}`, { csv: 'Columns are supplier, heat_number, element symbols and utsMPa, ysMPa, elongationPct, reductionOfAreaPct' });
+  const unknown = header.filter((column) => !required.includes(column) && !/^[A-Z][a-z]?$/.test(column) && !isMechanical(column));
+  if (unknown.length) throw new AppError('VALIDATION_FAILED', `Unknown columns: ${unknown.join(', ')}`, { csv: `Columns are supplier, heat_number, element symbols and ${mechanicalNames.join(', ')}` });
 
   const errors: ResultsImportReport['errors'] = [];
   const checked: CheckedRow[] = [];
@@ -59,7 +62,7 @@ export async function importResults(dataSource: DataSource, request: ResultsImpo
     for (const [column, value] of Object.entries(record)) {
       if (required.includes(column) || value === '') continue;
       try {
-        if ((mechanicalColumns as readonly string[]).includes(column)) mechanical[column] = readMechanicalValue(value);
+        if (isMechanical(column)) mechanical[mechanicalColumns[column]] = readMechanicalValue(value);
         else {
           readChemistryValue(value);
           chemistry[column] = value;

@@ -17,7 +17,7 @@ export const roleChangeRecordType: SignableRecordType = {
   label: 'role change',
   action: 'people.manage',
   readAction: 'people.read',
-  meanings: ['confirmed', 'rejected'],
+  meanings: ['confirmed', 'refused'],
   async load(manager, recordId) {
     if (!/^\d{1,10}$/.test(recordId)) return null;
     const request = await findRoleChangeRequest(manager, Number(recordId));

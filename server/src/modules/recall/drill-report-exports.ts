@@ -10,18 +10,18 @@ import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/led
 import { findOrganisation } from '../organisation/organisation.repository';
 import { drillReport } from './drill-report.service';
 import { consigneeSection, recallCaution } from './recall-exports';
+import { plantDateTimeSeconds, timeZoneNote } from '@shared/domain/plant-time';
 
-const utc = (iso: string) => iso.replace('T', ' ').replace(/\.\d+Z$|Z$/, '');
 
 /** The timing lines, shared by the PDF and the CSV. */
-function timingRows(report: DrillReport): Array<[string, string]> {
+function timingRows(report: DrillReport, when: (iso: string) => string): Array<[string, string]> {
   const { timing } = report.assessment;
   return [
-    ['Started (UTC)', `${utc(report.drill.openedAt)} by ${report.drill.openedBy}`],
+    ['Started', `${when(report.drill.openedAt)} by ${report.drill.openedBy}`],
     ['First scope frozen after', `${durationText(timing.toFirstScopeMs)}${timing.tracedInMs !== null ? ` (trace computed in ${durationText(timing.tracedInMs)})` : ''}`],
     [
       'Scope confirmed complete after',
-      timing.toConfirmedScopeMs !== null ? `${durationText(timing.toConfirmedScopeMs)} (closing signature, ${utc(report.drill.closedAt!)})` : `not yet: open for ${durationText(timing.elapsedMs)}`,
+      timing.toConfirmedScopeMs !== null ? `${durationText(timing.toConfirmedScopeMs)} (closing signature, ${when(report.drill.closedAt!)})` : `not yet: open for ${durationText(timing.elapsedMs)}`,
     ],
     ['Trace re-runs', `${timing.reruns}${timing.scopeChanged ? ` — the scope changed since opening (added: ${report.scope.lotsAddedSinceOpening.join(', ') || 'none'}; removed: ${report.scope.lotsRemovedSinceOpening.join(', ') || 'none'})` : ', scope unchanged since opening'}`],
   ];
@@ -34,19 +34,28 @@ export function drillReportCsv(report: DrillReport): string {
     ['drill', 'number', report.drill.recallNumber, ''],
     ['drill', 'started from', report.drill.trigger, ''],
     ['drill', 'reason', report.drill.reason, ''],
-    ...timingRows(report).map(([name, value]) => ['timing', name, value, '']),
+    ...timingRows(report, (iso) => iso).map(([name, value]) => ['timing', name, value, '']),
     ['timing', 'first scope ms', report.assessment.timing.toFirstScopeMs, ''],
     ['timing', 'confirmed scope ms', report.assessment.timing.toConfirmedScopeMs ?? '', ''],
     ['scope', 'snapshot sha256', report.scope.snapshot.sha256, report.scope.snapshot.kind],
-    ...Object.entries(totals).map(([name, value]) => ['totals', name, value, '']),
+    ...(
+      [
+        ['lots', totals.lots],
+        ['started', totals.made],
+        ['released', totals.released],
+        ['shipped', totals.shipped],
+        ['in plant', totals.onHand],
+        ['consignees', totals.consignees],
+      ] as const
+    ).map(([name, value]) => ['totals', name, value, '']),
     ...checks.map((check) => ['check', check.label, check.passed ? 'passed' : 'failed', [check.detail, ...check.offenders].join('; ')]),
-    ...report.lots.map((lot) => ['lot', lot.lotNumber, lot.status, `part ${lot.partNumber}; heats ${lot.heats.join(' ') || 'none'}; made ${lot.made ?? ''}; released ${lot.released}; shipped ${lot.shipped}; on hand ${lot.onHand}`]),
+    ...report.lots.map((lot) => ['lot', lot.lotNumber, lot.status, `part ${lot.partNumber}; heats ${lot.heats.join(' ') || 'none'}; started ${lot.made ?? ''}; released ${lot.released}; shipped ${lot.shipped}; in plant ${lot.onHand}`]),
     ...report.consignees.map((consignee) => ['consignee', consignee.name, consignee.units, `${consignee.kind}; ${consignee.country}; ${consignee.lots} lots`]),
   ];
   return stringify(rows, { header: true, columns: ['section', 'name', 'value', 'detail'] });
 }
 
-export async function drillReportPdf(report: DrillReport, organisation: string): Promise<Buffer> {
+export async function drillReportPdf(report: DrillReport, organisation: string, timeZone = 'UTC'): Promise<Buffer> {
   const { assessment } = report;
   const checkRows: Content[] = assessment.checks.map((check) => ({
     table: {
@@ -66,7 +75,7 @@ export async function drillReportPdf(report: DrillReport, organisation: string):
     pageSize: 'A4',
     pageMargins: [40, 50, 40, 50],
     watermark: { text: 'DRILL', opacity: 0.08, bold: true },
-    footer: pageFooter(`${report.drill.recallNumber} drill report · made ${utc(report.madeAt)} UTC`),
+    footer: pageFooter(`${report.drill.recallNumber} drill report · made ${plantDateTimeSeconds(report.madeAt, timeZone)} (${timeZoneNote(timeZone)})`),
     styles: documentStyles,
     content: [
       { text: organisation, color: '#555' },
@@ -80,10 +89,10 @@ export async function drillReportPdf(report: DrillReport, organisation: string):
         color: assessment.complete ? '#1e6b3a' : '#a4262c',
         margin: [0, 8, 0, 4],
       },
-      { table: { widths: [150, '*'], body: [['Reason', report.drill.reason], ...timingRows(report)] }, layout: 'noBorders', margin: [0, 4, 0, 4] },
+      { table: { widths: [150, '*'], body: [['Reason', report.drill.reason], ...timingRows(report, (iso) => plantDateTimeSeconds(iso, timeZone))] }, layout: 'noBorders', margin: [0, 4, 0, 4] },
       heading('Totals (latest traced scope)'),
       table(
-        ['Lots', 'Units made', 'Released', 'Shipped', 'On hand', 'Consignees'],
+        ['Lots', 'Started', 'Released', 'Shipped', 'In plant', 'Consignees'],
         [[assessment.totals.lots, assessment.totals.made, assessment.totals.released, assessment.totals.shipped, assessment.totals.onHand, assessment.totals.consignees].map(String)],
       ),
       { text: 'Units made: what each lot started with, less what it passed on to lots split or merged from it (counted there, not twice).', fontSize: 8, color: '#555', margin: [0, 2, 0, 0] },
@@ -92,7 +101,7 @@ export async function drillReportPdf(report: DrillReport, organisation: string):
       ...consigneeSection(report.consignees),
       heading('Affected lots'),
       table(
-        ['Lot', 'Part', 'Status', 'Heats', 'Started', 'Released', 'Shipped', 'Here'],
+        ['Lot', 'Part', 'Status', 'Heats', 'Started', 'Released', 'Shipped', 'In plant'],
         report.lots.map((lot) => [lot.lotNumber, lot.partNumber, lot.status, lot.heats.join(', ') || '—', String(lot.made ?? '—'), String(lot.released), String(lot.shipped), String(lot.onHand)]),
         [60, '*', 50, 70, 30, 42, 40, 30],
       ),
@@ -101,7 +110,7 @@ export async function drillReportPdf(report: DrillReport, organisation: string):
         table: {
           widths: [150, '*'],
           body: [
-            ['Snapshot', `${report.scope.snapshot.kind === 'opening' ? 'opening' : 'latest re-run'}, ${utc(report.scope.snapshot.takenAt)} UTC by ${report.scope.snapshot.takenBy}`],
+            ['Snapshot', `${report.scope.snapshot.kind === 'opening' ? 'opening' : 'latest re-run'}, ${plantDateTimeSeconds(report.scope.snapshot.takenAt, timeZone)} by ${report.scope.snapshot.takenBy}`],
             ['Snapshot SHA-256', hashBlock(report.scope.snapshot.sha256)],
           ],
         },
@@ -116,7 +125,7 @@ export async function drillReportPdf(report: DrillReport, organisation: string):
 export async function drillReportExport(dataSource: DataSource, id: number, format: 'json' | 'csv' | 'pdf', actor: Actor, origin: RequestOrigin) {
   const report = await drillReport(dataSource, id);
   if (format === 'json') return { report };
-  const body = format === 'csv' ? Buffer.from(drillReportCsv(report), 'utf8') : await drillReportPdf(report, (await findOrganisation(dataSource))?.name ?? '');
+  const body = format === 'csv' ? Buffer.from(drillReportCsv(report), 'utf8') : await drillReportPdf(report, (await findOrganisation(dataSource))?.name ?? '', (await findOrganisation(dataSource))?.timeZone);
   await inTransaction(dataSource, (manager) =>
     appendLedgerEvent(manager, { actor, action: 'recall.drill-report-exported', entity: { type: 'recall', id }, after: { format, complete: report.assessment.complete, snapshotSha256: report.scope.snapshot.sha256 }, origin }),
   );

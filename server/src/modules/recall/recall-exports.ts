@@ -9,6 +9,7 @@ import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
 import { findOrganisation } from '../organisation/organisation.repository';
 import { findRecallRow, snapshotContent } from './recall.service';
+import { plantDateTimeSeconds, timeZoneNote } from '@shared/domain/plant-time';
 
 export const recallCaution =
   'Decisions on field actions, customer notification and regulatory reporting rest with the firm’s quality system. This export states what Ingotrace traced at the moment shown; it is not a decision.';
@@ -20,7 +21,7 @@ export function recallCsv(meta: RecallSnapshotMeta, content: RecallSnapshotConte
     ...content.trace.lots.map((lot) => [...source, 'lot', lot.lotNumber, lot.partNumber, lot.status, lot.parents.join(' '), lot.made, lot.released, lot.shipped, lot.onHand, '', '', '', '']),
     ...content.trace.consignees.map((consignee) => [...source, 'consignee', '', '', '', '', '', '', consignee.units, '', consignee.name, consignee.kind, consignee.country, consignee.lots]),
   ];
-  const header = ['investigation', 'mode', 'snapshot', 'traced_at_utc', 'traced_by', 'snapshot_sha256', 'row', 'lot', 'part', 'lot_status', 'came_from_lots', 'units_made', 'units_released', 'units_shipped', 'units_on_hand', 'consignee', 'consignee_kind', 'country', 'affected_lots_received'];
+  const header = ['investigation', 'mode', 'snapshot', 'traced_at_utc', 'traced_by', 'snapshot_sha256', 'row', 'lot', 'part', 'lot_status', 'came_from_lots', 'units_started', 'units_released', 'units_shipped', 'units_in_plant', 'consignee', 'consignee_kind', 'country', 'affected_lots_received'];
   return stringify(rows, { header: true, columns: header });
 }
 
@@ -37,7 +38,7 @@ export function consigneeSection(consignees: RecallSnapshotContent['trace']['con
 }
 
 /** The printable account of an affected set: totals, lots, consignees and the snapshot's hash. */
-export async function recallPdf(meta: RecallSnapshotMeta, content: RecallSnapshotContent, organisation: string, reason: string): Promise<Buffer> {
+export async function recallPdf(meta: RecallSnapshotMeta, content: RecallSnapshotContent, organisation: string, reason: string, timeZone = 'UTC'): Promise<Buffer> {
   const { trace } = content;
   const drill = content.mode === 'drill';
   const definition: TDocumentDefinitions = {
@@ -57,7 +58,7 @@ export async function recallPdf(meta: RecallSnapshotMeta, content: RecallSnapsho
           widths: [130, '*'],
           body: [
             ['Reason', reason],
-            ['Traced at (UTC)', content.takenAt.replace('T', ' ').replace('Z', '')],
+            ['Traced at', `${plantDateTimeSeconds(content.takenAt, timeZone)} (${timeZoneNote(timeZone)})`],
             ['Traced by', content.takenBy],
             ['Snapshot', meta.kind === 'opening' ? 'frozen when the investigation was opened' : 're-run of the trace'],
             ['Snapshot SHA-256', hashBlock(meta.sha256)],
@@ -68,14 +69,14 @@ export async function recallPdf(meta: RecallSnapshotMeta, content: RecallSnapsho
       },
       heading('Totals'),
       table(
-        ['Affected lots', 'Units made', 'Released', 'Shipped', 'Released, still here', 'Consignees'],
+        ['Affected lots', 'Started', 'Released', 'Shipped', 'In plant', 'Consignees'],
         [[String(trace.lots.length), String(trace.totals.made), String(trace.totals.released), String(trace.totals.shipped), String(trace.totals.onHand), String(trace.consignees.length)]],
       ),
       { text: 'Units made counts each unit once: units a lot passed on to a split or merged lot count in that lot.', fontSize: 8, color: '#555', margin: [0, 4, 0, 0] },
       ...consigneeSection(trace.consignees),
       heading('Affected lots'),
       table(
-        ['Lot', 'Part', 'Status', 'Came from', 'Made', 'Released', 'Shipped', 'Here'],
+        ['Lot', 'Part', 'Status', 'Came from', 'Started', 'Released', 'Shipped', 'In plant'],
         trace.lots.map((lot) => [lot.lotNumber, lot.partNumber, lot.status, lot.parents.join(', ') || '—', String(lot.made ?? '—'), String(lot.released), String(lot.shipped), String(lot.onHand)]),
         [60, '*', 50, 56, 30, 46, 42, 30],
       ),
@@ -90,7 +91,7 @@ export async function recallExport(dataSource: DataSource, id: number, format: '
   if (!recall) throw AppError.notFound('Recall investigation');
   const frozen = await snapshotContent(dataSource.manager, id, snapshotId);
   const body =
-    format === 'csv' ? Buffer.from(recallCsv(frozen.meta, frozen.content), 'utf8') : await recallPdf(frozen.meta, frozen.content, (await findOrganisation(dataSource))?.name ?? '', recall.reason);
+    format === 'csv' ? Buffer.from(recallCsv(frozen.meta, frozen.content), 'utf8') : await recallPdfFor(dataSource, frozen, recall.reason);
   await inTransaction(dataSource, (manager) =>
     appendLedgerEvent(manager, { actor, action: 'recall.exported', entity: { type: 'recall', id }, after: { format, snapshotId: frozen.meta.id, snapshotSha256: frozen.meta.sha256 }, origin }),
   );
@@ -100,4 +101,9 @@ export async function recallExport(dataSource: DataSource, id: number, format: '
     contentType: format === 'csv' ? 'text/csv; charset=utf-8' : 'application/pdf',
     fileName: `${recall.recall_number}-${frozen.meta.kind === 'opening' ? 'opening' : `rerun-${frozen.meta.id}`}.${format}`,
   };
+}
+
+async function recallPdfFor(dataSource: DataSource, frozen: { meta: RecallSnapshotMeta; content: RecallSnapshotContent }, reason: string): Promise<Buffer> {
+  const organisation = await findOrganisation(dataSource);
+  return recallPdf(frozen.meta, frozen.content, organisation?.name ?? '', reason, organisation?.timeZone ?? 'UTC');
 }

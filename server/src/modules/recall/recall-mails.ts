@@ -14,7 +14,7 @@ const caution = 'Decisions on field actions, customer notification and regulator
 function summary(trace: ForwardTrace): string[] {
   return [
     `Affected lots: ${trace.lots.length}`,
-    `Units made: ${trace.totals.made}; released: ${trace.totals.released}; shipped: ${trace.totals.shipped}; released and still here: ${trace.totals.onHand}`,
+    `Units started: ${trace.totals.made}; released: ${trace.totals.released}; shipped: ${trace.totals.shipped}; in plant: ${trace.totals.onHand}`,
     `Consignees who received affected units: ${trace.consignees.length}`,
     ...trace.consignees.slice(0, 50).map((consignee) => `  - ${consignee.name} (${consignee.country}): ${consignee.units} units from ${consignee.lots} lot(s)`),
     ...(trace.consignees.length > 50 ? [`  … and ${trace.consignees.length - 50} more in the export`] : []),

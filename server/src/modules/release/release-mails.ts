@@ -2,7 +2,7 @@ import type { EntityManager } from 'typeorm';
 import { addressesOfRole, queueMail } from '../mail/mail-outbox';
 import { linkTo } from '../mail/links';
 
-type ReleaseEvent = 'submitted' | 'reviewed' | 'released' | 'rejected';
+type ReleaseEvent = 'submitted' | 'reviewed' | 'released' | 'returned';
 
 /**
  * Who hears about a release step: QA reviewers when a lot awaits review, QA approvers when it
@@ -24,7 +24,7 @@ export async function queueReleaseMail(manager: EntityManager, lotId: number, ev
     submitted: { to: () => addressesOfRole(manager, 'qa-reviewer'), subject: `Lot ${lot.lot_number} awaits your review`, body: [`Lot ${lot.lot_number} (${lot.part}) was submitted for release by ${submitter?.name ?? 'an engineer'} and awaits a QA review.`] },
     reviewed: { to: () => addressesOfRole(manager, 'qa-approver'), subject: `Lot ${lot.lot_number} awaits your approval`, body: [`Lot ${lot.lot_number} (${lot.part}) was reviewed and awaits approval for release.`] },
     released: { to: async () => (submitter ? [submitter.email] : []), subject: `Lot ${lot.lot_number} is released`, body: [`Lot ${lot.lot_number} (${lot.part}) was approved for release. Its release packet can be downloaded from the lot page.`] },
-    rejected: { to: async () => (submitter ? [submitter.email] : []), subject: `Lot ${lot.lot_number} was returned`, body: [`Lot ${lot.lot_number} (${lot.part}) was rejected and returned to engineering.`, `Reason: ${reason ?? '—'}`] },
+    returned: { to: async () => (submitter ? [submitter.email] : []), subject: `Lot ${lot.lot_number} was returned to engineering`, body: [`Lot ${lot.lot_number} (${lot.part}) was returned to engineering for correction.`, `Reason: ${reason ?? '—'}`] },
   };
   const message = messages[event];
   await queueMail(manager, { to: await message.to(), subject: message.subject, text: text(message.body), event: `lot.${event}`, entity: { type: 'lot', id: lotId } });

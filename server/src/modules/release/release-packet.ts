@@ -11,6 +11,8 @@ import { sha256Hex } from '../ledger/ledger.repository';
 import type { AuditTrail } from '@shared/schemas/release';
 import { ancestry, releaseDossierIn } from './release-dossier';
 import { lotAuditTrail } from './audit-trail';
+import { plantDateTime, plantDateTimeSeconds, timeZoneNote } from '@shared/domain/plant-time';
+import { auditEventName } from '@shared/domain/audit/event-names';
 
 export const releaseCaution =
   'Regulated release rests with the firm’s quality system. Ingotrace keeps the records and computes the checks; the decision to release belongs to the firm’s validated procedures and authorised people.';
@@ -24,6 +26,8 @@ interface SignatureLine {
 
 export interface PacketData {
   organisation: string;
+  /** The plant's IANA time zone: every time in the packet is on its clock. */
+  timeZone: string;
   lotId: number;
   dossier: Record<string, unknown> & { lot: string; part: string; gtin: string; quantity: number | null };
   barPieces: Array<{ tag: string; heat: string }>;
@@ -71,13 +75,14 @@ export async function packetData(manager: EntityManager, lotId: number, publicUr
     }
   }
   if (!releasedAt) throw new Error(`lot ${lotId} has no release signature`);
-  const [organisation]: Array<{ name: string }> = await manager.query('SELECT name FROM organisation ORDER BY id LIMIT 1');
+  const [organisation]: Array<{ name: string; time_zone: string }> = await manager.query('SELECT name, time_zone FROM organisation ORDER BY id LIMIT 1');
   const content = dossier.content as PacketData['dossier'];
   const udi = { gtin: content.gtin, lot: content.lot, serial: null, expiry: null, productionDate: null };
   const trail = await lotAuditTrail(manager, lotId, lineage);
   const reviewed = trail.reviewedThroughSeq;
   const data = {
     organisation: organisation?.name ?? '',
+    timeZone: organisation?.time_zone ?? 'UTC',
     lotId,
     dossier: content,
     barPieces,
@@ -122,7 +127,7 @@ export async function renderReleasePacket(data: PacketData): Promise<Buffer> {
               { text: `Lot ${dossier.lot}` },
               { text: `Quantity released: ${dossier.quantity ?? 0} units` },
               { text: `GTIN ${dossier.gtin}` },
-              { text: `Released ${data.releasedAt.toISOString().replace('T', ' ').slice(0, 19)} UTC` },
+              { text: `Released ${plantDateTimeSeconds(data.releasedAt, data.timeZone)} (${timeZoneNote(data.timeZone)})` },
               { text: 'UDI (GS1 element string):', margin: [0, 8, 0, 0], bold: true },
               { text: data.elementString },
               { text: 'GS1 Digital Link (opens this lot in Ingotrace):', margin: [0, 6, 0, 0], bold: true },
@@ -176,8 +181,8 @@ export async function renderReleasePacket(data: PacketData): Promise<Buffer> {
         .map((heat) => ({ text: `Heat ${heat.heat} was accepted although some items cannot be evaluated, on this signed justification: ${heat.justification}`, fontSize: 8, bold: true, color: '#7a4b00', margin: [0, 4, 0, 0] }) as never),
       heading('Operations'),
       table(
-        ['Step', 'Units', 'Operator, work centre', 'Ended (UTC)'],
-        dossier.operations.map((operation) => [operation.step, operation.units, operation.by, operation.ended.replace('T', ' ').slice(0, 16)]),
+        ['Step', 'Units', 'Operator, work centre', 'Ended'],
+        dossier.operations.map((operation) => [operation.step, operation.units, operation.by, plantDateTime(operation.ended, data.timeZone)]),
       ),
       heading('Passivation and cleaning runs'),
       table(
@@ -202,12 +207,12 @@ export async function renderReleasePacket(data: PacketData): Promise<Buffer> {
         text:
           data.auditTrail.reviewedThroughSeq === null
             ? 'No review of the audit trail is recorded.'
-            : `The QA review covered ${data.auditTrail.events.length} ledger event(s) on this lot and the lots its units came through, up to ledger event ${data.auditTrail.reviewedThroughSeq}.`,
+            : `The QA review covered ${data.auditTrail.events.length} audit trail event(s) on this lot and the lots its units came through, up to event ${data.auditTrail.reviewedThroughSeq}.`,
         margin: [0, 0, 0, 4],
       },
       table(
-        ['Event', 'Time (UTC)', 'By', 'What', 'Lot', 'Reason'],
-        data.auditTrail.events.map((event) => [String(event.seq), event.occurredAt.replace('T', ' ').slice(0, 19), event.actor, event.action, event.lot, event.reason ?? '']),
+        ['Event', 'Time', 'By', 'What', 'Lot', 'Reason'],
+        data.auditTrail.events.map((event) => [String(event.seq), plantDateTimeSeconds(event.occurredAt, data.timeZone), event.actor, auditEventName(event.action), event.lot, event.reason ?? '']),
         [34, 94, 76, 92, 50, '*'],
       ),
       heading('Every signature in this record'),

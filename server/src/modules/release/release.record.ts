@@ -9,13 +9,13 @@ import { lotAuditTrail } from './audit-trail';
 import { ancestry, releaseDossierIn } from './release-dossier';
 import { queueReleaseMail } from './release-mails';
 
-const actions = { reviewed: 'release.review', 'approved-for-release': 'release.approve', rejected: 'release.reject' } as const;
+const actions = { reviewed: 'release.review', 'approved-for-release': 'release.approve', 'returned-to-engineering': 'release.reject' } as const;
 
 /**
  * A lot's release: the QA reviewer signs "reviewed", then a different QA approver signs
- * "approved for release", each over the release dossier; either may sign "rejected" with a
+ * "approved for release", each over the release content; either may sign "returned to engineering" with a
  * reason, which returns the lot to the engineer. Approval needs the reviewer's signature to
- * cover the dossier as it is now.
+ * cover the release content as it is now.
  */
 export const lotReleaseRecordType: SignableRecordType = {
   type: 'lot-release',
@@ -23,7 +23,7 @@ export const lotReleaseRecordType: SignableRecordType = {
   action: 'release.review',
   readAction: 'release.read',
   actionFor: (meaning: SignatureMeaning) => actions[meaning as keyof typeof actions] ?? 'release.approve',
-  meanings: ['reviewed', 'approved-for-release', 'rejected'],
+  meanings: ['reviewed', 'approved-for-release', 'returned-to-engineering'],
   // Every release is witnessed outside the database: the audit ledger is checkpointed once it commits.
   async afterCommit(dataSource, { meaning }) {
     if (meaning === 'approved-for-release' && checkpointTriggers.onRelease) await checkpointLedger(dataSource, loadConfig(), 'release');
@@ -64,7 +64,7 @@ export const lotReleaseRecordType: SignableRecordType = {
       }
       if (!facts.ready) return 'The lot is no longer ready for release; see its checklist';
     }
-    if (meaning === 'rejected' && facts.status !== 'submitted' && facts.status !== 'reviewed') return `The lot is ${facts.status}; only a lot under review can be rejected`;
+    if (meaning === 'returned-to-engineering' && facts.status !== 'submitted' && facts.status !== 'reviewed') return `The lot is ${facts.status}; only a lot under review can be returned to engineering`;
     return null;
   },
   async afterSign(manager, { recordId, meaning, signerId, signerName, reason }) {
@@ -77,13 +77,13 @@ export const lotReleaseRecordType: SignableRecordType = {
       const dossier = await releaseDossierIn(manager, lotId);
       await manager.query("UPDATE production_lot SET status = 'released', released_qty = ? WHERE id = ?", [dossier.lot.onHand ?? 0, lotId]);
       await manager.query("UPDATE release_submission SET outcome = 'released', closed_at = ? WHERE lot_id = ? AND outcome = 'pending'", [new Date(), lotId]);
-    } else if (meaning === 'rejected') {
+    } else if (meaning === 'returned-to-engineering') {
       await manager.query("UPDATE production_lot SET status = 'open' WHERE id = ?", [lotId]);
-      await manager.query("UPDATE release_submission SET outcome = 'rejected', closed_at = ? WHERE lot_id = ? AND outcome = 'pending'", [new Date(), lotId]);
+      await manager.query("UPDATE release_submission SET outcome = 'returned', closed_at = ? WHERE lot_id = ? AND outcome = 'pending'", [new Date(), lotId]);
     } else {
       await manager.query("UPDATE production_lot SET status = 'reviewed' WHERE id = ?", [lotId]);
     }
-    await queueReleaseMail(manager, lotId, meaning === 'approved-for-release' ? 'released' : meaning === 'rejected' ? 'rejected' : 'reviewed', reason);
+    await queueReleaseMail(manager, lotId, meaning === 'approved-for-release' ? 'released' : meaning === 'returned-to-engineering' ? 'returned' : 'reviewed', reason);
     await appendLedgerEvent(manager, {
       actor: { id: signerId, name: signerName, role: meaning === 'approved-for-release' ? 'qa-approver' : 'qa-reviewer' },
       action: `lot.${meaning === 'approved-for-release' ? 'released' : meaning}`,

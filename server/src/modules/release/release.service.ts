@@ -80,7 +80,7 @@ const queueStatuses = { review: 'submitted', approval: 'reviewed', released: 're
 /** Lots waiting at each step of the release workflow, oldest submission first. */
 export async function releaseQueue(dataSource: DataSource, query: ReleaseQueueQuery) {
   const status = queueStatuses[query.queue];
-  const returned = query.queue === 'returned' ? "AND EXISTS (SELECT 1 FROM release_submission r WHERE r.lot_id = l.id AND r.outcome = 'rejected')" : '';
+  const returned = query.queue === 'returned' ? "AND EXISTS (SELECT 1 FROM release_submission r WHERE r.lot_id = l.id AND r.outcome = 'returned')" : '';
   const [count]: Array<{ total: string }> = await dataSource.query(`SELECT COUNT(*) AS total FROM production_lot l WHERE l.status = ? ${returned}`, [status]);
   const rows: Array<{ id: number; lot_number: string; part_number: string; revision: string; released_qty: number; submitted_at: Date | null; submitted_by: string | null }> = await dataSource.query(
     `SELECT l.id, l.lot_number, p.part_number, p.revision, l.released_qty,

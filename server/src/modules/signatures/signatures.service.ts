@@ -18,6 +18,7 @@ import { consumeReauthentication } from '../auth/reauthentication.service';
 import { appendLedgerEvent, sha256Hex, type RequestOrigin } from '../ledger/ledger.repository';
 import { signableRecordType, type SignableContent, type SignableRecordType } from './signable-records';
 import { insertSignature, newestSignaturesOfType, signaturesFor, type SignatureRow } from './signatures.repository';
+import { plantTimeZone } from '../organisation/organisation.repository';
 
 const approvalMeanings: readonly SignatureMeaning[] = ['approved', 'approved-for-release', 'accepted', 'justified', 'confirmed'];
 
@@ -138,7 +139,7 @@ export async function signRecord(dataSource: DataSource, person: Person, request
     const evidence = await consumeReauthentication(manager, { id: request.reauthenticationId, personId: person.id, bindingHash: binding });
     const signerRole = actingRole(person.roles, type.actionFor?.(request.meaning) ?? type.action) ?? 'unknown';
     const signedAt = new Date();
-    const manifestation = signatureManifestation({ signerName: person.name, signedAt, meaning: request.meaning });
+    const manifestation = signatureManifestation({ signerName: person.name, signedAt, meaning: request.meaning, timeZone: await plantTimeZone(manager) });
     const ledger = await appendLedgerEvent(manager, {
       actor: { id: person.id, name: person.name, role: signerRole },
       action: 'signature.signed',

@@ -5,6 +5,8 @@ import { unitTotals } from '@shared/domain/trace/unit-totals';
 import { AppError } from '../../errors';
 import { descendantPieces, lotsFromPieces } from './genealogy.repository';
 import { latestVerdictSql } from '../materials/heats.repository';
+import { unitChains } from '../manufacturing/lot-units';
+import { unitsInPlant } from '@shared/domain/unit-words';
 
 const marks = (values: unknown[]) => values.map(() => '?').join(',');
 const byName = new Intl.Collator('en', { sensitivity: 'base', numeric: true });
@@ -96,7 +98,7 @@ export async function backwardTrace(dataSource: DataSource, start: { udi?: strin
   ]);
   return {
     start: label,
-    lots: toTracedLots(lotRows, (row) => Number(row.shipped ?? 0)),
+    lots: toTracedLots(lotRows, (row) => Number(row.shipped ?? 0), await goodUnitsBeforeRelease(manager, lotRows)),
     barPieces: pieces,
     heats: heatRows,
     certificates,
@@ -155,7 +157,7 @@ export async function forwardTraceIn(manager: EntityManager, start: ForwardStart
     : [];
   consigneeRows.sort((a, b) => byName.compare(a.name, b.name) || a.id - b.id);
   const consignees = consigneeRows.map((row) => ({ ...row, units: byConsignee.get(row.id)!.units, lots: byConsignee.get(row.id)!.lots.size }));
-  const lots = toTracedLots(lotRows, (row) => shippedByLot.get(row.id) ?? 0);
+  const lots = toTracedLots(lotRows, (row) => shippedByLot.get(row.id) ?? 0, await goodUnitsBeforeRelease(manager, lotRows));
   const totals = unitTotals(lots, passedOn);
   return { start: startLabel, lots, totals, consignees };
 }
@@ -225,7 +227,18 @@ interface LotFactRow {
 }
 
 /** The lots as traced; `shippedOf` gives each lot's units shipped (read with it, or summed from its shipments). */
-function toTracedLots<Row extends Omit<LotFactRow, 'shipped'>>(rows: Row[], shippedOf: (row: Row) => number): TracedLot[] {
+/**
+ * Good units held by each lot not yet released (its work in progress), from its unit chain. Read
+ * only for those lots: a wide trace is mostly released lots, whose units in plant need no chain.
+ */
+async function goodUnitsBeforeRelease(manager: EntityManager, rows: ReadonlyArray<{ id: number; status: string }>): Promise<Map<number, number>> {
+  const unreleased = rows.filter((row) => row.status === 'open' || row.status === 'submitted' || row.status === 'reviewed').map((row) => row.id);
+  if (!unreleased.length) return new Map();
+  const chains = await unitChains(manager, unreleased);
+  return new Map([...chains].map(([id, chain]) => [id, chain.onHand ?? 0]));
+}
+
+function toTracedLots<Row extends Omit<LotFactRow, 'shipped'>>(rows: Row[], shippedOf: (row: Row) => number, goodOf?: ReadonlyMap<number, number>): TracedLot[] {
   return rows.map((row) => {
     const shipped = shippedOf(row);
     return {
@@ -238,7 +251,7 @@ function toTracedLots<Row extends Omit<LotFactRow, 'shipped'>>(rows: Row[], ship
       made: row.start_qty,
       released: row.released_qty,
       shipped,
-      onHand: row.status === 'released' ? row.released_qty - shipped : 0,
+      onHand: unitsInPlant({ status: row.status, released: row.released_qty, shipped, good: goodOf?.get(row.id) ?? null }),
     };
   });
 }

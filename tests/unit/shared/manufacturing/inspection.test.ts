@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { inspectionVerdict, samplingPlanProblem } from '@shared/domain/manufacturing/inspection';
 
-// Single sampling by attributes as in ISO 2859-1 (from memory: accept at ≤ Ac, reject at ≥ Re = Ac + 1).
+// Single sampling by attributes as in ISO 2859-1 (unverified: accept at ≤ Ac, reject at ≥ Re = Ac + 1).
 describe('inspection verdicts from a sampling plan', () => {
   const plan = { sampleSize: 32, acceptNumber: 1, rejectNumber: 2 };
   it('when 1 defective is found in 32 with Ac 1, then the lot is accepted; 2 defectives reject it', () => {

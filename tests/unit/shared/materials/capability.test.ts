@@ -4,7 +4,7 @@ import { bissellInterval, capability } from '@shared/domain/materials/capability
 describe('capability and run rule', () => {
   it('when given the textbook sample 2, 4, 4, 4, 5, 5, 7, 9, then the mean is 5 and the sample standard deviation √(32/7)', () => {
     // Source: the worked example of the Wikipedia article "Standard deviation" (population σ = 2;
-    // with n − 1 the sample s = √(32/7) ≈ 2.13809) — from memory.
+    // with n − 1 the sample s = √(32/7) ≈ 2.13809) — unverified.
     const result = capability(['2', '4', '4', '4', '5', '5', '7', '9'], { max: '20' });
     expect(result.mean).toBe('5');
     expect(result.sigma).toBe('2.13809');

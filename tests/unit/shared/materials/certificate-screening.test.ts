@@ -64,7 +64,7 @@ describe('bunching just inside a limit', () => {
   });
 
   it('raises false alarms on simulated honest suppliers at about the rate α promises (common practice: check a test’s size by simulation)', () => {
-    // mulberry32 (a small, well-known 32-bit generator; from memory) and Box–Muller.
+    // mulberry32 (a small, well-known 32-bit generator; unverified) and Box–Muller.
     let state = 0x1234abcd;
     const random = () => {
       state = (state + 0x6d2b79f5) | 0;

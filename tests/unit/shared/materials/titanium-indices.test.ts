@@ -3,7 +3,7 @@ import { Decimal } from 'decimal.js';
 import { aluminiumEquivalent, alloyClass, molybdenumEquivalentBania, molybdenumEquivalentBoyer, oxygenEquivalent } from '@shared/domain/materials/titanium-indices';
 
 // Test vectors: the domain sheet §3.2 table, computed there from the formulas (each formula's
-// coefficients are from memory, tagged [M] on the sheet) and printed to 2–3 decimals. We compute
+// coefficients are unverified, tagged [M] on the sheet) and printed to 2–3 decimals. We compute
 // in exact decimals, so each check allows half a unit of the printed place.
 const near = (value: string, printed: string, places: number) =>
   expect(new Decimal(value).minus(printed).abs().lessThanOrEqualTo(new Decimal(0.5).times(new Decimal(10).pow(-places)))).toBe(true);
@@ -26,7 +26,7 @@ describe('titanium indices', () => {
   }
 
   // Alloy classes as the trade knows them (common practice): unalloyed grades are alpha, Ti-6Al-4V
-  // ("grade 5") and its ELI variant alpha-beta, Ti-15Mo metastable beta. Nominal compositions from memory.
+  // ("grade 5") and its ELI variant alpha-beta, Ti-15Mo metastable beta. Nominal compositions unverified.
   const classes: Array<[string, Record<string, string>, string]> = [
     ['CP-Ti grade 2 (nominal Fe 0.10)', { O: '0.18', Fe: '0.10', N: '0.01', C: '0.01' }, 'alpha'],
     ['CP-Ti grade 4 (nominal Fe 0.30)', { O: '0.35', Fe: '0.30', N: '0.02', C: '0.02' }, 'alpha'],

@@ -83,6 +83,16 @@ describe('assessing a recall drill', () => {
     expect(assessDrill(facts).complete).toBe(false);
   });
 
+  it('when an open lot holds work in progress, then its units in plant balance; a released lot must hold released − shipped', () => {
+    const facts = scenario();
+    // D is open with 30 started and 28 good after its last step: 28 in plant (WORDS: work in progress counts).
+    facts.lots[3] = { ...facts.lots[3]!, onHand: 28 };
+    expect(assessDrill(facts).checks.find((check) => check.id === 'unit-balance')!.passed).toBe(true);
+    expect(assessDrill(facts).totals.onHand).toBe(33);
+    facts.lots[1] = { ...facts.lots[1]!, onHand: 6 };
+    expect(assessDrill(facts).checks.find((check) => check.id === 'unit-balance')!.offenders).toEqual(['B: 6 in plant ≠ 15 released − 10 shipped']);
+  });
+
   it('counts a lot that split part of its units off by what it kept, and finds one that released more than it kept', () => {
     const facts = scenario();
     // D started 30 and split 10 off into E (in the scope): 20 + 10, not 30 + 10.

@@ -1,0 +1,58 @@
+/**
+ * One way of writing dates and times for people: the plant's own clock, year first
+ * (2026-12-05 15:37), with the zone stated once beside them ("times in Europe/London").
+ * ISO 8601 in UTC stays for machine-readable exports.
+ */
+export type Instant = Date | string;
+
+const formatters = new Map<string, Intl.DateTimeFormat>();
+function formatterFor(timeZone: string): Intl.DateTimeFormat {
+  let formatter = formatters.get(timeZone);
+  if (!formatter) {
+    formatter = new Intl.DateTimeFormat('en-GB', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', second: '2-digit', hourCycle: 'h23' });
+    formatters.set(timeZone, formatter);
+  }
+  return formatter;
+}
+
+function partsOf(instant: Instant, timeZone: string) {
+  const date = instant instanceof Date ? instant : new Date(instant);
+  if (Number.isNaN(date.getTime())) return null;
+  const parts = formatterFor(timeZone).formatToParts(date);
+  const part = (type: Intl.DateTimeFormatPartTypes) => parts.find((item) => item.type === type)?.value ?? '';
+  return { day: `${part('year')}-${part('month')}-${part('day')}`, minute: `${part('hour')}:${part('minute')}`, second: part('second') };
+}
+
+/** Date and time to the minute on the plant's clock: "2026-12-05 15:37". */
+export function plantDateTime(instant: Instant, timeZone: string): string {
+  const parts = partsOf(instant, timeZone);
+  return parts ? `${parts.day} ${parts.minute}` : '—';
+}
+
+/** Date and time to the second, for signatures and audit trail events: "2026-12-05 15:37:08". */
+export function plantDateTimeSeconds(instant: Instant, timeZone: string): string {
+  const parts = partsOf(instant, timeZone);
+  return parts ? `${parts.day} ${parts.minute}:${parts.second}` : '—';
+}
+
+/**
+ * The plant's calendar day of an instant ("2026-12-05"). A day that is already a calendar day
+ * (YYYY-MM-DD, e.g. a shipping date) is shown as it is: it names no instant to convert.
+ */
+export function plantDate(instant: Instant, timeZone: string): string {
+  if (typeof instant === 'string' && /^\d{4}-\d{2}-\d{2}$/.test(instant)) return instant;
+  return partsOf(instant, timeZone)?.day ?? '—';
+}
+
+/** The statement that goes once on each screen and document. */
+export const timeZoneNote = (timeZone: string) => `times in ${timeZone}`;
+
+/** Whether a name is an IANA time zone this runtime knows. */
+export function isTimeZone(name: string): boolean {
+  try {
+    new Intl.DateTimeFormat('en-GB', { timeZone: name });
+    return /^[A-Za-z_]+(\/[A-Za-z0-9_+-]+)*$/.test(name);
+  } catch {
+    return false;
+  }
+}
