@@ -1,4 +1,3 @@
-import { verdictLabels, type OverallVerdict } from '@shared/schemas/evaluation';
 import type { EntityManager } from 'typeorm';
 import bwipjs from 'bwip-js/node';
 import QRCode from 'qrcode';
@@ -11,8 +10,10 @@ import { sha256Hex } from '../ledger/ledger.repository';
 import type { AuditTrail } from '@shared/schemas/release';
 import { ancestry, releaseDossierIn } from './release-dossier';
 import { lotAuditTrail } from './audit-trail';
-import { plantDateTime, plantDateTimeSeconds, timeZoneNote } from '@shared/domain/plant-time';
+import { plantDateTimeSeconds, timeZoneNote } from '@shared/domain/plant-time';
 import { auditEventName } from '@shared/domain/audit/event-names';
+import { signedContentDocument } from '@shared/domain/signed-content-document';
+import { pdfSections } from '../../documents/pdf-document-sections';
 
 export const releaseCaution =
   'Regulated release rests with the firm’s quality system. Ingotrace keeps the records and computes the checks; the decision to release belongs to the firm’s validated procedures and authorised people.';
@@ -163,45 +164,11 @@ export async function renderReleasePacket(data: PacketData): Promise<Buffer> {
           dossier.runs.map((run) => run.run).join(', '),
         ]),
       ),
-      heading('Material certificates and their evaluation'),
-      table(
-        ['Heat', 'Supplier', 'Specification', 'Evaluation', 'Disposition', 'Certificate SHA-256'],
-        dossier.heats.map((heat) => [
-          heat.heat,
-          heat.supplier,
-          heat.specification,
-          heat.evaluation ? (verdictLabels[heat.evaluation as OverallVerdict] ?? heat.evaluation) : '—',
-          heat.disposition,
-          { stack: heat.certificates.map(hash) } as never,
-        ]),
-        [50, 70, 70, 60, 58, '*'],
-      ),
+      // The release content as signed, drawn by the same document the signing dialog shows.
+      ...pdfSections(signedContentDocument(data.dossier, data.timeZone).filter((section) => section.title !== null && section.key !== 'genealogy')),
       ...dossier.heats
         .filter((heat) => heat.justification)
         .map((heat) => ({ text: `Heat ${heat.heat} was accepted although some items cannot be evaluated, on this signed justification: ${heat.justification}`, fontSize: 8, bold: true, color: '#7a4b00', margin: [0, 4, 0, 0] }) as never),
-      heading('Operations'),
-      table(
-        ['Step', 'Units', 'Operator, work centre', 'Ended'],
-        dossier.operations.map((operation) => [operation.step, operation.units, operation.by, plantDateTime(operation.ended, data.timeZone)]),
-      ),
-      heading('Passivation and cleaning runs'),
-      table(
-        ['Run', 'Method', 'Window', 'Parameters'],
-        dossier.runs.map((run) => [run.run, run.method, run.inWindow ? 'in window' : 'outside (see nonconformances)', Object.entries(run.parameters).map(([key, value]) => `${key} ${value}`).join('; ')]),
-        [60, 80, 60, '*'],
-      ),
-      heading('Inspections'),
-      table(
-        ['Lot', 'Step', 'Verdict'],
-        dossier.steps.filter((step) => step.verdict).map((step) => [step.lot, step.step, step.verdict ?? '']),
-      ),
-      heading('Nonconformances'),
-      table(
-        ['Number', 'About', 'Status', 'Disposition'],
-        dossier.nonconformances.map((nc) => [nc.nonconformance, nc.subject, nc.status, nc.disposition ?? '—']),
-      ),
-      heading('Release checklist as evaluated'),
-      table(['Item', 'Result', 'Why'], dossier.readiness.map((item) => [item.item, item.verdict, item.why]), [150, 40, '*']),
       heading('Audit trail reviewed before release'),
       {
         text:
@@ -213,13 +180,13 @@ export async function renderReleasePacket(data: PacketData): Promise<Buffer> {
       table(
         ['Event', 'Time', 'By', 'What', 'Lot', 'Reason'],
         data.auditTrail.events.map((event) => [String(event.seq), plantDateTimeSeconds(event.occurredAt, data.timeZone), event.actor, auditEventName(event.action), event.lot, event.reason ?? '']),
-        [34, 94, 76, 92, 50, '*'],
+        ['auto', 88, 90, '*', 'auto', '*'],
       ),
       heading('Every signature in this record'),
       table(
         ['Record', 'Signature', 'Reason', 'Signed content SHA-256'],
         data.signatures.map((signature) => [signature.record, signature.manifestation, signature.reason ?? '', hash(signature.contentHash) as never]),
-        [60, 150, 90, '*'],
+        ['auto', 150, '*', 'auto'],
       ),
       heading('Integrity'),
       { text: `Packet content SHA-256 (canonical JSON of everything stated here): ${data.contentHash}`, style: 'mono' },
