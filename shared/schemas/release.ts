@@ -19,6 +19,28 @@ export const releaseQueueQuerySchema = z.object({
 });
 export type ReleaseQueueQuery = z.infer<typeof releaseQueueQuerySchema>;
 
+export const releaseQueueItemSchema = z.object({
+  lotId: z.number(),
+  lotNumber: z.string(),
+  part: z.string(),
+  releasedQty: z.number(),
+  submittedAt: z.string().nullable(),
+  submittedBy: z.string().nullable(),
+  /** The latest "reviewed" signature on the lot's release: who reviewed it, and when. */
+  reviewedBy: z.string().nullable(),
+  reviewedAt: z.string().nullable(),
+});
+export type ReleaseQueueItem = z.infer<typeof releaseQueueItemSchema>;
+export const releaseQueuePageSchema = z.object({
+  items: z.array(releaseQueueItemSchema),
+  total: z.number(),
+  page: z.number(),
+  pageSize: z.number(),
+  /** How many lots wait in each queue, for the tabs. */
+  counts: z.object({ review: z.number(), approval: z.number(), returned: z.number(), released: z.number() }),
+});
+export type ReleaseQueuePage = z.infer<typeof releaseQueuePageSchema>;
+
 export const labelSheetQuerySchema = z.object({
   count: z.coerce.number().int().min(1, 'At least one label').max(2_000, 'At most 2,000 labels at once'),
   widthMm: z.coerce.number().min(30, 'At least 30 mm wide').max(210).default(100),

@@ -1,9 +1,7 @@
 import { keepPreviousData, queryOptions } from '@tanstack/vue-query';
-import { z } from 'zod';
 import type { Readiness } from '@shared/domain/release/readiness';
-import type { AuditTrail, LabelMovement, ReleaseQueueQuery } from '@shared/schemas/release';
+import { releaseQueuePageSchema, type AuditTrail, type LabelMovement, type ReleaseQueueQuery } from '@shared/schemas/release';
 import { apiRequest, typed } from './http';
-
 
 export interface ReleaseView {
   lotId: number;
@@ -17,14 +15,7 @@ export interface ReleaseView {
   auditTrail: AuditTrail;
 }
 
-export interface QueueItem {
-  lotId: number;
-  lotNumber: string;
-  part: string;
-  releasedQty: number;
-  submittedAt: string | null;
-  submittedBy: string | null;
-}
+
 
 export const releaseKeys = {
   all: ['release'] as const,
@@ -36,7 +27,7 @@ export const releaseViewQuery = (lotId: number) => queryOptions({ queryKey: rele
 export const releaseQueueQuery = (query: ReleaseQueueQuery) =>
   queryOptions({
     queryKey: releaseKeys.queue(query),
-    queryFn: ({ signal }) => apiRequest(`/release-queue?queue=${query.queue}&page=${query.page}&pageSize=${query.pageSize}`, z.object({ items: z.array(typed<QueueItem>()), total: z.number(), page: z.number(), pageSize: z.number() }), { signal }),
+    queryFn: ({ signal }) => apiRequest(`/release-queue?queue=${query.queue}&page=${query.page}&pageSize=${query.pageSize}`, releaseQueuePageSchema, { signal }),
     placeholderData: keepPreviousData,
   });
 export const submitForRelease = (lotId: number) => apiRequest(`/lots/${lotId}/release-submissions`, typed<{ status: string }>(), { method: 'POST', body: {} });

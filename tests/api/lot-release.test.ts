@@ -8,6 +8,7 @@ import { readPdf } from '../helpers/document-readers';
 import { buildBarcodeData } from '@shared/domain/gs1/element-string';
 import { packetData, renderReleasePacket } from '../../server/src/modules/release/release-packet';
 import request from 'supertest';
+import { releaseQueuePageSchema } from '@shared/schemas/release';
 import { createHash } from 'node:crypto';
 import { twoStepPart } from '../helpers/two-step-part';
 
@@ -68,8 +69,12 @@ describe('lot release: readiness, submission, two signatures, shipment', () => {
     const submitted = await post('engineer', `/api/lots/${lots[0]}/release-submissions`, {});
     expect(submitted.status).toBe(201);
     expect(submitted.body.status).toBe('submitted');
-    const queue = await people.reviewer!.agent.get('/api/release-queue?queue=review');
-    expect(queue.body.items.map((item: { lotId: number }) => item.lotId)).toContain(lots[0]);
+    const queue = releaseQueuePageSchema.parse((await people.reviewer!.agent.get('/api/release-queue?queue=review')).body);
+    expect(queue.items.map((item) => item.lotId)).toContain(lots[0]);
+    // Each tab's count is the number of lots in that state, as the database holds them.
+    const [counted] = await running.database.dataSource.query("SELECT SUM(status = 'submitted') AS review, SUM(status = 'reviewed') AS approval, SUM(status = 'released') AS released FROM production_lot");
+    expect(queue.counts).toMatchObject({ review: Number(counted.review), approval: Number(counted.approval), released: Number(counted.released) });
+    expect(queue.total).toBe(queue.counts.review);
     // The QA reviewers are told, through the outbox and the real SMTP catcher.
     const lotNumber = (await view(lots[0]!)).lotNumber as string;
     const mail = await mailWithSubject(running.config.MAIL_WEB_PORT, `Lot ${lotNumber} awaits your review`);
@@ -82,6 +87,9 @@ describe('lot release: readiness, submission, two signatures, shipment', () => {
     expect(early.body.error.message).toBe('The lot is submitted, not reviewed');
     expect((await signThroughApi(saml, people.engineer!, { recordType: 'lot-release', recordId: String(lots[0]), meaning: 'reviewed' })).status).toBe(403);
     expect((await signThroughApi(saml, people.reviewer!, { recordType: 'lot-release', recordId: String(lots[0]), meaning: 'reviewed' })).status).toBe(201);
+    // Awaiting approval shows who reviewed the lot, not only who submitted it.
+    const awaiting = releaseQueuePageSchema.parse((await people.approver!.agent.get('/api/release-queue?queue=approval&pageSize=100')).body);
+    expect(awaiting.items.find((item) => item.lotId === lots[0])).toMatchObject({ submittedBy: 'Tobiasz Wierzchlas', reviewedBy: 'Aisling Ní Bhriain' });
     expect((await signThroughApi(saml, people.approver!, { recordType: 'lot-release', recordId: String(lots[0]), meaning: 'approved-for-release' })).status).toBe(201);
     expect((await view(lots[0]!)).status).toBe('released');
     const consignee = await post('engineer', '/api/consignees', { name: 'Test Release Clinic', kind: 'hospital', country: 'Norway', contactEmail: null });

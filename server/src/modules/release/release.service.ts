@@ -11,6 +11,7 @@ import { signaturesFor } from '../signatures/signatures.repository';
 import { releaseDossier, releaseDossierIn } from './release-dossier';
 import { packetData, renderReleasePacket } from './release-packet';
 import { queueReleaseMail } from './release-mails';
+import type { ReleaseQueuePage } from '@shared/schemas/release';
 
 /** The lot's readiness checklist, its dossier and where it stands in the release workflow. */
 export async function releaseView(dataSource: DataSource, lotId: number) {
@@ -77,15 +78,24 @@ export async function recordLabels(dataSource: DataSource, lotId: number, raw: L
 
 const queueStatuses = { review: 'submitted', approval: 'reviewed', released: 'released', returned: 'open' } as const;
 
-/** Lots waiting at each step of the release workflow, oldest submission first. */
-export async function releaseQueue(dataSource: DataSource, query: ReleaseQueueQuery) {
+const returnedClause = "AND EXISTS (SELECT 1 FROM release_submission r WHERE r.lot_id = l.id AND r.outcome = 'returned')";
+
+/** Lots waiting at each step of the release workflow, oldest submission first, with the count of every queue. */
+export async function releaseQueue(dataSource: DataSource, query: ReleaseQueueQuery): Promise<ReleaseQueuePage> {
   const status = queueStatuses[query.queue];
-  const returned = query.queue === 'returned' ? "AND EXISTS (SELECT 1 FROM release_submission r WHERE r.lot_id = l.id AND r.outcome = 'returned')" : '';
-  const [count]: Array<{ total: string }> = await dataSource.query(`SELECT COUNT(*) AS total FROM production_lot l WHERE l.status = ? ${returned}`, [status]);
-  const rows: Array<{ id: number; lot_number: string; part_number: string; revision: string; released_qty: number; submitted_at: Date | null; submitted_by: string | null }> = await dataSource.query(
+  const returned = query.queue === 'returned' ? returnedClause : '';
+  const [byStatus, [returnedCount]]: [Array<{ status: string; total: string }>, Array<{ total: string }>] = await Promise.all([
+    dataSource.query("SELECT status, COUNT(*) AS total FROM production_lot WHERE status IN ('submitted', 'reviewed', 'released') GROUP BY status"),
+    dataSource.query(`SELECT COUNT(*) AS total FROM production_lot l WHERE l.status = 'open' ${returnedClause}`),
+  ]);
+  const countOf = (wanted: string) => Number(byStatus.find((row) => row.status === wanted)?.total ?? 0);
+  const counts = { review: countOf('submitted'), approval: countOf('reviewed'), released: countOf('released'), returned: Number(returnedCount?.total ?? 0) };
+  const rows: Array<{ id: number; lot_number: string; part_number: string; revision: string; released_qty: number; submitted_at: Date | null; submitted_by: string | null; reviewed_by: string | null; reviewed_at: Date | null }> = await dataSource.query(
     `SELECT l.id, l.lot_number, p.part_number, p.revision, l.released_qty,
             (SELECT MAX(r.submitted_at) FROM release_submission r WHERE r.lot_id = l.id) AS submitted_at,
-            (SELECT person.name FROM release_submission r JOIN person ON person.id = r.submitted_by WHERE r.lot_id = l.id ORDER BY r.id DESC LIMIT 1) AS submitted_by
+            (SELECT person.name FROM release_submission r JOIN person ON person.id = r.submitted_by WHERE r.lot_id = l.id ORDER BY r.id DESC LIMIT 1) AS submitted_by,
+            (SELECT s.signer_name FROM electronic_signature s WHERE s.record_type = 'lot-release' AND s.record_id = CAST(l.id AS CHAR) AND s.meaning = 'reviewed' ORDER BY s.id DESC LIMIT 1) AS reviewed_by,
+            (SELECT s.signed_at FROM electronic_signature s WHERE s.record_type = 'lot-release' AND s.record_id = CAST(l.id AS CHAR) AND s.meaning = 'reviewed' ORDER BY s.id DESC LIMIT 1) AS reviewed_at
        FROM production_lot l JOIN part p ON p.id = l.part_id WHERE l.status = ? ${returned}
       ORDER BY submitted_at ${query.queue === 'released' ? 'DESC' : 'ASC'}, l.id LIMIT ? OFFSET ?`,
     [status, query.pageSize, (query.page - 1) * query.pageSize],
@@ -98,10 +108,13 @@ export async function releaseQueue(dataSource: DataSource, query: ReleaseQueueQu
       releasedQty: row.released_qty,
       submittedAt: row.submitted_at ? new Date(row.submitted_at).toISOString() : null,
       submittedBy: row.submitted_by,
+      reviewedBy: row.reviewed_by,
+      reviewedAt: row.reviewed_at ? new Date(row.reviewed_at).toISOString() : null,
     })),
-    total: Number(count?.total ?? 0),
+    total: counts[query.queue],
     page: query.page,
     pageSize: query.pageSize,
+    counts,
   };
 }
 
