@@ -27,9 +27,13 @@ export const windowWords = { 'in-window': 'Within window', 'out-of-window': 'Out
 export const inspectionVerdictWords = { accept: 'Accepted', reject: 'Not accepted' } as const;
 export const checkVerdictWords = { pass: 'Pass', fail: 'Fail' } as const;
 export const heatStatusWords = { received: 'Received', accepted: 'Accepted', rejected: 'Rejected', quarantined: 'Quarantined' } as const;
+export const barPieceStatusWords = { 'in-stock': 'In stock', cut: 'Cut into pieces' } as const;
+export const draftStatusWords = { draft: 'Draft', approved: 'Approved' } as const;
 export const nonconformanceSubjectWords = { heat: 'Heat', 'bar-piece': 'Bar', lot: 'Lot', 'process-run': 'Process run' } as const;
 
 const everyWord: Record<string, string> = {
+  ...barPieceStatusWords,
+  ...draftStatusWords,
   ...windowWords,
   ...inspectionVerdictWords,
   ...checkVerdictWords,

@@ -265,3 +265,7 @@ export const specificationDraftViewSchema = z.object({
   changes: z.array(z.object({ grade: z.string().nullable(), element: z.string(), from: z.string(), to: z.string(), reference: z.string() })),
 });
 export type SpecificationDraftView = z.infer<typeof specificationDraftViewSchema>;
+
+/** The saw kerf allowed per cut (the organisation's setting), for checking a cut while it is typed. */
+export const barCutAllowanceSchema = z.object({ kerfAllowancePerCutMm: z.string() });
+export type BarCutAllowance = z.infer<typeof barCutAllowanceSchema>;

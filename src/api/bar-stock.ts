@@ -1,13 +1,17 @@
 import { keepPreviousData, queryOptions } from '@tanstack/vue-query';
 import { z } from 'zod';
-import { barPageSchema, barPieceSchema, type BarCut, type BarListQuery, type BarReceipt } from '@shared/schemas/materials';
+import { barCutAllowanceSchema, barPageSchema, barPieceSchema, type BarCut, type BarListQuery, type BarReceipt } from '@shared/schemas/materials';
 import { apiRequest } from './http';
 
 export const barKeys = {
   all: ['bar-pieces'] as const,
   list: (query: BarListQuery) => [...barKeys.all, 'list', query] as const,
   piece: (id: number) => [...barKeys.all, 'piece', id] as const,
+  cutAllowance: () => ['bar-cut-allowance'] as const,
 };
+
+export const barCutAllowanceQuery = () =>
+  queryOptions({ queryKey: barKeys.cutAllowance(), queryFn: ({ signal }) => apiRequest('/bar-cut-allowance', barCutAllowanceSchema, { signal }), staleTime: Infinity });
 
 export const barPiecesQuery = (query: BarListQuery) =>
   queryOptions({

@@ -9,7 +9,7 @@ test('[E2E-LEDGER] an auditor filters the audit trail, runs the verification and
   await expect(table.getByRole('row').nth(1)).toBeVisible();
 
   // Filter by event and person; events are named in words, never by their stored code.
-  await page.getByLabel('Event').click();
+  await page.getByLabel('Event', { exact: true }).click();
   await page.getByRole('option', { name: 'Signed in', exact: true }).click();
   await page.getByLabel('Who').fill('Priya');
   await expect(table.getByRole('row').nth(1)).toContainText('Signed in');

@@ -26,12 +26,18 @@ test('[E2E-BAR-STOCK] an engineer receives a bar against a heat, cuts it, and pr
 
   await page.getByRole('button', { name: 'Cut this piece' }).click();
   const cut = await openedDialog(page, 'Cut E2E-BAR-01');
-  await cut.getByLabel('Piece A (mm)').fill('1000');
-  await cut.getByLabel('Piece B (mm)').fill('900');
+  await cut.getByLabel('Piece A (mm)').pressSequentially('1000', { delay: 80 });
+  await cut.getByLabel('Piece B (mm)').pressSequentially('9x', { delay: 80 });
+  // Judged while typed: a length that is not a number, then a cut that leaves bar unaccounted for.
+  await expect(cut.getByText('Write a length in mm, e.g. 412.5')).toBeVisible();
+  await cut.getByLabel('Piece B (mm)').press('Backspace');
+  await cut.getByLabel('Piece B (mm)').pressSequentially('00', { delay: 80 });
+  await expect(cut.getByTestId('cut-check')).toHaveText('100 mm of the bar is not accounted for (the kerf allowance is 3 mm); record the remnant as a piece');
   await cut.getByRole('button', { name: 'Record the cut' }).click();
   await expect(cut.getByRole('alert')).toContainText('100 mm of the bar is not accounted for (the kerf allowance is 3 mm)');
   await cut.getByRole('button', { name: 'Add a piece' }).click();
-  await cut.getByLabel('Piece C (mm)').fill('94');
+  await cut.getByLabel('Piece C (mm)').pressSequentially('94', { delay: 80 });
+  await expect(cut.getByTestId('cut-check')).toHaveText('The pieces and the kerf account for the bar.');
   await cut.getByRole('button', { name: 'Record the cut' }).click();
   await expect(cut).toBeHidden();
   await expect(page.getByText('E2E-BAR-01-A, E2E-BAR-01-B, E2E-BAR-01-C')).toBeVisible();

@@ -105,7 +105,10 @@ test('[E2E-MANUFACTURING] an engineer opens a lot from a bar, records its operat
     await dialog.getByLabel('Method').click();
     await page.getByRole('option', { name: run.method }).click();
     await dialog.getByLabel('Line or tank').fill(run.kind === 'passivation' ? 'Tank P1' : 'Ultrasonic U1');
-    for (const [label, value] of Object.entries(run.values)) await dialog.getByLabel(label, { exact: false }).first().fill(value);
+    for (const [label, value] of Object.entries(run.values)) await dialog.getByLabel(label, { exact: false }).first().pressSequentially(value, { delay: 40 });
+    // Each value is judged against the method's window as it is typed; the server still decides.
+    if (run.kind === 'passivation') await expect(dialog.getByTestId('window-temperature')).toHaveText('Within window');
+    else await expect(dialog.getByTestId('window-washTemperature')).toHaveText('Outside window: 63 °C is above the maximum 60 °C. Recording it raises a nonconformance on each lot in the run.');
     const lots = dialog.getByRole('listbox', { name: /Lots in the run/ });
     for (const lot of [lotNumber, ...companions]) {
       await dialog.getByPlaceholder('Find a lot by number or part').fill(lot);

@@ -46,7 +46,7 @@ export function windowForRun(window: ParameterWindow, categories: readonly Conta
  * parameter is reported in `missing`, which the caller refuses rather than storing. `categories`
  * are the contact categories of the devices in the run.
  */
-export function checkRunWindow(method: ProcessMethod, parameters: Record<string, string>, categories: readonly ContactCategory[] = []): WindowCheck {
+export function checkRunWindow(method: Pick<ProcessMethod, 'parameters' | 'pairings'>, parameters: Record<string, string>, categories: readonly ContactCategory[] = []): WindowCheck {
   const items: WindowItem[] = [];
   const missing: string[] = [];
   for (const declared of method.parameters) {
@@ -75,7 +75,7 @@ export function checkRunWindow(method: ProcessMethod, parameters: Record<string,
  * A run is in window only if its temperature and time meet one pairing together: a citric bath
  * at 25 °C for 5 minutes meets neither Citric 1 (hot, short) nor Citric 3 (cool, long).
  */
-function checkPairings(method: ProcessMethod, items: WindowItem[]): string | null {
+function checkPairings(method: Pick<ProcessMethod, 'pairings'>, items: WindowItem[]): string | null {
   const temperature = items.find((item) => item.key === 'temperature');
   const time = items.find((item) => item.key === 'immersionTime');
   if (!temperature || !time) return null;

@@ -67,7 +67,7 @@ export function releaseReadiness(facts: ReadinessFacts): Readiness {
       facts.runs[0] ? `/process-runs/${facts.runs[0].id}` : lotLink,
     ),
     item('inspections', 'Inspections passed', inspectionFailures, facts.inspections.length ? `${facts.inspections.length} inspection(s) accepted` : 'the routing has no inspection', lotLink),
-    item('units', 'Unit counts reconciled', facts.unitsConsistent ? [] : facts.unitProblems.length ? facts.unitProblems : ['unit counts do not chain'], `${units} units on hand, every step accounted for`, lotLink),
+    item('units', 'Unit counts reconciled', facts.unitsConsistent ? [] : facts.unitProblems.length ? facts.unitProblems : ['unit counts do not chain'], `${units} good units, every step accounted for`, lotLink),
     item('material', 'Bar length reconciled', materialFailures, facts.material.map((entry) => `lot ${entry.lotNumber} reconciled`).join(', ') || 'no bar issued', lotLink),
     item(
       'held-material',

@@ -4,6 +4,7 @@ import type { AppContext } from '../../app-context';
 import { actorOf, currentPerson, originOf, requireAction } from '../../middleware/access';
 import { validate } from '../../middleware/validate';
 import { barPiece, cutBar, listBarPieces, receiveBar } from './bar-stock.service';
+import type { BarCutAllowance } from '@shared/schemas/materials';
 
 export function barStockRouter(context: AppContext): Router {
   const router = Router();
@@ -11,6 +12,10 @@ export function barStockRouter(context: AppContext): Router {
 
   router.get('/bar-pieces', requireAction('materials.read'), validate({ query: barListQuerySchema }), async (_req, res) => {
     res.json(await listBarPieces(dataSource(), res.locals.valid.query as BarListQuery));
+  });
+  // The saw kerf allowed per cut, so that a cut can be checked as it is typed (the server checks it again).
+  router.get('/bar-cut-allowance', requireAction('materials.read'), (_req, res) => {
+    res.json({ kerfAllowancePerCutMm: context.config.BAR_KERF_ALLOWANCE_MM } satisfies BarCutAllowance);
   });
   router.get('/bar-pieces/:pieceId', requireAction('materials.read'), validate({ params: barPieceParamsSchema }), async (_req, res) => {
     res.json(await barPiece(dataSource(), (res.locals.valid.params as { pieceId: number }).pieceId));
