@@ -8,6 +8,10 @@ import Aura from '@primeuix/themes/aura';
 export const IngotracePreset = definePreset(Aura, {
   primitive: {
     borderRadius: { none: '0', xs: '2px', sm: '3px', md: '5px', lg: '7px', xl: '10px' },
+    // Danger text and buttons at ≥ 4.5:1 on white and on the light surfaces (WCAG 2.1 SC 1.4.3).
+    red: { 500: '#c62828', 600: '#b91c1c' },
+    // Success text and buttons likewise (green 700 of the same family).
+    green: { 500: '#15803d', 600: '#166534' },
   },
   semantic: {
     primary: {
@@ -32,7 +36,8 @@ export const IngotracePreset = definePreset(Aura, {
           200: '#dde2e6',
           300: '#c5ccd2',
           400: '#9aa5ae',
-          500: '#727f8a',
+          // Muted text, placeholders, inactive tabs: ≥ 4.5:1 on white and on surface 50 and 100 (WCAG 2.1 SC 1.4.3).
+          500: '#5f6b75',
           600: '#56626c',
           700: '#414b54',
           800: '#2b333a',
@@ -41,5 +46,9 @@ export const IngotracePreset = definePreset(Aura, {
         },
       },
     },
+  },
+  components: {
+    // The caution banner's text at ≥ 4.5:1 on its pale brass background.
+    message: { colorScheme: { light: { warn: { color: '#7a4b00' }, secondary: { color: '{surface.700}' } } } },
   },
 });
