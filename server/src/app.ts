@@ -20,6 +20,7 @@ import { manufacturingRouter } from './modules/manufacturing/manufacturing.route
 import { releaseRouter } from './modules/release/release.router';
 import { digitalLinkRouter } from './modules/trace/digital-link.router';
 import { traceRouter } from './modules/trace/trace.router';
+import { homeRouter } from './modules/home/home.router';
 import { recallRouter } from './modules/recall/recall.router';
 import { startMailWorker } from './modules/mail/mail-outbox';
 import { startDailyCheckpoints } from './modules/ledger/ledger-checkpoints';
@@ -95,6 +96,7 @@ export function createApp(context: AppContext, options: AppOptions = {}): Ingotr
   api.use(manufacturingRouter(context));
   api.use(releaseRouter(context));
   api.use(traceRouter(context));
+  api.use(homeRouter(context));
   api.use(recallRouter(context));
   api.use(apiNotFound);
   app.use('/api', api);

@@ -1,6 +1,7 @@
 import type { QueryClient, QueryKey } from '@tanstack/vue-query';
 import { auditKeys } from './audit';
 import { barKeys } from './bar-stock';
+import { homeKeys } from './home';
 import { manufacturingKeys } from './manufacturing';
 import { materialKeys } from './materials';
 import { peopleKeys } from './people';
@@ -16,14 +17,16 @@ import { signatureKeys } from './signatures';
 export type ChangeKind = 'materials' | 'bar-stock' | 'manufacturing' | 'release' | 'recall' | 'people' | 'methods';
 
 const trace: QueryKey = ['trace'];
+// Every change may move a count of waiting work on a person's home.
+const home: QueryKey = homeKeys.all;
 const affects: Record<ChangeKind, readonly QueryKey[]> = {
-  materials: [materialKeys.all, barKeys.all, releaseKeys.all, trace, auditKeys.all],
-  'bar-stock': [barKeys.all, materialKeys.all, trace, auditKeys.all],
-  manufacturing: [manufacturingKeys.all, barKeys.all, releaseKeys.all, recallKeys.all, trace, auditKeys.all],
-  release: [releaseKeys.all, manufacturingKeys.all, recallKeys.all, trace, auditKeys.all],
-  recall: [recallKeys.all, manufacturingKeys.all, releaseKeys.all, trace, auditKeys.all],
-  people: [peopleKeys.all, auditKeys.all],
-  methods: [manufacturingKeys.all, auditKeys.all],
+  materials: [materialKeys.all, barKeys.all, releaseKeys.all, trace, auditKeys.all, home],
+  'bar-stock': [barKeys.all, materialKeys.all, trace, auditKeys.all, home],
+  manufacturing: [manufacturingKeys.all, barKeys.all, releaseKeys.all, recallKeys.all, trace, auditKeys.all, home],
+  release: [releaseKeys.all, manufacturingKeys.all, recallKeys.all, trace, auditKeys.all, home],
+  recall: [recallKeys.all, manufacturingKeys.all, releaseKeys.all, trace, auditKeys.all, home],
+  people: [peopleKeys.all, auditKeys.all, home],
+  methods: [manufacturingKeys.all, auditKeys.all, home],
 };
 
 /** Which change a signature on a record type is. */
