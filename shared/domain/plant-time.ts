@@ -56,3 +56,30 @@ export function isTimeZone(name: string): boolean {
     return false;
   }
 }
+
+/** The value a date-and-time input shows for an instant on the plant's clock: "2026-12-05T15:37". */
+export function plantLocalInput(instant: Instant, timeZone: string): string {
+  const text = plantDateTime(instant, timeZone);
+  return text === '—' ? '' : text.replace(' ', 'T');
+}
+
+/**
+ * The instant a plant-clock date and time names ("2026-12-05T15:37" typed in the plant), whatever
+ * the browser's own zone. In the hour skipped when clocks go forward the time is read with the
+ * offset before the change; in the hour repeated when they go back, as its first occurrence.
+ */
+export function instantFromPlantLocal(local: string, timeZone: string): Date | null {
+  const match = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2})(?::(\d{2}))?$/.exec(local);
+  if (!match) return null;
+  const [, year, month, day, hour, minute, second] = match.map(Number) as number[];
+  const asUtc = Date.UTC(year!, month! - 1, day!, hour!, minute!, Number.isNaN(second) ? 0 : second!);
+  // The plant's offset from UTC at an instant: its wall clock read as if it were UTC, less the instant.
+  const offsetAt = (utc: number) => {
+    const [date, time] = plantDateTimeSeconds(new Date(utc), timeZone).split(' ');
+    return Date.parse(`${date}T${time}Z`) - utc;
+  };
+  const before = offsetAt(asUtc - 14 * 3600_000);
+  const after = offsetAt(asUtc + 14 * 3600_000);
+  const fits = [...new Set([before, after])].map((offset) => asUtc - offset).filter((utc) => offsetAt(utc) === asUtc - utc);
+  return new Date(fits.length ? Math.min(...fits) : asUtc - before);
+}

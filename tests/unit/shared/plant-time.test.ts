@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { isTimeZone, plantDate, plantDateTime, plantDateTimeSeconds } from '@shared/domain/plant-time';
+import { instantFromPlantLocal, isTimeZone, plantDate, plantDateTime, plantDateTimeSeconds, plantLocalInput } from '@shared/domain/plant-time';
 
 // Summer time in the UK begins at 01:00 GMT on the last Sunday of March and ends at 01:00 GMT on the
 // last Sunday of October (The Summer Time Order 2002, SI 2002/262, as kept in the IANA tz database,
@@ -35,5 +35,21 @@ describe('plant time', () => {
     expect(isTimeZone('Europe/Tarnbridge')).toBe(false);
     expect(isTimeZone('+01:00')).toBe(false);
     expect(isTimeZone('')).toBe(false);
+  });
+});
+
+describe('times typed on the plant clock', () => {
+  it('when a time is typed in the plant, then it names the same instant whatever the browser zone (Europe/London: GMT in December, BST in July)', () => {
+    expect(instantFromPlantLocal('2026-12-05T15:37', 'Europe/London')!.toISOString()).toBe('2026-12-05T15:37:00.000Z');
+    expect(instantFromPlantLocal('2026-07-01T09:00', 'Europe/London')!.toISOString()).toBe('2026-07-01T08:00:00.000Z');
+    expect(instantFromPlantLocal('2026-07-01T09:00', 'America/New_York')!.toISOString()).toBe('2026-07-01T13:00:00.000Z');
+    expect(plantLocalInput('2026-07-01T08:00:00Z', 'Europe/London')).toBe('2026-07-01T09:00');
+  });
+  it('when the time falls in the hour the clocks skip or repeat, then it is read before the change or as its first occurrence', () => {
+    // 29 March 2026: 01:00 GMT becomes 02:00 BST, so 01:30 never shows on a London clock.
+    expect(instantFromPlantLocal('2026-03-29T01:30', 'Europe/London')!.toISOString()).toBe('2026-03-29T01:30:00.000Z');
+    // 25 October 2026: 01:30 happens twice (BST, then GMT); the first is 00:30 UTC.
+    expect(instantFromPlantLocal('2026-10-25T01:30', 'Europe/London')!.toISOString()).toBe('2026-10-25T00:30:00.000Z');
+    expect(instantFromPlantLocal('not a time', 'Europe/London')).toBeNull();
   });
 });
