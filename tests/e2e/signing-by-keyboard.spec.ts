@@ -32,6 +32,9 @@ test('[E2E-SIGN-KEYBOARD] a person signs by keyboard alone, and focus returns to
   const dialog = page.getByRole('dialog', { name: 'Sign: Reviewed' });
   await expect(dialog).toBeVisible();
   await expect(dialog.getByTestId('signature-signer')).toContainText('Signed by Priya Raghunathan');
+  // Name, meaning, date and time as the signature will read, before the password step (21 CFR 11.50).
+  await expect(dialog.getByTestId('signature-preview')).toContainText(/Your signature will read: Priya Raghunathan — Reviewed — \d{4}-\d{2}-\d{2} \d{2}:\d{2}/);
+  await expect(dialog.getByTestId('signature-preview')).toContainText('times in Europe/London');
   await expectAccessible(page, 'signing dialog');
   await page.keyboard.press('Escape');
   await expect(dialog).toBeHidden();
