@@ -1,5 +1,6 @@
 import tseslint from 'typescript-eslint';
 import pluginVue from 'eslint-plugin-vue';
+import prettier from 'eslint-config-prettier';
 
 export default tseslint.config(
   { ignores: ['node_modules/**', 'dist/**', '.data/**', 'test-results/**', 'playwright-report/**'] },
@@ -17,4 +18,6 @@ export default tseslint.config(
       'vue/html-self-closing': 'off',
     },
   },
+  // Layout is Prettier's (npm run format); eslint keeps to what it means.
+  prettier,
 );

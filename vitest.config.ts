@@ -8,7 +8,15 @@ export default defineConfig({
   resolve: { alias },
   test: {
     projects: [
-      { resolve: { alias }, test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], exclude: ['tests/unit/client/**'], environment: 'node' } },
+      {
+        resolve: { alias },
+        test: {
+          name: 'unit',
+          include: ['tests/unit/**/*.test.ts'],
+          exclude: ['tests/unit/client/**'],
+          environment: 'node',
+        },
+      },
       {
         plugins: [vue()],
         resolve: { alias },

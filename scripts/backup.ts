@@ -24,7 +24,9 @@ async function main(): Promise<void> {
     const tables = Object.keys(manifest.rows).length;
     const rows = Object.values(manifest.rows).reduce((sum, count) => sum + count, 0);
     log(`backup written: ${file}`);
-    log(`  ${tables} tables, ${rows} rows, ${manifest.documents.length} documents, ledger chain head ${manifest.chainHead.seq} ${manifest.chainHead.hash}`);
+    log(
+      `  ${tables} tables, ${rows} rows, ${manifest.documents.length} documents, ledger chain head ${manifest.chainHead.seq} ${manifest.chainHead.hash}`,
+    );
     log(`  manifest: ${file}.manifest.json (dump SHA-256 ${manifest.dumpSha256})`);
   } finally {
     await server.stop();

@@ -10,14 +10,23 @@ import { cpus, totalmem } from 'node:os';
 import { join, resolve } from 'node:path';
 import { loadConfig, loadDotEnv, testProfileEnvironment } from '../server/src/config/env';
 import { judge, readMatrix, resultsOf } from './compliance/matrix';
-import { contentHash, countsOf, evidenceHtml, evidencePdf, runnerLines, type EvidenceData } from './compliance/evidence-report';
+import {
+  contentHash,
+  countsOf,
+  evidenceHtml,
+  evidencePdf,
+  runnerLines,
+  type EvidenceData,
+} from './compliance/evidence-report';
 import { fail, log } from './lib/run';
 
 const sha256 = (bytes: Buffer | string) => createHash('sha256').update(bytes).digest('hex');
 
 function versionOf(command: string, args: string[]): string {
   try {
-    return execFileSync(command, args, { encoding: 'utf8', stdio: ['ignore', 'pipe', 'ignore'] }).trim().split('\n')[0]!;
+    return execFileSync(command, args, { encoding: 'utf8', stdio: ['ignore', 'pipe', 'ignore'] })
+      .trim()
+      .split('\n')[0]!;
   } catch {
     return 'not found';
   }
@@ -34,7 +43,10 @@ function readJson<T>(path: string): T | null {
 /** Runs npm test's runner, showing its output and keeping it for the summary lines. */
 function runTests(): Promise<{ exitCode: number; output: string }> {
   return new Promise((done) => {
-    const child = spawn(process.execPath, ['--import', 'tsx', 'scripts/test.ts'], { env: process.env, stdio: ['ignore', 'pipe', 'inherit'] });
+    const child = spawn(process.execPath, ['--import', 'tsx', 'scripts/test.ts'], {
+      env: process.env,
+      stdio: ['ignore', 'pipe', 'inherit'],
+    });
     let output = '';
     child.stdout.on('data', (chunk: Buffer) => {
       process.stdout.write(chunk);
@@ -72,7 +84,11 @@ async function main(): Promise<void> {
   const seconds = (Date.now() - started) / 1000;
 
   const root = resolve('.');
-  const results = resultsOf(readJson(join(reportDir, 'vitest.json')), readJson(join(reportDir, 'playwright.json')), root);
+  const results = resultsOf(
+    readJson(join(reportDir, 'vitest.json')),
+    readJson(join(reportDir, 'playwright.json')),
+    root,
+  );
   const requirements = readMatrix().requirements.map((requirement) => judge(requirement, results));
   const screenshotDir = 'test-results';
   const screenshots = existsSync(screenshotDir)
@@ -96,7 +112,12 @@ async function main(): Promise<void> {
       { name: 'Machine', value: `${cpus().length} cores, ${(totalmem() / 2 ** 30).toFixed(0)} GiB` },
     ],
     madeAt,
-    run: { command: 'npm test (types, lint, vitest, e2e)', exitCode: run.exitCode, seconds, runners: runnerLines(run.output) },
+    run: {
+      command: 'npm test (types, lint, vitest, e2e)',
+      exitCode: run.exitCode,
+      seconds,
+      runners: runnerLines(run.output),
+    },
     requirements,
     screenshots,
   };
@@ -108,16 +129,29 @@ async function main(): Promise<void> {
   writeFileSync(join(folder, 'evidence.html'), html);
   writeFileSync(join(folder, 'evidence.pdf'), pdf);
   // What the report states, for machines: the same facts the content hash covers.
-  const json = Buffer.from(`${JSON.stringify({ ...data, screenshots: data.screenshots.map(({ name, sha256: hash }) => ({ name, sha256: hash })), contentSha256: hash }, null, 2)}\n`, 'utf8');
+  const json = Buffer.from(
+    `${JSON.stringify({ ...data, screenshots: data.screenshots.map(({ name, sha256: hash }) => ({ name, sha256: hash })), contentSha256: hash }, null, 2)}\n`,
+    'utf8',
+  );
   writeFileSync(join(folder, 'evidence.json'), json);
-  writeFileSync(join(folder, 'SHA256SUMS'), `${sha256(pdf)}  evidence.pdf\n${sha256(html)}  evidence.html\n${sha256(json)}  evidence.json\n`);
+  writeFileSync(
+    join(folder, 'SHA256SUMS'),
+    `${sha256(pdf)}  evidence.pdf\n${sha256(html)}  evidence.html\n${sha256(json)}  evidence.json\n`,
+  );
 
   const counts = countsOf(data);
   log(`evidence report written to ${folder}/ (evidence.pdf, evidence.html, evidence.json, SHA256SUMS)`);
   log(`content SHA-256 ${hash}`);
-  log(`${counts.requirements} requirements: ${counts.shown} shown by passing tests, ${counts.notShown} not shown, ${counts.procedural} by the firm's procedures alone; ${counts.testsPassed} of ${counts.testsCited} cited tests passed; ${screenshots.length} screenshots`);
+  log(
+    `${counts.requirements} requirements: ${counts.shown} shown by passing tests, ${counts.notShown} not shown, ${counts.procedural} by the firm's procedures alone; ${counts.testsPassed} of ${counts.testsCited} cited tests passed; ${screenshots.length} screenshots`,
+  );
   for (const requirement of requirements.filter((entry) => entry.status === 'not-shown')) {
-    log(`NOT SHOWN ${requirement.id}: ${requirement.evidence.filter((entry) => entry.outcome !== 'passed').map((entry) => `${entry.id} ${entry.outcome}`).join(', ')}`);
+    log(
+      `NOT SHOWN ${requirement.id}: ${requirement.evidence
+        .filter((entry) => entry.outcome !== 'passed')
+        .map((entry) => `${entry.id} ${entry.outcome}`)
+        .join(', ')}`,
+    );
   }
   process.exit(run.exitCode !== 0 || counts.notShown > 0 ? 1 : 0);
 }

@@ -15,7 +15,8 @@ async function main(): Promise<void> {
   if (!values.from) throw new Error('name the backup: npm run restore -- --from FILE [--database NAME]');
   const file = resolve(values.from);
   if (!existsSync(file)) throw new Error(`${file} does not exist`);
-  if (!existsSync(`${file}.manifest.json`)) throw new Error(`${file}.manifest.json is missing; a backup is restored with its manifest`);
+  if (!existsSync(`${file}.manifest.json`))
+    throw new Error(`${file}.manifest.json is missing; a backup is restored with its manifest`);
   loadDotEnv();
   const config = loadConfig();
   const database = values.database ?? config.DB_NAME;

@@ -31,7 +31,7 @@ async function main(): Promise<void> {
     void stack.stop().finally(() => process.exit(code ?? 1));
   });
   await waitForHttp(`http://${config.HOST}:${config.PORT}/api/health`);
-  const urls = { 'Ingotrace': config.PUBLIC_URL, ...stack.urls, 'Health': `${config.PUBLIC_URL}/api/health` };
+  const urls = { Ingotrace: config.PUBLIC_URL, ...stack.urls, Health: `${config.PUBLIC_URL}/api/health` };
   log('ready:');
   for (const [name, url] of Object.entries(urls)) process.stdout.write(`    ${name.padEnd(46)} ${url}\n`);
   log('press Ctrl-C to stop everything');

@@ -43,7 +43,8 @@ async function main(): Promise<void> {
     allowPositionals: true,
   });
   const chosen = new Set<Step>((values.only as Step[] | undefined) ?? steps);
-  for (const step of chosen) if (!steps.includes(step)) throw new Error(`unknown step "${step}"; choose from ${steps.join(', ')}`);
+  for (const step of chosen)
+    if (!steps.includes(step)) throw new Error(`unknown step "${step}"; choose from ${steps.join(', ')}`);
 
   loadDotEnv();
   Object.assign(process.env, testProfileEnvironment());
@@ -68,11 +69,14 @@ async function main(): Promise<void> {
     }
     results.push({ name, ...outcome, seconds: (Date.now() - started) / 1000 });
   };
-  const exitCheck = async (command: string, args: string[]) => ((await runInherited(command, args)) === 0 ? { passed: 1, failed: 0 } : { passed: 0, failed: 1 });
+  const exitCheck = async (command: string, args: string[]) =>
+    (await runInherited(command, args)) === 0 ? { passed: 1, failed: 0 } : { passed: 0, failed: 1 };
 
   try {
     if (chosen.has('types')) {
-      await timed('type-check (client, vue-tsc)', () => exitCheck(bin('vue-tsc'), ['--noEmit', '-p', 'tsconfig.client.json']));
+      await timed('type-check (client, vue-tsc)', () =>
+        exitCheck(bin('vue-tsc'), ['--noEmit', '-p', 'tsconfig.client.json']),
+      );
       await timed('type-check (server, tsc)', () => exitCheck(bin('tsc'), ['--noEmit', '-p', 'tsconfig.json']));
     }
     if (chosen.has('lint')) await timed('lint (eslint)', () => exitCheck(bin('eslint'), ['--max-warnings=0', '.']));
@@ -83,10 +87,19 @@ async function main(): Promise<void> {
         await ensureDebianPackages('zbarimg', ['zbar-tools']);
         await ensureDebianPackages('dmtxread', ['dmtx-utils']);
         const output = `${reportDir}/vitest.json`;
-        const code = await runInherited(bin('vitest'), ['run', '--reporter=default', '--reporter=json', `--outputFile.json=${output}`, ...positionals]);
+        const code = await runInherited(bin('vitest'), [
+          'run',
+          '--reporter=default',
+          '--reporter=json',
+          `--outputFile.json=${output}`,
+          ...positionals,
+        ]);
         const report = readJson<{ numPassedTests: number; numFailedTests: number }>(output);
         if (!report) return { passed: 0, failed: 1 };
-        return { passed: report.numPassedTests, failed: report.numFailedTests + (code !== 0 && report.numFailedTests === 0 ? 1 : 0) };
+        return {
+          passed: report.numPassedTests,
+          failed: report.numFailedTests + (code !== 0 && report.numFailedTests === 0 ? 1 : 0),
+        };
       });
     }
     if (chosen.has('e2e')) {
@@ -96,7 +109,11 @@ async function main(): Promise<void> {
         const output = `${reportDir}/playwright.json`;
         process.env.PLAYWRIGHT_JSON_OUTPUT_NAME = output;
         // File filters apply to Playwright only when it is the one runner chosen (`--only=e2e <files>`).
-        const code = await runInherited(bin('playwright'), ['test', '--reporter=list,json', ...(chosen.size === 1 ? positionals : [])]);
+        const code = await runInherited(bin('playwright'), [
+          'test',
+          '--reporter=list,json',
+          ...(chosen.size === 1 ? positionals : []),
+        ]);
         const report = readJson<{ stats: { expected: number; unexpected: number; flaky: number } }>(output);
         if (!report) return { passed: 0, failed: 1 };
         const { expected, unexpected, flaky } = report.stats;
@@ -109,7 +126,9 @@ async function main(): Promise<void> {
 
   process.stdout.write('\nSummary\n');
   for (const result of results) {
-    process.stdout.write(`  ${result.name.padEnd(32)} ${String(result.passed).padStart(5)} passed ${String(result.failed).padStart(4)} failed  (${result.seconds.toFixed(1)} s)\n`);
+    process.stdout.write(
+      `  ${result.name.padEnd(32)} ${String(result.passed).padStart(5)} passed ${String(result.failed).padStart(4)} failed  (${result.seconds.toFixed(1)} s)\n`,
+    );
   }
   const passed = results.reduce((sum, result) => sum + result.passed, 0);
   const failed = results.reduce((sum, result) => sum + result.failed, 0);

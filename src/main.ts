@@ -23,7 +23,8 @@ const queryClient: QueryClient = new QueryClient({
       if (isApiError(error) && error.status === 401) {
         queryClient.setQueryData(sessionKeys.me(), null);
         const current = router.currentRoute.value;
-        if (!current.meta.public) void router.push({ name: 'sign-in', query: { returnTo: current.fullPath, ended: 'session' } });
+        if (!current.meta.public)
+          void router.push({ name: 'sign-in', query: { returnTo: current.fullPath, ended: 'session' } });
       }
     },
   }),

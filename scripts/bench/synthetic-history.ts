@@ -18,7 +18,15 @@ export interface HistoryShape {
 /** ~200 lots per heat, runs of ~20 lots, 40 suppliers, 5,000 consignees, ten years. */
 export function shapeFor(lots: number): HistoryShape {
   const heats = Math.max(10, Math.round(lots / 200));
-  return { lots, heats, suppliers: Math.min(40, heats), barsPerHeat: 5, lotsPerRun: 20, consignees: Math.min(5_000, Math.max(50, Math.round(lots / 200))), years: 10 };
+  return {
+    lots,
+    heats,
+    suppliers: Math.min(40, heats),
+    barsPerHeat: 5,
+    lotsPerRun: 20,
+    consignees: Math.min(5_000, Math.max(50, Math.round(lots / 200))),
+    years: 10,
+  };
 }
 
 export interface HistoryCounts {
@@ -48,7 +56,10 @@ export async function generateHistory(admin: DataSource, shape: HistoryShape): P
   };
   await admin.query('SET SESSION foreign_key_checks = 0, unique_checks = 0');
   const start = "TIMESTAMP('2016-12-01 06:00:00')";
-  await step(`${shape.suppliers} suppliers`, `INSERT INTO supplier (id, name, country, approval) SELECT seq, CONCAT('Synthetic mill ', seq), 'Nowhere', 'approved' FROM ${seq(shape.suppliers)}`);
+  await step(
+    `${shape.suppliers} suppliers`,
+    `INSERT INTO supplier (id, name, country, approval) SELECT seq, CONCAT('Synthetic mill ', seq), 'Nowhere', 'approved' FROM ${seq(shape.suppliers)}`,
+  );
   await step(
     `${shape.heats} heats`,
     `INSERT INTO heat (id, heat_number, supplier_id, spec_id, spec_revision, melt_route, product_form, size_mm, heat_condition, status, received_by, received_at)
@@ -69,10 +80,15 @@ export async function generateHistory(admin: DataSource, shape: HistoryShape): P
   );
   await admin.query(`INSERT INTO part (id, part_number, revision, description, gtin, unit_length_mm, cutoff_allowance_mm, reconciliation_tolerance_pct, lot_pattern, created_by)
      SELECT seq, CONCAT('SYN-', seq), 'A', CONCAT('Synthetic part ', seq), CONCAT('0952123999', LPAD(seq, 3, '0'), '0'), 40, 2, 2, 'S{SEQ:8}', ${by} FROM seq_1_to_5`);
-  await admin.query(`INSERT INTO routing_step (part_id, step_no, kind, name, process_method) SELECT seq, 10, 'passivation', 'Passivate', 'F86-NITRIC' FROM seq_1_to_5`);
-  await admin.query(`INSERT INTO routing_step (part_id, step_no, kind, name, process_method) SELECT seq, 20, 'cleaning', 'Final clean', 'KIW-CLEAN-AQ' FROM seq_1_to_5`);
+  await admin.query(
+    `INSERT INTO routing_step (part_id, step_no, kind, name, process_method) SELECT seq, 10, 'passivation', 'Passivate', 'F86-NITRIC' FROM seq_1_to_5`,
+  );
+  await admin.query(
+    `INSERT INTO routing_step (part_id, step_no, kind, name, process_method) SELECT seq, 20, 'cleaning', 'Final clean', 'KIW-CLEAN-AQ' FROM seq_1_to_5`,
+  );
   // The last 1 % are still open; merges and splits come from the lots just before them.
-  const child = (column: string) => `CASE WHEN ${column} MOD 100 = 50 THEN 'merge' WHEN ${column} MOD 33 = 0 THEN 'split' ELSE 'bar' END`;
+  const child = (column: string) =>
+    `CASE WHEN ${column} MOD 100 = 50 THEN 'merge' WHEN ${column} MOD 33 = 0 THEN 'split' ELSE 'bar' END`;
   await step(
     `${n} lots`,
     `INSERT INTO production_lot (id, lot_number, part_id, planned_qty, start_qty, origin, status, released_qty, opened_by, opened_at)
@@ -91,7 +107,10 @@ export async function generateHistory(admin: DataSource, shape: HistoryShape): P
     `INSERT INTO material_movement (lot_id, bar_piece_id, kind, length_mm, recorded_by)
      SELECT seq, ${bars} + seq, 'issue', 50, ${by} FROM ${seq(n)} WHERE NOT (seq > 2 AND (seq MOD 100 = 50 OR seq MOD 33 = 0))`,
   );
-  await step('heats of each lot, through splits and merges', `INSERT INTO lot_heat (heat_id, lot_id) SELECT heat_id, lot_id FROM (${derivedLotHeatsSql}) AS derived`);
+  await step(
+    'heats of each lot, through splits and merges',
+    `INSERT INTO lot_heat (heat_id, lot_id) SELECT heat_id, lot_id FROM (${derivedLotHeatsSql}) AS derived`,
+  );
   await step(
     `${2 * runs} passivation and cleaning runs`,
     `INSERT INTO process_run (id, run_number, kind, method_id, equipment, parameters_json, window_check_json, in_window, operator_name, run_at, recorded_by)
@@ -101,7 +120,10 @@ export async function generateHistory(admin: DataSource, shape: HistoryShape): P
   );
   for (const [stepNo, runOf] of [
     [10, `1 + FLOOR((seq - 1) / ${shape.lotsPerRun})`],
-    [20, `${runs} + 1 + LEAST(${runs - 1}, FLOOR((seq - 1 + ${Math.floor(shape.lotsPerRun / 2)}) / ${shape.lotsPerRun}))`],
+    [
+      20,
+      `${runs} + 1 + LEAST(${runs - 1}, FLOOR((seq - 1 + ${Math.floor(shape.lotsPerRun / 2)}) / ${shape.lotsPerRun}))`,
+    ],
   ] as const) {
     await step(
       `operations at step ${stepNo}`,
@@ -126,10 +148,24 @@ export async function generateHistory(admin: DataSource, shape: HistoryShape): P
   );
   await admin.query('SET SESSION foreign_key_checks = 1, unique_checks = 1');
   const counts: HistoryCounts = {};
-  for (const table of ['supplier', 'heat', 'bar_piece', 'production_lot', 'lot_link', 'material_movement', 'lot_heat', 'process_run', 'lot_operation', 'consignee', 'shipment']) {
+  for (const table of [
+    'supplier',
+    'heat',
+    'bar_piece',
+    'production_lot',
+    'lot_link',
+    'material_movement',
+    'lot_heat',
+    'process_run',
+    'lot_operation',
+    'consignee',
+    'shipment',
+  ]) {
     const [row] = await admin.query(`SELECT COUNT(*) AS n FROM ${table}`);
     counts[table] = Number(row.n);
   }
-  await admin.query('ANALYZE TABLE heat, bar_piece, production_lot, lot_link, material_movement, lot_heat, lot_operation, shipment');
+  await admin.query(
+    'ANALYZE TABLE heat, bar_piece, production_lot, lot_link, material_movement, lot_heat, lot_operation, shipment',
+  );
   return counts;
 }

@@ -35,7 +35,10 @@ const round = (value: number) => Math.round(value * 100) / 100;
 
 function percentiles(samples: number[]): { p50: number; p95: number } {
   const sorted = [...samples].sort((a, b) => a - b);
-  return { p50: round(sorted[Math.floor(sorted.length * 0.5)]!), p95: round(sorted[Math.min(sorted.length - 1, Math.floor(sorted.length * 0.95))]!) };
+  return {
+    p50: round(sorted[Math.floor(sorted.length * 0.5)]!),
+    p95: round(sorted[Math.min(sorted.length - 1, Math.floor(sorted.length * 0.95))]!),
+  };
 }
 
 async function timeEach<T>(inputs: T[], work: (input: T) => Promise<unknown>): Promise<{ p50: number; p95: number }> {
@@ -58,20 +61,43 @@ function randomInts(count: number, max: number, seed: number): number[] {
 }
 
 async function main(): Promise<void> {
-  const { values } = parseArgs({ options: { lots: { type: 'string' }, json: { type: 'boolean' }, keep: { type: 'boolean' } } });
+  const { values } = parseArgs({
+    options: { lots: { type: 'string' }, json: { type: 'boolean' }, keep: { type: 'boolean' } },
+  });
   const lots = Number(values.lots ?? 1_000_000);
-  if (!Number.isInteger(lots) || lots < 1_000 || lots > 5_000_000) throw new Error('--lots must be a whole number from 1000 to 5000000');
+  if (!Number.isInteger(lots) || lots < 1_000 || lots > 5_000_000)
+    throw new Error('--lots must be a whole number from 1000 to 5000000');
   loadDotEnv();
   // Its own data folder, port and database: the benchmark never touches the demo or test databases.
-  Object.assign(process.env, testProfileEnvironment(), { DATA_DIR: '.data/bench', DB_PORT: '3310', DB_NAME: 'ingotrace_bench_trace', LOG_LEVEL: 'error', DB_POOL_SIZE: '20' });
+  Object.assign(process.env, testProfileEnvironment(), {
+    DATA_DIR: '.data/bench',
+    DB_PORT: '3310',
+    DB_NAME: 'ingotrace_bench_trace',
+    LOG_LEVEL: 'error',
+    DB_POOL_SIZE: '20',
+  });
   const config = loadConfig();
   const shape = shapeFor(lots);
-  const server = await bootstrapDatabase(config, { reset: true, relaxedDurability: true, bufferPoolMb: Math.max(512, Math.round(lots / 400)) });
+  const server = await bootstrapDatabase(config, {
+    reset: true,
+    relaxedDurability: true,
+    bufferPoolMb: Math.max(512, Math.round(lots / 400)),
+  });
   const admin = createDataSource(config, 'migration');
   const appData = createDataSource(config, 'app');
   await admin.initialize();
   await appData.initialize();
-  const pool = mysql.createPool({ host: config.DB_HOST, port: config.DB_PORT, user: config.DB_USER, password: config.DB_PASSWORD, database: config.DB_NAME, connectionLimit: 4, timezone: 'Z', supportBigNumbers: true, bigNumberStrings: true });
+  const pool = mysql.createPool({
+    host: config.DB_HOST,
+    port: config.DB_PORT,
+    user: config.DB_USER,
+    password: config.DB_PASSWORD,
+    database: config.DB_NAME,
+    connectionLimit: 4,
+    timezone: 'Z',
+    supportBigNumbers: true,
+    bigNumberStrings: true,
+  });
   let listening: import('node:http').Server | null = null;
   let summary = '';
   let shutdown: (() => Promise<void>) | null = null;
@@ -81,11 +107,18 @@ async function main(): Promise<void> {
     const generated = performance.now();
     const counts = await generateHistory(admin, shape);
     const generateSeconds = Math.round((performance.now() - generated) / 1000);
-    log(`generated in ${generateSeconds} s: ${Object.entries(counts).map(([table, count]) => `${table} ${count}`).join(', ')}`);
+    log(
+      `generated in ${generateSeconds} s: ${Object.entries(counts)
+        .map(([table, count]) => `${table} ${count}`)
+        .join(', ')}`,
+    );
 
     // The API as it runs in production, signed in through the real SAML round trip.
     const saml = await SamlTestDriver.create(config);
-    const app = createApp({ config, database: new Database(appData), logger: pino({ level: 'silent' }), version: 'bench' }, { mailWorker: false });
+    const app = createApp(
+      { config, database: new Database(appData), logger: pino({ level: 'silent' }), version: 'bench' },
+      { mailWorker: false },
+    );
     shutdown = () => app.shutdown();
     listening = app.listen(0, '127.0.0.1');
     await new Promise((done) => listening!.once('listening', done));
@@ -100,7 +133,9 @@ async function main(): Promise<void> {
         const request = http.request(`${base}${path}`, { method, headers, agent: keepAlive }, (response) => {
           const chunks: Buffer[] = [];
           response.on('data', (chunk: Buffer) => chunks.push(chunk));
-          response.on('end', () => resolveCall({ status: response.statusCode ?? 0, json: JSON.parse(Buffer.concat(chunks).toString('utf8')) }));
+          response.on('end', () =>
+            resolveCall({ status: response.statusCode ?? 0, json: JSON.parse(Buffer.concat(chunks).toString('utf8')) }),
+          );
         });
         request.on('error', rejectCall);
         request.end(body === undefined ? undefined : JSON.stringify(body));
@@ -112,7 +147,9 @@ async function main(): Promise<void> {
     };
 
     // The same service code over a bare mysql2 pool.
-    const bare = { query: async (sql: string, parameters?: unknown[]) => (await pool.query(sql, parameters))[0] } as unknown as EntityManager;
+    const bare = {
+      query: async (sql: string, parameters?: unknown[]) => (await pool.query(sql, parameters))[0],
+    } as unknown as EntityManager;
     const bareData = { manager: bare } as unknown as DataSource;
 
     const lotNumber = (id: number) => `S${String(id).padStart(8, '0')}`;
@@ -133,7 +170,11 @@ async function main(): Promise<void> {
       forwardSupplierLots: (await get(`/api/trace/forward?supplierId=${supplierStarts[0]}`)).lots.length as number,
     };
     log('measuring…');
-    const measure = async (apiWork: (input: number) => Promise<unknown>, sqlWork: (input: number) => Promise<unknown>, inputs: number[]): Promise<Figures> => {
+    const measure = async (
+      apiWork: (input: number) => Promise<unknown>,
+      sqlWork: (input: number) => Promise<unknown>,
+      inputs: number[],
+    ): Promise<Figures> => {
       const api = await timeEach(inputs, apiWork);
       const sql = await timeEach(inputs, sqlWork);
       return { apiP50Ms: api.p50, apiP95Ms: api.p95, sqlP50Ms: sql.p50, sqlP95Ms: sql.p95 };
@@ -160,7 +201,11 @@ async function main(): Promise<void> {
       // trace and the snapshot's insert, in a transaction that is rolled back.
       recallSnapshot: await measure(
         async (id) => {
-          const response = await call('POST', '/api/recalls', { trigger: { heatId: id }, mode: 'drill', reason: 'Benchmark drill of one heat' });
+          const response = await call('POST', '/api/recalls', {
+            trigger: { heatId: id },
+            mode: 'drill',
+            reason: 'Benchmark drill of one heat',
+          });
           if (response.status !== 201) throw new Error(`recall: ${response.status} ${JSON.stringify(response.json)}`);
           lastRecallId = (response.json as { id: number }).id;
         },
@@ -168,10 +213,15 @@ async function main(): Promise<void> {
           const connection = await pool.getConnection();
           try {
             await connection.beginTransaction();
-            const manager = { query: async (sql: string, parameters?: unknown[]) => (await connection.query(sql, parameters))[0] } as unknown as EntityManager;
+            const manager = {
+              query: async (sql: string, parameters?: unknown[]) => (await connection.query(sql, parameters))[0],
+            } as unknown as EntityManager;
             const trace = await forwardTraceIn(manager, { heatId: id });
             const text = canonicalJson({ trace, takenAt: new Date().toISOString() });
-            await connection.query("INSERT INTO recall_snapshot (recall_id, kind, taken_by, content, sha256) VALUES (?, 'rerun', ?, ?, ?)", [lastRecallId, coordinatorId, text, createHash('sha256').update(text).digest('hex')]);
+            await connection.query(
+              "INSERT INTO recall_snapshot (recall_id, kind, taken_by, content, sha256) VALUES (?, 'rerun', ?, ?, ?)",
+              [lastRecallId, coordinatorId, text, createHash('sha256').update(text).digest('hex')],
+            );
           } finally {
             await connection.rollback();
             connection.release();
@@ -181,17 +231,42 @@ async function main(): Promise<void> {
       ),
     };
     log('backward trace throughput, 20 connections for 15 s…');
-    const load = await loadFromAnotherProcess({ url: base, connections: 20, duration: 15, reader: cookie, readPaths: randomInts(200, lots, 23).map((id) => `/api/trace/backward?lot=${lotNumber(id)}`) });
-    const throughput = { requestsPerSecond: load.requestsPerSecond, p99Ms: load.p99Ms, errors: load.errors + load.timeouts + load.non2xx };
-    const ratios = Object.fromEntries(Object.entries(queries).map(([name, figures]) => [name, round(figures.apiP50Ms / figures.sqlP50Ms)]));
-    const result = { lots: counts.production_lot, heats: counts.heat, generateSeconds, rows: counts, sizes, queries, apiToSqlP50: ratios, backwardThroughput: throughput };
+    const load = await loadFromAnotherProcess({
+      url: base,
+      connections: 20,
+      duration: 15,
+      reader: cookie,
+      readPaths: randomInts(200, lots, 23).map((id) => `/api/trace/backward?lot=${lotNumber(id)}`),
+    });
+    const throughput = {
+      requestsPerSecond: load.requestsPerSecond,
+      p99Ms: load.p99Ms,
+      errors: load.errors + load.timeouts + load.non2xx,
+    };
+    const ratios = Object.fromEntries(
+      Object.entries(queries).map(([name, figures]) => [name, round(figures.apiP50Ms / figures.sqlP50Ms)]),
+    );
+    const result = {
+      lots: counts.production_lot,
+      heats: counts.heat,
+      generateSeconds,
+      rows: counts,
+      sizes,
+      queries,
+      apiToSqlP50: ratios,
+      backwardThroughput: throughput,
+    };
     if (!values.json) {
       const line = (name: string, figures: Figures) =>
         `${name.padEnd(18)} API p50 ${String(figures.apiP50Ms).padStart(8)} ms  p95 ${String(figures.apiP95Ms).padStart(8)} ms   SQL p50 ${String(figures.sqlP50Ms).padStart(8)} ms  p95 ${String(figures.sqlP95Ms).padStart(8)} ms   ratio ${ratios[name]}`;
       process.stdout.write(`\n${result.lots} lots, ${result.heats} heats, generated in ${generateSeconds} s\n`);
-      process.stdout.write(`sizes: backward ${sizes.backwardLots} lot(s), forward from a heat ${sizes.forwardHeatLots} lots, from a supplier ${sizes.forwardSupplierLots} lots\n`);
+      process.stdout.write(
+        `sizes: backward ${sizes.backwardLots} lot(s), forward from a heat ${sizes.forwardHeatLots} lots, from a supplier ${sizes.forwardSupplierLots} lots\n`,
+      );
       for (const [name, figures] of Object.entries(queries)) process.stdout.write(`${line(name, figures)}\n`);
-      process.stdout.write(`backward at 20 connections: ${throughput.requestsPerSecond} req/s, p99 ${throughput.p99Ms} ms, ${throughput.errors} errors\n`);
+      process.stdout.write(
+        `backward at 20 connections: ${throughput.requestsPerSecond} req/s, p99 ${throughput.p99Ms} ms, ${throughput.errors} errors\n`,
+      );
     }
     summary = JSON.stringify(result);
   } finally {

@@ -15,7 +15,12 @@ export interface EvidenceData {
   product: { name: string; version: string; commit: string; uncommittedChanges: boolean };
   environment: Array<{ name: string; value: string }>;
   madeAt: string;
-  run: { command: string; exitCode: number; seconds: number; runners: Array<{ name: string; passed: number; failed: number }> };
+  run: {
+    command: string;
+    exitCode: number;
+    seconds: number;
+    runners: Array<{ name: string; passed: number; failed: number }>;
+  };
   requirements: JudgedRequirement[];
   screenshots: Array<{ name: string; sha256: string; png: string }>;
 }
@@ -31,7 +36,8 @@ export interface EvidenceCounts {
 
 export function countsOf(data: Pick<EvidenceData, 'requirements'>): EvidenceCounts {
   const cited = new Map<string, string>();
-  for (const requirement of data.requirements) for (const entry of requirement.evidence) cited.set(entry.id, entry.outcome);
+  for (const requirement of data.requirements)
+    for (const entry of requirement.evidence) cited.set(entry.id, entry.outcome);
   return {
     requirements: data.requirements.length,
     shown: data.requirements.filter((requirement) => requirement.status === 'shown').length,
@@ -51,7 +57,11 @@ export function contentHash(data: EvidenceData): string {
 /** "  vitest (unit, client, API)   437 passed    0 failed  (154.5 s)" → { name, passed, failed }. */
 export function runnerLines(output: string): Array<{ name: string; passed: number; failed: number }> {
   const summary = output.slice(output.lastIndexOf('\nSummary\n'));
-  return [...summary.matchAll(/^ {2}(.+?)\s+(\d+) passed\s+(\d+) failed/gm)].map((match) => ({ name: match[1]!.trim(), passed: Number(match[2]), failed: Number(match[3]) }));
+  return [...summary.matchAll(/^ {2}(.+?)\s+(\d+) passed\s+(\d+) failed/gm)].map((match) => ({
+    name: match[1]!.trim(),
+    passed: Number(match[2]),
+    failed: Number(match[3]),
+  }));
 }
 
 /**
@@ -79,7 +89,8 @@ function summaryLine(counts: EvidenceCounts): string {
   return `${counts.requirements} requirements: ${counts.shown} shown by passing tests, ${counts.notShown} not shown, ${counts.procedural} met by the firm's procedures alone. ${counts.testsPassed} of ${counts.testsCited} cited tests passed.`;
 }
 
-const escape = (text: string) => text.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
+const escape = (text: string) =>
+  text.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
 
 export function evidenceHtml(data: EvidenceData, hash: string): string {
   const counts = countsOf(data);
@@ -135,38 +146,74 @@ export async function evidencePdf(data: EvidenceData, hash: string): Promise<Buf
       widths: [70, '*', 62],
       body: [
         [
-          { text: [{ text: `${requirement.id}\n`, bold: true }, { text: `${requirement.regulation}\n${requirement.clause}`, fontSize: 8 }] },
+          {
+            text: [
+              { text: `${requirement.id}\n`, bold: true },
+              { text: `${requirement.regulation}\n${requirement.clause}`, fontSize: 8 },
+            ],
+          },
           {
             stack: [
               { text: requirement.requirement },
-              ...(requirement.functions.length ? [{ ul: requirement.functions, fontSize: 8, margin: [0, 2, 0, 0] } as Content] : []),
+              ...(requirement.functions.length
+                ? [{ ul: requirement.functions, fontSize: 8, margin: [0, 2, 0, 0] } as Content]
+                : []),
               {
-                text: requirement.evidence.length ? requirement.evidence.map((entry) => `${entry.id}: ${entry.outcome}`).join(' · ') : 'No automated test: met by the firm’s procedures.',
+                text: requirement.evidence.length
+                  ? requirement.evidence.map((entry) => `${entry.id}: ${entry.outcome}`).join(' · ')
+                  : 'No automated test: met by the firm’s procedures.',
                 fontSize: 8,
                 color: requirement.status === 'not-shown' ? '#a4262c' : '#33414c',
                 margin: [0, 2, 0, 0],
               },
-              ...(requirement.firm ? [{ text: `The firm: ${requirement.firm}`, fontSize: 8, italics: true, margin: [0, 2, 0, 0] } as Content] : []),
+              ...(requirement.firm
+                ? [
+                    {
+                      text: `The firm: ${requirement.firm}`,
+                      fontSize: 8,
+                      italics: true,
+                      margin: [0, 2, 0, 0],
+                    } as Content,
+                  ]
+                : []),
             ],
           },
           { text: statusText[requirement.status], bold: true, color: statusColour[requirement.status] },
         ],
       ],
     },
-    layout: { hLineWidth: (index: number) => (index === 1 ? 0.5 : 0), vLineWidth: () => 0, hLineColor: () => '#d5dbe0' },
+    layout: {
+      hLineWidth: (index: number) => (index === 1 ? 0.5 : 0),
+      vLineWidth: () => 0,
+      hLineColor: () => '#d5dbe0',
+    },
     margin: [0, 0, 0, 4],
   }));
   const definition: TDocumentDefinitions = {
-    info: { title: `Ingotrace validation evidence ${data.product.version}`, author: 'Ingotrace', creator: 'Ingotrace', producer: 'Ingotrace', creationDate: new Date(data.madeAt) },
+    info: {
+      title: `Ingotrace validation evidence ${data.product.version}`,
+      author: 'Ingotrace',
+      creator: 'Ingotrace',
+      producer: 'Ingotrace',
+      creationDate: new Date(data.madeAt),
+    },
     pageSize: 'A4',
     pageMargins: [40, 50, 40, 50],
-    footer: pageFooter(`Ingotrace ${data.product.version} · ${data.product.commit.slice(0, 12)} · content SHA-256 ${hash.slice(0, 16)}…`),
+    footer: pageFooter(
+      `Ingotrace ${data.product.version} · ${data.product.commit.slice(0, 12)} · content SHA-256 ${hash.slice(0, 16)}…`,
+    ),
     styles: documentStyles,
     content: [
       { text: 'Ingotrace · validation evidence report', color: '#555' },
       { text: `${data.product.name} ${data.product.version}`, style: 'title' },
       cautionBox(evidenceCaution),
-      { text: summaryLine(counts), bold: true, fontSize: 11, color: counts.notShown ? '#a4262c' : '#1e6b3a', margin: [0, 8, 0, 6] },
+      {
+        text: summaryLine(counts),
+        bold: true,
+        fontSize: 11,
+        color: counts.notShown ? '#a4262c' : '#1e6b3a',
+        margin: [0, 8, 0, 6],
+      },
       {
         table: {
           widths: [120, '*'],
@@ -175,7 +222,10 @@ export async function evidencePdf(data: EvidenceData, hash: string): Promise<Buf
             ['Made (UTC)', data.madeAt],
             ...data.environment.map((entry): [string, string] => [entry.name, entry.value]),
             ['Test run', `${data.run.command}: exit code ${data.run.exitCode}, ${data.run.seconds.toFixed(0)} s`],
-            ...data.run.runners.map((runner): [string, string] => [runner.name, `${runner.passed} passed, ${runner.failed} failed`]),
+            ...data.run.runners.map((runner): [string, string] => [
+              runner.name,
+              `${runner.passed} passed, ${runner.failed} failed`,
+            ]),
             ['Content SHA-256', { text: hash, fontSize: 8 }],
           ],
         },
@@ -183,19 +233,29 @@ export async function evidencePdf(data: EvidenceData, hash: string): Promise<Buf
       },
       heading('Requirements'),
       ...requirementBlocks,
-      ...(data.screenshots.length ? [{ text: 'Screenshots from the browser journeys', style: 'heading', pageBreak: 'before' } as Content] : []),
+      ...(data.screenshots.length
+        ? [{ text: 'Screenshots from the browser journeys', style: 'heading', pageBreak: 'before' } as Content]
+        : []),
       ...data.screenshots.flatMap((shot): Content[] => {
         const { slices, total } = screenshotSlices(shot.png);
         return slices.map((slice, index) => ({
           stack: [
-            { text: `${shot.name}${total > 1 ? ` (part ${index + 1} of ${total}${total > slices.length ? `; parts ${slices.length + 1}–${total} in the HTML report` : ''})` : ''} · SHA-256 ${shot.sha256.slice(0, 32)}…`, fontSize: 8, margin: [0, 6, 0, 2] },
+            {
+              text: `${shot.name}${total > 1 ? ` (part ${index + 1} of ${total}${total > slices.length ? `; parts ${slices.length + 1}–${total} in the HTML report` : ''})` : ''} · SHA-256 ${shot.sha256.slice(0, 32)}…`,
+              fontSize: 8,
+              margin: [0, 6, 0, 2],
+            },
             { image: `data:image/png;base64,${slice}`, fit: [515, 640] },
           ],
           unbreakable: true,
         }));
       }),
       table(['Content SHA-256'], [[hash]]),
-      { text: 'The SHA-256 of the RFC 8785 canonical JSON of what this report states (screenshots by their own hashes). SHA256SUMS beside this file holds the hashes of the report’s files.', fontSize: 8, color: '#555' },
+      {
+        text: 'The SHA-256 of the RFC 8785 canonical JSON of what this report states (screenshots by their own hashes). SHA256SUMS beside this file holds the hashes of the report’s files.',
+        fontSize: 8,
+        color: '#555',
+      },
     ],
   };
   return renderPdf(definition);

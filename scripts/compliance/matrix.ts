@@ -45,7 +45,8 @@ export function testIdsUnder(folder = 'tests'): Map<string, string[]> {
     for (const entry of readdirSync(dir, { withFileTypes: true })) {
       const path = join(dir, entry.name);
       if (entry.isDirectory()) walk(path);
-      else if (/\.(test|spec)\.ts$/.test(entry.name)) for (const id of testIdsInSource(readFileSync(path, 'utf8'))) found.set(id, [...(found.get(id) ?? []), path]);
+      else if (/\.(test|spec)\.ts$/.test(entry.name))
+        for (const id of testIdsInSource(readFileSync(path, 'utf8'))) found.set(id, [...(found.get(id) ?? []), path]);
     }
   };
   walk(folder);
@@ -59,10 +60,13 @@ export function matrixProblems(matrix: Matrix, declared: Map<string, string[]>):
   for (const requirement of matrix.requirements) {
     if (seen.has(requirement.id)) problems.push(`${requirement.id}: the requirement id is used twice`);
     seen.add(requirement.id);
-    if (!requirement.tests.length && !requirement.firm) problems.push(`${requirement.id}: no test and no procedural control stated`);
-    for (const id of requirement.tests) if (!declared.has(id)) problems.push(`${requirement.id}: cites ${id}, which no test declares`);
+    if (!requirement.tests.length && !requirement.firm)
+      problems.push(`${requirement.id}: no test and no procedural control stated`);
+    for (const id of requirement.tests)
+      if (!declared.has(id)) problems.push(`${requirement.id}: cites ${id}, which no test declares`);
   }
-  for (const [id, files] of declared) if (files.length > 1) problems.push(`${id}: declared by ${files.length} tests (${files.join(', ')})`);
+  for (const [id, files] of declared)
+    if (files.length > 1) problems.push(`${id}: declared by ${files.length} tests (${files.join(', ')})`);
   return problems;
 }
 
@@ -86,15 +90,27 @@ interface PlaywrightSuite {
   suites?: PlaywrightSuite[];
 }
 
-const vitestOutcome = (status: string): TestOutcome => (status === 'passed' ? 'passed' : status === 'failed' ? 'failed' : 'skipped');
+const vitestOutcome = (status: string): TestOutcome =>
+  status === 'passed' ? 'passed' : status === 'failed' ? 'failed' : 'skipped';
 
 /** Every test that carries an id, with its outcome, from the runners' JSON reports (either may be missing). */
-export function resultsOf(vitest: VitestReport | null, playwright: { suites: PlaywrightSuite[] } | null, root = ''): TestResult[] {
+export function resultsOf(
+  vitest: VitestReport | null,
+  playwright: { suites: PlaywrightSuite[] } | null,
+  root = '',
+): TestResult[] {
   const results: TestResult[] = [];
   for (const file of vitest?.testResults ?? []) {
     for (const assertion of file.assertionResults) {
       const id = testIdOf(assertion.title);
-      if (id) results.push({ id, title: assertion.title, file: root && file.name.startsWith(root) ? file.name.slice(root.length + 1) : file.name, runner: 'vitest', outcome: vitestOutcome(assertion.status) });
+      if (id)
+        results.push({
+          id,
+          title: assertion.title,
+          file: root && file.name.startsWith(root) ? file.name.slice(root.length + 1) : file.name,
+          runner: 'vitest',
+          outcome: vitestOutcome(assertion.status),
+        });
     }
   }
   const walk = (suite: PlaywrightSuite) => {
@@ -103,7 +119,11 @@ export function resultsOf(vitest: VitestReport | null, playwright: { suites: Pla
       if (!id) continue;
       // "expected" and "flaky" (passed on a retry) count as passed; "skipped" as not run.
       const statuses = spec.tests.map((test) => test.status);
-      const outcome: TestOutcome = statuses.some((status) => status === 'unexpected') ? 'failed' : statuses.every((status) => status === 'skipped') ? 'skipped' : 'passed';
+      const outcome: TestOutcome = statuses.some((status) => status === 'unexpected')
+        ? 'failed'
+        : statuses.every((status) => status === 'skipped')
+          ? 'skipped'
+          : 'passed';
       results.push({ id, title: spec.title, file: `tests/e2e/${spec.file}`, runner: 'playwright', outcome });
     }
     for (const child of suite.suites ?? []) walk(child);
@@ -127,9 +147,19 @@ export interface JudgedRequirement extends Requirement {
 export function judge(requirement: Requirement, results: TestResult[]): JudgedRequirement {
   const evidence = requirement.tests.map((id) => {
     const runs = results.filter((result) => result.id === id);
-    const outcome: TestOutcome | 'not run' = !runs.length ? 'not run' : runs.some((run) => run.outcome === 'failed') ? 'failed' : runs.some((run) => run.outcome === 'skipped') ? 'skipped' : 'passed';
+    const outcome: TestOutcome | 'not run' = !runs.length
+      ? 'not run'
+      : runs.some((run) => run.outcome === 'failed')
+        ? 'failed'
+        : runs.some((run) => run.outcome === 'skipped')
+          ? 'skipped'
+          : 'passed';
     return { id, outcome, titles: [...new Set(runs.map((run) => run.title))] };
   });
-  const status: RequirementStatus = !requirement.tests.length ? 'procedural' : evidence.every((entry) => entry.outcome === 'passed') ? 'shown' : 'not-shown';
+  const status: RequirementStatus = !requirement.tests.length
+    ? 'procedural'
+    : evidence.every((entry) => entry.outcome === 'passed')
+      ? 'shown'
+      : 'not-shown';
   return { ...requirement, status, evidence };
 }

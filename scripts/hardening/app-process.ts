@@ -12,7 +12,10 @@ export function startAppProcess(overrides: Record<string, string> = {}, logFile?
   const output = logFile ? openSync(logFile, 'a') : 'ignore';
   // APP_NODE_ARGS passes options to the app's Node, e.g. '--cpu-prof --cpu-prof-dir=.data/profiles'.
   const nodeArgs = (process.env.APP_NODE_ARGS ?? '').split(' ').filter(Boolean);
-  return spawn(process.execPath, [...nodeArgs, '--import', 'tsx', 'server/src/index.ts'], { env: { ...process.env, ...overrides }, stdio: ['ignore', output, output] });
+  return spawn(process.execPath, [...nodeArgs, '--import', 'tsx', 'server/src/index.ts'], {
+    env: { ...process.env, ...overrides },
+    stdio: ['ignore', output, output],
+  });
 }
 
 /** Milliseconds until `base`/api/health answers 200 (polled every 50 ms); throws after the limit. */

@@ -94,7 +94,12 @@ async function main(): Promise<void> {
           const response = await fetch(`${base}/api/suppliers`, {
             method: 'POST',
             headers,
-            body: JSON.stringify({ name, country: 'Nowhere', approval: 'approved', reason: 'written while cluster nodes fail' }),
+            body: JSON.stringify({
+              name,
+              country: 'Nowhere',
+              approval: 'approved',
+              reason: 'written while cluster nodes fail',
+            }),
             signal: AbortSignal.timeout(30_000),
           });
           if (response.status === 201) {
@@ -115,7 +120,10 @@ async function main(): Promise<void> {
     const reader = async () => {
       while (acknowledged.length < WRITES) {
         try {
-          const response = await fetch(`${bases[reads % 2]}/api/heats?page=1&pageSize=25`, { headers: { cookie: approver.cookie }, signal: AbortSignal.timeout(30_000) });
+          const response = await fetch(`${bases[reads % 2]}/api/heats?page=1&pageSize=25`, {
+            headers: { cookie: approver.cookie },
+            signal: AbortSignal.timeout(30_000),
+          });
           if (response.status !== 200) refuse(`read answered ${response.status}`);
           reads += 1;
         } catch (error) {
@@ -130,7 +138,10 @@ async function main(): Promise<void> {
     };
 
     const failovers: Failover[] = [];
-    for (const [killShare, restartShare] of [[0.2, 0.4], [0.6, 0.8]] as const) {
+    for (const [killShare, restartShare] of [
+      [0.2, 0.4],
+      [0.6, 0.8],
+    ] as const) {
       await reached(killShare);
       // Kill the node that HAProxy sends the app to, the one taking every write.
       const victim = await activeNode(cluster.nodes);
@@ -150,9 +161,13 @@ async function main(): Promise<void> {
     const stalls = failovers.map((failover) => longestGapAfter(ackTimes, failover.killedAt));
     for (const failover of failovers) {
       const firstAfter = ackTimes.find((time) => time > failover.killedAt + 50);
-      log(`  after ${failover.node} was killed: first acknowledgement ${firstAfter ? firstAfter - failover.killedAt : '—'} ms later`);
+      log(
+        `  after ${failover.node} was killed: first acknowledgement ${firstAfter ? firstAfter - failover.killedAt : '—'} ms later`,
+      );
     }
-    log(`writes: ${acknowledged.length} acknowledged in ${elapsedS.toFixed(1)} s; reads: ${reads}; slowest acknowledged write ${slowestWriteMs} ms`);
+    log(
+      `writes: ${acknowledged.length} acknowledged in ${elapsedS.toFixed(1)} s; reads: ${reads}; slowest acknowledged write ${slowestWriteMs} ms`,
+    );
     for (const [what, count] of refusals) log(`  refused or failed: ${count} × ${what}`);
 
     // The checks, on every node directly (not through HAProxy).
@@ -176,13 +191,28 @@ async function main(): Promise<void> {
     const commitsCut = refusals.get('write answered 503') ?? 0;
     const otherFailures = refusedTotal - commitsCut;
     reportChecks([
-      [`acknowledged writes on every node: ${perNode.map((_contents, i) => `${cluster.nodes[i]!.name} ${acknowledged.length - missingPerNode[i]!}/${acknowledged.length}`).join(', ')}`, missingPerNode.every((missing) => missing === 0)],
-      [`every node holds the same suppliers and ledger (chain head ${perNode.map((contents) => contents.chainHead).join(' | ')}); stored but never acknowledged: ${unacknowledgedStored}`, sameEverywhere],
+      [
+        `acknowledged writes on every node: ${perNode.map((_contents, i) => `${cluster.nodes[i]!.name} ${acknowledged.length - missingPerNode[i]!}/${acknowledged.length}`).join(', ')}`,
+        missingPerNode.every((missing) => missing === 0),
+      ],
+      [
+        `every node holds the same suppliers and ledger (chain head ${perNode.map((contents) => contents.chainHead).join(' | ')}); stored but never acknowledged: ${unacknowledgedStored}`,
+        sameEverywhere,
+      ],
       [`suppliers without their ledger event: ${withoutEvent.length}`, withoutEvent.length === 0],
       [ledger.summary, ledger.ok],
-      [`longest stall in acknowledged writes after each kill: ${stalls.map((ms, i) => `${failovers[i]!.node} ${ms} ms`).join(', ')} (limit 10,000 ms)`, stalls.every((ms) => ms < 10_000)],
-      [`requests that failed while nodes failed: ${otherFailures} (of ${acknowledged.length + refusedTotal} writes and ${reads} reads); writes answered 503 because their COMMIT was cut off: ${commitsCut} (at most one per writer per kill); certification conflicts: ${conflicts}; tables cleared after a conflict left their triggers unreadable: ${tablesCleared}`, otherFailures === 0 && commitsCut <= WRITERS * failovers.length],
-      [`restarted nodes rejoined and caught up: ${failovers.map((failover) => `${failover.node} in ${failover.rejoinMs} ms`).join(', ')}; cluster size ${statuses.map((status) => status.clusterSize).join('/')}`, statuses.every((status) => status.clusterSize === 3 && status.state === 'Synced')],
+      [
+        `longest stall in acknowledged writes after each kill: ${stalls.map((ms, i) => `${failovers[i]!.node} ${ms} ms`).join(', ')} (limit 10,000 ms)`,
+        stalls.every((ms) => ms < 10_000),
+      ],
+      [
+        `requests that failed while nodes failed: ${otherFailures} (of ${acknowledged.length + refusedTotal} writes and ${reads} reads); writes answered 503 because their COMMIT was cut off: ${commitsCut} (at most one per writer per kill); certification conflicts: ${conflicts}; tables cleared after a conflict left their triggers unreadable: ${tablesCleared}`,
+        otherFailures === 0 && commitsCut <= WRITERS * failovers.length,
+      ],
+      [
+        `restarted nodes rejoined and caught up: ${failovers.map((failover) => `${failover.node} in ${failover.rejoinMs} ms`).join(', ')}; cluster size ${statuses.map((status) => status.clusterSize).join('/')}`,
+        statuses.every((status) => status.clusterSize === 3 && status.state === 'Synced'),
+      ],
     ]);
   } finally {
     for (const app of apps) if (app.exitCode === null) app.kill('SIGKILL');
@@ -196,7 +226,10 @@ async function activeNode(nodes: GaleraNode[]): Promise<GaleraNode> {
   const counts = await Promise.all(
     nodes.map(async (node) => {
       if (!(await node.server.isRunning())) return 0;
-      const output = await node.server.adminSql(`SELECT COUNT(*) FROM information_schema.PROCESSLIST WHERE USER = '${config.DB_USER}';`, ['-N', '-B']);
+      const output = await node.server.adminSql(
+        `SELECT COUNT(*) FROM information_schema.PROCESSLIST WHERE USER = '${config.DB_USER}';`,
+        ['-N', '-B'],
+      );
       return Number(output.trim());
     }),
   );
@@ -217,15 +250,27 @@ function longestGapAfter(ackTimes: number[], from: number): number {
 }
 
 /** What one node holds: the writers' supplier names, its ledger chain head and a fingerprint of both. */
-async function nodeContents(node: GaleraNode): Promise<{ writers: Set<string>; chainHead: string; fingerprint: string }> {
+async function nodeContents(
+  node: GaleraNode,
+): Promise<{ writers: Set<string>; chainHead: string; fingerprint: string }> {
   const database = config.DB_NAME;
-  const names = await node.server.adminSql(`SELECT name FROM \`${database}\`.supplier WHERE name LIKE 'Cluster writer %' ORDER BY name;`, ['-N', '-B']);
-  const head = await node.server.adminSql(`SELECT CONCAT(seq, ' ', LEFT(hash, 12)) FROM \`${database}\`.audit_event ORDER BY seq DESC LIMIT 1;`, ['-N', '-B']);
+  const names = await node.server.adminSql(
+    `SELECT name FROM \`${database}\`.supplier WHERE name LIKE 'Cluster writer %' ORDER BY name;`,
+    ['-N', '-B'],
+  );
+  const head = await node.server.adminSql(
+    `SELECT CONCAT(seq, ' ', LEFT(hash, 12)) FROM \`${database}\`.audit_event ORDER BY seq DESC LIMIT 1;`,
+    ['-N', '-B'],
+  );
   const counts = await node.server.adminSql(
     `SELECT (SELECT COUNT(*) FROM \`${database}\`.supplier), (SELECT COUNT(*) FROM \`${database}\`.audit_event), (SELECT COUNT(*) FROM \`${database}\`.electronic_signature);`,
     ['-N', '-B'],
   );
-  return { writers: new Set(names.split('\n').filter(Boolean)), chainHead: head.trim(), fingerprint: `${names}|${head}|${counts}` };
+  return {
+    writers: new Set(names.split('\n').filter(Boolean)),
+    chainHead: head.trim(),
+    fingerprint: `${names}|${head}|${counts}`,
+  };
 }
 
 main()

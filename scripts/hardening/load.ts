@@ -19,9 +19,27 @@ import { fail, log } from '../lib/run';
 import { seedIfEmpty } from '../seed/seed-if-empty';
 import { reportChecks, startAppProcess, untilHealthy } from './app-process';
 
-const { values } = parseArgs({ options: { seconds: { type: 'string' }, connections: { type: 'string' }, 'each-route': { type: 'string' }, light: { type: 'string' } } });
+const { values } = parseArgs({
+  options: {
+    seconds: { type: 'string' },
+    connections: { type: 'string' },
+    'each-route': { type: 'string' },
+    light: { type: 'string' },
+  },
+});
 loadDotEnv();
-Object.assign(process.env, testProfileEnvironment(), { DATA_DIR: '.data/load', DB_PORT: '3312', DB_NAME: 'ingotrace_load', PORT: '8094', LOG_LEVEL: 'error', SMTP_PORT: '1030', MAIL_WEB_PORT: '1083', IDP_PORT: '7014', DB_POOL_SIZE: '20', APP_WORKERS: process.env.APP_WORKERS ?? '2' });
+Object.assign(process.env, testProfileEnvironment(), {
+  DATA_DIR: '.data/load',
+  DB_PORT: '3312',
+  DB_NAME: 'ingotrace_load',
+  PORT: '8094',
+  LOG_LEVEL: 'error',
+  SMTP_PORT: '1030',
+  MAIL_WEB_PORT: '1083',
+  IDP_PORT: '7014',
+  DB_POOL_SIZE: '20',
+  APP_WORKERS: process.env.APP_WORKERS ?? '2',
+});
 const config = loadConfig();
 const base = `http://127.0.0.1:${config.PORT}`;
 const seconds = Number(values.seconds ?? 60);
@@ -30,8 +48,10 @@ const connections = Number(values.connections ?? 200);
 const lightConnections = Number(values.light ?? 10);
 
 async function main(): Promise<void> {
-  if (!Number.isInteger(seconds) || seconds < 5 || seconds > 3600) throw new Error('--seconds: a whole number from 5 to 3600');
-  if (!Number.isInteger(lightConnections) || lightConnections < 1 || lightConnections > 1000) throw new Error('--light: a whole number of connections from 1 to 1,000');
+  if (!Number.isInteger(seconds) || seconds < 5 || seconds > 3600)
+    throw new Error('--seconds: a whole number from 5 to 3600');
+  if (!Number.isInteger(lightConnections) || lightConnections < 1 || lightConnections > 1000)
+    throw new Error('--light: a whole number of connections from 1 to 1,000');
   const server = await bootstrapDatabase(config, { reset: true });
   let app: ChildProcess | null = null;
   const admin = createDataSource(config, 'migration');
@@ -44,9 +64,22 @@ async function main(): Promise<void> {
     const writer = await saml.signIn(base as unknown as Express, 'kiw-0301');
     const writerCsrf = await csrfTokenOf(writer.agent);
     await admin.initialize();
-    const [lot] = await admin.query("SELECT lot_number FROM production_lot WHERE status = 'released' ORDER BY id LIMIT 1");
+    const [lot] = await admin.query(
+      "SELECT lot_number FROM production_lot WHERE status = 'released' ORDER BY id LIMIT 1",
+    );
     const [heat] = await admin.query("SELECT id FROM heat WHERE status = 'accepted' ORDER BY id LIMIT 1");
-    const readPaths = ['/api/me', '/api/lots?page=1&pageSize=25', '/api/heats?page=1&pageSize=25', `/api/trace/backward?lot=${lot.lot_number}`, `/api/trace/forward?heatId=${heat.id}`, '/api/audit/events?page=1&pageSize=25', '/api/bar-pieces?page=1&pageSize=25', '/api/recalls', '/api/suppliers', '/api/organisation'];
+    const readPaths = [
+      '/api/me',
+      '/api/lots?page=1&pageSize=25',
+      '/api/heats?page=1&pageSize=25',
+      `/api/trace/backward?lot=${lot.lot_number}`,
+      `/api/trace/forward?heatId=${heat.id}`,
+      '/api/audit/events?page=1&pageSize=25',
+      '/api/bar-pieces?page=1&pageSize=25',
+      '/api/recalls',
+      '/api/suppliers',
+      '/api/organisation',
+    ];
     for (const path of readPaths) {
       const response = await fetch(`${base}${path}`, { headers: { cookie: reader.cookie } });
       if (response.status !== 200) throw new Error(`${path} answered ${response.status} before the load`);
@@ -55,35 +88,82 @@ async function main(): Promise<void> {
     // answering a fixed JSON, and the cheapest signed-in route (one session read), under the same load.
     const calibration = Math.min(seconds, 15);
     const bare = await bareServerLoad(calibration);
-    const cheapest = await loadFromAnotherProcess({ url: base, connections, duration: calibration, reader: reader.cookie, readPaths: ['/api/me'] });
+    const cheapest = await loadFromAnotherProcess({
+      url: base,
+      connections,
+      duration: calibration,
+      reader: reader.cookie,
+      readPaths: ['/api/me'],
+    });
     // --each-route N: each read route alone for N seconds, to see which routes cost the most.
     const eachRoute: Array<[string, LoadResult]> = [];
     for (const path of values['each-route'] ? readPaths : []) {
-      eachRoute.push([path, await loadFromAnotherProcess({ url: base, connections, duration: Number(values['each-route']), reader: reader.cookie, readPaths: [path] })]);
+      eachRoute.push([
+        path,
+        await loadFromAnotherProcess({
+          url: base,
+          connections,
+          duration: Number(values['each-route']),
+          reader: reader.cookie,
+          readPaths: [path],
+        }),
+      ]);
     }
     const eventsBefore = Number((await admin.query('SELECT COUNT(*) AS n FROM audit_event'))[0].n);
     log(`reads: ${connections} connections for ${seconds} s over ${readPaths.length} routes…`);
-    const reads = await loadFromAnotherProcess({ url: base, connections, duration: seconds, reader: reader.cookie, readPaths });
+    const reads = await loadFromAnotherProcess({
+      url: base,
+      connections,
+      duration: seconds,
+      reader: reader.cookie,
+      readPaths,
+    });
     log(`light: the same reads from ${lightConnections} connections for ${seconds} s…`);
-    const light = await loadFromAnotherProcess({ url: base, connections: lightConnections, duration: seconds, reader: reader.cookie, readPaths });
+    const light = await loadFromAnotherProcess({
+      url: base,
+      connections: lightConnections,
+      duration: seconds,
+      reader: reader.cookie,
+      readPaths,
+    });
     log(`mixed: one write in ten, ${connections} connections for ${seconds} s…`);
-    const mixed = await loadFromAnotherProcess({ url: base, connections, duration: seconds, reader: reader.cookie, writer: { cookie: writer.cookie, csrf: writerCsrf }, readPaths, writeEvery: 10 });
+    const mixed = await loadFromAnotherProcess({
+      url: base,
+      connections,
+      duration: seconds,
+      reader: reader.cookie,
+      writer: { cookie: writer.cookie, csrf: writerCsrf },
+      readPaths,
+      writeEvery: 10,
+    });
     // Requests that the load generator gave up on may still be running in the app: stop it first.
     await stopApp(app);
-    const [counts] = await admin.query("SELECT (SELECT COUNT(*) FROM supplier WHERE name LIKE 'Load writer %') AS written, (SELECT COUNT(*) FROM audit_event) AS events");
+    const [counts] = await admin.query(
+      "SELECT (SELECT COUNT(*) FROM supplier WHERE name LIKE 'Load writer %') AS written, (SELECT COUNT(*) FROM audit_event) AS events",
+    );
     const written = Number(counts.written);
     const eventsAfter = Number(counts.events);
     const ledger = await verifyLedger(admin.manager);
     const line = (name: string, result: LoadResult) =>
       `${name.padEnd(6)} ${String(result.requestsPerSecond).padStart(6)} req/s  p50 ${String(result.p50Ms).padStart(4)} ms  p99 ${String(result.p99Ms).padStart(5)} ms  ${result.requests} requests, ${result.errors} errors, ${result.timeouts} timeouts, ${result.non2xx} non-2xx ${JSON.stringify(result.statusCodes)}`;
-    process.stdout.write(`\n${line('bare', bare)}   (a bare Node HTTP server, fixed JSON: this machine's ceiling)\n${line('me', cheapest)}   (GET /api/me: the cheapest signed-in route)\n${eachRoute.map(([path, result]) => `${line('route', result)}   ${path}\n`).join('')}${line('reads', reads)}\n${line('light', light)}   (the same reads from ${lightConnections} connections)\n${line('mixed', mixed)}\n`);
+    process.stdout.write(
+      `\n${line('bare', bare)}   (a bare Node HTTP server, fixed JSON: this machine's ceiling)\n${line('me', cheapest)}   (GET /api/me: the cheapest signed-in route)\n${eachRoute.map(([path, result]) => `${line('route', result)}   ${path}\n`).join('')}${line('reads', reads)}\n${line('light', light)}   (the same reads from ${lightConnections} connections)\n${line('mixed', mixed)}\n`,
+    );
     // Little's law for a closed loop of connections: mean latency = connections / throughput.
-    log(`with ${connections} connections each waiting for its answer, the mean latency is ${connections} / throughput (Little's law): ${Math.round((connections / Math.max(1, reads.requestsPerSecond)) * 1000)} ms here; a p99 of 50 ms needs more than ${Math.round(connections / 0.05)} req/s`);
+    log(
+      `with ${connections} connections each waiting for its answer, the mean latency is ${connections} / throughput (Little's law): ${Math.round((connections / Math.max(1, reads.requestsPerSecond)) * 1000)} ms here; a p99 of 50 ms needs more than ${Math.round(connections / 0.05)} req/s`,
+    );
     const checks = [
       [`reads at least 1,500 req/s (${reads.requestsPerSecond})`, reads.requestsPerSecond >= 1500],
       [`reads p99 at most 50 ms (${reads.p99Ms})`, reads.p99Ms <= 50],
-      [`no errors, timeouts or failed answers (reads ${reads.errors + reads.timeouts + reads.non2xx}, mixed ${mixed.errors + mixed.timeouts + mixed.non2xx})`, reads.errors + reads.timeouts + reads.non2xx + mixed.errors + mixed.timeouts + mixed.non2xx === 0],
-      [`every write acknowledged is a supplier with its ledger event (${written} suppliers, ${eventsAfter - eventsBefore} events)`, eventsAfter - eventsBefore === written],
+      [
+        `no errors, timeouts or failed answers (reads ${reads.errors + reads.timeouts + reads.non2xx}, mixed ${mixed.errors + mixed.timeouts + mixed.non2xx})`,
+        reads.errors + reads.timeouts + reads.non2xx + mixed.errors + mixed.timeouts + mixed.non2xx === 0,
+      ],
+      [
+        `every write acknowledged is a supplier with its ledger event (${written} suppliers, ${eventsAfter - eventsBefore} events)`,
+        eventsAfter - eventsBefore === written,
+      ],
       [ledger.summary, ledger.ok],
     ] as const;
     reportChecks(checks);
@@ -101,7 +181,13 @@ async function bareServerLoad(duration: number): Promise<LoadResult> {
   const bareServer = spawn(process.execPath, ['-e', code], { stdio: ['ignore', 'pipe', 'inherit'] });
   try {
     await new Promise<void>((ready) => bareServer.stdout.once('data', () => ready()));
-    return await loadFromAnotherProcess({ url: `http://127.0.0.1:${port}`, connections, duration, reader: '', readPaths: ['/'] });
+    return await loadFromAnotherProcess({
+      url: `http://127.0.0.1:${port}`,
+      connections,
+      duration,
+      reader: '',
+      readPaths: ['/'],
+    });
   } finally {
     bareServer.kill('SIGTERM');
   }

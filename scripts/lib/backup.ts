@@ -38,7 +38,9 @@ export type DatabaseContent = Pick<BackupManifest, 'chainHead' | 'rows' | 'docum
 
 /** What the database holds, read in the caller's transaction (one consistent snapshot). */
 export async function readContent(dataSource: DataSource | import('typeorm').EntityManager): Promise<DatabaseContent> {
-  const tables: Array<{ name: string }> = await dataSource.query("SELECT table_name AS name FROM information_schema.tables WHERE table_schema = DATABASE() AND table_type = 'BASE TABLE' ORDER BY table_name");
+  const tables: Array<{ name: string }> = await dataSource.query(
+    "SELECT table_name AS name FROM information_schema.tables WHERE table_schema = DATABASE() AND table_type = 'BASE TABLE' ORDER BY table_name",
+  );
   const rows: Record<string, number> = {};
   for (const { name } of tables) {
     if (workingStateTables.has(name)) continue;
@@ -48,7 +50,9 @@ export async function readContent(dataSource: DataSource | import('typeorm').Ent
   const [head] = await dataSource.query('SELECT seq, hash FROM audit_chain_head WHERE id = 1');
   const documents: DatabaseContent['documents'] = [];
   for (const table of documentTables) {
-    const found: Array<{ id: number; sha256: string; contentSha256: string }> = await dataSource.query(`SELECT id, sha256, SHA2(content, 256) AS contentSha256 FROM \`${table}\` ORDER BY id`);
+    const found: Array<{ id: number; sha256: string; contentSha256: string }> = await dataSource.query(
+      `SELECT id, sha256, SHA2(content, 256) AS contentSha256 FROM \`${table}\` ORDER BY id`,
+    );
     documents.push(...found.map((row) => ({ table, ...row })));
   }
   return { chainHead: { seq: Number(head.seq), hash: head.hash }, rows, documents };
@@ -58,27 +62,44 @@ export async function readContent(dataSource: DataSource | import('typeorm').Ent
 export function compareContent(expected: DatabaseContent, actual: DatabaseContent): string[] {
   const differences: string[] = [];
   if (expected.chainHead.seq !== actual.chainHead.seq || expected.chainHead.hash !== actual.chainHead.hash) {
-    differences.push(`ledger chain head: expected ${expected.chainHead.seq} ${expected.chainHead.hash}, found ${actual.chainHead.seq} ${actual.chainHead.hash}`);
+    differences.push(
+      `ledger chain head: expected ${expected.chainHead.seq} ${expected.chainHead.hash}, found ${actual.chainHead.seq} ${actual.chainHead.hash}`,
+    );
   }
   for (const table of new Set([...Object.keys(expected.rows), ...Object.keys(actual.rows)])) {
-    if (expected.rows[table] !== actual.rows[table]) differences.push(`table ${table}: expected ${expected.rows[table] ?? 'no table'} rows, found ${actual.rows[table] ?? 'no table'}`);
+    if (expected.rows[table] !== actual.rows[table])
+      differences.push(
+        `table ${table}: expected ${expected.rows[table] ?? 'no table'} rows, found ${actual.rows[table] ?? 'no table'}`,
+      );
   }
   const found = new Map(actual.documents.map((document) => [`${document.table}/${document.id}`, document]));
   for (const document of expected.documents) {
     const restored = found.get(`${document.table}/${document.id}`);
     if (!restored) differences.push(`document ${document.table}/${document.id} is missing`);
-    else if (restored.contentSha256 !== document.contentSha256) differences.push(`document ${document.table}/${document.id}: its bytes differ (SHA-256 ${restored.contentSha256}, expected ${document.contentSha256})`);
+    else if (restored.contentSha256 !== document.contentSha256)
+      differences.push(
+        `document ${document.table}/${document.id}: its bytes differ (SHA-256 ${restored.contentSha256}, expected ${document.contentSha256})`,
+      );
   }
   for (const document of actual.documents) {
-    if (document.contentSha256 !== document.sha256) differences.push(`document ${document.table}/${document.id}: its bytes do not match the SHA-256 it is stored under`);
+    if (document.contentSha256 !== document.sha256)
+      differences.push(
+        `document ${document.table}/${document.id}: its bytes do not match the SHA-256 it is stored under`,
+      );
   }
   return differences;
 }
 
 /** Runs a command, with its standard output sent through `output` and its input read from `input`. */
-function run(command: string, args: string[], io: { output?: (stream: NodeJS.ReadableStream) => Promise<void>; input?: NodeJS.ReadableStream }): Promise<void> {
+function run(
+  command: string,
+  args: string[],
+  io: { output?: (stream: NodeJS.ReadableStream) => Promise<void>; input?: NodeJS.ReadableStream },
+): Promise<void> {
   return new Promise((resolveRun, rejectRun) => {
-    const child = spawn(command, args, { stdio: [io.input ? 'pipe' : 'ignore', io.output ? 'pipe' : 'ignore', 'pipe'] });
+    const child = spawn(command, args, {
+      stdio: [io.input ? 'pipe' : 'ignore', io.output ? 'pipe' : 'ignore', 'pipe'],
+    });
     let errors = '';
     child.stderr!.on('data', (chunk: Buffer) => (errors += chunk.toString()));
     const piping: Array<Promise<void>> = [];
@@ -87,7 +108,10 @@ function run(command: string, args: string[], io: { output?: (stream: NodeJS.Rea
     child.once('error', rejectRun);
     child.once('close', (code) => {
       Promise.all(piping).then(
-        () => (code === 0 ? resolveRun() : rejectRun(new Error(`${command.split('/').at(-1)} exited with ${code}: ${errors.trim()}`))),
+        () =>
+          code === 0
+            ? resolveRun()
+            : rejectRun(new Error(`${command.split('/').at(-1)} exited with ${code}: ${errors.trim()}`)),
         rejectRun,
       );
     });
@@ -115,9 +139,21 @@ export async function backupDatabase(server: MariadbServer, config: AppConfig, f
     await snapshot.query('SET SESSION TRANSACTION ISOLATION LEVEL REPEATABLE READ');
     await snapshot.query('START TRANSACTION WITH CONSISTENT SNAPSHOT');
     snapshotOpen = true;
-    const dumping = run(server.tool('mariadb-dump'), server.clientArgs(['--single-transaction', '--quick', '--hex-blob', '--triggers', '--routines', '--skip-lock-tables', config.DB_NAME]), {
-      output: (stream) => pipeline(stream, createGzip(), createWriteStream(file)),
-    });
+    const dumping = run(
+      server.tool('mariadb-dump'),
+      server.clientArgs([
+        '--single-transaction',
+        '--quick',
+        '--hex-blob',
+        '--triggers',
+        '--routines',
+        '--skip-lock-tables',
+        config.DB_NAME,
+      ]),
+      {
+        output: (stream) => pipeline(stream, createGzip(), createWriteStream(file)),
+      },
+    );
     // Should the dump fail before its snapshot opens, the wait below must not outlive it.
     dumping.catch(() => undefined);
     await waitForDumpSnapshot(server);
@@ -126,7 +162,14 @@ export async function backupDatabase(server: MariadbServer, config: AppConfig, f
     await snapshot.query('COMMIT');
     snapshotOpen = false;
     await dumping;
-    const manifest: BackupManifest = { format: 'ingotrace-backup/1', database: config.DB_NAME, takenAt: new Date().toISOString(), dumpFile: file.split('/').at(-1)!, dumpSha256: sha256Of(file), ...content };
+    const manifest: BackupManifest = {
+      format: 'ingotrace-backup/1',
+      database: config.DB_NAME,
+      takenAt: new Date().toISOString(),
+      dumpFile: file.split('/').at(-1)!,
+      dumpSha256: sha256Of(file),
+      ...content,
+    };
     writeFileSync(`${file}.manifest.json`, `${JSON.stringify(manifest, null, 2)}\n`);
     return manifest;
   } finally {
@@ -157,21 +200,36 @@ async function waitForDumpSnapshot(server: MariadbServer): Promise<void> {
  * app account its grants there, verifies the ledger chain and compares what it holds with the
  * backup's manifest. Returns the differences (none when the restore is exact).
  */
-export async function restoreDatabase(server: MariadbServer, config: AppConfig, file: string, database: string): Promise<{ differences: string[]; ledger: string }> {
+export async function restoreDatabase(
+  server: MariadbServer,
+  config: AppConfig,
+  file: string,
+  database: string,
+): Promise<{ differences: string[]; ledger: string }> {
   const manifest = JSON.parse(readFileSync(`${file}.manifest.json`, 'utf8')) as BackupManifest;
-  if (manifest.format !== 'ingotrace-backup/1') throw new Error(`${file}.manifest.json is not an Ingotrace backup manifest`);
-  if (sha256Of(file) !== manifest.dumpSha256) throw new Error(`${file} does not match the SHA-256 in its manifest; the file was changed or cut short`);
-  const tables = await server.adminSql(`SELECT COUNT(*) FROM information_schema.tables WHERE table_schema = ${sqlString(database)};`, ['-N', '-B']);
-  if (Number(tables.trim()) > 0) throw new Error(`database ${database} already holds tables; restore into a new database, or drop it first`);
+  if (manifest.format !== 'ingotrace-backup/1')
+    throw new Error(`${file}.manifest.json is not an Ingotrace backup manifest`);
+  if (sha256Of(file) !== manifest.dumpSha256)
+    throw new Error(`${file} does not match the SHA-256 in its manifest; the file was changed or cut short`);
+  const tables = await server.adminSql(
+    `SELECT COUNT(*) FROM information_schema.tables WHERE table_schema = ${sqlString(database)};`,
+    ['-N', '-B'],
+  );
+  if (Number(tables.trim()) > 0)
+    throw new Error(`database ${database} already holds tables; restore into a new database, or drop it first`);
   const target = { ...config, DB_NAME: database };
   await server.adminSql(accountsSql(accountsFor(target)));
-  await run(server.tool('mariadb'), server.clientArgs([database]), { input: createReadStream(file).pipe(createGunzip()) });
+  await run(server.tool('mariadb'), server.clientArgs([database]), {
+    input: createReadStream(file).pipe(createGunzip()),
+  });
   await applyAppGrants(server, target);
   const restored = createDataSource(target, 'app');
   await restored.initialize();
   try {
     // Checkpoints of the target's own ledger: a restore over a ledger checkpointed after the backup is reported as cut off.
-    const verification = await verifyLedger(restored.manager, { checkpoints: readWitnessFile(witnessFilePath(target)) });
+    const verification = await verifyLedger(restored.manager, {
+      checkpoints: readWitnessFile(witnessFilePath(target)),
+    });
     const differences = compareContent(manifest, await readContent(restored));
     if (!verification.ok) differences.unshift(`ledger: ${verification.summary}`);
     return { differences, ledger: verification.summary };

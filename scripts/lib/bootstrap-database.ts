@@ -29,7 +29,12 @@ export function accountsFor(config: AppConfig): DatabaseAccounts {
 }
 
 export function localServerFor(config: AppConfig, relaxedDurability = false, bufferPoolMb?: number): MariadbServer {
-  return new MariadbServer({ baseDir: `${config.DATA_DIR}/mariadb`, port: config.DB_PORT, relaxedDurability, bufferPoolMb });
+  return new MariadbServer({
+    baseDir: `${config.DATA_DIR}/mariadb`,
+    port: config.DB_PORT,
+    relaxedDurability,
+    bufferPoolMb,
+  });
 }
 
 /**
@@ -77,7 +82,10 @@ export async function applyAppGrants(server: MariadbServer, config: AppConfig): 
     `SELECT table_name FROM information_schema.tables WHERE table_schema = '${config.DB_NAME}' AND table_type = 'BASE TABLE';`,
     ['-N', '-B'],
   );
-  const tables = output.split('\n').map((line) => line.trim()).filter(Boolean);
+  const tables = output
+    .split('\n')
+    .map((line) => line.trim())
+    .filter(Boolean);
   const granted = await server.adminSql(
     `SELECT DISTINCT Host, Table_name FROM mysql.tables_priv WHERE User = '${config.DB_USER}' AND Db = '${config.DB_NAME}';`,
     ['-N', '-B'],

@@ -49,7 +49,10 @@ export class GaleraNode {
     this.name = `node${index}`;
     this.baseDir = resolve(layout.baseDir, this.name);
     this.defaultsFile = `${this.baseDir}/node.cnf`;
-    const groupAddresses = Array.from({ length: layout.nodes }, (_unused, i) => `127.0.0.1:${groupPort(layout, i + 1)}`);
+    const groupAddresses = Array.from(
+      { length: layout.nodes },
+      (_unused, i) => `127.0.0.1:${groupPort(layout, i + 1)}`,
+    );
     this.server = new MariadbServer({
       baseDir: this.baseDir,
       port: layout.portBase + index,
@@ -102,7 +105,12 @@ export class GaleraNode {
       "SHOW GLOBAL STATUS WHERE Variable_name IN ('wsrep_local_state_comment', 'wsrep_cluster_size', 'wsrep_ready', 'wsrep_local_cert_failures');",
       ['-N', '-B'],
     );
-    const values = new Map(output.trim().split('\n').map((line) => line.split('\t') as [string, string]));
+    const values = new Map(
+      output
+        .trim()
+        .split('\n')
+        .map((line) => line.split('\t') as [string, string]),
+    );
     return {
       state: values.get('wsrep_local_state_comment') ?? 'unknown',
       clusterSize: Number(values.get('wsrep_cluster_size') ?? 0),
@@ -140,7 +148,9 @@ export class GaleraNode {
   async recoveredPosition(): Promise<string> {
     const logFile = `${this.baseDir}/recover.err`;
     rmSync(logFile, { force: true });
-    const args = this.server.serverArgs().map((arg) => (arg.startsWith('--log-error=') ? `--log-error=${logFile}` : arg));
+    const args = this.server
+      .serverArgs()
+      .map((arg) => (arg.startsWith('--log-error=') ? `--log-error=${logFile}` : arg));
     await runCommand(this.server.tool('mariadbd'), [...args, '--wsrep-recover']);
     const found = [...readFileSync(logFile, 'utf8').matchAll(/WSREP: Recovered position: (\S+:-?\d+)/g)].pop();
     if (!found?.[1]) throw new Error(`${this.name}: --wsrep-recover printed no position (see ${logFile})`);
@@ -158,7 +168,10 @@ export class GaleraNode {
     const file = `${this.server.dataDir}/grastate.dat`;
     if (!existsSync(file)) return null;
     const text = readFileSync(file, 'utf8');
-    return { seqno: Number(/^seqno:\s*(-?\d+)/m.exec(text)?.[1] ?? -1), safeToBootstrap: /^safe_to_bootstrap:\s*1/m.test(text) };
+    return {
+      seqno: Number(/^seqno:\s*(-?\d+)/m.exec(text)?.[1] ?? -1),
+      safeToBootstrap: /^safe_to_bootstrap:\s*1/m.test(text),
+    };
   }
 
   markSafeToBootstrap(): void {
@@ -230,7 +243,10 @@ export class GaleraCluster {
     await first.server.stop(true);
     for (const node of this.nodes.slice(1)) {
       mkdirSync(node.baseDir, { recursive: true });
-      cpSync(first.server.dataDir, node.server.dataDir, { recursive: true, filter: (source) => !source.endsWith('gvwstate.dat') });
+      cpSync(first.server.dataDir, node.server.dataDir, {
+        recursive: true,
+        filter: (source) => !source.endsWith('gvwstate.dat'),
+      });
     }
     writeFileSync(this.initialisedMarker, `${new Date().toISOString()}\n`);
   }

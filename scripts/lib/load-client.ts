@@ -12,11 +12,21 @@ const write = options.writer && {
   headers: { cookie: options.writer.cookie, 'x-csrf-token': options.writer.csrf, 'content-type': 'application/json' },
   setupRequest: (request: Request): Request => ({
     ...request,
-    body: JSON.stringify({ name: `Load writer ${process.pid}-${written++}`, country: 'Nowhere', approval: 'approved', reason: 'written under load' }),
+    body: JSON.stringify({
+      name: `Load writer ${process.pid}-${written++}`,
+      country: 'Nowhere',
+      approval: 'approved',
+      reason: 'written under load',
+    }),
   }),
 };
 const requests: Request[] = write && options.writeEvery ? [...reads.slice(0, options.writeEvery - 1), write] : reads;
-const result = await autocannon({ url: options.url, connections: options.connections, duration: options.duration, requests });
+const result = await autocannon({
+  url: options.url,
+  connections: options.connections,
+  duration: options.duration,
+  requests,
+});
 process.stdout.write(
   `${JSON.stringify({
     requests: result.requests.total,

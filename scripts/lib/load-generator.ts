@@ -28,9 +28,14 @@ export interface LoadResult {
 
 export function loadFromAnotherProcess(options: LoadOptions): Promise<LoadResult> {
   return new Promise((resolveLoad, rejectLoad) => {
-    execFile(process.execPath, ['--import', 'tsx', 'scripts/lib/load-client.ts', JSON.stringify(options)], { maxBuffer: 1 << 20 }, (error, stdout) => {
-      if (error) return rejectLoad(error);
-      resolveLoad(JSON.parse(stdout.trim().split('\n').at(-1)!) as LoadResult);
-    });
+    execFile(
+      process.execPath,
+      ['--import', 'tsx', 'scripts/lib/load-client.ts', JSON.stringify(options)],
+      { maxBuffer: 1 << 20 },
+      (error, stdout) => {
+        if (error) return rejectLoad(error);
+        resolveLoad(JSON.parse(stdout.trim().split('\n').at(-1)!) as LoadResult);
+      },
+    );
   });
 }

@@ -4,7 +4,10 @@ import { MailDev } from 'maildev';
 import type { AppConfig } from '../../server/src/config/env';
 
 /** The local SMTP catcher: mail the product sends lands here and shows at the web address. */
-export async function startMailCatcher(config: AppConfig, options: { empty?: boolean } = {}): Promise<{ url: string; stop: () => Promise<void> }> {
+export async function startMailCatcher(
+  config: AppConfig,
+  options: { empty?: boolean } = {},
+): Promise<{ url: string; stop: () => Promise<void> }> {
   const mailDirectory = resolve(config.DATA_DIR, 'mail');
   if (options.empty) rmSync(mailDirectory, { recursive: true, force: true });
   mkdirSync(mailDirectory, { recursive: true });

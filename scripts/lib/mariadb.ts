@@ -62,7 +62,12 @@ export class MariadbServer {
 
   async isRunning(): Promise<boolean> {
     try {
-      await runCommand(this.tool('mariadb-admin'), ['--no-defaults', `--socket=${this.socket}`, ...this.adminUser(), 'ping']);
+      await runCommand(this.tool('mariadb-admin'), [
+        '--no-defaults',
+        `--socket=${this.socket}`,
+        ...this.adminUser(),
+        'ping',
+      ]);
       return true;
     } catch {
       return false;
@@ -153,7 +158,12 @@ export class MariadbServer {
   async stop(force = false): Promise<void> {
     if (!this.startedHere && !force) return;
     if (!(await this.isRunning())) return;
-    await runCommand(this.tool('mariadb-admin'), ['--no-defaults', `--socket=${this.socket}`, ...this.adminUser(), 'shutdown']);
+    await runCommand(this.tool('mariadb-admin'), [
+      '--no-defaults',
+      `--socket=${this.socket}`,
+      ...this.adminUser(),
+      'shutdown',
+    ]);
     this.startedHere = false;
     log(`MariaDB on port ${this.port} stopped`);
   }

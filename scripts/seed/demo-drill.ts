@@ -17,7 +17,11 @@ export async function seedDemoDrill(dataSource: DataSource): Promise<void> {
   if (!heat) return;
   const drill = await openRecall(
     dataSource,
-    { trigger: { heatId: heat.heat_id }, mode: 'drill', reason: 'Half-yearly recall rehearsal: one heat to every consignee, timed' },
+    {
+      trigger: { heatId: heat.heat_id },
+      mode: 'drill',
+      reason: 'Half-yearly recall rehearsal: one heat to every consignee, timed',
+    },
     coordinator,
     { id: coordinator.id, name: coordinator.name, role: 'recall-coordinator' },
     { requestId: 'demo-seed', clientAddress: null },

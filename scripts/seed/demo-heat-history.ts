@@ -51,10 +51,23 @@ const streams: Stream[] = [
     make: (r) => ({
       specId: 'ASTM F136',
       sizeMm: ['25.4', '19.05', '31.75'][Math.floor(r() * 3)]!,
-      chemistry: { Al: around(r, 6.05, 0.12, 2, 5.6, 6.4), V: around(r, 4.0, 0.1, 2, 3.6, 4.4), Fe: around(r, 0.16, 0.02, 2, 0.08, 0.22), O: around(r, 0.105, 0.007, 2, 0.07, 0.12), C: '0.02', N: around(r, 0.012, 0.003, 3, 0.004, 0.03), H: around(r, 0.0045, 0.0008, 4, 0.002, 0.0075) },
+      chemistry: {
+        Al: around(r, 6.05, 0.12, 2, 5.6, 6.4),
+        V: around(r, 4.0, 0.1, 2, 3.6, 4.4),
+        Fe: around(r, 0.16, 0.02, 2, 0.08, 0.22),
+        O: around(r, 0.105, 0.007, 2, 0.07, 0.12),
+        C: '0.02',
+        N: around(r, 0.012, 0.003, 3, 0.004, 0.03),
+        H: around(r, 0.0045, 0.0008, 4, 0.002, 0.0075),
+      },
       mechanical: (() => {
         const uts = Math.round(950 + 12 * normal(r));
-        return { utsMPa: String(uts), ysMPa: String(uts - 70 - Math.round(8 * r())), elongationPct: String(13 + Math.floor(r() * 4)), reductionOfAreaPct: String(38 + Math.floor(r() * 8)) };
+        return {
+          utsMPa: String(uts),
+          ysMPa: String(uts - 70 - Math.round(8 * r())),
+          elongationPct: String(13 + Math.floor(r() * 4)),
+          reductionOfAreaPct: String(38 + Math.floor(r() * 8)),
+        };
       })(),
     }),
   },
@@ -65,7 +78,15 @@ const streams: Stream[] = [
     make: (r) => ({
       specId: 'ASTM F136',
       sizeMm: '25.4',
-      chemistry: { Al: around(r, 6.0, 0.1, 2, 5.6, 6.4), V: around(r, 4.05, 0.1, 2, 3.6, 4.4), Fe: around(r, 0.19, 0.015, 2, 0.1, 0.24), O: around(r, 0.11, 0.006, 2, 0.08, 0.12), C: '0.02', N: '0.01', H: around(r, 0.0035, 0.0006, 4, 0.002, 0.0065) },
+      chemistry: {
+        Al: around(r, 6.0, 0.1, 2, 5.6, 6.4),
+        V: around(r, 4.05, 0.1, 2, 3.6, 4.4),
+        Fe: around(r, 0.19, 0.015, 2, 0.1, 0.24),
+        O: around(r, 0.11, 0.006, 2, 0.08, 0.12),
+        C: '0.02',
+        N: '0.01',
+        H: around(r, 0.0035, 0.0006, 4, 0.002, 0.0065),
+      },
       mechanical: (() => {
         const uts = Math.round(935 + 8 * normal(r));
         return { utsMPa: String(uts), ysMPa: String(uts - 68), elongationPct: '15', reductionOfAreaPct: '40' };
@@ -80,8 +101,19 @@ const streams: Stream[] = [
       specId: 'ASTM F67',
       grade: '4',
       sizeMm: '12.7',
-      chemistry: { N: '0.01', C: '0.01', H: around(r, 0.004, 0.0008, 3, 0.002, 0.012), Fe: around(r, 0.3, 0.03, 2, 0.15, 0.45), O: around(r, 0.33, 0.02, 2, 0.25, 0.38) },
-      mechanical: { utsMPa: String(Math.round(630 + 15 * normal(r))), ysMPa: String(Math.round(520 + 12 * normal(r))), elongationPct: '19', reductionOfAreaPct: '35' },
+      chemistry: {
+        N: '0.01',
+        C: '0.01',
+        H: around(r, 0.004, 0.0008, 3, 0.002, 0.012),
+        Fe: around(r, 0.3, 0.03, 2, 0.15, 0.45),
+        O: around(r, 0.33, 0.02, 2, 0.25, 0.38),
+      },
+      mechanical: {
+        utsMPa: String(Math.round(630 + 15 * normal(r))),
+        ysMPa: String(Math.round(520 + 12 * normal(r))),
+        elongationPct: '19',
+        reductionOfAreaPct: '35',
+      },
     }),
   },
   {
@@ -91,8 +123,23 @@ const streams: Stream[] = [
     make: (r) => ({
       specId: 'ASTM F138',
       sizeMm: '16',
-      chemistry: { C: around(r, 0.02, 0.003, 3, 0.01, 0.028), Mn: '1.65', P: '0.017', S: '0.001', Si: '0.38', Cr: around(r, 17.6, 0.2, 2, 17.2, 18.4), Ni: around(r, 14.4, 0.2, 2, 14.0, 14.9), Mo: around(r, 2.65, 0.05, 2, 2.55, 2.9), N: '0.06', Cu: '0.10' },
-      mechanical: { utsMPa: String(Math.round(545 + 10 * normal(r))), ysMPa: String(Math.round(255 + 8 * normal(r))), elongationPct: '44' },
+      chemistry: {
+        C: around(r, 0.02, 0.003, 3, 0.01, 0.028),
+        Mn: '1.65',
+        P: '0.017',
+        S: '0.001',
+        Si: '0.38',
+        Cr: around(r, 17.6, 0.2, 2, 17.2, 18.4),
+        Ni: around(r, 14.4, 0.2, 2, 14.0, 14.9),
+        Mo: around(r, 2.65, 0.05, 2, 2.55, 2.9),
+        N: '0.06',
+        Cu: '0.10',
+      },
+      mechanical: {
+        utsMPa: String(Math.round(545 + 10 * normal(r))),
+        ysMPa: String(Math.round(255 + 8 * normal(r))),
+        elongationPct: '44',
+      },
     }),
   },
 ];

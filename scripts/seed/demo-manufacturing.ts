@@ -8,7 +8,10 @@ import { issueMaterial, openLot, returnMaterial } from '../../server/src/modules
 import { recordOperation } from '../../server/src/modules/manufacturing/operations.service';
 import { recordProcessRun } from '../../server/src/modules/manufacturing/process-runs.service';
 import { splitLot } from '../../server/src/modules/manufacturing/lot-links.service';
-import { proposeDisposition, raiseNonconformance } from '../../server/src/modules/manufacturing/nonconformances.service';
+import {
+  proposeDisposition,
+  raiseNonconformance,
+} from '../../server/src/modules/manufacturing/nonconformances.service';
 import { createConsignee } from '../../server/src/modules/manufacturing/shipments.service';
 import { generator } from './demo-heat-history';
 import { signAsDemoPerson } from './demo-signature';
@@ -56,7 +59,11 @@ export const demoParts: Array<PartCreate & { units: [number, number]; weight: nu
     lotPattern: 'CS{YY}{SEQ:4}',
     contactCategory: 'general-tissue',
     specifications: [{ specId: 'ASTM F136', grade: null }],
-    routing: [{ kind: 'machining', name: 'Swiss-turn and thread' }, { kind: 'machining', name: 'Hex drive and deburr' }, ...finishing('F86-NITRIC')],
+    routing: [
+      { kind: 'machining', name: 'Swiss-turn and thread' },
+      { kind: 'machining', name: 'Hex drive and deburr' },
+      ...finishing('F86-NITRIC'),
+    ],
     units: [30, 60],
     weight: 5,
   },
@@ -70,7 +77,11 @@ export const demoParts: Array<PartCreate & { units: [number, number]; weight: nu
     lotPattern: 'LP{YY}{SEQ:4}',
     contactCategory: 'general-tissue',
     specifications: [{ specId: 'ASTM F136', grade: null }],
-    routing: [{ kind: 'machining', name: 'Mill profile and holes' }, { kind: 'machining', name: 'Thread locking holes' }, ...finishing('F86-NITRIC')],
+    routing: [
+      { kind: 'machining', name: 'Mill profile and holes' },
+      { kind: 'machining', name: 'Thread locking holes' },
+      ...finishing('F86-NITRIC'),
+    ],
     units: [10, 24],
     weight: 3,
   },
@@ -84,7 +95,11 @@ export const demoParts: Array<PartCreate & { units: [number, number]; weight: nu
     lotPattern: 'SR{YY}{SEQ:4}',
     contactCategory: 'general-tissue',
     specifications: [{ specId: 'ASTM F136', grade: null }],
-    routing: [{ kind: 'machining', name: 'Centreless grind' }, { kind: 'machining', name: 'Cut to length and chamfer' }, ...finishing('F86-NITRIC')],
+    routing: [
+      { kind: 'machining', name: 'Centreless grind' },
+      { kind: 'machining', name: 'Cut to length and chamfer' },
+      ...finishing('F86-NITRIC'),
+    ],
     units: [4, 5],
     weight: 1,
   },
@@ -98,7 +113,11 @@ export const demoParts: Array<PartCreate & { units: [number, number]; weight: nu
     lotPattern: 'DI{YY}{SEQ:4}',
     contactCategory: 'general-tissue',
     specifications: [{ specId: 'ASTM F67', grade: '4' }],
-    routing: [{ kind: 'machining', name: 'Swiss-turn body and thread' }, { kind: 'machining', name: 'Connection and polish' }, ...finishing('F86-NITRIC')],
+    routing: [
+      { kind: 'machining', name: 'Swiss-turn body and thread' },
+      { kind: 'machining', name: 'Connection and polish' },
+      ...finishing('F86-NITRIC'),
+    ],
     units: [60, 120],
     weight: 2,
   },
@@ -112,7 +131,11 @@ export const demoParts: Array<PartCreate & { units: [number, number]; weight: nu
     lotPattern: 'HT{YY}{SEQ:4}',
     contactCategory: 'general-tissue',
     specifications: [{ specId: 'ASTM F138', grade: null }],
-    routing: [{ kind: 'machining', name: 'Turn and mill profile' }, { kind: 'machining', name: 'Polish' }, ...finishing('A967-NITRIC-3')],
+    routing: [
+      { kind: 'machining', name: 'Turn and mill profile' },
+      { kind: 'machining', name: 'Polish' },
+      ...finishing('A967-NITRIC-3'),
+    ],
     units: [6, 12],
     weight: 1,
   },
@@ -150,12 +173,18 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
   const random = generator(18_2026);
   const between = (low: number, high: number) => low + Math.floor(random() * (high - low + 1));
 
-  for (const consignee of demoConsignees) await createConsignee(dataSource, { ...consignee, contactEmail: null }, actor, origin);
+  for (const consignee of demoConsignees)
+    await createConsignee(dataSource, { ...consignee, contactEmail: null }, actor, origin);
   // The firm's own validation of the citric method for titanium alloy parts: shown as the firm's own beside the method's stainless-steel scope.
   await recordMethodValidation(
     dataSource,
     'A967-CITRIC',
-    { materialFamily: 'titanium-alloy', reference: 'VR-2025-031 (demo)', reason: 'Three worst-case lots of F136 parts passed water immersion and iron contamination checks after citric treatment (demo scenario)' },
+    {
+      materialFamily: 'titanium-alloy',
+      reference: 'VR-2025-031 (demo)',
+      reason:
+        'Three worst-case lots of F136 parts passed water immersion and iron contamination checks after citric treatment (demo scenario)',
+    },
     approver,
     { id: approver.id, name: approver.name, role: 'qa-approver' },
     origin,
@@ -177,7 +206,14 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
   const waiting: OpenLot[] = [];
   let runs = 0;
   const iso = (time: number) => new Date(time).toISOString();
-  const operation = (stepNo: number, qtyIn: number, scrap: number, at: number, workCentre: string, extra: Record<string, unknown> = {}) => ({
+  const operation = (
+    stepNo: number,
+    qtyIn: number,
+    scrap: number,
+    at: number,
+    workCentre: string,
+    extra: Record<string, unknown> = {},
+  ) => ({
     stepNo,
     operatorName: engineer.name,
     workCentre,
@@ -187,7 +223,9 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
     qtyIn,
     qtyGood: qtyIn - scrap,
     qtyScrap: scrap,
-    scrapReasons: scrap ? [{ reason: ['Thread form out of tolerance', 'Tool mark', 'Diameter undersize'][scrap % 3]!, qty: scrap }] : [],
+    scrapReasons: scrap
+      ? [{ reason: ['Thread form out of tolerance', 'Tool mark', 'Diameter undersize'][scrap % 3]!, qty: scrap }]
+      : [],
     ...extra,
   });
 
@@ -225,9 +263,27 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
       );
       if (!run.inWindow) {
         for (const nc of run.nonconformances) {
-          await proposeDisposition(dataSource, nc.id, { disposition: 'use-as-is', note: 'Bath 2.5 °C over for the last 10 minutes; passivation verification (water immersion) passed on samples from every lot' }, { id: approver.id, name: approver.name, role: 'qa-approver' }, origin);
-          await signAsDemoPerson(dataSource, 'kiw-0301', { recordType: 'nonconformance', recordId: String(nc.id), meaning: 'dispositioned' });
-          await signAsDemoPerson(dataSource, 'kiw-0301', { recordType: 'nonconformance', recordId: String(nc.id), meaning: 'closed', reason: 'Verification tests on file; chiller serviced' });
+          await proposeDisposition(
+            dataSource,
+            nc.id,
+            {
+              disposition: 'use-as-is',
+              note: 'Bath 2.5 °C over for the last 10 minutes; passivation verification (water immersion) passed on samples from every lot',
+            },
+            { id: approver.id, name: approver.name, role: 'qa-approver' },
+            origin,
+          );
+          await signAsDemoPerson(dataSource, 'kiw-0301', {
+            recordType: 'nonconformance',
+            recordId: String(nc.id),
+            meaning: 'dispositioned',
+          });
+          await signAsDemoPerson(dataSource, 'kiw-0301', {
+            recordType: 'nonconformance',
+            recordId: String(nc.id),
+            meaning: 'closed',
+            reason: 'Verification tests on file; chiller serviced',
+          });
         }
       }
     }
@@ -259,8 +315,22 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
     for (const lot of batch) {
       const inspectAt = runAt + DAY;
       const sample = Math.min(13, lot.qty);
-      await recordOperation(dataSource, lot.id, operation(50, lot.qty, 0, inspectAt, 'Final inspection bench', { inspected: sample, defectsFound: 0 }), engineer, actor, origin);
-      await recordOperation(dataSource, lot.id, operation(60, lot.qty, 0, inspectAt + 3_600_000, 'Clean-room packing'), engineer, actor, origin);
+      await recordOperation(
+        dataSource,
+        lot.id,
+        operation(50, lot.qty, 0, inspectAt, 'Final inspection bench', { inspected: sample, defectsFound: 0 }),
+        engineer,
+        actor,
+        origin,
+      );
+      await recordOperation(
+        dataSource,
+        lot.id,
+        operation(60, lot.qty, 0, inspectAt + 3_600_000, 'Clean-room packing'),
+        engineer,
+        actor,
+        origin,
+      );
     }
   }
 
@@ -271,19 +341,58 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
     const perUnit = Number(part.unitLengthMm) + Number(part.cutoffAllowanceMm);
     const need = (qty + 1) * perUnit;
     const allowed = part.specifications[0]!;
-    const bar = bars.find((candidate) => candidate.specId === allowed.specId && (allowed.grade === null || candidate.grade === allowed.grade) && candidate.remaining >= need);
+    const bar = bars.find(
+      (candidate) =>
+        candidate.specId === allowed.specId &&
+        (allowed.grade === null || candidate.grade === allowed.grade) &&
+        candidate.remaining >= need,
+    );
     if (!bar) continue;
-    const lot = await openLot(dataSource, { partId: part.id, plannedQty: qty, openedOn: iso(openedAt).slice(0, 10) }, engineer, actor, origin);
+    const lot = await openLot(
+      dataSource,
+      { partId: part.id, plannedQty: qty, openedOn: iso(openedAt).slice(0, 10) },
+      engineer,
+      actor,
+      origin,
+    );
     await issueMaterial(dataSource, lot.id, { tag: bar.tag, lengthMm: need.toFixed(2) }, engineer, actor, origin);
     bar.remaining -= need;
     const scrap = random() < 0.3 ? between(1, 2) : 0;
-    await recordOperation(dataSource, lot.id, operation(10, qty, scrap, openedAt + 2 * 3_600_000, 'Swiss lathe 2'), engineer, actor, origin);
-    await recordOperation(dataSource, lot.id, operation(20, qty - scrap, 0, openedAt + DAY, 'Machining cell 4'), engineer, actor, origin);
+    await recordOperation(
+      dataSource,
+      lot.id,
+      operation(10, qty, scrap, openedAt + 2 * 3_600_000, 'Swiss lathe 2'),
+      engineer,
+      actor,
+      origin,
+    );
+    await recordOperation(
+      dataSource,
+      lot.id,
+      operation(20, qty - scrap, 0, openedAt + DAY, 'Machining cell 4'),
+      engineer,
+      actor,
+      origin,
+    );
     // The spare unit's bar comes back as a remnant.
-    await returnMaterial(dataSource, lot.id, { tag: bar.tag, lengthMm: (perUnit - random() * 0.5).toFixed(2) }, engineer, actor, origin);
+    await returnMaterial(
+      dataSource,
+      lot.id,
+      { tag: bar.tag, lengthMm: (perUnit - random() * 0.5).toFixed(2) },
+      engineer,
+      actor,
+      origin,
+    );
     let units = qty - scrap;
     if (index % 30 === 17 && units > 8) {
-      const split = await splitLot(dataSource, lot.id, { quantities: [Math.floor(units / 3)], reason: 'Part of the lot expedited for an urgent order' }, engineer, actor, origin);
+      const split = await splitLot(
+        dataSource,
+        lot.id,
+        { quantities: [Math.floor(units / 3)], reason: 'Part of the lot expedited for an urgent order' },
+        engineer,
+        actor,
+        origin,
+      );
       units -= split.children[0]!.qty;
       waiting.push({ id: split.children[0]!.id, part, qty: split.children[0]!.qty, readyAt: openedAt + DAY });
     }
@@ -293,11 +402,18 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
   }
   if (waiting.length) await finishBatch(waiting.splice(0));
 
-  const [recent] = await dataSource.query("SELECT l.id, l.lot_number FROM production_lot l WHERE l.status = 'open' AND l.origin = 'bar' AND NOT EXISTS (SELECT 1 FROM lot_operation o JOIN routing_step s ON s.id = o.routing_step_id WHERE o.lot_id = l.id AND s.kind = 'passivation') ORDER BY l.opened_at DESC LIMIT 1");
+  const [recent] = await dataSource.query(
+    "SELECT l.id, l.lot_number FROM production_lot l WHERE l.status = 'open' AND l.origin = 'bar' AND NOT EXISTS (SELECT 1 FROM lot_operation o JOIN routing_step s ON s.id = o.routing_step_id WHERE o.lot_id = l.id AND s.kind = 'passivation') ORDER BY l.opened_at DESC LIMIT 1",
+  );
   if (recent) {
     await raiseNonconformance(
       dataSource,
-      { subjectType: 'lot', subjectId: recent.id, description: 'Burr on the hex drive of 3 sample parts at in-process check', containment: 'Lot held at machining cell 4; remaining parts to be inspected 100 %' },
+      {
+        subjectType: 'lot',
+        subjectId: recent.id,
+        description: 'Burr on the hex drive of 3 sample parts at in-process check',
+        containment: 'Lot held at machining cell 4; remaining parts to be inspected 100 %',
+      },
       reviewer,
       { id: reviewer.id, name: reviewer.name, role: 'qa-reviewer' },
       origin,

@@ -62,14 +62,41 @@ const recentHeats: RecentHeat[] = [
   f136('CS-7790', 1, '0.12', '0.21', '0.0035', '936'),
   f136('CS-7802', 1, '0.12', '0.21', '0.0035', '936'), // the very same results as CS-7790: a copied certificate?
   f136('OB-55120', 2, '0.11', '0.14', '0.0060', '925'),
-  { heatNumber: 'NV-25-0530', mill: 0, specId: 'ASTM F67', grade: '4', sizeMm: '12.7', chemistry: { N: '0.01', C: '0.01', H: '0.003', Fe: '0.30', O: '0.35' }, mechanical: { utsMPa: '640', ysMPa: '540', elongationPct: '20', reductionOfAreaPct: '38' } },
-  { heatNumber: 'CS-7850', mill: 1, specId: 'ASTM F67', grade: '2', sizeMm: '8', chemistry: { N: '0.01', C: '0.01', H: '0.002', Fe: '0.12', O: '0.16' }, mechanical: { utsMPa: '420', ysMPa: '330', elongationPct: '28', reductionOfAreaPct: '45' } },
+  {
+    heatNumber: 'NV-25-0530',
+    mill: 0,
+    specId: 'ASTM F67',
+    grade: '4',
+    sizeMm: '12.7',
+    chemistry: { N: '0.01', C: '0.01', H: '0.003', Fe: '0.30', O: '0.35' },
+    mechanical: { utsMPa: '640', ysMPa: '540', elongationPct: '20', reductionOfAreaPct: '38' },
+  },
+  {
+    heatNumber: 'CS-7850',
+    mill: 1,
+    specId: 'ASTM F67',
+    grade: '2',
+    sizeMm: '8',
+    chemistry: { N: '0.01', C: '0.01', H: '0.002', Fe: '0.12', O: '0.16' },
+    mechanical: { utsMPa: '420', ysMPa: '330', elongationPct: '28', reductionOfAreaPct: '45' },
+  },
   {
     heatNumber: 'OB-55310',
     mill: 2,
     specId: 'ASTM F138',
     sizeMm: '16',
-    chemistry: { C: '0.018', Mn: '1.70', P: '0.018', S: '0.001', Si: '0.40', Cr: '17.60', Ni: '14.30', Mo: '2.60', N: '0.06', Cu: '0.10' },
+    chemistry: {
+      C: '0.018',
+      Mn: '1.70',
+      P: '0.018',
+      S: '0.001',
+      Si: '0.40',
+      Cr: '17.60',
+      Ni: '14.30',
+      Mo: '2.60',
+      N: '0.06',
+      Cu: '0.10',
+    },
     mechanical: { utsMPa: '540', ysMPa: '250', elongationPct: '45' },
   },
 ];
@@ -95,17 +122,49 @@ function barMassKg(specId: string, diameterMm: string, lengthMm: number): string
   return ((Math.PI * radiusCm * radiusCm * (lengthMm / 10) * density) / 1000).toFixed(3);
 }
 
-async function enterHeat(dataSource: DataSource, heat: DemoHeat, supplierIds: number[], engineer: Person): Promise<number> {
+async function enterHeat(
+  dataSource: DataSource,
+  heat: DemoHeat,
+  supplierIds: number[],
+  engineer: Person,
+): Promise<number> {
   const actor = { id: engineer.id, name: engineer.name, role: 'manufacturing-engineer' };
   const received = await receiveHeat(
     dataSource,
-    { heatNumber: heat.heatNumber, supplierId: supplierIds[heat.mill]!, specId: heat.specId, grade: heat.grade ?? null, meltRoute: heat.specId === 'ASTM F138' ? 'VIM + ESR' : 'VAR ×3', productForm: 'bar', condition: 'annealed', sizeMm: heat.sizeMm, receivedOn: dayOf(heat.daysAgo) },
+    {
+      heatNumber: heat.heatNumber,
+      supplierId: supplierIds[heat.mill]!,
+      specId: heat.specId,
+      grade: heat.grade ?? null,
+      meltRoute: heat.specId === 'ASTM F138' ? 'VIM + ESR' : 'VAR ×3',
+      productForm: 'bar',
+      condition: 'annealed',
+      sizeMm: heat.sizeMm,
+      receivedOn: dayOf(heat.daysAgo),
+    },
     engineer,
     actor,
     origin,
   );
-  await attachCertificate(dataSource, received.id, { bytes: demoCertificate(heat.heatNumber, mills[heat.mill]!.name), originalName: `certificate-${heat.heatNumber}.pdf` }, engineer, actor, origin);
-  await recordResults(dataSource, received.id, { chemistry: heat.chemistry, mechanical: heat.mechanical }, engineer, actor, origin);
+  await attachCertificate(
+    dataSource,
+    received.id,
+    {
+      bytes: demoCertificate(heat.heatNumber, mills[heat.mill]!.name),
+      originalName: `certificate-${heat.heatNumber}.pdf`,
+    },
+    engineer,
+    actor,
+    origin,
+  );
+  await recordResults(
+    dataSource,
+    received.id,
+    { chemistry: heat.chemistry, mechanical: heat.mechanical },
+    engineer,
+    actor,
+    origin,
+  );
   return received.id;
 }
 
@@ -121,7 +180,12 @@ export async function seedDemoMaterials(dataSource: DataSource): Promise<void> {
   if (!engineer || !approver) throw new Error('seed the demo people first');
   const supplierIds: number[] = [];
   for (const mill of mills) {
-    const supplier = await createSupplier(dataSource, { ...mill, reason: 'demo scenario: supplier qualification on file' }, { id: approver.id, name: approver.name, role: 'qa-approver' }, origin);
+    const supplier = await createSupplier(
+      dataSource,
+      { ...mill, reason: 'demo scenario: supplier qualification on file' },
+      { id: approver.id, name: approver.name, role: 'qa-approver' },
+      origin,
+    );
     supplierIds.push(supplier.id);
   }
   const history = demoHeatHistory();
@@ -141,19 +205,32 @@ export async function seedDemoMaterials(dataSource: DataSource): Promise<void> {
   for (const [index, heat] of recentHeats.entries()) {
     await enterHeat(dataSource, { ...heat, daysAgo: 60 - index * 5 }, supplierIds, engineer);
   }
-  for (const heat of bunchingMillHeats(mills.indexOf(bunchingMill))) await enterHeat(dataSource, heat, supplierIds, engineer);
+  for (const heat of bunchingMillHeats(mills.indexOf(bunchingMill)))
+    await enterHeat(dataSource, heat, supplierIds, engineer);
   await seedDemoBarStock(dataSource, accepted, engineer);
   await seedDemoCheckAnalysis(dataSource, { castellane: supplierIds[1]! }, approver, engineer);
 }
 
 /** Bar from every accepted heat: six 3 m bars of each, in the bar store (production lots draw on them). */
-async function seedDemoBarStock(dataSource: DataSource, heats: Array<{ id: number; heat: DemoHeat }>, engineer: Person): Promise<void> {
+async function seedDemoBarStock(
+  dataSource: DataSource,
+  heats: Array<{ id: number; heat: DemoHeat }>,
+  engineer: Person,
+): Promise<void> {
   const actor = { id: engineer.id, name: engineer.name, role: 'manufacturing-engineer' };
   for (const [index, { id, heat }] of heats.entries()) {
     for (const bar of [1, 2, 3, 4, 5, 6]) {
       await receiveBar(
         dataSource,
-        { heatId: id, markedHeatNumber: heat.heatNumber, tag: `${heat.heatNumber.replace(/[^A-Z0-9]+/g, '-')}-B${bar}`, diameterMm: heat.sizeMm, lengthMm: '3000', massKg: barMassKg(heat.specId, heat.sizeMm, 3000), location: `Bar store rack ${String.fromCharCode(65 + (index % 4))}${bar}` },
+        {
+          heatId: id,
+          markedHeatNumber: heat.heatNumber,
+          tag: `${heat.heatNumber.replace(/[^A-Z0-9]+/g, '-')}-B${bar}`,
+          diameterMm: heat.sizeMm,
+          lengthMm: '3000',
+          massKg: barMassKg(heat.specId, heat.sizeMm, 3000),
+          location: `Bar store rack ${String.fromCharCode(65 + (index % 4))}${bar}`,
+        },
         engineer,
         actor,
         origin,

@@ -33,22 +33,61 @@ export async function seedDemoRelease(dataSource: DataSource): Promise<void> {
     const dossier = await releaseDossier(dataSource, lot.id);
     const units = dossier.lot.onHand ?? 0;
     if (units < 1) continue;
-    await recordLabels(dataSource, lot.id, { kind: 'print', qty: units + (index % 7 === 0 ? 1 : 0) }, engineer, actor, origin);
-    if (index % 7 === 0) await recordLabels(dataSource, lot.id, { kind: 'void', qty: 1, reason: 'Label smudged at printing; destroyed' }, engineer, actor, origin);
+    await recordLabels(
+      dataSource,
+      lot.id,
+      { kind: 'print', qty: units + (index % 7 === 0 ? 1 : 0) },
+      engineer,
+      actor,
+      origin,
+    );
+    if (index % 7 === 0)
+      await recordLabels(
+        dataSource,
+        lot.id,
+        { kind: 'void', qty: 1, reason: 'Label smudged at printing; destroyed' },
+        engineer,
+        actor,
+        origin,
+      );
     if (!(await releaseDossier(dataSource, lot.id)).readiness.ready) continue;
     await submitForRelease(dataSource, lot.id, engineer, actor, origin);
     if (waitingForReview.includes(lot)) continue;
-    await signAsDemoPerson(dataSource, 'kiw-0201', { recordType: 'lot-release', recordId: String(lot.id), meaning: 'reviewed' });
+    await signAsDemoPerson(dataSource, 'kiw-0201', {
+      recordType: 'lot-release',
+      recordId: String(lot.id),
+      meaning: 'reviewed',
+    });
     if (waitingForApproval.includes(lot)) continue;
-    await signAsDemoPerson(dataSource, 'kiw-0301', { recordType: 'lot-release', recordId: String(lot.id), meaning: 'approved-for-release' });
+    await signAsDemoPerson(dataSource, 'kiw-0301', {
+      recordType: 'lot-release',
+      recordId: String(lot.id),
+      meaning: 'approved-for-release',
+    });
     // Shipments: the released units go to one to three consignees within weeks of the lot's end.
     let left = units - (random() < 0.25 ? Math.ceil(units * 0.2) : 0);
     const shipTo = 1 + Math.floor(random() * 3);
     for (let shipment = 0; shipment < shipTo && left > 0; shipment++) {
       const qty = shipment === shipTo - 1 ? left : Math.max(1, Math.floor(left / 2));
-      const shippedOn = new Date(Math.min(Date.now(), new Date(lot.opened_at).getTime() + (20 + shipment * 9 + Math.floor(random() * 10)) * DAY)).toISOString().slice(0, 10);
+      const shippedOn = new Date(
+        Math.min(Date.now(), new Date(lot.opened_at).getTime() + (20 + shipment * 9 + Math.floor(random() * 10)) * DAY),
+      )
+        .toISOString()
+        .slice(0, 10);
       const consignee = consignees[Math.floor(random() * consignees.length)]!;
-      await shipLot(dataSource, lot.id, { consigneeId: consignee.id, qty, shippedOn, documentNumber: `DN-${shippedOn.replace(/-/g, '').slice(2)}-${String(lot.id).padStart(4, '0')}${shipment}` }, engineer, actor, origin);
+      await shipLot(
+        dataSource,
+        lot.id,
+        {
+          consigneeId: consignee.id,
+          qty,
+          shippedOn,
+          documentNumber: `DN-${shippedOn.replace(/-/g, '').slice(2)}-${String(lot.id).padStart(4, '0')}${shipment}`,
+        },
+        engineer,
+        actor,
+        origin,
+      );
       left -= qty;
     }
   }

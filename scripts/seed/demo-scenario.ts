@@ -41,14 +41,25 @@ export async function seedDemoScenario(dataSource: DataSource, roleMap: Record<s
     });
     for (const person of demoPeople) {
       const active = !deactivatedDemoSubjects.includes(person.subject);
-      const id = await insertPerson(manager, { subject: person.subject, name: person.name, email: person.email, active });
+      const id = await insertPerson(manager, {
+        subject: person.subject,
+        name: person.name,
+        email: person.email,
+        active,
+      });
       const roles = rolesFromGroups(person.groups, roleMap);
       await replaceIdentityProviderRoles(manager, id, roles);
       await appendLedgerEvent(manager, {
         actor: seedActor,
         action: 'person.provisioned',
         entity: { type: 'person', id },
-        after: { subject: person.subject, name: person.name, email: person.email, active, identityProviderRoles: roles },
+        after: {
+          subject: person.subject,
+          name: person.name,
+          email: person.email,
+          active,
+          identityProviderRoles: roles,
+        },
         reason: 'demo scenario',
       });
     }

@@ -9,7 +9,24 @@ export const bunchingMill = { name: 'Brannock Alloy Works', country: 'Poland', a
 
 export function bunchingMillHeats(mill: number): DemoHeat[] {
   const random = generator(4711);
-  const oxygen = ['0.29', '0.31', '0.39', '0.40', '0.28', '0.39', '0.40', '0.39', '0.32', '0.40', '0.39', '0.40', '0.39', '0.30', '0.40', '0.39'];
+  const oxygen = [
+    '0.29',
+    '0.31',
+    '0.39',
+    '0.40',
+    '0.28',
+    '0.39',
+    '0.40',
+    '0.39',
+    '0.32',
+    '0.40',
+    '0.39',
+    '0.40',
+    '0.39',
+    '0.30',
+    '0.40',
+    '0.39',
+  ];
   return oxygen.map((o, index) => ({
     heatNumber: `BAW-${7710 + index * 13}`,
     mill,
@@ -17,7 +34,18 @@ export function bunchingMillHeats(mill: number): DemoHeat[] {
     grade: '4',
     sizeMm: '12.7',
     daysAgo: 300 - index * 20,
-    chemistry: { N: '0.01', C: '0.02', H: (0.003 + random() * 0.002).toFixed(4), Fe: (0.22 + random() * 0.1).toFixed(2), O: o },
-    mechanical: { utsMPa: String(Math.round(640 + 20 * random())), ysMPa: String(Math.round(520 + 20 * random())), elongationPct: String(17 + Math.floor(random() * 4)), reductionOfAreaPct: '32' },
+    chemistry: {
+      N: '0.01',
+      C: '0.02',
+      H: (0.003 + random() * 0.002).toFixed(4),
+      Fe: (0.22 + random() * 0.1).toFixed(2),
+      O: o,
+    },
+    mechanical: {
+      utsMPa: String(Math.round(640 + 20 * random())),
+      ysMPa: String(Math.round(520 + 20 * random())),
+      elongationPct: String(17 + Math.floor(random() * 4)),
+      reductionOfAreaPct: '32',
+    },
   }));
 }

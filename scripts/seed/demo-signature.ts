@@ -27,5 +27,15 @@ export async function signAsDemoPerson(
     'INSERT INTO reauthentication (id, person_id, purpose, binding_hash, return_to, started_at, confirmed_at, authn_instant) VALUES (?, ?, ?, ?, ?, ?, ?, ?)',
     [id, person.id, seededReauthenticationPurpose, preparation.bindingHash, '/', now, now, now],
   );
-  await signRecord(dataSource, person, { ...intent, contentHash: preparation.contentHash, reauthenticationId: id, ...(preparation.trailThroughSeq === null ? {} : { trailThroughSeq: preparation.trailThroughSeq }) }, { requestId: 'demo-seed', clientAddress: null });
+  await signRecord(
+    dataSource,
+    person,
+    {
+      ...intent,
+      contentHash: preparation.contentHash,
+      reauthenticationId: id,
+      ...(preparation.trailThroughSeq === null ? {} : { trailThroughSeq: preparation.trailThroughSeq }),
+    },
+    { requestId: 'demo-seed', clientAddress: null },
+  );
 }

@@ -1,7 +1,12 @@
 import express, { type Express } from 'express';
 import { randomBytes } from 'node:crypto';
 import { timingSafeEqual } from 'node:crypto';
-import { AuthnRequestError, parseRedirectAuthnRequest, parseRedirectLogoutRequest, type AuthnRequestInfo } from './authn-request';
+import {
+  AuthnRequestError,
+  parseRedirectAuthnRequest,
+  parseRedirectLogoutRequest,
+  type AuthnRequestInfo,
+} from './authn-request';
 import { demoPeople, findDemoPerson, type DemoPerson } from './demo-people';
 import { messagePage, postBindingPage, signInPage } from './pages';
 import { buildSignedResponse, encodeForPost, newSamlId } from './saml-response';
@@ -59,12 +64,20 @@ export function createStandInIdp(options: StandInIdpOptions): Express {
   app.disable('x-powered-by');
   app.use(express.urlencoded({ extended: false, limit: '100kb' }));
   app.use((_req, res, next) => {
-    res.set('Content-Security-Policy', "default-src 'none'; style-src 'unsafe-inline'; script-src 'unsafe-inline'; form-action *; frame-ancestors 'none'");
+    res.set(
+      'Content-Security-Policy',
+      "default-src 'none'; style-src 'unsafe-inline'; script-src 'unsafe-inline'; form-action *; frame-ancestors 'none'",
+    );
     res.set('Cache-Control', 'no-store');
     next();
   });
 
-  const respond = (res: express.Response, request: AuthnRequestInfo, relayState: string | undefined, session: IdpSession) => {
+  const respond = (
+    res: express.Response,
+    request: AuthnRequestInfo,
+    relayState: string | undefined,
+    session: IdpSession,
+  ) => {
     const person = findDemoPerson(session.subject) ?? people.find((candidate) => candidate.subject === session.subject);
     if (!person) throw new Error('unknown person in identity-provider session');
     const acsUrl = request.assertionConsumerServiceUrl as string;
@@ -86,14 +99,16 @@ export function createStandInIdp(options: StandInIdpOptions): Express {
 
   app.get('/metadata', (_req, res) => {
     const certificate = options.key.certificatePem.replace(/-----[^-]+-----/g, '').replace(/\s+/g, '');
-    res.type('application/samlmetadata+xml').send(
-      `<?xml version="1.0"?><md:EntityDescriptor xmlns:md="urn:oasis:names:tc:SAML:2.0:metadata" entityID="${options.entityId}">` +
-        `<md:IDPSSODescriptor WantAuthnRequestsSigned="false" protocolSupportEnumeration="urn:oasis:names:tc:SAML:2.0:protocol">` +
-        `<md:KeyDescriptor use="signing"><ds:KeyInfo xmlns:ds="http://www.w3.org/2000/09/xmldsig#"><ds:X509Data><ds:X509Certificate>${certificate}</ds:X509Certificate></ds:X509Data></ds:KeyInfo></md:KeyDescriptor>` +
-        `<md:SingleLogoutService Binding="urn:oasis:names:tc:SAML:2.0:bindings:HTTP-Redirect" Location="${options.entityId.replace(/\/metadata$/, '')}/slo"/>` +
-        `<md:SingleSignOnService Binding="urn:oasis:names:tc:SAML:2.0:bindings:HTTP-Redirect" Location="${options.entityId.replace(/\/metadata$/, '')}/sso"/>` +
-        `</md:IDPSSODescriptor></md:EntityDescriptor>`,
-    );
+    res
+      .type('application/samlmetadata+xml')
+      .send(
+        `<?xml version="1.0"?><md:EntityDescriptor xmlns:md="urn:oasis:names:tc:SAML:2.0:metadata" entityID="${options.entityId}">` +
+          `<md:IDPSSODescriptor WantAuthnRequestsSigned="false" protocolSupportEnumeration="urn:oasis:names:tc:SAML:2.0:protocol">` +
+          `<md:KeyDescriptor use="signing"><ds:KeyInfo xmlns:ds="http://www.w3.org/2000/09/xmldsig#"><ds:X509Data><ds:X509Certificate>${certificate}</ds:X509Certificate></ds:X509Data></ds:KeyInfo></md:KeyDescriptor>` +
+          `<md:SingleLogoutService Binding="urn:oasis:names:tc:SAML:2.0:bindings:HTTP-Redirect" Location="${options.entityId.replace(/\/metadata$/, '')}/slo"/>` +
+          `<md:SingleSignOnService Binding="urn:oasis:names:tc:SAML:2.0:bindings:HTTP-Redirect" Location="${options.entityId.replace(/\/metadata$/, '')}/sso"/>` +
+          `</md:IDPSSODescriptor></md:EntityDescriptor>`,
+      );
   });
 
   app.get('/sso', (req, res) => {
@@ -103,11 +118,24 @@ export function createStandInIdp(options: StandInIdpOptions): Express {
     try {
       request = parseRedirectAuthnRequest(samlRequest);
     } catch (error) {
-      res.status(400).type('html').send(messagePage('Bad sign-in request', error instanceof AuthnRequestError ? error.message : 'unreadable request'));
+      res
+        .status(400)
+        .type('html')
+        .send(
+          messagePage('Bad sign-in request', error instanceof AuthnRequestError ? error.message : 'unreadable request'),
+        );
       return;
     }
     if (!request.assertionConsumerServiceUrl || !options.allowedAcsUrls.includes(request.assertionConsumerServiceUrl)) {
-      res.status(400).type('html').send(messagePage('Unknown service', `The address ${request.assertionConsumerServiceUrl ?? '(none)'} is not registered with this identity provider.`));
+      res
+        .status(400)
+        .type('html')
+        .send(
+          messagePage(
+            'Unknown service',
+            `The address ${request.assertionConsumerServiceUrl ?? '(none)'} is not registered with this identity provider.`,
+          ),
+        );
       return;
     }
     const session = sessions.get(readCookie(req.headers.cookie, COOKIE) ?? '');
@@ -117,7 +145,11 @@ export function createStandInIdp(options: StandInIdpOptions): Express {
     }
     const token = randomBytes(16).toString('hex');
     pending.set(token, { request, relayState, createdAt: Date.now() });
-    res.type('html').send(signInPage({ requestToken: token, people, forceAuthn: request.forceAuthn, selectedSubject: session?.subject }));
+    res
+      .type('html')
+      .send(
+        signInPage({ requestToken: token, people, forceAuthn: request.forceAuthn, selectedSubject: session?.subject }),
+      );
   });
 
   app.post('/sso/sign-in', (req, res) => {
@@ -129,7 +161,18 @@ export function createStandInIdp(options: StandInIdpOptions): Express {
     }
     const person = people.find((candidate) => candidate.subject === subject);
     if (!person || !samePassword(password ?? '', person.password)) {
-      res.status(401).type('html').send(signInPage({ requestToken: token as string, people, forceAuthn: waiting.request.forceAuthn, error: 'That password is not right for this person.', selectedSubject: subject }));
+      res
+        .status(401)
+        .type('html')
+        .send(
+          signInPage({
+            requestToken: token as string,
+            people,
+            forceAuthn: waiting.request.forceAuthn,
+            error: 'That password is not right for this person.',
+            selectedSubject: subject,
+          }),
+        );
       return;
     }
     pending.delete(token as string);
@@ -147,7 +190,15 @@ export function createStandInIdp(options: StandInIdpOptions): Express {
       try {
         parseRedirectLogoutRequest(req.query.SAMLRequest);
       } catch (error) {
-        res.status(400).type('html').send(messagePage('Bad sign-out request', error instanceof AuthnRequestError ? error.message : 'unreadable request'));
+        res
+          .status(400)
+          .type('html')
+          .send(
+            messagePage(
+              'Bad sign-out request',
+              error instanceof AuthnRequestError ? error.message : 'unreadable request',
+            ),
+          );
         return;
       }
     }

@@ -20,9 +20,16 @@ function decodeRedirectMessage(samlRequest: string, rootName: string): Element {
     throw new AuthnRequestError('SAMLRequest is not base64-encoded DEFLATE data');
   }
   const errors: string[] = [];
-  const document = new DOMParser({ errorHandler: { warning: () => undefined, error: (message: string) => errors.push(message), fatalError: (message: string) => errors.push(message) } }).parseFromString(xml, 'text/xml');
+  const document = new DOMParser({
+    errorHandler: {
+      warning: () => undefined,
+      error: (message: string) => errors.push(message),
+      fatalError: (message: string) => errors.push(message),
+    },
+  }).parseFromString(xml, 'text/xml');
   const root = document.documentElement;
-  if (errors.length || !root || root.localName !== rootName) throw new AuthnRequestError(`SAMLRequest does not hold a ${rootName}`);
+  if (errors.length || !root || root.localName !== rootName)
+    throw new AuthnRequestError(`SAMLRequest does not hold a ${rootName}`);
   return root;
 }
 
@@ -31,7 +38,8 @@ export function parseRedirectAuthnRequest(samlRequest: string): AuthnRequestInfo
   const root = decodeRedirectMessage(samlRequest, 'AuthnRequest');
   const id = root.getAttribute('ID');
   if (!id) throw new AuthnRequestError('AuthnRequest has no ID');
-  const issuer = root.getElementsByTagNameNS('urn:oasis:names:tc:SAML:2.0:assertion', 'Issuer')[0]?.textContent?.trim() ?? '';
+  const issuer =
+    root.getElementsByTagNameNS('urn:oasis:names:tc:SAML:2.0:assertion', 'Issuer')[0]?.textContent?.trim() ?? '';
   return {
     id,
     issuer,
@@ -44,5 +52,8 @@ export function parseRedirectAuthnRequest(samlRequest: string): AuthnRequestInfo
 /** Decodes a LogoutRequest from the HTTP-Redirect binding; returns the NameID it names. */
 export function parseRedirectLogoutRequest(samlRequest: string): { nameId: string | null } {
   const root = decodeRedirectMessage(samlRequest, 'LogoutRequest');
-  return { nameId: root.getElementsByTagNameNS('urn:oasis:names:tc:SAML:2.0:assertion', 'NameID')[0]?.textContent?.trim() ?? null };
+  return {
+    nameId:
+      root.getElementsByTagNameNS('urn:oasis:names:tc:SAML:2.0:assertion', 'NameID')[0]?.textContent?.trim() ?? null,
+  };
 }

@@ -25,4 +25,3 @@ export async function startStandInIdp(config: AppConfig): Promise<{ url: string;
       }),
   };
 }
-

@@ -35,7 +35,12 @@ export function newSamlId(): string {
 }
 
 export function escapeXml(value: string): string {
-  return value.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;').replace(/'/g, '&apos;');
+  return value
+    .replace(/&/g, '&amp;')
+    .replace(/</g, '&lt;')
+    .replace(/>/g, '&gt;')
+    .replace(/"/g, '&quot;')
+    .replace(/'/g, '&apos;');
 }
 
 function instant(date: Date): string {
@@ -51,7 +56,10 @@ function sign(xml: string, elementName: 'Assertion' | 'Response', input: SamlRes
   });
   const element = `//*[local-name(.)='${elementName}']`;
   signer.addReference({ xpath: element, transforms: [ENVELOPED, EXCLUSIVE_C14N], digestAlgorithm: DIGEST_ALGORITHM });
-  signer.computeSignature(xml, { prefix: 'ds', location: { reference: `${element}/*[local-name(.)='Issuer']`, action: 'after' } });
+  signer.computeSignature(xml, {
+    prefix: 'ds',
+    location: { reference: `${element}/*[local-name(.)='Issuer']`, action: 'after' },
+  });
   return signer.getSignedXml();
 }
 

@@ -44,13 +44,17 @@ export function createApp(context: AppContext, options: AppOptions = {}): Ingotr
   configureLinks(context.config.PUBLIC_URL);
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', context.config.TRUST_PROXY ? context.config.TRUST_PROXY.split(',').map((entry) => entry.trim()) : false);
+  app.set(
+    'trust proxy',
+    context.config.TRUST_PROXY ? context.config.TRUST_PROXY.split(',').map((entry) => entry.trim()) : false,
+  );
 
   app.use(
     pinoHttp({
       logger: context.logger,
       genReqId: requestId,
-      customLogLevel: (_req, res, error) => (error || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'warn' : 'info'),
+      customLogLevel: (_req, res, error) =>
+        error || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'warn' : 'info',
       autoLogging: { ignore: (req) => req.url === '/api/health' },
     }),
   );
@@ -77,10 +81,14 @@ export function createApp(context: AppContext, options: AppOptions = {}): Ingotr
   );
 
   const authentication = createAuthentication(context);
-  app.use('/auth', ...authentication.sessionHandlers, authRouter(context, authentication.passport, authentication.signInStrategy, {
+  app.use(
+    '/auth',
+    ...authentication.sessionHandlers,
+    authRouter(context, authentication.passport, authentication.signInStrategy, {
       protection: authentication.csrfProtection,
       generateToken: authentication.generateCsrfToken,
-    }));
+    }),
+  );
 
   const api = express.Router();
   api.use(express.json({ limit: '1mb' }));
@@ -113,10 +121,17 @@ export function createApp(context: AppContext, options: AppOptions = {}): Ingotr
   }
   app.use(apiNotFound);
   app.use(errorHandler);
-  const stopMailWorker = options.mailWorker === false ? () => undefined : startMailWorker(context.config, () => context.database.dataSource, context.logger);
+  const stopMailWorker =
+    options.mailWorker === false
+      ? () => undefined
+      : startMailWorker(context.config, () => context.database.dataSource, context.logger);
   const stopCheckpoints =
     (options.dailyCheckpoints ?? context.config.NODE_ENV !== 'test')
-      ? startDailyCheckpoints(context.config, () => context.database.dataSource, (error) => context.logger.error({ err: error }, 'the daily audit trail checkpoint failed'))
+      ? startDailyCheckpoints(
+          context.config,
+          () => context.database.dataSource,
+          (error) => context.logger.error({ err: error }, 'the daily audit trail checkpoint failed'),
+        )
       : () => undefined;
   return Object.assign(app, {
     shutdown: async () => {

@@ -42,8 +42,34 @@ export type Action = (typeof actions)[number];
 
 /** Role → the actions it may perform. The one permission matrix, used by server and client. */
 export const permissionMatrix: Record<Role, readonly Action[]> = {
-  'manufacturing-engineer': ['system.read', 'materials.read', 'materials.write', 'lots.read', 'lots.write', 'parts.manage', 'nonconformances.raise', 'shipments.write', 'release.read', 'release.submit', 'labels.print', 'trace.read'],
-  'qa-reviewer': ['system.read', 'materials.read', 'materials.disposition', 'specifications.draft', 'lots.read', 'nonconformances.raise', 'release.read', 'release.review', 'release.reject', 'trace.read', 'recall.read', 'audit.read'],
+  'manufacturing-engineer': [
+    'system.read',
+    'materials.read',
+    'materials.write',
+    'lots.read',
+    'lots.write',
+    'parts.manage',
+    'nonconformances.raise',
+    'shipments.write',
+    'release.read',
+    'release.submit',
+    'labels.print',
+    'trace.read',
+  ],
+  'qa-reviewer': [
+    'system.read',
+    'materials.read',
+    'materials.disposition',
+    'specifications.draft',
+    'lots.read',
+    'nonconformances.raise',
+    'release.read',
+    'release.review',
+    'release.reject',
+    'trace.read',
+    'recall.read',
+    'audit.read',
+  ],
   'qa-approver': [
     'system.read',
     'materials.read',
@@ -66,8 +92,26 @@ export const permissionMatrix: Record<Role, readonly Action[]> = {
     'audit.read',
   ],
   // Read-only over everything.
-  auditor: ['system.read', 'materials.read', 'lots.read', 'release.read', 'trace.read', 'recall.read', 'audit.read', 'people.read'],
-  'recall-coordinator': ['system.read', 'materials.read', 'lots.read', 'release.read', 'trace.read', 'recall.read', 'recall.manage', 'recall.close'],
+  auditor: [
+    'system.read',
+    'materials.read',
+    'lots.read',
+    'release.read',
+    'trace.read',
+    'recall.read',
+    'audit.read',
+    'people.read',
+  ],
+  'recall-coordinator': [
+    'system.read',
+    'materials.read',
+    'lots.read',
+    'release.read',
+    'trace.read',
+    'recall.read',
+    'recall.manage',
+    'recall.close',
+  ],
   // Administers people and configuration; signs nothing and edits no quality record.
   administrator: ['system.read', 'people.read', 'people.manage'],
 };

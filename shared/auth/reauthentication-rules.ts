@@ -14,10 +14,13 @@ export function reauthenticationRefusal(input: {
   now: Date;
   clockSkewMs: number;
 }): string | null {
-  if (input.assertedSubject !== input.expectedSubject) return 'Re-authentication was by a different person than the one signing';
+  if (input.assertedSubject !== input.expectedSubject)
+    return 'Re-authentication was by a different person than the one signing';
   // SAML instants carry whole seconds; the start is compared at the same precision.
   const startSecond = Math.floor(input.startedAt.getTime() / 1000) * 1000;
-  if (input.authnInstant.getTime() < startSecond - input.clockSkewMs) return 'The identity provider did not ask for your password again (stale authentication)';
-  if (input.now.getTime() - input.authnInstant.getTime() > REAUTHENTICATION_MAX_AGE_MS + input.clockSkewMs) return 'The re-authentication is older than 2 minutes';
+  if (input.authnInstant.getTime() < startSecond - input.clockSkewMs)
+    return 'The identity provider did not ask for your password again (stale authentication)';
+  if (input.now.getTime() - input.authnInstant.getTime() > REAUTHENTICATION_MAX_AGE_MS + input.clockSkewMs)
+    return 'The re-authentication is older than 2 minutes';
   return null;
 }

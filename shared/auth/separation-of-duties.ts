@@ -10,9 +10,15 @@ export interface SignatureHistory {
 
 export type SigningStep = 'review' | 'approval';
 
-export function separationOfDutiesRefusal(personId: number, step: SigningStep, history: SignatureHistory): string | null {
+export function separationOfDutiesRefusal(
+  personId: number,
+  step: SigningStep,
+  history: SignatureHistory,
+): string | null {
   if (history.authorIds.includes(personId)) {
-    return step === 'review' ? 'You authored this record, so you cannot review it' : 'You authored this record, so you cannot approve it';
+    return step === 'review'
+      ? 'You authored this record, so you cannot review it'
+      : 'You authored this record, so you cannot approve it';
   }
   if (step === 'approval' && history.reviewerIds.includes(personId)) {
     return 'You reviewed this record, so someone else must approve it';

@@ -39,14 +39,21 @@ export interface ChainedEvent {
 export type Sha256 = (text: string) => string;
 
 /** Walks events in order; returns the first sequence number that breaks the chain, or null. */
-export function firstBrokenEvent(events: Iterable<ChainedEvent>, sha256: Sha256, startHash = GENESIS_HASH, startSeq = 0): { seq: number; why: string } | null {
+export function firstBrokenEvent(
+  events: Iterable<ChainedEvent>,
+  sha256: Sha256,
+  startHash = GENESIS_HASH,
+  startSeq = 0,
+): { seq: number; why: string } | null {
   let expectedPrevious = startHash;
   let expectedSeq = startSeq + 1;
   for (const event of events) {
     const seq = event.content.seq;
     if (seq !== expectedSeq) return { seq, why: `sequence ${expectedSeq} expected, found ${seq}` };
-    if (event.previousHash !== expectedPrevious) return { seq, why: 'its previous-hash does not match the hash of the event before it' };
-    if (sha256(ledgerHashInput(event.previousHash, event.content)) !== event.hash) return { seq, why: 'its content no longer matches its hash' };
+    if (event.previousHash !== expectedPrevious)
+      return { seq, why: 'its previous-hash does not match the hash of the event before it' };
+    if (sha256(ledgerHashInput(event.previousHash, event.content)) !== event.hash)
+      return { seq, why: 'its content no longer matches its hash' };
     expectedPrevious = event.hash;
     expectedSeq++;
   }

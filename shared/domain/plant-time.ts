@@ -9,7 +9,16 @@ const formatters = new Map<string, Intl.DateTimeFormat>();
 function formatterFor(timeZone: string): Intl.DateTimeFormat {
   let formatter = formatters.get(timeZone);
   if (!formatter) {
-    formatter = new Intl.DateTimeFormat('en-GB', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', second: '2-digit', hourCycle: 'h23' });
+    formatter = new Intl.DateTimeFormat('en-GB', {
+      timeZone,
+      year: 'numeric',
+      month: '2-digit',
+      day: '2-digit',
+      hour: '2-digit',
+      minute: '2-digit',
+      second: '2-digit',
+      hourCycle: 'h23',
+    });
     formatters.set(timeZone, formatter);
   }
   return formatter;
@@ -20,7 +29,11 @@ function partsOf(instant: Instant, timeZone: string) {
   if (Number.isNaN(date.getTime())) return null;
   const parts = formatterFor(timeZone).formatToParts(date);
   const part = (type: Intl.DateTimeFormatPartTypes) => parts.find((item) => item.type === type)?.value ?? '';
-  return { day: `${part('year')}-${part('month')}-${part('day')}`, minute: `${part('hour')}:${part('minute')}`, second: part('second') };
+  return {
+    day: `${part('year')}-${part('month')}-${part('day')}`,
+    minute: `${part('hour')}:${part('minute')}`,
+    second: part('second'),
+  };
 }
 
 /** Date and time to the minute on the plant's clock: "2026-12-05 15:37". */
@@ -80,6 +93,8 @@ export function instantFromPlantLocal(local: string, timeZone: string): Date | n
   };
   const before = offsetAt(asUtc - 14 * 3600_000);
   const after = offsetAt(asUtc + 14 * 3600_000);
-  const fits = [...new Set([before, after])].map((offset) => asUtc - offset).filter((utc) => offsetAt(utc) === asUtc - utc);
+  const fits = [...new Set([before, after])]
+    .map((offset) => asUtc - offset)
+    .filter((utc) => offsetAt(utc) === asUtc - utc);
   return new Date(fits.length ? Math.min(...fits) : asUtc - before);
 }

@@ -1,7 +1,22 @@
 import { canonicalJson } from './ledger-hash';
 
 /** What a signature means; each record type allows some of these. */
-export const signatureMeanings = ['reviewed', 'approved', 'approved-for-release', 'rejected', 'accepted', 'quarantined', 'dispositioned', 'closed', 'withdrawn', 'lifted', 'justified', 'confirmed', 'returned-to-engineering', 'refused'] as const;
+export const signatureMeanings = [
+  'reviewed',
+  'approved',
+  'approved-for-release',
+  'rejected',
+  'accepted',
+  'quarantined',
+  'dispositioned',
+  'closed',
+  'withdrawn',
+  'lifted',
+  'justified',
+  'confirmed',
+  'returned-to-engineering',
+  'refused',
+] as const;
 export type SignatureMeaning = (typeof signatureMeanings)[number];
 
 export const meaningLabels: Record<SignatureMeaning, string> = {
@@ -22,7 +37,16 @@ export const meaningLabels: Record<SignatureMeaning, string> = {
 };
 
 /** Meanings that must carry a reason. */
-export const meaningsNeedingReason: readonly SignatureMeaning[] = ['rejected', 'quarantined', 'closed', 'withdrawn', 'lifted', 'justified', 'returned-to-engineering', 'refused'];
+export const meaningsNeedingReason: readonly SignatureMeaning[] = [
+  'rejected',
+  'quarantined',
+  'closed',
+  'withdrawn',
+  'lifted',
+  'justified',
+  'returned-to-engineering',
+  'refused',
+];
 
 /** The statement shown beside every signature (21 CFR 11.100(c) / 11.50 manifestation). */
 export const signatureStatement =
@@ -36,12 +60,27 @@ export function contentHash(content: unknown, sha256: Sha256): string {
 }
 
 /** What a re-authentication is bound to: this record, this meaning, this exact content. */
-export function signatureBinding(input: { recordType: string; recordId: string; meaning: SignatureMeaning; contentHash: string }, sha256: Sha256): string {
-  return sha256(canonicalJson({ recordType: input.recordType, recordId: input.recordId, meaning: input.meaning, contentHash: input.contentHash }));
+export function signatureBinding(
+  input: { recordType: string; recordId: string; meaning: SignatureMeaning; contentHash: string },
+  sha256: Sha256,
+): string {
+  return sha256(
+    canonicalJson({
+      recordType: input.recordType,
+      recordId: input.recordId,
+      meaning: input.meaning,
+      contentHash: input.contentHash,
+    }),
+  );
 }
 
 /** The signature's manifestation: printed name, date and time with zone, and meaning. */
-export function signatureManifestation(input: { signerName: string; signedAt: Date; meaning: SignatureMeaning; timeZone?: string }): string {
+export function signatureManifestation(input: {
+  signerName: string;
+  signedAt: Date;
+  meaning: SignatureMeaning;
+  timeZone?: string;
+}): string {
   const timeZone = input.timeZone ?? 'UTC';
   const parts = new Intl.DateTimeFormat('en-GB', {
     timeZone,

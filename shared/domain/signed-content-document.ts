@@ -56,11 +56,13 @@ export function fieldName(key: string): string {
   return words.charAt(0).toUpperCase() + words.slice(1);
 }
 
-const isRecord = (value: unknown): value is Record<string, unknown> => typeof value === 'object' && value !== null && !Array.isArray(value);
+const isRecord = (value: unknown): value is Record<string, unknown> =>
+  typeof value === 'object' && value !== null && !Array.isArray(value);
 
 function cell(key: string, value: unknown, timeZone: string): DocumentCell {
   if (value === null || value === undefined || value === '') return { text: '—' };
-  if (typeof value === 'boolean') return { text: key === 'inWindow' ? (value ? 'Within window' : 'Outside window') : value ? 'Yes' : 'No' };
+  if (typeof value === 'boolean')
+    return { text: key === 'inWindow' ? (value ? 'Within window' : 'Outside window') : value ? 'Yes' : 'No' };
   if (typeof value === 'number') return { text: String(value) };
   if (typeof value === 'string') {
     if (sha256.test(value)) return { text: value, kind: 'hash' };
@@ -70,11 +72,14 @@ function cell(key: string, value: unknown, timeZone: string): DocumentCell {
     return { text: value };
   }
   if (Array.isArray(value)) {
-    if (value.every((item) => typeof item === 'string' && sha256.test(item))) return { text: value.length ? value.join('\n') : '—', kind: 'hash' };
+    if (value.every((item) => typeof item === 'string' && sha256.test(item)))
+      return { text: value.length ? value.join('\n') : '—', kind: 'hash' };
     return { text: value.length ? value.map((item) => cell(key, item, timeZone).text).join(', ') : '—' };
   }
   if (isRecord(value)) {
-    const parts = Object.entries(value).map(([name, inner]) => `${fieldName(name)} ${cell(name, inner, timeZone).text}`);
+    const parts = Object.entries(value).map(
+      ([name, inner]) => `${fieldName(name)} ${cell(name, inner, timeZone).text}`,
+    );
     return { text: parts.length ? parts.join('; ') : '—' };
   }
   return { text: String(value) };
@@ -94,18 +99,44 @@ function parametersText(methodId: unknown, parameters: unknown, timeZone: string
 
 /** The document of any signed content; fields in the order the content states them. */
 export function signedContentDocument(content: unknown, timeZone: string): DocumentSection[] {
-  if (!isRecord(content)) return [{ kind: 'facts', key: 'content', title: null, rows: [['Content', cell('content', content, timeZone)]] }];
+  if (!isRecord(content))
+    return [{ kind: 'facts', key: 'content', title: null, rows: [['Content', cell('content', content, timeZone)]] }];
   const facts: Array<[string, DocumentCell]> = [];
   const sections: DocumentSection[] = [];
   for (const [key, value] of Object.entries(content)) {
     if (Array.isArray(value) && value.length && value.every(isRecord)) {
       const columns = [...new Set(value.flatMap((row) => Object.keys(row)))];
-      sections.push({ kind: 'table', key, title: fieldName(key), columns: columns.map(fieldName), rows: value.map((row) => columns.map((column) => (column === 'parameters' ? parametersText(row.method, row[column], timeZone) : cell(column, row[column], timeZone)))) });
-    } else if (Array.isArray(value) && (value.length === 0 || !value.every((item) => typeof item === 'string' && sha256.test(item)))) {
+      sections.push({
+        kind: 'table',
+        key,
+        title: fieldName(key),
+        columns: columns.map(fieldName),
+        rows: value.map((row) =>
+          columns.map((column) =>
+            column === 'parameters'
+              ? parametersText(row.method, row[column], timeZone)
+              : cell(column, row[column], timeZone),
+          ),
+        ),
+      });
+    } else if (
+      Array.isArray(value) &&
+      (value.length === 0 || !value.every((item) => typeof item === 'string' && sha256.test(item)))
+    ) {
       // A list with nothing in it is still a section that says so ("None"), as the record's other lists are.
-      sections.push({ kind: 'list', key, title: fieldName(key), items: value.map((item) => cell(key, item, timeZone)) });
+      sections.push({
+        kind: 'list',
+        key,
+        title: fieldName(key),
+        items: value.map((item) => cell(key, item, timeZone)),
+      });
     } else if (isRecord(value) && Object.keys(value).length > 1) {
-      sections.push({ kind: 'facts', key, title: fieldName(key), rows: Object.entries(value).map(([name, inner]) => [fieldName(name), cell(name, inner, timeZone)]) });
+      sections.push({
+        kind: 'facts',
+        key,
+        title: fieldName(key),
+        rows: Object.entries(value).map(([name, inner]) => [fieldName(name), cell(name, inner, timeZone)]),
+      });
     } else {
       facts.push([fieldName(key), cell(key, value, timeZone)]);
     }

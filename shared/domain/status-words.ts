@@ -13,7 +13,11 @@ export const lotStatusWords: Record<(typeof lotStatuses)[number], string> = {
   rejected: 'Rejected',
 };
 
-export const nonconformanceStatusWords = { open: 'Open', dispositioned: 'Disposition signed', closed: 'Closed' } as const;
+export const nonconformanceStatusWords = {
+  open: 'Open',
+  dispositioned: 'Disposition signed',
+  closed: 'Closed',
+} as const;
 
 /** Review-board dispositions, capitalised and never hyphen-joined (common practice; ISO 13485:2016 §8.3). */
 export const dispositionWords: Record<(typeof dispositions)[number], string> = {
@@ -26,10 +30,20 @@ export const dispositionWords: Record<(typeof dispositions)[number], string> = {
 export const windowWords = { 'in-window': 'Within window', 'out-of-window': 'Outside window' } as const;
 export const inspectionVerdictWords = { accept: 'Accepted', reject: 'Not accepted' } as const;
 export const checkVerdictWords = { pass: 'Pass', fail: 'Fail' } as const;
-export const heatStatusWords = { received: 'Received', accepted: 'Accepted', rejected: 'Rejected', quarantined: 'Quarantined' } as const;
+export const heatStatusWords = {
+  received: 'Received',
+  accepted: 'Accepted',
+  rejected: 'Rejected',
+  quarantined: 'Quarantined',
+} as const;
 export const barPieceStatusWords = { 'in-stock': 'In stock', cut: 'Cut into pieces' } as const;
 export const draftStatusWords = { draft: 'Draft', approved: 'Approved' } as const;
-export const nonconformanceSubjectWords = { heat: 'Heat', 'bar-piece': 'Bar', lot: 'Lot', 'process-run': 'Process run' } as const;
+export const nonconformanceSubjectWords = {
+  heat: 'Heat',
+  'bar-piece': 'Bar',
+  lot: 'Lot',
+  'process-run': 'Process run',
+} as const;
 
 const everyWord: Record<string, string> = {
   ...barPieceStatusWords,

@@ -4,10 +4,16 @@
  */
 export const unitWords = {
   started: { name: 'Started', definition: 'units the lot started with at its first routing step' },
-  good: { name: 'Good', definition: 'good units after the last recorded routing step, less those split off to other lots' },
+  good: {
+    name: 'Good',
+    definition: 'good units after the last recorded routing step, less those split off to other lots',
+  },
   released: { name: 'Released', definition: 'units approved for release' },
   shipped: { name: 'Shipped', definition: 'released units shipped to consignees' },
-  inPlant: { name: 'In plant', definition: 'units still in the plant: work in progress of an open lot, or released units not yet shipped' },
+  inPlant: {
+    name: 'In plant',
+    definition: 'units still in the plant: work in progress of an open lot, or released units not yet shipped',
+  },
   onHold: { name: 'On hold', definition: 'units of lots held by a recall investigation or a nonconformance' },
 } as const;
 

@@ -39,7 +39,12 @@ export const checkRuleInputSchema = z
   .object({
     supplierId: z.number().int().positive().max(4_294_967_295).nullable(),
     specId: z.string().trim().min(1).max(40).nullable(),
-    everyNthHeat: z.number({ message: 'A whole number of heats, or none' }).int('A whole number of heats').min(1, 'At least 1').max(1000, 'At most 1000').nullable(),
+    everyNthHeat: z
+      .number({ message: 'A whole number of heats, or none' })
+      .int('A whole number of heats')
+      .min(1, 'At least 1')
+      .max(1000, 'At most 1000')
+      .nullable(),
     everyHeatWhenConditional: z.boolean({ message: 'Say whether every heat from a conditional supplier is checked' }),
     reason: reasonSchema,
   })
@@ -50,7 +55,10 @@ export const checkAnalysisInputSchema = z
   .object({
     laboratory: z.string().trim().min(2, 'Name the laboratory').max(160),
     reportReference: z.string().trim().min(1, 'Give the laboratory report’s reference').max(80),
-    chemistry: z.record(z.string().regex(/^[A-Z][a-z]?$/, 'An element symbol such as O or Fe'), z.union([z.string().trim().min(1).max(40), z.number()])),
+    chemistry: z.record(
+      z.string().regex(/^[A-Z][a-z]?$/, 'An element symbol such as O or Fe'),
+      z.union([z.string().trim().min(1).max(40), z.number()]),
+    ),
   })
   .strict();
 export type CheckAnalysisInput = z.input<typeof checkAnalysisInputSchema>;

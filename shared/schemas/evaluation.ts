@@ -15,14 +15,24 @@ const conditionInput = z
 /** A certificate's reported results, as the evaluation and the evaluate command take them. */
 export const certificateInputSchema = z.object({
   spec: z.string().trim().min(1, 'Name the specification, e.g. "ASTM F136"'),
-  grade: z.union([z.string().trim().min(1), z.number()]).nullable().optional(),
+  grade: z
+    .union([z.string().trim().min(1), z.number()])
+    .nullable()
+    .optional(),
   form: z.enum(productForms).default('bar'),
   /** One of the controlled conditions; "Annealed" and "cold worked" name annealed and cold-worked. */
   condition: conditionInput.default('annealed'),
   sizeMm: reported.nullable().optional(),
-  chemistry: z.record(z.string().regex(/^[A-Z][a-z]?$/, 'Chemistry keys are element symbols such as O or Fe'), reported).default({}),
+  chemistry: z
+    .record(z.string().regex(/^[A-Z][a-z]?$/, 'Chemistry keys are element symbols such as O or Fe'), reported)
+    .default({}),
   mechanical: z
-    .object({ utsMPa: reported.optional(), ysMPa: reported.optional(), elongationPct: reported.optional(), reductionOfAreaPct: reported.optional() })
+    .object({
+      utsMPa: reported.optional(),
+      ysMPa: reported.optional(),
+      elongationPct: reported.optional(),
+      reductionOfAreaPct: reported.optional(),
+    })
     .strict()
     .default({}),
 });
@@ -98,7 +108,9 @@ export function readStoredEvaluation(stored: unknown): Evaluation {
   const legacy = {
     ...raw,
     verdict: raw.verdict === 'incomplete' ? 'cannot-be-evaluated' : raw.verdict,
-    items: (raw.items ?? []).map((item) => (item.verdict === 'missing' ? { ...item, verdict: 'cannot-be-evaluated', reason: 'missing-value' } : item)),
+    items: (raw.items ?? []).map((item) =>
+      item.verdict === 'missing' ? { ...item, verdict: 'cannot-be-evaluated', reason: 'missing-value' } : item,
+    ),
   };
   return evaluationSchema.parse(legacy);
 }

@@ -18,7 +18,9 @@ export const plantFiguresSchema = z.object({
     bySupplier: z.array(z.object({ name: z.string(), count: z.number() })),
     byCause: z.array(z.object({ name: z.string(), count: z.number() })),
   }),
-  firstPassYield: z.array(z.object({ part: z.string(), lots: z.number(), started: z.number(), good: z.number(), percent: z.number() })),
+  firstPassYield: z.array(
+    z.object({ part: z.string(), lots: z.number(), started: z.number(), good: z.number(), percent: z.number() }),
+  ),
 });
 export type PlantFigures = z.infer<typeof plantFiguresSchema>;
 

@@ -11,7 +11,12 @@ const decimal = (message: string, positive = true) =>
     .union([z.string(), z.number()])
     .transform((value) => String(value).trim())
     .refine((value) => decimalPattern.test(value) && (!positive || Number(value) > 0), message);
-const count = (label: string) => z.number({ error: `${label} is a whole number` }).int(`${label} is a whole number`).min(0, `${label} cannot be negative`).max(10_000_000);
+const count = (label: string) =>
+  z
+    .number({ error: `${label} is a whole number` })
+    .int(`${label} is a whole number`)
+    .min(0, `${label} cannot be negative`)
+    .max(10_000_000);
 const text = (min: number, max: number, message: string) => z.string().trim().min(min, message).max(max);
 const page = {
   page: z.coerce.number().int().min(1).max(100_000).default(1),
@@ -39,18 +44,32 @@ export const routingStepInputSchema = z
       const problem =
         step.sampleSize === null || step.acceptNumber === null || step.rejectNumber === null
           ? 'An inspection step needs its sampling plan (sample size, Ac, Re)'
-          : samplingPlanProblem({ sampleSize: step.sampleSize, acceptNumber: step.acceptNumber, rejectNumber: step.rejectNumber });
+          : samplingPlanProblem({
+              sampleSize: step.sampleSize,
+              acceptNumber: step.acceptNumber,
+              rejectNumber: step.rejectNumber,
+            });
       if (problem) context.addIssue({ code: 'custom', message: problem, path: ['sampleSize'] });
     }
     if ((step.kind === 'passivation' || step.kind === 'cleaning') && !step.processMethod) {
-      context.addIssue({ code: 'custom', message: 'Name the process method this step must use', path: ['processMethod'] });
+      context.addIssue({
+        code: 'custom',
+        message: 'Name the process method this step must use',
+        path: ['processMethod'],
+      });
     }
   });
 
 export const partCreateSchema = z
   .object({
-    partNumber: z.string().trim().regex(/^[A-Za-z0-9][A-Za-z0-9-]{1,39}$/, 'Letters, digits and hyphens, 2–40 characters'),
-    revision: z.string().trim().regex(/^[A-Za-z0-9]{1,10}$/, 'Letters and digits, up to 10'),
+    partNumber: z
+      .string()
+      .trim()
+      .regex(/^[A-Za-z0-9][A-Za-z0-9-]{1,39}$/, 'Letters, digits and hyphens, 2–40 characters'),
+    revision: z
+      .string()
+      .trim()
+      .regex(/^[A-Za-z0-9]{1,10}$/, 'Letters and digits, up to 10'),
     description: text(3, 200, 'Describe the part'),
     gtin: checkedString(z.string().trim(), gtinProblem),
     unitLengthMm: decimal('The finished length in mm, e.g. 42.5'),
@@ -59,7 +78,9 @@ export const partCreateSchema = z
     reconciliationTolerancePct: decimal('A percentage such as 2', false).default('2'),
     lotPattern: z.string().trim().min(5).max(60).default('{PART}-{YY}{SEQ:4}'),
     contactCategory: z.enum(contactCategories, { error: 'Choose where the finished device touches the body' }),
-    specifications: z.array(z.object({ specId: z.string().trim().min(1), grade: z.string().trim().max(20).nullable().default(null) })).min(1, 'Allow at least one material specification'),
+    specifications: z
+      .array(z.object({ specId: z.string().trim().min(1), grade: z.string().trim().max(20).nullable().default(null) }))
+      .min(1, 'Allow at least one material specification'),
     routing: z.array(routingStepInputSchema).min(1, 'A routing has at least one step').max(40),
   })
   .superRefine((part, context) => {
@@ -102,8 +123,15 @@ export const idParams = (name: string) => z.object({ [name]: z.coerce.number().i
 
 export const lotOpenSchema = z.object({
   partId: z.number().int().positive('Choose the part'),
-  plannedQty: z.number({ error: 'The planned quantity is a whole number' }).int('The planned quantity is a whole number').min(1, 'Plan at least one unit').max(1_000_000),
-  openedOn: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'A date as YYYY-MM-DD').optional(),
+  plannedQty: z
+    .number({ error: 'The planned quantity is a whole number' })
+    .int('The planned quantity is a whole number')
+    .min(1, 'Plan at least one unit')
+    .max(1_000_000),
+  openedOn: z
+    .string()
+    .regex(/^\d{4}-\d{2}-\d{2}$/, 'A date as YYYY-MM-DD')
+    .optional(),
 });
 export type LotOpen = z.input<typeof lotOpenSchema>;
 
@@ -135,7 +163,12 @@ export const lotSummarySchema = z.object({
   openedBy: z.string(),
 });
 export type LotSummary = z.infer<typeof lotSummarySchema>;
-export const lotPageSchema = z.object({ items: z.array(lotSummarySchema), total: z.number().int(), page: z.number().int(), pageSize: z.number().int() });
+export const lotPageSchema = z.object({
+  items: z.array(lotSummarySchema),
+  total: z.number().int(),
+  page: z.number().int(),
+  pageSize: z.number().int(),
+});
 
 export const materialMovementSchema = z.object({
   tag: z.string().trim().toUpperCase().min(3, 'Scan or type the bar tag').max(40),
@@ -154,22 +187,42 @@ export const operationInputSchema = z
     qtyIn: count('Quantity in'),
     qtyGood: count('Good quantity'),
     qtyScrap: count('Scrap quantity'),
-    scrapReasons: z.array(z.object({ reason: text(2, 200, 'Say why the units were scrapped'), qty: z.number().int().min(1) })).max(20).default([]),
+    scrapReasons: z
+      .array(z.object({ reason: text(2, 200, 'Say why the units were scrapped'), qty: z.number().int().min(1) }))
+      .max(20)
+      .default([]),
     inspected: z.number().int().min(0).nullable().default(null),
     defectsFound: z.number().int().min(0).nullable().default(null),
     notes: z.string().trim().max(4000).nullable().default(null),
   })
   .superRefine((operation, context) => {
-    if (Date.parse(operation.endedAt) < Date.parse(operation.startedAt)) context.addIssue({ code: 'custom', message: 'The end is before the start', path: ['endedAt'] });
-    if (operation.qtyIn !== operation.qtyGood + operation.qtyScrap) context.addIssue({ code: 'custom', message: `Good + scrap must equal the ${operation.qtyIn} units in`, path: ['qtyGood'] });
+    if (Date.parse(operation.endedAt) < Date.parse(operation.startedAt))
+      context.addIssue({ code: 'custom', message: 'The end is before the start', path: ['endedAt'] });
+    if (operation.qtyIn !== operation.qtyGood + operation.qtyScrap)
+      context.addIssue({
+        code: 'custom',
+        message: `Good + scrap must equal the ${operation.qtyIn} units in`,
+        path: ['qtyGood'],
+      });
     const reasoned = operation.scrapReasons.reduce((sum, reason) => sum + reason.qty, 0);
-    if (reasoned !== operation.qtyScrap) context.addIssue({ code: 'custom', message: `Give reasons for all ${operation.qtyScrap} scrapped units (${reasoned} explained)`, path: ['scrapReasons'] });
+    if (reasoned !== operation.qtyScrap)
+      context.addIssue({
+        code: 'custom',
+        message: `Give reasons for all ${operation.qtyScrap} scrapped units (${reasoned} explained)`,
+        path: ['scrapReasons'],
+      });
   });
 export type OperationInput = z.input<typeof operationInputSchema>;
 
-export const splitInputSchema = z.object({ quantities: z.array(z.number().int().min(1, 'Each new lot gets at least one unit')).min(1).max(20), reason: text(3, 1000, 'Say why the lot is split') });
+export const splitInputSchema = z.object({
+  quantities: z.array(z.number().int().min(1, 'Each new lot gets at least one unit')).min(1).max(20),
+  reason: text(3, 1000, 'Say why the lot is split'),
+});
 export type SplitInput = z.input<typeof splitInputSchema>;
-export const mergeInputSchema = z.object({ lotIds: z.array(z.number().int().positive()).min(2, 'Choose at least two lots').max(20), reason: text(3, 1000, 'Say why the lots are merged') });
+export const mergeInputSchema = z.object({
+  lotIds: z.array(z.number().int().positive()).min(2, 'Choose at least two lots').max(20),
+  reason: text(3, 1000, 'Say why the lots are merged'),
+});
 export type MergeInput = z.input<typeof mergeInputSchema>;
 
 export const processRunInputSchema = z.object({
@@ -178,7 +231,10 @@ export const processRunInputSchema = z.object({
   equipment: text(1, 60, 'Name the line or tank'),
   operatorName: text(2, 200, 'Who ran it?'),
   runAt: instant,
-  parameters: z.record(z.string().max(40), z.union([z.string(), z.number()]).transform((value) => String(value).trim())),
+  parameters: z.record(
+    z.string().max(40),
+    z.union([z.string(), z.number()]).transform((value) => String(value).trim()),
+  ),
   lotIds: z.array(z.number().int().positive()).min(1, 'A run holds at least one lot').max(200),
 });
 export type ProcessRunInput = z.input<typeof processRunInputSchema>;
@@ -197,7 +253,10 @@ export const nonconformanceInputSchema = z.object({
   containment: text(3, 4000, 'Say what was done to contain it'),
 });
 export type NonconformanceInput = z.input<typeof nonconformanceInputSchema>;
-export const dispositionInputSchema = z.object({ disposition: z.enum(dispositions), note: text(3, 4000, 'Explain the disposition') });
+export const dispositionInputSchema = z.object({
+  disposition: z.enum(dispositions),
+  note: text(3, 4000, 'Explain the disposition'),
+});
 export type DispositionInput = z.input<typeof dispositionInputSchema>;
 export const nonconformanceListQuerySchema = z.object({
   status: z.enum(['open', 'dispositioned', 'closed']).optional(),

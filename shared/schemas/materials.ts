@@ -12,7 +12,13 @@ export const supplierApprovalLabels: Record<(typeof supplierApprovals)[number], 
   conditional: 'Conditionally approved',
   disqualified: 'Disqualified',
 };
-export const supplierSchema = z.object({ id: z.number().int(), name: z.string(), country: z.string(), approval: z.enum(supplierApprovals), heats: z.number().int() });
+export const supplierSchema = z.object({
+  id: z.number().int(),
+  name: z.string(),
+  country: z.string(),
+  approval: z.enum(supplierApprovals),
+  heats: z.number().int(),
+});
 export type Supplier = z.infer<typeof supplierSchema>;
 
 export const supplierCreateSchema = z.object({
@@ -21,12 +27,18 @@ export const supplierCreateSchema = z.object({
   approval: z.enum(supplierApprovals),
   reason: z.string().trim().min(3, 'Give a reason of at least 3 characters').max(1000),
 });
-export const supplierApprovalSchema = z.object({ approval: z.enum(supplierApprovals), reason: z.string().trim().min(3, 'Give a reason of at least 3 characters').max(1000) });
+export const supplierApprovalSchema = z.object({
+  approval: z.enum(supplierApprovals),
+  reason: z.string().trim().min(3, 'Give a reason of at least 3 characters').max(1000),
+});
 
 const positiveDecimal = z
   .union([z.string(), z.number()])
   .transform((value) => String(value).trim())
-  .refine((value) => decimalPattern.test(value) && Number(value) > 0, 'Expected a positive decimal number such as 25.4');
+  .refine(
+    (value) => decimalPattern.test(value) && Number(value) > 0,
+    'Expected a positive decimal number such as 25.4',
+  );
 
 export const heatStatuses = ['received', 'accepted', 'rejected', 'quarantined'] as const;
 
@@ -84,20 +96,37 @@ export const heatListQuerySchema = z.object({
   pageSize: z.coerce.number().int().min(1).max(100).default(20),
 });
 export type HeatListQuery = z.infer<typeof heatListQuerySchema>;
-export const heatPageSchema = z.object({ items: z.array(heatSummarySchema), total: z.number().int(), page: z.number().int(), pageSize: z.number().int() });
+export const heatPageSchema = z.object({
+  items: z.array(heatSummarySchema),
+  total: z.number().int(),
+  page: z.number().int(),
+  pageSize: z.number().int(),
+});
 
 const reported = z.union([z.string().trim().min(1).max(40), z.number().finite()]);
 export const heatResultsSchema = z.object({
   chemistry: z.record(z.string().regex(/^[A-Z][a-z]?$/, 'Element symbols such as O or Fe'), reported).default({}),
   mechanical: z
-    .object({ utsMPa: reported.optional(), ysMPa: reported.optional(), elongationPct: reported.optional(), reductionOfAreaPct: reported.optional() })
+    .object({
+      utsMPa: reported.optional(),
+      ysMPa: reported.optional(),
+      elongationPct: reported.optional(),
+      reductionOfAreaPct: reported.optional(),
+    })
     .strict()
     .default({}),
   reason: z.string().trim().max(1000).optional(),
 });
 export type HeatResults = z.input<typeof heatResultsSchema>;
 
-export const certificateDocumentSchema = z.object({ id: z.number().int(), sha256: z.string(), mediaType: z.string(), sizeBytes: z.number().int(), originalName: z.string(), uploadedAt: z.string() });
+export const certificateDocumentSchema = z.object({
+  id: z.number().int(),
+  sha256: z.string(),
+  mediaType: z.string(),
+  sizeBytes: z.number().int(),
+  originalName: z.string(),
+  uploadedAt: z.string(),
+});
 export type CertificateDocument = z.infer<typeof certificateDocumentSchema>;
 
 export const heatDetailSchema = heatSummarySchema.extend({
@@ -127,7 +156,13 @@ const tagSchema = z
 export const barPieceSchema = z.object({
   id: z.number().int(),
   tag: z.string(),
-  heat: z.object({ id: z.number().int(), heatNumber: z.string(), status: z.enum(heatStatuses), specId: z.string(), grade: z.string().nullable() }),
+  heat: z.object({
+    id: z.number().int(),
+    heatNumber: z.string(),
+    status: z.enum(heatStatuses),
+    specId: z.string(),
+    grade: z.string().nullable(),
+  }),
   /** The heat number read off the bar at receipt and matched to the certificate (null before receipts were confirmed). */
   markedHeatNumber: z.string().nullable(),
   parentTag: z.string().nullable(),
@@ -155,7 +190,10 @@ export const barReceiptSchema = z.object({
 export type BarReceipt = z.input<typeof barReceiptSchema>;
 
 export const barCutSchema = z.object({
-  pieces: z.array(z.object({ lengthMm: positiveDecimal, location: z.string().trim().max(100).optional() })).min(2, 'A cut makes at least two pieces').max(50),
+  pieces: z
+    .array(z.object({ lengthMm: positiveDecimal, location: z.string().trim().max(100).optional() }))
+    .min(2, 'A cut makes at least two pieces')
+    .max(50),
 });
 export type BarCut = z.input<typeof barCutSchema>;
 
@@ -167,7 +205,12 @@ export const barListQuerySchema = z.object({
   pageSize: z.coerce.number().int().min(1).max(100).default(20),
 });
 export type BarListQuery = z.infer<typeof barListQuerySchema>;
-export const barPageSchema = z.object({ items: z.array(barPieceSchema), total: z.number().int(), page: z.number().int(), pageSize: z.number().int() });
+export const barPageSchema = z.object({
+  items: z.array(barPieceSchema),
+  total: z.number().int(),
+  page: z.number().int(),
+  pageSize: z.number().int(),
+});
 export const barPieceParamsSchema = z.object({ pieceId: z.coerce.number().int().positive() });
 
 export const trendQuerySchema = z.object({
@@ -188,7 +231,9 @@ const capabilityIndexSchema = z.object({
 export const trendSchema = z.object({
   element: z.string(),
   limit: z.object({ min: z.string().optional(), max: z.string().optional(), text: z.string() }),
-  points: z.array(z.object({ heatId: z.number().int(), heatNumber: z.string(), receivedAt: z.string(), value: z.string() })),
+  points: z.array(
+    z.object({ heatId: z.number().int(), heatNumber: z.string(), receivedAt: z.string(), value: z.string() }),
+  ),
   capability: z.object({
     n: z.number().int(),
     mean: z.string().nullable(),
@@ -243,7 +288,10 @@ export const specificationDraftSchema = z.object({
         max: limitValue,
         reference: z.string().trim().min(3, 'Name the source of the value').max(300),
         /** How sure the drafter is: published (with its citation), the firm's own value, or unverified. */
-        confidence: z.enum(['published', 'firm', 'unconfirmed'], 'Say how sure the value is: published, the firm’s own, or unverified'),
+        confidence: z.enum(
+          ['published', 'firm', 'unconfirmed'],
+          'Say how sure the value is: published, the firm’s own, or unverified',
+        ),
         /** The product (check) analysis tolerance; re-entered whenever the limit changes, as it may depend on the limit. */
         tolerance: z.object({ under: limitValue, over: limitValue }).optional(),
       }),
@@ -262,7 +310,15 @@ export const specificationDraftViewSchema = z.object({
   status: z.enum(['draft', 'approved', 'rejected']),
   createdBy: z.string(),
   createdAt: z.string(),
-  changes: z.array(z.object({ grade: z.string().nullable(), element: z.string(), from: z.string(), to: z.string(), reference: z.string() })),
+  changes: z.array(
+    z.object({
+      grade: z.string().nullable(),
+      element: z.string(),
+      from: z.string(),
+      to: z.string(),
+      reference: z.string(),
+    }),
+  ),
 });
 export type SpecificationDraftView = z.infer<typeof specificationDraftViewSchema>;
 

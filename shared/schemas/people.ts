@@ -38,7 +38,11 @@ export const peoplePageSchema = z.object({
 });
 export type PeoplePage = z.infer<typeof peoplePageSchema>;
 
-export const reasonSchema = z.string().trim().min(3, 'Give a reason of at least 3 characters').max(1000, 'Keep the reason under 1000 characters');
+export const reasonSchema = z
+  .string()
+  .trim()
+  .min(3, 'Give a reason of at least 3 characters')
+  .max(1000, 'Keep the reason under 1000 characters');
 
 export const roleChangeSchema = z.object({
   roles: z.array(roleSchema).max(6),

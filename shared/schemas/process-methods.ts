@@ -37,12 +37,25 @@ export const processMethodViewSchema = z.object({
       min: z.string().optional(),
       max: z.string().optional(),
       text: z.boolean().optional(),
-      byContactCategory: z.array(z.object({ category: z.enum(contactCategories), max: z.string(), source: z.string() })).optional(),
+      byContactCategory: z
+        .array(z.object({ category: z.enum(contactCategories), max: z.string(), source: z.string() }))
+        .optional(),
       source: z.string(),
       confidence,
     }),
   ),
-  pairings: z.array(z.object({ label: z.string(), minC: z.string(), maxC: z.string(), minMinutes: z.string(), source: z.string(), confidence })).optional(),
+  pairings: z
+    .array(
+      z.object({
+        label: z.string(),
+        minC: z.string(),
+        maxC: z.string(),
+        minMinutes: z.string(),
+        source: z.string(),
+        confidence,
+      }),
+    )
+    .optional(),
   /** The firm's own validations that stand for this method (materials beyond its published scope). */
   firmValidations: z.array(firmMethodValidationSchema),
 });

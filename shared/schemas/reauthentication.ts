@@ -21,4 +21,6 @@ export const reauthenticationStatusSchema = z.object({
 });
 export type ReauthenticationStatus = z.infer<typeof reauthenticationStatusSchema>;
 
-export const reauthenticationIdSchema = z.object({ reauthenticationId: z.string().regex(/^[0-9a-f]{32}$/, 'Unknown re-authentication') });
+export const reauthenticationIdSchema = z.object({
+  reauthenticationId: z.string().regex(/^[0-9a-f]{32}$/, 'Unknown re-authentication'),
+});

@@ -21,9 +21,14 @@ export const recallListQuerySchema = z.object({
 });
 export type RecallListQuery = z.infer<typeof recallListQuerySchema>;
 
-export const drillReportFormatSchema = z.object({ format: z.enum(['json', 'csv', 'pdf'], { error: 'Ask for json, csv or pdf' }).default('json') });
+export const drillReportFormatSchema = z.object({
+  format: z.enum(['json', 'csv', 'pdf'], { error: 'Ask for json, csv or pdf' }).default('json'),
+});
 
-export const exportFormatSchema = z.object({ format: z.enum(['csv', 'pdf'], { error: 'Export as csv or pdf' }), snapshot: z.coerce.number().int().positive().max(4_294_967_295).optional() });
+export const exportFormatSchema = z.object({
+  format: z.enum(['csv', 'pdf'], { error: 'Export as csv or pdf' }),
+  snapshot: z.coerce.number().int().positive().max(4_294_967_295).optional(),
+});
 
 export interface RecallSummary {
   id: number;
@@ -89,7 +94,16 @@ export interface RecallRerun {
 
 /** A drill's report: its timing, the scope it last traced, and whether that scope can be trusted. */
 export interface DrillReport {
-  drill: { id: number; recallNumber: string; status: 'open' | 'closed'; trigger: string; reason: string; openedBy: string; openedAt: string; closedAt: string | null };
+  drill: {
+    id: number;
+    recallNumber: string;
+    status: 'open' | 'closed';
+    trigger: string;
+    reason: string;
+    openedBy: string;
+    openedAt: string;
+    closedAt: string | null;
+  };
   scope: { snapshot: RecallSnapshotMeta; lotsAddedSinceOpening: string[]; lotsRemovedSinceOpening: string[] };
   assessment: DrillAssessment;
   lots: Array<TracedLot & { heats: string[] }>;

@@ -3,11 +3,16 @@ import { z } from 'zod';
 export const labelMovementSchema = z
   .object({
     kind: z.enum(['print', 'void']),
-    qty: z.number({ error: 'A whole number of labels' }).int('A whole number of labels').min(1, 'At least one label').max(100_000),
+    qty: z
+      .number({ error: 'A whole number of labels' })
+      .int('A whole number of labels')
+      .min(1, 'At least one label')
+      .max(100_000),
     reason: z.string().trim().max(500).optional(),
   })
   .superRefine((movement, context) => {
-    if (movement.kind === 'void' && (!movement.reason || movement.reason.length < 3)) context.addIssue({ code: 'custom', message: 'Say why the labels are voided', path: ['reason'] });
+    if (movement.kind === 'void' && (!movement.reason || movement.reason.length < 3))
+      context.addIssue({ code: 'custom', message: 'Say why the labels are voided', path: ['reason'] });
   });
 export type LabelMovement = z.input<typeof labelMovementSchema>;
 

@@ -1,6 +1,12 @@
 import { z } from 'zod';
 
-export const findingKinds = ['identical-results', 'near-identical-results', 'bunched-at-limit', 'same-document', 'precision-change'] as const;
+export const findingKinds = [
+  'identical-results',
+  'near-identical-results',
+  'bunched-at-limit',
+  'same-document',
+  'precision-change',
+] as const;
 
 export const findingKindLabels: Record<(typeof findingKinds)[number], string> = {
   'identical-results': 'Identical results',
@@ -22,21 +28,29 @@ export const screeningFindingSchema = z.object({
 export type ScreeningFinding = z.infer<typeof screeningFindingSchema>;
 
 /** The findings that involve one heat, from screening all heats of its supplier and specification. */
-export const heatScreeningSchema = z.object({ heatsScreened: z.number().int(), findings: z.array(screeningFindingSchema) });
+export const heatScreeningSchema = z.object({
+  heatsScreened: z.number().int(),
+  findings: z.array(screeningFindingSchema),
+});
 export type HeatScreening = z.infer<typeof heatScreeningSchema>;
 
 /** Every specification and grade a supplier delivers, screened; each finding with its heats and their acknowledgement. */
 export const supplierScreeningSchema = z.object({
-  supplier: z.object({ id: z.number().int(), name: z.string(), country: z.string(), approval: z.enum(['approved', 'conditional', 'disqualified']) }),
+  supplier: z.object({
+    id: z.number().int(),
+    name: z.string(),
+    country: z.string(),
+    approval: z.enum(['approved', 'conditional', 'disqualified']),
+  }),
   groups: z.array(
     z.object({
       specId: z.string(),
       grade: z.string().nullable(),
       heatsScreened: z.number().int(),
       findings: z.array(
-        screeningFindingSchema
-          .omit({ heatNumbers: true, acknowledgement: true })
-          .extend({ heats: z.array(z.object({ id: z.number().int(), heatNumber: z.string(), acknowledged: z.boolean() })) }),
+        screeningFindingSchema.omit({ heatNumbers: true, acknowledgement: true }).extend({
+          heats: z.array(z.object({ id: z.number().int(), heatNumber: z.string(), acknowledged: z.boolean() })),
+        }),
       ),
     }),
   ),

@@ -57,4 +57,7 @@ export const signatureSchema = z.object({
 export type Signature = z.infer<typeof signatureSchema>;
 
 /** One record's signatures, or (without recordId) the newest 50 of a record type. */
-export const signatureListQuerySchema = z.object({ recordType: z.string().min(1).max(60), recordId: z.string().min(1).max(100).optional() });
+export const signatureListQuerySchema = z.object({
+  recordType: z.string().min(1).max(60),
+  recordId: z.string().min(1).max(100).optional(),
+});

@@ -12,7 +12,8 @@ export const auditKeys = {
 /** The query string for ledger filters (shared by the table, the CSV link and the history view). */
 export function ledgerSearchParams(query: Partial<LedgerQuery>): URLSearchParams {
   const params = new URLSearchParams();
-  for (const [key, value] of Object.entries(query)) if (value !== undefined && value !== '') params.set(key, String(value));
+  for (const [key, value] of Object.entries(query))
+    if (value !== undefined && value !== '') params.set(key, String(value));
   return params;
 }
 
@@ -24,7 +25,11 @@ export const ledgerEventsQuery = (query: LedgerQuery) =>
   });
 
 export const ledgerActionsQuery = () =>
-  queryOptions({ queryKey: auditKeys.actions(), queryFn: ({ signal }) => apiRequest('/audit/actions', ledgerActionsSchema, { signal }), staleTime: 60_000 });
+  queryOptions({
+    queryKey: auditKeys.actions(),
+    queryFn: ({ signal }) => apiRequest('/audit/actions', ledgerActionsSchema, { signal }),
+    staleTime: 60_000,
+  });
 
 export function runVerification() {
   return apiRequest('/audit/verification', verificationSchema);

@@ -39,9 +39,18 @@ export async function apiUpload<T>(path: string, field: string, file: File, sche
   body.append(field, file);
   let response: Response;
   try {
-    response = await fetch(`/api${path}`, { method: 'POST', body, headers: csrfToken ? { 'X-CSRF-Token': csrfToken, Accept: 'application/json' } : {}, credentials: 'same-origin' });
+    response = await fetch(`/api${path}`, {
+      method: 'POST',
+      body,
+      headers: csrfToken ? { 'X-CSRF-Token': csrfToken, Accept: 'application/json' } : {},
+      credentials: 'same-origin',
+    });
   } catch (error) {
-    throw new ApiError(0, 'NETWORK', `The server could not be reached (${error instanceof Error ? error.message : 'network error'})`);
+    throw new ApiError(
+      0,
+      'NETWORK',
+      `The server could not be reached (${error instanceof Error ? error.message : 'network error'})`,
+    );
   }
   return readResponse(response, schema);
 }
@@ -53,9 +62,17 @@ export async function apiUpload<T>(path: string, field: string, file: File, sche
 export async function apiDownload(path: string, fallbackName: string): Promise<void> {
   let response: Response;
   try {
-    response = await fetch(`/api${path}`, { method: 'POST', headers: csrfToken ? { 'X-CSRF-Token': csrfToken } : {}, credentials: 'same-origin' });
+    response = await fetch(`/api${path}`, {
+      method: 'POST',
+      headers: csrfToken ? { 'X-CSRF-Token': csrfToken } : {},
+      credentials: 'same-origin',
+    });
   } catch (error) {
-    throw new ApiError(0, 'NETWORK', `The server could not be reached (${error instanceof Error ? error.message : 'network error'})`);
+    throw new ApiError(
+      0,
+      'NETWORK',
+      `The server could not be reached (${error instanceof Error ? error.message : 'network error'})`,
+    );
   }
   if (!response.ok) await readResponse(response, errorResponseSchema);
   const name = /filename="?([^";]+)"?/.exec(response.headers.get('Content-Disposition') ?? '')?.[1] ?? fallbackName;
@@ -75,10 +92,15 @@ async function readResponse<T>(response: Response, schema: z.ZodType<T>): Promis
       const { code, message, fields } = parsed.data.error;
       throw new ApiError(response.status, code, message, fields);
     }
-    throw new ApiError(response.status, 'BAD_RESPONSE', `The server answered ${response.status} without an explanation`);
+    throw new ApiError(
+      response.status,
+      'BAD_RESPONSE',
+      `The server answered ${response.status} without an explanation`,
+    );
   }
   const result = schema.safeParse(payload);
-  if (!result.success) throw new ApiError(response.status, 'BAD_RESPONSE', 'The server sent data this screen does not understand');
+  if (!result.success)
+    throw new ApiError(response.status, 'BAD_RESPONSE', 'The server sent data this screen does not understand');
   return result.data;
 }
 
@@ -98,7 +120,11 @@ export async function apiRequest<T>(path: string, schema: z.ZodType<T>, options:
       signal: options.signal,
     });
   } catch (error) {
-    throw new ApiError(0, 'NETWORK', `The server could not be reached (${error instanceof Error ? error.message : 'network error'})`);
+    throw new ApiError(
+      0,
+      'NETWORK',
+      `The server could not be reached (${error instanceof Error ? error.message : 'network error'})`,
+    );
   }
   return readResponse(response, schema);
 }

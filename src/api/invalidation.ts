@@ -49,5 +49,8 @@ export async function invalidateAfter(queryClient: QueryClient, change: ChangeKi
 
 /** After a signature: its record type's change, and the signature lists of that type. */
 export async function invalidateAfterSignature(queryClient: QueryClient, recordType: string): Promise<void> {
-  await Promise.all([queryClient.invalidateQueries({ queryKey: signatureKeys.type(recordType) }), invalidateAfter(queryClient, changeOfRecordType[recordType] ?? 'manufacturing')]);
+  await Promise.all([
+    queryClient.invalidateQueries({ queryKey: signatureKeys.type(recordType) }),
+    invalidateAfter(queryClient, changeOfRecordType[recordType] ?? 'manufacturing'),
+  ]);
 }

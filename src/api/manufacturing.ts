@@ -23,7 +23,8 @@ import {
 } from '@shared/schemas/manufacturing';
 import { apiRequest, apiUpload, typed } from './http';
 
-const page = <T>() => z.object({ items: z.array(typed<T>()), total: z.number(), page: z.number(), pageSize: z.number() });
+const page = <T>() =>
+  z.object({ items: z.array(typed<T>()), total: z.number(), page: z.number(), pageSize: z.number() });
 
 export const manufacturingKeys = {
   all: ['manufacturing'] as const,
@@ -40,47 +41,109 @@ export const manufacturingKeys = {
 
 const search = (values: Record<string, string | number | undefined>) => {
   const params = new URLSearchParams();
-  for (const [key, value] of Object.entries(values)) if (value !== undefined && value !== '') params.set(key, String(value));
+  for (const [key, value] of Object.entries(values))
+    if (value !== undefined && value !== '') params.set(key, String(value));
   return params.toString();
 };
 
-export const partsQuery = () => queryOptions({ queryKey: manufacturingKeys.parts(), queryFn: ({ signal }) => apiRequest('/parts', z.array(partSchema), { signal }) });
+export const partsQuery = () =>
+  queryOptions({
+    queryKey: manufacturingKeys.parts(),
+    queryFn: ({ signal }) => apiRequest('/parts', z.array(partSchema), { signal }),
+  });
 export const lotsQuery = (query: LotListQuery) =>
-  queryOptions({ queryKey: manufacturingKeys.lots(query), queryFn: ({ signal }) => apiRequest(`/lots?${search({ ...query })}`, lotPageSchema, { signal }), placeholderData: keepPreviousData });
-export const lotQuery = (id: number) => queryOptions({ queryKey: manufacturingKeys.lot(id), queryFn: ({ signal }) => apiRequest(`/lots/${id}`, typed<LotDetail>(), { signal }) });
+  queryOptions({
+    queryKey: manufacturingKeys.lots(query),
+    queryFn: ({ signal }) => apiRequest(`/lots?${search({ ...query })}`, lotPageSchema, { signal }),
+    placeholderData: keepPreviousData,
+  });
+export const lotQuery = (id: number) =>
+  queryOptions({
+    queryKey: manufacturingKeys.lot(id),
+    queryFn: ({ signal }) => apiRequest(`/lots/${id}`, typed<LotDetail>(), { signal }),
+  });
 export const processRunsQuery = (query: ProcessRunListQuery) =>
-  queryOptions({ queryKey: manufacturingKeys.runs(query), queryFn: ({ signal }) => apiRequest(`/process-runs?${search({ ...query })}`, page<ProcessRunSummary>(), { signal }), placeholderData: keepPreviousData });
-export const processRunQuery = (id: number) => queryOptions({ queryKey: manufacturingKeys.run(id), queryFn: ({ signal }) => apiRequest(`/process-runs/${id}`, typed<ProcessRunDetail>(), { signal }) });
+  queryOptions({
+    queryKey: manufacturingKeys.runs(query),
+    queryFn: ({ signal }) => apiRequest(`/process-runs?${search({ ...query })}`, page<ProcessRunSummary>(), { signal }),
+    placeholderData: keepPreviousData,
+  });
+export const processRunQuery = (id: number) =>
+  queryOptions({
+    queryKey: manufacturingKeys.run(id),
+    queryFn: ({ signal }) => apiRequest(`/process-runs/${id}`, typed<ProcessRunDetail>(), { signal }),
+  });
 export const processMethodsQuery = () =>
-  queryOptions({ queryKey: manufacturingKeys.methods(), queryFn: ({ signal }) => apiRequest('/process-methods', z.array(processMethodViewSchema), { signal }) });
+  queryOptions({
+    queryKey: manufacturingKeys.methods(),
+    queryFn: ({ signal }) => apiRequest('/process-methods', z.array(processMethodViewSchema), { signal }),
+  });
 export const nonconformancesQuery = (query: NonconformanceListQuery) =>
   queryOptions({
     queryKey: manufacturingKeys.nonconformances(query),
-    queryFn: ({ signal }) => apiRequest(`/nonconformances?${search({ ...query })}`, page<NonconformanceSummary>(), { signal }),
+    queryFn: ({ signal }) =>
+      apiRequest(`/nonconformances?${search({ ...query })}`, page<NonconformanceSummary>(), { signal }),
     placeholderData: keepPreviousData,
   });
 export const nonconformanceQuery = (id: number) =>
-  queryOptions({ queryKey: manufacturingKeys.nonconformance(id), queryFn: ({ signal }) => apiRequest(`/nonconformances/${id}`, typed<NonconformanceSummary>(), { signal }) });
+  queryOptions({
+    queryKey: manufacturingKeys.nonconformance(id),
+    queryFn: ({ signal }) => apiRequest(`/nonconformances/${id}`, typed<NonconformanceSummary>(), { signal }),
+  });
 export const consigneesQuery = () =>
   queryOptions({
     queryKey: manufacturingKeys.consignees(),
-    queryFn: ({ signal }) => apiRequest('/consignees', z.array(typed<{ id: number; name: string; kind: string; country: string; shipments: number }>()), { signal }),
+    queryFn: ({ signal }) =>
+      apiRequest(
+        '/consignees',
+        z.array(typed<{ id: number; name: string; kind: string; country: string; shipments: number }>()),
+        { signal },
+      ),
   });
 
 export const recordMethodValidation = (methodId: string, input: MethodValidationInput) =>
-  apiRequest(`/process-methods/${encodeURIComponent(methodId)}/validations`, processMethodViewSchema, { method: 'POST', body: input });
+  apiRequest(`/process-methods/${encodeURIComponent(methodId)}/validations`, processMethodViewSchema, {
+    method: 'POST',
+    body: input,
+  });
 export const createPart = (part: PartCreate) => apiRequest('/parts', partSchema, { method: 'POST', body: part });
 export const openLot = (lot: LotOpen) => apiRequest('/lots', lotSummarySchema, { method: 'POST', body: lot });
-export const issueMaterial = (lotId: number, movement: MaterialMovementInput) => apiRequest(`/lots/${lotId}/material-issues`, typed<{ tag: string; heatNumber: string }>(), { method: 'POST', body: movement });
-export const returnMaterial = (lotId: number, movement: MaterialMovementInput) => apiRequest(`/lots/${lotId}/material-returns`, typed<{ tag: string }>(), { method: 'POST', body: movement });
+export const issueMaterial = (lotId: number, movement: MaterialMovementInput) =>
+  apiRequest(`/lots/${lotId}/material-issues`, typed<{ tag: string; heatNumber: string }>(), {
+    method: 'POST',
+    body: movement,
+  });
+export const returnMaterial = (lotId: number, movement: MaterialMovementInput) =>
+  apiRequest(`/lots/${lotId}/material-returns`, typed<{ tag: string }>(), { method: 'POST', body: movement });
 export const recordOperation = (lotId: number, operation: OperationInput) =>
-  apiRequest(`/lots/${lotId}/operations`, typed<{ id: number; verdict: string | null; why: string | null }>(), { method: 'POST', body: operation });
-export const splitLot = (lotId: number, split: SplitInput) => apiRequest(`/lots/${lotId}/splits`, typed<{ children: Array<{ id: number; lotNumber: string; qty: number }> }>(), { method: 'POST', body: split });
-export const mergeLots = (merge: MergeInput) => apiRequest('/lots/merges', typed<{ id: number; lotNumber: string }>(), { method: 'POST', body: merge });
-export const shipLot = (lotId: number, shipment: ShipmentInput) => apiRequest(`/lots/${lotId}/shipments`, typed<{ id: number }>(), { method: 'POST', body: shipment });
-export const recordProcessRun = (run: ProcessRunInput) => apiRequest('/process-runs', typed<ProcessRunDetail>(), { method: 'POST', body: run });
-export const raiseNonconformance = (nc: NonconformanceInput) => apiRequest('/nonconformances', typed<NonconformanceSummary>(), { method: 'POST', body: nc });
-export const proposeDisposition = (id: number, disposition: DispositionInput) => apiRequest(`/nonconformances/${id}/disposition`, typed<NonconformanceSummary>(), { method: 'PUT', body: disposition });
-export const createConsignee = (consignee: ConsigneeInput) => apiRequest('/consignees', typed<{ id: number }>(), { method: 'POST', body: consignee });
+  apiRequest(`/lots/${lotId}/operations`, typed<{ id: number; verdict: string | null; why: string | null }>(), {
+    method: 'POST',
+    body: operation,
+  });
+export const splitLot = (lotId: number, split: SplitInput) =>
+  apiRequest(`/lots/${lotId}/splits`, typed<{ children: Array<{ id: number; lotNumber: string; qty: number }> }>(), {
+    method: 'POST',
+    body: split,
+  });
+export const mergeLots = (merge: MergeInput) =>
+  apiRequest('/lots/merges', typed<{ id: number; lotNumber: string }>(), { method: 'POST', body: merge });
+export const shipLot = (lotId: number, shipment: ShipmentInput) =>
+  apiRequest(`/lots/${lotId}/shipments`, typed<{ id: number }>(), { method: 'POST', body: shipment });
+export const recordProcessRun = (run: ProcessRunInput) =>
+  apiRequest('/process-runs', typed<ProcessRunDetail>(), { method: 'POST', body: run });
+export const raiseNonconformance = (nc: NonconformanceInput) =>
+  apiRequest('/nonconformances', typed<NonconformanceSummary>(), { method: 'POST', body: nc });
+export const proposeDisposition = (id: number, disposition: DispositionInput) =>
+  apiRequest(`/nonconformances/${id}/disposition`, typed<NonconformanceSummary>(), {
+    method: 'PUT',
+    body: disposition,
+  });
+export const createConsignee = (consignee: ConsigneeInput) =>
+  apiRequest('/consignees', typed<{ id: number }>(), { method: 'POST', body: consignee });
 export const attachOperationFile = (lotId: number, operationId: number, file: File) =>
-  apiUpload(`/lots/${lotId}/operations/${operationId}/files`, 'file', file, typed<{ documentId: number; name: string; sha256: string }>());
+  apiUpload(
+    `/lots/${lotId}/operations/${operationId}/files`,
+    'file',
+    file,
+    typed<{ documentId: number; name: string; sha256: string }>(),
+  );

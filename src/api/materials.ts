@@ -1,10 +1,36 @@
 import { keepPreviousData, queryOptions } from '@tanstack/vue-query';
 import { z } from 'zod';
 import type { Specification } from '@shared/domain/materials/specification';
-import { heatDetailSchema, heatPageSchema, heatSummarySchema, resultsImportReportSchema, specificationDraftViewSchema, type SpecificationDraftInput, supplierApprovalSchema, supplierCreateSchema, supplierSchema, trendSchema, type ResultsImport, type HeatCreate, type HeatListQuery, type HeatResults, type TrendQuery } from '@shared/schemas/materials';
+import {
+  heatDetailSchema,
+  heatPageSchema,
+  heatSummarySchema,
+  resultsImportReportSchema,
+  specificationDraftViewSchema,
+  type SpecificationDraftInput,
+  supplierApprovalSchema,
+  supplierCreateSchema,
+  supplierSchema,
+  trendSchema,
+  type ResultsImport,
+  type HeatCreate,
+  type HeatListQuery,
+  type HeatResults,
+  type TrendQuery,
+} from '@shared/schemas/materials';
 import { apiRequest, apiUpload } from './http';
-import { heatScreeningSchema, supplierScreeningSchema, type ScreeningAcknowledgementInput } from '@shared/schemas/screening';
-import { checkRuleSchema, heatAwaitingCheckSchema, heatCheckAnalysisSchema, type CheckAnalysisInput, type CheckRuleInput } from '@shared/schemas/check-analysis';
+import {
+  heatScreeningSchema,
+  supplierScreeningSchema,
+  type ScreeningAcknowledgementInput,
+} from '@shared/schemas/screening';
+import {
+  checkRuleSchema,
+  heatAwaitingCheckSchema,
+  heatCheckAnalysisSchema,
+  type CheckAnalysisInput,
+  type CheckRuleInput,
+} from '@shared/schemas/check-analysis';
 
 export const materialKeys = {
   all: ['materials'] as const,
@@ -30,44 +56,93 @@ export const heatsQuery = (query: HeatListQuery) =>
     placeholderData: keepPreviousData,
   });
 
-export const heatQuery = (id: number) => queryOptions({ queryKey: materialKeys.heat(id), queryFn: ({ signal }) => apiRequest(`/heats/${id}`, heatDetailSchema, { signal }) });
+export const heatQuery = (id: number) =>
+  queryOptions({
+    queryKey: materialKeys.heat(id),
+    queryFn: ({ signal }) => apiRequest(`/heats/${id}`, heatDetailSchema, { signal }),
+  });
 
-export const suppliersQuery = () => queryOptions({ queryKey: materialKeys.suppliers(), queryFn: ({ signal }) => apiRequest('/suppliers', z.array(supplierSchema), { signal }) });
+export const suppliersQuery = () =>
+  queryOptions({
+    queryKey: materialKeys.suppliers(),
+    queryFn: ({ signal }) => apiRequest('/suppliers', z.array(supplierSchema), { signal }),
+  });
 
-const specificationsSchema = z.object({ caution: z.string(), specifications: z.array(z.custom<Specification>((value) => typeof value === 'object' && value !== null && 'id' in value)) });
+const specificationsSchema = z.object({
+  caution: z.string(),
+  specifications: z.array(
+    z.custom<Specification>((value) => typeof value === 'object' && value !== null && 'id' in value),
+  ),
+});
 export const specificationsQuery = () =>
-  queryOptions({ queryKey: materialKeys.specifications(), queryFn: ({ signal }) => apiRequest('/specifications', specificationsSchema, { signal }), staleTime: 5 * 60_000 });
+  queryOptions({
+    queryKey: materialKeys.specifications(),
+    queryFn: ({ signal }) => apiRequest('/specifications', specificationsSchema, { signal }),
+    staleTime: 5 * 60_000,
+  });
 
-export const createSupplier = (input: z.input<typeof supplierCreateSchema>) => apiRequest('/suppliers', supplierSchema, { method: 'POST', body: input });
-export const changeSupplierApproval = (supplierId: number, input: z.input<typeof supplierApprovalSchema>) => apiRequest(`/suppliers/${supplierId}/approval`, supplierSchema, { method: 'PUT', body: input });
-export const receiveHeat = (heat: HeatCreate) => apiRequest('/heats', heatSummarySchema, { method: 'POST', body: heat });
-export const recordHeatResults = (heatId: number, results: HeatResults) => apiRequest(`/heats/${heatId}/results`, heatDetailSchema, { method: 'PUT', body: results });
-const attachedSchema = z.object({ documentId: z.number(), sha256: z.string(), storedNow: z.boolean(), alsoOnHeats: z.array(z.string()) });
+export const createSupplier = (input: z.input<typeof supplierCreateSchema>) =>
+  apiRequest('/suppliers', supplierSchema, { method: 'POST', body: input });
+export const changeSupplierApproval = (supplierId: number, input: z.input<typeof supplierApprovalSchema>) =>
+  apiRequest(`/suppliers/${supplierId}/approval`, supplierSchema, { method: 'PUT', body: input });
+export const receiveHeat = (heat: HeatCreate) =>
+  apiRequest('/heats', heatSummarySchema, { method: 'POST', body: heat });
+export const recordHeatResults = (heatId: number, results: HeatResults) =>
+  apiRequest(`/heats/${heatId}/results`, heatDetailSchema, { method: 'PUT', body: results });
+const attachedSchema = z.object({
+  documentId: z.number(),
+  sha256: z.string(),
+  storedNow: z.boolean(),
+  alsoOnHeats: z.array(z.string()),
+});
 export const supplierScreeningQuery = (supplierId: number) =>
-  queryOptions({ queryKey: [...materialKeys.suppliers(), supplierId, 'screening'], queryFn: ({ signal }) => apiRequest(`/suppliers/${supplierId}/screening`, supplierScreeningSchema, { signal }) });
+  queryOptions({
+    queryKey: [...materialKeys.suppliers(), supplierId, 'screening'],
+    queryFn: ({ signal }) => apiRequest(`/suppliers/${supplierId}/screening`, supplierScreeningSchema, { signal }),
+  });
 export const acknowledgeScreeningFinding = (heatId: number, input: ScreeningAcknowledgementInput) =>
   apiRequest(`/heats/${heatId}/screening-acknowledgements`, heatScreeningSchema, { method: 'POST', body: input });
-export const uploadCertificate = (heatId: number, file: File) => apiUpload(`/heats/${heatId}/certificates`, 'certificate', file, attachedSchema);
+export const uploadCertificate = (heatId: number, file: File) =>
+  apiUpload(`/heats/${heatId}/certificates`, 'certificate', file, attachedSchema);
 
 export const trendQuery = (query: TrendQuery) =>
   queryOptions({
     queryKey: materialKeys.trend(query),
     queryFn: ({ signal }) => {
-      const params = new URLSearchParams({ supplierId: String(query.supplierId), specId: query.specId, element: query.element });
+      const params = new URLSearchParams({
+        supplierId: String(query.supplierId),
+        specId: query.specId,
+        element: query.element,
+      });
       if (query.grade) params.set('grade', query.grade);
       return apiRequest(`/trends?${params}`, trendSchema, { signal });
     },
   });
 
-export const importResults = (request: ResultsImport) => apiRequest('/heat-results/imports', resultsImportReportSchema, { method: 'POST', body: request });
+export const importResults = (request: ResultsImport) =>
+  apiRequest('/heat-results/imports', resultsImportReportSchema, { method: 'POST', body: request });
 
 export const specificationDraftsQuery = () =>
-  queryOptions({ queryKey: materialKeys.drafts(), queryFn: ({ signal }) => apiRequest('/specification-drafts', z.array(specificationDraftViewSchema), { signal }) });
-export const draftSpecificationRevision = (draft: SpecificationDraftInput) => apiRequest('/specification-drafts', specificationDraftViewSchema, { method: 'POST', body: draft });
+  queryOptions({
+    queryKey: materialKeys.drafts(),
+    queryFn: ({ signal }) => apiRequest('/specification-drafts', z.array(specificationDraftViewSchema), { signal }),
+  });
+export const draftSpecificationRevision = (draft: SpecificationDraftInput) =>
+  apiRequest('/specification-drafts', specificationDraftViewSchema, { method: 'POST', body: draft });
 
 const checkRulesSchema = z.object({ rules: z.array(checkRuleSchema) });
-export const checkRulesQuery = () => queryOptions({ queryKey: materialKeys.checkRules(), queryFn: ({ signal }) => apiRequest('/check-analysis-rules', checkRulesSchema, { signal }) });
-export const setCheckRule = (input: CheckRuleInput) => apiRequest('/check-analysis-rules', checkRulesSchema, { method: 'POST', body: input });
+export const checkRulesQuery = () =>
+  queryOptions({
+    queryKey: materialKeys.checkRules(),
+    queryFn: ({ signal }) => apiRequest('/check-analysis-rules', checkRulesSchema, { signal }),
+  });
+export const setCheckRule = (input: CheckRuleInput) =>
+  apiRequest('/check-analysis-rules', checkRulesSchema, { method: 'POST', body: input });
 export const checksDueQuery = () =>
-  queryOptions({ queryKey: materialKeys.checksDue(), queryFn: ({ signal }) => apiRequest('/check-analyses/due', z.object({ heats: z.array(heatAwaitingCheckSchema) }), { signal }) });
-export const recordCheckAnalysis = (heatId: number, input: CheckAnalysisInput) => apiRequest(`/heats/${heatId}/check-analyses`, heatCheckAnalysisSchema, { method: 'POST', body: input });
+  queryOptions({
+    queryKey: materialKeys.checksDue(),
+    queryFn: ({ signal }) =>
+      apiRequest('/check-analyses/due', z.object({ heats: z.array(heatAwaitingCheckSchema) }), { signal }),
+  });
+export const recordCheckAnalysis = (heatId: number, input: CheckAnalysisInput) =>
+  apiRequest(`/heats/${heatId}/check-analyses`, heatCheckAnalysisSchema, { method: 'POST', body: input });

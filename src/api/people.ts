@@ -1,5 +1,13 @@
 import { keepPreviousData, queryOptions } from '@tanstack/vue-query';
-import { peoplePageSchema, peopleSettingsSchema, personSchema, roleChangeOutcomeSchema, type ActivationChange, type PeopleQuery, type RoleChange } from '@shared/schemas/people';
+import {
+  peoplePageSchema,
+  peopleSettingsSchema,
+  personSchema,
+  roleChangeOutcomeSchema,
+  type ActivationChange,
+  type PeopleQuery,
+  type RoleChange,
+} from '@shared/schemas/people';
 import { apiRequest } from './http';
 
 export const peopleKeys = {
@@ -8,13 +16,21 @@ export const peopleKeys = {
   settings: () => [...peopleKeys.all, 'settings'] as const,
 };
 
-export const peopleSettingsQuery = () => queryOptions({ queryKey: peopleKeys.settings(), queryFn: ({ signal }) => apiRequest('/people/settings', peopleSettingsSchema, { signal }) });
+export const peopleSettingsQuery = () =>
+  queryOptions({
+    queryKey: peopleKeys.settings(),
+    queryFn: ({ signal }) => apiRequest('/people/settings', peopleSettingsSchema, { signal }),
+  });
 
 export const peopleListQuery = (query: PeopleQuery) =>
   queryOptions({
     queryKey: peopleKeys.list(query),
     queryFn: ({ signal }) => {
-      const params = new URLSearchParams({ page: String(query.page), pageSize: String(query.pageSize), status: query.status });
+      const params = new URLSearchParams({
+        page: String(query.page),
+        pageSize: String(query.pageSize),
+        status: query.status,
+      });
       if (query.search) params.set('search', query.search);
       return apiRequest(`/people?${params}`, peoplePageSchema, { signal });
     },

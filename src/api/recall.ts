@@ -1,6 +1,13 @@
 import { keepPreviousData, queryOptions } from '@tanstack/vue-query';
 import { z } from 'zod';
-import type { DrillReport, OpenRecallInput, RecallDetail, RecallListQuery, RecallRerun, RecallSummary } from '@shared/schemas/recall';
+import type {
+  DrillReport,
+  OpenRecallInput,
+  RecallDetail,
+  RecallListQuery,
+  RecallRerun,
+  RecallSummary,
+} from '@shared/schemas/recall';
 import { apiRequest, typed } from './http';
 
 export const recallKeys = {
@@ -14,17 +21,36 @@ export const recallListQuery = (query: RecallListQuery) =>
   queryOptions({
     queryKey: recallKeys.list(query),
     queryFn: ({ signal }) =>
-      apiRequest(`/recalls?${new URLSearchParams(Object.entries(query).filter(([, value]) => value !== undefined).map(([key, value]) => [key, String(value)]))}`, z.object({ items: z.array(typed<RecallSummary>()), total: z.number(), page: z.number(), pageSize: z.number() }), { signal }),
+      apiRequest(
+        `/recalls?${new URLSearchParams(
+          Object.entries(query)
+            .filter(([, value]) => value !== undefined)
+            .map(([key, value]) => [key, String(value)]),
+        )}`,
+        z.object({ items: z.array(typed<RecallSummary>()), total: z.number(), page: z.number(), pageSize: z.number() }),
+        { signal },
+      ),
     placeholderData: keepPreviousData,
   });
 
-export const recallQuery = (id: number) => queryOptions({ queryKey: recallKeys.one(id), queryFn: ({ signal }) => apiRequest(`/recalls/${id}`, typed<RecallDetail>(), { signal }) });
+export const recallQuery = (id: number) =>
+  queryOptions({
+    queryKey: recallKeys.one(id),
+    queryFn: ({ signal }) => apiRequest(`/recalls/${id}`, typed<RecallDetail>(), { signal }),
+  });
 
-export const openRecall = (input: OpenRecallInput) => apiRequest('/recalls', typed<RecallDetail>(), { method: 'POST', body: input });
-export const rerunRecall = (id: number) => apiRequest(`/recalls/${id}/reruns`, typed<RecallRerun>(), { method: 'POST', body: {} });
+export const openRecall = (input: OpenRecallInput) =>
+  apiRequest('/recalls', typed<RecallDetail>(), { method: 'POST', body: input });
+export const rerunRecall = (id: number) =>
+  apiRequest(`/recalls/${id}/reruns`, typed<RecallRerun>(), { method: 'POST', body: {} });
 
 /** Where the browser downloads an export of a snapshot (the server records each export in the ledger). */
-export const recallExportUrl = (id: number, format: 'csv' | 'pdf', snapshotId?: number) => `/api/recalls/${id}/export?format=${format}${snapshotId ? `&snapshot=${snapshotId}` : ''}`;
+export const recallExportUrl = (id: number, format: 'csv' | 'pdf', snapshotId?: number) =>
+  `/api/recalls/${id}/export?format=${format}${snapshotId ? `&snapshot=${snapshotId}` : ''}`;
 
-export const drillReportQuery = (id: number) => queryOptions({ queryKey: recallKeys.drillReport(id), queryFn: ({ signal }) => apiRequest(`/recalls/${id}/drill-report`, typed<DrillReport>(), { signal }) });
+export const drillReportQuery = (id: number) =>
+  queryOptions({
+    queryKey: recallKeys.drillReport(id),
+    queryFn: ({ signal }) => apiRequest(`/recalls/${id}/drill-report`, typed<DrillReport>(), { signal }),
+  });
 export const drillReportUrl = (id: number, format: 'csv' | 'pdf') => `/api/recalls/${id}/drill-report?format=${format}`;

@@ -1,6 +1,11 @@
 import { keepPreviousData, queryOptions } from '@tanstack/vue-query';
 import type { Readiness } from '@shared/domain/release/readiness';
-import { releaseQueuePageSchema, type AuditTrail, type LabelMovement, type ReleaseQueueQuery } from '@shared/schemas/release';
+import {
+  releaseQueuePageSchema,
+  type AuditTrail,
+  type LabelMovement,
+  type ReleaseQueueQuery,
+} from '@shared/schemas/release';
 import { apiRequest, typed } from './http';
 
 export interface ReleaseView {
@@ -10,12 +15,16 @@ export interface ReleaseView {
   readiness: Readiness;
   dossier: Record<string, unknown>;
   dossierHash: string;
-  submissions: Array<{ id: number; submittedAt: string; submittedBy: string; outcome: string; changedSinceSubmission: boolean }>;
+  submissions: Array<{
+    id: number;
+    submittedAt: string;
+    submittedBy: string;
+    outcome: string;
+    changedSinceSubmission: boolean;
+  }>;
   reviewedCurrent: boolean;
   auditTrail: AuditTrail;
 }
-
-
 
 export const releaseKeys = {
   all: ['release'] as const,
@@ -23,12 +32,23 @@ export const releaseKeys = {
   queue: (query: ReleaseQueueQuery) => [...releaseKeys.all, 'queue', query] as const,
 };
 
-export const releaseViewQuery = (lotId: number) => queryOptions({ queryKey: releaseKeys.lot(lotId), queryFn: ({ signal }) => apiRequest(`/lots/${lotId}/release`, typed<ReleaseView>(), { signal }) });
+export const releaseViewQuery = (lotId: number) =>
+  queryOptions({
+    queryKey: releaseKeys.lot(lotId),
+    queryFn: ({ signal }) => apiRequest(`/lots/${lotId}/release`, typed<ReleaseView>(), { signal }),
+  });
 export const releaseQueueQuery = (query: ReleaseQueueQuery) =>
   queryOptions({
     queryKey: releaseKeys.queue(query),
-    queryFn: ({ signal }) => apiRequest(`/release-queue?queue=${query.queue}&page=${query.page}&pageSize=${query.pageSize}`, releaseQueuePageSchema, { signal }),
+    queryFn: ({ signal }) =>
+      apiRequest(
+        `/release-queue?queue=${query.queue}&page=${query.page}&pageSize=${query.pageSize}`,
+        releaseQueuePageSchema,
+        { signal },
+      ),
     placeholderData: keepPreviousData,
   });
-export const submitForRelease = (lotId: number) => apiRequest(`/lots/${lotId}/release-submissions`, typed<{ status: string }>(), { method: 'POST', body: {} });
-export const recordLabels = (lotId: number, movement: LabelMovement) => apiRequest(`/lots/${lotId}/labels`, typed<{ netLabels: number }>(), { method: 'POST', body: movement });
+export const submitForRelease = (lotId: number) =>
+  apiRequest(`/lots/${lotId}/release-submissions`, typed<{ status: string }>(), { method: 'POST', body: {} });
+export const recordLabels = (lotId: number, movement: LabelMovement) =>
+  apiRequest(`/lots/${lotId}/labels`, typed<{ netLabels: number }>(), { method: 'POST', body: movement });

@@ -1,13 +1,19 @@
 import { queryOptions } from '@tanstack/vue-query';
 import { z } from 'zod';
 import { reauthenticationStatusSchema } from '@shared/schemas/reauthentication';
-import { signaturePreparationSchema, signatureSchema, type SignatureIntent, type SignatureRequest } from '@shared/schemas/signatures';
+import {
+  signaturePreparationSchema,
+  signatureSchema,
+  type SignatureIntent,
+  type SignatureRequest,
+} from '@shared/schemas/signatures';
 import { apiRequest } from './http';
 
 export const signatureKeys = {
   all: ['signatures'] as const,
   type: (recordType: string) => [...signatureKeys.all, recordType] as const,
-  record: (recordType: string, recordId?: string) => [...signatureKeys.type(recordType), recordId ?? '(newest)'] as const,
+  record: (recordType: string, recordId?: string) =>
+    [...signatureKeys.type(recordType), recordId ?? '(newest)'] as const,
 };
 
 /** One record's signatures, or without recordId the newest signatures of the record type. */
@@ -15,7 +21,11 @@ export const recordSignaturesQuery = (recordType: string, recordId?: string) =>
   queryOptions({
     queryKey: signatureKeys.record(recordType, recordId),
     queryFn: ({ signal }) =>
-      apiRequest(`/signatures?${new URLSearchParams(recordId ? { recordType, recordId } : { recordType })}`, z.array(signatureSchema), { signal }),
+      apiRequest(
+        `/signatures?${new URLSearchParams(recordId ? { recordType, recordId } : { recordType })}`,
+        z.array(signatureSchema),
+        { signal },
+      ),
   });
 
 export function prepareSignature(intent: SignatureIntent) {
@@ -23,7 +33,10 @@ export function prepareSignature(intent: SignatureIntent) {
 }
 
 export function startReauthentication(purpose: string, bindingHash: string) {
-  return apiRequest('/reauthentications', reauthenticationStatusSchema, { method: 'POST', body: { purpose, bindingHash, returnTo: '/reauthentication-complete' } });
+  return apiRequest('/reauthentications', reauthenticationStatusSchema, {
+    method: 'POST',
+    body: { purpose, bindingHash, returnTo: '/reauthentication-complete' },
+  });
 }
 
 export function reauthenticationStatus(id: string) {

@@ -3,11 +3,13 @@ import type { GenealogyGraph } from '@shared/domain/trace/genealogy-graph';
 import { traceStartsSchema, type BackwardTrace, type ForwardTrace } from '@shared/schemas/trace';
 import { apiRequest, typed } from './http';
 
-
 export const backwardTraceQuery = (start: { udi?: string; lot?: string; tag?: string } | null) =>
   queryOptions({
     queryKey: ['trace', 'backward', start] as const,
-    queryFn: ({ signal }) => apiRequest(`/trace/backward?${new URLSearchParams(start as Record<string, string>)}`, typed<BackwardTrace>(), { signal }),
+    queryFn: ({ signal }) =>
+      apiRequest(`/trace/backward?${new URLSearchParams(start as Record<string, string>)}`, typed<BackwardTrace>(), {
+        signal,
+      }),
     enabled: Boolean(start),
     retry: false,
   });
@@ -15,7 +17,8 @@ export const backwardTraceQuery = (start: { udi?: string; lot?: string; tag?: st
 export const forwardTraceQuery = (start: Record<string, string> | null) =>
   queryOptions({
     queryKey: ['trace', 'forward', start] as const,
-    queryFn: ({ signal }) => apiRequest(`/trace/forward?${new URLSearchParams(start ?? {})}`, typed<ForwardTrace>(), { signal }),
+    queryFn: ({ signal }) =>
+      apiRequest(`/trace/forward?${new URLSearchParams(start ?? {})}`, typed<ForwardTrace>(), { signal }),
     enabled: Boolean(start),
     retry: false,
   });
@@ -24,7 +27,8 @@ export const forwardTraceQuery = (start: Record<string, string> | null) =>
 export const traceStartsQuery = (text: string) =>
   queryOptions({
     queryKey: ['trace', 'starts', text] as const,
-    queryFn: ({ signal }) => apiRequest(`/trace/starts?${new URLSearchParams({ q: text })}`, traceStartsSchema, { signal }),
+    queryFn: ({ signal }) =>
+      apiRequest(`/trace/starts?${new URLSearchParams({ q: text })}`, traceStartsSchema, { signal }),
     enabled: text.trim().length > 0,
     staleTime: 30_000,
   });
@@ -35,7 +39,8 @@ export type GraphReply = GenealogyGraph & { start: string; lots: number; tooLarg
 export const traceGraphQuery = (direction: 'backward' | 'forward', start: Record<string, string> | null) =>
   queryOptions({
     queryKey: ['trace', direction, 'graph', start] as const,
-    queryFn: ({ signal }) => apiRequest(`/trace/${direction}/graph?${new URLSearchParams(start ?? {})}`, typed<GraphReply>(), { signal }),
+    queryFn: ({ signal }) =>
+      apiRequest(`/trace/${direction}/graph?${new URLSearchParams(start ?? {})}`, typed<GraphReply>(), { signal }),
     enabled: Boolean(start),
     retry: false,
   });

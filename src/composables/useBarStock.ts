@@ -10,10 +10,16 @@ export const useBarCutAllowance = () => useQuery(barCutAllowanceQuery());
 
 export function useReceiveBar() {
   const queryClient = useQueryClient();
-  return useMutation({ mutationFn: (receipt: BarReceipt) => receiveBar(receipt), onSuccess: () => invalidateAfter(queryClient, 'bar-stock') });
+  return useMutation({
+    mutationFn: (receipt: BarReceipt) => receiveBar(receipt),
+    onSuccess: () => invalidateAfter(queryClient, 'bar-stock'),
+  });
 }
 
 export function useCutBar(id: Ref<number>) {
   const queryClient = useQueryClient();
-  return useMutation({ mutationFn: (cut: BarCut) => cutBar(id.value, cut), onSuccess: () => invalidateAfter(queryClient, 'bar-stock') });
+  return useMutation({
+    mutationFn: (cut: BarCut) => cutBar(id.value, cut),
+    onSuccess: () => invalidateAfter(queryClient, 'bar-stock'),
+  });
 }

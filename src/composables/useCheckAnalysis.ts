@@ -10,7 +10,10 @@ export const useChecksDue = () => useQuery(checksDueQuery());
 /** A rule changes which heats are due everywhere: every heat and list is read again. */
 export function useSetCheckRule() {
   const queryClient = useQueryClient();
-  return useMutation({ mutationFn: (input: CheckRuleInput) => setCheckRule(input), onSuccess: () => invalidateAfter(queryClient, 'materials') });
+  return useMutation({
+    mutationFn: (input: CheckRuleInput) => setCheckRule(input),
+    onSuccess: () => invalidateAfter(queryClient, 'materials'),
+  });
 }
 
 export function useRecordCheckAnalysis(heatId: Ref<number>) {

@@ -2,13 +2,38 @@ import { computed, type Ref } from 'vue';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/vue-query';
 import { invalidateAfter } from '../api/invalidation';
 import type { ScreeningAcknowledgementInput } from '@shared/schemas/screening';
-import type { HeatCreate, HeatListQuery, HeatResults, ResultsImport, SpecificationDraftInput, TrendQuery } from '@shared/schemas/materials';
-import { changeSupplierApproval, createSupplier, acknowledgeScreeningFinding, draftSpecificationRevision, heatQuery, heatsQuery, importResults, materialKeys, specificationDraftsQuery, receiveHeat, recordHeatResults, specificationsQuery, supplierScreeningQuery, suppliersQuery, trendQuery, uploadCertificate } from '../api/materials';
+import type {
+  HeatCreate,
+  HeatListQuery,
+  HeatResults,
+  ResultsImport,
+  SpecificationDraftInput,
+  TrendQuery,
+} from '@shared/schemas/materials';
+import {
+  changeSupplierApproval,
+  createSupplier,
+  acknowledgeScreeningFinding,
+  draftSpecificationRevision,
+  heatQuery,
+  heatsQuery,
+  importResults,
+  materialKeys,
+  specificationDraftsQuery,
+  receiveHeat,
+  recordHeatResults,
+  specificationsQuery,
+  supplierScreeningQuery,
+  suppliersQuery,
+  trendQuery,
+  uploadCertificate,
+} from '../api/materials';
 
 export const useHeats = (query: Ref<HeatListQuery>) => useQuery(computed(() => heatsQuery(query.value)));
 export const useHeat = (id: Ref<number>) => useQuery(computed(() => heatQuery(id.value)));
 export const useSuppliers = () => useQuery(suppliersQuery());
-export const useSupplierScreening = (supplierId: Ref<number>) => useQuery(computed(() => supplierScreeningQuery(supplierId.value)));
+export const useSupplierScreening = (supplierId: Ref<number>) =>
+  useQuery(computed(() => supplierScreeningQuery(supplierId.value)));
 export const useSpecifications = () => useQuery(specificationsQuery());
 
 export function useCreateSupplier() {
@@ -19,14 +44,18 @@ export function useCreateSupplier() {
 export function useChangeSupplierApproval(supplierId: Ref<number>) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (input: Parameters<typeof changeSupplierApproval>[1]) => changeSupplierApproval(supplierId.value, input),
+    mutationFn: (input: Parameters<typeof changeSupplierApproval>[1]) =>
+      changeSupplierApproval(supplierId.value, input),
     onSuccess: () => invalidateAfter(queryClient, 'materials'),
   });
 }
 
 export function useReceiveHeat() {
   const queryClient = useQueryClient();
-  return useMutation({ mutationFn: (heat: HeatCreate) => receiveHeat(heat), onSuccess: () => invalidateAfter(queryClient, 'materials') });
+  return useMutation({
+    mutationFn: (heat: HeatCreate) => receiveHeat(heat),
+    onSuccess: () => invalidateAfter(queryClient, 'materials'),
+  });
 }
 
 export function useRecordHeatResults(heatId: Ref<number>) {
@@ -42,7 +71,10 @@ export function useRecordHeatResults(heatId: Ref<number>) {
 
 export function useUploadCertificate(heatId: Ref<number>) {
   const queryClient = useQueryClient();
-  return useMutation({ mutationFn: (file: File) => uploadCertificate(heatId.value, file), onSuccess: () => invalidateAfter(queryClient, 'materials') });
+  return useMutation({
+    mutationFn: (file: File) => uploadCertificate(heatId.value, file),
+    onSuccess: () => invalidateAfter(queryClient, 'materials'),
+  });
 }
 
 export function useAcknowledgeFinding(heatId: Ref<number>) {
@@ -54,7 +86,12 @@ export function useAcknowledgeFinding(heatId: Ref<number>) {
 }
 
 export const useTrend = (query: Ref<TrendQuery | null>) =>
-  useQuery(computed(() => ({ ...trendQuery(query.value ?? { supplierId: 0, specId: '', element: '' }), enabled: query.value !== null })));
+  useQuery(
+    computed(() => ({
+      ...trendQuery(query.value ?? { supplierId: 0, specId: '', element: '' }),
+      enabled: query.value !== null,
+    })),
+  );
 
 export function useImportResults() {
   const queryClient = useQueryClient();
@@ -68,5 +105,8 @@ export const useSpecificationDrafts = () => useQuery(specificationDraftsQuery())
 
 export function useDraftSpecificationRevision() {
   const queryClient = useQueryClient();
-  return useMutation({ mutationFn: (draft: SpecificationDraftInput) => draftSpecificationRevision(draft), onSuccess: () => invalidateAfter(queryClient, 'materials') });
+  return useMutation({
+    mutationFn: (draft: SpecificationDraftInput) => draftSpecificationRevision(draft),
+    onSuccess: () => invalidateAfter(queryClient, 'materials'),
+  });
 }

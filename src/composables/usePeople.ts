@@ -21,7 +21,8 @@ export function useChangePersonRoles() {
 export function useChangePersonActivation() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: ({ personId, change }: { personId: number; change: ActivationChange }) => changePersonActivation(personId, change),
+    mutationFn: ({ personId, change }: { personId: number; change: ActivationChange }) =>
+      changePersonActivation(personId, change),
     onSuccess: () => invalidateAfter(queryClient, 'people'),
   });
 }

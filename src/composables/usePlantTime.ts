@@ -15,7 +15,8 @@ export function usePlantTime() {
     /** 2026-12-05 15:37 */
     dateTime: (instant: Instant | null | undefined) => (instant ? plantDateTime(instant, zone.value) : '—'),
     /** 2026-12-05 15:37:08, for signatures and audit trail events */
-    dateTimeSeconds: (instant: Instant | null | undefined) => (instant ? plantDateTimeSeconds(instant, zone.value) : '—'),
+    dateTimeSeconds: (instant: Instant | null | undefined) =>
+      instant ? plantDateTimeSeconds(instant, zone.value) : '—',
     /** 2026-12-05 */
     date: (instant: Instant | null | undefined) => (instant ? plantDate(instant, zone.value) : '—'),
   };

@@ -5,7 +5,8 @@ import * as api from '../api/release';
 import { invalidateAfter } from '../api/invalidation';
 
 export const useReleaseView = (lotId: Ref<number>) => useQuery(computed(() => api.releaseViewQuery(lotId.value)));
-export const useReleaseQueue = (query: Ref<ReleaseQueueQuery>) => useQuery(computed(() => api.releaseQueueQuery(query.value)));
+export const useReleaseQueue = (query: Ref<ReleaseQueueQuery>) =>
+  useQuery(computed(() => api.releaseQueueQuery(query.value)));
 
 function useReleaseChange<Input, Output>(change: (input: Input) => Promise<Output>) {
   const queryClient = useQueryClient();
@@ -16,4 +17,5 @@ function useReleaseChange<Input, Output>(change: (input: Input) => Promise<Outpu
 }
 
 export const useSubmitForRelease = (lotId: Ref<number>) => useReleaseChange(() => api.submitForRelease(lotId.value));
-export const useRecordLabels = (lotId: Ref<number>) => useReleaseChange((movement: LabelMovement) => api.recordLabels(lotId.value, movement));
+export const useRecordLabels = (lotId: Ref<number>) =>
+  useReleaseChange((movement: LabelMovement) => api.recordLabels(lotId.value, movement));

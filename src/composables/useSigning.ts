@@ -2,7 +2,13 @@ import { ref } from 'vue';
 import { useQueryClient } from '@tanstack/vue-query';
 import type { Signature, SignatureIntent, SignaturePreparation } from '@shared/schemas/signatures';
 import { isApiError } from '../api/http';
-import { cancelReauthentication, prepareSignature, reauthenticationStatus, startReauthentication, submitSignature } from '../api/signatures';
+import {
+  cancelReauthentication,
+  prepareSignature,
+  reauthenticationStatus,
+  startReauthentication,
+  submitSignature,
+} from '../api/signatures';
 import { invalidateAfterSignature } from '../api/invalidation';
 
 export type SigningStep = 'loading' | 'review' | 'reauthenticating' | 'submitting' | 'signed' | 'failed';
@@ -83,7 +89,10 @@ export function useSigning() {
     step.value = 'reauthenticating';
     cancelled = false;
     try {
-      const reauthentication = await startReauthentication(`${prepared.meaning}: ${prepared.title}`.slice(0, 300), prepared.bindingHash);
+      const reauthentication = await startReauthentication(
+        `${prepared.meaning}: ${prepared.title}`.slice(0, 300),
+        prepared.bindingHash,
+      );
       current = { id: reauthentication.id, popup };
       if (popup) popup.location.href = reauthentication.url;
       else window.open(reauthentication.url, 'ingotrace-reauthentication');

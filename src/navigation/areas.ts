@@ -17,14 +17,7 @@ export interface ProductArea {
 }
 
 export type AreaRouteName =
-  | 'heats'
-  | 'bar-stock'
-  | 'lots'
-  | 'process-runs'
-  | 'release'
-  | 'trace'
-  | 'audit'
-  | 'administration';
+  'heats' | 'bar-stock' | 'lots' | 'process-runs' | 'release' | 'trace' | 'audit' | 'administration';
 
 export const productAreas: ProductArea[] = [
   {
@@ -33,7 +26,8 @@ export const productAreas: ProductArea[] = [
     path: '/heats',
     title: 'Heats and certificates',
     icon: 'pi pi-file-check',
-    summary: 'Heats of bar received from the mills, their certificates and the evaluation of every reported result against the specification.',
+    summary:
+      'Heats of bar received from the mills, their certificates and the evaluation of every reported result against the specification.',
     plannedWork: [
       'Receive a heat against a supplier and a specification revision',
       'Upload the mill certificate and enter or import its results',
@@ -49,7 +43,11 @@ export const productAreas: ProductArea[] = [
     title: 'Bar stock',
     icon: 'pi pi-minus',
     summary: 'Every bar piece with its tag, heat, length and location; cuts make child pieces with their own tags.',
-    plannedWork: ['Receive bar pieces against an accepted heat', 'Cut a piece and print its tag with a QR code', 'See what length remains on each piece'],
+    plannedWork: [
+      'Receive bar pieces against an accepted heat',
+      'Cut a piece and print its tag with a QR code',
+      'See what length remains on each piece',
+    ],
     releaseRelated: false,
   },
   {
@@ -58,8 +56,13 @@ export const productAreas: ProductArea[] = [
     path: '/lots',
     title: 'Production lots',
     icon: 'pi pi-box',
-    summary: 'Production lots with the bar issued to them, the operations recorded along their routing, splits, merges and shipments.',
-    plannedWork: ['Open a lot and issue bar to it', 'Record operations, inspections and nonconformances', 'Reconcile bar length and unit counts'],
+    summary:
+      'Production lots with the bar issued to them, the operations recorded along their routing, splits, merges and shipments.',
+    plannedWork: [
+      'Open a lot and issue bar to it',
+      'Record operations, inspections and nonconformances',
+      'Reconcile bar length and unit counts',
+    ],
     releaseRelated: true,
   },
   {
@@ -68,8 +71,13 @@ export const productAreas: ProductArea[] = [
     path: '/process-runs',
     title: 'Process runs',
     icon: 'pi pi-sync',
-    summary: 'Passivation and cleaning runs, each holding many lots, with their parameters checked against the method’s window.',
-    plannedWork: ['Group lots into a passivation or cleaning run', 'Record bath, concentration, temperature and time', 'Raise a nonconformance automatically when a run leaves its window'],
+    summary:
+      'Passivation and cleaning runs, each holding many lots, with their parameters checked against the method’s window.',
+    plannedWork: [
+      'Group lots into a passivation or cleaning run',
+      'Record bath, concentration, temperature and time',
+      'Raise a nonconformance automatically when a run leaves its window',
+    ],
     releaseRelated: false,
   },
   {
@@ -78,8 +86,13 @@ export const productAreas: ProductArea[] = [
     path: '/release',
     title: 'Release desk',
     icon: 'pi pi-verified',
-    summary: 'Lots awaiting review and approval, their readiness checklist, the signatures and the release packet with its UDI.',
-    plannedWork: ['See why a lot is or is not ready', 'Review and approve with two electronic signatures', 'Download the release packet and the lot label'],
+    summary:
+      'Lots awaiting review and approval, their readiness checklist, the signatures and the release packet with its UDI.',
+    plannedWork: [
+      'See why a lot is or is not ready',
+      'Review and approve with two electronic signatures',
+      'Download the release packet and the lot label',
+    ],
     releaseRelated: true,
   },
   {
@@ -89,7 +102,11 @@ export const productAreas: ProductArea[] = [
     title: 'Trace and recall',
     icon: 'pi pi-sitemap',
     summary: 'Where a unit came from, and which lots and consignees a suspect heat, bar or run reaches.',
-    plannedWork: ['Trace back from a UDI, a lot or a bar tag', 'Trace forward from a heat, bar, run or supplier', 'Open a recall investigation, place holds and notify'],
+    plannedWork: [
+      'Trace back from a UDI, a lot or a bar tag',
+      'Trace forward from a heat, bar, run or supplier',
+      'Open a recall investigation, place holds and notify',
+    ],
     releaseRelated: false,
   },
   {
@@ -99,7 +116,11 @@ export const productAreas: ProductArea[] = [
     title: 'Audit trail',
     icon: 'pi pi-history',
     summary: 'The append-only, hash-chained record of every change, signature and sign-in.',
-    plannedWork: ['Filter the audit trail by person, action, record and time', 'Verify the hash chain', 'Export a self-verifying bundle'],
+    plannedWork: [
+      'Filter the audit trail by person, action, record and time',
+      'Verify the hash chain',
+      'Export a self-verifying bundle',
+    ],
     releaseRelated: false,
   },
   {

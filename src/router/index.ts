@@ -4,7 +4,28 @@ import { rolesAllow } from '@shared/auth/permissions';
 import { productAreas, type AreaRouteName } from '../navigation/areas';
 import { meQuery } from '../api/session';
 
-export type RouteName = 'overview' | AreaRouteName | 'heat' | 'suppliers' | 'supplier' | 'bar-piece' | 'specifications' | 'lot' | 'parts' | 'process-run' | 'process-methods' | 'nonconformances' | 'nonconformance' | 'consignees' | 'recalls' | 'recall' | 'sign-in' | 'signed-out' | 'reauthentication-complete' | 'not-permitted' | 'not-found';
+export type RouteName =
+  | 'overview'
+  | AreaRouteName
+  | 'heat'
+  | 'suppliers'
+  | 'supplier'
+  | 'bar-piece'
+  | 'specifications'
+  | 'lot'
+  | 'parts'
+  | 'process-run'
+  | 'process-methods'
+  | 'nonconformances'
+  | 'nonconformance'
+  | 'consignees'
+  | 'recalls'
+  | 'recall'
+  | 'sign-in'
+  | 'signed-out'
+  | 'reauthentication-complete'
+  | 'not-permitted'
+  | 'not-found';
 
 /** Areas that are built; the rest show what they will hold. */
 const areaViews: Partial<Record<AreaRouteName, () => Promise<unknown>>> = {
@@ -46,16 +67,36 @@ export const routes: RouteRecordRaw[] = [
     component: () => import('../views/LotDetailView.vue'),
     meta: { title: 'Lot', area: 'lots', action: 'lots.read' },
   },
-  { path: '/suppliers', name: 'suppliers', component: () => import('../views/SuppliersView.vue'), meta: { title: 'Suppliers', area: 'heats', action: 'materials.read' } },
+  {
+    path: '/suppliers',
+    name: 'suppliers',
+    component: () => import('../views/SuppliersView.vue'),
+    meta: { title: 'Suppliers', area: 'heats', action: 'materials.read' },
+  },
   {
     path: '/suppliers/:supplierId(\\d+)',
     name: 'supplier',
     component: () => import('../views/SupplierDetailView.vue'),
     meta: { title: 'Supplier', area: 'heats', action: 'materials.read' },
   },
-  { path: '/consignees', name: 'consignees', component: () => import('../views/ConsigneesView.vue'), meta: { title: 'Consignees', area: 'lots', action: 'lots.read' } },
-  { path: '/parts', name: 'parts', component: () => import('../views/PartsView.vue'), meta: { title: 'Parts and routings', area: 'lots', action: 'lots.read' } },
-  { path: '/process-methods', name: 'process-methods', component: () => import('../views/ProcessMethodsView.vue'), meta: { title: 'Process methods', area: 'process-runs', action: 'lots.read' } },
+  {
+    path: '/consignees',
+    name: 'consignees',
+    component: () => import('../views/ConsigneesView.vue'),
+    meta: { title: 'Consignees', area: 'lots', action: 'lots.read' },
+  },
+  {
+    path: '/parts',
+    name: 'parts',
+    component: () => import('../views/PartsView.vue'),
+    meta: { title: 'Parts and routings', area: 'lots', action: 'lots.read' },
+  },
+  {
+    path: '/process-methods',
+    name: 'process-methods',
+    component: () => import('../views/ProcessMethodsView.vue'),
+    meta: { title: 'Process methods', area: 'process-runs', action: 'lots.read' },
+  },
   {
     path: '/process-runs/:runId(\\d+)',
     name: 'process-run',
@@ -74,7 +115,12 @@ export const routes: RouteRecordRaw[] = [
     component: () => import('../views/NonconformanceDetailView.vue'),
     meta: { title: 'Nonconformance', area: 'lots', action: 'lots.read' },
   },
-  { path: '/recalls', name: 'recalls', component: () => import('../views/RecallsView.vue'), meta: { title: 'Recall investigations', area: 'trace', action: 'recall.read' } },
+  {
+    path: '/recalls',
+    name: 'recalls',
+    component: () => import('../views/RecallsView.vue'),
+    meta: { title: 'Recall investigations', area: 'trace', action: 'recall.read' },
+  },
   {
     path: '/recalls/:recallId(\\d+)',
     name: 'recall',
@@ -87,16 +133,36 @@ export const routes: RouteRecordRaw[] = [
     component: () => import('../views/SpecificationsView.vue'),
     meta: { title: 'Specification library', area: 'heats', action: 'materials.read' },
   },
-  { path: '/sign-in', name: 'sign-in', component: () => import('../views/SignInView.vue'), meta: { title: 'Sign in', public: true } },
-  { path: '/signed-out', name: 'signed-out', component: () => import('../views/SignedOutView.vue'), meta: { title: 'Signed out', public: true } },
+  {
+    path: '/sign-in',
+    name: 'sign-in',
+    component: () => import('../views/SignInView.vue'),
+    meta: { title: 'Sign in', public: true },
+  },
+  {
+    path: '/signed-out',
+    name: 'signed-out',
+    component: () => import('../views/SignedOutView.vue'),
+    meta: { title: 'Signed out', public: true },
+  },
   {
     path: '/reauthentication-complete',
     name: 'reauthentication-complete',
     component: () => import('../views/ReauthenticationCompleteView.vue'),
     meta: { title: 'Password confirmed', public: true },
   },
-  { path: '/not-permitted', name: 'not-permitted', component: () => import('../views/NotPermittedView.vue'), meta: { title: 'Not permitted' } },
-  { path: '/:pathMatch(.*)*', name: 'not-found', component: () => import('../views/NotFoundView.vue'), meta: { title: 'Not found' } },
+  {
+    path: '/not-permitted',
+    name: 'not-permitted',
+    component: () => import('../views/NotPermittedView.vue'),
+    meta: { title: 'Not permitted' },
+  },
+  {
+    path: '/:pathMatch(.*)*',
+    name: 'not-found',
+    component: () => import('../views/NotFoundView.vue'),
+    meta: { title: 'Not found' },
+  },
 ];
 
 export function createAppRouter(queryClient: QueryClient) {
@@ -106,7 +172,8 @@ export function createAppRouter(queryClient: QueryClient) {
     if (to.meta.public) return true;
     const me = await queryClient.ensureQueryData(meQuery());
     if (!me) return { name: 'sign-in', query: { returnTo: to.fullPath } };
-    if (to.meta.action && !rolesAllow(me.person.roles, to.meta.action)) return { name: 'not-permitted', query: { from: to.fullPath } };
+    if (to.meta.action && !rolesAllow(me.person.roles, to.meta.action))
+      return { name: 'not-permitted', query: { from: to.fullPath } };
     return true;
   });
   router.afterEach((to) => {

@@ -33,7 +33,15 @@ describe('backup and restore', () => {
     let written = 0;
     const writer = (async () => {
       while (writing) {
-        const response = await agent.post('/api/suppliers').set('X-CSRF-Token', csrf).send({ name: `Backup writer ${written}`, country: 'Nowhere', approval: 'approved', reason: 'written during a backup' });
+        const response = await agent
+          .post('/api/suppliers')
+          .set('X-CSRF-Token', csrf)
+          .send({
+            name: `Backup writer ${written}`,
+            country: 'Nowhere',
+            approval: 'approved',
+            reason: 'written during a backup',
+          });
         expect(response.status).toBe(201);
         written += 1;
       }
@@ -57,9 +65,23 @@ describe('backup and restore', () => {
     const restored = createDataSource({ ...running.config, DB_NAME: restoredName }, 'app');
     await restored.initialize();
     try {
-      const digest = (rows: Array<{ id: number; content: Buffer }>) => rows.map((row) => `${row.id}:${createHash('sha256').update(row.content).digest('hex')}`);
-      const restoredDocuments = digest(await restored.query('SELECT id, content FROM certificate_document ORDER BY id'));
-      const sourceDocuments = digest(await running.database.dataSource.query('SELECT id, content FROM certificate_document WHERE id <= ? ORDER BY id', [Math.max(...manifest.documents.filter((document) => document.table === 'certificate_document').map((document) => document.id))]));
+      const digest = (rows: Array<{ id: number; content: Buffer }>) =>
+        rows.map((row) => `${row.id}:${createHash('sha256').update(row.content).digest('hex')}`);
+      const restoredDocuments = digest(
+        await restored.query('SELECT id, content FROM certificate_document ORDER BY id'),
+      );
+      const sourceDocuments = digest(
+        await running.database.dataSource.query(
+          'SELECT id, content FROM certificate_document WHERE id <= ? ORDER BY id',
+          [
+            Math.max(
+              ...manifest.documents
+                .filter((document) => document.table === 'certificate_document')
+                .map((document) => document.id),
+            ),
+          ],
+        ),
+      );
       expect(restoredDocuments).toEqual(sourceDocuments);
     } finally {
       await restored.destroy();
@@ -68,10 +90,17 @@ describe('backup and restore', () => {
 
   it('[RESTORE-REFUSE] when the dump was changed, or the target database already holds tables, then the restore refuses with a clear message', async () => {
     const file = `${folder}/test.sql.gz`;
-    await expect(restoreDatabase(server, running.config, file, restoredName)).rejects.toThrow(`database ${restoredName} already holds tables`);
+    await expect(restoreDatabase(server, running.config, file, restoredName)).rejects.toThrow(
+      `database ${restoredName} already holds tables`,
+    );
     const changed = `${folder}/changed.sql.gz`;
-    writeFileSync(changed, gzipSync(Buffer.concat([gunzipSync(readFileSync(file)), Buffer.from('\n-- one more line\n')])));
+    writeFileSync(
+      changed,
+      gzipSync(Buffer.concat([gunzipSync(readFileSync(file)), Buffer.from('\n-- one more line\n')])),
+    );
     writeFileSync(`${changed}.manifest.json`, readFileSync(`${file}.manifest.json`));
-    await expect(restoreDatabase(server, running.config, changed, `${restoredName}_x`)).rejects.toThrow('does not match the SHA-256 in its manifest');
+    await expect(restoreDatabase(server, running.config, changed, `${restoredName}_x`)).rejects.toThrow(
+      'does not match the SHA-256 in its manifest',
+    );
   });
 });

@@ -26,8 +26,12 @@ describe('the demo scenario’s signatures', () => {
     expect(records.length).toBeGreaterThan(20);
     const changed: string[] = [];
     for (const record of records) {
-      const signatures = (await agent.get(`/api/signatures?recordType=${record.record_type}&recordId=${record.record_id}`)).body as Array<{ manifestation: string; changedAfterSigning: boolean }>;
-      for (const signature of signatures) if (signature.changedAfterSigning) changed.push(`${record.record_type} ${record.record_id}: ${signature.manifestation}`);
+      const signatures = (
+        await agent.get(`/api/signatures?recordType=${record.record_type}&recordId=${record.record_id}`)
+      ).body as Array<{ manifestation: string; changedAfterSigning: boolean }>;
+      for (const signature of signatures)
+        if (signature.changedAfterSigning)
+          changed.push(`${record.record_type} ${record.record_id}: ${signature.manifestation}`);
     }
     expect(changed).toEqual([]);
   });

@@ -17,7 +17,13 @@ registerSignableRecordType({
   meanings: ['reviewed', 'approved', 'rejected', 'withdrawn'],
   async load(manager, recordId) {
     const [row] = await manager.query('SELECT id, subject, name, email FROM person WHERE subject = ?', [recordId]);
-    return row ? { title: `Card of ${row.name}`, content: { subject: row.subject, name: row.name, email: row.email }, authorIds: [Number(row.id)] } : null;
+    return row
+      ? {
+          title: `Card of ${row.name}`,
+          content: { subject: row.subject, name: row.name, email: row.email },
+          authorIds: [Number(row.id)],
+        }
+      : null;
   },
 });
 
@@ -34,59 +40,110 @@ describe('electronic signatures', () => {
     return { agent, csrf: await csrfTokenOf(agent) };
   }
 
-  async function prepare(agent: Awaited<ReturnType<typeof signedIn>>['agent'], csrf: string, recordId: string, meaning: string) {
-    const response = await agent.post('/api/signatures/preparations').set('X-CSRF-Token', csrf).send({ recordType: 'test-person-card', recordId, meaning });
+  async function prepare(
+    agent: Awaited<ReturnType<typeof signedIn>>['agent'],
+    csrf: string,
+    recordId: string,
+    meaning: string,
+  ) {
+    const response = await agent
+      .post('/api/signatures/preparations')
+      .set('X-CSRF-Token', csrf)
+      .send({ recordType: 'test-person-card', recordId, meaning });
     expect(response.status).toBe(200);
     return signaturePreparationSchema.parse(response.body);
   }
 
   /** Prepares, re-authenticates as the signer and submits one signature on a person card. */
-  async function signCard(signer: { agent: Awaited<ReturnType<typeof signedIn>>['agent']; csrf: string }, subject: string, recordId: string, meaning: string, extra: Record<string, unknown> = {}) {
+  async function signCard(
+    signer: { agent: Awaited<ReturnType<typeof signedIn>>['agent']; csrf: string },
+    subject: string,
+    recordId: string,
+    meaning: string,
+    extra: Record<string, unknown> = {},
+  ) {
     // A refusal that does not depend on the password comes at preparation, before any password is asked.
-    const prepared = await signer.agent.post('/api/signatures/preparations').set('X-CSRF-Token', signer.csrf).send({ recordType: 'test-person-card', recordId, meaning });
+    const prepared = await signer.agent
+      .post('/api/signatures/preparations')
+      .set('X-CSRF-Token', signer.csrf)
+      .send({ recordType: 'test-person-card', recordId, meaning });
     if (prepared.status !== 200) return prepared;
     const preparation = signaturePreparationSchema.parse(prepared.body);
     return signer.agent
       .post('/api/signatures')
       .set('X-CSRF-Token', signer.csrf)
-      .send({ recordType: 'test-person-card', recordId, meaning, contentHash: preparation.contentHash, reauthenticationId: await reauthenticate(saml, signer.agent, subject, preparation.bindingHash), ...extra });
+      .send({
+        recordType: 'test-person-card',
+        recordId,
+        meaning,
+        contentHash: preparation.contentHash,
+        reauthenticationId: await reauthenticate(saml, signer.agent, subject, preparation.bindingHash),
+        ...extra,
+      });
   }
 
   it('[SIG-MANIFESTATION] when a reviewer re-authenticates and signs, then the signature shows name, meaning and time with zone, bound to the content hash', async () => {
     const { agent, csrf } = await signedIn('kiw-0201');
     const preparation = await prepare(agent, csrf, 'kiw-0101', 'reviewed');
     expect(preparation.statement).toBe(signatureStatement);
-    expect(preparation.content).toEqual({ subject: 'kiw-0101', name: 'Maren Østby', email: 'maren.ostby@kestrelmoor.example' });
+    expect(preparation.content).toEqual({
+      subject: 'kiw-0101',
+      name: 'Maren Østby',
+      email: 'maren.ostby@kestrelmoor.example',
+    });
     // The hash is SHA-256 over the RFC 8785 canonical JSON (keys sorted) of what was shown.
-    expect(preparation.contentHash).toBe(createHash('sha256').update('{"email":"maren.ostby@kestrelmoor.example","name":"Maren Østby","subject":"kiw-0101"}').digest('hex'));
+    expect(preparation.contentHash).toBe(
+      createHash('sha256')
+        .update('{"email":"maren.ostby@kestrelmoor.example","name":"Maren Østby","subject":"kiw-0101"}')
+        .digest('hex'),
+    );
     const reauthenticationId = await reauthenticate(saml, agent, 'kiw-0201', preparation.bindingHash);
-    const signed = await agent
-      .post('/api/signatures')
-      .set('X-CSRF-Token', csrf)
-      .send({ recordType: 'test-person-card', recordId: 'kiw-0101', meaning: 'reviewed', contentHash: preparation.contentHash, reauthenticationId });
+    const signed = await agent.post('/api/signatures').set('X-CSRF-Token', csrf).send({
+      recordType: 'test-person-card',
+      recordId: 'kiw-0101',
+      meaning: 'reviewed',
+      contentHash: preparation.contentHash,
+      reauthenticationId,
+    });
     expect(signed.status).toBe(201);
     const signature = signatureSchema.parse(signed.body);
-    expect(signature.manifestation).toMatch(/^Aisling Ní Bhriain — Reviewed — \d{4}-\d{2}-\d{2} \d{2}:\d{2}:\d{2} (GMT|BST)$/);
+    expect(signature.manifestation).toMatch(
+      /^Aisling Ní Bhriain — Reviewed — \d{4}-\d{2}-\d{2} \d{2}:\d{2}:\d{2} (GMT|BST)$/,
+    );
     // On the plant's clock (the demo plant is in Europe/London): GMT is UTC+0, BST UTC+1.
     const [, stamp, zone] = /— (\S+ \S+) (GMT|BST)$/.exec(signature.manifestation)!;
     const offsetHours = zone === 'BST' ? 1 : 0;
-    expect(Math.abs(Date.parse(`${stamp!.replace(' ', 'T')}Z`) - offsetHours * 3600_000 - Date.parse(signature.signedAt))).toBeLessThan(1000);
-    expect(signature).toMatchObject({ signerRole: 'qa-reviewer', contentHash: preparation.contentHash, changedAfterSigning: false });
-    const [event] = await running.database.dataSource.query("SELECT action, actor_name FROM audit_event WHERE action = 'signature.signed' ORDER BY seq DESC LIMIT 1");
+    expect(
+      Math.abs(Date.parse(`${stamp!.replace(' ', 'T')}Z`) - offsetHours * 3600_000 - Date.parse(signature.signedAt)),
+    ).toBeLessThan(1000);
+    expect(signature).toMatchObject({
+      signerRole: 'qa-reviewer',
+      contentHash: preparation.contentHash,
+      changedAfterSigning: false,
+    });
+    const [event] = await running.database.dataSource.query(
+      "SELECT action, actor_name FROM audit_event WHERE action = 'signature.signed' ORDER BY seq DESC LIMIT 1",
+    );
     expect(event).toEqual({ action: 'signature.signed', actor_name: 'Aisling Ní Bhriain' });
 
     // The same re-authentication cannot sign twice.
-    const again = await agent
-      .post('/api/signatures')
-      .set('X-CSRF-Token', csrf)
-      .send({ recordType: 'test-person-card', recordId: 'kiw-0101', meaning: 'reviewed', contentHash: preparation.contentHash, reauthenticationId });
+    const again = await agent.post('/api/signatures').set('X-CSRF-Token', csrf).send({
+      recordType: 'test-person-card',
+      recordId: 'kiw-0101',
+      meaning: 'reviewed',
+      contentHash: preparation.contentHash,
+      reauthenticationId,
+    });
     expect(again.status).toBe(422);
     expect(again.body.error.message).toBe('Sign again: the re-authentication was already used for a signature');
   });
 
   it('[SIG-CHANGED-AFTER] when the record changes after signing, then its signatures show "changed after signing"', async () => {
     const { agent } = await signedIn('kiw-0201');
-    const listed = async () => (await agent.get('/api/signatures?recordType=test-person-card&recordId=kiw-0101')).body as Array<{ changedAfterSigning: boolean }>;
+    const listed = async () =>
+      (await agent.get('/api/signatures?recordType=test-person-card&recordId=kiw-0101')).body as Array<{
+        changedAfterSigning: boolean;
+      }>;
     expect((await listed()).map((item) => item.changedAfterSigning)).toEqual([false]);
     await adminSql("UPDATE person SET email = 'maren@changed.example' WHERE subject = 'kiw-0101'");
     try {
@@ -99,12 +156,19 @@ describe('electronic signatures', () => {
   it('[SIG-REAUTH-REQUIRED] when someone signs without a fresh re-authentication, then it is refused and nothing is written', async () => {
     const { agent, csrf } = await signedIn('kiw-0301');
     const preparation = await prepare(agent, csrf, 'kiw-0102', 'approved');
-    const count = async () => Number((await running.database.dataSource.query('SELECT COUNT(*) AS n FROM electronic_signature'))[0].n);
+    const count = async () =>
+      Number((await running.database.dataSource.query('SELECT COUNT(*) AS n FROM electronic_signature'))[0].n);
     const before = await count();
     const response = await agent
       .post('/api/signatures')
       .set('X-CSRF-Token', csrf)
-      .send({ recordType: 'test-person-card', recordId: 'kiw-0102', meaning: 'approved', contentHash: preparation.contentHash, reauthenticationId: 'a'.repeat(32) });
+      .send({
+        recordType: 'test-person-card',
+        recordId: 'kiw-0102',
+        meaning: 'approved',
+        contentHash: preparation.contentHash,
+        reauthenticationId: 'a'.repeat(32),
+      });
     expect(response.status).toBe(422);
     expect(response.body.error.message).toBe('Sign again: no re-authentication of yours matches this signature');
     expect(await count()).toBe(before);
@@ -115,10 +179,14 @@ describe('electronic signatures', () => {
     const approve = await prepare(agent, csrf, 'kiw-0102', 'approved');
     const reject = await prepare(agent, csrf, 'kiw-0102', 'rejected');
     const reauthenticationId = await reauthenticate(saml, agent, 'kiw-0301', approve.bindingHash);
-    const response = await agent
-      .post('/api/signatures')
-      .set('X-CSRF-Token', csrf)
-      .send({ recordType: 'test-person-card', recordId: 'kiw-0102', meaning: 'rejected', reason: 'wrong e-mail', contentHash: reject.contentHash, reauthenticationId });
+    const response = await agent.post('/api/signatures').set('X-CSRF-Token', csrf).send({
+      recordType: 'test-person-card',
+      recordId: 'kiw-0102',
+      meaning: 'rejected',
+      reason: 'wrong e-mail',
+      contentHash: reject.contentHash,
+      reauthenticationId,
+    });
     expect(response.status).toBe(422);
     expect(response.body.error.message).toBe('Sign again: the record changed after you re-authenticated');
   });
@@ -131,11 +199,18 @@ describe('electronic signatures', () => {
 
   it('[SIG-REFUSE-BEFORE-PASSWORD] when a signature would be refused whatever the password, then the preparation says so and no password is asked', async () => {
     const aisling = await signedIn('kiw-0201');
-    const reauthentications = async () => Number((await running.database.dataSource.query('SELECT COUNT(*) AS n FROM reauthentication'))[0].n);
+    const reauthentications = async () =>
+      Number((await running.database.dataSource.query('SELECT COUNT(*) AS n FROM reauthentication'))[0].n);
     const before = await reauthentications();
-    const prepared = await aisling.agent.post('/api/signatures/preparations').set('X-CSRF-Token', aisling.csrf).send({ recordType: 'test-person-card', recordId: 'kiw-0201', meaning: 'reviewed' });
+    const prepared = await aisling.agent
+      .post('/api/signatures/preparations')
+      .set('X-CSRF-Token', aisling.csrf)
+      .send({ recordType: 'test-person-card', recordId: 'kiw-0201', meaning: 'reviewed' });
     expect(prepared.status).toBe(422);
-    expect(prepared.body.error).toMatchObject({ message: 'You authored this record, so you cannot review it', fields: { meaning: 'Separation of duties' } });
+    expect(prepared.body.error).toMatchObject({
+      message: 'You authored this record, so you cannot review it',
+      fields: { meaning: 'Separation of duties' },
+    });
     expect(await reauthentications()).toBe(before);
   });
 
@@ -157,9 +232,15 @@ describe('electronic signatures', () => {
 
   it('when the record type or meaning is unknown, then the preparation says so', async () => {
     const { agent, csrf } = await signedIn('kiw-0301');
-    const unknownType = await agent.post('/api/signatures/preparations').set('X-CSRF-Token', csrf).send({ recordType: 'nothing', recordId: '1', meaning: 'approved' });
+    const unknownType = await agent
+      .post('/api/signatures/preparations')
+      .set('X-CSRF-Token', csrf)
+      .send({ recordType: 'nothing', recordId: '1', meaning: 'approved' });
     expect(unknownType.status).toBe(404);
-    const wrongMeaning = await agent.post('/api/signatures/preparations').set('X-CSRF-Token', csrf).send({ recordType: 'ledger-review', recordId: '1', meaning: 'approved' });
+    const wrongMeaning = await agent
+      .post('/api/signatures/preparations')
+      .set('X-CSRF-Token', csrf)
+      .send({ recordType: 'ledger-review', recordId: '1', meaning: 'approved' });
     expect(wrongMeaning.status).toBe(422);
     expect(wrongMeaning.body.error.message).toBe('This audit-trail review cannot be signed as "approved"');
   });
@@ -170,14 +251,26 @@ describe('electronic signatures', () => {
     const approved = await signCard(approver, 'kiw-0301', 'kiw-0601', 'approved');
     expect(approved.status).toBe(201);
 
-    const refused = await signCard(await signedIn('kiw-0201'), 'kiw-0201', 'kiw-0601', 'withdrawn', { reason: 'not mine to withdraw', withdrawsSignatureId: approved.body.id });
+    const refused = await signCard(await signedIn('kiw-0201'), 'kiw-0201', 'kiw-0601', 'withdrawn', {
+      reason: 'not mine to withdraw',
+      withdrawsSignatureId: approved.body.id,
+    });
     expect(refused.status).toBe(422);
     expect(refused.body.error.message).toBe('Only the signer can withdraw their signature');
 
-    const withdrawn = await signCard(approver, 'kiw-0301', 'kiw-0601', 'withdrawn', { reason: 'Approved the wrong card', withdrawsSignatureId: approved.body.id });
+    const withdrawn = await signCard(approver, 'kiw-0301', 'kiw-0601', 'withdrawn', {
+      reason: 'Approved the wrong card',
+      withdrawsSignatureId: approved.body.id,
+    });
     expect(withdrawn.status).toBe(201);
-    expect(withdrawn.body).toMatchObject({ meaning: 'withdrawn', withdrawsSignatureId: approved.body.id, reason: 'Approved the wrong card' });
-    const listed = (await agent.get('/api/signatures?recordType=test-person-card&recordId=kiw-0601')).body as Array<{ meaning: string }>;
+    expect(withdrawn.body).toMatchObject({
+      meaning: 'withdrawn',
+      withdrawsSignatureId: approved.body.id,
+      reason: 'Approved the wrong card',
+    });
+    const listed = (await agent.get('/api/signatures?recordType=test-person-card&recordId=kiw-0601')).body as Array<{
+      meaning: string;
+    }>;
     expect(listed.map((item) => item.meaning)).toEqual(['approved', 'withdrawn']);
   });
 

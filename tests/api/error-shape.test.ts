@@ -27,9 +27,15 @@ describe('the one JSON error shape', () => {
   });
 
   it('when the body is not valid JSON, then 400 INVALID_JSON', async () => {
-    const response = await request(running.app).post('/api/organisation').set('Content-Type', 'application/json').send('{"name": ');
+    const response = await request(running.app)
+      .post('/api/organisation')
+      .set('Content-Type', 'application/json')
+      .send('{"name": ');
     expect(response.status).toBe(400);
-    expect(errorResponseSchema.parse(response.body).error).toMatchObject({ code: 'INVALID_JSON', message: 'The request body is not valid JSON' });
+    expect(errorResponseSchema.parse(response.body).error).toMatchObject({
+      code: 'INVALID_JSON',
+      message: 'The request body is not valid JSON',
+    });
   });
 
   it('when the body is larger than the limit, then 413 PAYLOAD_TOO_LARGE', async () => {
@@ -54,7 +60,10 @@ describe('the validate middleware with the error handler', () => {
     '/heats/:heatId',
     validate({
       params: z.object({ heatId: z.coerce.number().int().positive() }),
-      body: z.object({ number: z.string().min(1, 'Heat number is required'), chemistry: z.object({ O: z.string().regex(/^\d+(\.\d+)?$/, 'Expected a decimal number') }) }),
+      body: z.object({
+        number: z.string().min(1, 'Heat number is required'),
+        chemistry: z.object({ O: z.string().regex(/^\d+(\.\d+)?$/, 'Expected a decimal number') }),
+      }),
     }),
     (_req, res) => res.json(res.locals.valid),
   );
@@ -67,7 +76,9 @@ describe('the validate middleware with the error handler', () => {
   app.use(errorHandler);
 
   it('[INPUT-FIELDS] when several fields are wrong, then 400 VALIDATION_FAILED lists each field with its message', async () => {
-    const response = await request(app).post('/heats/abc').send({ number: '', chemistry: { O: '0,12' } });
+    const response = await request(app)
+      .post('/heats/abc')
+      .send({ number: '', chemistry: { O: '0,12' } });
     expect(response.status).toBe(400);
     const body = errorResponseSchema.parse(response.body);
     expect(body.error.code).toBe('VALIDATION_FAILED');
@@ -79,7 +90,9 @@ describe('the validate middleware with the error handler', () => {
   });
 
   it('when the input is valid, then the handler receives the parsed values', async () => {
-    const response = await request(app).post('/heats/12').send({ number: 'H-1', chemistry: { O: '0.12' } });
+    const response = await request(app)
+      .post('/heats/12')
+      .send({ number: 'H-1', chemistry: { O: '0.12' } });
     expect(response.status).toBe(200);
     expect(response.body).toEqual({ params: { heatId: 12 }, body: { number: 'H-1', chemistry: { O: '0.12' } } });
   });
@@ -88,7 +101,11 @@ describe('the validate middleware with the error handler', () => {
     const response = await request(app).get('/rule');
     expect(response.status).toBe(422);
     expect(response.body).toEqual({
-      error: { code: 'RULE_VIOLATION', message: 'Bar from a quarantined heat cannot be issued', fields: { barTag: 'Heat H-1 is quarantined' } },
+      error: {
+        code: 'RULE_VIOLATION',
+        message: 'Bar from a quarantined heat cannot be issued',
+        fields: { barTag: 'Heat H-1 is quarantined' },
+      },
     });
   });
 

@@ -13,20 +13,48 @@ describe('the mail outbox', () => {
   it('[MAIL-QUEUE] when the mail server refuses, then the mail stays queued with the error and is sent on a later attempt', async () => {
     const db = await running.database.connect();
     const subject = `Outbox test ${Date.now()}`;
-    await inTransaction(db, (manager) => queueMail(manager, { to: ['someone@kestrelmoor.example'], subject, text: 'body', event: 'test', entity: { type: 'test', id: 1 } }));
+    await inTransaction(db, (manager) =>
+      queueMail(manager, {
+        to: ['someone@kestrelmoor.example'],
+        subject,
+        text: 'body',
+        event: 'test',
+        entity: { type: 'test', id: 1 },
+      }),
+    );
     // Nothing listens on port 9 here: a real SMTP connection attempt that fails.
-    const down = nodemailer.createTransport({ host: '127.0.0.1', port: 9, secure: false, ignoreTLS: true, connectionTimeout: 2_000 });
+    const down = nodemailer.createTransport({
+      host: '127.0.0.1',
+      port: 9,
+      secure: false,
+      ignoreTLS: true,
+      connectionTimeout: 2_000,
+    });
     const silent = pino({ level: 'silent' });
     // Other tests' mails may be due too; only this one matters here.
-    await db.query('UPDATE mail_outbox SET next_attempt_at = ? WHERE subject <> ? AND sent_at IS NULL', [new Date(Date.now() + 60_000), subject]);
+    await db.query('UPDATE mail_outbox SET next_attempt_at = ? WHERE subject <> ? AND sent_at IS NULL', [
+      new Date(Date.now() + 60_000),
+      subject,
+    ]);
     const failed = await deliverDueMail(db, down, 'Ingotrace <ingotrace@localhost>', silent);
     expect(failed).toEqual({ sent: 0, failed: 1 });
-    const [row] = await db.query('SELECT attempts, sent_at, last_error, next_attempt_at FROM mail_outbox WHERE subject = ?', [subject]);
+    const [row] = await db.query(
+      'SELECT attempts, sent_at, last_error, next_attempt_at FROM mail_outbox WHERE subject = ?',
+      [subject],
+    );
     expect(row).toMatchObject({ attempts: 1, sent_at: null });
     expect(row.last_error).toMatch(/ECONNREFUSED/);
     expect(new Date(row.next_attempt_at).getTime()).toBeGreaterThan(Date.now());
-    await db.query('UPDATE mail_outbox SET next_attempt_at = ? WHERE subject = ?', [new Date(Date.now() - 1000), subject]);
-    const up = nodemailer.createTransport({ host: '127.0.0.1', port: running.config.SMTP_PORT, secure: false, ignoreTLS: true });
+    await db.query('UPDATE mail_outbox SET next_attempt_at = ? WHERE subject = ?', [
+      new Date(Date.now() - 1000),
+      subject,
+    ]);
+    const up = nodemailer.createTransport({
+      host: '127.0.0.1',
+      port: running.config.SMTP_PORT,
+      secure: false,
+      ignoreTLS: true,
+    });
     expect(await deliverDueMail(db, up, 'Ingotrace <ingotrace@localhost>', silent)).toMatchObject({ sent: 1 });
     const [after] = await db.query('SELECT attempts, sent_at FROM mail_outbox WHERE subject = ?', [subject]);
     expect(after.attempts).toBe(2);

@@ -48,7 +48,13 @@ describe('the MariaDB bootstrap', () => {
     await bootstrapDatabase(config);
     expect(await healthOf(app)).toEqual({ status: 200, message: undefined });
 
-    const connection = await createConnection({ host: '127.0.0.1', port: config.DB_PORT, user: config.DB_USER, password: config.DB_PASSWORD, database: config.DB_NAME });
+    const connection = await createConnection({
+      host: '127.0.0.1',
+      port: config.DB_PORT,
+      user: config.DB_USER,
+      password: config.DB_PASSWORD,
+      database: config.DB_NAME,
+    });
     try {
       await expect(connection.query("UPDATE migrations SET name = 'x'")).rejects.toThrow(/UPDATE command denied/);
       await expect(connection.query('CREATE TABLE intruder (id INT)')).rejects.toThrow(/CREATE command denied/);
@@ -64,11 +70,15 @@ describe('the MariaDB bootstrap', () => {
   });
 
   it('when a shipped migration has not run, then health names it', async () => {
-    await server.adminSql(`DELETE FROM \`${config.DB_NAME}\`.migrations WHERE name = 'CreateOrganisation1764633600000';`);
+    await server.adminSql(
+      `DELETE FROM \`${config.DB_NAME}\`.migrations WHERE name = 'CreateOrganisation1764633600000';`,
+    );
     const health = await healthOf(app);
     expect(health.status).toBe(503);
     expect(health.message).toBe('Database schema is behind: 1 migration(s) not run (CreateOrganisation1764633600000)');
-    await server.adminSql(`INSERT INTO \`${config.DB_NAME}\`.migrations (timestamp, name) VALUES (1764633600000, 'CreateOrganisation1764633600000');`);
+    await server.adminSql(
+      `INSERT INTO \`${config.DB_NAME}\`.migrations (timestamp, name) VALUES (1764633600000, 'CreateOrganisation1764633600000');`,
+    );
   });
 
   it('[DB-RECOVER] when the server stops, then health says the database is unreachable, and after a restart it recovers by itself', async () => {

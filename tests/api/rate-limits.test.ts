@@ -21,7 +21,12 @@ describe('rate limits on sign-in and signing', () => {
 
   it('[RATE-SIGN-IN] when one address sends more answers from the identity provider than the limit, then it is sent to the sign-in page with the reason and Retry-After; another address is not', async () => {
     const from = address();
-    const attempt = (ip: string) => request(running.app).post('/auth/saml/acs').set('X-Forwarded-For', ip).type('form').send({ SAMLResponse: 'bm90IGEgcmVzcG9uc2U=', RelayState: '/' });
+    const attempt = (ip: string) =>
+      request(running.app)
+        .post('/auth/saml/acs')
+        .set('X-Forwarded-For', ip)
+        .type('form')
+        .send({ SAMLResponse: 'bm90IGEgcmVzcG9uc2U=', RelayState: '/' });
     for (let index = 0; index < 3; index += 1) {
       const refused = await attempt(from);
       expect(refused.status).toBe(303);
@@ -40,7 +45,11 @@ describe('rate limits on sign-in and signing', () => {
   it('[RATE-NO-PROXY] when no proxy is configured, then X-Forwarded-For is not believed: changing it does not escape the sign-in limit', async () => {
     let last = '';
     for (let index = 0; index < 4; index += 1) {
-      const answer = await request(unproxied.app).post('/auth/saml/acs').set('X-Forwarded-For', address()).type('form').send({ SAMLResponse: 'bm90IGEgcmVzcG9uc2U=', RelayState: '/' });
+      const answer = await request(unproxied.app)
+        .post('/auth/saml/acs')
+        .set('X-Forwarded-For', address())
+        .type('form')
+        .send({ SAMLResponse: 'bm90IGEgcmVzcG9uc2U=', RelayState: '/' });
       last = answer.headers.location ?? '';
     }
     expect(last).toMatch(/^\/sign-in\?refused=too-many-attempts/);
@@ -71,10 +80,19 @@ describe('rate limits on sign-in and signing', () => {
     const saml = await SamlTestDriver.create(signing.config);
     const { agent } = await saml.signIn(signing.app, 'kiw-0201');
     const csrf = await csrfTokenOf(agent);
-    await signing.database.dataSource.query("DELETE FROM rate_limit_window WHERE bucket LIKE 'reauthentication-start:%'");
+    await signing.database.dataSource.query(
+      "DELETE FROM rate_limit_window WHERE bucket LIKE 'reauthentication-start:%'",
+    );
     const statuses: number[] = [];
     for (let index = 0; index < 3; index += 1) {
-      statuses.push((await agent.post('/api/reauthentications').set('X-CSRF-Token', csrf).send({ purpose: 'sign a test record', bindingHash: 'a'.repeat(64) })).status);
+      statuses.push(
+        (
+          await agent
+            .post('/api/reauthentications')
+            .set('X-CSRF-Token', csrf)
+            .send({ purpose: 'sign a test record', bindingHash: 'a'.repeat(64) })
+        ).status,
+      );
     }
     expect(statuses).toEqual([201, 201, 429]);
   });
@@ -83,8 +101,14 @@ describe('rate limits on sign-in and signing', () => {
     const saml = await SamlTestDriver.create(signing.config);
     const { agent } = await saml.signIn(signing.app, 'kiw-0301');
     const csrf = await csrfTokenOf(agent);
-    await signing.database.dataSource.query("DELETE FROM rate_limit_window WHERE bucket LIKE 'reauthentication-start:%'");
-    const start = () => agent.post('/api/reauthentications').set('X-CSRF-Token', csrf).send({ purpose: 'sign a test record', bindingHash: 'b'.repeat(64) });
+    await signing.database.dataSource.query(
+      "DELETE FROM rate_limit_window WHERE bucket LIKE 'reauthentication-start:%'",
+    );
+    const start = () =>
+      agent
+        .post('/api/reauthentications')
+        .set('X-CSRF-Token', csrf)
+        .send({ purpose: 'sign a test record', bindingHash: 'b'.repeat(64) });
     const first = await start();
     expect((await start()).status).toBe(201);
     const cancelled = await agent.post(`/api/reauthentications/${first.body.id}/cancel`).set('X-CSRF-Token', csrf);
@@ -93,6 +117,12 @@ describe('rate limits on sign-in and signing', () => {
     expect((await start()).status).toBe(429);
     // Another person cannot cancel it.
     const other = await saml.signIn(signing.app, 'kiw-0201');
-    expect((await other.agent.post(`/api/reauthentications/${first.body.id}/cancel`).set('X-CSRF-Token', await csrfTokenOf(other.agent))).status).toBe(404);
+    expect(
+      (
+        await other.agent
+          .post(`/api/reauthentications/${first.body.id}/cancel`)
+          .set('X-CSRF-Token', await csrfTokenOf(other.agent))
+      ).status,
+    ).toBe(404);
   });
 });

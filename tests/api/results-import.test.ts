@@ -13,9 +13,13 @@ describe('importing certificate results from CSV', () => {
   });
   afterAll(() => running.close());
 
-  const importCsv = (csv: string, mode: string) => agent.post('/api/heat-results/imports').set('X-CSRF-Token', csrf).send({ csv, mode });
+  const importCsv = (csv: string, mode: string) =>
+    agent.post('/api/heat-results/imports').set('X-CSRF-Token', csrf).send({ csv, mode });
   const results = async (heatNumber: string) =>
-    (await running.database.dataSource.query('SELECT r.item, r.as_reported FROM heat_result r JOIN heat h ON h.id = r.heat_id WHERE h.heat_number = ? ORDER BY r.item', [heatNumber])) as Array<{ item: string; as_reported: string }>;
+    (await running.database.dataSource.query(
+      'SELECT r.item, r.as_reported FROM heat_result r JOIN heat h ON h.id = r.heat_id WHERE h.heat_number = ? ORDER BY r.item',
+      [heatNumber],
+    )) as Array<{ item: string; as_reported: string }>;
 
   const csv = [
     'supplier,heat_number,Al,V,Fe,O,C,N,H,uts_mpa,ys_mpa,elongation_pct,reduction_of_area_pct',
@@ -40,20 +44,29 @@ describe('importing certificate results from CSV', () => {
     const before = await results('CS-7781');
     const response = await importCsv(csv, 'all');
     expect(response.status).toBe(422);
-    expect(response.body.error.message).toBe('Nothing was imported: 2 problem(s) in 2 row(s); fix them or import only the valid rows');
+    expect(response.body.error.message).toBe(
+      'Nothing was imported: 2 problem(s) in 2 row(s); fix them or import only the valid rows',
+    );
     expect(await results('CS-7781')).toEqual(before);
   });
 
   it('when the person imports only the valid rows, then those are written and evaluated', async () => {
     const response = await importCsv(csv, 'valid-only');
     expect(response.status).toBe(200);
-    expect(response.body).toMatchObject({ imported: 1, verdicts: [{ line: 2, heatNumber: 'CS-7781', verdict: 'conforms' }] });
+    expect(response.body).toMatchObject({
+      imported: 1,
+      verdicts: [{ line: 2, heatNumber: 'CS-7781', verdict: 'conforms' }],
+    });
     expect((await results('CS-7781')).find((row) => row.item === 'H')?.as_reported).toBe('35 ppm');
   });
 
   it('when the header is wrong or the text is not CSV, then the file is refused as a whole', async () => {
-    expect((await importCsv('heat,O\nX,0.1', 'check')).body.error.message).toBe('The header lacks supplier, heat_number');
-    expect((await importCsv('supplier,heat_number,Oxygen\nA,B,0.1', 'check')).body.error.message).toBe('Unknown columns: Oxygen');
+    expect((await importCsv('heat,O\nX,0.1', 'check')).body.error.message).toBe(
+      'The header lacks supplier, heat_number',
+    );
+    expect((await importCsv('supplier,heat_number,Oxygen\nA,B,0.1', 'check')).body.error.message).toBe(
+      'Unknown columns: Oxygen',
+    );
     const broken = await importCsv('supplier,heat_number,O\n"unterminated,B,0.1', 'check');
     expect(broken.status).toBe(400);
     expect(broken.body.error.message).toMatch(/^The file is not readable CSV/);

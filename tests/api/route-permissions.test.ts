@@ -46,7 +46,9 @@ describe('the route × role permission matrix', () => {
 
   it('[AUTHZ-GUARDED] when the app is built, then every API route starts with an access guard', () => {
     expect(apiRoutes.length).toBeGreaterThan(5);
-    expect(apiRoutes.filter((route) => route.access === null).map((route) => `${route.method} ${route.path}`)).toEqual([]);
+    expect(apiRoutes.filter((route) => route.access === null).map((route) => `${route.method} ${route.path}`)).toEqual(
+      [],
+    );
   });
 
   it('when the matrix is read, then it names only known actions and every action belongs to some role', () => {
@@ -66,14 +68,19 @@ describe('the route × role permission matrix', () => {
         return route.method === 'GET' ? call : call.send({});
       };
       const anonymous = await send(null);
-      if (route.access?.kind === 'public') expect([401, 403], `${route.method} ${route.path} anonymous`).not.toContain(anonymous.status);
+      if (route.access?.kind === 'public')
+        expect([401, 403], `${route.method} ${route.path} anonymous`).not.toContain(anonymous.status);
       else expect(anonymous.status, `${route.method} ${route.path} anonymous`).toBe(route.method === 'GET' ? 401 : 403);
       cells++;
       for (const role of roles) {
         const { agent, csrf } = agents[role];
         const response = await send(agent, csrf);
         const allowed = route.access?.kind !== 'action' || permissionMatrix[role].includes(route.access.action);
-        if (allowed) expect([401, 403], `${route.method} ${route.path} as ${role}: ${JSON.stringify(response.body)}`).not.toContain(response.status);
+        if (allowed)
+          expect(
+            [401, 403],
+            `${route.method} ${route.path} as ${role}: ${JSON.stringify(response.body)}`,
+          ).not.toContain(response.status);
         else expect(response.status, `${route.method} ${route.path} as ${role}`).toBe(403);
         cells++;
       }

@@ -18,7 +18,10 @@ function clientWrites(): Array<{ method: string; path: string }> {
     const text = readFileSync(join(folder, file), 'utf8');
     for (const match of text.matchAll(/api(Request|Upload|Download)\(\s*(['`])([^'`]+)\2([^\n]*)/g)) {
       const [, kind, , rawPath, rest] = match;
-      const method = kind === 'Upload' || kind === 'Download' ? 'POST' : (/method: '(POST|PUT|PATCH|DELETE)'/.exec(rest ?? '')?.[1] ?? 'GET');
+      const method =
+        kind === 'Upload' || kind === 'Download'
+          ? 'POST'
+          : (/method: '(POST|PUT|PATCH|DELETE)'/.exec(rest ?? '')?.[1] ?? 'GET');
       calls.push({ method, path: rawPath!.split('?')[0]!.replace(/\$\{[^}]+\}/g, 'X') });
     }
   }
@@ -30,7 +33,9 @@ describe('every write has a screen', () => {
   afterAll(() => running.close());
 
   it('[SCREEN-FOR-EVERY-WRITE] when the API’s write routes are listed, then each is called by the client, or is marked API-only with a reason', () => {
-    const writes = routeTable(running.app).filter((route) => route.path.startsWith('/api/') && ['POST', 'PUT', 'PATCH', 'DELETE'].includes(route.method));
+    const writes = routeTable(running.app).filter(
+      (route) => route.path.startsWith('/api/') && ['POST', 'PUT', 'PATCH', 'DELETE'].includes(route.method),
+    );
     expect(writes.length).toBeGreaterThan(20);
     const calls = clientWrites();
     const uncovered = writes

@@ -5,7 +5,13 @@ import { person, SamlTestDriver } from '../helpers/saml-round-trip';
 
 /** The directives of a Content-Security-Policy header, by name. */
 function directives(header: string | undefined): Map<string, string[]> {
-  return new Map((header ?? '').split(';').map((part) => part.trim().split(/\s+/)).filter((words) => words[0]).map(([name, ...values]) => [name!, values]));
+  return new Map(
+    (header ?? '')
+      .split(';')
+      .map((part) => part.trim().split(/\s+/))
+      .filter((words) => words[0])
+      .map(([name, ...values]) => [name!, values]),
+  );
 }
 
 describe('security headers and cookies', () => {
@@ -33,12 +39,16 @@ describe('security headers and cookies', () => {
   });
 
   it('[SEC-TLS-COOKIE] when served behind TLS (a proxy on loopback forwarding https), then HSTS is sent and the session cookie is Secure, HttpOnly and SameSite', async () => {
-    expect((await request(behindTls.app).get('/api/organisation')).headers['strict-transport-security']).toMatch(/max-age=\d+/);
+    expect((await request(behindTls.app).get('/api/organisation')).headers['strict-transport-security']).toMatch(
+      /max-age=\d+/,
+    );
     const saml = await SamlTestDriver.create(behindTls.config);
     const agent = request.agent(behindTls.app);
     const login = await agent.get('/auth/login').set('X-Forwarded-Proto', 'https');
     // The sign-in binding cookie comes back with the identity provider's cross-site POST only as SameSite=None, hence Secure.
-    const binding = ([] as string[]).concat(login.headers['set-cookie'] ?? []).find((line) => line.startsWith('ingotrace_signin='));
+    const binding = ([] as string[])
+      .concat(login.headers['set-cookie'] ?? [])
+      .find((line) => line.startsWith('ingotrace_signin='));
     expect(binding).toMatch(/;\s*Secure/i);
     expect(binding).toMatch(/;\s*HttpOnly/i);
     expect(binding).toMatch(/;\s*SameSite=None/i);
@@ -52,7 +62,9 @@ describe('security headers and cookies', () => {
       .type('form')
       .send({ SAMLResponse: answer.samlResponse, RelayState: answer.relayState });
     expect(acs.status).toBe(303);
-    const cookie = ([] as string[]).concat(acs.headers['set-cookie'] ?? []).find((line) => line.startsWith('ingotrace_session='));
+    const cookie = ([] as string[])
+      .concat(acs.headers['set-cookie'] ?? [])
+      .find((line) => line.startsWith('ingotrace_session='));
     expect(cookie).toMatch(/;\s*Secure/i);
     expect(cookie).toMatch(/;\s*HttpOnly/i);
     expect(cookie).toMatch(/;\s*SameSite=Lax/i);

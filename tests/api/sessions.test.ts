@@ -26,7 +26,10 @@ describe('sessions', () => {
     const again = await first.agent.get('/auth/login');
     const { query } = SamlTestDriver.authnRequestFrom(again.headers.location);
     const answer = await saml.answerAtIdentityProvider(saml.idpAgent(), query, person('kiw-0101'));
-    const acs = await first.agent.post('/auth/saml/acs').type('form').send({ SAMLResponse: answer.samlResponse, RelayState: '/' });
+    const acs = await first.agent
+      .post('/auth/saml/acs')
+      .type('form')
+      .send({ SAMLResponse: answer.samlResponse, RelayState: '/' });
     const secondCookie = sessionCookie(acs.headers['set-cookie']);
     expect(secondCookie).toBeDefined();
     expect(secondCookie).not.toBe(firstCookie);
@@ -47,7 +50,10 @@ describe('sessions', () => {
     const body = { roles: ['auditor'], reason: 'covering audit week' };
     const refused = await agent.put('/api/people/1/roles').send(body);
     expect(refused.status).toBe(403);
-    expect(refused.body.error).toMatchObject({ code: 'FORBIDDEN', message: 'This request lacks a valid CSRF token; reload the page and try again' });
+    expect(refused.body.error).toMatchObject({
+      code: 'FORBIDDEN',
+      message: 'This request lacks a valid CSRF token; reload the page and try again',
+    });
     const wrong = await agent.put('/api/people/1/roles').set('X-CSRF-Token', 'forged').send(body);
     expect(wrong.status).toBe(403);
     const accepted = await agent.put('/api/people/1/roles').set('X-CSRF-Token', token).send({ roles: [], reason: 'x' });
@@ -70,7 +76,7 @@ describe('sessions', () => {
     }
   });
 
-  it('when a session is stored, then it holds the person\'s id only, their roles are read afresh with it, and a session past its limit is neither read nor kept', async () => {
+  it("when a session is stored, then it holds the person's id only, their roles are read afresh with it, and a session past its limit is neither read nor kept", async () => {
     const { agent, setCookie } = await saml.signIn(running.app, 'kiw-0401');
     const sid = decodeURIComponent(sessionCookie(setCookie)!.split('=')[1]!).replace(/^s:/, '').split('.')[0]!;
     const db = running.database.dataSource;
@@ -78,11 +84,16 @@ describe('sessions', () => {
     const [{ id }] = await db.query("SELECT id FROM person WHERE subject = 'kiw-0401'");
     expect(JSON.parse(data).passport).toEqual({ user: id });
     // A role granted directly in the database is seen at the next request, without signing in again.
-    await db.query("INSERT INTO person_role (person_id, role, source) VALUES (?, 'qa-reviewer', 'administrator')", [id]);
+    await db.query("INSERT INTO person_role (person_id, role, source) VALUES (?, 'qa-reviewer', 'administrator')", [
+      id,
+    ]);
     try {
       expect((await agent.get('/api/me')).body.person.roles).toContain('qa-reviewer');
     } finally {
-      await db.query("DELETE FROM person_role WHERE person_id = ? AND role = 'qa-reviewer' AND source = 'administrator'", [id]);
+      await db.query(
+        "DELETE FROM person_role WHERE person_id = ? AND role = 'qa-reviewer' AND source = 'administrator'",
+        [id],
+      );
     }
     expect((await agent.get('/api/me')).body.person.roles).not.toContain('qa-reviewer');
     await db.query('UPDATE http_session SET expires = UNIX_TIMESTAMP() - 1 WHERE session_id = ?', [sid]);
@@ -101,7 +112,10 @@ describe('sessions', () => {
       expect(onOther.status).toBe(200);
       expect(onOther.body.person.roles).toEqual(['qa-reviewer']);
       // A state-changing request on the second instance with the token the session holds.
-      const logout = await request(other.app).post('/auth/logout').set('Cookie', cookie).set('X-CSRF-Token', onOther.body.csrfToken);
+      const logout = await request(other.app)
+        .post('/auth/logout')
+        .set('Cookie', cookie)
+        .set('X-CSRF-Token', onOther.body.csrfToken);
       expect(logout.status).toBe(200);
       expect((await request(running.app).get('/api/me').set('Cookie', cookie)).status).toBe(401);
     } finally {

@@ -26,7 +26,9 @@ describe('the stand-in identity provider', () => {
   it('when a request names an ACS that is not registered, then it refuses to answer', async () => {
     const response = await saml.idpAgent().get(`/sso?SAMLRequest=${redirectRequest('http://127.0.0.1:9999/steal')}`);
     expect(response.status).toBe(400);
-    expect(response.text).toContain('The address http://127.0.0.1:9999/steal is not registered with this identity provider.');
+    expect(response.text).toContain(
+      'The address http://127.0.0.1:9999/steal is not registered with this identity provider.',
+    );
   });
 
   it('when the request is not a SAML AuthnRequest, then it says so', async () => {
@@ -36,7 +38,9 @@ describe('the stand-in identity provider', () => {
   });
 
   it('when a registered ACS asks, then it shows the sign-in page listing the demo people', async () => {
-    const response = await saml.idpAgent().get(`/sso?SAMLRequest=${redirectRequest(`${config.PUBLIC_URL}/auth/saml/acs`)}`);
+    const response = await saml
+      .idpAgent()
+      .get(`/sso?SAMLRequest=${redirectRequest(`${config.PUBLIC_URL}/auth/saml/acs`)}`);
     expect(response.status).toBe(200);
     expect(response.text).toContain('Sign in to Ingotrace');
     expect(response.text).toContain('Maren Østby');

@@ -14,7 +14,13 @@ describe('transactions when the connection is lost', () => {
   afterAll(() => dataSource.destroy());
   const actor = { id: null, name: 'retry test', role: null };
   const eventsFor = async (id: string) =>
-    Number((await dataSource.query("SELECT COUNT(*) AS n FROM audit_event WHERE action = 'test.retry' AND entity_id = ?", [id]))[0].n);
+    Number(
+      (
+        await dataSource.query("SELECT COUNT(*) AS n FROM audit_event WHERE action = 'test.retry' AND entity_id = ?", [
+          id,
+        ])
+      )[0].n,
+    );
 
   it('[TXN-RETRY] when the connection is cut before COMMIT, then the whole transaction runs again on a new connection and is saved once', async () => {
     await dataSource.initialize();
@@ -22,7 +28,12 @@ describe('transactions when the connection is lost', () => {
     let attempts = 0;
     await inTransaction(dataSource, async (manager) => {
       attempts += 1;
-      await appendLedgerEvent(manager, { actor, action: 'test.retry', entity: { type: 'test', id }, after: { attempts } });
+      await appendLedgerEvent(manager, {
+        actor,
+        action: 'test.retry',
+        entity: { type: 'test', id },
+        after: { attempts },
+      });
       if (attempts === 1) {
         const [{ connection }] = await manager.query('SELECT CONNECTION_ID() AS connection');
         await adminSql(`KILL ${Number(connection)}`);
@@ -38,7 +49,12 @@ describe('transactions when the connection is lost', () => {
     let attempts = 0;
     const outcome = inTransaction(dataSource, async (manager) => {
       attempts += 1;
-      await appendLedgerEvent(manager, { actor, action: 'test.retry', entity: { type: 'test', id }, after: { attempts } });
+      await appendLedgerEvent(manager, {
+        actor,
+        action: 'test.retry',
+        entity: { type: 'test', id },
+        after: { attempts },
+      });
       const [{ connection }] = await manager.query('SELECT CONNECTION_ID() AS connection');
       await adminSql(`KILL ${Number(connection)}`);
     });

@@ -2,7 +2,9 @@ import { expect, test } from '@playwright/test';
 import { signInAs } from './support/sign-in';
 import { openedDialog } from './support/dialogs';
 
-test('[E2E-LEDGER] an auditor filters the audit trail, runs the verification and signs a review of the trail', async ({ page }) => {
+test('[E2E-LEDGER] an auditor filters the audit trail, runs the verification and signs a review of the trail', async ({
+  page,
+}) => {
   await signInAs(page, 'kiw-0401', '/audit');
   await expect(page.getByRole('heading', { level: 1, name: 'Audit trail' })).toBeVisible();
   const table = page.getByRole('table');
@@ -33,12 +35,16 @@ test('[E2E-LEDGER] an auditor filters the audit trail, runs the verification and
 
   // Verify the chain.
   await page.getByRole('button', { name: 'Verify the chain' }).click();
-  await expect(page.getByTestId('verification-result')).toContainText(/audit trail verified: \d+ events, \d+ signatures, chain head \d+ [0-9a-f]{64}/);
+  await expect(page.getByTestId('verification-result')).toContainText(
+    /audit trail verified: \d+ events, \d+ signatures, chain head \d+ [0-9a-f]{64}/,
+  );
 
   // Sign a review of the trail: the identity provider asks for the password again in a small window.
   await page.getByRole('button', { name: 'Sign the review of this trail' }).click();
   const dialog = await openedDialog(page, 'Sign: Reviewed');
-  await expect(dialog.getByTestId('signature-statement')).toContainText('legally binding equivalent of my handwritten signature');
+  await expect(dialog.getByTestId('signature-statement')).toContainText(
+    'legally binding equivalent of my handwritten signature',
+  );
   await expect(dialog.getByText(/^Audit trail reviewed through event \d+$/)).toBeVisible();
   await page.screenshot({ path: 'test-results/signing-dialog.png' });
   const popupOpened = page.waitForEvent('popup');
@@ -47,7 +53,10 @@ test('[E2E-LEDGER] an auditor filters the audit trail, runs the verification and
   await expect(popup.getByRole('heading', { name: 'Confirm it is you' })).toBeVisible();
   await popup.getByLabel('Password').fill('priya-demo');
   await popup.getByRole('button', { name: 'Sign in' }).click();
-  await expect(dialog.getByTestId('signature-manifestation')).toContainText(/Signed: Priya Raghunathan — Reviewed — \d{4}-\d{2}-\d{2} \d{2}:\d{2}:\d{2} (GMT|BST)/, { timeout: 15_000 });
+  await expect(dialog.getByTestId('signature-manifestation')).toContainText(
+    /Signed: Priya Raghunathan — Reviewed — \d{4}-\d{2}-\d{2} \d{2}:\d{2}:\d{2} (GMT|BST)/,
+    { timeout: 15_000 },
+  );
   await dialog.getByRole('button', { name: 'Done' }).click();
   await expect(page.getByRole('list', { name: 'Signatures' })).toContainText('Priya Raghunathan — Reviewed');
   await page.screenshot({ path: 'test-results/audit-signed-review.png', fullPage: true });

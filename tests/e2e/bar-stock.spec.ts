@@ -2,7 +2,9 @@ import { expect, test } from '@playwright/test';
 import { signInAs } from './support/sign-in';
 import { openedDialog } from './support/dialogs';
 
-test('[E2E-BAR-STOCK] an engineer receives a bar against a heat, cuts it, and prints its tag with a QR code', async ({ page }) => {
+test('[E2E-BAR-STOCK] an engineer receives a bar against a heat, cuts it, and prints its tag with a QR code', async ({
+  page,
+}) => {
   await signInAs(page, 'kiw-0101', '/bar-stock');
   await expect(page.getByRole('heading', { level: 1, name: 'Bar stock' })).toBeVisible();
   await page.getByRole('button', { name: 'Receive bar' }).click();
@@ -32,9 +34,13 @@ test('[E2E-BAR-STOCK] an engineer receives a bar against a heat, cuts it, and pr
   await expect(cut.getByText('Write a length in mm, e.g. 412.5')).toBeVisible();
   await cut.getByLabel('Piece B (mm)').press('Backspace');
   await cut.getByLabel('Piece B (mm)').pressSequentially('00', { delay: 80 });
-  await expect(cut.getByTestId('cut-check')).toHaveText('100 mm of the bar is not accounted for (the kerf allowance is 3 mm); record the remnant as a piece');
+  await expect(cut.getByTestId('cut-check')).toHaveText(
+    '100 mm of the bar is not accounted for (the kerf allowance is 3 mm); record the remnant as a piece',
+  );
   await cut.getByRole('button', { name: 'Record the cut' }).click();
-  await expect(cut.getByRole('alert')).toContainText('100 mm of the bar is not accounted for (the kerf allowance is 3 mm)');
+  await expect(cut.getByRole('alert')).toContainText(
+    '100 mm of the bar is not accounted for (the kerf allowance is 3 mm)',
+  );
   await cut.getByRole('button', { name: 'Add a piece' }).click();
   await cut.getByLabel('Piece C (mm)').pressSequentially('94', { delay: 80 });
   await expect(cut.getByTestId('cut-check')).toHaveText('The pieces and the kerf account for the bar.');

@@ -2,7 +2,9 @@ import { expect, test } from '@playwright/test';
 import { signInAs } from './support/sign-in';
 import { openedDialog } from './support/dialogs';
 
-test('[E2E-SCREENING] a QA reviewer meets a heat flagged by the certificate screening and acknowledges the finding with a reason', async ({ page }) => {
+test('[E2E-SCREENING] a QA reviewer meets a heat flagged by the certificate screening and acknowledges the finding with a reason', async ({
+  page,
+}) => {
   await signInAs(page, 'kiw-0201', '/heats');
   await page.getByRole('table').getByRole('link', { name: 'BAW-7892' }).click();
   await expect(page.getByRole('heading', { level: 1, name: 'Heat BAW-7892' })).toBeVisible();
@@ -14,7 +16,9 @@ test('[E2E-SCREENING] a QA reviewer meets a heat flagged by the certificate scre
   const dialog = await openedDialog(page, 'Acknowledge a screening finding');
   await dialog.getByRole('button', { name: 'Acknowledge finding' }).click();
   await expect(dialog).toContainText('Say what you checked, in at least 10 characters');
-  await dialog.getByLabel('What you checked, and why the finding does not stop acceptance').fill('Check analysis ordered; the mill confirmed its lab re-tested this heat');
+  await dialog
+    .getByLabel('What you checked, and why the finding does not stop acceptance')
+    .fill('Check analysis ordered; the mill confirmed its lab re-tested this heat');
   await dialog.getByRole('button', { name: 'Acknowledge finding' }).click();
   await expect(dialog).toBeHidden();
   await expect(screening).toContainText('Acknowledged by Aisling Ní Bhriain');

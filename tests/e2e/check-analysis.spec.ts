@@ -3,7 +3,9 @@ import { signInAs } from './support/sign-in';
 import { openedDialog } from './support/dialogs';
 
 // ASTM F67 grade 4 oxygen: heat limit ≤ 0.40, product-analysis tolerance 0.03 over (DOMAIN.md §1.1, S1).
-test('[E2E-CHECK-ANALYSIS] an engineer records our own check analysis of a heat the schedule marks, and the heat page judges it against the widened limits', async ({ page }) => {
+test('[E2E-CHECK-ANALYSIS] an engineer records our own check analysis of a heat the schedule marks, and the heat page judges it against the widened limits', async ({
+  page,
+}) => {
   await signInAs(page, 'kiw-0101', '/heats');
   const due = page.getByRole('region', { name: /heats? awaiting our check analysis/ });
   await expect(due).toContainText('Every heat from a conditionally approved supplier is checked');
@@ -12,7 +14,9 @@ test('[E2E-CHECK-ANALYSIS] an engineer records our own check analysis of a heat 
   await expect(page.getByRole('heading', { level: 1, name: 'Heat BAW-7749' })).toBeVisible();
   const check = page.getByRole('region', { name: 'Independent check analysis' });
   await expect(check).toContainText('due — not recorded');
-  await expect(check).toContainText('The heat cannot be accepted until our own check analysis is recorded and conforms.');
+  await expect(check).toContainText(
+    'The heat cannot be accepted until our own check analysis is recorded and conforms.',
+  );
 
   await check.getByRole('button', { name: 'Record a check analysis…' }).click();
   const dialog = await openedDialog(page, 'Record a check analysis');
@@ -30,7 +34,9 @@ test('[E2E-CHECK-ANALYSIS] an engineer records our own check analysis of a heat 
   await page.screenshot({ path: 'test-results/check-analysis.png', fullPage: true });
 });
 
-test('[E2E-CHECK-RULE] a QA approver sets a check analysis rule for one mill and specification from the supplier page', async ({ page }) => {
+test('[E2E-CHECK-RULE] a QA approver sets a check analysis rule for one mill and specification from the supplier page', async ({
+  page,
+}) => {
   await signInAs(page, 'kiw-0301', '/suppliers');
   await page.getByRole('textbox', { name: 'Search suppliers' }).fill('Castellane');
   await page.getByRole('link', { name: 'Castellane Special Metals' }).click();

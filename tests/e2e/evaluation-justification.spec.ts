@@ -5,9 +5,13 @@ import { signWithPassword } from './support/signing';
 
 const typing = { delay: 60 };
 
-test('[E2E-CANNOT-EVALUATE] a heat the library cannot fully judge is shown as such, and is accepted only after a QA approver signs a justification', async ({ page }) => {
+test('[E2E-CANNOT-EVALUATE] a heat the library cannot fully judge is shown as such, and is accepted only after a QA approver signs a justification', async ({
+  page,
+}) => {
   const heatNumber = `CE-${Date.now().toString().slice(-6)}`;
-  const certificate = Buffer.from(`%PDF-1.4\n1 0 obj << /Type /Catalog >> endobj\n% heat ${heatNumber} certificate\ntrailer << /Root 1 0 R >>\n%%EOF\n`);
+  const certificate = Buffer.from(
+    `%PDF-1.4\n1 0 obj << /Type /Catalog >> endobj\n% heat ${heatNumber} certificate\ntrailer << /Root 1 0 R >>\n%%EOF\n`,
+  );
 
   // An engineer receives a stainless heat bought to ISO 5832-1, whose mechanical minima the library does not hold.
   await signInAs(page, 'kiw-0101', '/heats');
@@ -31,9 +35,22 @@ test('[E2E-CANNOT-EVALUATE] a heat the library cannot fully judge is shown as su
   await expect(page.getByRole('heading', { level: 1, name: `Heat ${heatNumber}` })).toBeVisible();
   await expect(page.locator('.page-lead')).toContainText('Bar 12.7 mm, annealed');
 
-  await page.getByLabel('Certificate file').setInputFiles({ name: `certificate ${heatNumber}.pdf`, mimeType: 'application/pdf', buffer: certificate });
+  await page
+    .getByLabel('Certificate file')
+    .setInputFiles({ name: `certificate ${heatNumber}.pdf`, mimeType: 'application/pdf', buffer: certificate });
   const results = page.getByRole('form', { name: 'Certificate results' });
-  for (const [element, value] of Object.entries({ C: '0.021', Si: '0.45', Mn: '1.62', P: '0.018', S: '0.003', Cr: '17.9', Mo: '2.71', Ni: '14.2', N: '0.06', Cu: '0.12' })) {
+  for (const [element, value] of Object.entries({
+    C: '0.021',
+    Si: '0.45',
+    Mn: '1.62',
+    P: '0.018',
+    S: '0.003',
+    Cr: '17.9',
+    Mo: '2.71',
+    Ni: '14.2',
+    N: '0.06',
+    Cu: '0.12',
+  })) {
     await results.getByLabel(element, { exact: true }).pressSequentially(value, typing);
   }
   await results.getByLabel('Tensile strength (MPa)').pressSequentially('610', typing);
@@ -54,9 +71,18 @@ test('[E2E-CANNOT-EVALUATE] a heat the library cannot fully judge is shown as su
   await page.getByRole('button', { name: 'Sign a justification' }).click();
   const signing = await openedDialog(page, 'Sign: Justified for acceptance');
   await expect(signing).toContainText('Mechanical requirements');
-  await signing.getByLabel(/^Reason/).pressSequentially('Minima checked against our licensed ISO 5832-1:2024, table 3', { delay: 30 });
+  await signing
+    .getByLabel(/^Reason/)
+    .pressSequentially('Minima checked against our licensed ISO 5832-1:2024, table 3', { delay: 30 });
   await page.screenshot({ path: 'test-results/heat-justification-dialog.png', fullPage: true });
-  await signWithPassword(page, 'Justified for acceptance', 'Joaquín Ferreira — Justified for acceptance', 'joaquin-demo', undefined, 20);
+  await signWithPassword(
+    page,
+    'Justified for acceptance',
+    'Joaquín Ferreira — Justified for acceptance',
+    'joaquin-demo',
+    undefined,
+    20,
+  );
   await expect(page.getByText('covered by a QA approver’s signed justification')).toBeVisible();
 
   // The QA reviewer can now accept it.

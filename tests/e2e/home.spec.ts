@@ -2,7 +2,9 @@ import { expect, test, type Page } from '@playwright/test';
 import { signInAs } from './support/sign-in';
 import { expectAccessible } from './support/accessibility';
 
-test('[E2E-HOME] a QA approver’s home lists what waits for them, with counts and links, and the plant’s figures as charts', async ({ page }) => {
+test('[E2E-HOME] a QA approver’s home lists what waits for them, with counts and links, and the plant’s figures as charts', async ({
+  page,
+}) => {
   await signInAs(page, 'kiw-0301', '/');
   await expect(page.getByRole('heading', { level: 1, name: 'Overview' })).toBeVisible();
   const toApprove = page.getByTestId('work-lots-to-approve');
@@ -30,7 +32,9 @@ test('[E2E-HOME-ENGINEER] an engineer’s home shows engineering work, not QA’
 async function noSidewaysScroll(page: Page, screen: string) {
   await expect(page.getByRole('heading', { level: 1 }).first()).toBeVisible();
   await page.waitForTimeout(300);
-  const overflow = await page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
+  const overflow = await page.evaluate(
+    () => document.documentElement.scrollWidth - document.documentElement.clientWidth,
+  );
   expect.soft(overflow, `${screen} scrolls sideways by ${overflow} px at phone width`).toBeLessThanOrEqual(0);
 }
 

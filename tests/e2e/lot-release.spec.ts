@@ -2,8 +2,9 @@ import { expect, test } from '@playwright/test';
 import { signInAs } from './support/sign-in';
 import { signWithPassword } from './support/signing';
 
-
-test('[E2E-RELEASE] a QA reviewer and then a different QA approver sign a submitted lot, which is released', async ({ page }) => {
+test('[E2E-RELEASE] a QA reviewer and then a different QA approver sign a submitted lot, which is released', async ({
+  page,
+}) => {
   test.setTimeout(90_000);
   await signInAs(page, 'kiw-0201', '/release');
   await expect(page.getByRole('heading', { level: 1, name: 'Release desk' })).toBeVisible();
@@ -30,25 +31,37 @@ test('[E2E-RELEASE] a QA reviewer and then a different QA approver sign a submit
   await page.screenshot({ path: 'test-results/release-audit-trail.png', fullPage: true });
   await page.getByRole('button', { name: 'Sign as reviewed' }).click();
   await expect(page.getByRole('dialog', { name: 'Sign: Reviewed' })).toContainText('Release of lot');
-  await expect(page.getByTestId('signature-trail')).toContainText(/covers the record's audit trail as it stands now: \d+ events, through event #\d+/);
+  await expect(page.getByTestId('signature-trail')).toContainText(
+    /covers the record's audit trail as it stands now: \d+ events, through event #\d+/,
+  );
   await page.getByTestId('signature-trail').scrollIntoViewIfNeeded();
-  await page.getByRole('dialog', { name: 'Sign: Reviewed' }).screenshot({ path: 'test-results/release-review-dialog.png' });
+  await page
+    .getByRole('dialog', { name: 'Sign: Reviewed' })
+    .screenshot({ path: 'test-results/release-review-dialog.png' });
   await signWithPassword(page, 'Reviewed', 'Aisling Ní Bhriain — Reviewed', 'aisling-demo');
-  await expect(page.getByRole('heading', { level: 1, name: new RegExp(`^Lot ${lotNumber}`) })).toContainText('Reviewed');
+  await expect(page.getByRole('heading', { level: 1, name: new RegExp(`^Lot ${lotNumber}`) })).toContainText(
+    'Reviewed',
+  );
   await expect(page.getByRole('button', { name: 'Approve for release' })).toHaveCount(0);
 
   await signInAs(page, 'kiw-0301', '/release');
   // Each tab counts its lots; awaiting approval names who reviewed each lot.
   await expect(page.getByRole('tab', { name: /^Awaiting approval \d+/ })).toBeVisible();
   await page.getByRole('tab', { name: /^Awaiting approval/ }).click();
-  await expect(page.locator('table').getByRole('row', { name: new RegExp(lotNumber) })).toContainText('Aisling Ní Bhriain');
+  await expect(page.locator('table').getByRole('row', { name: new RegExp(lotNumber) })).toContainText(
+    'Aisling Ní Bhriain',
+  );
   await page.screenshot({ path: 'test-results/release-desk-approval.png', fullPage: true });
   await page.locator('table').getByRole('link', { name: lotNumber }).click();
   await page.getByRole('button', { name: 'Approve for release' }).click();
   await expect(page.getByRole('dialog', { name: 'Sign: Approved for release' })).toContainText('Release of lot');
   await signWithPassword(page, 'Approved for release', 'Joaquín Ferreira — Approved for release', 'joaquin-demo');
-  await expect(page.getByRole('heading', { level: 1, name: new RegExp(`^Lot ${lotNumber}`) })).toContainText('Released');
-  await expect(page.getByRole('region', { name: /^Release (checklist passes|not ready)$/ })).toContainText('Joaquín Ferreira — Approved for release');
+  await expect(page.getByRole('heading', { level: 1, name: new RegExp(`^Lot ${lotNumber}`) })).toContainText(
+    'Released',
+  );
+  await expect(page.getByRole('region', { name: /^Release (checklist passes|not ready)$/ })).toContainText(
+    'Joaquín Ferreira — Approved for release',
+  );
   const downloading = page.waitForEvent('download');
   await page.getByRole('link', { name: 'Download the release packet (PDF)' }).click();
   const download = await downloading;

@@ -12,8 +12,9 @@ async function api(page: Page, method: 'get' | 'post', path: string, data?: unkn
   return response.json();
 }
 
-
-test('[E2E-MANUFACTURING] an engineer opens a lot from a bar, records its operations, runs it with two other lots through passivation and cleaning, and raises a nonconformance that QA closes', async ({ page }) => {
+test('[E2E-MANUFACTURING] an engineer opens a lot from a bar, records its operations, runs it with two other lots through passivation and cleaning, and raises a nonconformance that QA closes', async ({
+  page,
+}) => {
   test.setTimeout(120_000);
   await signInAs(page, 'kiw-0102', '/lots');
   await expect(page.getByRole('heading', { level: 1, name: 'Production lots' })).toBeVisible();
@@ -21,7 +22,14 @@ test('[E2E-MANUFACTURING] an engineer opens a lot from a bar, records its operat
   // A fresh bar from an accepted F136 heat, and two companion lots brought to the same step through the API.
   const heats = await api(page, 'get', '/heats?status=accepted&search=NV-25&pageSize=1');
   const heatId = heats.items[0].id;
-  await api(page, 'post', '/bar-pieces', { heatId, markedHeatNumber: heats.items[0].heatNumber, tag: 'E2E-LOT-BAR-1', diameterMm: '25.4', lengthMm: '3000', location: 'E2E rack' });
+  await api(page, 'post', '/bar-pieces', {
+    heatId,
+    markedHeatNumber: heats.items[0].heatNumber,
+    tag: 'E2E-LOT-BAR-1',
+    diameterMm: '25.4',
+    lengthMm: '3000',
+    location: 'E2E rack',
+  });
   const parts = await api(page, 'get', '/parts');
   const screw = parts.find((part: { partNumber: string }) => part.partNumber === 'KIW-CS35-40');
   const companions: string[] = [];
@@ -29,7 +37,16 @@ test('[E2E-MANUFACTURING] an engineer opens a lot from a bar, records its operat
     const lot = await api(page, 'post', '/lots', { partId: screw.id, plannedQty: 10 });
     await api(page, 'post', `/lots/${lot.id}/material-issues`, { tag: 'E2E-LOT-BAR-1', lengthMm: '450' });
     for (const stepNo of [10, 20]) {
-      await api(page, 'post', `/lots/${lot.id}/operations`, { stepNo, operatorName: 'E2E', workCentre: 'Cell', startedAt: '2026-11-30T08:00:00Z', endedAt: '2026-11-30T09:00:00Z', qtyIn: 10, qtyGood: 10, qtyScrap: 0 });
+      await api(page, 'post', `/lots/${lot.id}/operations`, {
+        stepNo,
+        operatorName: 'E2E',
+        workCentre: 'Cell',
+        startedAt: '2026-11-30T08:00:00Z',
+        endedAt: '2026-11-30T09:00:00Z',
+        qtyIn: 10,
+        qtyGood: 10,
+        qtyScrap: 0,
+      });
     }
     companions.push(lot.lotNumber);
   }
@@ -74,7 +91,9 @@ test('[E2E-MANUFACTURING] an engineer opens a lot from a bar, records its operat
       await dialog.screenshot({ path: 'test-results/record-step-tablet.png' });
       await page.setViewportSize({ width: 1280, height: 720 });
     }
-    await dialog.getByLabel('Work centre').pressSequentially(step === 10 ? 'Swiss lathe 2' : 'Machining cell 4', { delay: 40 });
+    await dialog
+      .getByLabel('Work centre')
+      .pressSequentially(step === 10 ? 'Swiss lathe 2' : 'Machining cell 4', { delay: 40 });
     await dialog.getByLabel('Units in').fill(step === 10 ? '20' : '18');
     await dialog.getByLabel('Units in').press('Tab');
     await dialog.getByLabel('Scrapped').fill(String(scrap));
@@ -92,7 +111,17 @@ test('[E2E-MANUFACTURING] an engineer opens a lot from a bar, records its operat
 
   // Passivation in window, then cleaning out of window, each with the two companion lots.
   for (const run of [
-    { kind: 'passivation', method: /ASTM F86 nitric/, values: { 'Bath identity': 'P1 E2E', 'Nitric acid concentration': '30', 'Bath temperature': '25', 'Immersion time': '35', 'Final rinse water conductivity': '1.5' } },
+    {
+      kind: 'passivation',
+      method: /ASTM F86 nitric/,
+      values: {
+        'Bath identity': 'P1 E2E',
+        'Nitric acid concentration': '30',
+        'Bath temperature': '25',
+        'Immersion time': '35',
+        'Final rinse water conductivity': '1.5',
+      },
+    },
     {
       kind: 'cleaning',
       method: /Final aqueous ultrasonic clean/,
@@ -114,10 +143,14 @@ test('[E2E-MANUFACTURING] an engineer opens a lot from a bar, records its operat
     await dialog.getByLabel('Method').click();
     await page.getByRole('option', { name: run.method }).click();
     await dialog.getByLabel('Line or tank').fill(run.kind === 'passivation' ? 'Tank P1' : 'Ultrasonic U1');
-    for (const [label, value] of Object.entries(run.values)) await dialog.getByLabel(label, { exact: false }).first().pressSequentially(value, { delay: 40 });
+    for (const [label, value] of Object.entries(run.values))
+      await dialog.getByLabel(label, { exact: false }).first().pressSequentially(value, { delay: 40 });
     // Each value is judged against the method's window as it is typed; the server still decides.
     if (run.kind === 'passivation') await expect(dialog.getByTestId('window-temperature')).toHaveText('Within window');
-    else await expect(dialog.getByTestId('window-washTemperature')).toHaveText('Outside window: 63 °C is above the maximum 60 °C. Recording it raises a nonconformance on each lot in the run.');
+    else
+      await expect(dialog.getByTestId('window-washTemperature')).toHaveText(
+        'Outside window: 63 °C is above the maximum 60 °C. Recording it raises a nonconformance on each lot in the run.',
+      );
     const lots = dialog.getByRole('listbox', { name: /Lots in the run/ });
     for (const lot of [lotNumber, ...companions]) {
       await dialog.getByPlaceholder('Find a lot by number or part').fill(lot);
@@ -125,15 +158,24 @@ test('[E2E-MANUFACTURING] an engineer opens a lot from a bar, records its operat
     }
     await expect(dialog.getByText(`3 chosen: ${[lotNumber, ...companions].join(', ')}.`)).toBeVisible();
     await dialog.getByRole('button', { name: 'Record run' }).click();
-    await expect(page.getByRole('heading', { level: 1, name: new RegExp(`${run.kind === 'passivation' ? 'Passivation' : 'Cleaning'} run`) })).toBeVisible();
+    await expect(
+      page.getByRole('heading', {
+        level: 1,
+        name: new RegExp(`${run.kind === 'passivation' ? 'Passivation' : 'Cleaning'} run`),
+      }),
+    ).toBeVisible();
   }
   await expect(page.getByText('63 °C is above the maximum 60 °C')).toBeVisible();
-  await expect(page.getByRole('region', { name: 'Nonconformances raised by this run' }).getByRole('listitem')).toHaveCount(3);
+  await expect(
+    page.getByRole('region', { name: 'Nonconformances raised by this run' }).getByRole('listitem'),
+  ).toHaveCount(3);
   await page.screenshot({ path: 'test-results/run-out-of-window.png', fullPage: true });
 
   // Back on the lot: the run's nonconformance is there; the engineer raises one more.
   await page.getByRole('link', { name: lotNumber }).click();
-  await expect(page.getByRole('region', { name: 'Nonconformances touching this lot' })).toContainText('ran outside its window');
+  await expect(page.getByRole('region', { name: 'Nonconformances touching this lot' })).toContainText(
+    'ran outside its window',
+  );
   await page.getByRole('button', { name: 'Raise a nonconformance' }).click();
   const raise = await openedDialog(page, /Raise a nonconformance/);
   await raise.getByLabel('What is wrong').fill('Two parts with a scratched thread found at visual check');
@@ -153,7 +195,13 @@ test('[E2E-MANUFACTURING] an engineer opens a lot from a bar, records its operat
   await page.getByRole('button', { name: 'Sign the disposition' }).click();
   await signWithPassword(page, 'Disposition decided', 'Joaquín Ferreira — Disposition decided', 'joaquin-demo');
   await page.getByRole('button', { name: 'Close with a signature' }).click();
-  await signWithPassword(page, 'Closed', 'Joaquín Ferreira — Closed', 'joaquin-demo', 'Rework done; both parts re-inspected and accepted');
+  await signWithPassword(
+    page,
+    'Closed',
+    'Joaquín Ferreira — Closed',
+    'joaquin-demo',
+    'Rework done; both parts re-inspected and accepted',
+  );
   await expect(page.getByRole('heading', { level: 1, name: /^NC-/ })).toContainText('Closed');
   await page.screenshot({ path: 'test-results/nonconformance-closed.png', fullPage: true });
 });

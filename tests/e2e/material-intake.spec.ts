@@ -2,12 +2,18 @@ import { expect, test } from '@playwright/test';
 import { signInAs } from './support/sign-in';
 import { openedDialog } from './support/dialogs';
 
-const certificatePdf = Buffer.from('%PDF-1.4\n1 0 obj << /Type /Catalog >> endobj\n% heat E2E-4711 certificate\ntrailer << /Root 1 0 R >>\n%%EOF\n');
+const certificatePdf = Buffer.from(
+  '%PDF-1.4\n1 0 obj << /Type /Catalog >> endobj\n% heat E2E-4711 certificate\ntrailer << /Root 1 0 R >>\n%%EOF\n',
+);
 
-test('[E2E-INTAKE] an engineer receives a heat, attaches its certificate and enters results; a QA reviewer accepts it with a signature', async ({ page }) => {
+test('[E2E-INTAKE] an engineer receives a heat, attaches its certificate and enters results; a QA reviewer accepts it with a signature', async ({
+  page,
+}) => {
   await signInAs(page, 'kiw-0101', '/heats');
   await expect(page.getByRole('heading', { level: 1, name: 'Heats and certificates' })).toBeVisible();
-  await expect(page.getByRole('note', { name: 'Specification limits caution' })).toContainText('verify them against your licensed copy');
+  await expect(page.getByRole('note', { name: 'Specification limits caution' })).toContainText(
+    'verify them against your licensed copy',
+  );
   await expect(page.getByRole('table')).toContainText('BAW-7905');
 
   await page.getByRole('button', { name: 'Receive a heat' }).click();
@@ -26,11 +32,21 @@ test('[E2E-INTAKE] an engineer receives a heat, attaches its certificate and ent
   await dialog.getByRole('button', { name: 'Receive heat' }).click();
   await expect(page.getByRole('heading', { level: 1, name: 'Heat E2E-4711' })).toBeVisible();
 
-  await page.getByLabel('Certificate file').setInputFiles({ name: 'certificate E2E-4711.pdf', mimeType: 'application/pdf', buffer: certificatePdf });
+  await page
+    .getByLabel('Certificate file')
+    .setInputFiles({ name: 'certificate E2E-4711.pdf', mimeType: 'application/pdf', buffer: certificatePdf });
   await expect(page.getByRole('list', { name: 'Certificate documents' })).toContainText('certificate E2E-4711.pdf');
 
   const results = page.getByRole('form', { name: 'Certificate results' });
-  for (const [element, value] of Object.entries({ Al: '6.08', V: '4.01', Fe: '0.17', O: '0.115', C: '0.02', N: '0.01', H: '40 ppm' })) {
+  for (const [element, value] of Object.entries({
+    Al: '6.08',
+    V: '4.01',
+    Fe: '0.17',
+    O: '0.115',
+    C: '0.02',
+    N: '0.01',
+    H: '40 ppm',
+  })) {
     await results.getByLabel(element, { exact: true }).fill(value);
   }
   await results.getByLabel('Tensile strength (MPa)').fill('951');
@@ -55,7 +71,9 @@ test('[E2E-INTAKE] an engineer receives a heat, attaches its certificate and ent
   const popup = await popupOpened;
   await popup.getByLabel('Password').fill('aisling-demo');
   await popup.getByRole('button', { name: 'Sign in' }).click();
-  await expect(signing.getByTestId('signature-manifestation')).toContainText('Aisling Ní Bhriain — Accepted', { timeout: 15_000 });
+  await expect(signing.getByTestId('signature-manifestation')).toContainText('Aisling Ní Bhriain — Accepted', {
+    timeout: 15_000,
+  });
   await signing.getByRole('button', { name: 'Done' }).click();
   await expect(page.locator('.status')).toContainText('Accepted');
   await page.screenshot({ path: 'test-results/heat-accepted.png', fullPage: true });

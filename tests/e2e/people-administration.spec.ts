@@ -4,7 +4,9 @@ import { signInAs } from './support/sign-in';
 import { openedDialog } from './support/dialogs';
 import { signWithPassword } from './support/signing';
 
-test('[E2E-PEOPLE] an administrator finds a person, asks for a signing role that a second administrator confirms by signature, and deactivates and reactivates them', async ({ page }) => {
+test('[E2E-PEOPLE] an administrator finds a person, asks for a signing role that a second administrator confirms by signature, and deactivates and reactivates them', async ({
+  page,
+}) => {
   test.setTimeout(120_000);
   await signInAs(page, 'kiw-0601', '/administration');
   await expect(page.getByRole('heading', { level: 1, name: 'People and roles' })).toBeVisible();
@@ -37,7 +39,10 @@ test('[E2E-PEOPLE] an administrator finds a person, asks for a signing role that
 
   // ...and takes effect when a second administrator confirms it with an electronic signature.
   await signInAs(page, 'kiw-0602', '/administration');
-  await page.getByRole('region', { name: 'Signing roles waiting for confirmation' }).getByRole('button', { name: 'Confirm the role change for Tobiasz Wierzchlas' }).click();
+  await page
+    .getByRole('region', { name: 'Signing roles waiting for confirmation' })
+    .getByRole('button', { name: 'Confirm the role change for Tobiasz Wierzchlas' })
+    .click();
   const signing = await openedDialog(page, 'Sign: Role change confirmed');
   await expect(signing).toContainText('Covers recall drills in December');
   await signWithPassword(page, 'Role change confirmed', 'Mirela Vasilescu — Role change confirmed', 'mirela-demo');
@@ -53,7 +58,10 @@ test('[E2E-PEOPLE] an administrator finds a person, asks for a signing role that
   await dialog.getByRole('button', { name: 'Ask for confirmation' }).click();
   await expect(dialog).toBeHidden();
   await signInAs(page, 'kiw-0601', '/administration');
-  await page.getByRole('region', { name: 'Signing roles waiting for confirmation' }).getByRole('button', { name: 'Confirm the role change for Tobiasz Wierzchlas' }).click();
+  await page
+    .getByRole('region', { name: 'Signing roles waiting for confirmation' })
+    .getByRole('button', { name: 'Confirm the role change for Tobiasz Wierzchlas' })
+    .click();
   await signWithPassword(page, 'Role change confirmed', 'Helmer Dalvang — Role change confirmed', 'helmer-demo');
   await page.getByLabel('Search people').fill('Wierzchlas');
   await expect(table.getByRole('row').nth(1)).not.toContainText('Recall coordinator');
@@ -64,7 +72,13 @@ test('[E2E-PEOPLE] an administrator finds a person, asks for a signing role that
   await confirm.getByRole('button', { name: 'Deactivate' }).click();
   await expect(table.getByRole('row').nth(1)).toContainText('Deactivated');
   await page.getByRole('button', { name: 'Reactivate Tobiasz Wierzchlas' }).click();
-  await page.getByRole('dialog', { name: 'Reactivate Tobiasz Wierzchlas?' }).getByLabel('Reason').fill('Back from leave');
-  await page.getByRole('dialog', { name: 'Reactivate Tobiasz Wierzchlas?' }).getByRole('button', { name: 'Reactivate' }).click();
+  await page
+    .getByRole('dialog', { name: 'Reactivate Tobiasz Wierzchlas?' })
+    .getByLabel('Reason')
+    .fill('Back from leave');
+  await page
+    .getByRole('dialog', { name: 'Reactivate Tobiasz Wierzchlas?' })
+    .getByRole('button', { name: 'Reactivate' })
+    .click();
   await expect(table.getByRole('row').nth(1)).toContainText('Active');
 });

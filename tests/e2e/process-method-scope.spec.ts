@@ -4,7 +4,9 @@ import { openedDialog } from './support/dialogs';
 
 const typing = { delay: 60 };
 
-test('[E2E-METHOD-SCOPE] QA records the firm’s own validation of a stainless steel method for cobalt-chromium; an engineer then routes a cerebrospinal-fluid part through it, and cannot pick a method outside its material', async ({ page }) => {
+test('[E2E-METHOD-SCOPE] QA records the firm’s own validation of a stainless steel method for cobalt-chromium; an engineer then routes a cerebrospinal-fluid part through it, and cannot pick a method outside its material', async ({
+  page,
+}) => {
   test.setTimeout(120_000);
   const suffix = Date.now().toString().slice(-5);
   const reference = `VR-E2E-${suffix}`;
@@ -24,7 +26,9 @@ test('[E2E-METHOD-SCOPE] QA records the firm’s own validation of a stainless s
   await dialog.getByLabel('What the validation showed').pressSequentially('short', typing);
   await dialog.getByLabel('Validation report').click();
   await expect(dialog.getByText('Say what the validation showed (at least 10 characters)')).toBeVisible();
-  await dialog.getByLabel('What the validation showed').pressSequentially(' — three worst-case F1537 lots passed water immersion', { delay: 25 });
+  await dialog
+    .getByLabel('What the validation showed')
+    .pressSequentially(' — three worst-case F1537 lots passed water immersion', { delay: 25 });
   await expect(dialog.getByText('Say what the validation showed (at least 10 characters)')).toHaveCount(0);
   await page.waitForTimeout(600);
   await dialog.getByRole('button', { name: 'Record validation' }).click();
@@ -52,7 +56,10 @@ test('[E2E-METHOD-SCOPE] QA records the firm’s own validation of a stainless s
   await register.getByLabel('Lot number pattern').fill('');
   await register.getByLabel('Lot number pattern').pressSequentially('CSF{SEQ:4}', typing);
   await register.getByLabel('Step 20 method').click();
-  await expect(page.getByRole('option', { name: 'A967-NITRIC-2 — not for cobalt-chromium alloy' })).toHaveAttribute('aria-disabled', 'true');
+  await expect(page.getByRole('option', { name: 'A967-NITRIC-2 — not for cobalt-chromium alloy' })).toHaveAttribute(
+    'aria-disabled',
+    'true',
+  );
   await page.getByRole('option', { name: 'A967-NITRIC-3 — firm’s own validation' }).click();
   await register.getByLabel('Step 30 method').click();
   await page.getByRole('option', { name: 'KIW-CLEAN-AQ' }).click();

@@ -33,7 +33,9 @@ test('a deep link survives the sign-in, and an unknown address says so', async (
   await signInAs(page, 'kiw-0301', '/release');
   await expect(page).toHaveURL('/release');
   await expect(page.getByRole('heading', { level: 1, name: 'Release desk' })).toBeVisible();
-  await expect(page.getByRole('note', { name: 'Regulated release caution' })).toContainText('Regulated release rests with your quality system');
+  await expect(page.getByRole('note', { name: 'Regulated release caution' })).toContainText(
+    'Regulated release rests with your quality system',
+  );
   await page.screenshot({ path: 'test-results/shell-release.png', fullPage: true });
 
   await page.goto('/no/such/page');

@@ -18,7 +18,9 @@ async function openPasswordWindow(page: Page) {
   return { dialog, popup };
 }
 
-test('[E2E-SIGN-SLOWLY] a person who reads the password window for 30 seconds before typing still signs, and the window closes itself', async ({ page }) => {
+test('[E2E-SIGN-SLOWLY] a person who reads the password window for 30 seconds before typing still signs, and the window closes itself', async ({
+  page,
+}) => {
   test.setTimeout(120_000);
   await signInAs(page, 'kiw-0401', '/audit');
   await expect(page.getByRole('heading', { level: 1, name: 'Audit trail' })).toBeVisible();
@@ -29,13 +31,18 @@ test('[E2E-SIGN-SLOWLY] a person who reads the password window for 30 seconds be
   await popup.getByLabel('Password').pressSequentially('priya-demo', { delay: 150 });
   const closed = popup.waitForEvent('close');
   await popup.getByRole('button', { name: 'Sign in' }).click();
-  await expect(dialog.getByTestId('signature-manifestation')).toContainText(/Signed: Priya Raghunathan — Reviewed — \d{4}-\d{2}-\d{2} \d{2}:\d{2}:\d{2} (GMT|BST)/, { timeout: 20_000 });
+  await expect(dialog.getByTestId('signature-manifestation')).toContainText(
+    /Signed: Priya Raghunathan — Reviewed — \d{4}-\d{2}-\d{2} \d{2}:\d{2}:\d{2} (GMT|BST)/,
+    { timeout: 20_000 },
+  );
   await closed;
   await page.screenshot({ path: 'test-results/signing-after-a-pause.png' });
   await dialog.getByRole('button', { name: 'Done' }).click();
 });
 
-test('[E2E-SIGN-CANCEL] a person who stops waiting for the password window can sign again at once; stopping does not count against the signing limit', async ({ page }) => {
+test('[E2E-SIGN-CANCEL] a person who stops waiting for the password window can sign again at once; stopping does not count against the signing limit', async ({
+  page,
+}) => {
   test.setTimeout(120_000);
   await signInAs(page, 'kiw-0401', '/audit');
   await expect(page.getByRole('heading', { level: 1, name: 'Audit trail' })).toBeVisible();
@@ -53,10 +60,14 @@ test('[E2E-SIGN-CANCEL] a person who stops waiting for the password window can s
   const { dialog, popup } = await openPasswordWindow(page);
   await popup.getByLabel('Password').pressSequentially('priya-demo', { delay: 60 });
   await popup.getByRole('button', { name: 'Sign in' }).click();
-  await expect(dialog.getByTestId('signature-manifestation')).toContainText('Signed: Priya Raghunathan — Reviewed', { timeout: 20_000 });
+  await expect(dialog.getByTestId('signature-manifestation')).toContainText('Signed: Priya Raghunathan — Reviewed', {
+    timeout: 20_000,
+  });
 });
 
-test('[E2E-SIGN-FOUR-MINUTES] a person called away for four minutes before typing the password still signs', async ({ page }) => {
+test('[E2E-SIGN-FOUR-MINUTES] a person called away for four minutes before typing the password still signs', async ({
+  page,
+}) => {
   // Four minutes of waiting: run with E2E_FOUR_MINUTES=1 (the 30-second case runs every time).
   test.skip(!process.env.E2E_FOUR_MINUTES, 'set E2E_FOUR_MINUTES=1 to wait four minutes');
   test.setTimeout(8 * 60_000);
@@ -66,5 +77,7 @@ test('[E2E-SIGN-FOUR-MINUTES] a person called away for four minutes before typin
   await popup.waitForTimeout(4 * 60_000);
   await popup.getByLabel('Password').pressSequentially('priya-demo', { delay: 120 });
   await popup.getByRole('button', { name: 'Sign in' }).click();
-  await expect(dialog.getByTestId('signature-manifestation')).toContainText('Signed: Priya Raghunathan — Reviewed', { timeout: 20_000 });
+  await expect(dialog.getByTestId('signature-manifestation')).toContainText('Signed: Priya Raghunathan — Reviewed', {
+    timeout: 20_000,
+  });
 });

@@ -15,9 +15,12 @@ async function tabTo(page: Page, name: string) {
   throw new Error(`"${name}" was not reached with the Tab key`);
 }
 
-const focusedName = (page: Page) => page.evaluate(() => ((document.activeElement as HTMLElement | null)?.textContent ?? '').trim());
+const focusedName = (page: Page) =>
+  page.evaluate(() => ((document.activeElement as HTMLElement | null)?.textContent ?? '').trim());
 
-test('[E2E-SIGN-KEYBOARD] a person signs by keyboard alone, and focus returns to the button that opened the dialog', async ({ page }) => {
+test('[E2E-SIGN-KEYBOARD] a person signs by keyboard alone, and focus returns to the button that opened the dialog', async ({
+  page,
+}) => {
   test.setTimeout(120_000);
   await signInAs(page, 'kiw-0401', '/audit');
   await expect(page.getByRole('heading', { level: 1, name: 'Audit trail' })).toBeVisible();
@@ -33,7 +36,9 @@ test('[E2E-SIGN-KEYBOARD] a person signs by keyboard alone, and focus returns to
   await expect(dialog).toBeVisible();
   await expect(dialog.getByTestId('signature-signer')).toContainText('Signed by Priya Raghunathan');
   // Name, meaning, date and time as the signature will read, before the password step (21 CFR 11.50).
-  await expect(dialog.getByTestId('signature-preview')).toContainText(/Your signature will read: Priya Raghunathan — Reviewed — \d{4}-\d{2}-\d{2} \d{2}:\d{2}/);
+  await expect(dialog.getByTestId('signature-preview')).toContainText(
+    /Your signature will read: Priya Raghunathan — Reviewed — \d{4}-\d{2}-\d{2} \d{2}:\d{2}/,
+  );
   await expect(dialog.getByTestId('signature-preview')).toContainText('times in Europe/London');
   await expectAccessible(page, 'signing dialog');
   await page.keyboard.press('Escape');
@@ -52,7 +57,9 @@ test('[E2E-SIGN-KEYBOARD] a person signs by keyboard alone, and focus returns to
   await popup.getByLabel('Password').focus();
   await popup.keyboard.type('priya-demo', { delay: 120 });
   await popup.keyboard.press('Enter');
-  await expect(dialog.getByTestId('signature-manifestation')).toContainText('Signed: Priya Raghunathan — Reviewed', { timeout: 20_000 });
+  await expect(dialog.getByTestId('signature-manifestation')).toContainText('Signed: Priya Raghunathan — Reviewed', {
+    timeout: 20_000,
+  });
   await tabTo(page, 'Done');
   await page.keyboard.press('Enter');
   await expect(dialog).toBeHidden();

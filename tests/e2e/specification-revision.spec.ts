@@ -2,11 +2,15 @@ import { expect, test } from '@playwright/test';
 import { signInAs } from './support/sign-in';
 import { openedDialog } from './support/dialogs';
 
-test('a QA reviewer drafts a new revision with its source, and a QA approver signs it into the library', async ({ page }) => {
+test('a QA reviewer drafts a new revision with its source, and a QA approver signs it into the library', async ({
+  page,
+}) => {
   await signInAs(page, 'kiw-0201', '/specifications');
   await expect(page.getByRole('heading', { level: 1, name: 'Specification library' })).toBeVisible();
   await page.getByRole('button', { name: /ASTM F1295/ }).click();
-  await expect(page.getByRole('table', { name: 'Chemistry limits of ASTM F1295' }).or(page.locator('table').first())).toContainText('unverified — check your licensed copy');
+  await expect(
+    page.getByRole('table', { name: 'Chemistry limits of ASTM F1295' }).or(page.locator('table').first()),
+  ).toContainText('unverified — check your licensed copy');
   await page.getByRole('button', { name: 'Draft a new revision' }).click();
   const dialog = await openedDialog(page, 'Draft a new revision of ASTM F1295');
   await dialog.getByLabel('New revision').fill('L3');
@@ -20,7 +24,9 @@ test('a QA reviewer drafts a new revision with its source, and a QA approver sig
   await dialog.getByRole('button', { name: 'Save the draft' }).click();
   await expect(dialog).toBeHidden();
   await expect(page.getByRole('region', { name: 'Drafted revisions' })).toContainText('ASTM F1295 L3 replacing L2');
-  await expect(page.getByRole('region', { name: 'Drafted revisions' })).toContainText('Ta: ≤ 0.50 → ≤ 0.50 (Licensed copy of ASTM F1295, Table 1)');
+  await expect(page.getByRole('region', { name: 'Drafted revisions' })).toContainText(
+    'Ta: ≤ 0.50 → ≤ 0.50 (Licensed copy of ASTM F1295, Table 1)',
+  );
 
   await signInAs(page, 'kiw-0301', '/specifications');
   await page.getByRole('article').filter({ hasText: 'ASTM F1295 L3' }).getByRole('button', { name: 'Approve' }).click();
@@ -31,7 +37,9 @@ test('a QA reviewer drafts a new revision with its source, and a QA approver sig
   const popup = await popupOpened;
   await popup.getByLabel('Password').fill('joaquin-demo');
   await popup.getByRole('button', { name: 'Sign in' }).click();
-  await expect(signing.getByTestId('signature-manifestation')).toContainText('Joaquín Ferreira — Approved', { timeout: 15_000 });
+  await expect(signing.getByTestId('signature-manifestation')).toContainText('Joaquín Ferreira — Approved', {
+    timeout: 15_000,
+  });
   await signing.getByRole('button', { name: 'Done' }).click();
   await expect(page.getByRole('button', { name: /ASTM F1295/ })).toContainText('revision L3');
   await page.screenshot({ path: 'test-results/specification-library.png', fullPage: true });

@@ -1,7 +1,9 @@
 import { expect, test } from '@playwright/test';
 import { signInAs } from './support/sign-in';
 
-test('[E2E-TRACE] an auditor scans a UDI and reaches the bar, the heat and its certificate; then sees what that heat touches', async ({ page }) => {
+test('[E2E-TRACE] an auditor scans a UDI and reaches the bar, the heat and its certificate; then sees what that heat touches', async ({
+  page,
+}) => {
   await signInAs(page, 'kiw-0401', '/lots');
   // Signed in once the lots page shows; the API calls below use the same session.
   await expect(page.getByRole('heading', { level: 1, name: 'Production lots' })).toBeVisible();
@@ -25,15 +27,21 @@ test('[E2E-TRACE] an auditor scans a UDI and reaches the bar, the heat and its c
   await page.screenshot({ path: 'test-results/trace-forward.png', fullPage: true });
 
   // The same set as a graph: every record drawn, runs can be left out, and the view stays in the address.
-  const graph = await (await page.request.get(`/api/trace/forward/graph?heatId=${new URL(page.url()).searchParams.get('heatId')}`)).json();
+  const graph = await (
+    await page.request.get(`/api/trace/forward/graph?heatId=${new URL(page.url()).searchParams.get('heatId')}`)
+  ).json();
   await page.getByRole('group', { name: 'Show as' }).getByRole('button', { name: 'Graph' }).click();
   await expect(page).toHaveURL(/view=graph/);
   const drawn = page.getByRole('region', { name: 'Genealogy graph' });
-  await expect(drawn.getByRole('status')).toHaveText(`Showing ${graph.nodes.length} of ${graph.nodes.length} records and their links`);
+  await expect(drawn.getByRole('status')).toHaveText(
+    `Showing ${graph.nodes.length} of ${graph.nodes.length} records and their links`,
+  );
   await expect(drawn.locator('canvas').first()).toBeVisible();
   const runs = graph.nodes.filter((node: { kind: string }) => node.kind === 'run').length;
   await drawn.getByText('Runs', { exact: true }).click();
-  await expect(drawn.getByRole('status')).toHaveText(`Showing ${graph.nodes.length - runs} of ${graph.nodes.length} records and their links`);
+  await expect(drawn.getByRole('status')).toHaveText(
+    `Showing ${graph.nodes.length - runs} of ${graph.nodes.length} records and their links`,
+  );
   await expect(drawn.getByRole('list', { name: 'Legend' })).toContainText('Heat');
   await page.screenshot({ path: 'test-results/trace-graph.png', fullPage: true });
 });

@@ -1,7 +1,9 @@
 import { expect, test } from '@playwright/test';
 import { signInAs } from './support/sign-in';
 
-test('an auditor follows one element of one mill over time against its limit, with Ppk and Cpk, their formulas and intervals', async ({ page }) => {
+test('an auditor follows one element of one mill over time against its limit, with Ppk and Cpk, their formulas and intervals', async ({
+  page,
+}) => {
   await signInAs(page, 'kiw-0401', '/heats');
   const panel = page.getByRole('region', { name: 'Trends by supplier' });
   await panel.getByLabel('Trend supplier').click();

@@ -20,7 +20,8 @@ export function routeTable(app: Express): RegisteredRoute[] {
     for (const layer of stack) {
       if (layer.route) {
         const access = layer.route.stack[0]?.handle.access ?? null;
-        for (const method of Object.keys(layer.route.methods)) routes.push({ method: method.toUpperCase(), path: prefix + layer.route.path, access });
+        for (const method of Object.keys(layer.route.methods))
+          routes.push({ method: method.toUpperCase(), path: prefix + layer.route.path, access });
       } else if (layer.handle?.stack) {
         const mount = typeof layer.rawPath === 'string' && layer.rawPath !== '/' ? layer.rawPath : '';
         walk(layer.handle.stack, prefix + mount);

@@ -10,10 +10,19 @@ export async function signThroughApi(
   intent: { recordType: string; recordId: string; meaning: string },
   reason?: string,
 ) {
-  const preparation = await signer.agent.post('/api/signatures/preparations').set('X-CSRF-Token', signer.csrf).send(intent);
+  const preparation = await signer.agent
+    .post('/api/signatures/preparations')
+    .set('X-CSRF-Token', signer.csrf)
+    .send(intent);
   if (preparation.status !== 200) return preparation;
   return signer.agent
     .post('/api/signatures')
     .set('X-CSRF-Token', signer.csrf)
-    .send({ ...intent, contentHash: preparation.body.contentHash, ...(preparation.body.trailThroughSeq === null ? {} : { trailThroughSeq: preparation.body.trailThroughSeq }), reason, reauthenticationId: await reauthenticate(saml, signer.agent, signer.subject, preparation.body.bindingHash) });
+    .send({
+      ...intent,
+      contentHash: preparation.body.contentHash,
+      ...(preparation.body.trailThroughSeq === null ? {} : { trailThroughSeq: preparation.body.trailThroughSeq }),
+      reason,
+      reauthenticationId: await reauthenticate(saml, signer.agent, signer.subject, preparation.body.bindingHash),
+    });
 }

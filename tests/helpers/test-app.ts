@@ -16,7 +16,10 @@ export interface TestApp {
 export function createTestApp(overrides: Record<string, string> = {}, appOptions: AppOptions = {}): TestApp {
   const config = loadConfig({ ...process.env, ...overrides });
   const database = new Database(createDataSource(config, 'app'));
-  const app = createApp({ config, database, logger: pino({ level: process.env.TEST_LOG_LEVEL ?? 'silent' }), version: 'test' }, appOptions);
+  const app = createApp(
+    { config, database, logger: pino({ level: process.env.TEST_LOG_LEVEL ?? 'silent' }), version: 'test' },
+    appOptions,
+  );
   return {
     app,
     database,

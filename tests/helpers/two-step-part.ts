@@ -19,14 +19,31 @@ export function twoStepPart(own: { partNumber: string; description: string; gtin
   };
 }
 
-const times = { operatorName: 'Test', workCentre: 'Cell 1', startedAt: '2026-11-20T08:00:00Z', endedAt: '2026-11-20T09:00:00Z' };
+const times = {
+  operatorName: 'Test',
+  workCentre: 'Cell 1',
+  startedAt: '2026-11-20T08:00:00Z',
+  endedAt: '2026-11-20T09:00:00Z',
+};
 
 /** Opens a lot of 20 from the bar, records both steps without loss and prints its 20 labels. */
-export async function readyLotOf(post: (path: string, body: unknown) => Promise<Response>, partId: number, barTag: string): Promise<{ id: number; lotNumber: string }> {
+export async function readyLotOf(
+  post: (path: string, body: unknown) => Promise<Response>,
+  partId: number,
+  barTag: string,
+): Promise<{ id: number; lotNumber: string }> {
   const lot = (await post('/api/lots', { partId, plannedQty: 20 })).body as { id: number; lotNumber: string };
   await post(`/api/lots/${lot.id}/material-issues`, { tag: barTag, lengthMm: '640' });
   await post(`/api/lots/${lot.id}/operations`, { ...times, stepNo: 10, qtyIn: 20, qtyGood: 20, qtyScrap: 0 });
-  await post(`/api/lots/${lot.id}/operations`, { ...times, stepNo: 20, qtyIn: 20, qtyGood: 20, qtyScrap: 0, inspected: 5, defectsFound: 0 });
+  await post(`/api/lots/${lot.id}/operations`, {
+    ...times,
+    stepNo: 20,
+    qtyIn: 20,
+    qtyGood: 20,
+    qtyScrap: 0,
+    inspected: 5,
+    defectsFound: 0,
+  });
   await post(`/api/lots/${lot.id}/labels`, { kind: 'print', qty: 20 });
   return { id: lot.id, lotNumber: lot.lotNumber };
 }

@@ -10,7 +10,6 @@ import { installationPublicKey } from '../modules/ledger/ledger-signing-key';
 import { CliExit } from './cli-exit';
 import { withDatabase } from './cli-database';
 
-
 /** `ingotrace audit verify [--file F]` and `ingotrace audit export --out F`. */
 export function auditCommand(): Command {
   const audit = new Command('audit').description('verify and export the audit trail');
@@ -22,7 +21,7 @@ export function auditCommand(): Command {
     )
     .option('--file <path>', 'verify an export file offline, without a database')
     .option('--public-key <path>', "the firm's published audit trail public key (PEM); by default this installation's")
-    .option('--witness <path>', 'the checkpoints file (one JSON checkpoint a line); by default this installation\'s')
+    .option('--witness <path>', "the checkpoints file (one JSON checkpoint a line); by default this installation's")
     .action(async (options: { file?: string; publicKey?: string; witness?: string }) => {
       loadDotEnv();
       const readOrExit = (path: string) => {
@@ -40,7 +39,10 @@ export function auditCommand(): Command {
           bundle = JSON.parse(readOrExit(options.file));
         } catch (error) {
           if (error instanceof CliExit) throw error;
-          throw new CliExit(2, `cannot read ${options.file}: ${error instanceof Error ? error.message : String(error)}`);
+          throw new CliExit(
+            2,
+            `cannot read ${options.file}: ${error instanceof Error ? error.message : String(error)}`,
+          );
         }
         // A file is checked against the installation's (or the given) key when there is one, else against its own key, saying so.
         let publicKeyPem: string | null = options.publicKey ? readOrExit(options.publicKey) : null;
@@ -51,7 +53,10 @@ export function auditCommand(): Command {
             publicKeyPem = null;
           }
         }
-        const result = verifyLedgerExport(bundle, { publicKeyPem, checkpoints: options.witness || publicKeyPem ? checkpoints : [] });
+        const result = verifyLedgerExport(bundle, {
+          publicKeyPem,
+          checkpoints: options.witness || publicKeyPem ? checkpoints : [],
+        });
         if (!result.ok) throw new CliExit(1, result.summary);
         process.stdout.write(`${result.summary}\n`);
         return;
@@ -63,7 +68,9 @@ export function auditCommand(): Command {
         if (error instanceof CliExit) throw error;
         throw new CliExit(2, error instanceof Error ? error.message : String(error));
       }
-      const result = await withDatabase((dataSource) => verifyLedger(dataSource.manager, { publicKeyPem, checkpoints }));
+      const result = await withDatabase((dataSource) =>
+        verifyLedger(dataSource.manager, { publicKeyPem, checkpoints }),
+      );
       if (!result.ok) throw new CliExit(1, result.summary);
       process.stdout.write(`${result.summary} (${result.milliseconds} ms)\n`);
     });
@@ -91,7 +98,9 @@ export function auditCommand(): Command {
       } catch (error) {
         throw new CliExit(2, `cannot write ${options.out}: ${error instanceof Error ? error.message : String(error)}`);
       }
-      process.stdout.write(`exported ${bundle.events.length} events to ${options.out}, chain head ${bundle.chainHead.seq} ${bundle.chainHead.hash}\n`);
+      process.stdout.write(
+        `exported ${bundle.events.length} events to ${options.out}, chain head ${bundle.chainHead.seq} ${bundle.chainHead.hash}\n`,
+      );
     });
 
   return audit;

@@ -3,7 +3,9 @@ import { createDataSource } from '../db/connection-options';
 import { CliExit } from './cli-exit';
 
 /** Runs work against the configured database as the app's account; exit 2 when it cannot be reached. */
-export async function withDatabase<T>(work: (dataSource: ReturnType<typeof createDataSource>) => Promise<T>): Promise<T> {
+export async function withDatabase<T>(
+  work: (dataSource: ReturnType<typeof createDataSource>) => Promise<T>,
+): Promise<T> {
   loadDotEnv();
   const dataSource = createDataSource(loadConfig(), 'app');
   try {

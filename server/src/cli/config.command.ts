@@ -17,7 +17,9 @@ export function configCommand(): Command {
       );
       // The ledger's public key is published with the configuration (never the key itself).
       const publicKeyFile = publicKeyPathOf(ledgerKeyPath(config));
-      const ledgerPublicKey = existsSync(publicKeyFile) ? { file: publicKeyFile, keyId: keyIdOf(readFileSync(publicKeyFile, 'utf8')) } : { file: publicKeyFile, keyId: null };
+      const ledgerPublicKey = existsSync(publicKeyFile)
+        ? { file: publicKeyFile, keyId: keyIdOf(readFileSync(publicKeyFile, 'utf8')) }
+        : { file: publicKeyFile, keyId: null };
       process.stdout.write(`${JSON.stringify({ ...shown, ledgerPublicKey }, null, 2)}\n`);
     });
 }

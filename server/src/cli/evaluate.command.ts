@@ -12,7 +12,9 @@ async function readStdin(): Promise<string> {
 /** `ingotrace evaluate`: one JSON certificate on stdin, its evaluation as JSON on stdout. */
 export function evaluateCommand(): Command {
   return new Command('evaluate')
-    .description('evaluate one certificate (JSON on stdin) against the specification library with ASTM E29 rounding; prints the evaluation as JSON')
+    .description(
+      'evaluate one certificate (JSON on stdin) against the specification library with ASTM E29 rounding; prints the evaluation as JSON',
+    )
     .addHelpText(
       'after',
       `

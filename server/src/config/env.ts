@@ -41,7 +41,11 @@ export const configSchema = z.object({
   MAIL_WEB_PORT: port.default(1080),
   MAIL_FROM: z.string().min(3).default('Ingotrace <ingotrace@localhost>'),
   // Where the audit ledger's checkpoints are mailed (a witness outside the database): the quality mailbox.
-  QUALITY_MAILBOX: z.string().trim().regex(/^[^\s@<>]+@[^\s@<>]+$/, 'an e-mail address').default('quality-records@localhost'),
+  QUALITY_MAILBOX: z
+    .string()
+    .trim()
+    .regex(/^[^\s@<>]+@[^\s@<>]+$/, 'an e-mail address')
+    .default('quality-records@localhost'),
   // The Ed25519 key that signs every audit ledger event; readable only by the app's user. Created
   // at first use under DATA_DIR/keys unless set (a firm may keep it elsewhere, see the README).
   LEDGER_KEY_FILE: z.string().min(1).optional(),
@@ -59,9 +63,16 @@ export const configSchema = z.object({
   SAML_GROUP_ATTRIBUTE: z.string().min(1).default('groups'),
   SAML_ROLE_MAP: z.string().optional(),
   // Saw kerf allowed per cut when a bar piece is cut into child pieces, in mm.
-  BAR_KERF_ALLOWANCE_MM: z.string().regex(/^\d+(\.\d+)?$/, 'a length in mm such as 3').default('3'),
+  BAR_KERF_ALLOWANCE_MM: z
+    .string()
+    .regex(/^\d+(\.\d+)?$/, 'a length in mm such as 3')
+    .default('3'),
   SESSION_SECRET: z.string().min(16).default('local-session-secret-change-me'),
-  SESSION_IDLE_MINUTES: z.coerce.number().min(0.05).max(24 * 60).default(15),
+  SESSION_IDLE_MINUTES: z.coerce
+    .number()
+    .min(0.05)
+    .max(24 * 60)
+    .default(15),
   SESSION_ABSOLUTE_HOURS: z.coerce.number().min(1).max(72).default(12),
   // Sign-in attempts per client address, and signatures (with their password prompts) per person, in any 15 minutes.
   SIGN_IN_ATTEMPTS_PER_15_MIN: z.coerce.number().int().min(1).max(1_000_000).default(30),
@@ -104,9 +115,13 @@ export function loadConfig(source: Record<string, string | undefined> = process.
   }
   const config = parsed.data;
   const publicUrl = (config.PUBLIC_URL ?? `http://${config.HOST}:${config.PORT}`).replace(/\/$/, '');
-  const exampleSecrets = (['SESSION_SECRET', 'DB_PASSWORD', 'DB_MIGRATION_PASSWORD'] as const).filter((key) => config[key] === configSchema.shape[key].parse(undefined));
+  const exampleSecrets = (['SESSION_SECRET', 'DB_PASSWORD', 'DB_MIGRATION_PASSWORD'] as const).filter(
+    (key) => config[key] === configSchema.shape[key].parse(undefined),
+  );
   if (publicUrl.startsWith('https:') && exampleSecrets.length) {
-    throw new ConfigError(`Invalid configuration:\n${exampleSecrets.map((key) => `  ${key}: still the example value; set your own before serving ${publicUrl}`).join('\n')}`);
+    throw new ConfigError(
+      `Invalid configuration:\n${exampleSecrets.map((key) => `  ${key}: still the example value; set your own before serving ${publicUrl}`).join('\n')}`,
+    );
   }
   const idpBase = `http://127.0.0.1:${config.IDP_PORT}`;
   let roleMap = defaultRoleMap;
@@ -118,11 +133,15 @@ export function loadConfig(source: Record<string, string | undefined> = process.
       throw new ConfigError('Invalid configuration:\n  SAML_ROLE_MAP: must be a JSON object of group name to role');
     }
     const map = roleMapSchema.safeParse(candidate);
-    if (!map.success) throw new ConfigError('Invalid configuration:\n  SAML_ROLE_MAP: must be a JSON object of group name to role');
+    if (!map.success)
+      throw new ConfigError('Invalid configuration:\n  SAML_ROLE_MAP: must be a JSON object of group name to role');
     roleMap = map.data;
   }
   const ownAcs = [`${publicUrl}/auth/saml/acs`, `${publicUrl}/auth/saml/reauth-acs`];
-  const extraAcs = (config.IDP_ALLOWED_ACS_URLS ?? '').split(',').map((url) => url.trim()).filter(Boolean);
+  const extraAcs = (config.IDP_ALLOWED_ACS_URLS ?? '')
+    .split(',')
+    .map((url) => url.trim())
+    .filter(Boolean);
   return {
     ...config,
     PUBLIC_URL: publicUrl,

@@ -15,7 +15,11 @@ const readOnly = /^\s*(SELECT|WITH)\b/i;
  * some seconds, not an error. Writes repeat only as whole transactions (inTransaction).
  */
 class RetryingDataSource extends DataSource {
-  override query<T = unknown>(sql: string, parameters?: unknown[] | ObjectLiteral, queryRunner?: QueryRunner): Promise<T> {
+  override query<T = unknown>(
+    sql: string,
+    parameters?: unknown[] | ObjectLiteral,
+    queryRunner?: QueryRunner,
+  ): Promise<T> {
     if (queryRunner || !readOnly.test(sql)) return super.query<T>(sql, parameters, queryRunner);
     return readWithRetry(() => super.query<T>(sql, parameters));
   }

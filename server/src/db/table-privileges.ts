@@ -80,7 +80,11 @@ export function accountsSql(accounts: DatabaseAccounts): string {
  * SQL that gives the app user exactly its per-table privileges over the tables that exist now in
  * this database, first revoking what it held on them (other databases are left alone).
  */
-export function appGrantsSql(accounts: DatabaseAccounts, tables: string[], previouslyGranted: Array<{ host: string; table: string }> = []): string {
+export function appGrantsSql(
+  accounts: DatabaseAccounts,
+  tables: string[],
+  previouslyGranted: Array<{ host: string; table: string }> = [],
+): string {
   const db = identifier(accounts.database);
   const statements: string[] = [];
   for (const host of accounts.hosts) {

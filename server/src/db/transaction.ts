@@ -8,7 +8,10 @@ import { connectionLost, retryDelay, tableWithUnreadableTriggers, transientKind 
  * unavailable (including a cluster node whose table triggers are briefly unreadable). A connection lost while COMMIT was on its way is not repeated: the change may or
  * may not have been saved, and saving it twice would be worse than saying so.
  */
-export async function inTransaction<T>(dataSource: DataSource, work: (manager: EntityManager) => Promise<T>): Promise<T> {
+export async function inTransaction<T>(
+  dataSource: DataSource,
+  work: (manager: EntityManager) => Promise<T>,
+): Promise<T> {
   const started = Date.now();
   for (let attempt = 1; ; attempt++) {
     const runner = dataSource.createQueryRunner();
@@ -31,7 +34,11 @@ export async function inTransaction<T>(dataSource: DataSource, work: (manager: E
       // A Galera node can keep a table's triggers unreadable for some seconds after a certification
       // conflict; the app holds no RELOAD to clear it, so it waits as for a briefly unavailable database.
       const brokenTriggers = tableWithUnreadableTriggers(error) !== null;
-      if (brokenTriggers) process.emitWarning('a database node reports a table with unreadable triggers; waiting for it to clear', 'DatabaseNodeWarning');
+      if (brokenTriggers)
+        process.emitWarning(
+          'a database node reports a table with unreadable triggers; waiting for it to clear',
+          'DatabaseNodeWarning',
+        );
       const delay = retryDelay(brokenTriggers ? 'unavailable' : transientKind(error), attempt, Date.now() - started);
       if (delay === null) throw error;
       await new Promise((done) => setTimeout(done, delay));

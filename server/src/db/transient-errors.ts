@@ -58,8 +58,11 @@ export function tableWithUnreadableTriggers(error: unknown): string | null {
   const candidate = error as DriverishError & { query?: string; sql?: string };
   const message = candidate?.message ?? candidate?.driverError?.message ?? '';
   if (!/trigger has an error in its body/i.test(message)) return null;
-  const statement = candidate.query ?? candidate.sql ?? (candidate.driverError as { sql?: string } | undefined)?.sql ?? '';
-  return /^\s*(?:INSERT\s+(?:IGNORE\s+)?INTO|UPDATE|DELETE\s+FROM|REPLACE\s+INTO)\s+`?(\w+)`?/i.exec(statement)?.[1] ?? '';
+  const statement =
+    candidate.query ?? candidate.sql ?? (candidate.driverError as { sql?: string } | undefined)?.sql ?? '';
+  return (
+    /^\s*(?:INSERT\s+(?:IGNORE\s+)?INTO|UPDATE|DELETE\s+FROM|REPLACE\s+INTO)\s+`?(\w+)`?/i.exec(statement)?.[1] ?? ''
+  );
 }
 
 const MAX_CONFLICT_ATTEMPTS = 10;
@@ -70,7 +73,8 @@ export const UNAVAILABLE_BUDGET_MS = 20_000;
 export function retryDelay(kind: TransientKind | null, attempt: number, elapsedMs: number): number | null {
   // Full jitter, growing to at most 250 ms: writers that collided on the ledger's chain head
   // (on a Galera cluster, through different nodes) spread out instead of colliding again.
-  if (kind === 'conflict') return attempt < MAX_CONFLICT_ATTEMPTS ? Math.random() * Math.min(250, 10 * 2 ** attempt) : null;
+  if (kind === 'conflict')
+    return attempt < MAX_CONFLICT_ATTEMPTS ? Math.random() * Math.min(250, 10 * 2 ** attempt) : null;
   if (kind === 'unavailable') {
     if (elapsedMs >= UNAVAILABLE_BUDGET_MS) return null;
     return Math.min(1_000, 50 * 2 ** Math.min(attempt, 5)) * (0.5 + Math.random() / 2);

@@ -1,5 +1,16 @@
 import { inflateSync } from 'node:zlib';
-import { decodePDFRawStream, PDFArray, PDFContext, PDFDict, PDFDocument, PDFName, PDFObjectStreamParser, PDFRawStream, PDFStream, type PDFObject } from '@cantoo/pdf-lib';
+import {
+  decodePDFRawStream,
+  PDFArray,
+  PDFContext,
+  PDFDict,
+  PDFDocument,
+  PDFName,
+  PDFObjectStreamParser,
+  PDFRawStream,
+  PDFStream,
+  type PDFObject,
+} from '@cantoo/pdf-lib';
 import { AppError } from '../errors';
 
 /**
@@ -64,7 +75,8 @@ function flateBomb(bytes: Buffer): boolean {
 function filtersOf(stream: PDFStream): string[] {
   const filter = stream.dict.get(PDFName.of('Filter'));
   if (filter instanceof PDFName) return [filter.decodeText()];
-  if (filter instanceof PDFArray) return filter.asArray().map((entry) => (entry instanceof PDFName ? entry.decodeText() : String(entry)));
+  if (filter instanceof PDFArray)
+    return filter.asArray().map((entry) => (entry instanceof PDFName ? entry.decodeText() : String(entry)));
   return [];
 }
 
@@ -72,9 +84,13 @@ function filtersOf(stream: PDFStream): string[] {
 async function objectsInside(stream: PDFRawStream): Promise<PDFObject[]> {
   const scratch = PDFContext.create();
   try {
-    await PDFObjectStreamParser.forStream(PDFRawStream.of(stream.dict.clone(scratch), stream.contents)).parseIntoContext();
+    await PDFObjectStreamParser.forStream(
+      PDFRawStream.of(stream.dict.clone(scratch), stream.contents),
+    ).parseIntoContext();
   } catch (error) {
-    throw new Unreadable(`an object stream it cannot read (${filtersOf(stream).join(', ') || 'no filter'}: ${(error as Error).message})`);
+    throw new Unreadable(
+      `an object stream it cannot read (${filtersOf(stream).join(', ') || 'no filter'}: ${(error as Error).message})`,
+    );
   }
   return scratch.enumerateIndirectObjects().map(([, object]) => object);
 }
@@ -110,7 +126,11 @@ export async function pdfActiveContent(bytes: Buffer): Promise<string[]> {
   if (flateBomb(bytes)) return [`a compressed stream that expands beyond ${MAX_EXPANDED_BYTES / 1024 / 1024} MB`];
   let document: PDFDocument;
   try {
-    document = await PDFDocument.load(bytes, { throwOnInvalidObject: true, updateMetadata: false, ignoreEncryption: true });
+    document = await PDFDocument.load(bytes, {
+      throwOnInvalidObject: true,
+      updateMetadata: false,
+      ignoreEncryption: true,
+    });
   } catch (error) {
     return [`content that cannot be read completely (${(error as Error).message.split('\n')[0]})`];
   }
@@ -146,7 +166,10 @@ export async function pdfActiveContent(bytes: Buffer): Promise<string[]> {
 export async function refusePdfWithActiveContent(bytes: Buffer, field: string): Promise<void> {
   const found = await pdfActiveContent(bytes);
   if (!found.length) return;
-  throw AppError.rule(`The PDF carries ${found.join(' and ')}; such files are refused, not cleaned. Print it to a plain PDF (or scan it) and upload that`, {
-    [field]: `PDF with ${found.join(', ')}`,
-  });
+  throw AppError.rule(
+    `The PDF carries ${found.join(' and ')}; such files are refused, not cleaned. Print it to a plain PDF (or scan it) and upload that`,
+    {
+      [field]: `PDF with ${found.join(', ')}`,
+    },
+  );
 }

@@ -14,21 +14,30 @@ export const heading = (text: string): Content => ({ text, style: 'heading' });
 export const hashBlock = (hex: string): Content => ({ text: `${hex.slice(0, 32)}\n${hex.slice(32)}`, style: 'mono' });
 
 /** A boxed caution that cannot be missed. */
-export const cautionBox = (text: string): Content => ({ table: { widths: ['*'], body: [[{ text, style: 'caution', margin: [8, 6, 8, 6] }]] }, layout: 'noBorders' });
+export const cautionBox = (text: string): Content => ({
+  table: { widths: ['*'], body: [[{ text, style: 'caution', margin: [8, 6, 8, 6] }]] },
+  layout: 'noBorders',
+});
 
 export const table = (headers: string[], rows: string[][], widths?: Array<string | number>): Content =>
   rows.length
     ? {
-        table: { headerRows: 1, widths: widths ?? headers.map(() => '*'), body: [headers.map((text) => ({ text, bold: true, fillColor: '#e8eef0' })), ...rows] },
+        table: {
+          headerRows: 1,
+          widths: widths ?? headers.map(() => '*'),
+          body: [headers.map((text) => ({ text, bold: true, fillColor: '#e8eef0' })), ...rows],
+        },
         layout: 'lightHorizontalLines',
         margin: [0, 0, 0, 8],
       }
     : { text: 'None.', italics: true, margin: [0, 0, 0, 8] };
 
-export const pageFooter = (left: string) => (page: number, pages: number): Content => ({
-  columns: [
-    { text: left, fontSize: 7, color: '#555' },
-    { text: `Page ${page} of ${pages}`, alignment: 'right', fontSize: 7, color: '#555' },
-  ],
-  margin: [40, 16, 40, 0],
-});
+export const pageFooter =
+  (left: string) =>
+  (page: number, pages: number): Content => ({
+    columns: [
+      { text: left, fontSize: 7, color: '#555' },
+      { text: `Page ${page} of ${pages}`, alignment: 'right', fontSize: 7, color: '#555' },
+    ],
+    margin: [40, 16, 40, 0],
+  });

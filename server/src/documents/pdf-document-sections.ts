@@ -21,7 +21,11 @@ function pdfCell(value: DocumentCell): TableCell {
  */
 function widthsFor(columns: string[], rows: DocumentCell[][]): Array<'auto' | '*'> {
   return columns.map((column, index) => {
-    const longest = Math.max(...rows.map((row) => (row[index]?.kind === 'hash' ? 32 : Math.max(...(row[index]?.text ?? '').split('\n').map((line) => line.length)))));
+    const longest = Math.max(
+      ...rows.map((row) =>
+        row[index]?.kind === 'hash' ? 32 : Math.max(...(row[index]?.text ?? '').split('\n').map((line) => line.length)),
+      ),
+    );
     return longest <= 28 && column.length <= 28 ? 'auto' : '*';
   });
 }
@@ -33,16 +37,36 @@ export function pdfSections(sections: DocumentSection[]): Content[] {
     if (section.kind === 'facts') {
       return [
         ...title,
-        { table: { widths: ['auto', '*'], body: section.rows.map(([label, value]) => [{ text: label, bold: true }, pdfCell(value)]) }, layout: 'lightHorizontalLines', margin: [0, 0, 0, 8] },
+        {
+          table: {
+            widths: ['auto', '*'],
+            body: section.rows.map(([label, value]) => [{ text: label, bold: true }, pdfCell(value)]),
+          },
+          layout: 'lightHorizontalLines',
+          margin: [0, 0, 0, 8],
+        },
       ];
     }
-    if (section.kind === 'list') return [...title, section.items.length ? { ul: section.items.map((item) => item.text), margin: [0, 0, 0, 8] } : { text: 'None.', italics: true, margin: [0, 0, 0, 8] }];
+    if (section.kind === 'list')
+      return [
+        ...title,
+        section.items.length
+          ? { ul: section.items.map((item) => item.text), margin: [0, 0, 0, 8] }
+          : { text: 'None.', italics: true, margin: [0, 0, 0, 8] },
+      ];
     const widths = widthsFor(section.columns, section.rows);
     if (!widths.includes('*')) widths[widths.length - 1] = '*';
     return [
       ...title,
       {
-        table: { headerRows: 1, widths, body: [section.columns.map((text) => ({ text, bold: true, fillColor: '#e8eef0' })), ...section.rows.map((row) => row.map(pdfCell))] },
+        table: {
+          headerRows: 1,
+          widths,
+          body: [
+            section.columns.map((text) => ({ text, bold: true, fillColor: '#e8eef0' })),
+            ...section.rows.map((row) => row.map(pdfCell)),
+          ],
+        },
         layout: 'lightHorizontalLines',
         margin: [0, 0, 0, 8],
       },

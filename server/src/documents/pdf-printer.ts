@@ -29,6 +29,9 @@ function configure(): void {
 /** Renders a document; the same definition (with its fixed creation date) gives the same bytes. */
 export async function renderPdf(definition: TDocumentDefinitions): Promise<Buffer> {
   configure();
-  const document = pdfmake.createPdf({ ...definition, defaultStyle: { font: 'NotoSans', fontSize: 9, ...definition.defaultStyle } });
+  const document = pdfmake.createPdf({
+    ...definition,
+    defaultStyle: { font: 'NotoSans', fontSize: 9, ...definition.defaultStyle },
+  });
   return Buffer.from(await document.getBuffer());
 }

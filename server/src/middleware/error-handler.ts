@@ -22,7 +22,8 @@ export function toAppError(error: unknown): AppError | null {
   if ((error as { code?: string })?.code === 'EBADCSRFTOKEN') {
     return new AppError('FORBIDDEN', 'This request lacks a valid CSRF token; reload the page and try again');
   }
-  if (httpish?.type === 'entity.parse.failed') return new AppError('INVALID_JSON', 'The request body is not valid JSON');
+  if (httpish?.type === 'entity.parse.failed')
+    return new AppError('INVALID_JSON', 'The request body is not valid JSON');
   if (httpish?.type === 'entity.too.large') return new AppError('PAYLOAD_TOO_LARGE', 'The request body is too large');
   if (httpish?.type === 'encoding.unsupported' || httpish?.type === 'charset.unsupported') {
     return new AppError('UNSUPPORTED_MEDIA_TYPE', 'The request body encoding is not supported');
@@ -41,7 +42,8 @@ export const errorHandler: ErrorRequestHandler = (error, req, res, next) => {
   const known = toAppError(error);
   const requestId = String(req.id ?? '');
   if (!known) req.log?.error({ err: error }, 'unhandled error');
-  const appError = known ?? new AppError('INTERNAL', 'Something went wrong on the server; the request id identifies it in the log');
+  const appError =
+    known ?? new AppError('INTERNAL', 'Something went wrong on the server; the request id identifies it in the log');
   const body: ErrorResponse = {
     error: {
       code: appError.code,

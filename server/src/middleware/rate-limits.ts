@@ -35,15 +35,25 @@ export class MariaDbRateLimitStore implements Store {
     const dataSource = await this.connect();
     const bucket = `${this.prefix}${key}`.slice(0, 200);
     const start = this.windowStart();
-    await dataSource.query('INSERT INTO rate_limit_window (bucket, window_start, hits) VALUES (?, ?, 1) ON DUPLICATE KEY UPDATE hits = hits + 1', [bucket, start]);
-    const [row]: Array<{ hits: number }> = await dataSource.query('SELECT hits FROM rate_limit_window WHERE bucket = ? AND window_start = ?', [bucket, start]);
-    if (++this.calls % 100 === 0) await dataSource.query('DELETE FROM rate_limit_window WHERE window_start < ?', [start - this.windowMs]);
+    await dataSource.query(
+      'INSERT INTO rate_limit_window (bucket, window_start, hits) VALUES (?, ?, 1) ON DUPLICATE KEY UPDATE hits = hits + 1',
+      [bucket, start],
+    );
+    const [row]: Array<{ hits: number }> = await dataSource.query(
+      'SELECT hits FROM rate_limit_window WHERE bucket = ? AND window_start = ?',
+      [bucket, start],
+    );
+    if (++this.calls % 100 === 0)
+      await dataSource.query('DELETE FROM rate_limit_window WHERE window_start < ?', [start - this.windowMs]);
     return { totalHits: Number(row?.hits ?? 1), resetTime: new Date(start + this.windowMs) };
   }
 
   async decrement(key: string): Promise<void> {
     const dataSource = await this.connect();
-    await dataSource.query('UPDATE rate_limit_window SET hits = GREATEST(hits, 1) - 1 WHERE bucket = ? AND window_start = ?', [`${this.prefix}${key}`.slice(0, 200), this.windowStart()]);
+    await dataSource.query(
+      'UPDATE rate_limit_window SET hits = GREATEST(hits, 1) - 1 WHERE bucket = ? AND window_start = ?',
+      [`${this.prefix}${key}`.slice(0, 200), this.windowStart()],
+    );
   }
 
   async resetKey(key: string): Promise<void> {
@@ -56,9 +66,16 @@ export class MariaDbRateLimitStore implements Store {
  * Gives back one counted attempt (a re-authentication the person cancelled, or that the identity
  * provider refused): failures of the sign-in window must not lock a person out of signing.
  */
-export async function refundRateLimit(dataSource: DataSource | import('typeorm').EntityManager, name: string, key: string): Promise<void> {
+export async function refundRateLimit(
+  dataSource: DataSource | import('typeorm').EntityManager,
+  name: string,
+  key: string,
+): Promise<void> {
   const start = Math.floor(Date.now() / WINDOW_MS) * WINDOW_MS;
-  await dataSource.query('UPDATE rate_limit_window SET hits = GREATEST(hits, 1) - 1 WHERE bucket = ? AND window_start = ?', [`${name}:${key}`.slice(0, 200), start]);
+  await dataSource.query(
+    'UPDATE rate_limit_window SET hits = GREATEST(hits, 1) - 1 WHERE bucket = ? AND window_start = ?',
+    [`${name}:${key}`.slice(0, 200), start],
+  );
 }
 
 interface LimitOptions {
@@ -82,16 +99,22 @@ export function limitRate(options: LimitOptions): RequestHandler {
     legacyHeaders: false,
     store: new MariaDbRateLimitStore(options.connect, options.name),
     // The app trusts only a proxy on loopback for the client address (app.set('trust proxy')).
-    keyGenerator: (req) => (options.key === 'person' && req.user ? `person-${(req.user as Person).id}` : `address-${req.ip ?? 'unknown'}`),
+    keyGenerator: (req) =>
+      options.key === 'person' && req.user ? `person-${(req.user as Person).id}` : `address-${req.ip ?? 'unknown'}`,
     validate: { keyGeneratorIpFallback: false },
     // A counter that cannot be reached must not lock everyone out, nor let the request through unlimited: it fails like any other database error.
     passOnStoreError: false,
     handler: (req, res, next, limitOptions) => {
       const resetTime = (req as unknown as { rateLimit?: { resetTime?: Date } }).rateLimit?.resetTime;
-      const minutes = Math.max(1, Math.ceil(((resetTime?.getTime() ?? Date.now() + limitOptions.windowMs) - Date.now()) / 60_000));
+      const minutes = Math.max(
+        1,
+        Math.ceil(((resetTime?.getTime() ?? Date.now() + limitOptions.windowMs) - Date.now()) / 60_000),
+      );
       const message = options.message(minutes);
       if (options.answer === 'sign-in-page') {
-        res.set('Retry-After', String(minutes * 60)).redirect(303, `/sign-in?refused=too-many-attempts&minutes=${minutes}`);
+        res
+          .set('Retry-After', String(minutes * 60))
+          .redirect(303, `/sign-in?refused=too-many-attempts&minutes=${minutes}`);
         return;
       }
       res.set('Retry-After', String(minutes * 60));

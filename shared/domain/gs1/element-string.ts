@@ -21,7 +21,13 @@ export class Gs1Error extends Error {}
 export const GS = '\u001d';
 const fixed: Record<string, number> = { '01': 14, '11': 6, '17': 6 };
 const variable: Record<string, number> = { '10': 20, '21': 20 };
-const aiNames: Record<string, keyof UdiParts> = { '01': 'gtin', '10': 'lot', '21': 'serial', '17': 'expiry', '11': 'productionDate' };
+const aiNames: Record<string, keyof UdiParts> = {
+  '01': 'gtin',
+  '10': 'lot',
+  '21': 'serial',
+  '17': 'expiry',
+  '11': 'productionDate',
+};
 
 function checkValue(ai: string, value: string): void {
   if (ai === '01') {
@@ -34,9 +40,11 @@ function checkValue(ai: string, value: string): void {
     const day = Number(value.slice(4, 6));
     if (month < 1 || month > 12) throw new Gs1Error(`AI ${ai}: invalid month ${value.slice(2, 4)}`);
     const year = centuryOf(value.slice(0, 2));
-    if (day > new Date(Date.UTC(year, month, 0)).getUTCDate()) throw new Gs1Error(`AI ${ai}: invalid day ${value.slice(4, 6)}`);
+    if (day > new Date(Date.UTC(year, month, 0)).getUTCDate())
+      throw new Gs1Error(`AI ${ai}: invalid day ${value.slice(4, 6)}`);
   } else {
-    if (value.length < 1 || value.length > variable[ai]!) throw new Gs1Error(`AI ${ai} holds 1 to ${variable[ai]} characters`);
+    if (value.length < 1 || value.length > variable[ai]!)
+      throw new Gs1Error(`AI ${ai} holds 1 to ${variable[ai]} characters`);
     const bad = [...value].find((character) => !cset82.includes(character));
     if (bad !== undefined) throw new Gs1Error(`AI ${ai}: “${bad}” is not allowed (GS1 CSET 82)`);
   }
@@ -87,7 +95,9 @@ export function buildElementString(parts: UdiParts): string {
 /** What the barcode carries: AIs and values run together, GS after a variable-length value that is not last. */
 export function buildBarcodeData(parts: UdiParts): string {
   const list = elements(parts);
-  return list.map(([ai, value], index) => `${ai}${value}${ai in variable && index < list.length - 1 ? GS : ''}`).join('');
+  return list
+    .map(([ai, value], index) => `${ai}${value}${ai in variable && index < list.length - 1 ? GS : ''}`)
+    .join('');
 }
 
 /**
@@ -96,7 +106,12 @@ export function buildBarcodeData(parts: UdiParts): string {
  * dots encoded too when the value is only dots (browsers would drop it).
  */
 export const digitalLinkSegment = (value: string) =>
-  /^\.+$/.test(value) ? value.replace(/\./g, '%2E') : encodeURIComponent(value).replace(/[!'()*]/g, (character) => `%${character.charCodeAt(0).toString(16).toUpperCase()}`);
+  /^\.+$/.test(value)
+    ? value.replace(/\./g, '%2E')
+    : encodeURIComponent(value).replace(
+        /[!'()*]/g,
+        (character) => `%${character.charCodeAt(0).toString(16).toUpperCase()}`,
+      );
 const segment = digitalLinkSegment;
 
 export function buildDigitalLink(parts: UdiParts, base = 'https://id.gs1.org'): string {
@@ -104,7 +119,10 @@ export function buildDigitalLink(parts: UdiParts, base = 'https://id.gs1.org'): 
   let path = `${base.replace(/\/+$/, '')}/01/${parts.gtin}`;
   if (parts.lot) path += `/10/${segment(parts.lot)}`;
   if (parts.serial) path += `/21/${segment(parts.serial)}`;
-  const query = [parts.expiry ? `17=${parts.expiry}` : null, parts.productionDate ? `11=${parts.productionDate}` : null].filter(Boolean);
+  const query = [
+    parts.expiry ? `17=${parts.expiry}` : null,
+    parts.productionDate ? `11=${parts.productionDate}` : null,
+  ].filter(Boolean);
   return query.length ? `${path}?${query.join('&')}` : path;
 }
 
@@ -118,7 +136,13 @@ function assign(parts: Partial<UdiParts>, ai: string, value: string): void {
 
 function finish(parts: Partial<UdiParts>): UdiParts {
   if (!parts.gtin) throw new Gs1Error('No GTIN (AI 01) found');
-  return { gtin: parts.gtin, lot: parts.lot ?? null, serial: parts.serial ?? null, expiry: parts.expiry ?? null, productionDate: parts.productionDate ?? null };
+  return {
+    gtin: parts.gtin,
+    lot: parts.lot ?? null,
+    serial: parts.serial ?? null,
+    expiry: parts.expiry ?? null,
+    productionDate: parts.productionDate ?? null,
+  };
 }
 
 function parseBracketed(input: string): UdiParts {
@@ -167,7 +191,10 @@ export function parseDigitalLink(input: string): UdiParts {
   const query = new URLSearchParams(match[2] ?? '');
   // The primary key is the first /01/ followed by a GTIN and by nothing but key-qualifier pairs:
   // a lot or serial that is itself "01" must not be taken for it, nor a path prefix.
-  const start = segments.findIndex((name, index) => name === '01' && /^\d{8,14}$/.test(segments[index + 1] ?? '') && (segments.length - index) % 2 === 0);
+  const start = segments.findIndex(
+    (name, index) =>
+      name === '01' && /^\d{8,14}$/.test(segments[index + 1] ?? '') && (segments.length - index) % 2 === 0,
+  );
   if (start < 0) throw new Gs1Error('No /01/{GTIN} in the Digital Link path');
   const parts: Partial<UdiParts> = {};
   const gtin = segments[start + 1]!;
@@ -178,7 +205,8 @@ export function parseDigitalLink(input: string): UdiParts {
     const ai = segments[index]!;
     const value = segments[index + 1];
     const rank = order.indexOf(ai);
-    if (rank < 0 || value === undefined) throw new Gs1Error(`/${ai}/ is not a key qualifier of a GTIN (22, 10, 21 in that order)`);
+    if (rank < 0 || value === undefined)
+      throw new Gs1Error(`/${ai}/ is not a key qualifier of a GTIN (22, 10, 21 in that order)`);
     if (rank <= last) throw new Gs1Error('Key qualifiers are out of order (22, then 10, then 21)');
     last = rank;
     if (ai === '22') continue;
@@ -200,7 +228,10 @@ export function parseDigitalLink(input: string): UdiParts {
  * FNC1 that starts GS1 data. Removed before reading.
  */
 export function withoutScannerPrefix(input: string): string {
-  return input.trim().replace(/^\][A-Za-z][0-9A-Za-z]/, '').replace(new RegExp(`^${GS}+`), '');
+  return input
+    .trim()
+    .replace(/^\][A-Za-z][0-9A-Za-z]/, '')
+    .replace(new RegExp(`^${GS}+`), '');
 }
 
 /** Reads a UDI as scanned or typed: a Digital Link URI, an element string with parentheses, or raw scan data, with or without a scanner's prefix. */
@@ -229,6 +260,7 @@ export function lotRoundTripProblem(lot: string): string | null {
   } catch (error) {
     return `${lot} cannot be read back: ${error instanceof Error ? error.message : String(error)}`;
   }
-  if (/[()]/.test(lot)) return 'Parentheses in a lot number cannot be told apart from the (AI) brackets of an element string';
+  if (/[()]/.test(lot))
+    return 'Parentheses in a lot number cannot be told apart from the (AI) brackets of an element string';
   return null;
 }

@@ -18,7 +18,10 @@ export function median(values: readonly number[]): number | null {
  * days, grouped by the plant's calendar month of the approval; the median of each month, to one
  * decimal (half away from zero).
  */
-export function releaseLeadTimes(rows: ReadonlyArray<{ submittedAt: string; releasedAt: string }>, timeZone: string): Array<{ month: string; lots: number; medianDays: number }> {
+export function releaseLeadTimes(
+  rows: ReadonlyArray<{ submittedAt: string; releasedAt: string }>,
+  timeZone: string,
+): Array<{ month: string; lots: number; medianDays: number }> {
   const byMonth = new Map<string, number[]>();
   for (const row of rows) {
     const days = (Date.parse(row.releasedAt) - Date.parse(row.submittedAt)) / 86_400_000;
@@ -31,7 +34,7 @@ export function releaseLeadTimes(rows: ReadonlyArray<{ submittedAt: string; rele
     .map(([month, days]) => ({ month, lots: days.length, medianDays: Math.round(median(days)! * 10) / 10 }));
 }
 
-export type NonconformanceCause = 'material' | 'process-run' | 'inspection-or-work' ;
+export type NonconformanceCause = 'material' | 'process-run' | 'inspection-or-work';
 export const nonconformanceCauseWords: Record<NonconformanceCause, string> = {
   material: 'Material (heat or bar)',
   'process-run': 'Passivation or cleaning run',
@@ -42,17 +45,35 @@ export const nonconformanceCauseWords: Record<NonconformanceCause, string> = {
  * Nonconformances by supplier (those on a heat or a bar name its mill; the rest are the plant's own)
  * and by cause (what it is about; one raised on a lot because its run left the window is the run's).
  */
-export function nonconformanceCounts(rows: ReadonlyArray<{ subjectType: 'heat' | 'bar-piece' | 'lot' | 'process-run'; source?: 'raised' | 'run-window'; supplier: string | null }>) {
+export function nonconformanceCounts(
+  rows: ReadonlyArray<{
+    subjectType: 'heat' | 'bar-piece' | 'lot' | 'process-run';
+    source?: 'raised' | 'run-window';
+    supplier: string | null;
+  }>,
+) {
   const bySupplier = new Map<string, number>();
   const byCause = new Map<NonconformanceCause, number>();
   for (const row of rows) {
-    const cause: NonconformanceCause = row.subjectType === 'heat' || row.subjectType === 'bar-piece' ? 'material' : row.subjectType === 'process-run' || row.source === 'run-window' ? 'process-run' : 'inspection-or-work';
+    const cause: NonconformanceCause =
+      row.subjectType === 'heat' || row.subjectType === 'bar-piece'
+        ? 'material'
+        : row.subjectType === 'process-run' || row.source === 'run-window'
+          ? 'process-run'
+          : 'inspection-or-work';
     byCause.set(cause, (byCause.get(cause) ?? 0) + 1);
     const supplier = cause === 'material' && row.supplier ? row.supplier : 'In the plant';
     bySupplier.set(supplier, (bySupplier.get(supplier) ?? 0) + 1);
   }
-  const sorted = <K extends string>(map: Map<K, number>) => [...map.entries()].sort(([a, x], [b, y]) => y - x || a.localeCompare(b)).map(([name, count]) => ({ name, count }));
-  return { bySupplier: sorted(bySupplier), byCause: sorted(byCause).map((entry) => ({ ...entry, name: nonconformanceCauseWords[entry.name as NonconformanceCause] })) };
+  const sorted = <K extends string>(map: Map<K, number>) =>
+    [...map.entries()].sort(([a, x], [b, y]) => y - x || a.localeCompare(b)).map(([name, count]) => ({ name, count }));
+  return {
+    bySupplier: sorted(bySupplier),
+    byCause: sorted(byCause).map((entry) => ({
+      ...entry,
+      name: nonconformanceCauseWords[entry.name as NonconformanceCause],
+    })),
+  };
 }
 
 /**
@@ -60,7 +81,9 @@ export function nonconformanceCounts(rows: ReadonlyArray<{ subjectType: 'heat' |
  * divided by units started, as a percentage to one decimal. Units scrapped at any step fall out;
  * the product records no rework loop, so a reworked unit counts as good.
  */
-export function firstPassYield(rows: ReadonlyArray<{ part: string; started: number; good: number }>): Array<{ part: string; lots: number; started: number; good: number; percent: number }> {
+export function firstPassYield(
+  rows: ReadonlyArray<{ part: string; started: number; good: number }>,
+): Array<{ part: string; lots: number; started: number; good: number; percent: number }> {
   const byPart = new Map<string, { lots: number; started: number; good: number }>();
   for (const row of rows) {
     if (row.started <= 0) continue;

@@ -15,7 +15,10 @@ export interface LotNumberContext {
 }
 
 /** What a pattern expands to before its sequence: the prefix whose existing lots are counted. */
-export function lotNumberParts(pattern: string, context: LotNumberContext): { prefix: string; suffix: string; width: number } {
+export function lotNumberParts(
+  pattern: string,
+  context: LotNumberContext,
+): { prefix: string; suffix: string; width: number } {
   const day = context.openedOn;
   const values: Record<string, string> = {
     YYYY: String(day.getUTCFullYear()),
@@ -28,7 +31,11 @@ export function lotNumberParts(pattern: string, context: LotNumberContext): { pr
   if (sequenceAt < 0) throw new Error('A lot number pattern needs {SEQ} or {SEQ:n}');
   const sequenceToken = /\{SEQ(?::(\d))?\}/.exec(pattern)!;
   const expand = (text: string) => text.replace(tokenPattern, (_all, token: string) => values[token] ?? '');
-  return { prefix: expand(pattern.slice(0, sequenceAt)), suffix: expand(pattern.slice(sequenceAt + sequenceToken[0].length)), width: Number(sequenceToken[1] ?? 1) };
+  return {
+    prefix: expand(pattern.slice(0, sequenceAt)),
+    suffix: expand(pattern.slice(sequenceAt + sequenceToken[0].length)),
+    width: Number(sequenceToken[1] ?? 1),
+  };
 }
 
 export function formatLotNumber(pattern: string, context: LotNumberContext, sequence: number): string {
@@ -42,13 +49,19 @@ export function lotPatternProblem(pattern: string, partNumber: string): string |
   const unknown = pattern.replace(tokenPattern, '').match(/[{}]/);
   if (unknown) return 'Only {YYYY}, {YY}, {MM}, {DD}, {PART} and {SEQ:n} may appear in braces';
   const { width } = lotNumberParts(pattern, { partNumber, openedOn: new Date(Date.UTC(2099, 11, 31)) });
-  const longest = formatLotNumber(pattern, { partNumber, openedOn: new Date(Date.UTC(2099, 11, 31)) }, 10 ** Math.max(width, 1) - 1);
+  const longest = formatLotNumber(
+    pattern,
+    { partNumber, openedOn: new Date(Date.UTC(2099, 11, 31)) },
+    10 ** Math.max(width, 1) - 1,
+  );
   const lengthProblem = lotNumberProblem(longest);
   if (lengthProblem) return lengthProblem;
   // Every lot it makes must read back unchanged from the label's codes; the literal text is what
   // varies least, so the first and the longest lot numbers stand for the rest.
   for (const sequence of [1, 10 ** Math.max(width, 1) - 1]) {
-    const problem = lotRoundTripProblem(formatLotNumber(pattern, { partNumber, openedOn: new Date(Date.UTC(2026, 0, 1)) }, sequence));
+    const problem = lotRoundTripProblem(
+      formatLotNumber(pattern, { partNumber, openedOn: new Date(Date.UTC(2026, 0, 1)) }, sequence),
+    );
     if (problem) return problem;
   }
   return null;

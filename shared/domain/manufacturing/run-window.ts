@@ -32,9 +32,14 @@ export function windowText(min?: string, max?: string, unit = ''): string {
  * the strictest among the categories of the lots in the run. Without categories (no lot known yet)
  * it is the strictest of all, so nothing is judged against a looser limit than it may need.
  */
-export function windowForRun(window: ParameterWindow, categories: readonly ContactCategory[] = []): ParameterWindow & { appliesTo?: ContactCategory } {
+export function windowForRun(
+  window: ParameterWindow,
+  categories: readonly ContactCategory[] = [],
+): ParameterWindow & { appliesTo?: ContactCategory } {
   if (!window.byContactCategory?.length) return window;
-  const candidates = categories.length ? window.byContactCategory.filter((limit) => categories.includes(limit.category)) : window.byContactCategory;
+  const candidates = categories.length
+    ? window.byContactCategory.filter((limit) => categories.includes(limit.category))
+    : window.byContactCategory;
   const pool = candidates.length ? candidates : window.byContactCategory;
   const strictest = pool.reduce((lowest, limit) => (toDecimal(limit.max).lessThan(lowest.max) ? limit : lowest));
   return { ...window, max: strictest.max, source: strictest.source, appliesTo: strictest.category };
@@ -46,7 +51,11 @@ export function windowForRun(window: ParameterWindow, categories: readonly Conta
  * parameter is reported in `missing`, which the caller refuses rather than storing. `categories`
  * are the contact categories of the devices in the run.
  */
-export function checkRunWindow(method: Pick<ProcessMethod, 'parameters' | 'pairings'>, parameters: Record<string, string>, categories: readonly ContactCategory[] = []): WindowCheck {
+export function checkRunWindow(
+  method: Pick<ProcessMethod, 'parameters' | 'pairings'>,
+  parameters: Record<string, string>,
+  categories: readonly ContactCategory[] = [],
+): WindowCheck {
   const items: WindowItem[] = [];
   const missing: string[] = [];
   for (const declared of method.parameters) {
@@ -57,18 +66,41 @@ export function checkRunWindow(method: Pick<ProcessMethod, 'parameters' | 'pairi
       continue;
     }
     if (window.text) {
-      items.push({ key: window.key, label: window.label, value: raw, window: 'recorded', verdict: 'recorded', why: null });
+      items.push({
+        key: window.key,
+        label: window.label,
+        value: raw,
+        window: 'recorded',
+        verdict: 'recorded',
+        why: null,
+      });
       continue;
     }
     const value = toDecimal(raw);
-    const text = windowText(window.min, window.max, window.unit) + (window.appliesTo ? ` (${contactCategoryLabels[window.appliesTo].toLowerCase()} contact)` : '');
+    const text =
+      windowText(window.min, window.max, window.unit) +
+      (window.appliesTo ? ` (${contactCategoryLabels[window.appliesTo].toLowerCase()} contact)` : '');
     let why: string | null = null;
-    if (window.min !== undefined && value.lessThan(window.min)) why = `${raw} ${window.unit} is below the minimum ${window.min} ${window.unit}`;
-    if (window.max !== undefined && value.greaterThan(window.max)) why = `${raw} ${window.unit} is above the maximum ${window.max} ${window.unit}`;
-    items.push({ key: window.key, label: window.label, value: raw, window: text, verdict: why ? 'out-of-window' : 'in-window', why });
+    if (window.min !== undefined && value.lessThan(window.min))
+      why = `${raw} ${window.unit} is below the minimum ${window.min} ${window.unit}`;
+    if (window.max !== undefined && value.greaterThan(window.max))
+      why = `${raw} ${window.unit} is above the maximum ${window.max} ${window.unit}`;
+    items.push({
+      key: window.key,
+      label: window.label,
+      value: raw,
+      window: text,
+      verdict: why ? 'out-of-window' : 'in-window',
+      why,
+    });
   }
   const pairing = method.pairings ? checkPairings(method, items) : undefined;
-  return { inWindow: missing.length === 0 && items.every((item) => item.verdict !== 'out-of-window'), items, missing, ...(pairing !== undefined ? { pairing } : {}) };
+  return {
+    inWindow: missing.length === 0 && items.every((item) => item.verdict !== 'out-of-window'),
+    items,
+    missing,
+    ...(pairing !== undefined ? { pairing } : {}),
+  };
 }
 
 /**
@@ -80,10 +112,15 @@ function checkPairings(method: Pick<ProcessMethod, 'pairings'>, items: WindowIte
   const time = items.find((item) => item.key === 'immersionTime');
   if (!temperature || !time) return null;
   const held = method.pairings!.find(
-    (pairing) => !toDecimal(temperature.value).lessThan(pairing.minC) && !toDecimal(temperature.value).greaterThan(pairing.maxC) && !toDecimal(time.value).lessThan(pairing.minMinutes),
+    (pairing) =>
+      !toDecimal(temperature.value).lessThan(pairing.minC) &&
+      !toDecimal(temperature.value).greaterThan(pairing.maxC) &&
+      !toDecimal(time.value).lessThan(pairing.minMinutes),
   );
   if (held) return held.label;
-  const options = method.pairings!.map((pairing) => `${pairing.label}: ${pairing.minC}–${pairing.maxC} °C for ≥ ${pairing.minMinutes} min`).join('; ');
+  const options = method
+    .pairings!.map((pairing) => `${pairing.label}: ${pairing.minC}–${pairing.maxC} °C for ≥ ${pairing.minMinutes} min`)
+    .join('; ');
   const why = `${temperature.value} °C for ${time.value} min meets no temperature and time pairing of the method (${options})`;
   for (const item of [temperature, time]) {
     if (item.verdict === 'out-of-window') continue;

@@ -21,10 +21,20 @@ export function checkCut(parentLengthMm: string, childLengthsMm: string[], kerfA
   const allowed = toDecimal(kerfAllowancePerCutMm).times(Math.max(children.length - 1, 0));
   const result = { childrenTotalMm: total.toFixed(), lossMm: loss.toFixed(), allowedLossMm: allowed.toFixed() };
   if (children.length < 2) return { ok: false, ...result, reason: 'A cut makes at least two pieces' };
-  if (children.some((length) => length.lessThanOrEqualTo(0))) return { ok: false, ...result, reason: 'Every piece needs a positive length' };
-  if (loss.isNegative()) return { ok: false, ...result, reason: `The pieces add up to ${result.childrenTotalMm} mm, more than the ${parent.toFixed()} mm bar` };
+  if (children.some((length) => length.lessThanOrEqualTo(0)))
+    return { ok: false, ...result, reason: 'Every piece needs a positive length' };
+  if (loss.isNegative())
+    return {
+      ok: false,
+      ...result,
+      reason: `The pieces add up to ${result.childrenTotalMm} mm, more than the ${parent.toFixed()} mm bar`,
+    };
   if (loss.greaterThan(allowed)) {
-    return { ok: false, ...result, reason: `${result.lossMm} mm of the bar is not accounted for (the kerf allowance is ${result.allowedLossMm} mm); record the remnant as a piece` };
+    return {
+      ok: false,
+      ...result,
+      reason: `${result.lossMm} mm of the bar is not accounted for (the kerf allowance is ${result.allowedLossMm} mm); record the remnant as a piece`,
+    };
   }
   return { ok: true, ...result, reason: null };
 }

@@ -38,24 +38,44 @@ export const D2_FOR_RANGES_OF_TWO = '1.128';
 export const MINIMUM_FOR_CLAIM = 25;
 
 const ppkFormula = 'Ppk = min((USL − x̄) / 3s, (x̄ − LSL) / 3s), s = overall sample standard deviation (n − 1)';
-const cpkFormula = 'Cpk = min((USL − x̄) / 3σ̂, (x̄ − LSL) / 3σ̂), σ̂ = MR̄ / 1.128 from the moving ranges of consecutive heats';
+const cpkFormula =
+  'Cpk = min((USL − x̄) / 3σ̂, (x̄ − LSL) / 3σ̂), σ̂ = MR̄ / 1.128 from the moving ranges of consecutive heats';
 
 /** Bissell's approximate 95 % interval for a capability index from n values. */
 export function bissellInterval(value: Decimal.Value, n: number): { low: string; high: string } | null {
   const estimate = new Decimal(value);
   if (estimate.isZero() || n < 2) return null;
-  const spread = new Decimal(1).div(estimate.pow(2).times(9 * n)).plus(new Decimal(1).div(2 * (n - 1))).sqrt().times('1.96');
-  return { low: estimate.times(new Decimal(1).minus(spread)).toDecimalPlaces(3).toFixed(3), high: estimate.times(new Decimal(1).plus(spread)).toDecimalPlaces(3).toFixed(3) };
+  const spread = new Decimal(1)
+    .div(estimate.pow(2).times(9 * n))
+    .plus(new Decimal(1).div(2 * (n - 1)))
+    .sqrt()
+    .times('1.96');
+  return {
+    low: estimate.times(new Decimal(1).minus(spread)).toDecimalPlaces(3).toFixed(3),
+    high: estimate.times(new Decimal(1).plus(spread)).toDecimalPlaces(3).toFixed(3),
+  };
 }
 
-function index(mean: Decimal, sigma: Decimal | null, limit: { min?: string; max?: string }, n: number, formula: string): CapabilityIndex {
-  if (!sigma || sigma.isZero()) return { value: null, sigma: sigma ? sigma.toSignificantDigits(6).toFixed() : null, formula, interval: null };
+function index(
+  mean: Decimal,
+  sigma: Decimal | null,
+  limit: { min?: string; max?: string },
+  n: number,
+  formula: string,
+): CapabilityIndex {
+  if (!sigma || sigma.isZero())
+    return { value: null, sigma: sigma ? sigma.toSignificantDigits(6).toFixed() : null, formula, interval: null };
   const sides: Decimal[] = [];
   if (limit.max !== undefined) sides.push(new Decimal(limit.max).minus(mean).div(sigma.times(3)));
   if (limit.min !== undefined) sides.push(mean.minus(limit.min).div(sigma.times(3)));
   if (!sides.length) return { value: null, sigma: sigma.toSignificantDigits(6).toFixed(), formula, interval: null };
   const value = Decimal.min(...sides);
-  return { value: value.toDecimalPlaces(3).toFixed(3), sigma: sigma.toSignificantDigits(6).toFixed(), formula, interval: bissellInterval(value, n) };
+  return {
+    value: value.toDecimalPlaces(3).toFixed(3),
+    sigma: sigma.toSignificantDigits(6).toFixed(),
+    formula,
+    interval: bissellInterval(value, n),
+  };
 }
 
 function runRule(numbers: Decimal[], mean: Decimal): Capability['runRule'] {
@@ -78,14 +98,36 @@ export function capability(values: string[], limit: { min?: string; max?: string
   const numbers = values.map((value) => new Decimal(value));
   const n = numbers.length;
   const empty = (formula: string): CapabilityIndex => ({ value: null, sigma: null, formula, interval: null });
-  const base = { n, minimumForClaim: MINIMUM_FOR_CLAIM, indicativeOnly: n < MINIMUM_FOR_CLAIM, formula: `${ppkFormula}; ${cpkFormula}` };
+  const base = {
+    n,
+    minimumForClaim: MINIMUM_FOR_CLAIM,
+    indicativeOnly: n < MINIMUM_FOR_CLAIM,
+    formula: `${ppkFormula}; ${cpkFormula}`,
+  };
   if (n < 2) {
-    return { ...base, mean: n ? numbers[0]!.toFixed() : null, sigma: null, ppk: empty(ppkFormula), cpk: empty(cpkFormula), runRule: { triggered: false, fromIndex: null, rule: `${RUN_LENGTH} points in a row on the same side of the mean` } };
+    return {
+      ...base,
+      mean: n ? numbers[0]!.toFixed() : null,
+      sigma: null,
+      ppk: empty(ppkFormula),
+      cpk: empty(cpkFormula),
+      runRule: {
+        triggered: false,
+        fromIndex: null,
+        rule: `${RUN_LENGTH} points in a row on the same side of the mean`,
+      },
+    };
   }
   const mean = numbers.reduce((sum, value) => sum.plus(value), new Decimal(0)).div(n);
-  const overall = numbers.reduce((sum, value) => sum.plus(value.minus(mean).pow(2)), new Decimal(0)).div(n - 1).sqrt();
+  const overall = numbers
+    .reduce((sum, value) => sum.plus(value.minus(mean).pow(2)), new Decimal(0))
+    .div(n - 1)
+    .sqrt();
   const movingRanges = numbers.slice(1).map((value, position) => value.minus(numbers[position]!).abs());
-  const within = movingRanges.reduce((sum, range) => sum.plus(range), new Decimal(0)).div(movingRanges.length).div(D2_FOR_RANGES_OF_TWO);
+  const within = movingRanges
+    .reduce((sum, range) => sum.plus(range), new Decimal(0))
+    .div(movingRanges.length)
+    .div(D2_FOR_RANGES_OF_TWO);
   return {
     ...base,
     mean: mean.toSignificantDigits(6).toFixed(),

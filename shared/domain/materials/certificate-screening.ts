@@ -20,7 +20,8 @@ export interface PropertyLimits {
   max?: string;
 }
 
-export type FindingKind = 'identical-results' | 'near-identical-results' | 'bunched-at-limit' | 'same-document' | 'precision-change';
+export type FindingKind =
+  'identical-results' | 'near-identical-results' | 'bunched-at-limit' | 'same-document' | 'precision-change';
 
 export interface CertificateFinding {
   kind: FindingKind;
@@ -41,9 +42,17 @@ export const BUNCHING_MIN_NEAR = 4;
 /** Earlier heats that set a supplier's usual reporting precision. */
 export const PRECISION_WINDOW = 5;
 
-export function screenSupplierHistory(heats: ScreenedHeat[], limits: Record<string, PropertyLimits>): CertificateFinding[] {
+export function screenSupplierHistory(
+  heats: ScreenedHeat[],
+  limits: Record<string, PropertyLimits>,
+): CertificateFinding[] {
   const ordered = [...heats].sort((a, b) => a.receivedAt.localeCompare(b.receivedAt) || a.heatId - b.heatId);
-  return [...matchingResults(ordered), ...bunchingAtLimits(ordered, limits), ...sharedDocuments(ordered), ...precisionChanges(ordered)];
+  return [
+    ...matchingResults(ordered),
+    ...bunchingAtLimits(ordered, limits),
+    ...sharedDocuments(ordered),
+    ...precisionChanges(ordered),
+  ];
 }
 
 /** Pairs of heats whose results are all equal, or equal in all but one property. */
@@ -108,7 +117,9 @@ function mostCommon(values: number[]): number | null {
 export function bunchingAtLimits(heats: ScreenedHeat[], limits: Record<string, PropertyLimits>): CertificateFinding[] {
   const findings: CertificateFinding[] = [];
   for (const [property, limit] of Object.entries(limits)) {
-    const reported = heats.filter((heat) => heat.values[property] !== undefined && Number.isFinite(Number(heat.values[property])));
+    const reported = heats.filter(
+      (heat) => heat.values[property] !== undefined && Number.isFinite(Number(heat.values[property])),
+    );
     if (reported.length < BUNCHING_MIN_NEAR * 2) continue;
     const step = 10 ** -(mostCommon(reported.map((heat) => decimalsOf(heat.values[property]!))) ?? 0);
     for (const side of ['max', 'min'] as const) {
@@ -120,7 +131,10 @@ export function bunchingAtLimits(heats: ScreenedHeat[], limits: Record<string, P
         return { heat, steps: Math.round((inside / step) * 1e6) / 1e6 };
       });
       // Where the rest of the distribution lies: the values beyond the near band.
-      const rest = distances.map((entry) => entry.steps).filter((steps) => steps > 1).sort((a, b) => a - b);
+      const rest = distances
+        .map((entry) => entry.steps)
+        .filter((steps) => steps > 1)
+        .sort((a, b) => a - b);
       if (rest.length < BUNCHING_MIN_NEAR || rest[Math.floor(rest.length / 2)]! < 4) continue;
       const near = distances.filter((entry) => entry.steps >= 0 && entry.steps <= 1);
       const reference = distances.filter((entry) => entry.steps > 1 && entry.steps <= 3);
@@ -150,7 +164,8 @@ function formatStep(step: number): string {
 /** One certificate document (by hash) filed for more than one heat. */
 export function sharedDocuments(heats: ScreenedHeat[]): CertificateFinding[] {
   const byHash = new Map<string, ScreenedHeat[]>();
-  for (const heat of heats) for (const hash of new Set(heat.documentHashes)) byHash.set(hash, [...(byHash.get(hash) ?? []), heat]);
+  for (const heat of heats)
+    for (const hash of new Set(heat.documentHashes)) byHash.set(hash, [...(byHash.get(hash) ?? []), heat]);
   return [...byHash.entries()]
     .filter(([, holders]) => holders.length > 1)
     .map(([hash, holders]) => ({
@@ -175,10 +190,15 @@ export function precisionChanges(heats: ScreenedHeat[]): CertificateFinding[] {
     const changed: string[] = [];
     let compared = 0;
     for (const [property, value] of Object.entries(heat.values)) {
-      const usual = mostCommon(earlier.filter((other) => other.values[property] !== undefined).map((other) => decimalsOf(other.values[property]!)));
+      const usual = mostCommon(
+        earlier
+          .filter((other) => other.values[property] !== undefined)
+          .map((other) => decimalsOf(other.values[property]!)),
+      );
       if (usual === null || earlier.filter((other) => other.values[property] !== undefined).length < 3) continue;
       compared += 1;
-      if (decimalsOf(value) !== usual) changed.push(`${property} ${value} (usually ${usual} decimal${usual === 1 ? '' : 's'})`);
+      if (decimalsOf(value) !== usual)
+        changed.push(`${property} ${value} (usually ${usual} decimal${usual === 1 ? '' : 's'})`);
     }
     if (changed.length >= 2 && changed.length * 2 >= compared) {
       findings.push({

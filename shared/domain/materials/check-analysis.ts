@@ -21,10 +21,15 @@ export interface ScopedCheckRule extends CheckRule {
 }
 
 /** The most specific rule for a supplier and specification: both named, then the supplier, then the specification, then the plant-wide one. */
-export function applicableRule<T extends ScopedCheckRule>(rules: readonly T[], supplierId: number, specId: string): T | null {
+export function applicableRule<T extends ScopedCheckRule>(
+  rules: readonly T[],
+  supplierId: number,
+  specId: string,
+): T | null {
   const specKey = specId.toUpperCase();
   const matches = (rule: T, bySupplier: boolean, bySpec: boolean) =>
-    (bySupplier ? rule.supplierId === supplierId : rule.supplierId === null) && (bySpec ? rule.specId?.toUpperCase() === specKey : rule.specId === null);
+    (bySupplier ? rule.supplierId === supplierId : rule.supplierId === null) &&
+    (bySpec ? rule.specId?.toUpperCase() === specKey : rule.specId === null);
   for (const [bySupplier, bySpec] of [
     [true, true],
     [true, false],
@@ -53,25 +58,49 @@ export function ordinal(n: number): string {
  * specification) needs a check analysis. "Every Nth heat" selects the first heat and every Nth
  * after it (1, 1 + N, 1 + 2N, …), so a new source is always checked first.
  */
-export function checkRequirement(rule: CheckRule | null, position: number, approval: SupplierApproval): CheckRequirement {
-  if (!Number.isInteger(position) || position < 1) throw new Error(`position must be a whole number from 1, not ${position}`);
+export function checkRequirement(
+  rule: CheckRule | null,
+  position: number,
+  approval: SupplierApproval,
+): CheckRequirement {
+  if (!Number.isInteger(position) || position < 1)
+    throw new Error(`position must be a whole number from 1, not ${position}`);
   if (!rule) return { required: false, why: 'No check analysis rule covers this supplier and specification' };
-  if (rule.everyNthHeat !== null && (!Number.isInteger(rule.everyNthHeat) || rule.everyNthHeat < 1)) throw new Error(`everyNthHeat must be a whole number from 1, not ${rule.everyNthHeat}`);
-  if (rule.everyHeatWhenConditional && approval === 'conditional') return { required: true, why: 'Every heat from a conditionally approved supplier is checked' };
+  if (rule.everyNthHeat !== null && (!Number.isInteger(rule.everyNthHeat) || rule.everyNthHeat < 1))
+    throw new Error(`everyNthHeat must be a whole number from 1, not ${rule.everyNthHeat}`);
+  if (rule.everyHeatWhenConditional && approval === 'conditional')
+    return { required: true, why: 'Every heat from a conditionally approved supplier is checked' };
   if (rule.everyNthHeat !== null) {
     const place = `this is the ${ordinal(position)} heat from this supplier to this specification`;
-    if (rule.everyNthHeat === 1) return { required: true, why: 'Every heat from this supplier to this specification is checked' };
-    if ((position - 1) % rule.everyNthHeat === 0) return { required: true, why: `The first heat and every ${ordinal(rule.everyNthHeat)} after it are checked; ${place}` };
+    if (rule.everyNthHeat === 1)
+      return { required: true, why: 'Every heat from this supplier to this specification is checked' };
+    if ((position - 1) % rule.everyNthHeat === 0)
+      return {
+        required: true,
+        why: `The first heat and every ${ordinal(rule.everyNthHeat)} after it are checked; ${place}`,
+      };
     const next = position + rule.everyNthHeat - ((position - 1) % rule.everyNthHeat);
-    return { required: false, why: `The first heat and every ${ordinal(rule.everyNthHeat)} after it are checked; ${place}, the next is the ${ordinal(next)}` };
+    return {
+      required: false,
+      why: `The first heat and every ${ordinal(rule.everyNthHeat)} after it are checked; ${place}, the next is the ${ordinal(next)}`,
+    };
   }
-  return { required: false, why: rule.everyHeatWhenConditional ? 'Only heats from conditionally approved suppliers are checked; this supplier is ' + approval : 'The rule selects no heats' };
+  return {
+    required: false,
+    why: rule.everyHeatWhenConditional
+      ? 'Only heats from conditionally approved suppliers are checked; this supplier is ' + approval
+      : 'The rule selects no heats',
+  };
 }
 
 /** "the first heat and every 5th after it; every heat while the supplier is conditional", or null when the rule selects nothing. */
 export function ruleText(rule: CheckRule): string | null {
   const parts = [
-    rule.everyNthHeat === null ? null : rule.everyNthHeat === 1 ? 'every heat' : `the first heat and every ${ordinal(rule.everyNthHeat)} after it`,
+    rule.everyNthHeat === null
+      ? null
+      : rule.everyNthHeat === 1
+        ? 'every heat'
+        : `the first heat and every ${ordinal(rule.everyNthHeat)} after it`,
     rule.everyHeatWhenConditional ? 'every heat while the supplier is conditional' : null,
   ].filter((part): part is string => part !== null);
   return parts.length ? parts.join('; ') : null;
@@ -115,24 +144,40 @@ function rangeText(min?: string, max?: string): string {
 function widen(limit: ElementLimit): { min?: string; max?: string; decimals: number } {
   const under = limit.tolerance?.under;
   const over = limit.tolerance?.over;
-  const decimals = Math.max(...[limit.min, limit.max, limit.min !== undefined ? under : undefined, limit.max !== undefined ? over : undefined].filter((v): v is string => v !== undefined).map(decimalsOf));
+  const decimals = Math.max(
+    ...[limit.min, limit.max, limit.min !== undefined ? under : undefined, limit.max !== undefined ? over : undefined]
+      .filter((v): v is string => v !== undefined)
+      .map(decimalsOf),
+  );
   return {
-    ...(limit.min !== undefined ? { min: under !== undefined ? toDecimal(limit.min).minus(toDecimal(under)).toFixed(decimals) : limit.min } : {}),
-    ...(limit.max !== undefined ? { max: over !== undefined ? toDecimal(limit.max).plus(toDecimal(over)).toFixed(decimals) : limit.max } : {}),
+    ...(limit.min !== undefined
+      ? { min: under !== undefined ? toDecimal(limit.min).minus(toDecimal(under)).toFixed(decimals) : limit.min }
+      : {}),
+    ...(limit.max !== undefined
+      ? { max: over !== undefined ? toDecimal(limit.max).plus(toDecimal(over)).toFixed(decimals) : limit.max }
+      : {}),
     decimals,
   };
 }
 
 /** Each element's heat limit and the limit a check analysis is held to. */
-export function checkLimitsOf(chemistry: readonly ElementLimit[]): Array<{ element: string; heatLimit: string; checkLimit: string }> {
+export function checkLimitsOf(
+  chemistry: readonly ElementLimit[],
+): Array<{ element: string; heatLimit: string; checkLimit: string }> {
   return chemistry.map((limit) => {
     const widened = widen(limit);
-    return { element: limit.element, heatLimit: rangeText(limit.min, limit.max), checkLimit: rangeText(widened.min, widened.max) };
+    return {
+      element: limit.element,
+      heatLimit: rangeText(limit.min, limit.max),
+      checkLimit: rangeText(widened.min, widened.max),
+    };
   });
 }
 
 function inside(value: string, min?: string, max?: string): boolean {
-  return (min === undefined || compareDecimal(value, min) >= 0) && (max === undefined || compareDecimal(value, max) <= 0);
+  return (
+    (min === undefined || compareDecimal(value, min) >= 0) && (max === undefined || compareDecimal(value, max) <= 0)
+  );
 }
 
 /**
@@ -141,7 +186,10 @@ function inside(value: string, min?: string, max?: string): boolean {
  * without a tolerance in the library are held to the heat limit. At least one element must be
  * measured; elements not measured are listed as such and do not fail the check.
  */
-export function evaluateCheckAnalysis(chemistry: readonly ElementLimit[], results: Record<string, string>): CheckEvaluation {
+export function evaluateCheckAnalysis(
+  chemistry: readonly ElementLimit[],
+  results: Record<string, string>,
+): CheckEvaluation {
   const fields: Record<string, string> = {};
   const values: Record<string, string> = {};
   for (const [element, raw] of Object.entries(results)) {
@@ -156,23 +204,36 @@ export function evaluateCheckAnalysis(chemistry: readonly ElementLimit[], result
       fields[`chemistry.${element}`] = error.message;
     }
   }
-  if (Object.keys(fields).length) throw new CheckAnalysisInputError('Some check analysis results cannot be judged', fields);
-  if (!Object.keys(values).length) throw new CheckAnalysisInputError('Enter at least one measured element', { chemistry: 'No element measured' });
+  if (Object.keys(fields).length)
+    throw new CheckAnalysisInputError('Some check analysis results cannot be judged', fields);
+  if (!Object.keys(values).length)
+    throw new CheckAnalysisInputError('Enter at least one measured element', { chemistry: 'No element measured' });
 
   const items: CheckItem[] = chemistry.map((limit) => {
     const heatLimit = rangeText(limit.min, limit.max);
     const widened = widen(limit);
     const checkLimit = rangeText(widened.min, widened.max);
     const value = values[limit.element];
-    if (value === undefined) return { element: limit.element, value: null, rounded: null, heatLimit, checkLimit, verdict: 'not-measured' };
+    if (value === undefined)
+      return { element: limit.element, value: null, rounded: null, heatLimit, checkLimit, verdict: 'not-measured' };
     // Rounded once to the heat limit's place to compare with it, once to the widened limit's place to compare with that.
-    const atHeatPlace = roundE29(value, Math.max(...[limit.min, limit.max].filter((v): v is string => v !== undefined).map(decimalsOf)));
+    const atHeatPlace = roundE29(
+      value,
+      Math.max(...[limit.min, limit.max].filter((v): v is string => v !== undefined).map(decimalsOf)),
+    );
     const rounded = roundE29(value, widened.decimals);
     const note = limit.tolerance ? undefined : 'no product-analysis tolerance in the library: held to the heat limit';
-    const verdict: CheckItemVerdict = inside(atHeatPlace, limit.min, limit.max) ? 'within-limit' : inside(rounded, widened.min, widened.max) ? 'within-tolerance' : 'beyond-tolerance';
+    const verdict: CheckItemVerdict = inside(atHeatPlace, limit.min, limit.max)
+      ? 'within-limit'
+      : inside(rounded, widened.min, widened.max)
+        ? 'within-tolerance'
+        : 'beyond-tolerance';
     return { element: limit.element, value, rounded, heatLimit, checkLimit, verdict, ...(note ? { note } : {}) };
   });
-  return { verdict: items.some((item) => item.verdict === 'beyond-tolerance') ? 'does-not-conform' : 'conforms', items };
+  return {
+    verdict: items.some((item) => item.verdict === 'beyond-tolerance') ? 'does-not-conform' : 'conforms',
+    items,
+  };
 }
 
 /** One line naming the elements beyond tolerance, for refusals and the ledger. */

@@ -16,10 +16,20 @@ export interface MarkingComparison {
  * are different characters, because a bar from another heat can differ in exactly one of them.
  */
 export function compareHeatMarking(marked: string, certificateHeatNumber: string): MarkingComparison {
-  const normalise = (text: string) => text.normalize('NFKC').toUpperCase().replace(/[^0-9A-Z]/g, '');
+  const normalise = (text: string) =>
+    text
+      .normalize('NFKC')
+      .toUpperCase()
+      .replace(/[^0-9A-Z]/g, '');
   const a = normalise(marked);
   const b = normalise(certificateHeatNumber);
-  if (!a) return { matches: false, marked: a, certificate: b, problem: 'The marking holds no letters or digits; read the heat number off the bar' };
+  if (!a)
+    return {
+      matches: false,
+      marked: a,
+      certificate: b,
+      problem: 'The marking holds no letters or digits; read the heat number off the bar',
+    };
   if (a === b) return { matches: true, marked: a, certificate: b, problem: null };
   const firstDifference = [...a].findIndex((character, index) => character !== b[index]);
   const at = firstDifference === -1 ? Math.min(a.length, b.length) : firstDifference;

@@ -28,10 +28,17 @@ export function judgeAgainstLimits(value: string, min?: string, max?: string): L
     const toMax = toDecimal(max!).minus(toDecimal(value)).abs();
     rounded = toMin.lessThanOrEqualTo(toMax) ? atMin : atMax;
   } else rounded = (atMin ?? atMax)!;
-  return { conforms: !belowMin && !aboveMax, rounded, ...(atMin !== undefined ? { atMin } : {}), ...(atMax !== undefined ? { atMax } : {}) };
+  return {
+    conforms: !belowMin && !aboveMax,
+    rounded,
+    ...(atMin !== undefined ? { atMin } : {}),
+    ...(atMax !== undefined ? { atMax } : {}),
+  };
 }
 
 /** ASTM E29's absolute method: no rounding; any deviation beyond the limit does not conform. */
 export function conformsAbsolutely(value: string, min?: string, max?: string): boolean {
-  return (min === undefined || compareDecimal(value, min) >= 0) && (max === undefined || compareDecimal(value, max) <= 0);
+  return (
+    (min === undefined || compareDecimal(value, min) >= 0) && (max === undefined || compareDecimal(value, max) <= 0)
+  );
 }

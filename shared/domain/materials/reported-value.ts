@@ -19,7 +19,8 @@ export function readChemistryValue(input: string | number): ReportedValue {
   const asReported = typeof input === 'number' ? String(input) : input.trim();
   const ppm = /^(.+?)\s*ppm$/i.exec(asReported);
   const numberPart = (ppm ? ppm[1]! : asReported.replace(/\s*%$/, '')).trim();
-  if (!isDecimalString(numberPart)) throw new ReportedValueError(`"${asReported}" is not a decimal number (write e.g. 0.12 or 40 ppm)`);
+  if (!isDecimalString(numberPart))
+    throw new ReportedValueError(`"${asReported}" is not a decimal number (write e.g. 0.12 or 40 ppm)`);
   if (!ppm) return { value: numberPart, asReported, conversion: null };
   const percent = new DecimalE29(numberPart).div(10_000);
   const places = Math.max(0, (numberPart.split('.')[1]?.length ?? 0) + 4);

@@ -19,7 +19,12 @@ export interface ValueSource {
 }
 
 export type MechanicalProperty = 'utsMPa' | 'ysMPa' | 'elongationPct' | 'reductionOfAreaPct';
-export const mechanicalProperties: readonly MechanicalProperty[] = ['utsMPa', 'ysMPa', 'elongationPct', 'reductionOfAreaPct'];
+export const mechanicalProperties: readonly MechanicalProperty[] = [
+  'utsMPa',
+  'ysMPa',
+  'elongationPct',
+  'reductionOfAreaPct',
+];
 
 export const mechanicalLabels: Record<MechanicalProperty, string> = {
   utsMPa: 'Tensile strength (MPa)',
@@ -57,7 +62,10 @@ export const productConditionLabels: Record<ProductCondition, string> = {
 
 /** The controlled condition a text names ("Annealed", " cold worked ", "cold-worked"), or null. */
 export function conditionOf(text: string): ProductCondition | null {
-  const key = text.trim().toLowerCase().replace(/[\s_]+/g, '-');
+  const key = text
+    .trim()
+    .toLowerCase()
+    .replace(/[\s_]+/g, '-');
   return (productConditions as readonly string[]).includes(key) ? (key as ProductCondition) : null;
 }
 
@@ -118,7 +126,13 @@ export interface SpecificationGrade {
   mechanicalProperties?: MechanicalProperty[];
 }
 
-export const materialFamilies = ['titanium-unalloyed', 'titanium-alloy', 'stainless-steel', 'cobalt-chromium', 'nickel-titanium'] as const;
+export const materialFamilies = [
+  'titanium-unalloyed',
+  'titanium-alloy',
+  'stainless-steel',
+  'cobalt-chromium',
+  'nickel-titanium',
+] as const;
 export type MaterialFamily = (typeof materialFamilies)[number];
 
 export const materialFamilyLabels: Record<MaterialFamily, string> = {
@@ -153,8 +167,13 @@ export interface Specification {
 
 /** The forms and conditions a heat received to this revision may state. */
 export function scopeOf(specification: Specification): { forms: ProductForm[]; conditions: ProductCondition[] } {
-  if (specification.scope) return { forms: [...specification.scope.forms], conditions: [...specification.scope.conditions] };
-  const named = new Set(specification.grades.flatMap((grade) => grade.mechanical.map((set) => conditionOf(set.condition))).filter((condition) => condition !== null));
+  if (specification.scope)
+    return { forms: [...specification.scope.forms], conditions: [...specification.scope.conditions] };
+  const named = new Set(
+    specification.grades
+      .flatMap((grade) => grade.mechanical.map((set) => conditionOf(set.condition)))
+      .filter((condition) => condition !== null),
+  );
   named.add('annealed');
   return { forms: [...productForms], conditions: productConditions.filter((condition) => named.has(condition)) };
 }

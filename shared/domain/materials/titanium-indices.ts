@@ -23,7 +23,11 @@ export interface TitaniumIndex {
 /** O-eq = O + 2N + 0.67C, for unalloyed grades (coefficients unverified, attributed to Ogden & Jaffee). */
 export function oxygenEquivalent(chemistry: Chemistry): TitaniumIndex {
   return {
-    value: sum(chemistry, [['O', '1'], ['N', '2'], ['C', '0.67']]).toFixed(),
+    value: sum(chemistry, [
+      ['O', '1'],
+      ['N', '2'],
+      ['C', '0.67'],
+    ]).toFixed(),
     formula: 'O + 2 N + 0.67 C',
     source: 'attributed to Ogden & Jaffee; coefficients unverified',
   };
@@ -31,9 +35,20 @@ export function oxygenEquivalent(chemistry: Chemistry): TitaniumIndex {
 
 /** [Al]eq = Al + Sn/3 + Zr/6 + 10 (O + C + 2N) (Rosenberg 1970; unverified). */
 export function aluminiumEquivalent(chemistry: Chemistry): TitaniumIndex {
-  const interstitials = sum(chemistry, [['O', '1'], ['C', '1'], ['N', '2']]).times(10);
-  const value = get(chemistry, 'Al').plus(get(chemistry, 'Sn').div(3)).plus(get(chemistry, 'Zr').div(6)).plus(interstitials);
-  return { value: trimmed(value), formula: 'Al + Sn/3 + Zr/6 + 10 (O + C + 2 N)', source: 'attributed to Rosenberg (1970); unverified' };
+  const interstitials = sum(chemistry, [
+    ['O', '1'],
+    ['C', '1'],
+    ['N', '2'],
+  ]).times(10);
+  const value = get(chemistry, 'Al')
+    .plus(get(chemistry, 'Sn').div(3))
+    .plus(get(chemistry, 'Zr').div(6))
+    .plus(interstitials);
+  return {
+    value: trimmed(value),
+    formula: 'Al + Sn/3 + Zr/6 + 10 (O + C + 2 N)',
+    source: 'attributed to Rosenberg (1970); unverified',
+  };
 }
 
 /** [Mo]eq after Bania (1993): Mo + 0.2 Ta + 0.28 Nb + 0.4 W + 0.67 V + 1.25 Cr + 1.25 Ni + 1.7 Mn + 1.7 Co + 2.5 Fe. */
@@ -84,7 +99,8 @@ export type AlloyClass = 'alpha' | 'near-alpha' | 'alpha-beta' | 'metastable-bet
  */
 export function alloyClass(molybdenumEquivalent: string): { alloyClass: AlloyClass; rule: string } {
   const value = new DecimalE29(molybdenumEquivalent);
-  const rule = 'Bania [Mo]eq: alpha < 1 ≤ near-alpha < 2 ≤ alpha-beta < 10 ≤ metastable beta < 30 ≤ beta (thresholds vary by author; unverified)';
+  const rule =
+    'Bania [Mo]eq: alpha < 1 ≤ near-alpha < 2 ≤ alpha-beta < 10 ≤ metastable beta < 30 ≤ beta (thresholds vary by author; unverified)';
   if (value.lessThan(1)) return { alloyClass: 'alpha', rule };
   if (value.lessThan(2)) return { alloyClass: 'near-alpha', rule };
   if (value.lessThan(10)) return { alloyClass: 'alpha-beta', rule };

@@ -67,8 +67,20 @@ export interface DrillAssessment {
 
 const plural = (n: number, one: string, many = `${one}s`) => `${n} ${n === 1 ? one : many}`;
 
-function check(id: DrillCheckId, label: string, offenders: string[], passText: string, failText: (n: number) => string): DrillCheck {
-  return { id, label, passed: offenders.length === 0, detail: offenders.length ? failText(offenders.length) : passText, offenders };
+function check(
+  id: DrillCheckId,
+  label: string,
+  offenders: string[],
+  passText: string,
+  failText: (n: number) => string,
+): DrillCheck {
+  return {
+    id,
+    label,
+    passed: offenders.length === 0,
+    detail: offenders.length ? failText(offenders.length) : passText,
+    offenders,
+  };
 }
 
 const millis = (iso: string) => {
@@ -82,28 +94,46 @@ export function assessDrill(facts: DrillFacts): DrillAssessment {
   const shippedTotal = facts.lots.reduce((sum, lot) => sum + lot.shipped, 0);
   const consigneeUnits = facts.consignees.reduce((sum, consignee) => sum + consignee.units, 0);
 
-  const overShipped = facts.lots.filter((lot) => lot.shipped > lot.released).map((lot) => `${lot.lotNumber}: shipped ${lot.shipped} of ${lot.released} released`);
-  const unassigned = consigneeUnits === shippedTotal ? [] : [`consignees received ${consigneeUnits} units; the lots shipped ${shippedTotal}`];
+  const overShipped = facts.lots
+    .filter((lot) => lot.shipped > lot.released)
+    .map((lot) => `${lot.lotNumber}: shipped ${lot.shipped} of ${lot.released} released`);
+  const unassigned =
+    consigneeUnits === shippedTotal
+      ? []
+      : [`consignees received ${consigneeUnits} units; the lots shipped ${shippedTotal}`];
   const kept = (lot: DrillLotFacts) => (lot.made ?? 0) - lot.passedOn;
   const overReleased = facts.lots
     .filter((lot) => lot.made !== null && (lot.released > kept(lot) || kept(lot) < 0))
-    .map((lot) => `${lot.lotNumber}: released ${lot.released} of ${lot.made} started${lot.passedOn ? ` less ${lot.passedOn} passed on` : ''}`);
+    .map(
+      (lot) =>
+        `${lot.lotNumber}: released ${lot.released} of ${lot.made} started${lot.passedOn ? ` less ${lot.passedOn} passed on` : ''}`,
+    );
   // In plant: a released lot's released units not shipped; a lot not yet released holds its work in progress (never below 0).
   const negative = facts.lots
     .filter((lot) => lot.onHand < 0 || (lot.status === 'released' && lot.onHand !== lot.released - lot.shipped))
-    .map((lot) => (lot.onHand < 0 ? `${lot.lotNumber}: ${lot.onHand} in plant` : `${lot.lotNumber}: ${lot.onHand} in plant ≠ ${lot.released} released − ${lot.shipped} shipped`));
+    .map((lot) =>
+      lot.onHand < 0
+        ? `${lot.lotNumber}: ${lot.onHand} in plant`
+        : `${lot.lotNumber}: ${lot.onHand} in plant ≠ ${lot.released} released − ${lot.shipped} shipped`,
+    );
 
   const genealogy: string[] = [];
   for (const lot of facts.lots) {
     if (!lot.sourceHeats.length) genealogy.push(`${lot.lotNumber}: no heat of bar recorded`);
     for (const heat of lot.sourceHeats) {
-      if (heat.status !== 'accepted') genealogy.push(`${lot.lotNumber}: heat ${heat.heatNumber} is ${heat.status}, not accepted`);
+      if (heat.status !== 'accepted')
+        genealogy.push(`${lot.lotNumber}: heat ${heat.heatNumber} is ${heat.status}, not accepted`);
       if (heat.certificates === 0) genealogy.push(`${lot.lotNumber}: heat ${heat.heatNumber} has no certificate`);
     }
-    if ((lot.origin === 'split' || lot.origin === 'merge') && !lot.parents.length) genealogy.push(`${lot.lotNumber}: ${lot.origin} lot with no parent lot`);
+    if ((lot.origin === 'split' || lot.origin === 'merge') && !lot.parents.length)
+      genealogy.push(`${lot.lotNumber}: ${lot.origin} lot with no parent lot`);
   }
-  const outside = facts.lots.flatMap((lot) => lot.childrenOutsideScope.map((child) => `${child} (from ${lot.lotNumber})`));
-  const stale = facts.lots.filter((lot) => lot.shippedNow !== lot.shipped).map((lot) => `${lot.lotNumber}: ${lot.shipped} shipped when traced, ${lot.shippedNow} now`);
+  const outside = facts.lots.flatMap((lot) =>
+    lot.childrenOutsideScope.map((child) => `${child} (from ${lot.lotNumber})`),
+  );
+  const stale = facts.lots
+    .filter((lot) => lot.shippedNow !== lot.shipped)
+    .map((lot) => `${lot.lotNumber}: ${lot.shipped} shipped when traced, ${lot.shippedNow} now`);
 
   const checks: DrillCheck[] = [
     check(
@@ -113,10 +143,34 @@ export function assessDrill(facts: DrillFacts): DrillAssessment {
       `${plural(shippedTotal, 'unit')} shipped, all to named consignees; no lot shipped more than it released`,
       (n) => `${plural(n, 'discrepancy', 'discrepancies')} between units shipped, released and received`,
     ),
-    check('unit-balance', 'Units made, released, shipped and on hand balance', [...overReleased, ...negative], 'No lot released more than it kept of what it started; released = shipped + on hand for every lot', (n) => `${plural(n, 'lot')} out of balance`),
-    check('genealogy', 'Every lot’s genealogy is complete', genealogy, 'Every lot goes back to accepted heats with certificates; every split or merged lot names its parents', (n) => `${plural(n, 'gap')} in the genealogy`),
-    check('scope-closed', 'Nothing is left outside the scope', outside, 'Every lot split or merged from an affected lot is in the scope', (n) => `${plural(n, 'lot')} made from affected lots but missing from the scope`),
-    check('scope-current', 'The scope is current', stale, 'Shipments recorded now match the traced scope', (n) => `${plural(n, 'lot')} shipped since the scope was traced; re-run the trace`),
+    check(
+      'unit-balance',
+      'Units made, released, shipped and on hand balance',
+      [...overReleased, ...negative],
+      'No lot released more than it kept of what it started; released = shipped + on hand for every lot',
+      (n) => `${plural(n, 'lot')} out of balance`,
+    ),
+    check(
+      'genealogy',
+      'Every lot’s genealogy is complete',
+      genealogy,
+      'Every lot goes back to accepted heats with certificates; every split or merged lot names its parents',
+      (n) => `${plural(n, 'gap')} in the genealogy`,
+    ),
+    check(
+      'scope-closed',
+      'Nothing is left outside the scope',
+      outside,
+      'Every lot split or merged from an affected lot is in the scope',
+      (n) => `${plural(n, 'lot')} made from affected lots but missing from the scope`,
+    ),
+    check(
+      'scope-current',
+      'The scope is current',
+      stale,
+      'Shipments recorded now match the traced scope',
+      (n) => `${plural(n, 'lot')} shipped since the scope was traced; re-run the trace`,
+    ),
   ];
 
   return {

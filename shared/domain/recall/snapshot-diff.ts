@@ -44,10 +44,18 @@ export interface SnapshotDiff {
 function changesOf<T>(before: T, after: T, fields: ReadonlyArray<keyof T & FieldChange['field']>): FieldChange[] {
   return fields
     .filter((field) => before[field] !== after[field])
-    .map((field) => ({ field, before: before[field] as FieldChange['before'], after: after[field] as FieldChange['after'] }));
+    .map((field) => ({
+      field,
+      before: before[field] as FieldChange['before'],
+      after: after[field] as FieldChange['after'],
+    }));
 }
 
-function compare<T extends { id: number }>(before: T[], after: T[], fields: ReadonlyArray<keyof T & FieldChange['field']>) {
+function compare<T extends { id: number }>(
+  before: T[],
+  after: T[],
+  fields: ReadonlyArray<keyof T & FieldChange['field']>,
+) {
   const earlier = new Map(before.map((row) => [row.id, row]));
   const later = new Map(after.map((row) => [row.id, row]));
   return {

@@ -48,14 +48,61 @@ const key = (kind: GraphNodeKind, id: number) => `${kind}:${id}`;
 export function genealogyGraph(relations: GenealogyRelations): GenealogyGraph {
   const nodes = new Map<string, GraphNode>();
   const add = (node: GraphNode) => nodes.set(node.id, node);
-  for (const supplier of relations.suppliers) add({ id: key('supplier', supplier.id), kind: 'supplier', label: supplier.name, detail: 'supplier', link: null, flagged: false });
-  for (const heat of relations.heats) add({ id: key('heat', heat.id), kind: 'heat', label: `Heat ${heat.heatNumber}`, detail: `${heat.specId} · ${heat.status}`, link: `/heats/${heat.id}`, flagged: heat.status !== 'accepted' });
-  for (const piece of relations.pieces) add({ id: key('piece', piece.id), kind: 'piece', label: `Bar ${piece.tag}`, detail: piece.parentId ? 'cut piece' : 'bar', link: `/bar-stock/${piece.id}`, flagged: false });
+  for (const supplier of relations.suppliers)
+    add({
+      id: key('supplier', supplier.id),
+      kind: 'supplier',
+      label: supplier.name,
+      detail: 'supplier',
+      link: null,
+      flagged: false,
+    });
+  for (const heat of relations.heats)
+    add({
+      id: key('heat', heat.id),
+      kind: 'heat',
+      label: `Heat ${heat.heatNumber}`,
+      detail: `${heat.specId} · ${heat.status}`,
+      link: `/heats/${heat.id}`,
+      flagged: heat.status !== 'accepted',
+    });
+  for (const piece of relations.pieces)
+    add({
+      id: key('piece', piece.id),
+      kind: 'piece',
+      label: `Bar ${piece.tag}`,
+      detail: piece.parentId ? 'cut piece' : 'bar',
+      link: `/bar-stock/${piece.id}`,
+      flagged: false,
+    });
   for (const lot of relations.lots) {
-    add({ id: key('lot', lot.id), kind: 'lot', label: `Lot ${lot.lotNumber}`, detail: `${lot.partNumber} · ${lot.status}${lot.held ? ' · on hold' : ''}`, link: `/lots/${lot.id}`, flagged: lot.held });
+    add({
+      id: key('lot', lot.id),
+      kind: 'lot',
+      label: `Lot ${lot.lotNumber}`,
+      detail: `${lot.partNumber} · ${lot.status}${lot.held ? ' · on hold' : ''}`,
+      link: `/lots/${lot.id}`,
+      flagged: lot.held,
+    });
   }
-  for (const run of relations.runs) add({ id: key('run', run.id), kind: 'run', label: `Run ${run.runNumber}`, detail: `${run.kind}${run.inWindow ? '' : ' · outside its window'}`, link: `/process-runs/${run.id}`, flagged: !run.inWindow });
-  for (const consignee of relations.consignees) add({ id: key('consignee', consignee.id), kind: 'consignee', label: consignee.name, detail: consignee.country, link: null, flagged: false });
+  for (const run of relations.runs)
+    add({
+      id: key('run', run.id),
+      kind: 'run',
+      label: `Run ${run.runNumber}`,
+      detail: `${run.kind}${run.inWindow ? '' : ' · outside its window'}`,
+      link: `/process-runs/${run.id}`,
+      flagged: !run.inWindow,
+    });
+  for (const consignee of relations.consignees)
+    add({
+      id: key('consignee', consignee.id),
+      kind: 'consignee',
+      label: consignee.name,
+      detail: consignee.country,
+      link: null,
+      flagged: false,
+    });
 
   const edges = new Map<string, GraphEdge>();
   const link = (from: string, to: string, kind: GraphEdgeKind, label: string) => {
@@ -80,6 +127,7 @@ export function genealogyGraph(relations: GenealogyRelations): GenealogyGraph {
     link(key('lot', lotLink.parentId), key('lot', lotLink.childId), kind, `${kind} · ${lotLink.qty} units`);
   }
   for (const runLot of relations.runLots) link(key('lot', runLot.lotId), key('run', runLot.runId), 'ran', 'ran in');
-  for (const shipment of relations.shipments) link(key('lot', shipment.lotId), key('consignee', shipment.consigneeId), 'shipped', `${shipment.units} units`);
+  for (const shipment of relations.shipments)
+    link(key('lot', shipment.lotId), key('consignee', shipment.consigneeId), 'shipped', `${shipment.units} units`);
   return { nodes: [...nodes.values()], edges: [...edges.values()] };
 }

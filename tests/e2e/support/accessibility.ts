@@ -12,7 +12,9 @@ export async function expectAccessible(page: Page, screen: string): Promise<void
   const serious = results.violations
     .filter((violation) => violation.impact === 'serious' || violation.impact === 'critical')
     .map((violation) => {
-      const nodes = violation.nodes.slice(0, 4).map((node) => `${node.target.join(' ')} [${(node.failureSummary ?? '').replace(/\s+/g, ' ').slice(0, 170)}]`);
+      const nodes = violation.nodes
+        .slice(0, 4)
+        .map((node) => `${node.target.join(' ')} [${(node.failureSummary ?? '').replace(/\s+/g, ' ').slice(0, 170)}]`);
       return `${violation.id} (${violation.impact}): ${violation.help} — ${nodes.join(' | ')}`;
     });
   expect.soft(serious, `axe-core on ${screen}`).toEqual([]);

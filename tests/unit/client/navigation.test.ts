@@ -22,7 +22,9 @@ async function mountAt(path: string, component: object, roles: Role[] = ['audito
     csrfToken: 'token',
     session: { idleMinutes: 15, absoluteExpiresAt: '2026-12-02T00:00:00.000Z' },
   });
-  const wrapper = mount(component, { global: { plugins: [router, createPinia(), PrimeVue, [VueQueryPlugin, { queryClient }]] } });
+  const wrapper = mount(component, {
+    global: { plugins: [router, createPinia(), PrimeVue, [VueQueryPlugin, { queryClient }]] },
+  });
   await flushPromises();
   return wrapper;
 }

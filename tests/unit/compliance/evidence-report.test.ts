@@ -5,11 +5,27 @@ import { createHash } from 'node:crypto';
 import canonicalize from 'canonicalize';
 import { describe, expect, it } from 'vitest';
 import { PNG } from 'pngjs';
-import { contentHash, countsOf, evidenceHtml, evidencePdf, runnerLines, screenshotSlices, type EvidenceData } from '../../../scripts/compliance/evidence-report';
+import {
+  contentHash,
+  countsOf,
+  evidenceHtml,
+  evidencePdf,
+  runnerLines,
+  screenshotSlices,
+  type EvidenceData,
+} from '../../../scripts/compliance/evidence-report';
 import { judge, type Requirement, type TestResult } from '../../../scripts/compliance/matrix';
 import { readPdf } from '../../helpers/document-readers';
 
-const requirement = (id: string, tests: string[], firm?: string): Requirement => ({ id, regulation: '21 CFR Part 11', clause: `§${id}`, requirement: `Requirement ${id} stated for this test.`, functions: ['A function <b>named</b> here'], tests, ...(firm ? { firm } : {}) });
+const requirement = (id: string, tests: string[], firm?: string): Requirement => ({
+  id,
+  regulation: '21 CFR Part 11',
+  clause: `§${id}`,
+  requirement: `Requirement ${id} stated for this test.`,
+  functions: ['A function <b>named</b> here'],
+  tests,
+  ...(firm ? { firm } : {}),
+});
 const results: TestResult[] = [
   { id: 'A-ONE', title: '[A-ONE] a', file: 'tests/a.test.ts', runner: 'vitest', outcome: 'passed' },
   { id: 'B-TWO', title: '[B-TWO] b', file: 'tests/b.test.ts', runner: 'vitest', outcome: 'failed' },
@@ -23,14 +39,27 @@ function data(): EvidenceData {
     environment: [{ name: 'Node.js', value: 'v20.20.2' }],
     madeAt: '2026-12-02T14:00:00.000Z',
     run: { command: 'npm test', exitCode: 1, seconds: 420, runners: [{ name: 'vitest', passed: 1, failed: 1 }] },
-    requirements: [judge(requirement('P1', ['A-ONE']), results), judge(requirement('P2', ['A-ONE', 'B-TWO']), results), judge(requirement('P3', [], 'Train the users'), results)],
-    screenshots: [{ name: 'shot.png', sha256: 'a'.repeat(64), png: Buffer.from('not really a png').toString('base64') }],
+    requirements: [
+      judge(requirement('P1', ['A-ONE']), results),
+      judge(requirement('P2', ['A-ONE', 'B-TWO']), results),
+      judge(requirement('P3', [], 'Train the users'), results),
+    ],
+    screenshots: [
+      { name: 'shot.png', sha256: 'a'.repeat(64), png: Buffer.from('not really a png').toString('base64') },
+    ],
   };
 }
 
 describe('the validation evidence report', () => {
   it('counts requirements shown, not shown and procedural, and the cited tests that passed', () => {
-    expect(countsOf(data())).toEqual({ requirements: 3, shown: 1, notShown: 1, procedural: 1, testsCited: 2, testsPassed: 1 });
+    expect(countsOf(data())).toEqual({
+      requirements: 3,
+      shown: 1,
+      notShown: 1,
+      procedural: 1,
+      testsCited: 2,
+      testsPassed: 1,
+    });
   });
 
   it('hashes the canonical JSON of what it states, with screenshots by their hashes', () => {
@@ -43,7 +72,8 @@ describe('the validation evidence report', () => {
   });
 
   it('reads the runners’ summary lines printed by npm test', () => {
-    const output = 'noise\n  7 passed in a log line\n\nSummary\n  type-check (client, vue-tsc)         1 passed    0 failed  (10.3 s)\n  vitest (unit, client, API)         437 passed    2 failed  (154.5 s)\n439 passed, 2 failed\n';
+    const output =
+      'noise\n  7 passed in a log line\n\nSummary\n  type-check (client, vue-tsc)         1 passed    0 failed  (10.3 s)\n  vitest (unit, client, API)         437 passed    2 failed  (154.5 s)\n439 passed, 2 failed\n';
     expect(runnerLines(output)).toEqual([
       { name: 'type-check (client, vue-tsc)', passed: 1, failed: 0 },
       { name: 'vitest (unit, client, API)', passed: 437, failed: 2 },
@@ -56,7 +86,9 @@ describe('the validation evidence report', () => {
     expect(html).not.toContain('<b>named</b>');
     expect(html).toContain('<tr class="not-shown">');
     expect(html).toContain('<code>B-TWO</code> failed');
-    expect(html).toContain("3 requirements: 1 shown by passing tests, 1 not shown, 1 met by the firm's procedures alone");
+    expect(html).toContain(
+      "3 requirements: 1 shown by passing tests, 1 not shown, 1 met by the firm's procedures alone",
+    );
     expect(html).toContain('c'.repeat(64));
   });
 
@@ -70,7 +102,10 @@ describe('the validation evidence report', () => {
     expect(read.map((slice) => slice.height)).toEqual([13, 13, 4]);
     expect(read.map((slice) => slice.data[0])).toEqual([0, 13, 26]);
     expect(read[2]!.data[(3 * 10 + 9) * 4]).toBe(29);
-    expect(screenshotSlices(PNG.sync.write(image).toString('base64'), 2)).toMatchObject({ total: 3, slices: [expect.any(String), expect.any(String)] });
+    expect(screenshotSlices(PNG.sync.write(image).toString('base64'), 2)).toMatchObject({
+      total: 3,
+      slices: [expect.any(String), expect.any(String)],
+    });
   });
 
   it('renders a PDF that says NOT SHOWN where a test failed and carries the content hash', async () => {

@@ -2,7 +2,10 @@ import { spawnSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
 
 function ingotrace(...args: string[]) {
-  const result = spawnSync(process.execPath, ['bin/ingotrace.mjs', ...args], { encoding: 'utf8', env: { ...process.env, NO_COLOR: '1' } });
+  const result = spawnSync(process.execPath, ['bin/ingotrace.mjs', ...args], {
+    encoding: 'utf8',
+    env: { ...process.env, NO_COLOR: '1' },
+  });
   return { code: result.status, stdout: result.stdout, stderr: result.stderr };
 }
 
@@ -29,13 +32,19 @@ describe('the ingotrace command', () => {
   });
 
   it('when the configuration is invalid, then config names the setting and exits non-zero', () => {
-    const result = spawnSync(process.execPath, ['bin/ingotrace.mjs', 'config'], { encoding: 'utf8', env: { ...process.env, DB_PORT: 'abc' } });
+    const result = spawnSync(process.execPath, ['bin/ingotrace.mjs', 'config'], {
+      encoding: 'utf8',
+      env: { ...process.env, DB_PORT: 'abc' },
+    });
     expect(result.status).toBe(1);
     expect(result.stderr).toMatch(/Invalid configuration:\n\s+DB_PORT:/);
   });
 
   it('when the configuration is valid, then config prints it with the passwords masked', () => {
-    const result = spawnSync(process.execPath, ['bin/ingotrace.mjs', 'config'], { encoding: 'utf8', env: { ...process.env, DB_PASSWORD: 'hunter2-secret' } });
+    const result = spawnSync(process.execPath, ['bin/ingotrace.mjs', 'config'], {
+      encoding: 'utf8',
+      env: { ...process.env, DB_PASSWORD: 'hunter2-secret' },
+    });
     expect(result.status).toBe(0);
     const shown = JSON.parse(result.stdout) as Record<string, unknown>;
     expect(shown.DB_PASSWORD).toBe('********');
@@ -52,7 +61,8 @@ describe('ingotrace evaluate', () => {
     chemistry: { Al: '6.1', V: '4.0', Fe: '0.18', O: '0.12', C: '0.02', N: '0.01', H: '0.004' },
     mechanical: { utsMPa: '950', ysMPa: '880', elongationPct: '14', reductionOfAreaPct: '40' },
   };
-  const evaluate = (input: string) => spawnSync(process.execPath, ['bin/ingotrace.mjs', 'evaluate'], { encoding: 'utf8', input });
+  const evaluate = (input: string) =>
+    spawnSync(process.execPath, ['bin/ingotrace.mjs', 'evaluate'], { encoding: 'utf8', input });
 
   it('when given a conforming certificate on stdin, then it prints the evaluation as JSON and exits 0', () => {
     const result = evaluate(JSON.stringify(certificate));
@@ -61,11 +71,19 @@ describe('ingotrace evaluate', () => {
     expect(evaluation.verdict).toBe('conforms');
     expect(evaluation.spec).toMatchObject({ id: 'ASTM F136', revision: 'L2' });
     expect(evaluation.basis).toEqual({ form: 'bar', condition: 'annealed', sizeMm: '25' });
-    expect(evaluation.items[3]).toMatchObject({ item: 'O', reported: '0.12', rounded: '0.12', limit: '≤ 0.13', verdict: 'conforms' });
+    expect(evaluation.items[3]).toMatchObject({
+      item: 'O',
+      reported: '0.12',
+      rounded: '0.12',
+      limit: '≤ 0.13',
+      verdict: 'conforms',
+    });
   });
 
   it('when the certificate does not conform, then it still exits 0 with that verdict (numbers may be JSON numbers)', () => {
-    const result = evaluate(JSON.stringify({ ...certificate, spec: 'astm f136', chemistry: { ...certificate.chemistry, O: 0.135 } }));
+    const result = evaluate(
+      JSON.stringify({ ...certificate, spec: 'astm f136', chemistry: { ...certificate.chemistry, O: 0.135 } }),
+    );
     expect(result.status).toBe(0);
     expect(JSON.parse(result.stdout).verdict).toBe('does-not-conform');
   });
@@ -75,10 +93,16 @@ describe('ingotrace evaluate', () => {
     expect(result.status).toBe(0);
     const evaluation = JSON.parse(result.stdout);
     expect(evaluation.verdict).toBe('cannot-be-evaluated');
-    expect(evaluation.items.at(-1)).toMatchObject({ kind: 'selection', verdict: 'cannot-be-evaluated', reason: 'no-requirement' });
+    expect(evaluation.items.at(-1)).toMatchObject({
+      kind: 'selection',
+      verdict: 'cannot-be-evaluated',
+      reason: 'no-requirement',
+    });
     const typedCondition = evaluate(JSON.stringify({ ...certificate, condition: 'as rolled' }));
     expect(typedCondition.status).toBe(2);
-    expect(typedCondition.stderr).toContain('condition: Choose one of: annealed, cold-worked, hot-worked, warm-worked, extra-hard');
+    expect(typedCondition.stderr).toContain(
+      'condition: Choose one of: annealed, cold-worked, hot-worked, warm-worked, extra-hard',
+    );
   });
 
   it('when the input is not JSON or names an unknown specification, then it exits non-zero with a clear message', () => {
@@ -87,7 +111,9 @@ describe('ingotrace evaluate', () => {
     expect(notJson.stderr).toMatch(/^ingotrace: the input is not JSON/);
     const unknown = evaluate(JSON.stringify({ ...certificate, spec: 'ASTM F999' }));
     expect(unknown.status).toBe(2);
-    expect(unknown.stderr).toBe('ingotrace: Unknown specification "ASTM F999"\n  spec: Not in the specification library\n');
+    expect(unknown.stderr).toBe(
+      'ingotrace: Unknown specification "ASTM F999"\n  spec: Not in the specification library\n',
+    );
     expect(unknown.stdout).toBe('');
   });
 });

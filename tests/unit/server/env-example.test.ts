@@ -20,9 +20,14 @@ describe('.env.example', () => {
   it('names nothing that nothing reads', () => {
     // Beyond the schema: TEST_<setting> overrides for npm test (testProfileEnvironment) and the
     // few settings that only the scripts and the dev server read.
-    const readElsewhere = ['scripts/dev.ts', 'vite.config.ts', 'tests/api/mariadb-bootstrap.test.ts'].map((file) => readFileSync(file, 'utf8')).join('\n');
+    const readElsewhere = ['scripts/dev.ts', 'vite.config.ts', 'tests/api/mariadb-bootstrap.test.ts']
+      .map((file) => readFileSync(file, 'utf8'))
+      .join('\n');
     const unknown = [...documented].filter(
-      (key) => !(key in configSchema.shape) && !(key.startsWith('TEST_') && key.slice(5) in configSchema.shape) && !readElsewhere.includes(`process.env.${key}`),
+      (key) =>
+        !(key in configSchema.shape) &&
+        !(key.startsWith('TEST_') && key.slice(5) in configSchema.shape) &&
+        !readElsewhere.includes(`process.env.${key}`),
     );
     expect(unknown).toEqual([]);
   });

@@ -2,7 +2,13 @@ import { chmodSync, mkdtempSync, readFileSync, statSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { eventStatement, keyIdOf, loadLedgerSigner, publicKeyPathOf, verifyWithPublicKey } from '../../../server/src/modules/ledger/ledger-signing-key';
+import {
+  eventStatement,
+  keyIdOf,
+  loadLedgerSigner,
+  publicKeyPathOf,
+  verifyWithPublicKey,
+} from '../../../server/src/modules/ledger/ledger-signing-key';
 
 describe('the ledger signing key', () => {
   it('[LEDGER-KEY-FILE] when first used, then an Ed25519 key is created readable by the app’s user only, with its public key published beside it', () => {
@@ -23,6 +29,8 @@ describe('the ledger signing key', () => {
     const path = join(mkdtempSync(join(tmpdir(), 'ingotrace-key-')), 'ledger-signing-key.pem');
     loadLedgerSigner(path);
     chmodSync(path, 0o644);
-    expect(() => loadLedgerSigner(path)).toThrow(/can be read by other users \(mode 644\); make it readable by the app's user only \(chmod 600\)$/);
+    expect(() => loadLedgerSigner(path)).toThrow(
+      /can be read by other users \(mode 644\); make it readable by the app's user only \(chmod 600\)$/,
+    );
   });
 });

@@ -26,7 +26,11 @@ describe('table privileges', () => {
   it('[DB-GRANTS] when granting the app user, then each table gets exactly its access level', () => {
     tableAccess.audit_event_example = 'append-only';
     try {
-      const sql = appGrantsSql(accounts, ['organisation', 'migrations', 'audit_event_example'], [{ host: '127.0.0.1', table: 'dropped_table' }]);
+      const sql = appGrantsSql(
+        accounts,
+        ['organisation', 'migrations', 'audit_event_example'],
+        [{ host: '127.0.0.1', table: 'dropped_table' }],
+      );
       expect(sql.split('\n')).toEqual([
         "REVOKE ALL PRIVILEGES ON `ingotrace`.`dropped_table` FROM 'app'@'127.0.0.1';",
         "GRANT SELECT, INSERT ON `ingotrace`.`audit_event_example` TO 'app'@'127.0.0.1';",

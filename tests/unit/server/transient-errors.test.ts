@@ -2,13 +2,24 @@
 // reference (1213 ER_LOCK_DEADLOCK, 1205 ER_LOCK_WAIT_TIMEOUT, 1047 ER_UNKNOWN_COM_ERROR, 1053
 // ER_SERVER_SHUTDOWN, 1927 ER_CONNECTION_KILLED) and the codes mysql2 gives a lost connection.
 import { describe, expect, it } from 'vitest';
-import { connectionLost, retryDelay, transientKind, UNAVAILABLE_BUDGET_MS } from '../../../server/src/db/transient-errors';
+import {
+  connectionLost,
+  retryDelay,
+  transientKind,
+  UNAVAILABLE_BUDGET_MS,
+} from '../../../server/src/db/transient-errors';
 
 describe('transient database errors', () => {
   it('classifies conflicts, unavailability and everything else', () => {
     expect(transientKind({ code: 'ER_LOCK_DEADLOCK', errno: 1213 })).toBe('conflict');
     expect(transientKind({ driverError: { code: 'ER_LOCK_WAIT_TIMEOUT', errno: 1205 } })).toBe('conflict');
-    expect(transientKind({ code: 'ER_UNKNOWN_COM_ERROR', errno: 1047, message: 'WSREP has not yet prepared node for application use' })).toBe('unavailable');
+    expect(
+      transientKind({
+        code: 'ER_UNKNOWN_COM_ERROR',
+        errno: 1047,
+        message: 'WSREP has not yet prepared node for application use',
+      }),
+    ).toBe('unavailable');
     expect(transientKind({ code: 'PROTOCOL_CONNECTION_LOST', fatal: true })).toBe('unavailable');
     expect(transientKind({ code: 'ER_CONNECTION_KILLED', errno: 1927 })).toBe('unavailable');
     expect(transientKind({ code: 'ECONNREFUSED' })).toBe('unavailable');

@@ -4,7 +4,9 @@ import { fieldErrorsFromZod, isErrorResponse } from '@shared/errors';
 
 describe('fieldErrorsFromZod', () => {
   it('when several issues hit one field, then their messages are joined under its dotted path', () => {
-    const schema = z.object({ bar: z.object({ lengthMm: z.string().min(2, 'too short').regex(/^\d+$/, 'digits only') }) });
+    const schema = z.object({
+      bar: z.object({ lengthMm: z.string().min(2, 'too short').regex(/^\d+$/, 'digits only') }),
+    });
     const result = schema.safeParse({ bar: { lengthMm: 'x' } });
     expect(result.success).toBe(false);
     if (!result.success) expect(fieldErrorsFromZod(result.error)).toEqual({ 'bar.lengthMm': 'too short; digits only' });

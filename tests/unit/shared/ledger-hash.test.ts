@@ -1,6 +1,13 @@
 import { createHash } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
-import { canonicalJson, firstBrokenEvent, GENESIS_HASH, ledgerHashInput, type ChainedEvent, type LedgerEventContent } from '@shared/domain/ledger-hash';
+import {
+  canonicalJson,
+  firstBrokenEvent,
+  GENESIS_HASH,
+  ledgerHashInput,
+  type ChainedEvent,
+  type LedgerEventContent,
+} from '@shared/domain/ledger-hash';
 
 const sha256 = (text: string) => createHash('sha256').update(text, 'utf8').digest('hex');
 
@@ -10,15 +17,27 @@ describe('canonical JSON (RFC 8785)', () => {
     const input = JSON.parse(
       '{"numbers": [333333333.33333329, 1E30, 4.50, 2e-3, 0.000000000000000000000000001], "string": "\\u20ac$\\u000F\\u000aA\'\\u0042\\u0022\\u005c\\\\\\"\\/", "literals": [null, true, false]}',
     );
-    expect(canonicalJson(input)).toBe('{"literals":[null,true,false],"numbers":[333333333.3333333,1e+30,4.5,0.002,1e-27],"string":"€$\\u000f\\nA\'B\\"\\\\\\\\\\"/"}');
+    expect(canonicalJson(input)).toBe(
+      '{"literals":[null,true,false],"numbers":[333333333.3333333,1e+30,4.5,0.002,1e-27],"string":"€$\\u000f\\nA\'B\\"\\\\\\\\\\"/"}',
+    );
   });
 
   it('when sorting property names, then they sort by UTF-16 code units as in RFC 8785 §3.2.3', () => {
     // Source: RFC 8785 §3.2.3, the property-sorting example and its expected order.
-    const input = JSON.parse('{"\\u20ac":"Euro Sign","\\r":"Carriage Return","\\ufb33":"Hebrew Letter Dalet With Dagesh","1":"One","\\ud83d\\ude00":"Emoji: Grinning Face","\\u0080":"Control","\\u00f6":"Latin Small Letter O With Diaeresis"}');
+    const input = JSON.parse(
+      '{"\\u20ac":"Euro Sign","\\r":"Carriage Return","\\ufb33":"Hebrew Letter Dalet With Dagesh","1":"One","\\ud83d\\ude00":"Emoji: Grinning Face","\\u0080":"Control","\\u00f6":"Latin Small Letter O With Diaeresis"}',
+    );
     // Read the order from the text itself (a parsed object would put the key "1" first).
     const order = [...canonicalJson(input).matchAll(/:"([^"]+)"/g)].map((match) => match[1]);
-    expect(order).toEqual(['Carriage Return', 'One', 'Control', 'Latin Small Letter O With Diaeresis', 'Euro Sign', 'Emoji: Grinning Face', 'Hebrew Letter Dalet With Dagesh']);
+    expect(order).toEqual([
+      'Carriage Return',
+      'One',
+      'Control',
+      'Latin Small Letter O With Diaeresis',
+      'Euro Sign',
+      'Emoji: Grinning Face',
+      'Hebrew Letter Dalet With Dagesh',
+    ]);
   });
 
   it('when serialising numbers, then they follow the ECMAScript rules listed in RFC 8785 Appendix B', () => {
@@ -84,6 +103,9 @@ describe('the ledger hash chain', () => {
     const events = chain(['received', 'accepted', 'issued']);
     events[1]!.content.reason = 'rewritten';
     events[1]!.hash = sha256(ledgerHashInput(events[1]!.previousHash, events[1]!.content));
-    expect(firstBrokenEvent(events, sha256)).toEqual({ seq: 3, why: 'its previous-hash does not match the hash of the event before it' });
+    expect(firstBrokenEvent(events, sha256)).toEqual({
+      seq: 3,
+      why: 'its previous-hash does not match the hash of the event before it',
+    });
   });
 });

@@ -1,5 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { instantFromPlantLocal, isTimeZone, plantDate, plantDateTime, plantDateTimeSeconds, plantLocalInput } from '@shared/domain/plant-time';
+import {
+  instantFromPlantLocal,
+  isTimeZone,
+  plantDate,
+  plantDateTime,
+  plantDateTimeSeconds,
+  plantLocalInput,
+} from '@shared/domain/plant-time';
 
 // Summer time in the UK begins at 01:00 GMT on the last Sunday of March and ends at 01:00 GMT on the
 // last Sunday of October (The Summer Time Order 2002, SI 2002/262, as kept in the IANA tz database,
@@ -42,7 +49,9 @@ describe('times typed on the plant clock', () => {
   it('when a time is typed in the plant, then it names the same instant whatever the browser zone (Europe/London: GMT in December, BST in July)', () => {
     expect(instantFromPlantLocal('2026-12-05T15:37', 'Europe/London')!.toISOString()).toBe('2026-12-05T15:37:00.000Z');
     expect(instantFromPlantLocal('2026-07-01T09:00', 'Europe/London')!.toISOString()).toBe('2026-07-01T08:00:00.000Z');
-    expect(instantFromPlantLocal('2026-07-01T09:00', 'America/New_York')!.toISOString()).toBe('2026-07-01T13:00:00.000Z');
+    expect(instantFromPlantLocal('2026-07-01T09:00', 'America/New_York')!.toISOString()).toBe(
+      '2026-07-01T13:00:00.000Z',
+    );
     expect(plantLocalInput('2026-07-01T08:00:00Z', 'Europe/London')).toBe('2026-07-01T09:00');
   });
   it('when the time falls in the hour the clocks skip or repeat, then it is read before the change or as its first occurrence', () => {

@@ -5,7 +5,15 @@ import { AppError } from '../../errors';
 import { originOf, currentPerson } from '../../middleware/access';
 import { recordRefusedSignIn, recordSignOut, signIn, SignInRefused } from '../people/people.service';
 import type { SignInRefusalCode } from '@shared/auth/sign-in-refusals';
-import { bindingCookieOptions, bindingNonceFrom, carriesDoctype, isBoundToThisBrowser, newBindingNonce, SIGN_IN_BINDING_COOKIE, withBindingNonce } from './sign-in-binding';
+import {
+  bindingCookieOptions,
+  bindingNonceFrom,
+  carriesDoctype,
+  isBoundToThisBrowser,
+  newBindingNonce,
+  SIGN_IN_BINDING_COOKIE,
+  withBindingNonce,
+} from './sign-in-binding';
 import { completeReauthentication, pendingReauthentication } from './reauthentication.service';
 import { REAUTHENTICATION_STRATEGY, SamlRefusal, SIGN_IN_STRATEGY, type VerifiedAssertion } from './saml-strategies';
 import type { Strategy } from '@node-saml/passport-saml';
@@ -46,7 +54,8 @@ export function authRouter(
     limit: context.config.SIGN_IN_ATTEMPTS_PER_15_MIN,
     connect: () => context.database.connect(),
     key: 'address',
-    message: (minutes) => `Too many sign-in attempts from this address; try again in ${minutes} minute${minutes === 1 ? '' : 's'}`,
+    message: (minutes) =>
+      `Too many sign-in attempts from this address; try again in ${minutes} minute${minutes === 1 ? '' : 's'}`,
     answer: 'sign-in-page',
   });
 
@@ -57,11 +66,21 @@ export function authRouter(
     // The AuthnRequest's ID is derived from a nonce only this browser holds (see sign-in-binding).
     const nonce = newBindingNonce();
     res.cookie(SIGN_IN_BINDING_COOKIE, nonce, cookieOptions);
-    withBindingNonce(nonce, () => passport.authenticate(SIGN_IN_STRATEGY, { additionalParams: { RelayState: safeReturnPath(req.query.returnTo) } } as object)(req, res, next));
+    withBindingNonce(nonce, () =>
+      passport.authenticate(SIGN_IN_STRATEGY, {
+        additionalParams: { RelayState: safeReturnPath(req.query.returnTo) },
+      } as object)(req, res, next),
+    );
   });
 
   /** Records why in the audit trail and sends the browser to the sign-in page with the code only. */
-  async function refuse(req: Request, res: Response, code: SignInRefusalCode, reason: string, subject: string | null): Promise<void> {
+  async function refuse(
+    req: Request,
+    res: Response,
+    code: SignInRefusalCode,
+    reason: string,
+    subject: string | null,
+  ): Promise<void> {
     await recordRefusedSignIn(context.database.dataSource, refusalMessage(reason), subject, originOf(req));
     res.clearCookie(SIGN_IN_BINDING_COOKIE, { ...cookieOptions, maxAge: undefined });
     res.redirect(303, `/sign-in?refused=${code}`);
@@ -70,48 +89,72 @@ export function authRouter(
   router.post('/saml/acs', attempts, urlencoded, (req: Request, res: Response, next) => {
     const relayState = safeReturnPath((req.body as { RelayState?: unknown })?.RelayState);
     if (carriesDoctype((req.body as { SAMLResponse?: unknown })?.SAMLResponse)) {
-      refuse(req, res, 'not-confirmed', 'The identity provider’s answer contains a DOCTYPE and is refused', null).catch(next);
+      refuse(req, res, 'not-confirmed', 'The identity provider’s answer contains a DOCTYPE and is refused', null).catch(
+        next,
+      );
       return;
     }
-    passport.authenticate(SIGN_IN_STRATEGY, { session: false }, async (error: unknown, verified: VerifiedAssertion | false) => {
-      try {
-        const origin = originOf(req);
-        if (error || !verified) {
-          await refuse(req, res, 'not-confirmed', refusalMessage(error ?? 'The identity provider did not confirm who you are'), error instanceof SamlRefusal ? error.subject : null);
-          return;
-        }
-        if (!isBoundToThisBrowser(verified.inResponseTo, bindingNonceFrom(req.get('cookie')), secret)) {
-          await refuse(req, res, 'other-browser', `The response answers a sign-in started in another browser (InResponseTo ${verified.inResponseTo ?? 'missing'})`, verified.subject);
-          return;
-        }
-        let person;
+    passport.authenticate(
+      SIGN_IN_STRATEGY,
+      { session: false },
+      async (error: unknown, verified: VerifiedAssertion | false) => {
         try {
-          person = await signIn(context.database.dataSource, verified, origin);
-        } catch (refused) {
-          await refuse(req, res, refused instanceof SignInRefused ? refused.code : 'not-confirmed', refusalMessage(refused), verified.subject);
-          return;
+          const origin = originOf(req);
+          if (error || !verified) {
+            await refuse(
+              req,
+              res,
+              'not-confirmed',
+              refusalMessage(error ?? 'The identity provider did not confirm who you are'),
+              error instanceof SamlRefusal ? error.subject : null,
+            );
+            return;
+          }
+          if (!isBoundToThisBrowser(verified.inResponseTo, bindingNonceFrom(req.get('cookie')), secret)) {
+            await refuse(
+              req,
+              res,
+              'other-browser',
+              `The response answers a sign-in started in another browser (InResponseTo ${verified.inResponseTo ?? 'missing'})`,
+              verified.subject,
+            );
+            return;
+          }
+          let person;
+          try {
+            person = await signIn(context.database.dataSource, verified, origin);
+          } catch (refused) {
+            await refuse(
+              req,
+              res,
+              refused instanceof SignInRefused ? refused.code : 'not-confirmed',
+              refusalMessage(refused),
+              verified.subject,
+            );
+            return;
+          }
+          res.clearCookie(SIGN_IN_BINDING_COOKIE, { ...cookieOptions, maxAge: undefined });
+          // passport regenerates the session id here (no session fixation).
+          req.login(person, (loginError) => {
+            if (loginError) return next(loginError);
+            const now = Date.now();
+            req.session.signedInAt = now;
+            req.session.lastSeenAt = now;
+            // The token exists from the first moment of the session, so that concurrent first
+            // requests (each saving the session) cannot race over creating it.
+            csrf.generateToken(req);
+            (req.session as unknown as { saml: SamlSessionFacts }).saml = {
+              nameID: verified.subject,
+              nameIDFormat: 'urn:oasis:names:tc:SAML:2.0:nameid-format:persistent',
+              sessionIndex: verified.sessionIndex,
+            };
+            req.session.save((saveError) => (saveError ? next(saveError) : res.redirect(303, relayState)));
+          });
+        } catch (unexpected) {
+          next(unexpected);
         }
-        res.clearCookie(SIGN_IN_BINDING_COOKIE, { ...cookieOptions, maxAge: undefined });
-        // passport regenerates the session id here (no session fixation).
-        req.login(person, (loginError) => {
-          if (loginError) return next(loginError);
-          const now = Date.now();
-          req.session.signedInAt = now;
-          req.session.lastSeenAt = now;
-          // The token exists from the first moment of the session, so that concurrent first
-          // requests (each saving the session) cannot race over creating it.
-          csrf.generateToken(req);
-          (req.session as unknown as { saml: SamlSessionFacts }).saml = {
-            nameID: verified.subject,
-            nameIDFormat: 'urn:oasis:names:tc:SAML:2.0:nameid-format:persistent',
-            sessionIndex: verified.sessionIndex,
-          };
-          req.session.save((saveError) => (saveError ? next(saveError) : res.redirect(303, relayState)));
-        });
-      } catch (unexpected) {
-        next(unexpected);
-      }
-    })(req, res, next);
+      },
+    )(req, res, next);
   });
 
   router.post('/logout', csrf.protection, async (req, res) => {
@@ -121,7 +164,9 @@ export function authRouter(
     const identityProviderLogout = await new Promise<string>((resolve) => {
       if (!saml) return resolve(`${context.config.SAML_IDP_SLO_URL}`);
       const logoutRequest = { user: saml, query: { RelayState: `${context.config.PUBLIC_URL}/signed-out` }, body: {} };
-      signInStrategy.logout(logoutRequest as never, (error, url) => resolve(error || !url ? context.config.SAML_IDP_SLO_URL : url));
+      signInStrategy.logout(logoutRequest as never, (error, url) =>
+        resolve(error || !url ? context.config.SAML_IDP_SLO_URL : url),
+      );
     });
     await new Promise<void>((resolve) => req.logout({ keepSessionInfo: false }, () => resolve()));
     await new Promise<void>((resolve) => (req.session ? req.session.destroy(() => resolve()) : resolve()));
@@ -133,10 +178,16 @@ export function authRouter(
     const row = await pendingReauthentication(context.database.dataSource, String(req.params.reauthenticationId));
     const person = currentPerson(req);
     if (!row || !person || row.person_id !== person.id) {
-      next(new AppError('NOT_FOUND', 'This re-authentication is unknown, expired or not yours; start the signature again'));
+      next(
+        new AppError('NOT_FOUND', 'This re-authentication is unknown, expired or not yours; start the signature again'),
+      );
       return;
     }
-    passport.authenticate(REAUTHENTICATION_STRATEGY, { additionalParams: { RelayState: row.id } } as object)(req, res, next);
+    passport.authenticate(REAUTHENTICATION_STRATEGY, { additionalParams: { RelayState: row.id } } as object)(
+      req,
+      res,
+      next,
+    );
   });
 
   router.post('/saml/reauth-acs', attempts, urlencoded, (req: Request, res: Response, next) => {
@@ -145,22 +196,27 @@ export function authRouter(
       next(new AppError('VALIDATION_FAILED', 'The identity provider’s answer contains a DOCTYPE and is refused'));
       return;
     }
-    passport.authenticate(REAUTHENTICATION_STRATEGY, { session: false }, async (error: unknown, verified: VerifiedAssertion | false) => {
-      try {
-        const outcome = await completeReauthentication(context.database.dataSource, {
-          id,
-          assertedSubject: verified ? verified.subject : null,
-          authnInstant: verified ? verified.authnInstant : null,
-          failure: error || !verified ? refusalMessage(error ?? 'The identity provider did not confirm who you are') : null,
-          clockSkewMs: context.config.SAML_CLOCK_SKEW_MS,
-          origin: originOf(req),
-        });
-        const separator = outcome.returnTo.includes('?') ? '&' : '?';
-        res.redirect(303, `${outcome.returnTo}${separator}reauthentication=${id}`);
-      } catch (failure) {
-        next(failure);
-      }
-    })(req, res, next);
+    passport.authenticate(
+      REAUTHENTICATION_STRATEGY,
+      { session: false },
+      async (error: unknown, verified: VerifiedAssertion | false) => {
+        try {
+          const outcome = await completeReauthentication(context.database.dataSource, {
+            id,
+            assertedSubject: verified ? verified.subject : null,
+            authnInstant: verified ? verified.authnInstant : null,
+            failure:
+              error || !verified ? refusalMessage(error ?? 'The identity provider did not confirm who you are') : null,
+            clockSkewMs: context.config.SAML_CLOCK_SKEW_MS,
+            origin: originOf(req),
+          });
+          const separator = outcome.returnTo.includes('?') ? '&' : '?';
+          res.redirect(303, `${outcome.returnTo}${separator}reauthentication=${id}`);
+        } catch (failure) {
+          next(failure);
+        }
+      },
+    )(req, res, next);
   });
 
   return router;

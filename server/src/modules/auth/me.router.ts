@@ -1,12 +1,21 @@
 import { Router, type Request } from 'express';
 import { allowedActions } from '@shared/auth/permissions';
 import type { Me } from '@shared/schemas/people';
-import { reauthenticationIdSchema, reauthenticationStartSchema, type ReauthenticationStart } from '@shared/schemas/reauthentication';
+import {
+  reauthenticationIdSchema,
+  reauthenticationStartSchema,
+  type ReauthenticationStart,
+} from '@shared/schemas/reauthentication';
 import type { AppContext } from '../../app-context';
 import { currentPerson, originOf, requireSignedIn } from '../../middleware/access';
 import { validate } from '../../middleware/validate';
 import { limitRate } from '../../middleware/rate-limits';
-import { cancelReauthentication, REAUTHENTICATION_START_LIMIT, reauthenticationStatus, startReauthentication } from './reauthentication.service';
+import {
+  cancelReauthentication,
+  REAUTHENTICATION_START_LIMIT,
+  reauthenticationStatus,
+  startReauthentication,
+} from './reauthentication.service';
 
 /** The signed-in person, their permitted actions and CSRF token; and starting a re-authentication. */
 export function meRouter(context: AppContext, generateCsrfToken: (req: Request) => string): Router {
@@ -20,7 +29,9 @@ export function meRouter(context: AppContext, generateCsrfToken: (req: Request) 
       csrfToken: generateCsrfToken(req),
       session: {
         idleMinutes: context.config.SESSION_IDLE_MINUTES,
-        absoluteExpiresAt: new Date((req.session.signedInAt ?? Date.now()) + context.config.SESSION_ABSOLUTE_HOURS * 3600_000).toISOString(),
+        absoluteExpiresAt: new Date(
+          (req.session.signedInAt ?? Date.now()) + context.config.SESSION_ABSOLUTE_HOURS * 3600_000,
+        ).toISOString(),
       },
     };
     res.set('Cache-Control', 'no-store').json(body);
@@ -32,24 +43,50 @@ export function meRouter(context: AppContext, generateCsrfToken: (req: Request) 
     limit: context.config.SIGNING_ATTEMPTS_PER_15_MIN,
     connect: () => context.database.connect(),
     key: 'person',
-    message: (minutes) => `Too many password confirmations begun in a short time; try again in ${minutes} minute${minutes === 1 ? '' : 's'}`,
+    message: (minutes) =>
+      `Too many password confirmations begun in a short time; try again in ${minutes} minute${minutes === 1 ? '' : 's'}`,
     answer: 'json',
   });
 
-  router.post('/reauthentications', requireSignedIn(), starts, validate({ body: reauthenticationStartSchema }), async (req, res) => {
-    const start = res.locals.valid.body as ReauthenticationStart;
-    res.status(201).json(await startReauthentication(context.database.dataSource, currentPerson(req)!, start));
-  });
+  router.post(
+    '/reauthentications',
+    requireSignedIn(),
+    starts,
+    validate({ body: reauthenticationStartSchema }),
+    async (req, res) => {
+      const start = res.locals.valid.body as ReauthenticationStart;
+      res.status(201).json(await startReauthentication(context.database.dataSource, currentPerson(req)!, start));
+    },
+  );
 
-  router.get('/reauthentications/:reauthenticationId', requireSignedIn(), validate({ params: reauthenticationIdSchema }), async (req, res) => {
-    const { reauthenticationId } = res.locals.valid.params as { reauthenticationId: string };
-    res.set('Cache-Control', 'no-store').json(await reauthenticationStatus(context.database.dataSource, reauthenticationId, currentPerson(req)!));
-  });
+  router.get(
+    '/reauthentications/:reauthenticationId',
+    requireSignedIn(),
+    validate({ params: reauthenticationIdSchema }),
+    async (req, res) => {
+      const { reauthenticationId } = res.locals.valid.params as { reauthenticationId: string };
+      res
+        .set('Cache-Control', 'no-store')
+        .json(await reauthenticationStatus(context.database.dataSource, reauthenticationId, currentPerson(req)!));
+    },
+  );
 
-  router.post('/reauthentications/:reauthenticationId/cancel', requireSignedIn(), validate({ params: reauthenticationIdSchema }), async (req, res) => {
-    const { reauthenticationId } = res.locals.valid.params as { reauthenticationId: string };
-    res.json(await cancelReauthentication(context.database.dataSource, reauthenticationId, currentPerson(req)!, originOf(req)));
-  });
+  router.post(
+    '/reauthentications/:reauthenticationId/cancel',
+    requireSignedIn(),
+    validate({ params: reauthenticationIdSchema }),
+    async (req, res) => {
+      const { reauthenticationId } = res.locals.valid.params as { reauthenticationId: string };
+      res.json(
+        await cancelReauthentication(
+          context.database.dataSource,
+          reauthenticationId,
+          currentPerson(req)!,
+          originOf(req),
+        ),
+      );
+    },
+  );
 
   return router;
 }

@@ -29,29 +29,37 @@ const urlFor = (id: string) => `/auth/reauth/${id}`;
 function statusOf(row: ReauthenticationRow, now = Date.now()): ReauthenticationStatus['status'] {
   if (row.used_at) return 'used';
   if (row.refused_reason) return 'refused';
-  if (row.confirmed_at) return now - new Date(row.confirmed_at).getTime() > SIGNING_TICKET_LIFETIME_MS ? 'expired' : 'confirmed';
+  if (row.confirmed_at)
+    return now - new Date(row.confirmed_at).getTime() > SIGNING_TICKET_LIFETIME_MS ? 'expired' : 'confirmed';
   return now - new Date(row.started_at).getTime() > SIGNING_TICKET_LIFETIME_MS ? 'expired' : 'pending';
 }
 
-export async function startReauthentication(dataSource: DataSource, person: Person, start: ReauthenticationStart): Promise<ReauthenticationStatus> {
+export async function startReauthentication(
+  dataSource: DataSource,
+  person: Person,
+  start: ReauthenticationStart,
+): Promise<ReauthenticationStatus> {
   const id = randomBytes(16).toString('hex');
-  await dataSource.query('INSERT INTO reauthentication (id, person_id, purpose, binding_hash, return_to, started_at) VALUES (?, ?, ?, ?, ?, ?)', [
-    id,
-    person.id,
-    start.purpose,
-    start.bindingHash,
-    start.returnTo,
-    new Date(),
-  ]);
+  await dataSource.query(
+    'INSERT INTO reauthentication (id, person_id, purpose, binding_hash, return_to, started_at) VALUES (?, ?, ?, ?, ?, ?)',
+    [id, person.id, start.purpose, start.bindingHash, start.returnTo, new Date()],
+  );
   return { id, status: 'pending', reason: null, url: urlFor(id) };
 }
 
 async function findRow(manager: EntityManager, id: string, lock = false): Promise<ReauthenticationRow | null> {
-  const [row]: ReauthenticationRow[] = await manager.query(`SELECT * FROM reauthentication WHERE id = ?${lock ? ' FOR UPDATE' : ''}`, [id]);
+  const [row]: ReauthenticationRow[] = await manager.query(
+    `SELECT * FROM reauthentication WHERE id = ?${lock ? ' FOR UPDATE' : ''}`,
+    [id],
+  );
   return row ?? null;
 }
 
-export async function reauthenticationStatus(dataSource: DataSource, id: string, person: Person): Promise<ReauthenticationStatus> {
+export async function reauthenticationStatus(
+  dataSource: DataSource,
+  id: string,
+  person: Person,
+): Promise<ReauthenticationStatus> {
   const row = await findRow(dataSource.manager, id);
   if (!row || row.person_id !== person.id) throw AppError.notFound('Re-authentication');
   return { id, status: statusOf(row), reason: row.refused_reason, url: urlFor(id) };
@@ -66,12 +74,23 @@ export async function pendingReauthentication(dataSource: DataSource, id: string
 /** Records what the identity provider answered; returns where the browser goes next. */
 export async function completeReauthentication(
   dataSource: DataSource,
-  input: { id: string; assertedSubject: string | null; authnInstant: Date | null; failure: string | null; clockSkewMs: number; origin: RequestOrigin },
+  input: {
+    id: string;
+    assertedSubject: string | null;
+    authnInstant: Date | null;
+    failure: string | null;
+    clockSkewMs: number;
+    origin: RequestOrigin;
+  },
 ): Promise<{ returnTo: string; refusedReason: string | null }> {
   return inTransaction(dataSource, async (manager) => {
     const row = await findRow(manager, input.id, true);
-    if (!row || statusOf(row) !== 'pending') throw AppError.rule('This re-authentication is unknown, expired or already completed; start the signature again');
-    const [person]: Array<{ subject: string; name: string }> = await manager.query('SELECT subject, name FROM person WHERE id = ?', [row.person_id]);
+    if (!row || statusOf(row) !== 'pending')
+      throw AppError.rule('This re-authentication is unknown, expired or already completed; start the signature again');
+    const [person]: Array<{ subject: string; name: string }> = await manager.query(
+      'SELECT subject, name FROM person WHERE id = ?',
+      [row.person_id],
+    );
     const refusal =
       input.failure ??
       (input.assertedSubject && input.authnInstant && person
@@ -85,16 +104,27 @@ export async function completeReauthentication(
           })
         : 'The identity provider did not confirm who you are');
     if (refusal) {
-      await manager.query('UPDATE reauthentication SET refused_reason = ? WHERE id = ?', [refusal.slice(0, 300), row.id]);
+      await manager.query('UPDATE reauthentication SET refused_reason = ? WHERE id = ?', [
+        refusal.slice(0, 300),
+        row.id,
+      ]);
       await refundRateLimit(manager, REAUTHENTICATION_START_LIMIT, `person-${row.person_id}`);
     } else {
-      await manager.query('UPDATE reauthentication SET confirmed_at = ?, authn_instant = ? WHERE id = ?', [new Date(), input.authnInstant, row.id]);
+      await manager.query('UPDATE reauthentication SET confirmed_at = ?, authn_instant = ? WHERE id = ?', [
+        new Date(),
+        input.authnInstant,
+        row.id,
+      ]);
     }
     await appendLedgerEvent(manager, {
       actor: { id: row.person_id, name: person?.name ?? null, role: null },
       action: refusal ? 'signature.reauthentication-refused' : 'signature.reauthenticated',
       entity: { type: 'reauthentication', id: row.id },
-      after: { purpose: row.purpose, bindingHash: row.binding_hash, authnInstant: input.authnInstant?.toISOString() ?? null },
+      after: {
+        purpose: row.purpose,
+        bindingHash: row.binding_hash,
+        authnInstant: input.authnInstant?.toISOString() ?? null,
+      },
       reason: refusal,
       origin: input.origin,
     });
@@ -103,7 +133,12 @@ export async function completeReauthentication(
 }
 
 /** The person stops waiting for the password window: a pending re-authentication ends as cancelled and does not count against their limit. */
-export async function cancelReauthentication(dataSource: DataSource, id: string, person: Person, origin: RequestOrigin): Promise<ReauthenticationStatus> {
+export async function cancelReauthentication(
+  dataSource: DataSource,
+  id: string,
+  person: Person,
+  origin: RequestOrigin,
+): Promise<ReauthenticationStatus> {
   return inTransaction(dataSource, async (manager) => {
     const row = await findRow(manager, id, true);
     if (!row || row.person_id !== person.id) throw AppError.notFound('Re-authentication');
@@ -111,7 +146,13 @@ export async function cancelReauthentication(dataSource: DataSource, id: string,
     const reason = 'Cancelled by the person signing';
     await manager.query('UPDATE reauthentication SET refused_reason = ? WHERE id = ?', [reason, row.id]);
     await refundRateLimit(manager, REAUTHENTICATION_START_LIMIT, `person-${person.id}`);
-    await appendLedgerEvent(manager, { actor: { id: person.id, name: person.name, role: null }, action: 'signature.reauthentication-cancelled', entity: { type: 'reauthentication', id: row.id }, after: { purpose: row.purpose }, origin });
+    await appendLedgerEvent(manager, {
+      actor: { id: person.id, name: person.name, role: null },
+      action: 'signature.reauthentication-cancelled',
+      entity: { type: 'reauthentication', id: row.id },
+      after: { purpose: row.purpose },
+      origin,
+    });
     return { id, status: 'refused', reason, url: urlFor(id) };
   });
 }
@@ -120,15 +161,29 @@ export async function cancelReauthentication(dataSource: DataSource, id: string,
  * Uses a confirmed re-authentication once, for the signature it was bound to, inside the
  * signature's own transaction. Throws a clear refusal otherwise.
  */
-export async function consumeReauthentication(manager: EntityManager, input: { id: string; personId: number; bindingHash: string }): Promise<{ authnInstant: Date }> {
+export async function consumeReauthentication(
+  manager: EntityManager,
+  input: { id: string; personId: number; bindingHash: string },
+): Promise<{ authnInstant: Date }> {
   const row = await findRow(manager, input.id, true);
-  if (!row || row.person_id !== input.personId) throw AppError.rule('Sign again: no re-authentication of yours matches this signature', { reauthenticationId: 'Unknown' });
+  if (!row || row.person_id !== input.personId)
+    throw AppError.rule('Sign again: no re-authentication of yours matches this signature', {
+      reauthenticationId: 'Unknown',
+    });
   const status = statusOf(row);
   if (status !== 'confirmed') {
-    const why = { pending: 'has not been completed', refused: `was refused (${row.refused_reason})`, used: 'was already used for a signature', expired: 'has expired' }[status];
+    const why = {
+      pending: 'has not been completed',
+      refused: `was refused (${row.refused_reason})`,
+      used: 'was already used for a signature',
+      expired: 'has expired',
+    }[status];
     throw AppError.rule(`Sign again: the re-authentication ${why}`, { reauthenticationId: status });
   }
-  if (row.binding_hash !== input.bindingHash) throw AppError.rule('Sign again: the record changed after you re-authenticated', { reauthenticationId: 'Bound to other content' });
+  if (row.binding_hash !== input.bindingHash)
+    throw AppError.rule('Sign again: the record changed after you re-authenticated', {
+      reauthenticationId: 'Bound to other content',
+    });
   await manager.query('UPDATE reauthentication SET used_at = ? WHERE id = ?', [new Date(), row.id]);
   return { authnInstant: new Date(row.authn_instant as Date) };
 }

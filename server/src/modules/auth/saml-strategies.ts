@@ -1,5 +1,11 @@
 import { readFile } from 'node:fs/promises';
-import { Strategy, ValidateInResponseTo, type Profile, type PassportSamlConfig, type VerifyWithRequest } from '@node-saml/passport-saml';
+import {
+  Strategy,
+  ValidateInResponseTo,
+  type Profile,
+  type PassportSamlConfig,
+  type VerifyWithRequest,
+} from '@node-saml/passport-saml';
 import type { AppContext } from '../../app-context';
 import { attributeValues, rolesFromGroups } from '../people/people.domain';
 import type { SignInIdentity } from '../people/people.service';
@@ -27,7 +33,10 @@ export interface VerifiedAssertion extends SignInIdentity {
 }
 
 export function acsUrls(context: AppContext): { signIn: string; reauthentication: string } {
-  return { signIn: `${context.config.PUBLIC_URL}/auth/saml/acs`, reauthentication: `${context.config.PUBLIC_URL}/auth/saml/reauth-acs` };
+  return {
+    signIn: `${context.config.PUBLIC_URL}/auth/saml/acs`,
+    reauthentication: `${context.config.PUBLIC_URL}/auth/saml/reauth-acs`,
+  };
 }
 
 /**
@@ -49,7 +58,10 @@ export function createSamlStrategies(context: AppContext): { signIn: Strategy; r
     idpCert: (callback) => {
       readFile(config.SAML_IDP_CERT_FILE, 'utf8').then(
         (pem) => callback(null, pem),
-        (error: Error) => callback(new Error(`Cannot read the identity provider's certificate ${config.SAML_IDP_CERT_FILE}: ${error.message}`)),
+        (error: Error) =>
+          callback(
+            new Error(`Cannot read the identity provider's certificate ${config.SAML_IDP_CERT_FILE}: ${error.message}`),
+          ),
       );
     },
     wantAssertionsSigned: true,
@@ -73,10 +85,15 @@ export function createSamlStrategies(context: AppContext): { signIn: Strategy; r
         (error: Error) => done(error),
       );
     };
-  const noLogoutRequests: VerifyWithRequest = (_req, _profile, done) => done(new Error('logout requests from the identity provider are not accepted'));
+  const noLogoutRequests: VerifyWithRequest = (_req, _profile, done) =>
+    done(new Error('logout requests from the identity provider are not accepted'));
 
   return {
-    signIn: new Strategy({ ...common, name: SIGN_IN_STRATEGY, callbackUrl: urls.signIn }, verifier(urls.signIn), noLogoutRequests),
+    signIn: new Strategy(
+      { ...common, name: SIGN_IN_STRATEGY, callbackUrl: urls.signIn },
+      verifier(urls.signIn),
+      noLogoutRequests,
+    ),
     reauthentication: new Strategy(
       { ...common, name: REAUTHENTICATION_STRATEGY, callbackUrl: urls.reauthentication, forceAuthn: true },
       verifier(urls.reauthentication),
@@ -92,7 +109,11 @@ async function verifyProfile(context: AppContext, profile: Profile | null, acsUr
   const refusal = assertionRefusal(facts, { idpEntityId: context.config.SAML_IDP_ENTITY_ID, acsUrl });
   if (refusal) throw new SamlRefusal(refusal, subject);
   if (!subject) throw new SamlRefusal('Assertion names no subject');
-  const fresh = await claimAssertionId(context.database, facts.assertionId as string, facts.notOnOrAfter ?? new Date(Date.now() + 3600_000));
+  const fresh = await claimAssertionId(
+    context.database,
+    facts.assertionId as string,
+    facts.notOnOrAfter ?? new Date(Date.now() + 3600_000),
+  );
   if (!fresh) throw new SamlRefusal('This assertion was already used (replay)', subject);
   const name = attributeValues(profile.displayName)[0] ?? subject;
   const email = attributeValues(profile.email ?? profile.mail)[0] ?? '';
@@ -100,7 +121,10 @@ async function verifyProfile(context: AppContext, profile: Profile | null, acsUr
     subject,
     name,
     email,
-    identityProviderRoles: rolesFromGroups(attributeValues(profile[context.config.SAML_GROUP_ATTRIBUTE]), context.config.roleMap),
+    identityProviderRoles: rolesFromGroups(
+      attributeValues(profile[context.config.SAML_GROUP_ATTRIBUTE]),
+      context.config.roleMap,
+    ),
     authnInstant: facts.authnInstant as Date,
     assertionId: facts.assertionId as string,
     inResponseTo: facts.inResponseTo,

@@ -54,18 +54,29 @@ export class MariaDbSessionStore extends session.Store {
     const stored = { ...(data as SessionData & PassportData) };
     const user = stored.passport?.user;
     if (user && typeof user === 'object') stored.passport = { ...stored.passport, user: user.id };
-    const expires = Math.round((data.cookie.expires ? new Date(data.cookie.expires).getTime() : Date.now() + this.options.expirationMs) / 1000);
+    const expires = Math.round(
+      (data.cookie.expires ? new Date(data.cookie.expires).getTime() : Date.now() + this.options.expirationMs) / 1000,
+    );
     this.connect()
       .then((dataSource) =>
-        dataSource.query('INSERT INTO http_session (session_id, expires, data) VALUES (?, ?, ?) ON DUPLICATE KEY UPDATE expires = VALUES(expires), data = VALUES(data)', [sid, expires, JSON.stringify(stored)]),
+        dataSource.query(
+          'INSERT INTO http_session (session_id, expires, data) VALUES (?, ?, ?) ON DUPLICATE KEY UPDATE expires = VALUES(expires), data = VALUES(data)',
+          [sid, expires, JSON.stringify(stored)],
+        ),
       )
-      .then(() => callback?.(), (error: unknown) => callback?.(error));
+      .then(
+        () => callback?.(),
+        (error: unknown) => callback?.(error),
+      );
   }
 
   override destroy(sid: string, callback?: Callback): void {
     this.connect()
       .then((dataSource) => dataSource.query('DELETE FROM http_session WHERE session_id = ?', [sid]))
-      .then(() => callback?.(), (error: unknown) => callback?.(error));
+      .then(
+        () => callback?.(),
+        (error: unknown) => callback?.(error),
+      );
   }
 
   override touch(_sid: string, _data: SessionData, callback?: Callback): void {

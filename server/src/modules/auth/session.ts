@@ -43,8 +43,10 @@ export function createSessionSupport(config: AppConfig, connect: () => Promise<D
     const signedInAt = req.session.signedInAt ?? now;
     const lastSeenAt = req.session.lastSeenAt ?? now;
     let reason: string | null = null;
-    if (now - signedInAt > absoluteMs) reason = `Your session reached its limit of ${config.SESSION_ABSOLUTE_HOURS} hours; sign in again`;
-    else if (now - lastSeenAt > idleMs) reason = `Your session ended after ${config.SESSION_IDLE_MINUTES} minutes without activity; sign in again`;
+    if (now - signedInAt > absoluteMs)
+      reason = `Your session reached its limit of ${config.SESSION_ABSOLUTE_HOURS} hours; sign in again`;
+    else if (now - lastSeenAt > idleMs)
+      reason = `Your session ended after ${config.SESSION_IDLE_MINUTES} minutes without activity; sign in again`;
     if (reason) {
       const message = reason;
       req.session.destroy(() => next(new AppError('UNAUTHENTICATED', message)));
@@ -52,7 +54,8 @@ export function createSessionSupport(config: AppConfig, connect: () => Promise<D
     }
     // Activity is recorded at most every 30 s (or a tenth of the idle limit), not on every request:
     // each record is a write of the session row.
-    if (now - lastSeenAt >= Math.min(30_000, idleMs / 10) || req.session.lastSeenAt === undefined) req.session.lastSeenAt = now;
+    if (now - lastSeenAt >= Math.min(30_000, idleMs / 10) || req.session.lastSeenAt === undefined)
+      req.session.lastSeenAt = now;
     next();
   };
   return { middleware, enforceTimeouts, close: async () => store.close() };

@@ -2,7 +2,11 @@ import { AppError } from '../../errors';
 import type { Database } from '../../db/database';
 import type { Health } from '@shared/schemas/health';
 
-const accessRefusedCodes = new Set(['ER_ACCESS_DENIED_ERROR', 'ER_DBACCESS_DENIED_ERROR', 'ER_TABLEACCESS_DENIED_ERROR']);
+const accessRefusedCodes = new Set([
+  'ER_ACCESS_DENIED_ERROR',
+  'ER_DBACCESS_DENIED_ERROR',
+  'ER_TABLEACCESS_DENIED_ERROR',
+]);
 
 export async function checkHealth(database: Database, version: string): Promise<Health> {
   let server: string;
@@ -22,7 +26,10 @@ export async function checkHealth(database: Database, version: string): Promise<
     throw new AppError('SERVICE_UNAVAILABLE', `Cannot read the migration history: ${describe(error)}`);
   }
   if (pending.length > 0) {
-    throw new AppError('SERVICE_UNAVAILABLE', `Database schema is behind: ${pending.length} migration(s) not run (${pending.join(', ')})`);
+    throw new AppError(
+      'SERVICE_UNAVAILABLE',
+      `Database schema is behind: ${pending.length} migration(s) not run (${pending.join(', ')})`,
+    );
   }
   return { status: 'ok', version, database: { server, migrationsPending: 0 } };
 }

@@ -8,7 +8,9 @@ import { homeFor } from './home.service';
 export function homeRouter(context: AppContext): Router {
   const router = Router();
   router.get('/home', requireSignedIn(), async (req, res) => {
-    res.set('Cache-Control', 'no-store').json(homeSchema.parse(await homeFor(context.database.dataSource, currentPerson(req)!)));
+    res
+      .set('Cache-Control', 'no-store')
+      .json(homeSchema.parse(await homeFor(context.database.dataSource, currentPerson(req)!)));
   });
   return router;
 }

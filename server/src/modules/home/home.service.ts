@@ -6,7 +6,13 @@ import type { Home, WorkItem } from '@shared/schemas/home';
 import type { Person } from '@shared/schemas/people';
 import { heatsAwaitingCheck } from '../materials/check-analysis.service';
 import { plantTimeZone } from '../organisation/organisation.repository';
-import { finishedLotsSince, nonconformancesSince, releasedSince, waitingWork, type WaitingCount } from './home.repository';
+import {
+  finishedLotsSince,
+  nonconformancesSince,
+  releasedSince,
+  waitingWork,
+  type WaitingCount,
+} from './home.repository';
 
 interface WorkKind {
   key: string;
@@ -19,7 +25,14 @@ interface WorkKind {
 
 /** The kinds of work, each shown to the people whose role may do it. */
 const workKinds: WorkKind[] = [
-  { key: 'heats-to-disposition', action: 'materials.disposition', title: 'Heats to disposition', explanation: 'received or quarantined; acknowledge their certificate screening findings and sign a disposition', link: '/heats', count: (data) => waitingWork.heatsToDisposition(data.manager) },
+  {
+    key: 'heats-to-disposition',
+    action: 'materials.disposition',
+    title: 'Heats to disposition',
+    explanation: 'received or quarantined; acknowledge their certificate screening findings and sign a disposition',
+    link: '/heats',
+    count: (data) => waitingWork.heatsToDisposition(data.manager),
+  },
   {
     key: 'check-analyses-due',
     action: 'materials.write',
@@ -32,16 +45,86 @@ const workKinds: WorkKind[] = [
       return { count: due.length, oldest: oldest ? new Date(oldest) : null };
     },
   },
-  { key: 'lots-in-work', action: 'lots.write', title: 'Lots in work', explanation: 'open lots whose routing is not finished or not yet submitted for release', link: '/lots', count: (data) => waitingWork.lotsInWork(data.manager) },
-  { key: 'lots-returned', action: 'release.submit', title: 'Lots returned to engineering', explanation: 'sent back from release with a reason; correct and submit again', link: '/release', count: (data) => waitingWork.lotsReturned(data.manager) },
-  { key: 'lots-to-review', action: 'release.review', title: 'Lots to review', explanation: 'submitted for release; review the checklist, the release content and the audit trail', link: '/release', count: (data) => waitingWork.lotsToReview(data.manager) },
-  { key: 'lots-to-approve', action: 'release.approve', title: 'Lots to approve for release', explanation: 'reviewed; a QA approver other than the reviewer signs the release', link: '/release', count: (data) => waitingWork.lotsToApprove(data.manager) },
-  { key: 'nonconformances-to-disposition', action: 'nonconformances.disposition', title: 'Nonconformances to disposition', explanation: 'open; decide Use as is, Rework, Scrap or Return to supplier and sign it', link: '/nonconformances', count: (data) => waitingWork.nonconformancesToDisposition(data.manager) },
-  { key: 'nonconformances-to-close', action: 'nonconformances.disposition', title: 'Nonconformances to close', explanation: 'disposition signed; close once it is carried out', link: '/nonconformances', count: (data) => waitingWork.nonconformancesToClose(data.manager) },
-  { key: 'holds-to-lift', action: 'holds.lift', title: 'Holds to lift', explanation: 'lots held by a recall investigation; lift each after its disposition', link: '/recalls', count: (data) => waitingWork.holdsToLift(data.manager) },
-  { key: 'recalls-open', action: 'recall.read', title: 'Recall investigations open', explanation: 'investigations that have not been closed', link: '/recalls', count: (data) => waitingWork.openRecalls(data.manager) },
-  { key: 'drills-open', action: 'recall.read', title: 'Drills open', explanation: 'recall exercises that have not been closed', link: '/recalls', count: (data) => waitingWork.openDrills(data.manager) },
-  { key: 'role-changes', action: 'people.manage', title: 'Role changes to confirm', explanation: 'signing roles asked for by another administrator; confirm or refuse with your signature', link: '/administration', count: (data, person) => waitingWork.roleChangesToConfirm(data.manager, person.id) },
+  {
+    key: 'lots-in-work',
+    action: 'lots.write',
+    title: 'Lots in work',
+    explanation: 'open lots whose routing is not finished or not yet submitted for release',
+    link: '/lots',
+    count: (data) => waitingWork.lotsInWork(data.manager),
+  },
+  {
+    key: 'lots-returned',
+    action: 'release.submit',
+    title: 'Lots returned to engineering',
+    explanation: 'sent back from release with a reason; correct and submit again',
+    link: '/release',
+    count: (data) => waitingWork.lotsReturned(data.manager),
+  },
+  {
+    key: 'lots-to-review',
+    action: 'release.review',
+    title: 'Lots to review',
+    explanation: 'submitted for release; review the checklist, the release content and the audit trail',
+    link: '/release',
+    count: (data) => waitingWork.lotsToReview(data.manager),
+  },
+  {
+    key: 'lots-to-approve',
+    action: 'release.approve',
+    title: 'Lots to approve for release',
+    explanation: 'reviewed; a QA approver other than the reviewer signs the release',
+    link: '/release',
+    count: (data) => waitingWork.lotsToApprove(data.manager),
+  },
+  {
+    key: 'nonconformances-to-disposition',
+    action: 'nonconformances.disposition',
+    title: 'Nonconformances to disposition',
+    explanation: 'open; decide Use as is, Rework, Scrap or Return to supplier and sign it',
+    link: '/nonconformances',
+    count: (data) => waitingWork.nonconformancesToDisposition(data.manager),
+  },
+  {
+    key: 'nonconformances-to-close',
+    action: 'nonconformances.disposition',
+    title: 'Nonconformances to close',
+    explanation: 'disposition signed; close once it is carried out',
+    link: '/nonconformances',
+    count: (data) => waitingWork.nonconformancesToClose(data.manager),
+  },
+  {
+    key: 'holds-to-lift',
+    action: 'holds.lift',
+    title: 'Holds to lift',
+    explanation: 'lots held by a recall investigation; lift each after its disposition',
+    link: '/recalls',
+    count: (data) => waitingWork.holdsToLift(data.manager),
+  },
+  {
+    key: 'recalls-open',
+    action: 'recall.read',
+    title: 'Recall investigations open',
+    explanation: 'investigations that have not been closed',
+    link: '/recalls',
+    count: (data) => waitingWork.openRecalls(data.manager),
+  },
+  {
+    key: 'drills-open',
+    action: 'recall.read',
+    title: 'Drills open',
+    explanation: 'recall exercises that have not been closed',
+    link: '/recalls',
+    count: (data) => waitingWork.openDrills(data.manager),
+  },
+  {
+    key: 'role-changes',
+    action: 'people.manage',
+    title: 'Role changes to confirm',
+    explanation: 'signing roles asked for by another administrator; confirm or refuse with your signature',
+    link: '/administration',
+    count: (data, person) => waitingWork.roleChangesToConfirm(data.manager, person.id),
+  },
 ];
 
 const FIGURES_MONTHS = 12;

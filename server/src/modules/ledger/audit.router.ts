@@ -18,11 +18,16 @@ export function auditRouter(context: AppContext): Router {
   const router = Router();
   const dataSource = () => context.database.dataSource;
 
-  router.get('/audit/events', requireAction('audit.read'), validate({ query: ledgerQuerySchema }), async (_req, res) => {
-    const query = res.locals.valid.query as LedgerQuery;
-    const { items, total } = await findEvents(dataSource().manager, query);
-    res.json({ items, total, page: query.page, pageSize: query.pageSize });
-  });
+  router.get(
+    '/audit/events',
+    requireAction('audit.read'),
+    validate({ query: ledgerQuerySchema }),
+    async (_req, res) => {
+      const query = res.locals.valid.query as LedgerQuery;
+      const { items, total } = await findEvents(dataSource().manager, query);
+      res.json({ items, total, page: query.page, pageSize: query.pageSize });
+    },
+  );
 
   router.get('/audit/actions', requireAction('audit.read'), async (_req, res) => {
     res.json(await distinctActions(dataSource().manager));
@@ -35,51 +40,91 @@ export function auditRouter(context: AppContext): Router {
   });
 
   router.get('/audit/verification', requireAction('audit.read'), async (_req, res) => {
-    res.set('Cache-Control', 'no-store').json(await verifyLedger(dataSource().manager, { publicKeyPem: ledgerSigner(context.config).publicKeyPem, checkpoints: readWitnessFile(witnessFilePath(context.config)) }));
+    res.set('Cache-Control', 'no-store').json(
+      await verifyLedger(dataSource().manager, {
+        publicKeyPem: ledgerSigner(context.config).publicKeyPem,
+        checkpoints: readWitnessFile(witnessFilePath(context.config)),
+      }),
+    );
   });
 
-  router.get('/audit/events.csv', requireAction('audit.read'), validate({ query: ledgerQuerySchema }), async (req, res) => {
-    const query = res.locals.valid.query as LedgerQuery;
-    const rows: string[][] = [];
-    for await (const event of matchingEvents(dataSource().manager, query)) {
-      rows.push([
-        String(event.seq),
-        event.occurredAt,
-        event.actor.name ?? '',
-        event.actor.role ?? '',
-        event.action,
-        event.entity.type,
-        event.entity.id ?? '',
-        event.before === null ? '' : JSON.stringify(event.before),
-        event.after === null ? '' : JSON.stringify(event.after),
-        event.reason ?? '',
-        event.requestId ?? '',
-        event.clientAddress ?? '',
-        event.previousHash,
-        event.hash,
-      ]);
-      if (rows.length >= CSV_LIMIT) break;
-    }
-    await inTransaction(dataSource(), (manager) =>
-      appendLedgerEvent(manager, { actor: actorOf(req, 'audit.read'), action: 'audit.exported', entity: { type: 'audit-ledger', id: null }, after: { format: 'csv', filters: query, rows: rows.length }, origin: originOf(req) }),
-    );
-    const header = ['seq', 'occurred_at_utc', 'actor', 'role', 'action', 'entity_type', 'entity_id', 'before', 'after', 'reason', 'request_id', 'client_address', 'previous_hash', 'hash'];
-    res
-      .type('text/csv; charset=utf-8')
-      .attachment(`ingotrace-audit-ledger-${new Date().toISOString().slice(0, 10)}.csv`)
-      // A BOM so that spreadsheet programs read the accented names correctly.
-      .send(`\uFEFF${stringify([header, ...rows])}`);
-  });
+  router.get(
+    '/audit/events.csv',
+    requireAction('audit.read'),
+    validate({ query: ledgerQuerySchema }),
+    async (req, res) => {
+      const query = res.locals.valid.query as LedgerQuery;
+      const rows: string[][] = [];
+      for await (const event of matchingEvents(dataSource().manager, query)) {
+        rows.push([
+          String(event.seq),
+          event.occurredAt,
+          event.actor.name ?? '',
+          event.actor.role ?? '',
+          event.action,
+          event.entity.type,
+          event.entity.id ?? '',
+          event.before === null ? '' : JSON.stringify(event.before),
+          event.after === null ? '' : JSON.stringify(event.after),
+          event.reason ?? '',
+          event.requestId ?? '',
+          event.clientAddress ?? '',
+          event.previousHash,
+          event.hash,
+        ]);
+        if (rows.length >= CSV_LIMIT) break;
+      }
+      await inTransaction(dataSource(), (manager) =>
+        appendLedgerEvent(manager, {
+          actor: actorOf(req, 'audit.read'),
+          action: 'audit.exported',
+          entity: { type: 'audit-ledger', id: null },
+          after: { format: 'csv', filters: query, rows: rows.length },
+          origin: originOf(req),
+        }),
+      );
+      const header = [
+        'seq',
+        'occurred_at_utc',
+        'actor',
+        'role',
+        'action',
+        'entity_type',
+        'entity_id',
+        'before',
+        'after',
+        'reason',
+        'request_id',
+        'client_address',
+        'previous_hash',
+        'hash',
+      ];
+      res
+        .type('text/csv; charset=utf-8')
+        .attachment(`ingotrace-audit-ledger-${new Date().toISOString().slice(0, 10)}.csv`)
+        // A BOM so that spreadsheet programs read the accented names correctly.
+        .send(`\uFEFF${stringify([header, ...rows])}`);
+    },
+  );
 
   // A POST: the export is recorded in the audit trail, so it changes state and carries the CSRF token.
   router.post('/audit/export', requireAction('audit.read'), async (req, res) => {
     const bundle = await exportLedger(dataSource());
     await inTransaction(dataSource(), (manager) =>
-      appendLedgerEvent(manager, { actor: actorOf(req, 'audit.read'), action: 'audit.exported', entity: { type: 'audit-ledger', id: null }, after: { format: 'bundle', chainHead: bundle.chainHead }, origin: originOf(req) }),
+      appendLedgerEvent(manager, {
+        actor: actorOf(req, 'audit.read'),
+        action: 'audit.exported',
+        entity: { type: 'audit-ledger', id: null },
+        after: { format: 'bundle', chainHead: bundle.chainHead },
+        origin: originOf(req),
+      }),
     );
     // Every export is witnessed outside the database (mail to the quality mailbox and the checkpoints file).
     await checkpointLedger(dataSource(), context.config, 'export');
-    res.type('application/json').attachment(`ingotrace-ledger-export-${bundle.chainHead.seq}.json`).send(JSON.stringify(bundle));
+    res
+      .type('application/json')
+      .attachment(`ingotrace-ledger-export-${bundle.chainHead.seq}.json`)
+      .send(JSON.stringify(bundle));
   });
 
   return router;

@@ -30,7 +30,8 @@ export const checkpointStatement = (checkpoint: Omit<Checkpoint, 'signature'>) =
 export const checkpointTriggers = { onRelease: true };
 
 /** One witness file per ledger (database): a rebuilt database starts a new ledger and a new file. */
-export const witnessFilePath = (config: Pick<AppConfig, 'DATA_DIR' | 'DB_NAME'>) => join(config.DATA_DIR, 'ledger-witness', `${config.DB_NAME}.checkpoints.jsonl`);
+export const witnessFilePath = (config: Pick<AppConfig, 'DATA_DIR' | 'DB_NAME'>) =>
+  join(config.DATA_DIR, 'ledger-witness', `${config.DB_NAME}.checkpoints.jsonl`);
 
 export function readWitnessFile(path: string): Checkpoint[] {
   if (!existsSync(path)) return [];
@@ -41,11 +42,24 @@ export function readWitnessFile(path: string): Checkpoint[] {
 }
 
 /** Checkpoints the chain head now; the mail is queued with the checkpoint's own ledger event, the file line written after it commits. */
-export async function checkpointLedger(dataSource: DataSource, config: Pick<AppConfig, 'DATA_DIR' | 'DB_NAME' | 'LEDGER_KEY_FILE' | 'QUALITY_MAILBOX'>, reason: 'daily' | 'release' | 'export' | 'seed'): Promise<Checkpoint> {
+export async function checkpointLedger(
+  dataSource: DataSource,
+  config: Pick<AppConfig, 'DATA_DIR' | 'DB_NAME' | 'LEDGER_KEY_FILE' | 'QUALITY_MAILBOX'>,
+  reason: 'daily' | 'release' | 'export' | 'seed',
+): Promise<Checkpoint> {
   const signer = ledgerSigner(config);
   const checkpoint = await inTransaction(dataSource, async (manager) => {
-    const [head] = (await manager.query('SELECT seq, hash FROM audit_chain_head WHERE id = 1 FOR UPDATE')) as Array<{ seq: string; hash: string }>;
-    const unsigned = { seq: Number(head!.seq), hash: head!.hash, at: new Date().toISOString(), keyId: signer.keyId, reason };
+    const [head] = (await manager.query('SELECT seq, hash FROM audit_chain_head WHERE id = 1 FOR UPDATE')) as Array<{
+      seq: string;
+      hash: string;
+    }>;
+    const unsigned = {
+      seq: Number(head!.seq),
+      hash: head!.hash,
+      at: new Date().toISOString(),
+      keyId: signer.keyId,
+      reason,
+    };
     const signed: Checkpoint = { ...unsigned, signature: signer.signStatement(checkpointStatement(unsigned)) };
     await queueMail(manager, {
       to: [config.QUALITY_MAILBOX],
@@ -60,7 +74,12 @@ export async function checkpointLedger(dataSource: DataSource, config: Pick<AppC
       event: 'ledger.checkpointed',
       entity: { type: 'audit-ledger', id: signed.seq },
     });
-    await appendLedgerEvent(manager, { actor: { id: null, name: 'Ingotrace', role: null }, action: 'ledger.checkpointed', entity: { type: 'audit-ledger', id: signed.seq }, after: signed });
+    await appendLedgerEvent(manager, {
+      actor: { id: null, name: 'Ingotrace', role: null },
+      action: 'ledger.checkpointed',
+      entity: { type: 'audit-ledger', id: signed.seq },
+      after: signed,
+    });
     return signed;
   });
   const file = witnessFilePath(config);
@@ -70,22 +89,41 @@ export async function checkpointLedger(dataSource: DataSource, config: Pick<AppC
 }
 
 /** The first checkpoint the ledger contradicts, or null. `hashAt` gives the ledger's hash of an event (null when it has none). */
-export function checkpointProblem(checkpoints: readonly Checkpoint[], hashAt: (seq: number) => string | null, publicKeyPem: string): { seq: number; why: string } | null {
+export function checkpointProblem(
+  checkpoints: readonly Checkpoint[],
+  hashAt: (seq: number) => string | null,
+  publicKeyPem: string,
+): { seq: number; why: string } | null {
   const keyId = keyIdOf(publicKeyPem);
   for (const checkpoint of checkpoints) {
     const { signature, ...statement } = checkpoint;
     if (checkpoint.keyId !== keyId || !verifyWithPublicKey(publicKeyPem, checkpointStatement(statement), signature)) {
-      return { seq: checkpoint.seq, why: `the checkpoint of ${checkpoint.at} is not signed with the audit trail's key` };
+      return {
+        seq: checkpoint.seq,
+        why: `the checkpoint of ${checkpoint.at} is not signed with the audit trail's key`,
+      };
     }
     const hash = hashAt(checkpoint.seq);
-    if (hash === null) return { seq: checkpoint.seq, why: `the checkpoint of ${checkpoint.at} names this event, which the audit trail no longer holds: it was cut off after the checkpoint` };
-    if (hash !== checkpoint.hash) return { seq: checkpoint.seq, why: `the checkpoint of ${checkpoint.at} gives this event another hash: the audit trail was rewritten after the checkpoint` };
+    if (hash === null)
+      return {
+        seq: checkpoint.seq,
+        why: `the checkpoint of ${checkpoint.at} names this event, which the audit trail no longer holds: it was cut off after the checkpoint`,
+      };
+    if (hash !== checkpoint.hash)
+      return {
+        seq: checkpoint.seq,
+        why: `the checkpoint of ${checkpoint.at} gives this event another hash: the audit trail was rewritten after the checkpoint`,
+      };
   }
   return null;
 }
 
 /** Starts the daily checkpoint: one at start when the last is older than a day, then every day. */
-export function startDailyCheckpoints(config: AppConfig, dataSourceOf: () => DataSource | null, onError: (error: unknown) => void): () => void {
+export function startDailyCheckpoints(
+  config: AppConfig,
+  dataSourceOf: () => DataSource | null,
+  onError: (error: unknown) => void,
+): () => void {
   const day = 24 * 3600_000;
   const run = () => {
     const dataSource = dataSourceOf();

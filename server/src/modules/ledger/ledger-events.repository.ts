@@ -43,10 +43,17 @@ export function toLedgerEvent(row: EventRow): LedgerEvent {
 }
 
 /** Streams events in sequence order, a batch at a time. */
-export async function* eventsInOrder(manager: EntityManager, batchSize = 5000, afterSeq = 0): AsyncGenerator<EventRow[]> {
+export async function* eventsInOrder(
+  manager: EntityManager,
+  batchSize = 5000,
+  afterSeq = 0,
+): AsyncGenerator<EventRow[]> {
   let after = afterSeq;
   for (;;) {
-    const rows: EventRow[] = await manager.query('SELECT * FROM audit_event WHERE seq > ? ORDER BY seq LIMIT ?', [after, batchSize]);
+    const rows: EventRow[] = await manager.query('SELECT * FROM audit_event WHERE seq > ? ORDER BY seq LIMIT ?', [
+      after,
+      batchSize,
+    ]);
     if (rows.length === 0) return;
     yield rows;
     after = Number(rows[rows.length - 1]!.seq);
@@ -54,7 +61,9 @@ export async function* eventsInOrder(manager: EntityManager, batchSize = 5000, a
 }
 
 export async function chainHead(manager: EntityManager): Promise<{ seq: number; hash: string }> {
-  const [head]: Array<{ seq: string; hash: string }> = await manager.query('SELECT seq, hash FROM audit_chain_head WHERE id = 1');
+  const [head]: Array<{ seq: string; hash: string }> = await manager.query(
+    'SELECT seq, hash FROM audit_chain_head WHERE id = 1',
+  );
   return { seq: Number(head?.seq ?? 0), hash: head?.hash ?? '' };
 }
 
@@ -93,24 +102,36 @@ function filters(query: Omit<LedgerQuery, 'page' | 'pageSize' | 'order'>): { cla
   return { clause: where.length ? `WHERE ${where.join(' AND ')}` : '', parameters };
 }
 
-export async function findEvents(manager: EntityManager, query: LedgerQuery): Promise<{ items: LedgerEvent[]; total: number }> {
+export async function findEvents(
+  manager: EntityManager,
+  query: LedgerQuery,
+): Promise<{ items: LedgerEvent[]; total: number }> {
   const { clause, parameters } = filters(query);
-  const [count]: Array<{ total: string }> = await manager.query(`SELECT COUNT(*) AS total FROM audit_event ${clause}`, parameters);
+  const [count]: Array<{ total: string }> = await manager.query(
+    `SELECT COUNT(*) AS total FROM audit_event ${clause}`,
+    parameters,
+  );
   const direction = query.order === 'oldest-first' ? 'ASC' : 'DESC';
-  const rows: EventRow[] = await manager.query(`SELECT * FROM audit_event ${clause} ORDER BY seq ${direction} LIMIT ? OFFSET ?`, [
-    ...parameters,
-    query.pageSize,
-    (query.page - 1) * query.pageSize,
-  ]);
+  const rows: EventRow[] = await manager.query(
+    `SELECT * FROM audit_event ${clause} ORDER BY seq ${direction} LIMIT ? OFFSET ?`,
+    [...parameters, query.pageSize, (query.page - 1) * query.pageSize],
+  );
   return { items: rows.map(toLedgerEvent), total: Number(count?.total ?? 0) };
 }
 
 /** Every matching event, oldest first, for exports (bounded). */
-export async function* matchingEvents(manager: EntityManager, query: Omit<LedgerQuery, 'page' | 'pageSize' | 'order'>, batchSize = 5000): AsyncGenerator<LedgerEvent> {
+export async function* matchingEvents(
+  manager: EntityManager,
+  query: Omit<LedgerQuery, 'page' | 'pageSize' | 'order'>,
+  batchSize = 5000,
+): AsyncGenerator<LedgerEvent> {
   const { clause, parameters } = filters(query);
   let after = 0;
   for (;;) {
-    const rows: EventRow[] = await manager.query(`SELECT * FROM audit_event ${clause ? `${clause} AND` : 'WHERE'} seq > ? ORDER BY seq LIMIT ?`, [...parameters, after, batchSize]);
+    const rows: EventRow[] = await manager.query(
+      `SELECT * FROM audit_event ${clause ? `${clause} AND` : 'WHERE'} seq > ? ORDER BY seq LIMIT ?`,
+      [...parameters, after, batchSize],
+    );
     if (rows.length === 0) return;
     for (const row of rows) yield toLedgerEvent(row);
     after = Number(rows[rows.length - 1]!.seq);
@@ -118,6 +139,8 @@ export async function* matchingEvents(manager: EntityManager, query: Omit<Ledger
 }
 
 export async function distinctActions(manager: EntityManager): Promise<string[]> {
-  const rows: Array<{ action: string }> = await manager.query('SELECT DISTINCT action FROM audit_event ORDER BY action');
+  const rows: Array<{ action: string }> = await manager.query(
+    'SELECT DISTINCT action FROM audit_event ORDER BY action',
+  );
   return rows.map((row) => row.action);
 }

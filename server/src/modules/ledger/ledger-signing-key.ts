@@ -1,4 +1,12 @@
-import { createHash, createPrivateKey, createPublicKey, generateKeyPairSync, sign, verify, type KeyObject } from 'node:crypto';
+import {
+  createHash,
+  createPrivateKey,
+  createPublicKey,
+  generateKeyPairSync,
+  sign,
+  verify,
+  type KeyObject,
+} from 'node:crypto';
 import { chmodSync, existsSync, linkSync, mkdirSync, readFileSync, statSync, unlinkSync, writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { loadConfig, type AppConfig } from '../../config/env';
@@ -22,18 +30,27 @@ export const eventStatement = (hash: string) => `ingotrace-ledger-event:${hash}`
 
 /** The first 16 hex digits of the SHA-256 of the public key (DER, SPKI): short enough to read aloud, long enough to compare. */
 export function keyIdOf(publicKeyPem: string): string {
-  return createHash('sha256').update(createPublicKey(publicKeyPem).export({ type: 'spki', format: 'der' })).digest('hex').slice(0, 16);
+  return createHash('sha256')
+    .update(createPublicKey(publicKeyPem).export({ type: 'spki', format: 'der' }))
+    .digest('hex')
+    .slice(0, 16);
 }
 
 export function verifyWithPublicKey(publicKeyPem: string, statement: string, signatureBase64: string): boolean {
   try {
-    return verify(null, Buffer.from(statement, 'utf8'), createPublicKey(publicKeyPem), Buffer.from(signatureBase64, 'base64'));
+    return verify(
+      null,
+      Buffer.from(statement, 'utf8'),
+      createPublicKey(publicKeyPem),
+      Buffer.from(signatureBase64, 'base64'),
+    );
   } catch {
     return false;
   }
 }
 
-export const ledgerKeyPath = (config: Pick<AppConfig, 'LEDGER_KEY_FILE' | 'DATA_DIR'>) => config.LEDGER_KEY_FILE ?? join(config.DATA_DIR, 'keys', 'ledger-signing-key.pem');
+export const ledgerKeyPath = (config: Pick<AppConfig, 'LEDGER_KEY_FILE' | 'DATA_DIR'>) =>
+  config.LEDGER_KEY_FILE ?? join(config.DATA_DIR, 'keys', 'ledger-signing-key.pem');
 export const publicKeyPathOf = (keyPath: string) => keyPath.replace(/(\.pem)?$/, '.pub.pem');
 
 /** Creates the key file once, atomically (several app processes may start together), mode 600 in a folder of mode 700. */
@@ -54,9 +71,13 @@ function createKeyFile(path: string): void {
 export function loadLedgerSigner(path: string): LedgerSigner {
   if (!existsSync(path)) createKeyFile(path);
   const mode = statSync(path).mode & 0o777;
-  if (mode & 0o077) throw new Error(`The audit trail signing key ${path} can be read by other users (mode ${mode.toString(8)}); make it readable by the app's user only (chmod 600)`);
+  if (mode & 0o077)
+    throw new Error(
+      `The audit trail signing key ${path} can be read by other users (mode ${mode.toString(8)}); make it readable by the app's user only (chmod 600)`,
+    );
   const privateKey: KeyObject = createPrivateKey(readFileSync(path, 'utf8'));
-  if (privateKey.asymmetricKeyType !== 'ed25519') throw new Error(`The audit trail signing key ${path} is not an Ed25519 key`);
+  if (privateKey.asymmetricKeyType !== 'ed25519')
+    throw new Error(`The audit trail signing key ${path} is not an Ed25519 key`);
   const publicKeyPem = createPublicKey(privateKey).export({ type: 'spki', format: 'pem' }).toString();
   const publicPath = publicKeyPathOf(path);
   if (!existsSync(publicPath) || readFileSync(publicPath, 'utf8') !== publicKeyPem) {

@@ -1,5 +1,11 @@
 import type { DataSource, EntityManager } from 'typeorm';
-import { canonicalJson, firstBrokenEvent, GENESIS_HASH, type ChainedEvent, type LedgerEventContent } from '@shared/domain/ledger-hash';
+import {
+  canonicalJson,
+  firstBrokenEvent,
+  GENESIS_HASH,
+  type ChainedEvent,
+  type LedgerEventContent,
+} from '@shared/domain/ledger-hash';
 import type { Verification } from '@shared/schemas/audit';
 import { allSignatures } from '../signatures/signatures.repository';
 import { chainHead, contentOf, eventAt, eventsInOrder } from './ledger-events.repository';
@@ -44,11 +50,21 @@ export async function verifyLedger(manager: EntityManager, keys: VerificationKey
   let events = 0;
   let firstBroken: Verification['firstBroken'] = null;
   for await (const batch of eventsInOrder(manager)) {
-    const chained: ChainedEvent[] = batch.map((row) => ({ content: contentOf(row), previousHash: row.previous_hash, hash: row.hash }));
+    const chained: ChainedEvent[] = batch.map((row) => ({
+      content: contentOf(row),
+      previousHash: row.previous_hash,
+      hash: row.hash,
+    }));
     firstBroken = firstBrokenEvent(chained, sha256Hex, previousHash, lastSeq);
     for (const row of batch) {
       if (firstBroken && Number(row.seq) >= firstBroken.seq) break;
-      const signatureBroken = walk.step({ content: contentOf(row), previousHash: row.previous_hash, hash: row.hash, signature: row.signature, keyId: row.key_id });
+      const signatureBroken = walk.step({
+        content: contentOf(row),
+        previousHash: row.previous_hash,
+        hash: row.hash,
+        signature: row.signature,
+        keyId: row.key_id,
+      });
       if (signatureBroken) {
         firstBroken = signatureBroken;
         break;
@@ -64,7 +80,10 @@ export async function verifyLedger(manager: EntityManager, keys: VerificationKey
   firstBroken ??= walk.finish();
   const head = await chainHead(manager);
   if (!firstBroken && (head.seq !== lastSeq || head.hash !== previousHash)) {
-    firstBroken = { seq: head.seq, why: `the chain head names event ${head.seq} but the last intact event is ${lastSeq}` };
+    firstBroken = {
+      seq: head.seq,
+      why: `the chain head names event ${head.seq} but the last intact event is ${lastSeq}`,
+    };
   }
   firstBroken ??= checkpointProblem(checkpoints, (seq) => wanted.get(seq) ?? null, publicKeyPem);
 
@@ -87,7 +106,10 @@ export async function verifyLedger(manager: EntityManager, keys: VerificationKey
     const event = await eventAt(manager, Number(signature.ledger_seq));
     const after = event?.after as { contentHash?: string } | null;
     if (!event || event.action !== 'signature.signed' || after?.contentHash !== signature.content_hash) {
-      signatureProblems.push({ id, why: `the ledger event ${signature.ledger_seq} does not record this signature's hash` });
+      signatureProblems.push({
+        id,
+        why: `the ledger event ${signature.ledger_seq} does not record this signature's hash`,
+      });
     }
   }
   const result = {
@@ -113,7 +135,14 @@ export interface LedgerExport {
   /** The public key the events are signed with, and its id; a verifier compares it with the one the firm published. */
   publicKey: string;
   keyId: string;
-  events: Array<{ seq: number; content: LedgerEventContent; previousHash: string; hash: string; signature: string | null; keyId: string | null }>;
+  events: Array<{
+    seq: number;
+    content: LedgerEventContent;
+    previousHash: string;
+    hash: string;
+    signature: string | null;
+    keyId: string | null;
+  }>;
 }
 
 /** Reads every event in one consistent snapshot (a repeatable-read transaction on one connection). */
@@ -124,7 +153,15 @@ export async function exportLedger(dataSource: DataSource): Promise<LedgerExport
     await runner.startTransaction('REPEATABLE READ');
     const events: LedgerExport['events'] = [];
     for await (const batch of eventsInOrder(runner.manager)) {
-      for (const row of batch) events.push({ seq: Number(row.seq), content: contentOf(row), previousHash: row.previous_hash, hash: row.hash, signature: row.signature, keyId: row.key_id });
+      for (const row of batch)
+        events.push({
+          seq: Number(row.seq),
+          content: contentOf(row),
+          previousHash: row.previous_hash,
+          hash: row.hash,
+          signature: row.signature,
+          keyId: row.key_id,
+        });
     }
     await runner.commitTransaction();
     const last = events[events.length - 1];
@@ -148,14 +185,37 @@ export async function exportLedger(dataSource: DataSource): Promise<LedgerExport
  * summary says so, with its id to compare: a file recomputed with another key is only caught
  * against the trusted key.
  */
-export function verifyLedgerExport(bundle: unknown, keys: { publicKeyPem?: string | null; checkpoints?: Checkpoint[] } = {}): { ok: boolean; summary: string; events: number } {
+export function verifyLedgerExport(
+  bundle: unknown,
+  keys: { publicKeyPem?: string | null; checkpoints?: Checkpoint[] } = {},
+): { ok: boolean; summary: string; events: number } {
   const candidate = bundle as Partial<LedgerExport>;
-  if (!candidate || candidate.format !== 'ingotrace-ledger-export/2' || !Array.isArray(candidate.events) || !candidate.chainHead || typeof candidate.publicKey !== 'string') {
-    return { ok: false, events: 0, summary: 'not an Ingotrace audit trail export (format ingotrace-ledger-export/2 expected)' };
+  if (
+    !candidate ||
+    candidate.format !== 'ingotrace-ledger-export/2' ||
+    !Array.isArray(candidate.events) ||
+    !candidate.chainHead ||
+    typeof candidate.publicKey !== 'string'
+  ) {
+    return {
+      ok: false,
+      events: 0,
+      summary: 'not an Ingotrace audit trail export (format ingotrace-ledger-export/2 expected)',
+    };
   }
   for (const event of candidate.events) {
-    if (!event || typeof event.seq !== 'number' || !event.content || typeof event.content.seq !== 'number' || event.content.seq !== event.seq) {
-      return { ok: false, events: 0, summary: `export BROKEN at event ${event?.seq ?? '?'}: its sequence number does not match its content` };
+    if (
+      !event ||
+      typeof event.seq !== 'number' ||
+      !event.content ||
+      typeof event.content.seq !== 'number' ||
+      event.content.seq !== event.seq
+    ) {
+      return {
+        ok: false,
+        events: 0,
+        summary: `export BROKEN at event ${event?.seq ?? '?'}: its sequence number does not match its content`,
+      };
     }
   }
   let publicKeyPem: string;
@@ -170,17 +230,29 @@ export function verifyLedgerExport(bundle: unknown, keys: { publicKeyPem?: strin
       candidate.events.map((event) => ({ content: event.content, previousHash: event.previousHash, hash: event.hash })),
       sha256Hex,
     ) ?? signatureProblemIn(candidate.events, publicKeyPem);
-  if (broken) return { ok: false, events: candidate.events.length, summary: `export BROKEN at event ${broken.seq}: ${broken.why}` };
+  if (broken)
+    return {
+      ok: false,
+      events: candidate.events.length,
+      summary: `export BROKEN at event ${broken.seq}: ${broken.why}`,
+    };
   const last = candidate.events[candidate.events.length - 1];
   if ((last?.seq ?? 0) !== candidate.chainHead.seq || (last?.hash ?? GENESIS_HASH) !== candidate.chainHead.hash) {
-    return { ok: false, events: candidate.events.length, summary: `export BROKEN: its chain head does not match its last event` };
+    return {
+      ok: false,
+      events: candidate.events.length,
+      summary: `export BROKEN: its chain head does not match its last event`,
+    };
   }
   const bySeq = new Map(candidate.events.map((event) => [event.seq, event.hash]));
   // A file holds the ledger as it was when exported: the checkpoints made up to then must hold in it.
   const checkpoints = (keys.checkpoints ?? []).filter((checkpoint) => checkpoint.seq <= candidate.chainHead!.seq);
   const cut = checkpointProblem(checkpoints, (seq) => bySeq.get(seq) ?? null, publicKeyPem);
-  if (cut) return { ok: false, events: candidate.events.length, summary: `export BROKEN at event ${cut.seq}: ${cut.why}` };
-  const keyNote = keys.publicKeyPem ? `signed with key ${keyIdOf(publicKeyPem)}` : `signed with the key inside the file, ${keyIdOf(publicKeyPem)} (compare it with the key your firm published)`;
+  if (cut)
+    return { ok: false, events: candidate.events.length, summary: `export BROKEN at event ${cut.seq}: ${cut.why}` };
+  const keyNote = keys.publicKeyPem
+    ? `signed with key ${keyIdOf(publicKeyPem)}`
+    : `signed with the key inside the file, ${keyIdOf(publicKeyPem)} (compare it with the key your firm published)`;
   return {
     ok: true,
     events: candidate.events.length,
@@ -191,7 +263,13 @@ export function verifyLedgerExport(bundle: unknown, keys: { publicKeyPem?: strin
 function signatureProblemIn(events: LedgerExport['events'], publicKeyPem: string): { seq: number; why: string } | null {
   const walk = new SignatureWalk(publicKeyPem);
   for (const event of events) {
-    const broken = walk.step({ content: event.content, previousHash: event.previousHash, hash: event.hash, signature: event.signature ?? null, keyId: event.keyId ?? null });
+    const broken = walk.step({
+      content: event.content,
+      previousHash: event.previousHash,
+      hash: event.hash,
+      signature: event.signature ?? null,
+      keyId: event.keyId ?? null,
+    });
     if (broken) return broken;
   }
   return walk.finish();

@@ -32,26 +32,48 @@ export const sha256Hex = (text: string): string => createHash('sha256').update(t
  * Each event is signed (Ed25519) with the installation's ledger key; when the event before it is
  * unsigned (written before signing began), a signed ledger.signing-started event comes first.
  */
-export async function appendLedgerEvent(manager: EntityManager, input: LedgerEventInput, now = new Date()): Promise<{ seq: number; hash: string }> {
-  if (!manager.queryRunner?.isTransactionActive) throw new Error('ledger events are written inside the transaction of the change they record');
-  const [head] = (await manager.query('SELECT seq, hash, signed FROM audit_chain_head WHERE id = 1 FOR UPDATE')) as Array<{ seq: string; hash: string; signed: number }>;
+export async function appendLedgerEvent(
+  manager: EntityManager,
+  input: LedgerEventInput,
+  now = new Date(),
+): Promise<{ seq: number; hash: string }> {
+  if (!manager.queryRunner?.isTransactionActive)
+    throw new Error('ledger events are written inside the transaction of the change they record');
+  const [head] = (await manager.query(
+    'SELECT seq, hash, signed FROM audit_chain_head WHERE id = 1 FOR UPDATE',
+  )) as Array<{ seq: string; hash: string; signed: number }>;
   if (!head) throw new Error('the audit chain head is missing; run the migrations');
   const signer = ledgerSigner();
   let previous = { seq: Number(head.seq), hash: head.hash };
   if (previous.seq > 0 && !Number(head.signed)) {
-    previous = await insertSigned(manager, signer, previous, {
-      actor: { id: null, name: 'Ingotrace', role: null },
-      action: 'ledger.signing-started',
-      entity: { type: 'audit-ledger', id: null },
-      after: { unsignedThrough: previous.seq, keyId: signer.keyId, publicKey: signer.publicKeyPem },
-    }, now);
+    previous = await insertSigned(
+      manager,
+      signer,
+      previous,
+      {
+        actor: { id: null, name: 'Ingotrace', role: null },
+        action: 'ledger.signing-started',
+        entity: { type: 'audit-ledger', id: null },
+        after: { unsignedThrough: previous.seq, keyId: signer.keyId, publicKey: signer.publicKeyPem },
+      },
+      now,
+    );
   }
   const written = await insertSigned(manager, signer, previous, input, now);
-  await manager.query('UPDATE audit_chain_head SET seq = ?, hash = ?, signed = 1 WHERE id = 1', [written.seq, written.hash]);
+  await manager.query('UPDATE audit_chain_head SET seq = ?, hash = ?, signed = 1 WHERE id = 1', [
+    written.seq,
+    written.hash,
+  ]);
   return written;
 }
 
-async function insertSigned(manager: EntityManager, signer: LedgerSigner, previous: { seq: number; hash: string }, input: LedgerEventInput, now: Date): Promise<{ seq: number; hash: string }> {
+async function insertSigned(
+  manager: EntityManager,
+  signer: LedgerSigner,
+  previous: { seq: number; hash: string },
+  input: LedgerEventInput,
+  now: Date,
+): Promise<{ seq: number; hash: string }> {
   const content: LedgerEventContent = {
     seq: previous.seq + 1,
     occurredAt: now.toISOString(),

@@ -15,14 +15,17 @@ export interface OutgoingMail {
 export async function queueMail(manager: EntityManager, mail: OutgoingMail): Promise<void> {
   const recipients = [...new Set(mail.to.filter(Boolean))];
   if (!recipients.length) return;
-  await manager.query('INSERT INTO mail_outbox (recipients, subject, body_text, event, entity_type, entity_id) VALUES (?, ?, ?, ?, ?, ?)', [
-    recipients.join(', '),
-    mail.subject.slice(0, 300),
-    mail.text,
-    mail.event,
-    mail.entity.type,
-    String(mail.entity.id),
-  ]);
+  await manager.query(
+    'INSERT INTO mail_outbox (recipients, subject, body_text, event, entity_type, entity_id) VALUES (?, ?, ?, ?, ?, ?)',
+    [
+      recipients.join(', '),
+      mail.subject.slice(0, 300),
+      mail.text,
+      mail.event,
+      mail.entity.type,
+      String(mail.entity.id),
+    ],
+  );
 }
 
 /** Active people who currently hold a role (identity-provider or administrator grant, not withdrawn). */
@@ -40,33 +43,44 @@ export async function addressesOfRole(manager: EntityManager, role: string): Pro
 export const retryDelayMs = (attempts: number) => Math.min(60 * 60_000, 30_000 * 2 ** Math.max(0, attempts - 1));
 
 /** Sends the mails that are due; a failure is logged and retried later, never dropped. */
-export async function deliverDueMail(dataSource: DataSource, transport: Transporter, from: string, logger: Logger, batch = 20): Promise<{ sent: number; failed: number }> {
-  const due: Array<{ id: number; recipients: string; subject: string; body_text: string; attempts: number }> = await dataSource.query(
-    'SELECT id, recipients, subject, body_text, attempts FROM mail_outbox WHERE sent_at IS NULL AND next_attempt_at <= ? ORDER BY id LIMIT ?',
-    [new Date(), batch],
-  );
+export async function deliverDueMail(
+  dataSource: DataSource,
+  transport: Transporter,
+  from: string,
+  logger: Logger,
+  batch = 20,
+): Promise<{ sent: number; failed: number }> {
+  const due: Array<{ id: number; recipients: string; subject: string; body_text: string; attempts: number }> =
+    await dataSource.query(
+      'SELECT id, recipients, subject, body_text, attempts FROM mail_outbox WHERE sent_at IS NULL AND next_attempt_at <= ? ORDER BY id LIMIT ?',
+      [new Date(), batch],
+    );
   let sent = 0;
   let failed = 0;
   for (const mail of due) {
     // Claim the mail so that two workers never send it twice.
-    const claim: { affectedRows: number } = await dataSource.query('UPDATE mail_outbox SET next_attempt_at = ? WHERE id = ? AND sent_at IS NULL AND next_attempt_at <= ?', [
-      new Date(Date.now() + 5 * 60_000),
-      mail.id,
-      new Date(),
-    ]);
+    const claim: { affectedRows: number } = await dataSource.query(
+      'UPDATE mail_outbox SET next_attempt_at = ? WHERE id = ? AND sent_at IS NULL AND next_attempt_at <= ?',
+      [new Date(Date.now() + 5 * 60_000), mail.id, new Date()],
+    );
     if (claim.affectedRows !== 1) continue;
     try {
       await transport.sendMail({ from, to: mail.recipients, subject: mail.subject, text: mail.body_text });
-      await dataSource.query('UPDATE mail_outbox SET sent_at = ?, attempts = attempts + 1, last_error = NULL WHERE id = ?', [new Date(), mail.id]);
+      await dataSource.query(
+        'UPDATE mail_outbox SET sent_at = ?, attempts = attempts + 1, last_error = NULL WHERE id = ?',
+        [new Date(), mail.id],
+      );
       sent++;
     } catch (error) {
       const message = error instanceof Error ? error.message : String(error);
-      await dataSource.query('UPDATE mail_outbox SET attempts = attempts + 1, next_attempt_at = ?, last_error = ? WHERE id = ?', [
-        new Date(Date.now() + retryDelayMs(mail.attempts + 1)),
-        message.slice(0, 1000),
-        mail.id,
-      ]);
-      logger.warn({ mailId: mail.id, attempts: mail.attempts + 1, err: message }, 'mail delivery failed; it will be retried');
+      await dataSource.query(
+        'UPDATE mail_outbox SET attempts = attempts + 1, next_attempt_at = ?, last_error = ? WHERE id = ?',
+        [new Date(Date.now() + retryDelayMs(mail.attempts + 1)), message.slice(0, 1000), mail.id],
+      );
+      logger.warn(
+        { mailId: mail.id, attempts: mail.attempts + 1, err: message },
+        'mail delivery failed; it will be retried',
+      );
       failed++;
     }
   }
@@ -74,8 +88,18 @@ export async function deliverDueMail(dataSource: DataSource, transport: Transpor
 }
 
 /** Delivers queued mail every few seconds while the app runs. */
-export function startMailWorker(config: AppConfig, dataSourceOf: () => DataSource | null, logger: Logger, intervalMs = 2_000): () => void {
-  const transport = nodemailer.createTransport({ host: config.SMTP_HOST, port: config.SMTP_PORT, secure: false, ignoreTLS: true });
+export function startMailWorker(
+  config: AppConfig,
+  dataSourceOf: () => DataSource | null,
+  logger: Logger,
+  intervalMs = 2_000,
+): () => void {
+  const transport = nodemailer.createTransport({
+    host: config.SMTP_HOST,
+    port: config.SMTP_PORT,
+    secure: false,
+    ignoreTLS: true,
+  });
   let running = false;
   const timer = setInterval(() => {
     const dataSource = dataSourceOf();

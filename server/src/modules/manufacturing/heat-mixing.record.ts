@@ -8,7 +8,9 @@ export const heatMixingRecordId = (lotId: number, heatId: number) => `${lotId}-$
 /** Whether a QA approver's signature (not withdrawn) allows this heat into this lot. */
 export async function heatMixingApproved(manager: EntityManager, lotId: number, heatId: number): Promise<boolean> {
   const signatures = await signaturesFor(manager, 'heat-mixing', heatMixingRecordId(lotId, heatId));
-  const withdrawn = new Set(signatures.filter((row) => row.withdraws_signature_id !== null).map((row) => String(row.withdraws_signature_id)));
+  const withdrawn = new Set(
+    signatures.filter((row) => row.withdraws_signature_id !== null).map((row) => String(row.withdraws_signature_id)),
+  );
   return signatures.some((row) => row.meaning === 'approved' && !withdrawn.has(String(row.id)));
 }
 
@@ -26,7 +28,13 @@ export const heatMixingRecordType: SignableRecordType = {
     const match = /^(\d{1,10})-(\d{1,10})$/.exec(recordId);
     if (!match) return null;
     const [lotId, heatId] = [Number(match[1]), Number(match[2])];
-    const [lot]: Array<{ lot_number: string; part_number: string; revision: string; opened_by: number; status: string }> = await manager.query(
+    const [lot]: Array<{
+      lot_number: string;
+      part_number: string;
+      revision: string;
+      opened_by: number;
+      status: string;
+    }> = await manager.query(
       'SELECT l.lot_number, p.part_number, p.revision, l.opened_by, l.status FROM production_lot l JOIN part p ON p.id = l.part_id WHERE l.id = ?',
       [lotId],
     );
@@ -54,7 +62,8 @@ export const heatMixingRecordType: SignableRecordType = {
     if (meaning !== 'approved') return null;
     const facts = record as unknown as { lotStatus: string; heatStatus: string; heatsInLot: number };
     if (facts.lotStatus !== 'open') return `The lot is ${facts.lotStatus}; no more bar can be issued to it`;
-    if (facts.heatStatus !== 'accepted') return `The heat is ${facts.heatStatus}; only an accepted heat can be mixed in`;
+    if (facts.heatStatus !== 'accepted')
+      return `The heat is ${facts.heatStatus}; only an accepted heat can be mixed in`;
     if (facts.heatsInLot === 0) return 'The lot has no heat yet; the first heat needs no approval';
     return null;
   },

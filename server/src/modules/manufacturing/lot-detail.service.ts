@@ -2,7 +2,13 @@ import type { DataSource, EntityManager } from 'typeorm';
 import { activeHolds } from '../recall/lot-holds';
 import { DecimalE29 } from '@shared/domain/materials/e29-rounding';
 import { reconcileMaterial } from '@shared/domain/manufacturing/material-reconciliation';
-import type { LotDetail, MaterialMovement, OperationRecord, ShipmentRecord, TimelineEntry } from '@shared/schemas/lot-detail';
+import type {
+  LotDetail,
+  MaterialMovement,
+  OperationRecord,
+  ShipmentRecord,
+  TimelineEntry,
+} from '@shared/schemas/lot-detail';
 import { AppError } from '../../errors';
 import { findPart } from './parts.service';
 import { findLotRow, heatsByLot, linkRows, operationRows, toLotSummary } from './lots.repository';
@@ -20,19 +26,37 @@ export async function lotDetailIn(manager: EntityManager, lotId: number): Promis
   if (!row) throw AppError.notFound('Lot');
   const part = (await findPart(manager, row.part_id))!;
   const chain = (await unitChains(manager, [lotId])).get(lotId)!;
-  const movements: Array<{ id: number; kind: 'issue' | 'return'; tag: string; bar_piece_id: number; heat_id: number; heat_number: string; heat_status: string; supplier: string; spec_id: string; length_mm: string; recorded_at: Date; by: string }> =
-    await manager.query(
-      `SELECT m.id, m.kind, b.tag, m.bar_piece_id, h.id AS heat_id, h.heat_number, h.status AS heat_status, s.name AS supplier, h.spec_id, m.length_mm, m.recorded_at, p.name AS \`by\`
+  const movements: Array<{
+    id: number;
+    kind: 'issue' | 'return';
+    tag: string;
+    bar_piece_id: number;
+    heat_id: number;
+    heat_number: string;
+    heat_status: string;
+    supplier: string;
+    spec_id: string;
+    length_mm: string;
+    recorded_at: Date;
+    by: string;
+  }> = await manager.query(
+    `SELECT m.id, m.kind, b.tag, m.bar_piece_id, h.id AS heat_id, h.heat_number, h.status AS heat_status, s.name AS supplier, h.spec_id, m.length_mm, m.recorded_at, p.name AS \`by\`
          FROM material_movement m JOIN bar_piece b ON b.id = m.bar_piece_id JOIN heat h ON h.id = b.heat_id JOIN supplier s ON s.id = h.supplier_id JOIN person p ON p.id = m.recorded_by
         WHERE m.lot_id = ? ORDER BY m.recorded_at, m.id`,
-      [lotId],
-    );
+    [lotId],
+  );
   const material: MaterialMovement[] = movements.map((movement) => ({
     id: movement.id,
     kind: movement.kind,
     tag: movement.tag,
     barPieceId: movement.bar_piece_id,
-    heat: { id: movement.heat_id, heatNumber: movement.heat_number, status: movement.heat_status, supplier: movement.supplier, specId: movement.spec_id },
+    heat: {
+      id: movement.heat_id,
+      heatNumber: movement.heat_number,
+      status: movement.heat_status,
+      supplier: movement.supplier,
+      specId: movement.spec_id,
+    },
     lengthMm: movement.length_mm,
     recordedAt: new Date(movement.recorded_at).toISOString(),
     recordedBy: movement.by,
@@ -58,18 +82,40 @@ export async function lotDetailIn(manager: EntityManager, lotId: number): Promis
     sampleSize: operation.sample_size,
     defectsFound: operation.defects_found,
     verdict: operation.verdict,
-    processRun: operation.process_run_id ? { id: operation.process_run_id, runNumber: operation.run_number!, inWindow: Boolean(operation.in_window) } : null,
+    processRun: operation.process_run_id
+      ? { id: operation.process_run_id, runNumber: operation.run_number!, inWindow: Boolean(operation.in_window) }
+      : null,
     notes: operation.notes,
-    files: files.filter((file) => file.operation_id === operation.id).map((file) => ({ documentId: file.document_id, name: file.name, sha256: file.sha256 })),
+    files: files
+      .filter((file) => file.operation_id === operation.id)
+      .map((file) => ({ documentId: file.document_id, name: file.name, sha256: file.sha256 })),
     recordedBy: operation.recorded_by_name,
     recordedAt: new Date(operation.recorded_at).toISOString(),
   }));
   const links = await linkRows(manager, [lotId]);
-  const parents = links.filter((link) => link.child_lot_id === lotId).map((link) => ({ lotId: link.parent_lot_id, lotNumber: link.parent_number, kind: link.kind, qty: link.qty, afterStep: link.after_step }));
-  const children = links.filter((link) => link.parent_lot_id === lotId).map((link) => ({ lotId: link.child_lot_id, lotNumber: link.child_number, kind: link.kind, qty: link.qty, afterStep: link.after_step }));
+  const parents = links
+    .filter((link) => link.child_lot_id === lotId)
+    .map((link) => ({
+      lotId: link.parent_lot_id,
+      lotNumber: link.parent_number,
+      kind: link.kind,
+      qty: link.qty,
+      afterStep: link.after_step,
+    }));
+  const children = links
+    .filter((link) => link.parent_lot_id === lotId)
+    .map((link) => ({
+      lotId: link.child_lot_id,
+      lotNumber: link.child_number,
+      kind: link.kind,
+      qty: link.qty,
+      afterStep: link.after_step,
+    }));
   const heatIds = [...new Set(material.map((movement) => movement.heat.id))];
   const pieceIds = [...new Set(material.map((movement) => movement.barPieceId))];
-  const runIds = [...new Set(operations.flatMap((operation) => (operation.processRun ? [operation.processRun.id] : [])))];
+  const runIds = [
+    ...new Set(operations.flatMap((operation) => (operation.processRun ? [operation.processRun.id] : []))),
+  ];
   const clauses = ['n.lot_id = ?'];
   const parameters: unknown[] = [lotId];
   if (heatIds.length) {
@@ -84,8 +130,20 @@ export async function lotDetailIn(manager: EntityManager, lotId: number): Promis
     clauses.push(`(n.subject_type = 'process-run' AND n.subject_id IN (${runIds.map(() => '?').join(',')}))`);
     parameters.push(...runIds);
   }
-  const nonconformances = (await nonconformancesWhere(manager, clauses.join(' OR '), parameters)).map(({ raisedById: _by, ...nc }) => nc);
-  const shipmentRows: Array<{ id: number; consignee_id: number; name: string; kind: string; country: string; qty: number; shipped_on: Date | string; document_number: string; by: string }> = await manager.query(
+  const nonconformances = (await nonconformancesWhere(manager, clauses.join(' OR '), parameters)).map(
+    ({ raisedById: _by, ...nc }) => nc,
+  );
+  const shipmentRows: Array<{
+    id: number;
+    consignee_id: number;
+    name: string;
+    kind: string;
+    country: string;
+    qty: number;
+    shipped_on: Date | string;
+    document_number: string;
+    by: string;
+  }> = await manager.query(
     'SELECT s.id, s.consignee_id, c.name, c.kind, c.country, s.qty, s.shipped_on, s.document_number, p.name AS `by` FROM shipment s JOIN consignee c ON c.id = s.consignee_id JOIN person p ON p.id = s.recorded_by WHERE s.lot_id = ? ORDER BY s.shipped_on, s.id',
     [lotId],
   );
@@ -93,11 +151,17 @@ export async function lotDetailIn(manager: EntityManager, lotId: number): Promis
     id: shipment.id,
     consignee: { id: shipment.consignee_id, name: shipment.name, kind: shipment.kind, country: shipment.country },
     qty: shipment.qty,
-    shippedOn: typeof shipment.shipped_on === 'string' ? shipment.shipped_on.slice(0, 10) : new Date(shipment.shipped_on).toISOString().slice(0, 10),
+    shippedOn:
+      typeof shipment.shipped_on === 'string'
+        ? shipment.shipped_on.slice(0, 10)
+        : new Date(shipment.shipped_on).toISOString().slice(0, 10),
     documentNumber: shipment.document_number,
     recordedBy: shipment.by,
   }));
-  const sum = (kind: 'issue' | 'return') => material.filter((movement) => movement.kind === kind).reduce((total, movement) => total.plus(movement.lengthMm), new DecimalE29(0));
+  const sum = (kind: 'issue' | 'return') =>
+    material
+      .filter((movement) => movement.kind === kind)
+      .reduce((total, movement) => total.plus(movement.lengthMm), new DecimalE29(0));
   const materialReconciliation =
     row.origin === 'bar'
       ? reconcileMaterial({
@@ -112,7 +176,14 @@ export async function lotDetailIn(manager: EntityManager, lotId: number): Promis
   const done = new Set(operations.map((operation) => operation.stepNo));
   const next = part.routing.find((step) => step.stepNo > row.resumes_after_step && !done.has(step.stepNo));
   const timeline: TimelineEntry[] = [
-    { at: new Date(row.opened_at).toISOString(), kind: 'opened' as const, title: `Lot opened (${row.origin === 'bar' ? 'from bar' : `by ${row.origin}`})`, detail: `${row.planned_qty} units planned`, by: row.opened_by_name, link: null },
+    {
+      at: new Date(row.opened_at).toISOString(),
+      kind: 'opened' as const,
+      title: `Lot opened (${row.origin === 'bar' ? 'from bar' : `by ${row.origin}`})`,
+      detail: `${row.planned_qty} units planned`,
+      by: row.opened_by_name,
+      link: null,
+    },
     ...material.map((movement): TimelineEntry => ({
       at: movement.recordedAt,
       kind: 'material',
@@ -129,19 +200,40 @@ export async function lotDetailIn(manager: EntityManager, lotId: number): Promis
       by: operation.operatorName,
       link: operation.processRun ? `/process-runs/${operation.processRun.id}` : null,
     })),
-    ...nonconformances.map((nc): TimelineEntry => ({ at: nc.raisedAt, kind: 'nonconformance', title: `${nc.ncNumber} raised (${nc.status})`, detail: nc.description, by: nc.raisedBy, link: `/nonconformances/${nc.id}` })),
+    ...nonconformances.map((nc): TimelineEntry => ({
+      at: nc.raisedAt,
+      kind: 'nonconformance',
+      title: `${nc.ncNumber} raised (${nc.status})`,
+      detail: nc.description,
+      by: nc.raisedBy,
+      link: `/nonconformances/${nc.id}`,
+    })),
     ...links.map((link): TimelineEntry => ({
       at: new Date(link.recorded_at).toISOString(),
       kind: link.kind,
-      title: link.kind === 'split' ? `Split: ${link.qty} units to ${link.child_number}` : `Merge: ${link.qty} units from ${link.parent_number} into ${link.child_number}`,
+      title:
+        link.kind === 'split'
+          ? `Split: ${link.qty} units to ${link.child_number}`
+          : `Merge: ${link.qty} units from ${link.parent_number} into ${link.child_number}`,
       detail: `after step ${link.after_step}`,
       by: link.recorded_by_name,
       link: `/lots/${link.parent_lot_id === lotId ? link.child_lot_id : link.parent_lot_id}`,
     })),
-    ...shipments.map((shipment): TimelineEntry => ({ at: `${shipment.shippedOn}T00:00:00.000Z`, kind: 'shipment', title: `Shipped ${shipment.qty} to ${shipment.consignee.name}`, detail: shipment.documentNumber, by: shipment.recordedBy, link: null })),
+    ...shipments.map((shipment): TimelineEntry => ({
+      at: `${shipment.shippedOn}T00:00:00.000Z`,
+      kind: 'shipment',
+      title: `Shipped ${shipment.qty} to ${shipment.consignee.name}`,
+      detail: shipment.documentNumber,
+      by: shipment.recordedBy,
+      link: null,
+    })),
   ].sort((a, b) => a.at.localeCompare(b.at));
   return {
-    ...toLotSummary(row, chain.started === null ? null : chain.onHand, (await heatsByLot(manager, [lotId])).get(lotId) ?? []),
+    ...toLotSummary(
+      row,
+      chain.started === null ? null : chain.onHand,
+      (await heatsByLot(manager, [lotId])).get(lotId) ?? [],
+    ),
     partRecord: part,
     startQty: row.start_qty,
     resumesAfterStep: row.resumes_after_step,

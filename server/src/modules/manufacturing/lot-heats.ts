@@ -26,5 +26,8 @@ export async function addHeatToLot(manager: EntityManager, lotId: number, heatId
 
 /** A lot split or merged from these parents is made of every heat they are made of. */
 export async function inheritHeats(manager: EntityManager, lotId: number, parentIds: number[]): Promise<void> {
-  await manager.query(`INSERT INTO lot_heat (heat_id, lot_id) SELECT DISTINCT heat_id, ? FROM lot_heat WHERE lot_id IN (${parentIds.map(() => '?').join(',')})`, [lotId, ...parentIds]);
+  await manager.query(
+    `INSERT INTO lot_heat (heat_id, lot_id) SELECT DISTINCT heat_id, ? FROM lot_heat WHERE lot_id IN (${parentIds.map(() => '?').join(',')})`,
+    [lotId, ...parentIds],
+  );
 }

@@ -16,12 +16,19 @@ import { inheritHeats } from './lot-heats';
 /** Child lot numbers: the parent's number with -A, -B, … (a lot number stays within GS1's 20 characters). */
 async function childLotNumber(manager: import('typeorm').EntityManager, parentNumber: string): Promise<string> {
   for (let index = 0; index < 26 * 27; index++) {
-    const letters = index < 26 ? String.fromCharCode(65 + index) : `${String.fromCharCode(64 + Math.floor(index / 26))}${String.fromCharCode(65 + (index % 26))}`;
+    const letters =
+      index < 26
+        ? String.fromCharCode(65 + index)
+        : `${String.fromCharCode(64 + Math.floor(index / 26))}${String.fromCharCode(65 + (index % 26))}`;
     const candidate = `${parentNumber}-${letters}`;
     const [taken] = await manager.query('SELECT id FROM production_lot WHERE lot_number = ?', [candidate]);
     if (!taken) {
       const problem = lotNumberProblem(candidate);
-      if (problem) throw AppError.rule(`Lot ${parentNumber} cannot be split: ${candidate} would be too long for a GS1 lot number`, { quantities: problem });
+      if (problem)
+        throw AppError.rule(
+          `Lot ${parentNumber} cannot be split: ${candidate} would be too long for a GS1 lot number`,
+          { quantities: problem },
+        );
       return candidate;
     }
   }
@@ -29,16 +36,28 @@ async function childLotNumber(manager: import('typeorm').EntityManager, parentNu
 }
 
 /** Splits units off a lot into new lots after its last recorded step; the children resume the routing there. */
-export async function splitLot(dataSource: DataSource, lotId: number, raw: SplitInput, person: Person, actor: Actor, origin: RequestOrigin) {
+export async function splitLot(
+  dataSource: DataSource,
+  lotId: number,
+  raw: SplitInput,
+  person: Person,
+  actor: Actor,
+  origin: RequestOrigin,
+) {
   const input = splitInputSchema.parse(raw);
   return inTransaction(dataSource, async (manager) => {
     const lot = await findLotRow(manager, lotId, true);
     if (!lot) throw AppError.notFound('Lot');
-    if (lot.status !== 'open') throw AppError.rule(`Lot ${lot.lot_number} is ${lot.status}; it cannot be split`, { quantities: lot.status });
+    if (lot.status !== 'open')
+      throw AppError.rule(`Lot ${lot.lot_number} is ${lot.status}; it cannot be split`, { quantities: lot.status });
     // Units split off a held lot would leave the hold behind.
     await refuseIfHeld(manager, [lotId], 'split', 'quantities');
     const chain = (await unitChains(manager, [lotId])).get(lotId)!;
-    if (chain.started === null) throw AppError.rule(`Lot ${lot.lot_number} has not started; change its planned quantity instead of splitting it`, { quantities: 'Not started' });
+    if (chain.started === null)
+      throw AppError.rule(
+        `Lot ${lot.lot_number} has not started; change its planned quantity instead of splitting it`,
+        { quantities: 'Not started' },
+      );
     const problem = splitProblem(chain.onHand, input.quantities);
     if (problem) throw AppError.rule(problem, { quantities: problem });
     const afterStep = await lastStepOf(manager, lotId);
@@ -46,20 +65,48 @@ export async function splitLot(dataSource: DataSource, lotId: number, raw: Split
     const children: Array<{ id: number; lotNumber: string; qty: number }> = [];
     for (const qty of input.quantities) {
       const lotNumber = await childLotNumber(manager, lot.lot_number);
-      const id = await insertLot(manager, { partId: part.id, partNumber: part.partNumber, pattern: part.lotPattern, plannedQty: qty, openedAt: new Date(), origin: 'split', startQty: qty, resumesAfterStep: afterStep, openedBy: person.id, lotNumber });
-      await manager.query('INSERT INTO lot_link (parent_lot_id, child_lot_id, kind, qty, after_step, recorded_by) VALUES (?, ?, ?, ?, ?, ?)', [lotId, id, 'split', qty, afterStep, person.id]);
+      const id = await insertLot(manager, {
+        partId: part.id,
+        partNumber: part.partNumber,
+        pattern: part.lotPattern,
+        plannedQty: qty,
+        openedAt: new Date(),
+        origin: 'split',
+        startQty: qty,
+        resumesAfterStep: afterStep,
+        openedBy: person.id,
+        lotNumber,
+      });
+      await manager.query(
+        'INSERT INTO lot_link (parent_lot_id, child_lot_id, kind, qty, after_step, recorded_by) VALUES (?, ?, ?, ?, ?, ?)',
+        [lotId, id, 'split', qty, afterStep, person.id],
+      );
       await inheritHeats(manager, id, [lotId]);
       children.push({ id, lotNumber, qty });
     }
     const remaining = chain.onHand - input.quantities.reduce((sum, qty) => sum + qty, 0);
     if (remaining === 0) await manager.query("UPDATE production_lot SET status = 'consumed' WHERE id = ?", [lotId]);
-    await appendLedgerEvent(manager, { actor, action: 'lot.split', entity: { type: 'lot', id: lotId }, before: { onHand: chain.onHand }, after: { afterStep, children, remaining }, reason: input.reason, origin });
+    await appendLedgerEvent(manager, {
+      actor,
+      action: 'lot.split',
+      entity: { type: 'lot', id: lotId },
+      before: { onHand: chain.onHand },
+      after: { afterStep, children, remaining },
+      reason: input.reason,
+      origin,
+    });
     return { children, remaining };
   });
 }
 
 /** Merges lots of one part that stand at the same routing step into a new lot holding all their units. */
-export async function mergeLots(dataSource: DataSource, raw: MergeInput, person: Person, actor: Actor, origin: RequestOrigin) {
+export async function mergeLots(
+  dataSource: DataSource,
+  raw: MergeInput,
+  person: Person,
+  actor: Actor,
+  origin: RequestOrigin,
+) {
   const input = mergeInputSchema.parse(raw);
   return inTransaction(dataSource, async (manager) => {
     const ids = [...input.lotIds].sort((a, b) => a - b);
@@ -79,7 +126,14 @@ export async function mergeLots(dataSource: DataSource, raw: MergeInput, person:
         partId: row.part_id,
         lastStep: await lastStepOf(manager, row.id),
         onHand: chain.onHand,
-        blocked: row.status !== 'open' ? `it is ${row.status}` : chain.started === null ? 'it has not started' : Number(row.open_ncs) > 0 ? 'it has an open nonconformance' : null,
+        blocked:
+          row.status !== 'open'
+            ? `it is ${row.status}`
+            : chain.started === null
+              ? 'it has not started'
+              : Number(row.open_ncs) > 0
+                ? 'it has an open nonconformance'
+                : null,
       });
     }
     const problem = mergeProblem(candidates);
@@ -87,14 +141,39 @@ export async function mergeLots(dataSource: DataSource, raw: MergeInput, person:
     const part = (await findPart(manager, rows[0]!.part_id))!;
     const total = candidates.reduce((sum, lot) => sum + lot.onHand, 0);
     const afterStep = candidates[0]!.lastStep;
-    const id = await insertLot(manager, { partId: part.id, partNumber: part.partNumber, pattern: part.lotPattern, plannedQty: total, openedAt: new Date(), origin: 'merge', startQty: total, resumesAfterStep: afterStep, openedBy: person.id });
+    const id = await insertLot(manager, {
+      partId: part.id,
+      partNumber: part.partNumber,
+      pattern: part.lotPattern,
+      plannedQty: total,
+      openedAt: new Date(),
+      origin: 'merge',
+      startQty: total,
+      resumesAfterStep: afterStep,
+      openedBy: person.id,
+    });
     for (const [index, row] of rows.entries()) {
-      await manager.query('INSERT INTO lot_link (parent_lot_id, child_lot_id, kind, qty, after_step, recorded_by) VALUES (?, ?, ?, ?, ?, ?)', [row.id, id, 'merge', candidates[index]!.onHand, afterStep, person.id]);
+      await manager.query(
+        'INSERT INTO lot_link (parent_lot_id, child_lot_id, kind, qty, after_step, recorded_by) VALUES (?, ?, ?, ?, ?, ?)',
+        [row.id, id, 'merge', candidates[index]!.onHand, afterStep, person.id],
+      );
       await manager.query("UPDATE production_lot SET status = 'consumed' WHERE id = ?", [row.id]);
     }
     await inheritHeats(manager, id, ids);
     const merged = (await findLotRow(manager, id))!;
-    await appendLedgerEvent(manager, { actor, action: 'lot.merged', entity: { type: 'lot', id }, after: { lotNumber: merged.lot_number, parents: candidates.map((lot) => ({ lot: lot.lotNumber, qty: lot.onHand })), afterStep, total }, reason: input.reason, origin });
+    await appendLedgerEvent(manager, {
+      actor,
+      action: 'lot.merged',
+      entity: { type: 'lot', id },
+      after: {
+        lotNumber: merged.lot_number,
+        parents: candidates.map((lot) => ({ lot: lot.lotNumber, qty: lot.onHand })),
+        afterStep,
+        total,
+      },
+      reason: input.reason,
+      origin,
+    });
     return { id, lotNumber: merged.lot_number, qty: total };
   });
 }

@@ -52,13 +52,18 @@ export async function findLotRow(manager: EntityManager, id: number, lock = fals
 }
 
 export async function findLotIdByNumber(manager: EntityManager, lotNumber: string): Promise<number | null> {
-  const [row]: Array<{ id: number }> = await manager.query('SELECT id FROM production_lot WHERE lot_number = ?', [lotNumber]);
+  const [row]: Array<{ id: number }> = await manager.query('SELECT id FROM production_lot WHERE lot_number = ?', [
+    lotNumber,
+  ]);
   return row?.id ?? null;
 }
 
 const sortColumns = { lotNumber: 'l.lot_number', openedAt: 'l.opened_at', status: 'l.status' } as const;
 
-export async function listLotRows(manager: EntityManager, query: LotListQuery): Promise<{ rows: LotRow[]; total: number }> {
+export async function listLotRows(
+  manager: EntityManager,
+  query: LotListQuery,
+): Promise<{ rows: LotRow[]; total: number }> {
   const where: string[] = [];
   const parameters: unknown[] = [];
   if (query.search) {
@@ -80,7 +85,10 @@ export async function listLotRows(manager: EntityManager, query: LotListQuery): 
     parameters.push(query.dueFor);
   }
   const clause = where.length ? `WHERE ${where.join(' AND ')}` : '';
-  const [count]: Array<{ total: string }> = await manager.query(`SELECT COUNT(*) AS total FROM production_lot l JOIN part p ON p.id = l.part_id ${clause}`, parameters);
+  const [count]: Array<{ total: string }> = await manager.query(
+    `SELECT COUNT(*) AS total FROM production_lot l JOIN part p ON p.id = l.part_id ${clause}`,
+    parameters,
+  );
   const order = `${sortColumns[query.sort]} ${query.order === 'asc' ? 'ASC' : 'DESC'}, l.id ${query.order === 'asc' ? 'ASC' : 'DESC'}`;
   // The page's ids first, so that the per-lot subqueries run for one page of lots, not all of them.
   const rows: LotRow[] = await manager.query(
@@ -163,7 +171,11 @@ export async function unitFacts(manager: EntityManager, lotIds: number[], known?
   if (!lotIds.length) return { lots: [], operations: [], links: [] };
   const marks = lotIds.map(() => '?').join(',');
   const [lots, operations, links] = await Promise.all([
-    known ?? (manager.query(`SELECT id, start_qty, resumes_after_step FROM production_lot WHERE id IN (${marks})`, lotIds) as Promise<LotStart[]>),
+    known ??
+      (manager.query(
+        `SELECT id, start_qty, resumes_after_step FROM production_lot WHERE id IN (${marks})`,
+        lotIds,
+      ) as Promise<LotStart[]>),
     manager.query(
       `SELECT o.lot_id, s.step_no, s.name AS step_name, o.qty_in, o.qty_good, o.qty_scrap
          FROM lot_operation o JOIN routing_step s ON s.id = o.routing_step_id

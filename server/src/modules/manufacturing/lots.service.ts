@@ -2,7 +2,14 @@ import type { DataSource, EntityManager } from 'typeorm';
 import { DecimalE29 } from '@shared/domain/materials/e29-rounding';
 import { lotNumberParts, formatLotNumber } from '@shared/domain/manufacturing/lot-number';
 import { lotNumberProblem } from '@shared/domain/gs1/gtin';
-import { lotOpenSchema, materialMovementSchema, type LotListQuery, type LotOpen, type LotSummary, type MaterialMovementInput } from '@shared/schemas/manufacturing';
+import {
+  lotOpenSchema,
+  materialMovementSchema,
+  type LotListQuery,
+  type LotOpen,
+  type LotSummary,
+  type MaterialMovementInput,
+} from '@shared/schemas/manufacturing';
 import type { Person } from '@shared/schemas/people';
 import { AppError } from '../../errors';
 import { materialHolds } from './material-holds.repository';
@@ -20,8 +27,17 @@ import { addHeatToLot } from './lot-heats';
 export async function listLots(dataSource: DataSource, query: LotListQuery) {
   const { rows, total } = await listLotRows(dataSource.manager, query);
   const ids = rows.map((row) => row.id);
-  const [chains, heats] = await Promise.all([unitChains(dataSource.manager, ids, rows), heatsByLot(dataSource.manager, ids)]);
-  const items: LotSummary[] = rows.map((row) => toLotSummary(row, chains.get(row.id)?.started === null ? null : (chains.get(row.id)?.onHand ?? null), heats.get(row.id) ?? []));
+  const [chains, heats] = await Promise.all([
+    unitChains(dataSource.manager, ids, rows),
+    heatsByLot(dataSource.manager, ids),
+  ]);
+  const items: LotSummary[] = rows.map((row) =>
+    toLotSummary(
+      row,
+      chains.get(row.id)?.started === null ? null : (chains.get(row.id)?.onHand ?? null),
+      heats.get(row.id) ?? [],
+    ),
+  );
   return { items, total, page: query.page, pageSize: query.pageSize };
 }
 
@@ -29,29 +45,68 @@ export async function listLots(dataSource: DataSource, query: LotListQuery) {
 function openingDate(openedOn: string | undefined): Date {
   if (!openedOn) return new Date();
   const date = new Date(`${openedOn}T00:00:00Z`);
-  if (Number.isNaN(date.getTime()) || date.toISOString().slice(0, 10) !== openedOn) throw new AppError('VALIDATION_FAILED', 'Not a calendar date', { openedOn: 'Not a calendar date' });
-  if (date.getTime() > Date.now()) throw new AppError('VALIDATION_FAILED', 'The opening date is in the future', { openedOn: 'Not in the future' });
+  if (Number.isNaN(date.getTime()) || date.toISOString().slice(0, 10) !== openedOn)
+    throw new AppError('VALIDATION_FAILED', 'Not a calendar date', { openedOn: 'Not a calendar date' });
+  if (date.getTime() > Date.now())
+    throw new AppError('VALIDATION_FAILED', 'The opening date is in the future', { openedOn: 'Not in the future' });
   return date;
 }
 
 /** Opens a production lot with the next number from its part's pattern. */
-export async function openLot(dataSource: DataSource, raw: LotOpen, person: Person, actor: Actor, origin: RequestOrigin): Promise<LotSummary> {
+export async function openLot(
+  dataSource: DataSource,
+  raw: LotOpen,
+  person: Person,
+  actor: Actor,
+  origin: RequestOrigin,
+): Promise<LotSummary> {
   const input = lotOpenSchema.parse(raw);
   const openedAt = openingDate(input.openedOn);
   return inTransaction(dataSource, async (manager) => {
     await manager.query('SELECT id FROM part WHERE id = ? FOR UPDATE', [input.partId]);
     const part = await findPart(manager, input.partId);
     if (!part) throw AppError.rule('Choose a registered part', { partId: 'Unknown part' });
-    const id = await insertLot(manager, { partId: part.id, partNumber: part.partNumber, pattern: part.lotPattern, plannedQty: input.plannedQty, openedAt, origin: 'bar', startQty: null, resumesAfterStep: 0, openedBy: person.id });
+    const id = await insertLot(manager, {
+      partId: part.id,
+      partNumber: part.partNumber,
+      pattern: part.lotPattern,
+      plannedQty: input.plannedQty,
+      openedAt,
+      origin: 'bar',
+      startQty: null,
+      resumesAfterStep: 0,
+      openedBy: person.id,
+    });
     const row = (await findLotRow(manager, id))!;
-    await appendLedgerEvent(manager, { actor, action: 'lot.opened', entity: { type: 'lot', id }, after: { lotNumber: row.lot_number, part: `${part.partNumber} rev ${part.revision}`, plannedQty: input.plannedQty }, origin });
+    await appendLedgerEvent(manager, {
+      actor,
+      action: 'lot.opened',
+      entity: { type: 'lot', id },
+      after: {
+        lotNumber: row.lot_number,
+        part: `${part.partNumber} rev ${part.revision}`,
+        plannedQty: input.plannedQty,
+      },
+      origin,
+    });
     return toLotSummary(row, null, []);
   });
 }
 
 export async function insertLot(
   manager: EntityManager,
-  lot: { partId: number; partNumber: string; pattern: string; plannedQty: number; openedAt: Date; origin: 'bar' | 'split' | 'merge'; startQty: number | null; resumesAfterStep: number; openedBy: number; lotNumber?: string },
+  lot: {
+    partId: number;
+    partNumber: string;
+    pattern: string;
+    plannedQty: number;
+    openedAt: Date;
+    origin: 'bar' | 'split' | 'merge';
+    startQty: number | null;
+    resumesAfterStep: number;
+    openedBy: number;
+    lotNumber?: string;
+  },
 ): Promise<number> {
   let lotNumber = lot.lotNumber;
   if (!lotNumber) {
@@ -71,7 +126,8 @@ export async function insertLot(
 async function openLotForWork(manager: EntityManager, lotId: number) {
   const lot = await findLotRow(manager, lotId, true);
   if (!lot) throw AppError.notFound('Lot');
-  if (lot.status !== 'open') throw AppError.rule(`Lot ${lot.lot_number} is ${lot.status}; its record can no longer change`, { lot: lot.status });
+  if (lot.status !== 'open')
+    throw AppError.rule(`Lot ${lot.lot_number} is ${lot.status}; its record can no longer change`, { lot: lot.status });
   return lot;
 }
 
@@ -80,28 +136,58 @@ async function openLotForWork(manager: EntityManager, lotId: number) {
  * bought to a specification the part allows; a second heat in one lot needs a QA approver's
  * signature first.
  */
-export async function issueMaterial(dataSource: DataSource, lotId: number, raw: MaterialMovementInput, person: Person, actor: Actor, origin: RequestOrigin) {
+export async function issueMaterial(
+  dataSource: DataSource,
+  lotId: number,
+  raw: MaterialMovementInput,
+  person: Person,
+  actor: Actor,
+  origin: RequestOrigin,
+) {
   const input = materialMovementSchema.parse(raw);
   return inTransaction(dataSource, async (manager) => {
     const lot = await openLotForWork(manager, lotId);
-    if (lot.origin !== 'bar') throw AppError.rule(`Lot ${lot.lot_number} came from a ${lot.origin}; its material is its parents'`, { tag: 'No bar issue to this lot' });
+    if (lot.origin !== 'bar')
+      throw AppError.rule(`Lot ${lot.lot_number} came from a ${lot.origin}; its material is its parents'`, {
+        tag: 'No bar issue to this lot',
+      });
     const found = await findPieceByTag(manager, input.tag);
     if (!found) throw AppError.rule(`No bar piece has tag ${input.tag}`, { tag: 'Unknown tag' });
     await manager.query('SELECT id FROM bar_piece WHERE id = ? FOR UPDATE', [found.id]);
     const piece = (await findPieceByTag(manager, input.tag))!;
     const heat = (await findHeat(manager, piece.heat.id))!;
-    if (piece.status !== 'in-stock') throw AppError.rule(`Piece ${piece.tag} was cut; issue one of its pieces (${piece.childTags.join(', ')})`, { tag: 'Cut piece' });
-    if (heat.status !== 'accepted') throw AppError.rule(`Heat ${heat.heatNumber} is ${heat.status}, not accepted; its bar cannot be issued`, { tag: `Heat ${heat.status}` });
+    if (piece.status !== 'in-stock')
+      throw AppError.rule(`Piece ${piece.tag} was cut; issue one of its pieces (${piece.childTags.join(', ')})`, {
+        tag: 'Cut piece',
+      });
+    if (heat.status !== 'accepted')
+      throw AppError.rule(`Heat ${heat.heatNumber} is ${heat.status}, not accepted; its bar cannot be issued`, {
+        tag: `Heat ${heat.status}`,
+      });
     const holds = await materialHolds(manager, { heatId: heat.id, pieceId: piece.id, supplierId: heat.supplier.id });
-    if (holds.length) throw AppError.rule(`Bar ${piece.tag} of heat ${heat.heatNumber} is held: ${holds.join('; ')}. It cannot be issued until that is closed`, { tag: 'Material on hold' });
+    if (holds.length)
+      throw AppError.rule(
+        `Bar ${piece.tag} of heat ${heat.heatNumber} is held: ${holds.join('; ')}. It cannot be issued until that is closed`,
+        { tag: 'Material on hold' },
+      );
     const part = (await findPart(manager, lot.part_id))!;
-    const allowed = part.specifications.some((spec) => spec.specId === heat.spec.id && (spec.grade === null || spec.grade === heat.spec.grade));
+    const allowed = part.specifications.some(
+      (spec) => spec.specId === heat.spec.id && (spec.grade === null || spec.grade === heat.spec.grade),
+    );
     if (!allowed) {
-      const wanted = part.specifications.map((spec) => `${spec.specId}${spec.grade ? ` grade ${spec.grade}` : ''}`).join(' or ');
-      throw AppError.rule(`Heat ${heat.heatNumber} is ${heat.spec.id}${heat.spec.grade ? ` grade ${heat.spec.grade}` : ''}; part ${part.partNumber} must be made from ${wanted}`, { tag: 'Wrong material for this part' });
+      const wanted = part.specifications
+        .map((spec) => `${spec.specId}${spec.grade ? ` grade ${spec.grade}` : ''}`)
+        .join(' or ');
+      throw AppError.rule(
+        `Heat ${heat.heatNumber} is ${heat.spec.id}${heat.spec.grade ? ` grade ${heat.spec.grade}` : ''}; part ${part.partNumber} must be made from ${wanted}`,
+        { tag: 'Wrong material for this part' },
+      );
     }
     if (new DecimalE29(input.lengthMm).greaterThan(piece.remainingMm)) {
-      throw AppError.rule(`Piece ${piece.tag} has ${piece.remainingMm} mm left; ${input.lengthMm} mm cannot be issued`, { lengthMm: `At most ${piece.remainingMm} mm` });
+      throw AppError.rule(
+        `Piece ${piece.tag} has ${piece.remainingMm} mm left; ${input.lengthMm} mm cannot be issued`,
+        { lengthMm: `At most ${piece.remainingMm} mm` },
+      );
     }
     const heats: Array<{ heat_id: number }> = await manager.query(
       'SELECT DISTINCT b.heat_id FROM material_movement m JOIN bar_piece b ON b.id = m.bar_piece_id WHERE m.lot_id = ? AND m.kind = ?',
@@ -109,18 +195,42 @@ export async function issueMaterial(dataSource: DataSource, lotId: number, raw: 
     );
     if (heats.length && !heats.some((row) => row.heat_id === heat.id)) {
       if (!(await heatMixingApproved(manager, lotId, heat.id))) {
-        throw AppError.rule(`Lot ${lot.lot_number} is made from another heat; mixing in heat ${heat.heatNumber} needs a QA approver’s signature first`, { tag: 'Heat mixing not approved' });
+        throw AppError.rule(
+          `Lot ${lot.lot_number} is made from another heat; mixing in heat ${heat.heatNumber} needs a QA approver’s signature first`,
+          { tag: 'Heat mixing not approved' },
+        );
       }
     }
-    await manager.query('INSERT INTO material_movement (lot_id, bar_piece_id, kind, length_mm, recorded_by) VALUES (?, ?, ?, ?, ?)', [lotId, piece.id, 'issue', input.lengthMm, person.id]);
+    await manager.query(
+      'INSERT INTO material_movement (lot_id, bar_piece_id, kind, length_mm, recorded_by) VALUES (?, ?, ?, ?, ?)',
+      [lotId, piece.id, 'issue', input.lengthMm, person.id],
+    );
     await addHeatToLot(manager, lotId, heat.id);
-    await appendLedgerEvent(manager, { actor, action: 'lot.material-issued', entity: { type: 'lot', id: lotId }, after: { tag: piece.tag, heat: heat.heatNumber, lengthMm: input.lengthMm, remainingMm: new DecimalE29(piece.remainingMm).minus(input.lengthMm).toFixed(2) }, origin });
+    await appendLedgerEvent(manager, {
+      actor,
+      action: 'lot.material-issued',
+      entity: { type: 'lot', id: lotId },
+      after: {
+        tag: piece.tag,
+        heat: heat.heatNumber,
+        lengthMm: input.lengthMm,
+        remainingMm: new DecimalE29(piece.remainingMm).minus(input.lengthMm).toFixed(2),
+      },
+      origin,
+    });
     return { tag: piece.tag, heatNumber: heat.heatNumber, lengthMm: input.lengthMm };
   });
 }
 
 /** Returns an unused remnant of a piece issued to the lot back to stores. */
-export async function returnMaterial(dataSource: DataSource, lotId: number, raw: MaterialMovementInput, person: Person, actor: Actor, origin: RequestOrigin) {
+export async function returnMaterial(
+  dataSource: DataSource,
+  lotId: number,
+  raw: MaterialMovementInput,
+  person: Person,
+  actor: Actor,
+  origin: RequestOrigin,
+) {
   const input = materialMovementSchema.parse(raw);
   return inTransaction(dataSource, async (manager) => {
     const lot = await openLotForWork(manager, lotId);
@@ -131,10 +241,25 @@ export async function returnMaterial(dataSource: DataSource, lotId: number, raw:
       [lotId, piece.id],
     );
     const outstanding = new DecimalE29(net?.issued ?? '0');
-    if (outstanding.lessThanOrEqualTo(0)) throw AppError.rule(`Piece ${piece.tag} was not issued to lot ${lot.lot_number}`, { tag: 'Not issued to this lot' });
-    if (new DecimalE29(input.lengthMm).greaterThan(outstanding)) throw AppError.rule(`Only ${outstanding.toFixed(2)} mm of ${piece.tag} is out on this lot`, { lengthMm: `At most ${outstanding.toFixed(2)} mm` });
-    await manager.query('INSERT INTO material_movement (lot_id, bar_piece_id, kind, length_mm, recorded_by) VALUES (?, ?, ?, ?, ?)', [lotId, piece.id, 'return', input.lengthMm, person.id]);
-    await appendLedgerEvent(manager, { actor, action: 'lot.material-returned', entity: { type: 'lot', id: lotId }, after: { tag: piece.tag, lengthMm: input.lengthMm }, origin });
+    if (outstanding.lessThanOrEqualTo(0))
+      throw AppError.rule(`Piece ${piece.tag} was not issued to lot ${lot.lot_number}`, {
+        tag: 'Not issued to this lot',
+      });
+    if (new DecimalE29(input.lengthMm).greaterThan(outstanding))
+      throw AppError.rule(`Only ${outstanding.toFixed(2)} mm of ${piece.tag} is out on this lot`, {
+        lengthMm: `At most ${outstanding.toFixed(2)} mm`,
+      });
+    await manager.query(
+      'INSERT INTO material_movement (lot_id, bar_piece_id, kind, length_mm, recorded_by) VALUES (?, ?, ?, ?, ?)',
+      [lotId, piece.id, 'return', input.lengthMm, person.id],
+    );
+    await appendLedgerEvent(manager, {
+      actor,
+      action: 'lot.material-returned',
+      entity: { type: 'lot', id: lotId },
+      after: { tag: piece.tag, lengthMm: input.lengthMm },
+      origin,
+    });
     return { tag: piece.tag, lengthMm: input.lengthMm };
   });
 }

@@ -7,7 +7,11 @@ import type { EntityManager } from 'typeorm';
  * already made from the bar (liftedFor: the lot and the lots it came from), a recall whose hold on
  * one of those lots a QA approver has lifted by signature no longer counts: that is the decision.
  */
-export async function materialHolds(manager: EntityManager, material: { heatId: number; pieceId: number; supplierId: number }, liftedFor: number[] = []): Promise<string[]> {
+export async function materialHolds(
+  manager: EntityManager,
+  material: { heatId: number; pieceId: number; supplierId: number },
+  liftedFor: number[] = [],
+): Promise<string[]> {
   // A piece cut from a recalled or nonconforming piece is held with it: the piece and every piece it was cut from.
   const lineage: Array<{ id: number }> = await manager.query(
     `WITH RECURSIVE up (id, parent_id) AS (SELECT id, parent_id FROM bar_piece WHERE id = ? UNION ALL SELECT b.id, b.parent_id FROM bar_piece b JOIN up ON b.id = up.parent_id)
@@ -32,6 +36,9 @@ export async function materialHolds(manager: EntityManager, material: { heatId: 
   );
   return [
     ...recalls.map((recall) => `recall investigation ${recall.recall_number} is open (${recall.trigger_label})`),
-    ...nonconformances.map((nc) => `nonconformance ${nc.nc_number} on the ${nc.subject_type === 'heat' ? 'heat' : 'bar piece'} is ${nc.status === 'open' ? 'open' : 'not yet closed'}`),
+    ...nonconformances.map(
+      (nc) =>
+        `nonconformance ${nc.nc_number} on the ${nc.subject_type === 'heat' ? 'heat' : 'bar piece'} is ${nc.status === 'open' ? 'open' : 'not yet closed'}`,
+    ),
   ];
 }

@@ -22,12 +22,26 @@ export async function standingMethodValidations(manager: EntityManager): Promise
   );
   return rows
     .filter((row) => Boolean(row.stands))
-    .map((row) => ({ methodId: row.method_id, family: row.material_family, reference: row.reference, reason: row.reason, recordedBy: row.recorded_by_name, recordedAt: new Date(row.recorded_at).toISOString() }));
+    .map((row) => ({
+      methodId: row.method_id,
+      family: row.material_family,
+      reference: row.reference,
+      reason: row.reason,
+      recordedBy: row.recorded_by_name,
+      recordedAt: new Date(row.recorded_at).toISOString(),
+    }));
 }
 
 export async function insertMethodValidation(
   manager: EntityManager,
-  row: { methodId: string; family: MaterialFamily; stands: boolean; reference: string; reason: string; recordedBy: number },
+  row: {
+    methodId: string;
+    family: MaterialFamily;
+    stands: boolean;
+    reference: string;
+    reason: string;
+    recordedBy: number;
+  },
 ): Promise<number> {
   const result: { insertId: number } = await manager.query(
     'INSERT INTO process_method_validation (method_id, material_family, stands, reference, reason, recorded_by) VALUES (?, ?, ?, ?, ?, ?)',

@@ -62,7 +62,10 @@ export async function findNonconformance(manager: EntityManager, id: number, loc
 }
 
 export async function nonconformancesWhere(manager: EntityManager, clause: string, parameters: unknown[]) {
-  const rows: NcRow[] = await manager.query(`${ncSelect} WHERE ${clause} ORDER BY n.raised_at DESC, n.id DESC`, parameters);
+  const rows: NcRow[] = await manager.query(
+    `${ncSelect} WHERE ${clause} ORDER BY n.raised_at DESC, n.id DESC`,
+    parameters,
+  );
   return rows.map(toNonconformance);
 }
 
@@ -82,21 +85,48 @@ export async function listNonconformanceRows(manager: EntityManager, query: Nonc
     parameters.push(query.lotId);
   }
   const clause = where.length ? `WHERE ${where.join(' AND ')}` : '';
-  const [count]: Array<{ total: string }> = await manager.query(`SELECT COUNT(*) AS total FROM nonconformance n ${clause}`, parameters);
-  const rows: NcRow[] = await manager.query(`${ncSelect} ${clause} ORDER BY n.raised_at DESC, n.id DESC LIMIT ? OFFSET ?`, [...parameters, query.pageSize, (query.page - 1) * query.pageSize]);
+  const [count]: Array<{ total: string }> = await manager.query(
+    `SELECT COUNT(*) AS total FROM nonconformance n ${clause}`,
+    parameters,
+  );
+  const rows: NcRow[] = await manager.query(
+    `${ncSelect} ${clause} ORDER BY n.raised_at DESC, n.id DESC LIMIT ? OFFSET ?`,
+    [...parameters, query.pageSize, (query.page - 1) * query.pageSize],
+  );
   return { items: rows.map(toNonconformance), total: Number(count?.total ?? 0) };
 }
 
 export async function insertNonconformance(
   manager: EntityManager,
-  nc: { subjectType: NonconformanceSummary['subjectType']; subjectId: number; lotId: number | null; runId: number | null; source: NonconformanceSummary['source']; description: string; containment: string; raisedBy: number; raisedAt?: Date },
+  nc: {
+    subjectType: NonconformanceSummary['subjectType'];
+    subjectId: number;
+    lotId: number | null;
+    runId: number | null;
+    source: NonconformanceSummary['source'];
+    description: string;
+    containment: string;
+    raisedBy: number;
+    raisedAt?: Date;
+  },
 ): Promise<{ id: number; ncNumber: string }> {
   const year = (nc.raisedAt ?? new Date()).getUTCFullYear();
   const prefix = `NC-${year}-`;
   const ncNumber = `${prefix}${String(await nextSequence(manager, 'nonconformance', prefix)).padStart(4, '0')}`;
   const result: { insertId: number } = await manager.query(
     'INSERT INTO nonconformance (nc_number, subject_type, subject_id, lot_id, process_run_id, source, description, containment, raised_by, raised_at) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)',
-    [ncNumber, nc.subjectType, nc.subjectId, nc.lotId, nc.runId, nc.source, nc.description, nc.containment, nc.raisedBy, nc.raisedAt ?? new Date()],
+    [
+      ncNumber,
+      nc.subjectType,
+      nc.subjectId,
+      nc.lotId,
+      nc.runId,
+      nc.source,
+      nc.description,
+      nc.containment,
+      nc.raisedBy,
+      nc.raisedAt ?? new Date(),
+    ],
   );
   return { id: Number(result.insertId), ncNumber };
 }

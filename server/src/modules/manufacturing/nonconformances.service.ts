@@ -1,5 +1,11 @@
 import type { DataSource, EntityManager } from 'typeorm';
-import { dispositionInputSchema, nonconformanceInputSchema, type DispositionInput, type NonconformanceInput, type NonconformanceListQuery } from '@shared/schemas/manufacturing';
+import {
+  dispositionInputSchema,
+  nonconformanceInputSchema,
+  type DispositionInput,
+  type NonconformanceInput,
+  type NonconformanceListQuery,
+} from '@shared/schemas/manufacturing';
 import type { Person } from '@shared/schemas/people';
 import { AppError } from '../../errors';
 import { inTransaction } from '../../db/transaction';
@@ -7,7 +13,12 @@ import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/led
 import type { SignableRecordType } from '../signatures/signable-records';
 import { findNonconformance, insertNonconformance, listNonconformanceRows } from './nonconformances.repository';
 
-const subjectTables = { heat: 'heat', 'bar-piece': 'bar_piece', lot: 'production_lot', 'process-run': 'process_run' } as const;
+const subjectTables = {
+  heat: 'heat',
+  'bar-piece': 'bar_piece',
+  lot: 'production_lot',
+  'process-run': 'process_run',
+} as const;
 
 export async function listNonconformances(dataSource: DataSource, query: NonconformanceListQuery) {
   const { items, total } = await listNonconformanceRows(dataSource.manager, query);
@@ -21,11 +32,20 @@ export async function nonconformanceDetail(dataSource: DataSource, id: number) {
   return rest;
 }
 
-export async function raiseNonconformance(dataSource: DataSource, raw: NonconformanceInput, person: Person, actor: Actor, origin: RequestOrigin) {
+export async function raiseNonconformance(
+  dataSource: DataSource,
+  raw: NonconformanceInput,
+  person: Person,
+  actor: Actor,
+  origin: RequestOrigin,
+) {
   const input = nonconformanceInputSchema.parse(raw);
   const id = await inTransaction(dataSource, async (manager) => {
-    const [subject] = await manager.query(`SELECT id FROM ${subjectTables[input.subjectType]} WHERE id = ?`, [input.subjectId]);
-    if (!subject) throw AppError.rule(`No ${input.subjectType} with id ${input.subjectId}`, { subjectId: 'Unknown record' });
+    const [subject] = await manager.query(`SELECT id FROM ${subjectTables[input.subjectType]} WHERE id = ?`, [
+      input.subjectId,
+    ]);
+    if (!subject)
+      throw AppError.rule(`No ${input.subjectType} with id ${input.subjectId}`, { subjectId: 'Unknown record' });
     const nc = await insertNonconformance(manager, {
       subjectType: input.subjectType,
       subjectId: input.subjectId,
@@ -36,21 +56,47 @@ export async function raiseNonconformance(dataSource: DataSource, raw: Nonconfor
       containment: input.containment,
       raisedBy: person.id,
     });
-    await appendLedgerEvent(manager, { actor, action: 'nonconformance.raised', entity: { type: 'nonconformance', id: nc.id }, after: { ncNumber: nc.ncNumber, ...input }, origin });
+    await appendLedgerEvent(manager, {
+      actor,
+      action: 'nonconformance.raised',
+      entity: { type: 'nonconformance', id: nc.id },
+      after: { ncNumber: nc.ncNumber, ...input },
+      origin,
+    });
     return nc.id;
   });
   return nonconformanceDetail(dataSource, id);
 }
 
 /** The QA approver states the disposition before signing it; it can change until it is signed. */
-export async function proposeDisposition(dataSource: DataSource, id: number, raw: DispositionInput, actor: Actor, origin: RequestOrigin) {
+export async function proposeDisposition(
+  dataSource: DataSource,
+  id: number,
+  raw: DispositionInput,
+  actor: Actor,
+  origin: RequestOrigin,
+) {
   const input = dispositionInputSchema.parse(raw);
   await inTransaction(dataSource, async (manager) => {
     const nc = await findNonconformance(manager, id, true);
     if (!nc) throw AppError.notFound('Nonconformance');
-    if (nc.status !== 'open') throw AppError.rule(`${nc.ncNumber} is ${nc.status}; its disposition is signed`, { disposition: 'Already signed' });
-    await manager.query('UPDATE nonconformance SET disposition = ?, disposition_note = ? WHERE id = ?', [input.disposition, input.note, id]);
-    await appendLedgerEvent(manager, { actor, action: 'nonconformance.disposition-proposed', entity: { type: 'nonconformance', id }, before: { disposition: nc.disposition, note: nc.dispositionNote }, after: input, origin });
+    if (nc.status !== 'open')
+      throw AppError.rule(`${nc.ncNumber} is ${nc.status}; its disposition is signed`, {
+        disposition: 'Already signed',
+      });
+    await manager.query('UPDATE nonconformance SET disposition = ?, disposition_note = ? WHERE id = ?', [
+      input.disposition,
+      input.note,
+      id,
+    ]);
+    await appendLedgerEvent(manager, {
+      actor,
+      action: 'nonconformance.disposition-proposed',
+      entity: { type: 'nonconformance', id },
+      before: { disposition: nc.disposition, note: nc.dispositionNote },
+      after: input,
+      origin,
+    });
   });
   return nonconformanceDetail(dataSource, id);
 }
@@ -63,10 +109,16 @@ export async function proposeDisposition(dataSource: DataSource, id: number, raw
 async function rejectScrappedLot(manager: EntityManager, ncId: number, actor: Actor, reason: string | null) {
   const nc = await findNonconformance(manager, ncId);
   if (!nc || nc.disposition !== 'scrap' || nc.subjectType !== 'lot') return;
-  const [lot]: Array<{ status: string }> = await manager.query('SELECT status FROM production_lot WHERE id = ? FOR UPDATE', [nc.subjectId]);
+  const [lot]: Array<{ status: string }> = await manager.query(
+    'SELECT status FROM production_lot WHERE id = ? FOR UPDATE',
+    [nc.subjectId],
+  );
   if (!lot || lot.status === 'released' || lot.status === 'rejected') return;
   await manager.query("UPDATE production_lot SET status = 'rejected' WHERE id = ?", [nc.subjectId]);
-  await manager.query("UPDATE release_submission SET outcome = 'returned', closed_at = ? WHERE lot_id = ? AND outcome = 'pending'", [new Date(), nc.subjectId]);
+  await manager.query(
+    "UPDATE release_submission SET outcome = 'returned', closed_at = ? WHERE lot_id = ? AND outcome = 'pending'",
+    [new Date(), nc.subjectId],
+  );
   await appendLedgerEvent(manager, {
     actor,
     action: 'lot.rejected',
@@ -113,7 +165,10 @@ export const nonconformanceRecordType: SignableRecordType = {
       if (facts.status !== 'open') return `The nonconformance is already ${facts.status}`;
       if (!facts.content.disposition) return 'State the disposition before signing it';
     }
-    if (meaning === 'closed' && facts.status !== 'dispositioned') return facts.status === 'closed' ? 'The nonconformance is already closed' : 'Sign the disposition before closing the nonconformance';
+    if (meaning === 'closed' && facts.status !== 'dispositioned')
+      return facts.status === 'closed'
+        ? 'The nonconformance is already closed'
+        : 'Sign the disposition before closing the nonconformance';
     return null;
   },
   async afterSign(manager, { recordId, meaning, signerId, signerName, reason }) {
@@ -127,6 +182,12 @@ export const nonconformanceRecordType: SignableRecordType = {
       after: { status },
       reason,
     });
-    if (status === 'dispositioned') await rejectScrappedLot(manager, Number(recordId), { id: signerId, name: signerName, role: 'qa-approver' }, reason);
+    if (status === 'dispositioned')
+      await rejectScrappedLot(
+        manager,
+        Number(recordId),
+        { id: signerId, name: signerName, role: 'qa-approver' },
+        reason,
+      );
   },
 };

@@ -17,7 +17,10 @@ const binaryTypes = new Set(['application/pdf', 'image/png', 'image/jpeg']);
  * and plain text when the bytes are valid UTF-8 without control characters and the name says
  * .csv or .txt. Anything else is refused, whatever its name.
  */
-export async function inspectMeasurementFile(bytes: Buffer, originalName: string): Promise<{ mediaType: string; sha256: string; name: string }> {
+export async function inspectMeasurementFile(
+  bytes: Buffer,
+  originalName: string,
+): Promise<{ mediaType: string; sha256: string; name: string }> {
   if (bytes.length === 0) throw new AppError('UNSUPPORTED_MEDIA_TYPE', 'The file is empty', { file: 'Empty file' });
   const name = safeFileName(originalName, 'measurements');
   const detected = await fileTypeFromBuffer(bytes);
@@ -25,21 +28,34 @@ export async function inspectMeasurementFile(bytes: Buffer, originalName: string
   if (!detected && /\.(csv|txt)$/i.test(name)) {
     try {
       const text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
-      if (!/[\u0000-\u0008\u000e-\u001f\u007f]/.test(text)) mediaType = name.toLowerCase().endsWith('.csv') ? 'text/csv' : 'text/plain';
+      if (!/[\u0000-\u0008\u000e-\u001f\u007f]/.test(text))
+        mediaType = name.toLowerCase().endsWith('.csv') ? 'text/csv' : 'text/plain';
     } catch {
       mediaType = null;
     }
   }
   if (!mediaType) {
-    throw new AppError('UNSUPPORTED_MEDIA_TYPE', `The file's content is not a PDF, PNG, JPEG, CSV or text file${detected ? ` (it looks like ${detected.mime})` : ''}, whatever its name says`, {
-      file: 'Attach measurements as PDF, PNG, JPEG, CSV or text',
-    });
+    throw new AppError(
+      'UNSUPPORTED_MEDIA_TYPE',
+      `The file's content is not a PDF, PNG, JPEG, CSV or text file${detected ? ` (it looks like ${detected.mime})` : ''}, whatever its name says`,
+      {
+        file: 'Attach measurements as PDF, PNG, JPEG, CSV or text',
+      },
+    );
   }
   if (mediaType === 'application/pdf') await refusePdfWithActiveContent(bytes, 'file');
   return { mediaType, sha256: createHash('sha256').update(bytes).digest('hex'), name };
 }
 
-export async function attachOperationFile(dataSource: DataSource, lotId: number, operationId: number, file: { bytes: Buffer; originalName: string }, person: Person, actor: Actor, origin: RequestOrigin) {
+export async function attachOperationFile(
+  dataSource: DataSource,
+  lotId: number,
+  operationId: number,
+  file: { bytes: Buffer; originalName: string },
+  person: Person,
+  actor: Actor,
+  origin: RequestOrigin,
+) {
   const inspected = await inspectMeasurementFile(file.bytes, file.originalName);
   return inTransaction(dataSource, async (manager) => {
     const [operation]: Array<{ id: number; step_no: number; name: string }> = await manager.query(
@@ -47,19 +63,31 @@ export async function attachOperationFile(dataSource: DataSource, lotId: number,
       [operationId, lotId],
     );
     if (!operation) throw AppError.notFound('Operation');
-    const document = await storeDocument(manager, { sha256: inspected.sha256, mediaType: inspected.mediaType, bytes: file.bytes, originalName: inspected.name, uploadedBy: person.id });
-    const result: { affectedRows: number } = await manager.query('INSERT IGNORE INTO operation_file (operation_id, document_id, name, attached_by) VALUES (?, ?, ?, ?)', [
-      operationId,
-      document.id,
-      inspected.name,
-      person.id,
-    ]);
-    if (result.affectedRows !== 1) throw new AppError('CONFLICT', 'This file is already attached to the operation', { file: 'Already attached' });
+    const document = await storeDocument(manager, {
+      sha256: inspected.sha256,
+      mediaType: inspected.mediaType,
+      bytes: file.bytes,
+      originalName: inspected.name,
+      uploadedBy: person.id,
+    });
+    const result: { affectedRows: number } = await manager.query(
+      'INSERT IGNORE INTO operation_file (operation_id, document_id, name, attached_by) VALUES (?, ?, ?, ?)',
+      [operationId, document.id, inspected.name, person.id],
+    );
+    if (result.affectedRows !== 1)
+      throw new AppError('CONFLICT', 'This file is already attached to the operation', { file: 'Already attached' });
     await appendLedgerEvent(manager, {
       actor,
       action: 'lot.operation-file-attached',
       entity: { type: 'lot', id: lotId },
-      after: { operationId, step: `${operation.step_no} ${operation.name}`, documentId: document.id, sha256: inspected.sha256, mediaType: inspected.mediaType, name: inspected.name },
+      after: {
+        operationId,
+        step: `${operation.step_no} ${operation.name}`,
+        documentId: document.id,
+        sha256: inspected.sha256,
+        mediaType: inspected.mediaType,
+        name: inspected.name,
+      },
       origin,
     });
     return { documentId: document.id, sha256: inspected.sha256, name: inspected.name, mediaType: inspected.mediaType };

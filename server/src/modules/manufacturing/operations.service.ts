@@ -18,39 +18,94 @@ import { insertNonconformance } from './nonconformances.repository';
 export async function stepReadyFor(manager: EntityManager, lot: LotRow, stepNo: number, qtyIn: number) {
   const part = (await findPart(manager, lot.part_id))!;
   const step = part.routing.find((candidate) => candidate.stepNo === stepNo);
-  if (!step) throw AppError.rule(`Step ${stepNo} is not on the routing of ${part.partNumber} rev ${part.revision}`, { stepNo: 'Not on the routing' });
-  if (stepNo <= lot.resumes_after_step) throw AppError.rule(`Lot ${lot.lot_number} began after step ${lot.resumes_after_step}; step ${stepNo} belongs to its parent lot`, { stepNo: 'Recorded on the parent lot' });
-  const recorded: Array<{ step_no: number }> = await manager.query('SELECT s.step_no FROM lot_operation o JOIN routing_step s ON s.id = o.routing_step_id WHERE o.lot_id = ?', [lot.id]);
+  if (!step)
+    throw AppError.rule(`Step ${stepNo} is not on the routing of ${part.partNumber} rev ${part.revision}`, {
+      stepNo: 'Not on the routing',
+    });
+  if (stepNo <= lot.resumes_after_step)
+    throw AppError.rule(
+      `Lot ${lot.lot_number} began after step ${lot.resumes_after_step}; step ${stepNo} belongs to its parent lot`,
+      { stepNo: 'Recorded on the parent lot' },
+    );
+  const recorded: Array<{ step_no: number }> = await manager.query(
+    'SELECT s.step_no FROM lot_operation o JOIN routing_step s ON s.id = o.routing_step_id WHERE o.lot_id = ?',
+    [lot.id],
+  );
   const done = new Set(recorded.map((row) => row.step_no));
-  if (done.has(stepNo)) throw new AppError('CONFLICT', `Step ${stepNo} ${step.name} is already recorded for lot ${lot.lot_number}`, { stepNo: 'Already recorded' });
-  const missing = part.routing.find((candidate) => candidate.stepNo > lot.resumes_after_step && candidate.stepNo < stepNo && !done.has(candidate.stepNo));
-  if (missing) throw AppError.rule(`Record step ${missing.stepNo} ${missing.name} first; the routing runs in order`, { stepNo: `Step ${missing.stepNo} comes first` });
+  if (done.has(stepNo))
+    throw new AppError('CONFLICT', `Step ${stepNo} ${step.name} is already recorded for lot ${lot.lot_number}`, {
+      stepNo: 'Already recorded',
+    });
+  const missing = part.routing.find(
+    (candidate) =>
+      candidate.stepNo > lot.resumes_after_step && candidate.stepNo < stepNo && !done.has(candidate.stepNo),
+  );
+  if (missing)
+    throw AppError.rule(`Record step ${missing.stepNo} ${missing.name} first; the routing runs in order`, {
+      stepNo: `Step ${missing.stepNo} comes first`,
+    });
   const chain = (await unitChains(manager, [lot.id])).get(lot.id)!;
   const starting = lot.origin === 'bar' && done.size === 0;
   if (starting) {
-    const [issued]: Array<{ net: string | null }> = await manager.query("SELECT SUM(CASE kind WHEN 'issue' THEN length_mm ELSE -length_mm END) AS net FROM material_movement WHERE lot_id = ?", [lot.id]);
-    if (!issued?.net || Number(issued.net) <= 0) throw AppError.rule(`Issue bar to lot ${lot.lot_number} before recording its first operation`, { stepNo: 'No material issued' });
+    const [issued]: Array<{ net: string | null }> = await manager.query(
+      "SELECT SUM(CASE kind WHEN 'issue' THEN length_mm ELSE -length_mm END) AS net FROM material_movement WHERE lot_id = ?",
+      [lot.id],
+    );
+    if (!issued?.net || Number(issued.net) <= 0)
+      throw AppError.rule(`Issue bar to lot ${lot.lot_number} before recording its first operation`, {
+        stepNo: 'No material issued',
+      });
   } else if (qtyIn !== chain.onHand) {
-    throw AppError.rule(`Lot ${lot.lot_number} holds ${chain.onHand} units after its last step; ${qtyIn} cannot enter step ${stepNo}`, { qtyIn: `Expected ${chain.onHand}` });
+    throw AppError.rule(
+      `Lot ${lot.lot_number} holds ${chain.onHand} units after its last step; ${qtyIn} cannot enter step ${stepNo}`,
+      { qtyIn: `Expected ${chain.onHand}` },
+    );
   }
   return { step, part, starting };
 }
 
-export async function recordOperation(dataSource: DataSource, lotId: number, raw: OperationInput, person: Person, actor: Actor, origin: RequestOrigin) {
+export async function recordOperation(
+  dataSource: DataSource,
+  lotId: number,
+  raw: OperationInput,
+  person: Person,
+  actor: Actor,
+  origin: RequestOrigin,
+) {
   const input = operationInputSchema.parse(raw);
   return inTransaction(dataSource, async (manager) => {
     const lot = await findLotRow(manager, lotId, true);
     if (!lot) throw AppError.notFound('Lot');
-    if (lot.status !== 'open') throw AppError.rule(`Lot ${lot.lot_number} is ${lot.status}; its record can no longer change`, { lot: lot.status });
+    if (lot.status !== 'open')
+      throw AppError.rule(`Lot ${lot.lot_number} is ${lot.status}; its record can no longer change`, {
+        lot: lot.status,
+      });
     const { step, starting } = await stepReadyFor(manager, lot, input.stepNo, input.qtyIn);
-    if (step.kind === 'passivation' || step.kind === 'cleaning') throw AppError.rule(`Step ${step.stepNo} ${step.name} is recorded through a ${step.kind} run`, { stepNo: `Record a ${step.kind} run` });
+    if (step.kind === 'passivation' || step.kind === 'cleaning')
+      throw AppError.rule(`Step ${step.stepNo} ${step.name} is recorded through a ${step.kind} run`, {
+        stepNo: `Record a ${step.kind} run`,
+      });
     let verdict: { verdict: 'accept' | 'reject'; why: string } | null = null;
     if (step.kind === 'inspection') {
-      if (input.inspected === null || input.defectsFound === null) throw new AppError('VALIDATION_FAILED', 'An inspection records the units inspected and the defects found', { inspected: 'Required for an inspection' });
+      if (input.inspected === null || input.defectsFound === null)
+        throw new AppError('VALIDATION_FAILED', 'An inspection records the units inspected and the defects found', {
+          inspected: 'Required for an inspection',
+        });
       const required = Math.min(step.sampleSize!, input.qtyIn);
-      if (input.inspected < required) throw new AppError('VALIDATION_FAILED', `The plan needs ${required} units inspected`, { inspected: `At least ${required}` });
-      if (input.defectsFound > input.inspected) throw new AppError('VALIDATION_FAILED', 'More defects than units inspected', { defectsFound: `At most ${input.inspected}` });
-      verdict = inspectionVerdict({ sampleSize: step.sampleSize!, acceptNumber: step.acceptNumber!, rejectNumber: step.rejectNumber! }, input.qtyIn, input.inspected, input.defectsFound);
+      if (input.inspected < required)
+        throw new AppError('VALIDATION_FAILED', `The plan needs ${required} units inspected`, {
+          inspected: `At least ${required}`,
+        });
+      if (input.defectsFound > input.inspected)
+        throw new AppError('VALIDATION_FAILED', 'More defects than units inspected', {
+          defectsFound: `At most ${input.inspected}`,
+        });
+      verdict = inspectionVerdict(
+        { sampleSize: step.sampleSize!, acceptNumber: step.acceptNumber!, rejectNumber: step.rejectNumber! },
+        input.qtyIn,
+        input.inspected,
+        input.defectsFound,
+      );
     }
     const result: { insertId: number } = await manager.query(
       `INSERT INTO lot_operation (lot_id, routing_step_id, operator_name, work_centre, program_revision, started_at, ended_at, qty_in, qty_good, qty_scrap, scrap_reasons,
@@ -77,7 +132,13 @@ export async function recordOperation(dataSource: DataSource, lotId: number, raw
     );
     if (starting) await manager.query('UPDATE production_lot SET start_qty = ? WHERE id = ?', [input.qtyIn, lotId]);
     const id = Number(result.insertId);
-    await appendLedgerEvent(manager, { actor, action: 'lot.operation-recorded', entity: { type: 'lot', id: lotId }, after: { operationId: id, step: `${step.stepNo} ${step.name}`, ...input, verdict: verdict?.verdict ?? null }, origin });
+    await appendLedgerEvent(manager, {
+      actor,
+      action: 'lot.operation-recorded',
+      entity: { type: 'lot', id: lotId },
+      after: { operationId: id, step: `${step.stepNo} ${step.name}`, ...input, verdict: verdict?.verdict ?? null },
+      origin,
+    });
     if (verdict?.verdict === 'reject') {
       const nc = await insertNonconformance(manager, {
         subjectType: 'lot',
@@ -89,7 +150,13 @@ export async function recordOperation(dataSource: DataSource, lotId: number, raw
         containment: 'Lot held at inspection pending disposition',
         raisedBy: person.id,
       });
-      await appendLedgerEvent(manager, { actor, action: 'nonconformance.raised', entity: { type: 'nonconformance', id: nc.id }, after: { ncNumber: nc.ncNumber, lot: lot.lot_number, cause: 'inspection rejected' }, origin });
+      await appendLedgerEvent(manager, {
+        actor,
+        action: 'nonconformance.raised',
+        entity: { type: 'nonconformance', id: nc.id },
+        after: { ncNumber: nc.ncNumber, lot: lot.lot_number, cause: 'inspection rejected' },
+        origin,
+      });
     }
     return { id, verdict: verdict?.verdict ?? null, why: verdict?.why ?? null };
   });

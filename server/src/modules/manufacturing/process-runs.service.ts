@@ -67,23 +67,35 @@ export async function listProcessRuns(dataSource: DataSource, query: ProcessRunL
     parameters.push(pattern, pattern);
   }
   const clause = where.length ? `WHERE ${where.join(' AND ')}` : '';
-  const [count]: Array<{ total: string }> = await dataSource.query(`SELECT COUNT(*) AS total FROM process_run r ${clause}`, parameters);
-  const rows: RunRow[] = await dataSource.query(`${runSelect} ${clause} ORDER BY r.run_at DESC, r.id DESC LIMIT ? OFFSET ?`, [...parameters, query.pageSize, (query.page - 1) * query.pageSize]);
+  const [count]: Array<{ total: string }> = await dataSource.query(
+    `SELECT COUNT(*) AS total FROM process_run r ${clause}`,
+    parameters,
+  );
+  const rows: RunRow[] = await dataSource.query(
+    `${runSelect} ${clause} ORDER BY r.run_at DESC, r.id DESC LIMIT ? OFFSET ?`,
+    [...parameters, query.pageSize, (query.page - 1) * query.pageSize],
+  );
   return { items: rows.map(toSummary), total: Number(count?.total ?? 0), page: query.page, pageSize: query.pageSize };
 }
 
 export async function processRunDetail(dataSource: DataSource, id: number): Promise<ProcessRunDetail> {
   const [row]: RunRow[] = await dataSource.query(`${runSelect} WHERE r.id = ?`, [id]);
   if (!row) throw AppError.notFound('Process run');
-  const lots: Array<{ lot_id: number; lot_number: string; part_number: string; qty_in: number }> = await dataSource.query(
-    'SELECT o.lot_id, l.lot_number, p.part_number, o.qty_in FROM lot_operation o JOIN production_lot l ON l.id = o.lot_id JOIN part p ON p.id = l.part_id WHERE o.process_run_id = ? ORDER BY l.lot_number',
-    [id],
-  );
+  const lots: Array<{ lot_id: number; lot_number: string; part_number: string; qty_in: number }> =
+    await dataSource.query(
+      'SELECT o.lot_id, l.lot_number, p.part_number, o.qty_in FROM lot_operation o JOIN production_lot l ON l.id = o.lot_id JOIN part p ON p.id = l.part_id WHERE o.process_run_id = ? ORDER BY l.lot_number',
+      [id],
+    );
   return {
     ...toSummary(row),
     parameters: JSON.parse(row.parameters_json) as Record<string, string>,
     windowCheck: JSON.parse(row.window_check_json) as WindowCheck,
-    lotsInRun: lots.map((lot) => ({ lotId: lot.lot_id, lotNumber: lot.lot_number, partNumber: lot.part_number, qty: lot.qty_in })),
+    lotsInRun: lots.map((lot) => ({
+      lotId: lot.lot_id,
+      lotNumber: lot.lot_number,
+      partNumber: lot.part_number,
+      qty: lot.qty_in,
+    })),
     nonconformances: await nonconformancesWhere(dataSource.manager, 'n.process_run_id = ?', [id]),
   };
 }
@@ -94,21 +106,42 @@ export async function processRunDetail(dataSource: DataSource, id: number): Prom
  * lot with the units it holds. A run outside its method's window raises a nonconformance on every
  * lot in it, in the same transaction.
  */
-export async function recordProcessRun(dataSource: DataSource, raw: ProcessRunInput, person: Person, actor: Actor, origin: RequestOrigin): Promise<ProcessRunDetail> {
+export async function recordProcessRun(
+  dataSource: DataSource,
+  raw: ProcessRunInput,
+  person: Person,
+  actor: Actor,
+  origin: RequestOrigin,
+): Promise<ProcessRunDetail> {
   const input = processRunInputSchema.parse(raw);
   const method = processMethod(input.methodId);
   if (!method) throw AppError.rule(`Unknown process method ${input.methodId}`, { methodId: 'Not a known method' });
-  if (method.kind !== input.kind) throw AppError.rule(`${method.id} is a ${method.kind} method`, { methodId: `Choose a ${input.kind} method` });
+  if (method.kind !== input.kind)
+    throw AppError.rule(`${method.id} is a ${method.kind} method`, { methodId: `Choose a ${input.kind} method` });
   const missing = checkRunWindow(method, input.parameters).missing;
   if (missing.length) {
-    const fields = Object.fromEntries(missing.map((key) => [`parameters.${key}`, `Record the ${method.parameters.find((parameter) => parameter.key === key)?.label.toLowerCase() ?? key}`]));
+    const fields = Object.fromEntries(
+      missing.map((key) => [
+        `parameters.${key}`,
+        `Record the ${method.parameters.find((parameter) => parameter.key === key)?.label.toLowerCase() ?? key}`,
+      ]),
+    );
     throw new AppError('VALIDATION_FAILED', 'Some of the method’s parameters are missing', fields);
   }
-  const unknown = Object.keys(input.parameters).filter((key) => !method.parameters.some((parameter) => parameter.key === key));
-  if (unknown.length) throw new AppError('VALIDATION_FAILED', `${method.id} records no ${unknown.join(', ')}`, Object.fromEntries(unknown.map((key) => [`parameters.${key}`, 'Not a parameter of this method'])));
-  if (new Set(input.lotIds).size !== input.lotIds.length) throw new AppError('VALIDATION_FAILED', 'A lot is named twice', { lotIds: 'Name each lot once' });
+  const unknown = Object.keys(input.parameters).filter(
+    (key) => !method.parameters.some((parameter) => parameter.key === key),
+  );
+  if (unknown.length)
+    throw new AppError(
+      'VALIDATION_FAILED',
+      `${method.id} records no ${unknown.join(', ')}`,
+      Object.fromEntries(unknown.map((key) => [`parameters.${key}`, 'Not a parameter of this method'])),
+    );
+  if (new Set(input.lotIds).size !== input.lotIds.length)
+    throw new AppError('VALIDATION_FAILED', 'A lot is named twice', { lotIds: 'Name each lot once' });
   const runAt = new Date(input.runAt);
-  if (runAt.getTime() > Date.now() + 5 * 60_000) throw new AppError('VALIDATION_FAILED', 'The run is in the future', { runAt: 'Not in the future' });
+  if (runAt.getTime() > Date.now() + 5 * 60_000)
+    throw new AppError('VALIDATION_FAILED', 'The run is in the future', { runAt: 'Not in the future' });
 
   const id = await inTransaction(dataSource, async (manager) => {
     // Every lot is checked before anything is written: its due step, its material against the
@@ -119,21 +152,35 @@ export async function recordProcessRun(dataSource: DataSource, raw: ProcessRunIn
     for (const lotId of input.lotIds) {
       const lot = await findLotRow(manager, lotId, true);
       if (!lot) throw AppError.rule(`Lot ${lotId} does not exist`, { lotIds: 'Unknown lot' });
-      if (lot.status !== 'open') throw AppError.rule(`Lot ${lot.lot_number} is ${lot.status}`, { lotIds: `${lot.lot_number} is ${lot.status}` });
+      if (lot.status !== 'open')
+        throw AppError.rule(`Lot ${lot.lot_number} is ${lot.status}`, { lotIds: `${lot.lot_number} is ${lot.status}` });
       const part = (await findPart(manager, lot.part_id))!;
-      const recorded: Array<{ step_no: number }> = await manager.query('SELECT s.step_no FROM lot_operation o JOIN routing_step s ON s.id = o.routing_step_id WHERE o.lot_id = ?', [lotId]);
+      const recorded: Array<{ step_no: number }> = await manager.query(
+        'SELECT s.step_no FROM lot_operation o JOIN routing_step s ON s.id = o.routing_step_id WHERE o.lot_id = ?',
+        [lotId],
+      );
       const done = new Set(recorded.map((row) => row.step_no));
       const next = part.routing.find((step) => step.stepNo > lot.resumes_after_step && !done.has(step.stepNo));
       if (!next || next.kind !== input.kind) {
-        throw AppError.rule(`Lot ${lot.lot_number} is not due for ${input.kind}: its next step is ${next ? `${next.stepNo} ${next.name}` : 'none (routing complete)'}`, { lotIds: `${lot.lot_number} not due` });
+        throw AppError.rule(
+          `Lot ${lot.lot_number} is not due for ${input.kind}: its next step is ${next ? `${next.stepNo} ${next.name}` : 'none (routing complete)'}`,
+          { lotIds: `${lot.lot_number} not due` },
+        );
       }
       if (next.processMethod && next.processMethod !== method.id) {
-        throw AppError.rule(`Lot ${lot.lot_number}'s routing calls for ${next.processMethod}, not ${method.id}`, { lotIds: `${lot.lot_number} needs ${next.processMethod}` });
+        throw AppError.rule(`Lot ${lot.lot_number}'s routing calls for ${next.processMethod}, not ${method.id}`, {
+          lotIds: `${lot.lot_number} needs ${next.processMethod}`,
+        });
       }
-      const outOfScope = scopeProblem(method, part.specifications.map((allowed) => allowed.specId), `Lot ${lot.lot_number}`);
+      const outOfScope = scopeProblem(
+        method,
+        part.specifications.map((allowed) => allowed.specId),
+        `Lot ${lot.lot_number}`,
+      );
       if (outOfScope) throw AppError.rule(outOfScope, { lotIds: `${lot.lot_number} is outside ${method.id}'s scope` });
       const chain = (await unitChains(manager, [lotId])).get(lotId)!;
-      if (chain.onHand < 1) throw AppError.rule(`Lot ${lot.lot_number} holds no units`, { lotIds: `${lot.lot_number} is empty` });
+      if (chain.onHand < 1)
+        throw AppError.rule(`Lot ${lot.lot_number} holds no units`, { lotIds: `${lot.lot_number} is empty` });
       categories.add(part.contactCategory);
       due.push({ lotId, lotNumber: lot.lot_number, stepId: next.id, onHand: chain.onHand });
     }
@@ -143,17 +190,41 @@ export async function recordProcessRun(dataSource: DataSource, raw: ProcessRunIn
     const runNumber = `${prefix}${String(await nextSequence(manager, 'process_run', prefix)).padStart(4, '0')}`;
     const result: { insertId: number } = await manager.query(
       'INSERT INTO process_run (run_number, kind, method_id, equipment, parameters_json, window_check_json, in_window, operator_name, run_at, recorded_by) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)',
-      [runNumber, input.kind, method.id, input.equipment, JSON.stringify(input.parameters), JSON.stringify(check), check.inWindow ? 1 : 0, input.operatorName, runAt, person.id],
+      [
+        runNumber,
+        input.kind,
+        method.id,
+        input.equipment,
+        JSON.stringify(input.parameters),
+        JSON.stringify(check),
+        check.inWindow ? 1 : 0,
+        input.operatorName,
+        runAt,
+        person.id,
+      ],
     );
     const runId = Number(result.insertId);
     for (const lot of due) {
       await manager.query(
         `INSERT INTO lot_operation (lot_id, routing_step_id, operator_name, work_centre, started_at, ended_at, qty_in, qty_good, qty_scrap, scrap_reasons, process_run_id, recorded_by)
          VALUES (?, ?, ?, ?, ?, ?, ?, ?, 0, '[]', ?, ?)`,
-        [lot.lotId, lot.stepId, input.operatorName, input.equipment, runAt, runAt, lot.onHand, lot.onHand, runId, person.id],
+        [
+          lot.lotId,
+          lot.stepId,
+          input.operatorName,
+          input.equipment,
+          runAt,
+          runAt,
+          lot.onHand,
+          lot.onHand,
+          runId,
+          person.id,
+        ],
       );
       if (!check.inWindow) {
-        const outside = check.items.filter((item) => item.verdict === 'out-of-window').map((item) => `${item.label}: ${item.why}`);
+        const outside = check.items
+          .filter((item) => item.verdict === 'out-of-window')
+          .map((item) => `${item.label}: ${item.why}`);
         const nc = await insertNonconformance(manager, {
           subjectType: 'lot',
           subjectId: lot.lotId,
@@ -165,11 +236,23 @@ export async function recordProcessRun(dataSource: DataSource, raw: ProcessRunIn
           raisedBy: person.id,
           raisedAt: runAt,
         });
-        await appendLedgerEvent(manager, { actor, action: 'nonconformance.raised', entity: { type: 'nonconformance', id: nc.id }, after: { ncNumber: nc.ncNumber, lot: lot.lotNumber, run: runNumber, cause: 'run outside its window' }, origin });
+        await appendLedgerEvent(manager, {
+          actor,
+          action: 'nonconformance.raised',
+          entity: { type: 'nonconformance', id: nc.id },
+          after: { ncNumber: nc.ncNumber, lot: lot.lotNumber, run: runNumber, cause: 'run outside its window' },
+          origin,
+        });
       }
     }
     const lotNumbers = due.map((lot) => lot.lotNumber);
-    await appendLedgerEvent(manager, { actor, action: 'process-run.recorded', entity: { type: 'process-run', id: runId }, after: { runNumber, method: method.id, parameters: input.parameters, inWindow: check.inWindow, lots: lotNumbers }, origin });
+    await appendLedgerEvent(manager, {
+      actor,
+      action: 'process-run.recorded',
+      entity: { type: 'process-run', id: runId },
+      after: { runNumber, method: method.id, parameters: input.parameters, inWindow: check.inWindow, lots: lotNumbers },
+      origin,
+    });
     return runId;
   });
   return processRunDetail(dataSource, id);

@@ -34,14 +34,21 @@ function toPiece(row: PieceRow): BarPiece {
   return {
     id: row.id,
     tag: row.tag,
-    heat: { id: row.heat_id, heatNumber: row.heat_number, status: row.heat_status, specId: row.spec_id, grade: row.grade },
+    heat: {
+      id: row.heat_id,
+      heatNumber: row.heat_number,
+      status: row.heat_status,
+      specId: row.spec_id,
+      grade: row.grade,
+    },
     markedHeatNumber: row.marked_heat_number,
     parentTag: row.parent_tag,
     childTags: row.child_tags ? row.child_tags.split(',') : [],
     diameterMm: row.diameter_mm,
     lengthMm: row.length_mm,
     // Issues to production lots (less what came back) reduce it; a cut piece lives on in its children.
-    remainingMm: row.status === 'cut' ? '0.00' : new DecimalE29(row.length_mm).minus(row.net_issued_mm ?? '0').toFixed(2),
+    remainingMm:
+      row.status === 'cut' ? '0.00' : new DecimalE29(row.length_mm).minus(row.net_issued_mm ?? '0').toFixed(2),
     massKg: row.mass_kg,
     location: row.location,
     status: row.status,
@@ -61,7 +68,10 @@ export async function findPieceByTag(manager: EntityManager, tag: string): Promi
   return row ? toPiece(row) : null;
 }
 
-export async function listPieces(manager: EntityManager, query: BarListQuery): Promise<{ items: BarPiece[]; total: number }> {
+export async function listPieces(
+  manager: EntityManager,
+  query: BarListQuery,
+): Promise<{ items: BarPiece[]; total: number }> {
   const where: string[] = [];
   const parameters: unknown[] = [];
   if (query.heatId) {
@@ -73,20 +83,49 @@ export async function listPieces(manager: EntityManager, query: BarListQuery): P
     const pattern = `%${query.search.replace(/[\\%_]/g, (character) => `\\${character}`)}%`;
     parameters.push(pattern, pattern, pattern);
   }
-  if (query.inStockOnly === 'true') where.push("b.status = 'in-stock' AND b.length_mm > COALESCE((SELECT SUM(CASE m.kind WHEN 'issue' THEN m.length_mm ELSE -m.length_mm END) FROM material_movement m WHERE m.bar_piece_id = b.id), 0)");
+  if (query.inStockOnly === 'true')
+    where.push(
+      "b.status = 'in-stock' AND b.length_mm > COALESCE((SELECT SUM(CASE m.kind WHEN 'issue' THEN m.length_mm ELSE -m.length_mm END) FROM material_movement m WHERE m.bar_piece_id = b.id), 0)",
+    );
   const clause = where.length ? `WHERE ${where.join(' AND ')}` : '';
-  const [count]: Array<{ total: string }> = await manager.query(`SELECT COUNT(*) AS total FROM bar_piece b JOIN heat h ON h.id = b.heat_id ${clause}`, parameters);
-  const rows: PieceRow[] = await manager.query(`${pieceSelect} ${clause} ORDER BY b.created_at DESC, b.tag LIMIT ? OFFSET ?`, [...parameters, query.pageSize, (query.page - 1) * query.pageSize]);
+  const [count]: Array<{ total: string }> = await manager.query(
+    `SELECT COUNT(*) AS total FROM bar_piece b JOIN heat h ON h.id = b.heat_id ${clause}`,
+    parameters,
+  );
+  const rows: PieceRow[] = await manager.query(
+    `${pieceSelect} ${clause} ORDER BY b.created_at DESC, b.tag LIMIT ? OFFSET ?`,
+    [...parameters, query.pageSize, (query.page - 1) * query.pageSize],
+  );
   return { items: rows.map(toPiece), total: Number(count?.total ?? 0) };
 }
 
 export async function insertPiece(
   manager: EntityManager,
-  piece: { tag: string; heatId: number; markedHeatNumber: string | null; parentId: number | null; diameterMm: string; lengthMm: string; massKg: string | null; location: string; createdBy: number },
+  piece: {
+    tag: string;
+    heatId: number;
+    markedHeatNumber: string | null;
+    parentId: number | null;
+    diameterMm: string;
+    lengthMm: string;
+    massKg: string | null;
+    location: string;
+    createdBy: number;
+  },
 ): Promise<number> {
   const result: { insertId: number } = await manager.query(
     'INSERT INTO bar_piece (tag, heat_id, marked_heat_number, parent_id, diameter_mm, length_mm, mass_kg, location, created_by) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)',
-    [piece.tag, piece.heatId, piece.markedHeatNumber, piece.parentId, piece.diameterMm, piece.lengthMm, piece.massKg, piece.location, piece.createdBy],
+    [
+      piece.tag,
+      piece.heatId,
+      piece.markedHeatNumber,
+      piece.parentId,
+      piece.diameterMm,
+      piece.lengthMm,
+      piece.massKg,
+      piece.location,
+      piece.createdBy,
+    ],
   );
   return Number(result.insertId);
 }

@@ -13,7 +13,10 @@ import { findHeat } from './heats.repository';
 
 /** Child tags: the parent's tag with -A, -B, … (then -AA, -AB … past Z). */
 export function childTag(parentTag: string, index: number): string {
-  const letters = index < 26 ? String.fromCharCode(65 + index) : `${String.fromCharCode(65 + Math.floor(index / 26) - 1)}${String.fromCharCode(65 + (index % 26))}`;
+  const letters =
+    index < 26
+      ? String.fromCharCode(65 + index)
+      : `${String.fromCharCode(65 + Math.floor(index / 26) - 1)}${String.fromCharCode(65 + (index % 26))}`;
   return `${parentTag}-${letters}`;
 }
 
@@ -28,7 +31,13 @@ export async function barPiece(dataSource: DataSource, id: number): Promise<BarP
   return piece;
 }
 
-export async function receiveBar(dataSource: DataSource, raw: BarReceipt, person: Person, actor: Actor, origin: RequestOrigin): Promise<BarPiece> {
+export async function receiveBar(
+  dataSource: DataSource,
+  raw: BarReceipt,
+  person: Person,
+  actor: Actor,
+  origin: RequestOrigin,
+): Promise<BarPiece> {
   const input = barReceiptSchema.parse(raw);
   let mismatch: { heatId: number; heatNumber: string; problem: string } | null = null;
   try {
@@ -36,16 +45,28 @@ export async function receiveBar(dataSource: DataSource, raw: BarReceipt, person
       mismatch = null;
       const heat = await findHeat(manager, input.heatId, true);
       if (!heat) throw AppError.rule('Choose a received heat', { heatId: 'Unknown heat' });
-      if (heat.status === 'rejected') throw AppError.rule(`Heat ${heat.heatNumber} is rejected; its bar cannot be taken into stock`, { heatId: 'Rejected heat' });
+      if (heat.status === 'rejected')
+        throw AppError.rule(`Heat ${heat.heatNumber} is rejected; its bar cannot be taken into stock`, {
+          heatId: 'Rejected heat',
+        });
       const marking = compareHeatMarking(input.markedHeatNumber, heat.heatNumber);
       if (!marking.matches) {
         mismatch = { heatId: heat.id, heatNumber: heat.heatNumber, problem: marking.problem! };
-        throw AppError.rule(`${marking.problem}. The bar was not taken into stock; set it aside and ask QA.`, { markedHeatNumber: `Does not match heat ${heat.heatNumber}` });
+        throw AppError.rule(`${marking.problem}. The bar was not taken into stock; set it aside and ask QA.`, {
+          markedHeatNumber: `Does not match heat ${heat.heatNumber}`,
+        });
       }
-      if (await bars.findPieceByTag(manager, input.tag)) throw new AppError('CONFLICT', `Tag ${input.tag} is already in use`, { tag: 'Already in use' });
+      if (await bars.findPieceByTag(manager, input.tag))
+        throw new AppError('CONFLICT', `Tag ${input.tag} is already in use`, { tag: 'Already in use' });
       const id = await bars.insertPiece(manager, { ...input, parentId: null, createdBy: person.id });
       const piece = (await bars.findPiece(manager, id))!;
-      await appendLedgerEvent(manager, { actor, action: 'bar.received', entity: { type: 'bar-piece', id: piece.tag }, after: piece, origin });
+      await appendLedgerEvent(manager, {
+        actor,
+        action: 'bar.received',
+        entity: { type: 'bar-piece', id: piece.tag },
+        after: piece,
+        origin,
+      });
       return piece;
     });
   } catch (error) {
@@ -58,7 +79,12 @@ export async function receiveBar(dataSource: DataSource, raw: BarReceipt, person
           actor,
           action: 'bar.heat-marking-mismatch',
           entity: { type: 'heat', id: refused.heatId },
-          after: { tag: input.tag, markedHeatNumber: input.markedHeatNumber, heatNumber: refused.heatNumber, problem: refused.problem },
+          after: {
+            tag: input.tag,
+            markedHeatNumber: input.markedHeatNumber,
+            heatNumber: refused.heatNumber,
+            problem: refused.problem,
+          },
           origin,
         }),
       );
@@ -68,20 +94,49 @@ export async function receiveBar(dataSource: DataSource, raw: BarReceipt, person
 }
 
 /** Cuts a piece into child pieces; the children and the kerf must account for the whole piece. */
-export async function cutBar(dataSource: DataSource, pieceId: number, raw: BarCut, kerfAllowanceMm: string, person: Person, actor: Actor, origin: RequestOrigin): Promise<BarPiece[]> {
+export async function cutBar(
+  dataSource: DataSource,
+  pieceId: number,
+  raw: BarCut,
+  kerfAllowanceMm: string,
+  person: Person,
+  actor: Actor,
+  origin: RequestOrigin,
+): Promise<BarPiece[]> {
   const input = barCutSchema.parse(raw);
   return inTransaction(dataSource, async (manager) => {
     const parent = await bars.findPiece(manager, pieceId, true);
     if (!parent) throw AppError.notFound('Bar piece');
-    if (parent.status !== 'in-stock') throw AppError.rule(`Piece ${parent.tag} was already cut`, { pieces: 'Already cut' });
-    const check = checkCut(parent.remainingMm, input.pieces.map((piece) => piece.lengthMm), kerfAllowanceMm);
-    if (!check.ok) throw AppError.rule(check.reason ?? 'The cut does not account for the bar', { pieces: check.reason ?? 'Check the lengths' });
+    if (parent.status !== 'in-stock')
+      throw AppError.rule(`Piece ${parent.tag} was already cut`, { pieces: 'Already cut' });
+    const check = checkCut(
+      parent.remainingMm,
+      input.pieces.map((piece) => piece.lengthMm),
+      kerfAllowanceMm,
+    );
+    if (!check.ok)
+      throw AppError.rule(check.reason ?? 'The cut does not account for the bar', {
+        pieces: check.reason ?? 'Check the lengths',
+      });
     const children: BarPiece[] = [];
     for (const [index, piece] of input.pieces.entries()) {
       const tag = childTag(parent.tag, index);
-      if (await bars.findPieceByTag(manager, tag)) throw new AppError('CONFLICT', `Tag ${tag} is already in use`, { pieces: `Tag ${tag} exists` });
-      const share = parent.massKg ? new DecimalE29(parent.massKg).times(piece.lengthMm).div(parent.lengthMm).toDecimalPlaces(3).toFixed(3) : null;
-      const id = await bars.insertPiece(manager, { tag, heatId: parent.heat.id, markedHeatNumber: parent.markedHeatNumber, parentId: parent.id, diameterMm: parent.diameterMm, lengthMm: piece.lengthMm, massKg: share, location: piece.location || parent.location, createdBy: person.id });
+      if (await bars.findPieceByTag(manager, tag))
+        throw new AppError('CONFLICT', `Tag ${tag} is already in use`, { pieces: `Tag ${tag} exists` });
+      const share = parent.massKg
+        ? new DecimalE29(parent.massKg).times(piece.lengthMm).div(parent.lengthMm).toDecimalPlaces(3).toFixed(3)
+        : null;
+      const id = await bars.insertPiece(manager, {
+        tag,
+        heatId: parent.heat.id,
+        markedHeatNumber: parent.markedHeatNumber,
+        parentId: parent.id,
+        diameterMm: parent.diameterMm,
+        lengthMm: piece.lengthMm,
+        massKg: share,
+        location: piece.location || parent.location,
+        createdBy: person.id,
+      });
       children.push((await bars.findPiece(manager, id))!);
     }
     await bars.markCut(manager, parent.id);
@@ -90,7 +145,11 @@ export async function cutBar(dataSource: DataSource, pieceId: number, raw: BarCu
       action: 'bar.cut',
       entity: { type: 'bar-piece', id: parent.tag },
       before: { tag: parent.tag, lengthMm: parent.lengthMm, status: parent.status },
-      after: { children: children.map((child) => ({ tag: child.tag, lengthMm: child.lengthMm })), kerfLossMm: check.lossMm, allowedLossMm: check.allowedLossMm },
+      after: {
+        children: children.map((child) => ({ tag: child.tag, lengthMm: child.lengthMm })),
+        kerfLossMm: check.lossMm,
+        allowedLossMm: check.allowedLossMm,
+      },
       origin,
     });
     return children;

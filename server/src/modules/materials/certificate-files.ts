@@ -12,13 +12,21 @@ const accepted = new Map([
 ]);
 
 /** Decides a certificate file's type from its bytes (never its name), refuses PDFs with active content, and hashes it. */
-export async function inspectCertificateFile(bytes: Buffer, originalName: string): Promise<{ mediaType: string; sha256: string; name: string }> {
-  if (bytes.length === 0) throw new AppError('UNSUPPORTED_MEDIA_TYPE', 'The file is empty', { certificate: 'Empty file' });
+export async function inspectCertificateFile(
+  bytes: Buffer,
+  originalName: string,
+): Promise<{ mediaType: string; sha256: string; name: string }> {
+  if (bytes.length === 0)
+    throw new AppError('UNSUPPORTED_MEDIA_TYPE', 'The file is empty', { certificate: 'Empty file' });
   const detected = await fileTypeFromBuffer(bytes);
   if (!detected || !accepted.has(detected.mime)) {
-    throw new AppError('UNSUPPORTED_MEDIA_TYPE', `The file's content is not a PDF, PNG or JPEG${detected ? ` (it looks like ${detected.mime})` : ''}, whatever its name says`, {
-      certificate: 'Upload the certificate as PDF, PNG or JPEG',
-    });
+    throw new AppError(
+      'UNSUPPORTED_MEDIA_TYPE',
+      `The file's content is not a PDF, PNG or JPEG${detected ? ` (it looks like ${detected.mime})` : ''}, whatever its name says`,
+      {
+        certificate: 'Upload the certificate as PDF, PNG or JPEG',
+      },
+    );
   }
   if (detected.mime === 'application/pdf') await refusePdfWithActiveContent(bytes, 'certificate');
   const name = safeFileName(originalName, 'certificate');

@@ -2,11 +2,20 @@
 // specification screened with the pure functions in shared/, the findings that involve the heat,
 // and reviewers' acknowledgements of them (which acceptance of the heat waits for).
 import type { DataSource, EntityManager } from 'typeorm';
-import { screenSupplierHistory, type PropertyLimits, type ScreenedHeat } from '@shared/domain/materials/certificate-screening';
+import {
+  screenSupplierHistory,
+  type PropertyLimits,
+  type ScreenedHeat,
+} from '@shared/domain/materials/certificate-screening';
 import { readChemistryValue, ReportedValueError } from '@shared/domain/materials/reported-value';
 import { conditionOf, type Specification } from '@shared/domain/materials/specification';
 import type { Person } from '@shared/schemas/people';
-import { screeningAcknowledgementSchema, type HeatScreening, type ScreeningAcknowledgementInput, type SupplierScreening } from '@shared/schemas/screening';
+import {
+  screeningAcknowledgementSchema,
+  type HeatScreening,
+  type ScreeningAcknowledgementInput,
+  type SupplierScreening,
+} from '@shared/schemas/screening';
 import { AppError } from '../../errors';
 import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
@@ -23,7 +32,12 @@ interface HistoryRow {
 }
 
 /** Every heat of a supplier, specification and grade, with its reported values and document hashes. */
-async function supplierHistory(manager: EntityManager, supplierId: number, specId: string, grade: string | null): Promise<ScreenedHeat[]> {
+async function supplierHistory(
+  manager: EntityManager,
+  supplierId: number,
+  specId: string,
+  grade: string | null,
+): Promise<ScreenedHeat[]> {
   const rows: HistoryRow[] = await manager.query(
     `SELECT h.id, h.heat_number, h.received_at, r.kind, r.item, r.as_reported
        FROM heat h LEFT JOIN heat_result r ON r.heat_id = h.id
@@ -38,7 +52,13 @@ async function supplierHistory(manager: EntityManager, supplierId: number, specI
   );
   const byId = new Map<number, ScreenedHeat>();
   for (const row of rows) {
-    const heat = byId.get(row.id) ?? { heatId: row.id, heatNumber: row.heat_number, receivedAt: new Date(row.received_at).toISOString(), values: {}, documentHashes: [] };
+    const heat = byId.get(row.id) ?? {
+      heatId: row.id,
+      heatNumber: row.heat_number,
+      receivedAt: new Date(row.received_at).toISOString(),
+      values: {},
+      documentHashes: [],
+    };
     byId.set(row.id, heat);
     if (row.item && row.as_reported !== null) heat.values[row.item] = comparableValue(row.kind!, row.as_reported);
   }
@@ -58,12 +78,24 @@ function comparableValue(kind: 'chemistry' | 'mechanical', asReported: string): 
 }
 
 /** The limits of a grade: chemistry, and the mechanical minimums of the set for the heat's form and condition. */
-export function limitsOf(specification: Specification | null, grade: string | null, form: string, condition: string): Record<string, PropertyLimits> {
+export function limitsOf(
+  specification: Specification | null,
+  grade: string | null,
+  form: string,
+  condition: string,
+): Record<string, PropertyLimits> {
   const limits: Record<string, PropertyLimits> = {};
   const chosen = specification?.grades.find((candidate) => candidate.grade === grade) ?? specification?.grades[0];
   if (!chosen) return limits;
-  for (const element of chosen.chemistry) limits[element.element] = { ...(element.min ? { min: element.min } : {}), ...(element.max ? { max: element.max } : {}) };
-  const set = chosen.mechanical.find((candidate) => candidate.forms.includes(form as never) && conditionOf(candidate.condition) === conditionOf(condition));
+  for (const element of chosen.chemistry)
+    limits[element.element] = {
+      ...(element.min ? { min: element.min } : {}),
+      ...(element.max ? { max: element.max } : {}),
+    };
+  const set = chosen.mechanical.find(
+    (candidate) =>
+      candidate.forms.includes(form as never) && conditionOf(candidate.condition) === conditionOf(condition),
+  );
   for (const limit of set?.limits ?? []) limits[limit.property] = { min: limit.min };
   return limits;
 }
@@ -74,14 +106,16 @@ export async function screeningOfHeat(manager: EntityManager, heatId: number): P
   if (!heat) throw AppError.notFound('Heat');
   const history = await supplierHistory(manager, heat.supplier.id, heat.spec.id, heat.spec.grade);
   const specification = await storedSpecification(manager, heat.spec.id, heat.spec.revision);
-  const findings = screenSupplierHistory(history, limitsOf(specification, heat.spec.grade, heat.productForm, heat.condition)).filter((finding) =>
-    finding.heatIds.includes(heatId),
-  );
-  const acknowledgements: Array<{ finding_key: string; reason: string; acknowledged_at: Date; name: string }> = await manager.query(
-    `SELECT a.finding_key, a.reason, a.acknowledged_at, p.name FROM screening_acknowledgement a JOIN person p ON p.id = a.acknowledged_by
+  const findings = screenSupplierHistory(
+    history,
+    limitsOf(specification, heat.spec.grade, heat.productForm, heat.condition),
+  ).filter((finding) => finding.heatIds.includes(heatId));
+  const acknowledgements: Array<{ finding_key: string; reason: string; acknowledged_at: Date; name: string }> =
+    await manager.query(
+      `SELECT a.finding_key, a.reason, a.acknowledged_at, p.name FROM screening_acknowledgement a JOIN person p ON p.id = a.acknowledged_by
       WHERE a.heat_id = ? ORDER BY a.id`,
-    [heatId],
-  );
+      [heatId],
+    );
   const numberOf = new Map(history.map((entry) => [entry.heatId, entry.heatNumber]));
   return {
     heatsScreened: history.length,
@@ -90,7 +124,13 @@ export async function screeningOfHeat(manager: EntityManager, heatId: number): P
       return {
         ...finding,
         heatNumbers: heatIds.map((id) => numberOf.get(id) ?? String(id)),
-        acknowledgement: acknowledgement ? { by: acknowledgement.name, at: new Date(acknowledgement.acknowledged_at).toISOString(), reason: acknowledgement.reason } : null,
+        acknowledgement: acknowledgement
+          ? {
+              by: acknowledgement.name,
+              at: new Date(acknowledgement.acknowledged_at).toISOString(),
+              reason: acknowledgement.reason,
+            }
+          : null,
       };
     }),
   };
@@ -101,13 +141,21 @@ export async function screeningOfHeat(manager: EntityManager, heatId: number): P
  * heats it involves and whether a reviewer acknowledged it for each of them.
  */
 export async function screeningOfSupplier(manager: EntityManager, supplierId: number): Promise<SupplierScreening> {
-  const [supplier]: Array<{ id: number; name: string; country: string; approval: SupplierScreening['supplier']['approval'] }> = await manager.query(
-    'SELECT id, name, country, approval FROM supplier WHERE id = ?',
-    [supplierId],
-  );
+  const [supplier]: Array<{
+    id: number;
+    name: string;
+    country: string;
+    approval: SupplierScreening['supplier']['approval'];
+  }> = await manager.query('SELECT id, name, country, approval FROM supplier WHERE id = ?', [supplierId]);
   if (!supplier) throw AppError.notFound('Supplier');
   // Per specification and grade, the newest heat sets the limits (its revision, form and condition).
-  const groups: Array<{ spec_id: string; grade: string | null; spec_revision: string; product_form: string; heat_condition: string }> = await manager.query(
+  const groups: Array<{
+    spec_id: string;
+    grade: string | null;
+    spec_revision: string;
+    product_form: string;
+    heat_condition: string;
+  }> = await manager.query(
     `SELECT h.spec_id, h.grade, h.spec_revision, h.product_form, h.heat_condition FROM heat h
       WHERE h.supplier_id = ? AND h.id = (SELECT MAX(o.id) FROM heat o WHERE o.supplier_id = h.supplier_id AND o.spec_id = h.spec_id AND o.grade <=> h.grade)
       ORDER BY h.spec_id, h.grade`,
@@ -123,14 +171,21 @@ export async function screeningOfSupplier(manager: EntityManager, supplierId: nu
     const history = await supplierHistory(manager, supplierId, group.spec_id, group.grade);
     const specification = await storedSpecification(manager, group.spec_id, group.spec_revision);
     const numberOf = new Map(history.map((entry) => [entry.heatId, entry.heatNumber]));
-    const findings = screenSupplierHistory(history, limitsOf(specification, group.grade, group.product_form, group.heat_condition));
+    const findings = screenSupplierHistory(
+      history,
+      limitsOf(specification, group.grade, group.product_form, group.heat_condition),
+    );
     screened.push({
       specId: group.spec_id,
       grade: group.grade,
       heatsScreened: history.length,
       findings: findings.map(({ heatIds, ...finding }) => ({
         ...finding,
-        heats: heatIds.map((id) => ({ id, heatNumber: numberOf.get(id) ?? String(id), acknowledged: isAcknowledged.has(`${id} ${finding.key}`) })),
+        heats: heatIds.map((id) => ({
+          id,
+          heatNumber: numberOf.get(id) ?? String(id),
+          acknowledged: isAcknowledged.has(`${id} ${finding.key}`),
+        })),
       })),
     });
   }
@@ -139,7 +194,9 @@ export async function screeningOfSupplier(manager: EntityManager, supplierId: nu
 
 /** Findings on the heat that nobody has acknowledged yet. */
 export async function openFindings(manager: EntityManager, heatId: number): Promise<string[]> {
-  return (await screeningOfHeat(manager, heatId)).findings.filter((finding) => !finding.acknowledgement).map((finding) => finding.explanation);
+  return (await screeningOfHeat(manager, heatId)).findings
+    .filter((finding) => !finding.acknowledgement)
+    .map((finding) => finding.explanation);
 }
 
 /** Records that a reviewer looked into a finding on this heat, and why it does not stop acceptance. */
@@ -155,18 +212,23 @@ export async function acknowledgeFinding(
   return inTransaction(dataSource, async (manager) => {
     const heat = await heats.findHeat(manager, heatId, true);
     if (!heat) throw AppError.notFound('Heat');
-    if (heat.status === 'accepted' || heat.status === 'rejected') throw AppError.rule(`The heat is already ${heat.status}`, { findingKey: 'Dispositioned heat' });
-    const finding = (await screeningOfHeat(manager, heatId)).findings.find((candidate) => candidate.key === input.findingKey);
-    if (!finding) throw AppError.rule('No such finding on this heat; reload the heat to see its current screening', { findingKey: 'Unknown finding' });
-    if (finding.acknowledgement) throw new AppError('CONFLICT', `${finding.acknowledgement.by} already acknowledged this finding`, { findingKey: 'Already acknowledged' });
-    await manager.query('INSERT INTO screening_acknowledgement (heat_id, finding_key, kind, explanation, reason, acknowledged_by) VALUES (?, ?, ?, ?, ?, ?)', [
-      heatId,
-      finding.key,
-      finding.kind,
-      finding.explanation,
-      input.reason,
-      person.id,
-    ]);
+    if (heat.status === 'accepted' || heat.status === 'rejected')
+      throw AppError.rule(`The heat is already ${heat.status}`, { findingKey: 'Dispositioned heat' });
+    const finding = (await screeningOfHeat(manager, heatId)).findings.find(
+      (candidate) => candidate.key === input.findingKey,
+    );
+    if (!finding)
+      throw AppError.rule('No such finding on this heat; reload the heat to see its current screening', {
+        findingKey: 'Unknown finding',
+      });
+    if (finding.acknowledgement)
+      throw new AppError('CONFLICT', `${finding.acknowledgement.by} already acknowledged this finding`, {
+        findingKey: 'Already acknowledged',
+      });
+    await manager.query(
+      'INSERT INTO screening_acknowledgement (heat_id, finding_key, kind, explanation, reason, acknowledged_by) VALUES (?, ?, ?, ?, ?, ?)',
+      [heatId, finding.key, finding.kind, finding.explanation, input.reason, person.id],
+    );
     await appendLedgerEvent(manager, {
       actor,
       action: 'heat.screening-finding-acknowledged',

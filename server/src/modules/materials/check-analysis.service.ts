@@ -1,7 +1,15 @@
 // The independent check analysis in the running product: sampling rules in force, which heats
 // they select, the check results entered and their evaluation (pure functions in shared/).
 import type { DataSource, EntityManager } from 'typeorm';
-import { applicableRule, CheckAnalysisInputError, checkFailureText, checkLimitsOf, checkRequirement, evaluateCheckAnalysis, type CheckEvaluation } from '@shared/domain/materials/check-analysis';
+import {
+  applicableRule,
+  CheckAnalysisInputError,
+  checkFailureText,
+  checkLimitsOf,
+  checkRequirement,
+  evaluateCheckAnalysis,
+  type CheckEvaluation,
+} from '@shared/domain/materials/check-analysis';
 import {
   checkAnalysisInputSchema,
   checkRuleInputSchema,
@@ -53,17 +61,31 @@ export async function currentRules(manager: EntityManager): Promise<CheckRuleVie
 }
 
 /** Sets the rule for a scope (a new row; the previous one stays as history). */
-export async function setCheckRule(dataSource: DataSource, raw: CheckRuleInput, person: Person, actor: Actor, origin: RequestOrigin): Promise<CheckRuleView[]> {
+export async function setCheckRule(
+  dataSource: DataSource,
+  raw: CheckRuleInput,
+  person: Person,
+  actor: Actor,
+  origin: RequestOrigin,
+): Promise<CheckRuleView[]> {
   const input = checkRuleInputSchema.parse(raw);
   return inTransaction(dataSource, async (manager) => {
-    if (input.supplierId !== null && !(await findSupplier(manager, input.supplierId))) throw AppError.rule('Choose a registered supplier, or none for every supplier', { supplierId: 'Unknown supplier' });
+    if (input.supplierId !== null && !(await findSupplier(manager, input.supplierId)))
+      throw AppError.rule('Choose a registered supplier, or none for every supplier', {
+        supplierId: 'Unknown supplier',
+      });
     let specId: string | null = null;
     if (input.specId !== null) {
-      const specification = (await currentSpecifications(manager)).find((candidate) => candidate.id.toUpperCase() === input.specId!.toUpperCase());
-      if (!specification) throw AppError.rule(`Unknown specification ${input.specId}`, { specId: 'Not in the specification library' });
+      const specification = (await currentSpecifications(manager)).find(
+        (candidate) => candidate.id.toUpperCase() === input.specId!.toUpperCase(),
+      );
+      if (!specification)
+        throw AppError.rule(`Unknown specification ${input.specId}`, { specId: 'Not in the specification library' });
       specId = specification.id;
     }
-    const before = (await currentRules(manager)).find((rule) => rule.supplierId === input.supplierId && rule.specId === specId) ?? null;
+    const before =
+      (await currentRules(manager)).find((rule) => rule.supplierId === input.supplierId && rule.specId === specId) ??
+      null;
     const result: { insertId: number } = await manager.query(
       'INSERT INTO check_analysis_rule (supplier_id, spec_id, every_nth_heat, every_heat_when_conditional, reason, set_by) VALUES (?, ?, ?, ?, ?, ?)',
       [input.supplierId, specId, input.everyNthHeat, input.everyHeatWhenConditional ? 1 : 0, input.reason, person.id],
@@ -72,8 +94,15 @@ export async function setCheckRule(dataSource: DataSource, raw: CheckRuleInput, 
       actor,
       action: 'check-analysis-rule.set',
       entity: { type: 'check-analysis-rule', id: Number(result.insertId) },
-      before: before ? { everyNthHeat: before.everyNthHeat, everyHeatWhenConditional: before.everyHeatWhenConditional } : null,
-      after: { supplierId: input.supplierId, specId, everyNthHeat: input.everyNthHeat, everyHeatWhenConditional: input.everyHeatWhenConditional },
+      before: before
+        ? { everyNthHeat: before.everyNthHeat, everyHeatWhenConditional: before.everyHeatWhenConditional }
+        : null,
+      after: {
+        supplierId: input.supplierId,
+        specId,
+        everyNthHeat: input.everyNthHeat,
+        everyHeatWhenConditional: input.everyHeatWhenConditional,
+      },
       reason: input.reason,
       origin,
     });
@@ -110,7 +139,8 @@ async function analysesOf(manager: EntityManager, heatId: number): Promise<HeatC
 
 async function gradeChemistry(manager: EntityManager, heat: NonNullable<Awaited<ReturnType<typeof heats.findHeat>>>) {
   const specification = await storedSpecification(manager, heat.spec.id, heat.spec.revision);
-  const grade = specification?.grades.find((candidate) => candidate.grade === heat.spec.grade) ?? specification?.grades[0];
+  const grade =
+    specification?.grades.find((candidate) => candidate.grade === heat.spec.grade) ?? specification?.grades[0];
   if (!grade) throw new Error(`specification ${heat.spec.id} ${heat.spec.revision} is missing`);
   return grade.chemistry;
 }
@@ -119,7 +149,10 @@ async function gradeChemistry(manager: EntityManager, heat: NonNullable<Awaited<
 export async function checkAnalysisOfHeat(manager: EntityManager, heatId: number): Promise<HeatCheckAnalysis> {
   const heat = await heats.findHeat(manager, heatId);
   if (!heat) throw AppError.notFound('Heat');
-  const [counted]: Array<{ position: string }> = await manager.query('SELECT COUNT(*) AS position FROM heat WHERE supplier_id = ? AND spec_id = ? AND id <= ?', [heat.supplier.id, heat.spec.id, heatId]);
+  const [counted]: Array<{ position: string }> = await manager.query(
+    'SELECT COUNT(*) AS position FROM heat WHERE supplier_id = ? AND spec_id = ? AND id <= ?',
+    [heat.supplier.id, heat.spec.id, heatId],
+  );
   const position = Number(counted!.position);
   const rule = applicableRule(await currentRules(manager), heat.supplier.id, heat.spec.id);
   const requirement = checkRequirement(rule, position, heat.supplier.approval);
@@ -139,35 +172,65 @@ export async function checkAnalysisOfHeat(manager: EntityManager, heatId: number
 
 /** Why the heat cannot be accepted for its check analysis, or null. */
 export function checkAnalysisRefusal(check: HeatCheckAnalysis): string | null {
-  if (check.status === 'awaiting') return `A check analysis of this heat is due (${check.why}); record its results before accepting the heat`;
-  if (check.status === 'does-not-conform') return `The latest check analysis does not conform (${checkFailureText(check.analyses[0]!.evaluation)}); the heat cannot be accepted`;
+  if (check.status === 'awaiting')
+    return `A check analysis of this heat is due (${check.why}); record its results before accepting the heat`;
+  if (check.status === 'does-not-conform')
+    return `The latest check analysis does not conform (${checkFailureText(check.analyses[0]!.evaluation)}); the heat cannot be accepted`;
   return null;
 }
 
 /** Stores a check analysis of a heat with its evaluation against the widened limits. */
-export async function recordCheckAnalysis(dataSource: DataSource, heatId: number, raw: CheckAnalysisInput, person: Person, actor: Actor, origin: RequestOrigin): Promise<HeatCheckAnalysis> {
+export async function recordCheckAnalysis(
+  dataSource: DataSource,
+  heatId: number,
+  raw: CheckAnalysisInput,
+  person: Person,
+  actor: Actor,
+  origin: RequestOrigin,
+): Promise<HeatCheckAnalysis> {
   const input = checkAnalysisInputSchema.parse(raw);
   return inTransaction(dataSource, async (manager) => {
     const heat = await heats.findHeat(manager, heatId, true);
     if (!heat) throw AppError.notFound('Heat');
-    if (heat.status === 'accepted' || heat.status === 'rejected') throw AppError.rule(`The heat is already ${heat.status}; a check analysis can no longer change its disposition`, { chemistry: 'Dispositioned heat' });
-    const results = Object.fromEntries(Object.entries(input.chemistry).map(([element, value]) => [element, String(value).trim()]));
+    if (heat.status === 'accepted' || heat.status === 'rejected')
+      throw AppError.rule(`The heat is already ${heat.status}; a check analysis can no longer change its disposition`, {
+        chemistry: 'Dispositioned heat',
+      });
+    const results = Object.fromEntries(
+      Object.entries(input.chemistry).map(([element, value]) => [element, String(value).trim()]),
+    );
     let evaluation: CheckEvaluation;
     try {
       evaluation = evaluateCheckAnalysis(await gradeChemistry(manager, heat), results);
     } catch (error) {
-      if (error instanceof CheckAnalysisInputError) throw new AppError('VALIDATION_FAILED', error.message, error.fields);
+      if (error instanceof CheckAnalysisInputError)
+        throw new AppError('VALIDATION_FAILED', error.message, error.fields);
       throw error;
     }
     const inserted: { insertId: number } = await manager.query(
       'INSERT INTO check_analysis (heat_id, laboratory, report_reference, results_json, evaluation_json, verdict, recorded_by) VALUES (?, ?, ?, ?, ?, ?, ?)',
-      [heatId, input.laboratory, input.reportReference, JSON.stringify(results), JSON.stringify(evaluation), evaluation.verdict, person.id],
+      [
+        heatId,
+        input.laboratory,
+        input.reportReference,
+        JSON.stringify(results),
+        JSON.stringify(evaluation),
+        evaluation.verdict,
+        person.id,
+      ],
     );
     await appendLedgerEvent(manager, {
       actor,
       action: 'heat.check-analysis-recorded',
       entity: { type: 'heat', id: heatId },
-      after: { checkAnalysisId: Number(inserted.insertId), laboratory: input.laboratory, reportReference: input.reportReference, results, verdict: evaluation.verdict, beyondTolerance: checkFailureText(evaluation) || null },
+      after: {
+        checkAnalysisId: Number(inserted.insertId),
+        laboratory: input.laboratory,
+        reportReference: input.reportReference,
+        results,
+        verdict: evaluation.verdict,
+        beyondTolerance: checkFailureText(evaluation) || null,
+      },
       origin,
     });
     return checkAnalysisOfHeat(manager, heatId);
@@ -176,12 +239,21 @@ export async function recordCheckAnalysis(dataSource: DataSource, heatId: number
 
 /** Heats not yet accepted or rejected whose check analysis is due and not recorded, oldest first. */
 export async function heatsAwaitingCheck(manager: EntityManager): Promise<HeatAwaitingCheck[]> {
-  const rows: Array<{ id: number; heat_number: string; supplier_id: number; supplier_name: string; approval: 'approved' | 'conditional' | 'disqualified'; spec_id: string; status: string; received_at: Date; checked: number }> =
-    await manager.query(
-      `SELECT h.id, h.heat_number, h.supplier_id, s.name AS supplier_name, s.approval, h.spec_id, h.status, h.received_at,
+  const rows: Array<{
+    id: number;
+    heat_number: string;
+    supplier_id: number;
+    supplier_name: string;
+    approval: 'approved' | 'conditional' | 'disqualified';
+    spec_id: string;
+    status: string;
+    received_at: Date;
+    checked: number;
+  }> = await manager.query(
+    `SELECT h.id, h.heat_number, h.supplier_id, s.name AS supplier_name, s.approval, h.spec_id, h.status, h.received_at,
               EXISTS (SELECT 1 FROM check_analysis c WHERE c.heat_id = h.id) AS checked
          FROM heat h JOIN supplier s ON s.id = h.supplier_id ORDER BY h.id`,
-    );
+  );
   const rules = await currentRules(manager);
   const positions = new Map<string, number>();
   const awaiting: HeatAwaitingCheck[] = [];
@@ -192,7 +264,14 @@ export async function heatsAwaitingCheck(manager: EntityManager): Promise<HeatAw
     if (row.status === 'accepted' || row.status === 'rejected' || Number(row.checked)) continue;
     const requirement = checkRequirement(applicableRule(rules, row.supplier_id, row.spec_id), position, row.approval);
     if (requirement.required) {
-      awaiting.push({ heatId: row.id, heatNumber: row.heat_number, supplier: row.supplier_name, specId: row.spec_id, receivedAt: new Date(row.received_at).toISOString(), why: requirement.why });
+      awaiting.push({
+        heatId: row.id,
+        heatNumber: row.heat_number,
+        supplier: row.supplier_name,
+        specId: row.spec_id,
+        receivedAt: new Date(row.received_at).toISOString(),
+        why: requirement.why,
+      });
     }
   }
   return awaiting;

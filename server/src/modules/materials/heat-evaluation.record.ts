@@ -7,7 +7,10 @@ import { signaturesFor } from '../signatures/signatures.repository';
 import * as heats from './heats.repository';
 
 /** What a QA approver signs to let a heat whose evaluation cannot be completed be accepted: the items and why. */
-async function justificationContent(manager: EntityManager, heatId: number): Promise<(SignableContent & { verdict: string | null; status: string }) | null> {
+async function justificationContent(
+  manager: EntityManager,
+  heatId: number,
+): Promise<(SignableContent & { verdict: string | null; status: string }) | null> {
   const heat = await heats.findHeat(manager, heatId);
   if (!heat) return null;
   const latest = await heats.latestEvaluation(manager, heatId);
@@ -24,7 +27,10 @@ async function justificationContent(manager: EntityManager, heatId: number): Pro
       verdict: evaluation ? verdictLabels[evaluation.verdict] : 'not evaluated',
       cannotBeEvaluated: (evaluation?.items ?? [])
         .filter((item) => item.verdict === 'cannot-be-evaluated')
-        .map((item) => `${item.item}: ${item.reason ? reasonLabels[item.reason] : 'cannot be evaluated'}${item.note ? ` (${item.note})` : ''}`),
+        .map(
+          (item) =>
+            `${item.item}: ${item.reason ? reasonLabels[item.reason] : 'cannot be evaluated'}${item.note ? ` (${item.note})` : ''}`,
+        ),
       restsOnUnverifiedLimits: evaluation?.restsOnUnverified ?? [],
     },
     authorIds: [heat.receivedById, ...(await heats.evaluatorIds(manager, heatId))],
@@ -37,14 +43,23 @@ async function justificationContent(manager: EntityManager, heatId: number): Pro
  * The signed justification that lets a heat be accepted although some items cannot be evaluated,
  * when it still covers the heat's current evaluation (re-recorded results need a new one).
  */
-export async function currentJustification(manager: EntityManager, heatId: number): Promise<{ signatureId: number; manifestation: string; reason: string } | null> {
+export async function currentJustification(
+  manager: EntityManager,
+  heatId: number,
+): Promise<{ signatureId: number; manifestation: string; reason: string } | null> {
   const record = await justificationContent(manager, heatId);
   if (!record || record.verdict !== 'cannot-be-evaluated') return null;
   const hash = contentHash(record.content, sha256Hex);
   const rows = await signaturesFor(manager, heatEvaluationRecordType.type, String(heatId));
-  const withdrawn = new Set(rows.filter((row) => row.withdraws_signature_id !== null).map((row) => String(row.withdraws_signature_id)));
-  const covering = rows.filter((row) => row.meaning === 'justified' && row.content_hash === hash && !withdrawn.has(String(row.id))).at(-1);
-  return covering ? { signatureId: Number(covering.id), manifestation: covering.signed_at_text, reason: covering.reason ?? '' } : null;
+  const withdrawn = new Set(
+    rows.filter((row) => row.withdraws_signature_id !== null).map((row) => String(row.withdraws_signature_id)),
+  );
+  const covering = rows
+    .filter((row) => row.meaning === 'justified' && row.content_hash === hash && !withdrawn.has(String(row.id)))
+    .at(-1);
+  return covering
+    ? { signatureId: Number(covering.id), manifestation: covering.signed_at_text, reason: covering.reason ?? '' }
+    : null;
 }
 
 export const heatEvaluationRecordType: SignableRecordType = {

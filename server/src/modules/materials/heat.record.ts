@@ -38,7 +38,10 @@ export const heatRecordType: SignableRecordType = {
         form: `${heat.productForm} ${heat.sizeMm} mm ${heat.condition}`,
         results: await heats.heatResults(manager, heatId),
         verdict: evaluation?.verdict ?? 'not evaluated',
-        items: (evaluation?.items ?? []).map((item) => `${item.item}: ${item.rounded ?? '—'} ${item.verdict}${item.unverified ? ' (unverified limit)' : ''}`),
+        items: (evaluation?.items ?? []).map(
+          (item) =>
+            `${item.item}: ${item.rounded ?? '—'} ${item.verdict}${item.unverified ? ' (unverified limit)' : ''}`,
+        ),
         // Added only when present, so that heats without them sign the same content as before.
         ...(evaluation?.restsOnUnverified.length ? { restsOnUnverifiedLimits: evaluation.restsOnUnverified } : {}),
         ...(justification ? { justification: `${justification.manifestation}: ${justification.reason}` } : {}),
@@ -46,7 +49,14 @@ export const heatRecordType: SignableRecordType = {
         // Only the checks recorded, which cannot change once the heat is dispositioned; whether a
         // rule wants one is not signed (rules change later), and a heat without checks signs the
         // same content as before checks existed.
-        ...(check.analyses.length ? { checkAnalyses: check.analyses.map((analysis) => `${analysis.evaluation.verdict}: ${analysis.laboratory} report ${analysis.reportReference}`) } : {}),
+        ...(check.analyses.length
+          ? {
+              checkAnalyses: check.analyses.map(
+                (analysis) =>
+                  `${analysis.evaluation.verdict}: ${analysis.laboratory} report ${analysis.reportReference}`,
+              ),
+            }
+          : {}),
       },
       authorIds: [heat.receivedById, ...(await heats.evaluatorIds(manager, heatId))],
       status: heat.status,
@@ -57,7 +67,14 @@ export const heatRecordType: SignableRecordType = {
     };
   },
   refusal({ meaning, record }) {
-    const facts = record as unknown as { status: HeatSummary['status']; supplierApproval: string; hasCertificate: boolean; openFindings: string[]; checkRefusal: string | null; content: { verdict: string; justification?: string } };
+    const facts = record as unknown as {
+      status: HeatSummary['status'];
+      supplierApproval: string;
+      hasCertificate: boolean;
+      openFindings: string[];
+      checkRefusal: string | null;
+      content: { verdict: string; justification?: string };
+    };
     if (facts.status === 'accepted' || facts.status === 'rejected') return `The heat is already ${facts.status}`;
     if (meaning === 'accepted') {
       if (facts.supplierApproval === 'disqualified') return 'Heats from a disqualified supplier cannot be accepted';

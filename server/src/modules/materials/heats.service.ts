@@ -29,63 +29,126 @@ export async function heatDetail(dataSource: DataSource, id: number): Promise<He
   const { receivedById: _receivedBy, ...summary } = heat;
   const certificates = await heats.heatCertificates(manager, id);
   const sameDocumentOn = new Set<string>();
-  for (const certificate of certificates) for (const heatNumber of await heats.otherHeatsWithDocument(manager, id, certificate.id)) sameDocumentOn.add(heatNumber);
+  for (const certificate of certificates)
+    for (const heatNumber of await heats.otherHeatsWithDocument(manager, id, certificate.id))
+      sameDocumentOn.add(heatNumber);
   return {
     ...summary,
     results: await heats.heatResults(manager, id),
     evaluation: (await heats.latestEvaluation(manager, id))?.evaluation ?? null,
     justification: await currentJustification(manager, id),
     certificates,
-    crossChecks: { identicalResultsOn: await heats.heatsWithIdenticalResults(manager, id), sameDocumentOn: [...sameDocumentOn].sort() },
+    crossChecks: {
+      identicalResultsOn: await heats.heatsWithIdenticalResults(manager, id),
+      sameDocumentOn: [...sameDocumentOn].sort(),
+    },
     screening: await screeningOfHeat(manager, id),
     checkAnalysis: await checkAnalysisOfHeat(manager, id),
   };
 }
 
-export async function receiveHeat(dataSource: DataSource, raw: HeatCreate, person: Person, actor: Actor, origin: RequestOrigin): Promise<HeatSummary> {
+export async function receiveHeat(
+  dataSource: DataSource,
+  raw: HeatCreate,
+  person: Person,
+  actor: Actor,
+  origin: RequestOrigin,
+): Promise<HeatSummary> {
   const input = heatCreateSchema.parse(raw);
   return inTransaction(dataSource, async (manager) => {
     const supplier = await findSupplier(manager, input.supplierId);
     if (!supplier) throw AppError.rule('Choose a registered supplier', { supplierId: 'Unknown supplier' });
-    const specification = (await currentSpecifications(manager)).find((candidate) => candidate.id.toUpperCase() === input.specId.toUpperCase());
-    if (!specification) throw AppError.rule(`Unknown specification ${input.specId}`, { specId: 'Not in the specification library' });
+    const specification = (await currentSpecifications(manager)).find(
+      (candidate) => candidate.id.toUpperCase() === input.specId.toUpperCase(),
+    );
+    if (!specification)
+      throw AppError.rule(`Unknown specification ${input.specId}`, { specId: 'Not in the specification library' });
     const grades = specification.grades.map((grade) => grade.grade);
     const grade = specification.grades.length === 1 ? specification.grades[0]!.grade : input.grade;
-    if (!grades.includes(grade)) throw AppError.rule(`${specification.id} needs a grade: one of ${grades.join(', ')}`, { grade: `One of ${grades.join(', ')}` });
+    if (!grades.includes(grade))
+      throw AppError.rule(`${specification.id} needs a grade: one of ${grades.join(', ')}`, {
+        grade: `One of ${grades.join(', ')}`,
+      });
     const scope = scopeOf(specification);
     if (!scope.forms.includes(input.productForm)) {
-      throw AppError.rule(`${specification.id} ${specification.revision} covers ${scope.forms.join(', ')}, not ${input.productForm}`, { productForm: `One of ${scope.forms.join(', ')}` });
+      throw AppError.rule(
+        `${specification.id} ${specification.revision} covers ${scope.forms.join(', ')}, not ${input.productForm}`,
+        { productForm: `One of ${scope.forms.join(', ')}` },
+      );
     }
     if (!scope.conditions.includes(input.condition)) {
-      throw AppError.rule(`${specification.id} ${specification.revision} covers the conditions ${scope.conditions.join(', ')}, not ${input.condition}`, { condition: `One of ${scope.conditions.join(', ')}` });
+      throw AppError.rule(
+        `${specification.id} ${specification.revision} covers the conditions ${scope.conditions.join(', ')}, not ${input.condition}`,
+        { condition: `One of ${scope.conditions.join(', ')}` },
+      );
     }
-    const [duplicate] = await manager.query('SELECT id FROM heat WHERE supplier_id = ? AND heat_number = ?', [supplier.id, input.heatNumber]);
-    if (duplicate) throw new AppError('CONFLICT', `Heat ${input.heatNumber} from ${supplier.name} is already received`, { heatNumber: 'Already received' });
-    const id = await heats.insertHeat(manager, { ...input, specId: specification.id, specRevision: specification.revision, grade, receivedBy: person.id });
+    const [duplicate] = await manager.query('SELECT id FROM heat WHERE supplier_id = ? AND heat_number = ?', [
+      supplier.id,
+      input.heatNumber,
+    ]);
+    if (duplicate)
+      throw new AppError('CONFLICT', `Heat ${input.heatNumber} from ${supplier.name} is already received`, {
+        heatNumber: 'Already received',
+      });
+    const id = await heats.insertHeat(manager, {
+      ...input,
+      specId: specification.id,
+      specRevision: specification.revision,
+      grade,
+      receivedBy: person.id,
+    });
     const heat = (await heats.findHeat(manager, id))!;
     const { receivedById: _receivedBy, ...summary } = heat;
-    await appendLedgerEvent(manager, { actor, action: 'heat.received', entity: { type: 'heat', id }, after: summary, origin });
+    await appendLedgerEvent(manager, {
+      actor,
+      action: 'heat.received',
+      entity: { type: 'heat', id },
+      after: summary,
+      origin,
+    });
     return summary;
   });
 }
 
 /** Stores the reported results, evaluates them against the heat's specification revision and keeps the evaluation. */
-export async function recordResults(dataSource: DataSource, heatId: number, raw: HeatResults, person: Person, actor: Actor, origin: RequestOrigin): Promise<HeatDetail> {
+export async function recordResults(
+  dataSource: DataSource,
+  heatId: number,
+  raw: HeatResults,
+  person: Person,
+  actor: Actor,
+  origin: RequestOrigin,
+): Promise<HeatDetail> {
   await inTransaction(dataSource, (manager) => recordResultsIn(manager, heatId, raw, person, actor, origin));
   return heatDetail(dataSource, heatId);
 }
 
 /** The same, inside the caller's transaction (an import writes many heats in one). */
-export async function recordResultsIn(manager: EntityManager, heatId: number, raw: HeatResults, person: Person, actor: Actor, origin: RequestOrigin): Promise<string> {
+export async function recordResultsIn(
+  manager: EntityManager,
+  heatId: number,
+  raw: HeatResults,
+  person: Person,
+  actor: Actor,
+  origin: RequestOrigin,
+): Promise<string> {
   const input = heatResultsSchema.parse(raw);
   const heat = await heats.findHeat(manager, heatId, true);
   if (!heat) throw AppError.notFound('Heat');
-  if (heat.status === 'accepted' || heat.status === 'rejected') throw AppError.rule(`The heat is ${heat.status}; its results can no longer change`, { results: 'Dispositioned heat' });
+  if (heat.status === 'accepted' || heat.status === 'rejected')
+    throw AppError.rule(`The heat is ${heat.status}; its results can no longer change`, {
+      results: 'Dispositioned heat',
+    });
   const rows: Array<{ kind: 'chemistry' | 'mechanical'; item: string; asReported: string; value: string }> = [];
   const fields: Record<string, string> = {};
   for (const [element, value] of Object.entries(input.chemistry)) {
     try {
-      rows.push({ kind: 'chemistry', item: element, asReported: String(value).trim(), value: readChemistryValue(value).value });
+      rows.push({
+        kind: 'chemistry',
+        item: element,
+        asReported: String(value).trim(),
+        value: readChemistryValue(value).value,
+      });
     } catch (error) {
       if (error instanceof ReportedValueError) fields[`chemistry.${element}`] = error.message;
       else throw error;
@@ -94,7 +157,12 @@ export async function recordResultsIn(manager: EntityManager, heatId: number, ra
   for (const [property, value] of Object.entries(input.mechanical)) {
     if (value === undefined) continue;
     try {
-      rows.push({ kind: 'mechanical', item: property, asReported: String(value).trim(), value: readMechanicalValue(value) });
+      rows.push({
+        kind: 'mechanical',
+        item: property,
+        asReported: String(value).trim(),
+        value: readMechanicalValue(value),
+      });
     } catch (error) {
       if (error instanceof ReportedValueError) fields[`mechanical.${property}`] = error.message;
       else throw error;
@@ -107,7 +175,15 @@ export async function recordResultsIn(manager: EntityManager, heatId: number, ra
   try {
     evaluation = evaluateAgainst(
       specification,
-      certificateInputSchema.parse({ spec: heat.spec.id, grade: heat.spec.grade, form: heat.productForm, condition: heat.condition, sizeMm: heat.sizeMm, chemistry: input.chemistry, mechanical: input.mechanical }),
+      certificateInputSchema.parse({
+        spec: heat.spec.id,
+        grade: heat.spec.grade,
+        form: heat.productForm,
+        condition: heat.condition,
+        sizeMm: heat.sizeMm,
+        chemistry: input.chemistry,
+        mechanical: input.mechanical,
+      }),
     );
   } catch (error) {
     if (error instanceof EvaluationInputError) throw new AppError('VALIDATION_FAILED', error.message, error.fields);
@@ -115,26 +191,64 @@ export async function recordResultsIn(manager: EntityManager, heatId: number, ra
   }
   const before = await heats.heatResults(manager, heatId);
   await heats.replaceHeatResults(manager, heatId, rows);
-  await heats.insertEvaluation(manager, { heatId, specId: heat.spec.id, revision: heat.spec.revision, verdict: evaluation.verdict, json: JSON.stringify(evaluation), evaluatedBy: person.id });
+  await heats.insertEvaluation(manager, {
+    heatId,
+    specId: heat.spec.id,
+    revision: heat.spec.revision,
+    verdict: evaluation.verdict,
+    json: JSON.stringify(evaluation),
+    evaluatedBy: person.id,
+  });
   const after = await heats.heatResults(manager, heatId);
-  await appendLedgerEvent(manager, { actor, action: 'heat.results-recorded', entity: { type: 'heat', id: heatId }, before, after: { ...after, verdict: evaluation.verdict }, reason: input.reason ?? null, origin });
+  await appendLedgerEvent(manager, {
+    actor,
+    action: 'heat.results-recorded',
+    entity: { type: 'heat', id: heatId },
+    before,
+    after: { ...after, verdict: evaluation.verdict },
+    reason: input.reason ?? null,
+    origin,
+  });
   return evaluation.verdict;
 }
 
-export async function attachCertificate(dataSource: DataSource, heatId: number, file: { bytes: Buffer; originalName: string }, person: Person, actor: Actor, origin: RequestOrigin) {
+export async function attachCertificate(
+  dataSource: DataSource,
+  heatId: number,
+  file: { bytes: Buffer; originalName: string },
+  person: Person,
+  actor: Actor,
+  origin: RequestOrigin,
+) {
   const inspected = await inspectCertificateFile(file.bytes, file.originalName);
   return inTransaction(dataSource, async (manager) => {
     const heat = await heats.findHeat(manager, heatId, true);
     if (!heat) throw AppError.notFound('Heat');
-    const document = await heats.storeDocument(manager, { sha256: inspected.sha256, mediaType: inspected.mediaType, bytes: file.bytes, originalName: inspected.name, uploadedBy: person.id });
+    const document = await heats.storeDocument(manager, {
+      sha256: inspected.sha256,
+      mediaType: inspected.mediaType,
+      bytes: file.bytes,
+      originalName: inspected.name,
+      uploadedBy: person.id,
+    });
     const attached = await heats.attachDocument(manager, heatId, document.id, person.id);
-    if (!attached) throw new AppError('CONFLICT', 'This certificate is already attached to the heat', { certificate: 'Already attached' });
+    if (!attached)
+      throw new AppError('CONFLICT', 'This certificate is already attached to the heat', {
+        certificate: 'Already attached',
+      });
     const sharedWith = await heats.otherHeatsWithDocument(manager, heatId, document.id);
     await appendLedgerEvent(manager, {
       actor,
       action: 'heat.certificate-attached',
       entity: { type: 'heat', id: heatId },
-      after: { documentId: document.id, sha256: inspected.sha256, mediaType: inspected.mediaType, name: inspected.name, storedNow: document.created, alsoOnHeats: sharedWith },
+      after: {
+        documentId: document.id,
+        sha256: inspected.sha256,
+        mediaType: inspected.mediaType,
+        name: inspected.name,
+        storedNow: document.created,
+        alsoOnHeats: sharedWith,
+      },
       origin,
     });
     return { documentId: document.id, sha256: inspected.sha256, storedNow: document.created, alsoOnHeats: sharedWith };

@@ -11,10 +11,21 @@ import type { SignableRecordType } from '../signatures/signable-records';
 import { currentSpecifications, storedSpecification } from './specification-library.repository';
 
 const limitText = (limit: Pick<ElementLimit, 'min' | 'max'> | undefined) =>
-  !limit ? '—' : limit.min !== undefined && limit.max !== undefined ? `${limit.min}–${limit.max}` : limit.max !== undefined ? `≤ ${limit.max}` : `≥ ${limit.min}`;
+  !limit
+    ? '—'
+    : limit.min !== undefined && limit.max !== undefined
+      ? `${limit.min}–${limit.max}`
+      : limit.max !== undefined
+        ? `≤ ${limit.max}`
+        : `≥ ${limit.min}`;
 
 const toleranceText = (tolerance: NonNullable<ElementLimit['tolerance']>) =>
-  [tolerance.under !== undefined ? `${tolerance.under} under` : '', tolerance.over !== undefined ? `${tolerance.over} over` : ''].filter(Boolean).join(', ');
+  [
+    tolerance.under !== undefined ? `${tolerance.under} under` : '',
+    tolerance.over !== undefined ? `${tolerance.over} over` : '',
+  ]
+    .filter(Boolean)
+    .join(', ');
 
 interface DraftRow {
   id: number;
@@ -31,7 +42,10 @@ interface DraftRow {
 
 async function draftRow(manager: EntityManager, id: number, lock = false): Promise<DraftRow | null> {
   if (lock) await manager.query('SELECT id FROM specification_draft WHERE id = ? FOR UPDATE', [id]);
-  const [row]: DraftRow[] = await manager.query('SELECT d.*, p.name AS created_by_name FROM specification_draft d JOIN person p ON p.id = d.created_by WHERE d.id = ?', [id]);
+  const [row]: DraftRow[] = await manager.query(
+    'SELECT d.*, p.name AS created_by_name FROM specification_draft d JOIN person p ON p.id = d.created_by WHERE d.id = ?',
+    [id],
+  );
   return row ?? null;
 }
 
@@ -42,7 +56,14 @@ function changesOf(base: Specification, proposed: Specification): SpecificationD
     for (const limit of grade.chemistry) {
       const before = baseGrade?.chemistry.find((candidate) => candidate.element === limit.element);
       // A new source for the same value is a change too (e.g. an unconfirmed value now checked).
-      if (limitText(before) !== limitText(limit) || before?.source.reference !== limit.source.reference) changes.push({ grade: grade.grade, element: limit.element, from: limitText(before), to: limitText(limit), reference: limit.source.reference });
+      if (limitText(before) !== limitText(limit) || before?.source.reference !== limit.source.reference)
+        changes.push({
+          grade: grade.grade,
+          element: limit.element,
+          from: limitText(before),
+          to: limitText(limit),
+          reference: limit.source.reference,
+        });
     }
   }
   return changes;
@@ -65,12 +86,20 @@ async function toView(manager: EntityManager, row: DraftRow): Promise<Specificat
 }
 
 export async function listDrafts(dataSource: DataSource): Promise<SpecificationDraftView[]> {
-  const rows: DraftRow[] = await dataSource.query('SELECT d.*, p.name AS created_by_name FROM specification_draft d JOIN person p ON p.id = d.created_by ORDER BY d.id DESC LIMIT 100');
+  const rows: DraftRow[] = await dataSource.query(
+    'SELECT d.*, p.name AS created_by_name FROM specification_draft d JOIN person p ON p.id = d.created_by ORDER BY d.id DESC LIMIT 100',
+  );
   return Promise.all(rows.map((row) => toView(dataSource.manager, row)));
 }
 
 /** Proposes a new revision: the current one with the given chemistry limits changed, each naming its source. */
-export async function draftRevision(dataSource: DataSource, input: SpecificationDraftInput, person: Person, actor: Actor, origin: RequestOrigin): Promise<SpecificationDraftView> {
+export async function draftRevision(
+  dataSource: DataSource,
+  input: SpecificationDraftInput,
+  person: Person,
+  actor: Actor,
+  origin: RequestOrigin,
+): Promise<SpecificationDraftView> {
   return inTransaction(dataSource, async (manager) => {
     const current = (await currentSpecifications(manager)).find((candidate) => candidate.id === input.specId);
     if (!current) throw AppError.rule(`Unknown specification ${input.specId}`, { specId: 'Not in the library' });
@@ -78,16 +107,22 @@ export async function draftRevision(dataSource: DataSource, input: Specification
       "SELECT 1 FROM specification_revision WHERE spec_id = ? AND revision = ? UNION SELECT 1 FROM specification_draft WHERE spec_id = ? AND revision = ? AND status <> 'rejected'",
       [current.id, input.revision, current.id, input.revision],
     );
-    if (taken) throw new AppError('CONFLICT', `Revision ${input.revision} of ${current.id} exists already`, { revision: 'Already used' });
+    if (taken)
+      throw new AppError('CONFLICT', `Revision ${input.revision} of ${current.id} exists already`, {
+        revision: 'Already used',
+      });
     const proposed: Specification = JSON.parse(JSON.stringify(current));
     proposed.revision = input.revision;
     proposed.edition = input.edition;
     const fields: Record<string, string> = {};
     input.limits.forEach((change, index) => {
       const grade = proposed.grades.find((candidate) => candidate.grade === change.grade);
-      if (!grade) return void (fields[`limits.${index}.grade`] = `${current.id} has no grade ${change.grade ?? '(none)'}`);
-      if (change.min === undefined && change.max === undefined) return void (fields[`limits.${index}`] = 'Give a minimum, a maximum or both');
-      if (change.min !== undefined && change.max !== undefined && compareDecimal(change.min, change.max) > 0) return void (fields[`limits.${index}`] = 'The minimum is above the maximum');
+      if (!grade)
+        return void (fields[`limits.${index}.grade`] = `${current.id} has no grade ${change.grade ?? '(none)'}`);
+      if (change.min === undefined && change.max === undefined)
+        return void (fields[`limits.${index}`] = 'Give a minimum, a maximum or both');
+      if (change.min !== undefined && change.max !== undefined && compareDecimal(change.min, change.max) > 0)
+        return void (fields[`limits.${index}`] = 'The minimum is above the maximum');
       const limit: ElementLimit = {
         element: change.element,
         ...(change.min !== undefined ? { min: change.min } : {}),
@@ -99,10 +134,26 @@ export async function draftRevision(dataSource: DataSource, input: Specification
       // A tolerance may depend on the limit (F67 Fe: 0.10 up to 0.25, 0.15 above), so a changed limit never keeps the old one.
       const limitChanged = !before || limitText(before) !== limitText(limit);
       if (before?.tolerance && limitChanged && !change.tolerance) {
-        return void (fields[`limits.${index}.tolerance`] = `The limit changes, so re-enter its product-analysis tolerance (was ${toleranceText(before.tolerance)})`);
+        return void (fields[`limits.${index}.tolerance`] =
+          `The limit changes, so re-enter its product-analysis tolerance (was ${toleranceText(before.tolerance)})`);
       }
-      const tolerance = change.tolerance && (change.tolerance.under !== undefined || change.tolerance.over !== undefined) ? change.tolerance : limitChanged ? undefined : before?.tolerance;
-      const drafted: ElementLimit = { ...limit, ...(tolerance ? { tolerance: { ...(tolerance.under !== undefined ? { under: tolerance.under } : {}), ...(tolerance.over !== undefined ? { over: tolerance.over } : {}) } } : {}) };
+      const tolerance =
+        change.tolerance && (change.tolerance.under !== undefined || change.tolerance.over !== undefined)
+          ? change.tolerance
+          : limitChanged
+            ? undefined
+            : before?.tolerance;
+      const drafted: ElementLimit = {
+        ...limit,
+        ...(tolerance
+          ? {
+              tolerance: {
+                ...(tolerance.under !== undefined ? { under: tolerance.under } : {}),
+                ...(tolerance.over !== undefined ? { over: tolerance.over } : {}),
+              },
+            }
+          : {}),
+      };
       if (existing >= 0) grade.chemistry[existing] = drafted;
       else grade.chemistry.push(drafted);
     });
@@ -112,7 +163,14 @@ export async function draftRevision(dataSource: DataSource, input: Specification
       [current.id, current.revision, input.revision, canonicalJson(proposed), input.note, person.id],
     );
     const view = await toView(manager, (await draftRow(manager, Number(result.insertId)))!);
-    await appendLedgerEvent(manager, { actor, action: 'specification.revision-drafted', entity: { type: 'specification-draft', id: view.id }, after: view, reason: input.note, origin });
+    await appendLedgerEvent(manager, {
+      actor,
+      action: 'specification.revision-drafted',
+      entity: { type: 'specification-draft', id: view.id },
+      after: view,
+      reason: input.note,
+      origin,
+    });
     return view;
   });
 }
@@ -131,13 +189,22 @@ export const specificationDraftRecordType: SignableRecordType = {
     const view = await toView(manager, row);
     return {
       title: `${row.spec_id} revision ${row.revision} (replacing ${row.base_revision})`,
-      content: { specification: row.spec_id, revision: row.revision, replaces: row.base_revision, note: row.note, changes: view.changes, definitionHash: sha256Hex(row.definition_json) },
+      content: {
+        specification: row.spec_id,
+        revision: row.revision,
+        replaces: row.base_revision,
+        note: row.note,
+        changes: view.changes,
+        definitionHash: sha256Hex(row.definition_json),
+      },
       authorIds: [row.created_by],
       status: row.status,
     };
   },
   refusal({ record }) {
-    return (record as { status?: string }).status === 'draft' ? null : `This draft is already ${(record as { status?: string }).status}`;
+    return (record as { status?: string }).status === 'draft'
+      ? null
+      : `This draft is already ${(record as { status?: string }).status}`;
   },
   async afterSign(manager, { recordId, meaning, signerId, signerName, reason }) {
     const row = await draftRow(manager, Number(recordId), true);
@@ -145,14 +212,17 @@ export const specificationDraftRecordType: SignableRecordType = {
     const status = meaning === 'approved' ? 'approved' : 'rejected';
     if (status === 'approved') {
       const definition = JSON.parse(row.definition_json) as Specification;
-      await manager.query('INSERT INTO specification_revision (spec_id, revision, title, edition, definition_json, definition_hash) VALUES (?, ?, ?, ?, ?, ?)', [
-        row.spec_id,
-        row.revision,
-        definition.title,
-        definition.edition,
-        row.definition_json,
-        sha256Hex(row.definition_json),
-      ]);
+      await manager.query(
+        'INSERT INTO specification_revision (spec_id, revision, title, edition, definition_json, definition_hash) VALUES (?, ?, ?, ?, ?, ?)',
+        [
+          row.spec_id,
+          row.revision,
+          definition.title,
+          definition.edition,
+          row.definition_json,
+          sha256Hex(row.definition_json),
+        ],
+      );
     }
     await manager.query('UPDATE specification_draft SET status = ? WHERE id = ?', [status, row.id]);
     await appendLedgerEvent(manager, {

@@ -2,25 +2,36 @@ import type { EntityManager } from 'typeorm';
 import type { Supplier } from '@shared/schemas/materials';
 
 export async function listSuppliers(manager: EntityManager): Promise<Supplier[]> {
-  const rows: Array<{ id: number; name: string; country: string; approval: Supplier['approval']; heats: string }> = await manager.query(
-    'SELECT s.id, s.name, s.country, s.approval, (SELECT COUNT(*) FROM heat h WHERE h.supplier_id = s.id) AS heats FROM supplier s ORDER BY s.name',
-  );
+  const rows: Array<{ id: number; name: string; country: string; approval: Supplier['approval']; heats: string }> =
+    await manager.query(
+      'SELECT s.id, s.name, s.country, s.approval, (SELECT COUNT(*) FROM heat h WHERE h.supplier_id = s.id) AS heats FROM supplier s ORDER BY s.name',
+    );
   return rows.map((row) => ({ ...row, heats: Number(row.heats) }));
 }
 
 export async function findSupplier(manager: EntityManager, id: number, lock = false): Promise<Supplier | null> {
-  const [row]: Array<{ id: number; name: string; country: string; approval: Supplier['approval'] }> = await manager.query(
-    `SELECT id, name, country, approval FROM supplier WHERE id = ?${lock ? ' FOR UPDATE' : ''}`,
-    [id],
-  );
+  const [row]: Array<{ id: number; name: string; country: string; approval: Supplier['approval'] }> =
+    await manager.query(`SELECT id, name, country, approval FROM supplier WHERE id = ?${lock ? ' FOR UPDATE' : ''}`, [
+      id,
+    ]);
   return row ? { ...row, heats: 0 } : null;
 }
 
-export async function insertSupplier(manager: EntityManager, supplier: Pick<Supplier, 'name' | 'country' | 'approval'>): Promise<number> {
-  const result: { insertId: number } = await manager.query('INSERT INTO supplier (name, country, approval) VALUES (?, ?, ?)', [supplier.name, supplier.country, supplier.approval]);
+export async function insertSupplier(
+  manager: EntityManager,
+  supplier: Pick<Supplier, 'name' | 'country' | 'approval'>,
+): Promise<number> {
+  const result: { insertId: number } = await manager.query(
+    'INSERT INTO supplier (name, country, approval) VALUES (?, ?, ?)',
+    [supplier.name, supplier.country, supplier.approval],
+  );
   return Number(result.insertId);
 }
 
-export async function setSupplierApproval(manager: EntityManager, id: number, approval: Supplier['approval']): Promise<void> {
+export async function setSupplierApproval(
+  manager: EntityManager,
+  id: number,
+  approval: Supplier['approval'],
+): Promise<void> {
   await manager.query('UPDATE supplier SET approval = ? WHERE id = ?', [approval, id]);
 }

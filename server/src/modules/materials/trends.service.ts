@@ -10,10 +10,19 @@ export async function elementTrend(dataSource: DataSource, query: TrendQuery): P
   const manager = dataSource.manager;
   const specification = (await currentSpecifications(manager)).find((candidate) => candidate.id === query.specId);
   if (!specification) throw AppError.rule(`Unknown specification ${query.specId}`, { specId: 'Not in the library' });
-  const grade = specification.grades.length === 1 ? specification.grades[0] : specification.grades.find((candidate) => candidate.grade === query.grade);
-  if (!grade) throw AppError.rule(`${specification.id} has grades; choose one`, { grade: specification.grades.map((candidate) => candidate.grade).join(', ') });
+  const grade =
+    specification.grades.length === 1
+      ? specification.grades[0]
+      : specification.grades.find((candidate) => candidate.grade === query.grade);
+  if (!grade)
+    throw AppError.rule(`${specification.id} has grades; choose one`, {
+      grade: specification.grades.map((candidate) => candidate.grade).join(', '),
+    });
   const limit = grade.chemistry.find((candidate) => candidate.element === query.element);
-  if (!limit) throw AppError.rule(`${specification.id} sets no limit for ${query.element}`, { element: 'No limit for this element' });
+  if (!limit)
+    throw AppError.rule(`${specification.id} sets no limit for ${query.element}`, {
+      element: 'No limit for this element',
+    });
   const rows: Array<{ heat_id: number; heat_number: string; received_at: Date; value: string }> = await manager.query(
     `SELECT h.id AS heat_id, h.heat_number, h.received_at, r.value
        FROM heat_result r JOIN heat h ON h.id = r.heat_id
@@ -21,12 +30,29 @@ export async function elementTrend(dataSource: DataSource, query: TrendQuery): P
       ORDER BY h.received_at, h.id`,
     [query.supplierId, specification.id, query.element, ...(specification.grades.length > 1 ? [grade.grade] : [])],
   );
-  const points = rows.map((row) => ({ heatId: row.heat_id, heatNumber: row.heat_number, receivedAt: new Date(row.received_at).toISOString(), value: new Decimal(row.value).toFixed() }));
-  const text = limit.min !== undefined && limit.max !== undefined ? `${limit.min}–${limit.max}` : limit.max !== undefined ? `≤ ${limit.max}` : `≥ ${limit.min}`;
+  const points = rows.map((row) => ({
+    heatId: row.heat_id,
+    heatNumber: row.heat_number,
+    receivedAt: new Date(row.received_at).toISOString(),
+    value: new Decimal(row.value).toFixed(),
+  }));
+  const text =
+    limit.min !== undefined && limit.max !== undefined
+      ? `${limit.min}–${limit.max}`
+      : limit.max !== undefined
+        ? `≤ ${limit.max}`
+        : `≥ ${limit.min}`;
   return {
     element: query.element,
-    limit: { ...(limit.min !== undefined ? { min: limit.min } : {}), ...(limit.max !== undefined ? { max: limit.max } : {}), text },
+    limit: {
+      ...(limit.min !== undefined ? { min: limit.min } : {}),
+      ...(limit.max !== undefined ? { max: limit.max } : {}),
+      text,
+    },
     points,
-    capability: capability(points.map((point) => point.value), limit),
+    capability: capability(
+      points.map((point) => point.value),
+      limit,
+    ),
   };
 }

@@ -5,12 +5,20 @@ import type { OrganisationSummary } from '@shared/schemas/organisation';
 export async function findOrganisation(dataSource: DataSource): Promise<OrganisationSummary | null> {
   const row = await dataSource.getRepository(Organisation).findOne({ where: {}, order: { id: 'ASC' } });
   if (!row) return null;
-  return { name: row.name, site: row.site, address: row.address, gs1CompanyPrefix: row.gs1CompanyPrefix, timeZone: row.timeZone };
+  return {
+    name: row.name,
+    site: row.site,
+    address: row.address,
+    gs1CompanyPrefix: row.gs1CompanyPrefix,
+    timeZone: row.timeZone,
+  };
 }
 
 /** The plant's time zone, read inside the caller's transaction (UTC before any organisation exists). */
 export async function plantTimeZone(manager: EntityManager): Promise<string> {
-  const row = await manager.getRepository(Organisation).findOne({ where: {}, order: { id: 'ASC' }, select: { id: true, timeZone: true } });
+  const row = await manager
+    .getRepository(Organisation)
+    .findOne({ where: {}, order: { id: 'ASC' }, select: { id: true, timeZone: true } });
   return row?.timeZone ?? 'UTC';
 }
 

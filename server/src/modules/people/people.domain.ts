@@ -4,7 +4,10 @@ import { roleSchema, type Role } from '@shared/auth/roles';
 export function attributeValues(value: unknown): string[] {
   if (value === undefined || value === null) return [];
   const values = Array.isArray(value) ? value : [value];
-  return values.filter((item): item is string => typeof item === 'string').map((item) => item.trim()).filter(Boolean);
+  return values
+    .filter((item): item is string => typeof item === 'string')
+    .map((item) => item.trim())
+    .filter(Boolean);
 }
 
 /** Maps identity-provider groups to Ingotrace roles; unknown groups are ignored. */

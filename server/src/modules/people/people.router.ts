@@ -25,16 +25,40 @@ export function peopleRouter(context: AppContext): Router {
     res.json(await peopleSettings(dataSource()));
   });
 
-  router.put('/people/:personId/roles', requireAction('people.manage'), validate({ params: personIdParamsSchema, body: roleChangeSchema }), async (req, res) => {
-    const { personId } = res.locals.valid.params as { personId: number };
-    const outcome = await changeRoles(dataSource(), personId, res.locals.valid.body as RoleChange, actorOf(req, 'people.manage'), originOf(req));
-    res.status(outcome.applied ? 200 : 202).json(outcome);
-  });
+  router.put(
+    '/people/:personId/roles',
+    requireAction('people.manage'),
+    validate({ params: personIdParamsSchema, body: roleChangeSchema }),
+    async (req, res) => {
+      const { personId } = res.locals.valid.params as { personId: number };
+      const outcome = await changeRoles(
+        dataSource(),
+        personId,
+        res.locals.valid.body as RoleChange,
+        actorOf(req, 'people.manage'),
+        originOf(req),
+      );
+      res.status(outcome.applied ? 200 : 202).json(outcome);
+    },
+  );
 
-  router.put('/people/:personId/activation', requireAction('people.manage'), validate({ params: personIdParamsSchema, body: activationChangeSchema }), async (req, res) => {
-    const { personId } = res.locals.valid.params as { personId: number };
-    res.json(await changeActivation(dataSource(), personId, res.locals.valid.body as ActivationChange, actorOf(req, 'people.manage'), originOf(req)));
-  });
+  router.put(
+    '/people/:personId/activation',
+    requireAction('people.manage'),
+    validate({ params: personIdParamsSchema, body: activationChangeSchema }),
+    async (req, res) => {
+      const { personId } = res.locals.valid.params as { personId: number };
+      res.json(
+        await changeActivation(
+          dataSource(),
+          personId,
+          res.locals.valid.body as ActivationChange,
+          actorOf(req, 'people.manage'),
+          originOf(req),
+        ),
+      );
+    },
+  );
 
   return router;
 }

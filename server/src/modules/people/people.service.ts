@@ -2,12 +2,24 @@ import type { DataSource } from 'typeorm';
 import type { Role } from '@shared/auth/roles';
 import type { SignInRefusalCode } from '@shared/auth/sign-in-refusals';
 import { ownRoleChangeRefusal, roleCombinationRefusal, signingRolesChanged } from '@shared/auth/role-changes';
-import type { ActivationChange, PeopleQuery, PeoplePage, PeopleSettings, Person, RoleChange, RoleChangeOutcome } from '@shared/schemas/people';
+import type {
+  ActivationChange,
+  PeopleQuery,
+  PeoplePage,
+  PeopleSettings,
+  Person,
+  RoleChange,
+  RoleChangeOutcome,
+} from '@shared/schemas/people';
 import { AppError } from '../../errors';
 import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
 import * as people from './people.repository';
-import { administratorsMayApprove, insertRoleChangeRequest, pendingRoleChanges } from './role-change-requests.repository';
+import {
+  administratorsMayApprove,
+  insertRoleChangeRequest,
+  pendingRoleChanges,
+} from './role-change-requests.repository';
 
 export interface SignInIdentity {
   subject: string;
@@ -46,7 +58,8 @@ export async function signIn(dataSource: DataSource, identity: SignInIdentity, o
       });
       existing = (await people.findPersonById(manager, id, true))!;
     }
-    if (!existing.active) throw new SignInRefused('deactivated', 'Your Ingotrace account is deactivated; ask an administrator');
+    if (!existing.active)
+      throw new SignInRefused('deactivated', 'Your Ingotrace account is deactivated; ask an administrator');
     const before = existing.identityProviderRoles;
     if (before.join() !== identity.identityProviderRoles.join()) {
       await people.replaceIdentityProviderRoles(manager, existing.id, identity.identityProviderRoles);
@@ -59,11 +72,17 @@ export async function signIn(dataSource: DataSource, identity: SignInIdentity, o
         origin,
       });
     }
-    await people.updatePersonProfile(manager, existing.id, { name: identity.name, email: identity.email, signedInAt: new Date() });
+    await people.updatePersonProfile(manager, existing.id, {
+      name: identity.name,
+      email: identity.email,
+      signedInAt: new Date(),
+    });
     const person = (await people.findPersonById(manager, existing.id))!;
-    if (person.roles.length === 0) throw new SignInRefused('no-role', 'You hold no Ingotrace role; ask an administrator to give you one');
+    if (person.roles.length === 0)
+      throw new SignInRefused('no-role', 'You hold no Ingotrace role; ask an administrator to give you one');
     const combination = roleCombinationRefusal(person.roles, await administratorsMayApprove(manager));
-    if (combination) throw new SignInRefused('role-combination', `${combination}; ask an administrator to remove one of them`);
+    if (combination)
+      throw new SignInRefused('role-combination', `${combination}; ask an administrator to remove one of them`);
     await appendLedgerEvent(manager, {
       actor: { id: person.id, name: person.name, role: null },
       action: 'session.signed-in',
@@ -76,7 +95,12 @@ export async function signIn(dataSource: DataSource, identity: SignInIdentity, o
 }
 
 /** Records a refused sign-in in its own transaction (nothing else is written). */
-export async function recordRefusedSignIn(dataSource: DataSource, reason: string, subject: string | null, origin: RequestOrigin): Promise<void> {
+export async function recordRefusedSignIn(
+  dataSource: DataSource,
+  reason: string,
+  subject: string | null,
+  origin: RequestOrigin,
+): Promise<void> {
   await inTransaction(dataSource, (manager) =>
     appendLedgerEvent(manager, {
       actor: { id: null, name: subject, role: null },
@@ -91,7 +115,12 @@ export async function recordRefusedSignIn(dataSource: DataSource, reason: string
 
 export async function recordSignOut(dataSource: DataSource, person: Person, origin: RequestOrigin): Promise<void> {
   await inTransaction(dataSource, (manager) =>
-    appendLedgerEvent(manager, { actor: { id: person.id, name: person.name, role: null }, action: 'session.signed-out', entity: { type: 'person', id: person.id }, origin }),
+    appendLedgerEvent(manager, {
+      actor: { id: person.id, name: person.name, role: null },
+      action: 'session.signed-out',
+      entity: { type: 'person', id: person.id },
+      origin,
+    }),
   );
 }
 
@@ -109,20 +138,38 @@ export async function listPeople(dataSource: DataSource, query: PeopleQuery): Pr
  * role waits for a second administrator's signed confirmation (the `role-change` record type);
  * other changes take effect at once. Roles that may not be held together are refused.
  */
-export async function changeRoles(dataSource: DataSource, personId: number, change: RoleChange, actor: Actor, origin: RequestOrigin): Promise<RoleChangeOutcome> {
+export async function changeRoles(
+  dataSource: DataSource,
+  personId: number,
+  change: RoleChange,
+  actor: Actor,
+  origin: RequestOrigin,
+): Promise<RoleChangeOutcome> {
   const own = ownRoleChangeRefusal(actor.id, personId);
   if (own) throw new AppError('FORBIDDEN', own);
   return inTransaction(dataSource, async (manager) => {
     const person = await people.findPersonById(manager, personId, true);
     if (!person) throw AppError.notFound('Person');
     const wanted = [...new Set(change.roles)].sort();
-    if (wanted.join() === person.roles.join()) throw AppError.rule('These are already the person’s roles', { roles: 'Nothing to change' });
+    if (wanted.join() === person.roles.join())
+      throw AppError.rule('These are already the person’s roles', { roles: 'Nothing to change' });
     const combination = roleCombinationRefusal(wanted, await administratorsMayApprove(manager));
     if (combination) throw AppError.rule(combination, { roles: combination });
     if (signingRolesChanged(person.roles, wanted).length) {
       const [waiting] = await pendingRoleChanges(manager, personId);
-      if (waiting) throw new AppError('CONFLICT', `A change of ${person.name}’s roles asked by ${waiting.requestedBy} is waiting for confirmation`, { roles: 'Waiting for confirmation' });
-      const id = await insertRoleChangeRequest(manager, { personId, rolesBefore: person.roles, rolesAfter: wanted, reason: change.reason, requestedBy: actor.id! });
+      if (waiting)
+        throw new AppError(
+          'CONFLICT',
+          `A change of ${person.name}’s roles asked by ${waiting.requestedBy} is waiting for confirmation`,
+          { roles: 'Waiting for confirmation' },
+        );
+      const id = await insertRoleChangeRequest(manager, {
+        personId,
+        rolesBefore: person.roles,
+        rolesAfter: wanted,
+        reason: change.reason,
+        requestedBy: actor.id!,
+      });
       await appendLedgerEvent(manager, {
         actor,
         action: 'person.role-change-requested',
@@ -151,15 +198,28 @@ export async function changeRoles(dataSource: DataSource, personId: number, chan
 }
 
 export async function peopleSettings(dataSource: DataSource): Promise<PeopleSettings> {
-  return { administratorsMayApprove: await administratorsMayApprove(dataSource.manager), pendingRoleChanges: await pendingRoleChanges(dataSource.manager) };
+  return {
+    administratorsMayApprove: await administratorsMayApprove(dataSource.manager),
+    pendingRoleChanges: await pendingRoleChanges(dataSource.manager),
+  };
 }
 
-export async function changeActivation(dataSource: DataSource, personId: number, change: ActivationChange, actor: Actor, origin: RequestOrigin): Promise<Person> {
+export async function changeActivation(
+  dataSource: DataSource,
+  personId: number,
+  change: ActivationChange,
+  actor: Actor,
+  origin: RequestOrigin,
+): Promise<Person> {
   return inTransaction(dataSource, async (manager) => {
     const person = await people.findPersonById(manager, personId, true);
     if (!person) throw AppError.notFound('Person');
-    if (actor.id === personId && !change.active) throw AppError.rule('You cannot deactivate yourself', { active: 'Ask another administrator' });
-    if (person.active === change.active) throw AppError.rule(change.active ? 'This person is already active' : 'This person is already deactivated', { active: 'Nothing to change' });
+    if (actor.id === personId && !change.active)
+      throw AppError.rule('You cannot deactivate yourself', { active: 'Ask another administrator' });
+    if (person.active === change.active)
+      throw AppError.rule(change.active ? 'This person is already active' : 'This person is already deactivated', {
+        active: 'Nothing to change',
+      });
     await people.setPersonActive(manager, personId, change.active);
     await appendLedgerEvent(manager, {
       actor,

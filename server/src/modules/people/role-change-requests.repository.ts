@@ -32,14 +32,20 @@ const toRequest = (row: RequestRow): RoleChangeRequest & { status: RequestRow['s
   status: row.status,
 });
 
-export async function insertRoleChangeRequest(manager: EntityManager, request: { personId: number; rolesBefore: Role[]; rolesAfter: Role[]; reason: string; requestedBy: number }): Promise<number> {
-  const result: { insertId: number } = await manager.query('INSERT INTO role_change_request (person_id, roles_before, roles_after, reason, requested_by) VALUES (?, ?, ?, ?, ?)', [
-    request.personId,
-    JSON.stringify(request.rolesBefore),
-    JSON.stringify(request.rolesAfter),
-    request.reason,
-    request.requestedBy,
-  ]);
+export async function insertRoleChangeRequest(
+  manager: EntityManager,
+  request: { personId: number; rolesBefore: Role[]; rolesAfter: Role[]; reason: string; requestedBy: number },
+): Promise<number> {
+  const result: { insertId: number } = await manager.query(
+    'INSERT INTO role_change_request (person_id, roles_before, roles_after, reason, requested_by) VALUES (?, ?, ?, ?, ?)',
+    [
+      request.personId,
+      JSON.stringify(request.rolesBefore),
+      JSON.stringify(request.rolesAfter),
+      request.reason,
+      request.requestedBy,
+    ],
+  );
   return Number(result.insertId);
 }
 
@@ -49,19 +55,32 @@ export async function findRoleChangeRequest(manager: EntityManager, id: number, 
 }
 
 export async function pendingRoleChanges(manager: EntityManager, personId?: number): Promise<RoleChangeRequest[]> {
-  const rows: RequestRow[] = await manager.query(`${select} WHERE r.status = 'pending'${personId ? ' AND r.person_id = ?' : ''} ORDER BY r.requested_at, r.id`, personId ? [personId] : []);
+  const rows: RequestRow[] = await manager.query(
+    `${select} WHERE r.status = 'pending'${personId ? ' AND r.person_id = ?' : ''} ORDER BY r.requested_at, r.id`,
+    personId ? [personId] : [],
+  );
   return rows.map((row) => {
     const { status: _status, ...request } = toRequest(row);
     return request;
   });
 }
 
-export async function decideRoleChangeRequest(manager: EntityManager, id: number, status: 'confirmed' | 'refused', decidedBy: number): Promise<void> {
-  await manager.query("UPDATE role_change_request SET status = ?, decided_by = ?, decided_at = CURRENT_TIMESTAMP(6) WHERE id = ? AND status = 'pending'", [status, decidedBy, id]);
+export async function decideRoleChangeRequest(
+  manager: EntityManager,
+  id: number,
+  status: 'confirmed' | 'refused',
+  decidedBy: number,
+): Promise<void> {
+  await manager.query(
+    "UPDATE role_change_request SET status = ?, decided_by = ?, decided_at = CURRENT_TIMESTAMP(6) WHERE id = ? AND status = 'pending'",
+    [status, decidedBy, id],
+  );
 }
 
 export async function administratorsMayApprove(manager: EntityManager): Promise<boolean> {
-  const [row]: Array<{ administrators_may_approve: number }> = await manager.query('SELECT administrators_may_approve FROM organisation ORDER BY id LIMIT 1');
+  const [row]: Array<{ administrators_may_approve: number }> = await manager.query(
+    'SELECT administrators_may_approve FROM organisation ORDER BY id LIMIT 1',
+  );
   return Boolean(row?.administrators_may_approve);
 }
 

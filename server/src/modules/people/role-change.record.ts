@@ -3,7 +3,11 @@ import { roleLabels, type Role } from '@shared/auth/roles';
 import type { SignableRecordType } from '../signatures/signable-records';
 import { appendLedgerEvent } from '../ledger/ledger.repository';
 import * as people from './people.repository';
-import { administratorsMayApprove, decideRoleChangeRequest, findRoleChangeRequest } from './role-change-requests.repository';
+import {
+  administratorsMayApprove,
+  decideRoleChangeRequest,
+  findRoleChangeRequest,
+} from './role-change-requests.repository';
 
 const labels = (roles: readonly Role[]) => (roles.length ? roles.map((role) => roleLabels[role]) : ['no roles']);
 
@@ -66,7 +70,14 @@ export const roleChangeRecordType: SignableRecordType = {
       });
     } else {
       await decideRoleChangeRequest(manager, request.id, 'refused', signerId);
-      await appendLedgerEvent(manager, { actor, action: 'person.role-change-refused', entity: { type: 'person', id: request.personId }, after: { request: request.id }, reason, origin });
+      await appendLedgerEvent(manager, {
+        actor,
+        action: 'person.role-change-refused',
+        entity: { type: 'person', id: request.personId },
+        after: { request: request.id },
+        reason,
+        origin,
+      });
     }
   },
 };

@@ -7,12 +7,14 @@ import type { DrillReport } from '@shared/schemas/recall';
 import { AppError } from '../../errors';
 import { findRecallRow, snapshotContent } from './recall.service';
 
-const chunked = <T>(items: T[], size = 1000): T[][] => Array.from({ length: Math.ceil(items.length / size) }, (_, index) => items.slice(index * size, (index + 1) * size));
+const chunked = <T>(items: T[], size = 1000): T[][] =>
+  Array.from({ length: Math.ceil(items.length / size) }, (_, index) => items.slice(index * size, (index + 1) * size));
 
 /** Rows of `sql` (with one IN (?) list) for every chunk of ids. */
 async function perLots<Row>(manager: EntityManager, sql: (marks: string) => string, ids: number[]): Promise<Row[]> {
   const rows: Row[] = [];
-  for (const chunk of chunked(ids)) rows.push(...((await manager.query(sql(chunk.map(() => '?').join(', ')), chunk)) as Row[]));
+  for (const chunk of chunked(ids))
+    rows.push(...((await manager.query(sql(chunk.map(() => '?').join(', ')), chunk)) as Row[]));
   return rows;
 }
 
@@ -30,9 +32,13 @@ export async function drillReport(dataSource: DataSource, id: number, now = new 
   const manager = dataSource.manager;
   const row = await findRecallRow(manager, id);
   if (!row) throw AppError.notFound('Recall investigation');
-  if (row.mode !== 'drill') throw AppError.rule(`${row.recall_number} is a recall, not a drill; export its affected set instead`);
+  if (row.mode !== 'drill')
+    throw AppError.rule(`${row.recall_number} is a recall, not a drill; export its affected set instead`);
   const opening = await snapshotContent(manager, id);
-  const reruns: Array<{ id: number }> = await manager.query("SELECT id FROM recall_snapshot WHERE recall_id = ? AND kind = 'rerun' ORDER BY id", [id]);
+  const reruns: Array<{ id: number }> = await manager.query(
+    "SELECT id FROM recall_snapshot WHERE recall_id = ? AND kind = 'rerun' ORDER BY id",
+    [id],
+  );
   const last = reruns.at(-1);
   const latest = last ? await snapshotContent(manager, id, last.id) : opening;
   const diff = diffAffectedSets(opening.content.trace, latest.content.trace);
@@ -42,14 +48,21 @@ export async function drillReport(dataSource: DataSource, id: number, now = new 
 
   const heats = await perLots<{ lot_id: number; heat_number: string; status: string; certificates: string }>(
     manager,
-    (marks) => `SELECT lh.lot_id, h.heat_number, h.status, (SELECT COUNT(*) FROM heat_certificate c WHERE c.heat_id = h.id) AS certificates
+    (
+      marks,
+    ) => `SELECT lh.lot_id, h.heat_number, h.status, (SELECT COUNT(*) FROM heat_certificate c WHERE c.heat_id = h.id) AS certificates
                   FROM lot_heat lh JOIN heat h ON h.id = lh.heat_id WHERE lh.lot_id IN (${marks}) ORDER BY h.heat_number`,
     ids,
   );
-  const shipped = await perLots<{ lot_id: number; units: string }>(manager, (marks) => `SELECT lot_id, SUM(qty) AS units FROM shipment WHERE lot_id IN (${marks}) GROUP BY lot_id`, ids);
+  const shipped = await perLots<{ lot_id: number; units: string }>(
+    manager,
+    (marks) => `SELECT lot_id, SUM(qty) AS units FROM shipment WHERE lot_id IN (${marks}) GROUP BY lot_id`,
+    ids,
+  );
   const children = await perLots<{ parent_lot_id: number; child_lot_id: number; lot_number: string; qty: number }>(
     manager,
-    (marks) => `SELECT k.parent_lot_id, k.child_lot_id, c.lot_number, k.qty FROM lot_link k JOIN production_lot c ON c.id = k.child_lot_id WHERE k.parent_lot_id IN (${marks}) ORDER BY c.lot_number`,
+    (marks) =>
+      `SELECT k.parent_lot_id, k.child_lot_id, c.lot_number, k.qty FROM lot_link k JOIN production_lot c ON c.id = k.child_lot_id WHERE k.parent_lot_id IN (${marks}) ORDER BY c.lot_number`,
     ids,
   );
   const shippedNow = new Map(shipped.map((entry) => [entry.lot_id, Number(entry.units)]));
@@ -67,8 +80,14 @@ export async function drillReport(dataSource: DataSource, id: number, now = new 
     shipped: lot.shipped,
     onHand: lot.onHand,
     shippedNow: shippedNow.get(lot.id) ?? 0,
-    sourceHeats: (heatsOf.get(lot.id) ?? []).map((heat) => ({ heatNumber: heat.heat_number, status: heat.status, certificates: Number(heat.certificates) })),
-    childrenOutsideScope: (childrenOf.get(lot.id) ?? []).filter((child) => !inScope.has(child.child_lot_id)).map((child) => child.lot_number),
+    sourceHeats: (heatsOf.get(lot.id) ?? []).map((heat) => ({
+      heatNumber: heat.heat_number,
+      status: heat.status,
+      certificates: Number(heat.certificates),
+    })),
+    childrenOutsideScope: (childrenOf.get(lot.id) ?? [])
+      .filter((child) => !inScope.has(child.child_lot_id))
+      .map((child) => child.lot_number),
   }));
   const openedAt = new Date(row.opened_at).toISOString();
   const closedAt = row.closed_at ? new Date(row.closed_at).toISOString() : null;
@@ -85,8 +104,21 @@ export async function drillReport(dataSource: DataSource, id: number, now = new 
     consignees,
   });
   return {
-    drill: { id, recallNumber: row.recall_number, status: row.status, trigger: row.trigger_label, reason: row.reason, openedBy: row.opened_by, openedAt, closedAt },
-    scope: { snapshot: latest.meta, lotsAddedSinceOpening: diff.lotsAdded.map((lot) => lot.lotNumber), lotsRemovedSinceOpening: diff.lotsRemoved.map((lot) => lot.lotNumber) },
+    drill: {
+      id,
+      recallNumber: row.recall_number,
+      status: row.status,
+      trigger: row.trigger_label,
+      reason: row.reason,
+      openedBy: row.opened_by,
+      openedAt,
+      closedAt,
+    },
+    scope: {
+      snapshot: latest.meta,
+      lotsAddedSinceOpening: diff.lotsAdded.map((lot) => lot.lotNumber),
+      lotsRemovedSinceOpening: diff.lotsRemoved.map((lot) => lot.lotNumber),
+    },
     assessment,
     lots: lots.map((lot, index) => ({ ...lot, heats: facts[index]!.sourceHeats.map((heat) => heat.heatNumber) })),
     consignees,

@@ -47,16 +47,36 @@ export async function holdsOfRecall(manager: EntityManager, recallId: number): P
 }
 
 /** Holds not yet lifted on these lots, each named by what placed it. */
-export async function activeHolds(manager: EntityManager, lotIds: number[]): Promise<Array<{ id: number; lotId: number; lotNumber: string; reference: string }>> {
+export async function activeHolds(
+  manager: EntityManager,
+  lotIds: number[],
+): Promise<Array<{ id: number; lotId: number; lotNumber: string; reference: string }>> {
   if (!lotIds.length) return [];
-  const rows: HoldRow[] = await manager.query(`${holdSelect} WHERE h.lot_id IN (${marks(lotIds)}) AND h.lifted_at IS NULL ORDER BY h.id`, lotIds);
-  return rows.map((row) => ({ id: row.id, lotId: row.lot_id, lotNumber: row.lot_number, reference: row.recall_number ? `recall investigation ${row.recall_number}` : `hold ${row.id}` }));
+  const rows: HoldRow[] = await manager.query(
+    `${holdSelect} WHERE h.lot_id IN (${marks(lotIds)}) AND h.lifted_at IS NULL ORDER BY h.id`,
+    lotIds,
+  );
+  return rows.map((row) => ({
+    id: row.id,
+    lotId: row.lot_id,
+    lotNumber: row.lot_number,
+    reference: row.recall_number ? `recall investigation ${row.recall_number}` : `hold ${row.id}`,
+  }));
 }
 
 /** Refuses a shipment, split or merge of a held lot with the hold that stops it. */
-export async function refuseIfHeld(manager: EntityManager, lotIds: number[], doing: string, field: string): Promise<void> {
+export async function refuseIfHeld(
+  manager: EntityManager,
+  lotIds: number[],
+  doing: string,
+  field: string,
+): Promise<void> {
   const [hold] = await activeHolds(manager, lotIds);
-  if (hold) throw AppError.rule(`Lot ${hold.lotNumber} is on hold by ${hold.reference}; it cannot be ${doing} until a QA approver lifts the hold`, { [field]: 'Lot on hold' });
+  if (hold)
+    throw AppError.rule(
+      `Lot ${hold.lotNumber} is on hold by ${hold.reference}; it cannot be ${doing} until a QA approver lifts the hold`,
+      { [field]: 'Lot on hold' },
+    );
 }
 
 /** Places a hold on each lot (one per lot and recall) and writes each lot's ledger event; returns the lot numbers held. */
@@ -69,11 +89,17 @@ export async function placeHolds(
 ): Promise<string[]> {
   if (!lots.length) return [];
   const ids = lots.map((lot) => lot.id);
-  const existing: Array<{ lot_id: number }> = await manager.query(`SELECT lot_id FROM lot_hold WHERE recall_id = ? AND lot_id IN (${marks(ids)})`, [hold.recallId, ...ids]);
+  const existing: Array<{ lot_id: number }> = await manager.query(
+    `SELECT lot_id FROM lot_hold WHERE recall_id = ? AND lot_id IN (${marks(ids)})`,
+    [hold.recallId, ...ids],
+  );
   const already = new Set(existing.map((row) => row.lot_id));
   const fresh = lots.filter((lot) => !already.has(lot.id));
   for (const lot of fresh) {
-    const result: { insertId: number } = await manager.query('INSERT INTO lot_hold (lot_id, recall_id, reason, placed_by) VALUES (?, ?, ?, ?)', [lot.id, hold.recallId, hold.reason.slice(0, 2000), hold.placedBy]);
+    const result: { insertId: number } = await manager.query(
+      'INSERT INTO lot_hold (lot_id, recall_id, reason, placed_by) VALUES (?, ?, ?, ?)',
+      [lot.id, hold.recallId, hold.reason.slice(0, 2000), hold.placedBy],
+    );
     await appendLedgerEvent(manager, {
       actor,
       action: 'lot.held',
@@ -99,7 +125,13 @@ export const lotHoldRecordType: SignableRecordType = {
     if (!row) return null;
     return {
       title: `Hold on lot ${row.lot_number}${row.recall_number ? ` (${row.recall_number})` : ''}`,
-      content: { lot: row.lot_number, recall: row.recall_number, reason: row.reason, placedBy: row.placed_by, placedAt: new Date(row.placed_at).toISOString() },
+      content: {
+        lot: row.lot_number,
+        recall: row.recall_number,
+        reason: row.reason,
+        placedBy: row.placed_by,
+        placedAt: new Date(row.placed_at).toISOString(),
+      },
       authorIds: [row.placed_by_id],
       lifted: row.lifted_at !== null,
     };
@@ -108,8 +140,15 @@ export const lotHoldRecordType: SignableRecordType = {
     return (record as unknown as { lifted: boolean }).lifted ? 'The hold is already lifted' : null;
   },
   async afterSign(manager, { recordId, signerId, signerName, reason }) {
-    const [row]: Array<{ lot_id: number }> = await manager.query('SELECT lot_id FROM lot_hold WHERE id = ? FOR UPDATE', [Number(recordId)]);
-    await manager.query('UPDATE lot_hold SET lifted_at = ?, lifted_by = ? WHERE id = ? AND lifted_at IS NULL', [new Date(), signerId, Number(recordId)]);
+    const [row]: Array<{ lot_id: number }> = await manager.query(
+      'SELECT lot_id FROM lot_hold WHERE id = ? FOR UPDATE',
+      [Number(recordId)],
+    );
+    await manager.query('UPDATE lot_hold SET lifted_at = ?, lifted_by = ? WHERE id = ? AND lifted_at IS NULL', [
+      new Date(),
+      signerId,
+      Number(recordId),
+    ]);
     await appendLedgerEvent(manager, {
       actor: { id: signerId, name: signerName, role: 'qa-approver' },
       action: 'lot.hold-lifted',

@@ -6,22 +6,35 @@ import { linkTo } from '../mail/links';
 
 /** The recall team: recall coordinators and QA approvers (who lift holds and close investigations). */
 async function recallTeam(manager: EntityManager): Promise<string[]> {
-  return [...(await addressesOfRole(manager, 'recall-coordinator')), ...(await addressesOfRole(manager, 'qa-approver'))];
+  return [
+    ...(await addressesOfRole(manager, 'recall-coordinator')),
+    ...(await addressesOfRole(manager, 'qa-approver')),
+  ];
 }
 
-const caution = 'Decisions on field actions, customer notification and regulatory reporting rest with your quality system; Ingotrace keeps the records and computes the trace.';
+const caution =
+  'Decisions on field actions, customer notification and regulatory reporting rest with your quality system; Ingotrace keeps the records and computes the trace.';
 
 function summary(trace: ForwardTrace): string[] {
   return [
     `Affected lots: ${trace.lots.length}`,
     `Units started: ${trace.totals.made}; released: ${trace.totals.released}; shipped: ${trace.totals.shipped}; in plant: ${trace.totals.onHand}`,
     `Consignees who received affected units: ${trace.consignees.length}`,
-    ...trace.consignees.slice(0, 50).map((consignee) => `  - ${consignee.name} (${consignee.country}): ${consignee.units} units from ${consignee.lots} lot(s)`),
+    ...trace.consignees
+      .slice(0, 50)
+      .map(
+        (consignee) =>
+          `  - ${consignee.name} (${consignee.country}): ${consignee.units} units from ${consignee.lots} lot(s)`,
+      ),
     ...(trace.consignees.length > 50 ? [`  … and ${trace.consignees.length - 50} more in the export`] : []),
   ];
 }
 
-export async function queueRecallOpenedMail(manager: EntityManager, recall: { id: number; recallNumber: string; triggerLabel: string; reason: string; openedBy: string; held: string[] }, trace: ForwardTrace) {
+export async function queueRecallOpenedMail(
+  manager: EntityManager,
+  recall: { id: number; recallNumber: string; triggerLabel: string; reason: string; openedBy: string; held: string[] },
+  trace: ForwardTrace,
+) {
   const body = [
     `${recall.openedBy} opened recall investigation ${recall.recallNumber} from ${recall.triggerLabel}.`,
     `Reason: ${recall.reason}`,
@@ -33,10 +46,21 @@ export async function queueRecallOpenedMail(manager: EntityManager, recall: { id
     '',
     caution,
   ];
-  await queueMail(manager, { to: await recallTeam(manager), subject: `Recall investigation ${recall.recallNumber} opened: ${recall.triggerLabel}`, text: body.join('\n'), event: 'recall.opened', entity: { type: 'recall', id: recall.id } });
+  await queueMail(manager, {
+    to: await recallTeam(manager),
+    subject: `Recall investigation ${recall.recallNumber} opened: ${recall.triggerLabel}`,
+    text: body.join('\n'),
+    event: 'recall.opened',
+    entity: { type: 'recall', id: recall.id },
+  });
 }
 
-export async function queueRecallWidenedMail(manager: EntityManager, recall: { id: number; recallNumber: string; rerunBy: string }, diff: SnapshotDiff, held: string[]) {
+export async function queueRecallWidenedMail(
+  manager: EntityManager,
+  recall: { id: number; recallNumber: string; rerunBy: string },
+  diff: SnapshotDiff,
+  held: string[],
+) {
   const body = [
     `${recall.rerunBy} re-ran the trace of recall investigation ${recall.recallNumber}; the affected set differs from the one frozen when it was opened.`,
     '',
@@ -51,10 +75,34 @@ export async function queueRecallWidenedMail(manager: EntityManager, recall: { i
     '',
     caution,
   ];
-  await queueMail(manager, { to: await recallTeam(manager), subject: `Recall investigation ${recall.recallNumber}: the affected set changed`, text: body.join('\n'), event: 'recall.widened', entity: { type: 'recall', id: recall.id } });
+  await queueMail(manager, {
+    to: await recallTeam(manager),
+    subject: `Recall investigation ${recall.recallNumber}: the affected set changed`,
+    text: body.join('\n'),
+    event: 'recall.widened',
+    entity: { type: 'recall', id: recall.id },
+  });
 }
 
-export async function queueRecallClosedMail(manager: EntityManager, recall: { id: number; recallNumber: string }, closedBy: string, reason: string | null) {
-  const body = [`${closedBy} closed recall investigation ${recall.recallNumber} with an electronic signature.`, `Reason: ${reason ?? '—'}`, '', `Open the investigation: ${linkTo(`/recalls/${recall.id}`)}`, '', caution];
-  await queueMail(manager, { to: await recallTeam(manager), subject: `Recall investigation ${recall.recallNumber} closed`, text: body.join('\n'), event: 'recall.closed', entity: { type: 'recall', id: recall.id } });
+export async function queueRecallClosedMail(
+  manager: EntityManager,
+  recall: { id: number; recallNumber: string },
+  closedBy: string,
+  reason: string | null,
+) {
+  const body = [
+    `${closedBy} closed recall investigation ${recall.recallNumber} with an electronic signature.`,
+    `Reason: ${reason ?? '—'}`,
+    '',
+    `Open the investigation: ${linkTo(`/recalls/${recall.id}`)}`,
+    '',
+    caution,
+  ];
+  await queueMail(manager, {
+    to: await recallTeam(manager),
+    subject: `Recall investigation ${recall.recallNumber} closed`,
+    text: body.join('\n'),
+    event: 'recall.closed',
+    entity: { type: 'recall', id: recall.id },
+  });
 }

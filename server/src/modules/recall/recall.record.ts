@@ -19,7 +19,10 @@ export const recallInvestigationRecordType: SignableRecordType = {
     const row = await findRecallRow(manager, Number(recordId));
     if (!row) return null;
     const opening = await snapshotContent(manager, row.id);
-    const reruns: Array<{ taken_at: Date; sha256: string }> = await manager.query("SELECT taken_at, sha256 FROM recall_snapshot WHERE recall_id = ? AND kind = 'rerun' ORDER BY id", [row.id]);
+    const reruns: Array<{ taken_at: Date; sha256: string }> = await manager.query(
+      "SELECT taken_at, sha256 FROM recall_snapshot WHERE recall_id = ? AND kind = 'rerun' ORDER BY id",
+      [row.id],
+    );
     return {
       title: `${row.mode === 'drill' ? 'Recall drill' : 'Recall investigation'} ${row.recall_number}: ${row.trigger_label}`,
       content: {
@@ -32,7 +35,10 @@ export const recallInvestigationRecordType: SignableRecordType = {
         affectedLots: opening.content.trace.lots.length,
         consignees: opening.content.trace.consignees.length,
         openingSnapshotSha256: opening.meta.sha256,
-        rerunSnapshots: reruns.map((rerun) => ({ takenAt: new Date(rerun.taken_at).toISOString(), sha256: rerun.sha256 })),
+        rerunSnapshots: reruns.map((rerun) => ({
+          takenAt: new Date(rerun.taken_at).toISOString(),
+          sha256: rerun.sha256,
+        })),
       },
       authorIds: [row.opened_by_id],
       status: row.status,
@@ -42,14 +48,26 @@ export const recallInvestigationRecordType: SignableRecordType = {
   refusal({ record }) {
     const facts = record as unknown as { status: string; activeHolds: number };
     if (facts.status !== 'open') return 'The investigation is already closed';
-    if (facts.activeHolds > 0) return `${facts.activeHolds} lot(s) are still held by this investigation; a QA approver lifts each hold (after its disposition) before it closes`;
+    if (facts.activeHolds > 0)
+      return `${facts.activeHolds} lot(s) are still held by this investigation; a QA approver lifts each hold (after its disposition) before it closes`;
     return null;
   },
   async afterSign(manager, { recordId, signerId, signerName, reason }) {
     const id = Number(recordId);
     const row = await findRecallRow(manager, id, true);
-    await manager.query("UPDATE recall_investigation SET status = 'closed', closed_at = ? WHERE id = ?", [new Date(), id]);
-    await appendLedgerEvent(manager, { actor: { id: signerId, name: signerName, role: null }, action: 'recall.closed', entity: { type: 'recall', id }, before: { status: 'open' }, after: { status: 'closed' }, reason });
-    if (row?.mode === 'recall') await queueRecallClosedMail(manager, { id, recallNumber: row.recall_number }, signerName, reason);
+    await manager.query("UPDATE recall_investigation SET status = 'closed', closed_at = ? WHERE id = ?", [
+      new Date(),
+      id,
+    ]);
+    await appendLedgerEvent(manager, {
+      actor: { id: signerId, name: signerName, role: null },
+      action: 'recall.closed',
+      entity: { type: 'recall', id },
+      before: { status: 'open' },
+      after: { status: 'closed' },
+      reason,
+    });
+    if (row?.mode === 'recall')
+      await queueRecallClosedMail(manager, { id, recallNumber: row.recall_number }, signerName, reason);
   },
 };

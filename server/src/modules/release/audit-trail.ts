@@ -47,7 +47,13 @@ export async function lotAuditTrail(manager: EntityManager, lotId: number, linea
     [String(lotId), REVIEW_ACTION],
   );
   // Reviews recorded before the trail was recorded with them covered everything before their own event.
-  const recorded = review?.after_json ? (JSON.parse(review.after_json) as { auditTrail?: { throughSeq?: number } }).auditTrail?.throughSeq : undefined;
+  const recorded = review?.after_json
+    ? (JSON.parse(review.after_json) as { auditTrail?: { throughSeq?: number } }).auditTrail?.throughSeq
+    : undefined;
   const reviewedThroughSeq = review ? (recorded ?? Number(review.seq)) : null;
-  return { events, reviewedThroughSeq, afterReview: reviewedThroughSeq === null ? [] : events.filter((event) => event.seq > reviewedThroughSeq) };
+  return {
+    events,
+    reviewedThroughSeq,
+    afterReview: reviewedThroughSeq === null ? [] : events.filter((event) => event.seq > reviewedThroughSeq),
+  };
 }

@@ -12,8 +12,19 @@ const MM = 72 / 25.4;
  * human-readable interpretation of its AIs, part and lot. Printing is counted separately
  * (label_print), so that labels reconcile with the units released.
  */
-export async function lotLabelsPdf(dataSource: DataSource, lotId: number, options: { count: number; widthMm: number; heightMm: number }): Promise<{ lotNumber: string; pdf: Buffer }> {
-  const [lot]: Array<{ lot_number: string; gtin: string; part_number: string; revision: string; description: string; opened_at: Date }> = await dataSource.query(
+export async function lotLabelsPdf(
+  dataSource: DataSource,
+  lotId: number,
+  options: { count: number; widthMm: number; heightMm: number },
+): Promise<{ lotNumber: string; pdf: Buffer }> {
+  const [lot]: Array<{
+    lot_number: string;
+    gtin: string;
+    part_number: string;
+    revision: string;
+    description: string;
+    opened_at: Date;
+  }> = await dataSource.query(
     'SELECT l.lot_number, p.gtin, p.part_number, p.revision, p.description, l.opened_at FROM production_lot l JOIN part p ON p.id = l.part_id WHERE l.id = ?',
     [lotId],
   );
@@ -39,9 +50,18 @@ export async function lotLabelsPdf(dataSource: DataSource, lotId: number, option
       columnGap: 6,
     },
   ];
-  const pages: Content[] = Array.from({ length: options.count }, (_unused, index) => ({ stack: label(), pageBreak: index > 0 ? 'before' : undefined }) as Content);
+  const pages: Content[] = Array.from(
+    { length: options.count },
+    (_unused, index) => ({ stack: label(), pageBreak: index > 0 ? 'before' : undefined }) as Content,
+  );
   const pdf = await renderPdf({
-    info: { title: `Labels, lot ${lot.lot_number}`, creator: 'Ingotrace', producer: 'Ingotrace', creationDate: new Date(lot.opened_at), subject: buildBarcodeData(udi) },
+    info: {
+      title: `Labels, lot ${lot.lot_number}`,
+      creator: 'Ingotrace',
+      producer: 'Ingotrace',
+      creationDate: new Date(lot.opened_at),
+      subject: buildBarcodeData(udi),
+    },
     pageSize: { width: options.widthMm * MM, height: options.heightMm * MM },
     pageMargins: [4 * MM, 4 * MM, 4 * MM, 3 * MM],
     content: pages,

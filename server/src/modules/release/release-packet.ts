@@ -56,8 +56,12 @@ export async function packetData(manager: EntityManager, lotId: number, publicUr
     `SELECT DISTINCT b.heat_id AS id FROM material_movement m JOIN bar_piece b ON b.id = m.bar_piece_id WHERE m.lot_id IN (${marks}) AND m.kind = 'issue'`,
     lineage,
   );
-  const ncIds = ((dossier.content.nonconformances as Array<{ nonconformance: string }>) ?? []).map((nc) => nc.nonconformance);
-  const ncRows: Array<{ id: number }> = ncIds.length ? await manager.query(`SELECT id FROM nonconformance WHERE nc_number IN (${ncIds.map(() => '?').join(',')})`, ncIds) : [];
+  const ncIds = ((dossier.content.nonconformances as Array<{ nonconformance: string }>) ?? []).map(
+    (nc) => nc.nonconformance,
+  );
+  const ncRows: Array<{ id: number }> = ncIds.length
+    ? await manager.query(`SELECT id FROM nonconformance WHERE nc_number IN (${ncIds.map(() => '?').join(',')})`, ncIds)
+    : [];
   const records: Array<[string, string]> = [
     ['lot-release', String(lotId)],
     ...heatIds.map((row): [string, string] => ['heat', String(row.id)]),
@@ -66,17 +70,32 @@ export async function packetData(manager: EntityManager, lotId: number, publicUr
   const signatures: SignatureLine[] = [];
   let releasedAt: Date | null = null;
   for (const [recordType, recordId] of records) {
-    const rows: Array<{ meaning: string; signed_at_text: string; signed_at: Date; reason: string | null; content_hash: string; record_type: string }> = await manager.query(
+    const rows: Array<{
+      meaning: string;
+      signed_at_text: string;
+      signed_at: Date;
+      reason: string | null;
+      content_hash: string;
+      record_type: string;
+    }> = await manager.query(
       'SELECT meaning, signed_at_text, signed_at, reason, content_hash, record_type FROM electronic_signature WHERE record_type = ? AND record_id = ? ORDER BY id',
       [recordType, recordId],
     );
     for (const row of rows) {
-      signatures.push({ record: recordType === 'lot-release' ? 'lot release' : recordType === 'heat' ? 'heat disposition' : 'nonconformance', manifestation: row.signed_at_text, reason: row.reason, contentHash: row.content_hash });
+      signatures.push({
+        record:
+          recordType === 'lot-release' ? 'lot release' : recordType === 'heat' ? 'heat disposition' : 'nonconformance',
+        manifestation: row.signed_at_text,
+        reason: row.reason,
+        contentHash: row.content_hash,
+      });
       if (recordType === 'lot-release' && row.meaning === 'approved-for-release') releasedAt = new Date(row.signed_at);
     }
   }
   if (!releasedAt) throw new Error(`lot ${lotId} has no release signature`);
-  const [organisation]: Array<{ name: string; time_zone: string }> = await manager.query('SELECT name, time_zone FROM organisation ORDER BY id LIMIT 1');
+  const [organisation]: Array<{ name: string; time_zone: string }> = await manager.query(
+    'SELECT name, time_zone FROM organisation ORDER BY id LIMIT 1',
+  );
   const content = dossier.content as PacketData['dossier'];
   const udi = { gtin: content.gtin, lot: content.lot, serial: null, expiry: null, productionDate: null };
   const trail = await lotAuditTrail(manager, lotId, lineage);
@@ -89,7 +108,10 @@ export async function packetData(manager: EntityManager, lotId: number, publicUr
     barPieces,
     signatures,
     releasedAt,
-    auditTrail: { reviewedThroughSeq: reviewed, events: reviewed === null ? [] : trail.events.filter((event) => event.seq <= reviewed) },
+    auditTrail: {
+      reviewedThroughSeq: reviewed,
+      events: reviewed === null ? [] : trail.events.filter((event) => event.seq <= reviewed),
+    },
     elementString: buildElementString(udi),
     digitalLink: buildDigitalLink(udi, publicUrl),
   };
@@ -99,7 +121,15 @@ export async function packetData(manager: EntityManager, lotId: number, publicUr
 /** The release packet PDF: what an auditor, a customer or a notified body sees of the release decision. */
 export async function renderReleasePacket(data: PacketData): Promise<Buffer> {
   const dossier = data.dossier as PacketData['dossier'] & {
-    heats: Array<{ heat: string; supplier: string; specification: string; disposition: string; evaluation: string | null; justification?: string; certificates: string[] }>;
+    heats: Array<{
+      heat: string;
+      supplier: string;
+      specification: string;
+      disposition: string;
+      evaluation: string | null;
+      justification?: string;
+      certificates: string[];
+    }>;
     operations: Array<{ step: string; units: string; by: string; ended: string; files: string[] }>;
     steps: Array<{ lot: string; step: string; verdict: string | null }>;
     runs: Array<{ run: string; method: string; inWindow: boolean; parameters: Record<string, string> }>;
@@ -110,7 +140,14 @@ export async function renderReleasePacket(data: PacketData): Promise<Buffer> {
   const dataMatrix = await bwipjs.toBuffer({ bcid: 'gs1datamatrix', text: data.elementString, scale: 4, padding: 4 });
   const qr = await QRCode.toDataURL(data.digitalLink, { margin: 4, scale: 4, errorCorrectionLevel: 'M' });
   const definition: TDocumentDefinitions = {
-    info: { title: `Release packet, lot ${dossier.lot}`, author: data.organisation, subject: dossier.part, creator: 'Ingotrace', producer: 'Ingotrace', creationDate: data.releasedAt },
+    info: {
+      title: `Release packet, lot ${dossier.lot}`,
+      author: data.organisation,
+      subject: dossier.part,
+      creator: 'Ingotrace',
+      producer: 'Ingotrace',
+      creationDate: data.releasedAt,
+    },
     pageSize: 'A4',
     pageMargins: [40, 50, 40, 50],
     footer: pageFooter(`Lot ${dossier.lot} · release packet · content SHA-256 ${data.contentHash.slice(0, 16)}…`),
@@ -128,7 +165,9 @@ export async function renderReleasePacket(data: PacketData): Promise<Buffer> {
               { text: `Lot ${dossier.lot}` },
               { text: `Quantity released: ${dossier.quantity ?? 0} units` },
               { text: `GTIN ${dossier.gtin}` },
-              { text: `Released ${plantDateTimeSeconds(data.releasedAt, data.timeZone)} (${timeZoneNote(data.timeZone)})` },
+              {
+                text: `Released ${plantDateTimeSeconds(data.releasedAt, data.timeZone)} (${timeZoneNote(data.timeZone)})`,
+              },
               { text: 'UDI (GS1 element string):', margin: [0, 8, 0, 0], bold: true },
               { text: data.elementString },
               { text: 'GS1 Digital Link (opens this lot in Ingotrace):', margin: [0, 6, 0, 0], bold: true },
@@ -150,7 +189,9 @@ export async function renderReleasePacket(data: PacketData): Promise<Buffer> {
       heading('Release signatures'),
       table(
         ['Record', 'Signature (name — meaning — date and time)', 'Reason'],
-        data.signatures.filter((signature) => signature.record === 'lot release').map((signature) => [signature.record, signature.manifestation, signature.reason ?? '']),
+        data.signatures
+          .filter((signature) => signature.record === 'lot release')
+          .map((signature) => [signature.record, signature.manifestation, signature.reason ?? '']),
         [70, '*', 120],
       ),
       heading('Genealogy: heats, their bar pieces, the lot and its runs'),
@@ -159,16 +200,32 @@ export async function renderReleasePacket(data: PacketData): Promise<Buffer> {
         ['Heat', 'Bar pieces', 'Lot', 'Runs'],
         dossier.heats.map((heat) => [
           heat.heat,
-          data.barPieces.filter((piece) => piece.heat === heat.heat).map((piece) => piece.tag).join(', '),
+          data.barPieces
+            .filter((piece) => piece.heat === heat.heat)
+            .map((piece) => piece.tag)
+            .join(', '),
           dossier.lot,
           dossier.runs.map((run) => run.run).join(', '),
         ]),
       ),
       // The release content as signed, drawn by the same document the signing dialog shows.
-      ...pdfSections(signedContentDocument(data.dossier, data.timeZone).filter((section) => section.title !== null && section.key !== 'genealogy')),
+      ...pdfSections(
+        signedContentDocument(data.dossier, data.timeZone).filter(
+          (section) => section.title !== null && section.key !== 'genealogy',
+        ),
+      ),
       ...dossier.heats
         .filter((heat) => heat.justification)
-        .map((heat) => ({ text: `Heat ${heat.heat} was accepted although some items cannot be evaluated, on this signed justification: ${heat.justification}`, fontSize: 8, bold: true, color: '#7a4b00', margin: [0, 4, 0, 0] }) as never),
+        .map(
+          (heat) =>
+            ({
+              text: `Heat ${heat.heat} was accepted although some items cannot be evaluated, on this signed justification: ${heat.justification}`,
+              fontSize: 8,
+              bold: true,
+              color: '#7a4b00',
+              margin: [0, 4, 0, 0],
+            }) as never,
+        ),
       heading('Audit trail reviewed before release'),
       {
         text:
@@ -179,18 +236,34 @@ export async function renderReleasePacket(data: PacketData): Promise<Buffer> {
       },
       table(
         ['Event', 'Time', 'By', 'What', 'Lot', 'Reason'],
-        data.auditTrail.events.map((event) => [String(event.seq), plantDateTimeSeconds(event.occurredAt, data.timeZone), event.actor, auditEventName(event.action), event.lot, event.reason ?? '']),
+        data.auditTrail.events.map((event) => [
+          String(event.seq),
+          plantDateTimeSeconds(event.occurredAt, data.timeZone),
+          event.actor,
+          auditEventName(event.action),
+          event.lot,
+          event.reason ?? '',
+        ]),
         ['auto', 88, 90, '*', 'auto', '*'],
       ),
       heading('Every signature in this record'),
       table(
         ['Record', 'Signature', 'Reason', 'Signed content SHA-256'],
-        data.signatures.map((signature) => [signature.record, signature.manifestation, signature.reason ?? '', hash(signature.contentHash) as never]),
+        data.signatures.map((signature) => [
+          signature.record,
+          signature.manifestation,
+          signature.reason ?? '',
+          hash(signature.contentHash) as never,
+        ]),
         ['auto', 150, '*', 'auto'],
       ),
       heading('Integrity'),
       { text: `Packet content SHA-256 (canonical JSON of everything stated here): ${data.contentHash}`, style: 'mono' },
-      { table: { widths: ['*'], body: [[{ text: releaseCaution, style: 'caution', margin: [8, 6, 8, 6] }]] }, layout: 'noBorders', margin: [0, 12, 0, 0] },
+      {
+        table: { widths: ['*'], body: [[{ text: releaseCaution, style: 'caution', margin: [8, 6, 8, 6] }]] },
+        layout: 'noBorders',
+        margin: [0, 12, 0, 0],
+      },
     ],
   };
   return renderPdf(definition);

@@ -9,7 +9,11 @@ import { lotAuditTrail } from './audit-trail';
 import { ancestry, releaseDossierIn } from './release-dossier';
 import { queueReleaseMail } from './release-mails';
 
-const actions = { reviewed: 'release.review', 'approved-for-release': 'release.approve', 'returned-to-engineering': 'release.reject' } as const;
+const actions = {
+  reviewed: 'release.review',
+  'approved-for-release': 'release.approve',
+  'returned-to-engineering': 'release.reject',
+} as const;
 
 /**
  * A lot's release: the QA reviewer signs "reviewed", then a different QA approver signs
@@ -26,11 +30,15 @@ export const lotReleaseRecordType: SignableRecordType = {
   meanings: ['reviewed', 'approved-for-release', 'returned-to-engineering'],
   // Every release is witnessed outside the database: the audit ledger is checkpointed once it commits.
   async afterCommit(dataSource, { meaning }) {
-    if (meaning === 'approved-for-release' && checkpointTriggers.onRelease) await checkpointLedger(dataSource, loadConfig(), 'release');
+    if (meaning === 'approved-for-release' && checkpointTriggers.onRelease)
+      await checkpointLedger(dataSource, loadConfig(), 'release');
   },
   async load(manager, recordId) {
     if (!/^\d{1,10}$/.test(recordId)) return null;
-    const [lot]: Array<{ id: number; lot_number: string; status: string }> = await manager.query('SELECT id, lot_number, status FROM production_lot WHERE id = ?', [Number(recordId)]);
+    const [lot]: Array<{ id: number; lot_number: string; status: string }> = await manager.query(
+      'SELECT id, lot_number, status FROM production_lot WHERE id = ?',
+      [Number(recordId)],
+    );
     if (!lot) return null;
     const dossier = await releaseDossierIn(manager, lot.id);
     const hash = contentHash(dossier.content, sha256Hex);
@@ -48,12 +56,19 @@ export const lotReleaseRecordType: SignableRecordType = {
     };
   },
   // The review covers the trail as the reviewer was shown it; an event in between refuses the signature.
-  trailMark: (record, meaning) => (meaning === 'reviewed' ? (record.trail as { throughSeq: number; events: number }) : undefined),
+  trailMark: (record, meaning) =>
+    meaning === 'reviewed' ? (record.trail as { throughSeq: number; events: number }) : undefined,
   refusal({ meaning, record }) {
-    const facts = record as unknown as { status: string; ready: boolean; reviewedCurrent: boolean; trailAfterReview: string[] };
+    const facts = record as unknown as {
+      status: string;
+      ready: boolean;
+      reviewedCurrent: boolean;
+      trailAfterReview: string[];
+    };
     const reviewVoid = !facts.reviewedCurrent || facts.trailAfterReview.length > 0;
     if (meaning === 'reviewed') {
-      if (facts.status !== 'submitted' && !(facts.status === 'reviewed' && reviewVoid)) return `The lot is ${facts.status}, not awaiting review`;
+      if (facts.status !== 'submitted' && !(facts.status === 'reviewed' && reviewVoid))
+        return `The lot is ${facts.status}, not awaiting review`;
       if (!facts.ready) return 'The lot is no longer ready for release; see its checklist';
     }
     if (meaning === 'approved-for-release') {
@@ -64,34 +79,58 @@ export const lotReleaseRecordType: SignableRecordType = {
       }
       if (!facts.ready) return 'The lot is no longer ready for release; see its checklist';
     }
-    if (meaning === 'returned-to-engineering' && facts.status !== 'submitted' && facts.status !== 'reviewed') return `The lot is ${facts.status}; only a lot under review can be returned to engineering`;
+    if (meaning === 'returned-to-engineering' && facts.status !== 'submitted' && facts.status !== 'reviewed')
+      return `The lot is ${facts.status}; only a lot under review can be returned to engineering`;
     return null;
   },
   async afterSign(manager, { recordId, meaning, signerId, signerName, reason }) {
     const lotId = Number(recordId);
-    const [lot]: Array<{ status: string }> = await manager.query('SELECT status FROM production_lot WHERE id = ? FOR UPDATE', [lotId]);
+    const [lot]: Array<{ status: string }> = await manager.query(
+      'SELECT status FROM production_lot WHERE id = ? FOR UPDATE',
+      [lotId],
+    );
     const next = meaning === 'reviewed' ? 'reviewed' : meaning === 'approved-for-release' ? 'released' : 'open';
     // The review records how far the lot's audit trail went when it was signed.
     const trail = meaning === 'reviewed' ? await lotAuditTrail(manager, lotId, await ancestry(manager, lotId)) : null;
     if (meaning === 'approved-for-release') {
       const dossier = await releaseDossierIn(manager, lotId);
-      await manager.query("UPDATE production_lot SET status = 'released', released_qty = ? WHERE id = ?", [dossier.lot.onHand ?? 0, lotId]);
-      await manager.query("UPDATE release_submission SET outcome = 'released', closed_at = ? WHERE lot_id = ? AND outcome = 'pending'", [new Date(), lotId]);
+      await manager.query("UPDATE production_lot SET status = 'released', released_qty = ? WHERE id = ?", [
+        dossier.lot.onHand ?? 0,
+        lotId,
+      ]);
+      await manager.query(
+        "UPDATE release_submission SET outcome = 'released', closed_at = ? WHERE lot_id = ? AND outcome = 'pending'",
+        [new Date(), lotId],
+      );
     } else if (meaning === 'returned-to-engineering') {
       await manager.query("UPDATE production_lot SET status = 'open' WHERE id = ?", [lotId]);
-      await manager.query("UPDATE release_submission SET outcome = 'returned', closed_at = ? WHERE lot_id = ? AND outcome = 'pending'", [new Date(), lotId]);
+      await manager.query(
+        "UPDATE release_submission SET outcome = 'returned', closed_at = ? WHERE lot_id = ? AND outcome = 'pending'",
+        [new Date(), lotId],
+      );
     } else {
       await manager.query("UPDATE production_lot SET status = 'reviewed' WHERE id = ?", [lotId]);
     }
-    await queueReleaseMail(manager, lotId, meaning === 'approved-for-release' ? 'released' : meaning === 'returned-to-engineering' ? 'returned' : 'reviewed', reason);
+    await queueReleaseMail(
+      manager,
+      lotId,
+      meaning === 'approved-for-release' ? 'released' : meaning === 'returned-to-engineering' ? 'returned' : 'reviewed',
+      reason,
+    );
     await appendLedgerEvent(manager, {
-      actor: { id: signerId, name: signerName, role: meaning === 'approved-for-release' ? 'qa-approver' : 'qa-reviewer' },
+      actor: {
+        id: signerId,
+        name: signerName,
+        role: meaning === 'approved-for-release' ? 'qa-approver' : 'qa-reviewer',
+      },
       action: `lot.${meaning === 'approved-for-release' ? 'released' : meaning}`,
       entity: { type: 'lot', id: lotId },
       before: { status: lot?.status ?? null },
-      after: { status: next, ...(trail ? { auditTrail: { events: trail.events.length, throughSeq: trail.events.at(-1)?.seq ?? 0 } } : {}) },
+      after: {
+        status: next,
+        ...(trail ? { auditTrail: { events: trail.events.length, throughSeq: trail.events.at(-1)?.seq ?? 0 } } : {}),
+      },
       reason,
     });
   },
 };
-

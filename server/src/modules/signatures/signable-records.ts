@@ -33,11 +33,27 @@ export interface SignableRecordType {
    */
   trailMark?(record: SignableContent, meaning: SignatureMeaning): { throughSeq: number; events: number } | undefined;
   /** Extra rules (separation of duties); returns the reason to refuse, or null. */
-  refusal?(input: { signerId: number; meaning: SignatureMeaning; record: SignableContent; earlierSignatures: Array<{ signerId: number; meaning: SignatureMeaning }> }): string | null;
+  refusal?(input: {
+    signerId: number;
+    meaning: SignatureMeaning;
+    record: SignableContent;
+    earlierSignatures: Array<{ signerId: number; meaning: SignatureMeaning }>;
+  }): string | null;
   /** Work after the signature has committed (e.g. a release checkpoints the audit ledger); its failure does not undo the signature. */
   afterCommit?(dataSource: DataSource, input: { recordId: string; meaning: SignatureMeaning }): Promise<void>;
   /** What the signature changes on the record (e.g. a heat's status), inside the signature's transaction. */
-  afterSign?(manager: EntityManager, input: { recordId: string; meaning: SignatureMeaning; signerId: number; signerName: string; reason: string | null; signatureLedgerSeq: number; origin?: RequestOrigin }): Promise<void>;
+  afterSign?(
+    manager: EntityManager,
+    input: {
+      recordId: string;
+      meaning: SignatureMeaning;
+      signerId: number;
+      signerName: string;
+      reason: string | null;
+      signatureLedgerSeq: number;
+      origin?: RequestOrigin;
+    },
+  ): Promise<void>;
 }
 
 const registry = new Map<string, SignableRecordType>();

@@ -20,12 +20,26 @@ export interface SignatureRow {
   ledger_seq: string;
 }
 
-export async function signaturesFor(manager: EntityManager, recordType: string, recordId: string): Promise<SignatureRow[]> {
-  return manager.query('SELECT * FROM electronic_signature WHERE record_type = ? AND record_id = ? ORDER BY id', [recordType, recordId]);
+export async function signaturesFor(
+  manager: EntityManager,
+  recordType: string,
+  recordId: string,
+): Promise<SignatureRow[]> {
+  return manager.query('SELECT * FROM electronic_signature WHERE record_type = ? AND record_id = ? ORDER BY id', [
+    recordType,
+    recordId,
+  ]);
 }
 
-export async function newestSignaturesOfType(manager: EntityManager, recordType: string, limit = 50): Promise<SignatureRow[]> {
-  return manager.query('SELECT * FROM electronic_signature WHERE record_type = ? ORDER BY id DESC LIMIT ?', [recordType, limit]);
+export async function newestSignaturesOfType(
+  manager: EntityManager,
+  recordType: string,
+  limit = 50,
+): Promise<SignatureRow[]> {
+  return manager.query('SELECT * FROM electronic_signature WHERE record_type = ? ORDER BY id DESC LIMIT ?', [
+    recordType,
+    limit,
+  ]);
 }
 
 export async function insertSignature(manager: EntityManager, row: Omit<SignatureRow, 'id'>): Promise<number> {
@@ -58,7 +72,10 @@ export async function insertSignature(manager: EntityManager, row: Omit<Signatur
 export async function* allSignatures(manager: EntityManager, batchSize = 2000): AsyncGenerator<SignatureRow> {
   let after = 0;
   for (;;) {
-    const rows: SignatureRow[] = await manager.query('SELECT * FROM electronic_signature WHERE id > ? ORDER BY id LIMIT ?', [after, batchSize]);
+    const rows: SignatureRow[] = await manager.query(
+      'SELECT * FROM electronic_signature WHERE id > ? ORDER BY id LIMIT ?',
+      [after, batchSize],
+    );
     if (rows.length === 0) return;
     for (const row of rows) yield row;
     after = Number(rows[rows.length - 1]!.id);

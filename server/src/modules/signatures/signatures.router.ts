@@ -1,5 +1,11 @@
 import { Router } from 'express';
-import { signatureIntentSchema, signatureListQuerySchema, signatureRequestSchema, type SignatureIntent, type SignatureRequest } from '@shared/schemas/signatures';
+import {
+  signatureIntentSchema,
+  signatureListQuerySchema,
+  signatureRequestSchema,
+  type SignatureIntent,
+  type SignatureRequest,
+} from '@shared/schemas/signatures';
 import type { AppContext } from '../../app-context';
 import { currentPerson, originOf, requireSignedIn } from '../../middleware/access';
 import { validate } from '../../middleware/validate';
@@ -19,16 +25,27 @@ export function signaturesRouter(context: AppContext): Router {
     limit: context.config.SIGNING_ATTEMPTS_PER_15_MIN,
     connect: () => context.database.connect(),
     key: 'person',
-    message: (minutes) => `Too many signatures begun in a short time; try again in ${minutes} minute${minutes === 1 ? '' : 's'}`,
+    message: (minutes) =>
+      `Too many signatures begun in a short time; try again in ${minutes} minute${minutes === 1 ? '' : 's'}`,
     answer: 'json',
   });
 
-  router.post('/signatures/preparations', requireSignedIn(), signing, validate({ body: signatureIntentSchema }), async (req, res) => {
-    res.json(await prepareSignature(dataSource(), currentPerson(req)!, res.locals.valid.body as SignatureIntent));
-  });
+  router.post(
+    '/signatures/preparations',
+    requireSignedIn(),
+    signing,
+    validate({ body: signatureIntentSchema }),
+    async (req, res) => {
+      res.json(await prepareSignature(dataSource(), currentPerson(req)!, res.locals.valid.body as SignatureIntent));
+    },
+  );
 
   router.post('/signatures', requireSignedIn(), validate({ body: signatureRequestSchema }), async (req, res) => {
-    res.status(201).json(await signRecord(dataSource(), currentPerson(req)!, res.locals.valid.body as SignatureRequest, originOf(req)));
+    res
+      .status(201)
+      .json(
+        await signRecord(dataSource(), currentPerson(req)!, res.locals.valid.body as SignatureRequest, originOf(req)),
+      );
   });
 
   router.get('/signatures', requireSignedIn(), validate({ query: signatureListQuerySchema }), async (req, res) => {
@@ -36,7 +53,8 @@ export function signaturesRouter(context: AppContext): Router {
     // Signatures are read with the right to read the record they sign, not by anyone signed in.
     const type = signableRecordType(recordType);
     if (!type) throw new AppError('NOT_FOUND', `Records of type ${recordType} are not signed`);
-    if (!rolesAllow(currentPerson(req)!.roles, type.readAction)) throw new AppError('FORBIDDEN', `Your roles do not allow reading ${type.label} signatures`);
+    if (!rolesAllow(currentPerson(req)!.roles, type.readAction))
+      throw new AppError('FORBIDDEN', `Your roles do not allow reading ${type.label} signatures`);
     res.json(await listSignatures(dataSource(), recordType, recordId));
   });
 

@@ -20,22 +20,39 @@ import { signableRecordType, type SignableContent, type SignableRecordType } fro
 import { insertSignature, newestSignaturesOfType, signaturesFor, type SignatureRow } from './signatures.repository';
 import { plantTimeZone } from '../organisation/organisation.repository';
 
-const approvalMeanings: readonly SignatureMeaning[] = ['approved', 'approved-for-release', 'accepted', 'justified', 'confirmed'];
+const approvalMeanings: readonly SignatureMeaning[] = [
+  'approved',
+  'approved-for-release',
+  'accepted',
+  'justified',
+  'confirmed',
+];
 
-async function loadSignable(manager: EntityManager, person: Person, intent: SignatureIntent): Promise<{ type: SignableRecordType; record: SignableContent }> {
+async function loadSignable(
+  manager: EntityManager,
+  person: Person,
+  intent: SignatureIntent,
+): Promise<{ type: SignableRecordType; record: SignableContent }> {
   const type = signableRecordType(intent.recordType);
   if (!type) throw new AppError('NOT_FOUND', `Records of type ${intent.recordType} cannot be signed`);
   if (!type.meanings.includes(intent.meaning)) {
-    throw AppError.rule(`This ${type.label} cannot be signed as "${intent.meaning}"`, { meaning: `Choose one of: ${type.meanings.join(', ')}` });
+    throw AppError.rule(`This ${type.label} cannot be signed as "${intent.meaning}"`, {
+      meaning: `Choose one of: ${type.meanings.join(', ')}`,
+    });
   }
-  if (!rolesAllow(person.roles, type.actionFor?.(intent.meaning) ?? type.action)) throw new AppError('FORBIDDEN', `Your roles do not allow signing a ${type.label} as "${intent.meaning}"`);
+  if (!rolesAllow(person.roles, type.actionFor?.(intent.meaning) ?? type.action))
+    throw new AppError('FORBIDDEN', `Your roles do not allow signing a ${type.label} as "${intent.meaning}"`);
   const record = await type.load(manager, intent.recordId);
   if (!record) throw AppError.notFound(type.label);
   return { type, record };
 }
 
 /** What the signer sees before signing, and the hash their re-authentication must be bound to. */
-export async function prepareSignature(dataSource: DataSource, person: Person, intent: SignatureIntent): Promise<SignaturePreparation> {
+export async function prepareSignature(
+  dataSource: DataSource,
+  person: Person,
+  intent: SignatureIntent,
+): Promise<SignaturePreparation> {
   const { type, record } = await loadSignable(dataSource.manager, person, intent);
   // Refusals that do not depend on the password are told now, before anyone is asked for it.
   if (intent.meaning !== 'withdrawn') {
@@ -60,10 +77,17 @@ export async function prepareSignature(dataSource: DataSource, person: Person, i
   };
 }
 
-function separationRefusal(personId: number, meaning: SignatureMeaning, record: SignableContent, earlier: SignatureRow[]): string | null {
-  if (meaning === 'reviewed') return separationOfDutiesRefusal(personId, 'review', { authorIds: record.authorIds, reviewerIds: [] });
+function separationRefusal(
+  personId: number,
+  meaning: SignatureMeaning,
+  record: SignableContent,
+  earlier: SignatureRow[],
+): string | null {
+  if (meaning === 'reviewed')
+    return separationOfDutiesRefusal(personId, 'review', { authorIds: record.authorIds, reviewerIds: [] });
   // Deciding on, closing or lifting a record one raised oneself is approving one's own record.
-  if (meaning === 'dispositioned' || meaning === 'closed' || meaning === 'lifted') return separationOfDutiesRefusal(personId, 'approval', { authorIds: record.authorIds, reviewerIds: [] });
+  if (meaning === 'dispositioned' || meaning === 'closed' || meaning === 'lifted')
+    return separationOfDutiesRefusal(personId, 'approval', { authorIds: record.authorIds, reviewerIds: [] });
   if (approvalMeanings.includes(meaning)) {
     const reviewerIds = earlier.filter((row) => row.meaning === 'reviewed').map((row) => row.signer_id);
     return separationOfDutiesRefusal(personId, 'approval', { authorIds: record.authorIds, reviewerIds });
@@ -72,10 +96,21 @@ function separationRefusal(personId: number, meaning: SignatureMeaning, record: 
 }
 
 /** Separation of duties and the record type's own rules: the same answer when preparing and when signing. */
-function signingRefusal(personId: number, meaning: SignatureMeaning, type: SignableRecordType, record: SignableContent, earlier: SignatureRow[]): string | null {
+function signingRefusal(
+  personId: number,
+  meaning: SignatureMeaning,
+  type: SignableRecordType,
+  record: SignableContent,
+  earlier: SignatureRow[],
+): string | null {
   return (
     separationRefusal(personId, meaning, record, earlier) ??
-    type.refusal?.({ signerId: personId, meaning, record, earlierSignatures: earlier.map((row) => ({ signerId: row.signer_id, meaning: row.meaning })) }) ??
+    type.refusal?.({
+      signerId: personId,
+      meaning,
+      record,
+      earlierSignatures: earlier.map((row) => ({ signerId: row.signer_id, meaning: row.meaning })),
+    }) ??
     null
   );
 }
@@ -103,11 +138,19 @@ function toSignature(row: SignatureRow, currentHash: string | null): Signature {
  * was shown, the signer must have re-authenticated for this very signature, separation of duties
  * must allow it; the signature and its ledger event are written in one transaction.
  */
-export async function signRecord(dataSource: DataSource, person: Person, request: SignatureRequest, origin: RequestOrigin): Promise<Signature> {
+export async function signRecord(
+  dataSource: DataSource,
+  person: Person,
+  request: SignatureRequest,
+  origin: RequestOrigin,
+): Promise<Signature> {
   const signature = await inTransaction(dataSource, async (manager) => {
     const { type, record } = await loadSignable(manager, person, request);
     const hash = contentHash(record.content, sha256Hex);
-    if (hash !== request.contentHash) throw AppError.rule('The record changed while you were signing; review it again and sign anew', { contentHash: 'Outdated' });
+    if (hash !== request.contentHash)
+      throw AppError.rule('The record changed while you were signing; review it again and sign anew', {
+        contentHash: 'Outdated',
+      });
     const trailThroughSeq = type.trailMark?.(record, request.meaning)?.throughSeq;
     if (trailThroughSeq !== undefined && request.trailThroughSeq !== trailThroughSeq) {
       throw AppError.rule(
@@ -119,14 +162,27 @@ export async function signRecord(dataSource: DataSource, person: Person, request
     }
     const reason = request.reason?.trim() || null;
     if (meaningsNeedingReason.includes(request.meaning) && (!reason || reason.length < 3)) {
-      throw AppError.rule('Give a reason for this signature', { reason: 'A reason of at least 3 characters is required' });
+      throw AppError.rule('Give a reason for this signature', {
+        reason: 'A reason of at least 3 characters is required',
+      });
     }
     const earlier = await signaturesFor(manager, request.recordType, request.recordId);
     if (request.meaning === 'withdrawn') {
       const withdrawn = earlier.find((row) => Number(row.id) === request.withdrawsSignatureId);
-      if (!withdrawn) throw AppError.rule('Name the signature to withdraw', { withdrawsSignatureId: 'Not a signature on this record' });
-      if (withdrawn.signer_id !== person.id) throw AppError.rule('Only the signer can withdraw their signature', { withdrawsSignatureId: 'Signed by someone else' });
-      if (earlier.some((row) => row.withdraws_signature_id !== null && Number(row.withdraws_signature_id) === request.withdrawsSignatureId)) {
+      if (!withdrawn)
+        throw AppError.rule('Name the signature to withdraw', {
+          withdrawsSignatureId: 'Not a signature on this record',
+        });
+      if (withdrawn.signer_id !== person.id)
+        throw AppError.rule('Only the signer can withdraw their signature', {
+          withdrawsSignatureId: 'Signed by someone else',
+        });
+      if (
+        earlier.some(
+          (row) =>
+            row.withdraws_signature_id !== null && Number(row.withdraws_signature_id) === request.withdrawsSignatureId,
+        )
+      ) {
         throw AppError.rule('That signature is already withdrawn', { withdrawsSignatureId: 'Already withdrawn' });
       }
     } else if (request.withdrawsSignatureId !== undefined) {
@@ -135,16 +191,35 @@ export async function signRecord(dataSource: DataSource, person: Person, request
     const refusal = signingRefusal(person.id, request.meaning, type, record, earlier);
     if (refusal) throw AppError.rule(refusal, { meaning: 'Separation of duties' });
 
-    const binding = signatureBinding({ recordType: request.recordType, recordId: request.recordId, meaning: request.meaning, contentHash: hash }, sha256Hex);
-    const evidence = await consumeReauthentication(manager, { id: request.reauthenticationId, personId: person.id, bindingHash: binding });
+    const binding = signatureBinding(
+      { recordType: request.recordType, recordId: request.recordId, meaning: request.meaning, contentHash: hash },
+      sha256Hex,
+    );
+    const evidence = await consumeReauthentication(manager, {
+      id: request.reauthenticationId,
+      personId: person.id,
+      bindingHash: binding,
+    });
     const signerRole = actingRole(person.roles, type.actionFor?.(request.meaning) ?? type.action) ?? 'unknown';
     const signedAt = new Date();
-    const manifestation = signatureManifestation({ signerName: person.name, signedAt, meaning: request.meaning, timeZone: await plantTimeZone(manager) });
+    const manifestation = signatureManifestation({
+      signerName: person.name,
+      signedAt,
+      meaning: request.meaning,
+      timeZone: await plantTimeZone(manager),
+    });
     const ledger = await appendLedgerEvent(manager, {
       actor: { id: person.id, name: person.name, role: signerRole },
       action: 'signature.signed',
       entity: { type: request.recordType, id: request.recordId },
-      after: { meaning: request.meaning, contentHash: hash, manifestation, reauthenticationId: request.reauthenticationId, authnInstant: evidence.authnInstant.toISOString(), withdrawsSignatureId: request.withdrawsSignatureId ?? null },
+      after: {
+        meaning: request.meaning,
+        contentHash: hash,
+        manifestation,
+        reauthenticationId: request.reauthenticationId,
+        authnInstant: evidence.authnInstant.toISOString(),
+        withdrawsSignatureId: request.withdrawsSignatureId ?? null,
+      },
       reason,
       origin,
     });
@@ -166,10 +241,21 @@ export async function signRecord(dataSource: DataSource, person: Person, request
       ledger_seq: String(ledger.seq),
     };
     const id = await insertSignature(manager, row);
-    await type.afterSign?.(manager, { recordId: request.recordId, meaning: request.meaning, signerId: person.id, signerName: person.name, reason, signatureLedgerSeq: ledger.seq, origin });
+    await type.afterSign?.(manager, {
+      recordId: request.recordId,
+      meaning: request.meaning,
+      signerId: person.id,
+      signerName: person.name,
+      reason,
+      signatureLedgerSeq: ledger.seq,
+      origin,
+    });
     return toSignature({ ...row, id: String(id) }, hash);
   });
-  await signableRecordType(request.recordType)?.afterCommit?.(dataSource, { recordId: request.recordId, meaning: request.meaning });
+  await signableRecordType(request.recordType)?.afterCommit?.(dataSource, {
+    recordId: request.recordId,
+    meaning: request.meaning,
+  });
   return signature;
 }
 
@@ -177,9 +263,15 @@ export async function signRecord(dataSource: DataSource, person: Person, request
  * A record's signatures (or the newest of a record type), each marked when the record no longer
  * matches what was signed.
  */
-export async function listSignatures(dataSource: DataSource, recordType: string, recordId?: string): Promise<Signature[]> {
+export async function listSignatures(
+  dataSource: DataSource,
+  recordType: string,
+  recordId?: string,
+): Promise<Signature[]> {
   const manager = dataSource.manager;
-  const rows = recordId ? await signaturesFor(manager, recordType, recordId) : await newestSignaturesOfType(manager, recordType);
+  const rows = recordId
+    ? await signaturesFor(manager, recordType, recordId)
+    : await newestSignaturesOfType(manager, recordType);
   const type = signableRecordType(recordType);
   const currentHashes = new Map<string, string | null>();
   for (const id of new Set(rows.map((row) => row.record_id))) {

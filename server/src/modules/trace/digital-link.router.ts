@@ -29,7 +29,8 @@ export function digitalLinkRouter(context: AppContext, sessionHandlers: RequestH
     if (problem) return notFoundPage(res, 'Not a valid GS1 Digital Link', `${problem}.`);
     const person = currentPerson(req);
     if (!person) return res.redirect(302, `/sign-in?returnTo=${encodeURIComponent(req.originalUrl)}`);
-    if (!rolesAllow(person.roles, 'trace.read')) return notFoundPage(res, 'Not permitted', 'Your roles do not include tracing lots.');
+    if (!rolesAllow(person.roles, 'trace.read'))
+      return notFoundPage(res, 'Not permitted', 'Your roles do not include tracing lots.');
     const [row]: Array<{ id: number }> = await context.database.dataSource.query(
       'SELECT l.id FROM production_lot l JOIN part p ON p.id = l.part_id WHERE p.gtin = ? AND l.lot_number = ?',
       [gtin.padStart(14, '0'), lot],

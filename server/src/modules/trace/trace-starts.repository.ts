@@ -26,18 +26,27 @@ export async function findTraceStarts(manager: EntityManager, text: string): Pro
         WHERE b.tag LIKE ? ORDER BY b.tag LIMIT ?`,
       [pattern, PER_KIND],
     ) as Promise<Array<{ id: number; label: string; detail: string }>>,
-    manager.query(`SELECT id, run_number AS label, CONCAT(IF(kind = 'passivation', 'Passivation run', 'Cleaning run'), ' · ', method_id) AS detail FROM process_run WHERE run_number LIKE ? ORDER BY run_number DESC LIMIT ?`, [pattern, PER_KIND]) as Promise<
-      Array<{ id: number; label: string; detail: string }>
-    >,
-    manager.query(`SELECT id, name AS label, CONCAT('Supplier, ', country, ' · ', CASE approval WHEN 'approved' THEN 'approved' WHEN 'conditional' THEN 'conditionally approved' ELSE 'disqualified' END) AS detail FROM supplier WHERE name LIKE ? ORDER BY name LIMIT ?`, [pattern, PER_KIND]) as Promise<
-      Array<{ id: number; label: string; detail: string }>
-    >,
+    manager.query(
+      `SELECT id, run_number AS label, CONCAT(IF(kind = 'passivation', 'Passivation run', 'Cleaning run'), ' · ', method_id) AS detail FROM process_run WHERE run_number LIKE ? ORDER BY run_number DESC LIMIT ?`,
+      [pattern, PER_KIND],
+    ) as Promise<Array<{ id: number; label: string; detail: string }>>,
+    manager.query(
+      `SELECT id, name AS label, CONCAT('Supplier, ', country, ' · ', CASE approval WHEN 'approved' THEN 'approved' WHEN 'conditional' THEN 'conditionally approved' ELSE 'disqualified' END) AS detail FROM supplier WHERE name LIKE ? ORDER BY name LIMIT ?`,
+      [pattern, PER_KIND],
+    ) as Promise<Array<{ id: number; label: string; detail: string }>>,
     manager.query(
       `SELECT id, CONCAT(part_number, ' rev ', revision) AS label, CONCAT('Part · ', description, ' · GTIN ', gtin) AS detail FROM part
         WHERE part_number LIKE ? OR description LIKE ? OR gtin LIKE ? OR gtin = ? ORDER BY part_number, revision LIMIT ?`,
       [pattern, pattern, pattern, gtin ?? '', PER_KIND],
     ) as Promise<Array<{ id: number; label: string; detail: string }>>,
   ]);
-  const as = (kind: TraceStart['kind'], rows: Array<{ id: number; label: string; detail: string }>) => rows.map((row) => ({ kind, id: Number(row.id), label: row.label, detail: row.detail }));
-  return [...as('heat', heats), ...as('piece', pieces), ...as('run', runs), ...as('supplier', suppliers), ...as('part', parts)];
+  const as = (kind: TraceStart['kind'], rows: Array<{ id: number; label: string; detail: string }>) =>
+    rows.map((row) => ({ kind, id: Number(row.id), label: row.label, detail: row.detail }));
+  return [
+    ...as('heat', heats),
+    ...as('piece', pieces),
+    ...as('run', runs),
+    ...as('supplier', suppliers),
+    ...as('part', parts),
+  ];
 }

@@ -1,14 +1,31 @@
 import type { Specification, ValueSource } from '../specification';
 
-const f138Source: ValueSource = { reference: 'ASTM F138 bar and wire heat analysis as reproduced in a public machining-shop article (weak)', confidence: 'secondary' };
+const f138Source: ValueSource = {
+  reference: 'ASTM F138 bar and wire heat analysis as reproduced in a public machining-shop article (weak)',
+  confidence: 'secondary',
+};
 const f138Index: ValueSource = {
-  reference: 'Cr + 3.3 Mo ≥ 26 is confirmed for ISO 5832-1 (1997) by BSSA; that F138 carries it too, and as 26.0, is unverified',
+  reference:
+    'Cr + 3.3 Mo ≥ 26 is confirmed for ISO 5832-1 (1997) by BSSA; that F138 carries it too, and as 26.0, is unverified',
   confidence: 'unconfirmed',
 };
-const iso58321Source: ValueSource = { reference: 'BSSA, "Selection of stainless steels for surgical implants" (ISO 5832-1:1997 composition D)', confidence: 'secondary' };
-const iso58321Index: ValueSource = { reference: 'BSSA, "Selection of stainless steels for surgical implants": ISO 5832-1 (1997) requires 3.3 Mo + Cr ≥ 26 for compositions D and E', confidence: 'secondary' };
-const f1537Source: ValueSource = { reference: 'ASTM F1537 Alloy 1 composition from FWM and Carpenter Technology data pages', confidence: 'secondary' };
-const unverified: ValueSource = { reference: 'unverified: not found in any published source consulted; check your licensed copy', confidence: 'unconfirmed' };
+const iso58321Source: ValueSource = {
+  reference: 'BSSA, "Selection of stainless steels for surgical implants" (ISO 5832-1:1997 composition D)',
+  confidence: 'secondary',
+};
+const iso58321Index: ValueSource = {
+  reference:
+    'BSSA, "Selection of stainless steels for surgical implants": ISO 5832-1 (1997) requires 3.3 Mo + Cr ≥ 26 for compositions D and E',
+  confidence: 'secondary',
+};
+const f1537Source: ValueSource = {
+  reference: 'ASTM F1537 Alloy 1 composition from FWM and Carpenter Technology data pages',
+  confidence: 'secondary',
+};
+const unverified: ValueSource = {
+  reference: 'unverified: not found in any published source consulted; check your licensed copy',
+  confidence: 'unconfirmed',
+};
 
 export const astmF138: Specification = {
   id: 'ASTM F138',
@@ -16,7 +33,11 @@ export const astmF138: Specification = {
   family: 'stainless-steel',
   revision: 'L2',
   edition: 'not stated by the source',
-  scope: { forms: ['bar', 'wire'], conditions: ['annealed', 'cold-worked', 'extra-hard'], source: { reference: 'the title (bar and wire); conditions unverified', confidence: 'unconfirmed' } },
+  scope: {
+    forms: ['bar', 'wire'],
+    conditions: ['annealed', 'cold-worked', 'extra-hard'],
+    source: { reference: 'the title (bar and wire); conditions unverified', confidence: 'unconfirmed' },
+  },
   notes: [
     'Mn, Si, the Cr + 3.3 × Mo requirement and all mechanical minima are unverified for F138: check them. Extra-hard material has no minima in the library and cannot be evaluated until the firm adds them.',
   ],
@@ -36,7 +57,18 @@ export const astmF138: Specification = {
         { element: 'N', max: '0.10', source: f138Source },
         { element: 'Cu', max: '0.50', source: f138Source },
       ],
-      weightedSums: [{ id: 'cr-3.3mo', label: 'Cr + 3.3 × Mo', terms: [{ element: 'Cr', factor: '1' }, { element: 'Mo', factor: '3.3' }], min: '26.0', source: f138Index }],
+      weightedSums: [
+        {
+          id: 'cr-3.3mo',
+          label: 'Cr + 3.3 × Mo',
+          terms: [
+            { element: 'Cr', factor: '1' },
+            { element: 'Mo', factor: '3.3' },
+          ],
+          min: '26.0',
+          source: f138Index,
+        },
+      ],
       mechanicalProperties: ['utsMPa', 'ysMPa', 'elongationPct'],
       mechanical: [
         {
@@ -70,7 +102,11 @@ export const iso58321: Specification = {
   family: 'stainless-steel',
   revision: 'L2',
   edition: 'ISO 5832-1:1997 (withdrawn; the current 2024 edition was not seen)',
-  scope: { forms: ['bar', 'wire', 'sheet', 'strip', 'plate'], conditions: ['annealed', 'cold-worked'], source: { reference: 'forms and conditions of ISO 5832-1 unverified', confidence: 'unconfirmed' } },
+  scope: {
+    forms: ['bar', 'wire', 'sheet', 'strip', 'plate'],
+    conditions: ['annealed', 'cold-worked'],
+    source: { reference: 'forms and conditions of ISO 5832-1 unverified', confidence: 'unconfirmed' },
+  },
   notes: [
     'Values are from the 1997 edition as described by BSSA; the current edition may differ.',
     'The library holds no mechanical requirements for ISO 5832-1: every heat needs the firm to add them, or a QA approver’s signed justification, before it can be accepted.',
@@ -93,7 +129,17 @@ export const iso58321: Specification = {
         { element: 'Cu', max: '0.50', source: iso58321Source },
       ],
       weightedSums: [
-        { id: 'cr-3.3mo', label: 'Cr + 3.3 × Mo', terms: [{ element: 'Cr', factor: '1' }, { element: 'Mo', factor: '3.3' }], min: '26', source: iso58321Index, writtenFormUnverified: true },
+        {
+          id: 'cr-3.3mo',
+          label: 'Cr + 3.3 × Mo',
+          terms: [
+            { element: 'Cr', factor: '1' },
+            { element: 'Mo', factor: '3.3' },
+          ],
+          min: '26',
+          source: iso58321Index,
+          writtenFormUnverified: true,
+        },
       ],
       mechanicalProperties: ['utsMPa', 'ysMPa', 'elongationPct'],
       mechanical: [],
@@ -119,7 +165,14 @@ export const astmF1537: Specification = {
   family: 'cobalt-chromium',
   revision: 'L2',
   edition: 'not stated by the source',
-  scope: { forms: ['bar', 'rod', 'wire'], conditions: ['annealed', 'hot-worked', 'warm-worked'], source: { reference: 'ASTM F1537-11 abstract (iTeh): bar, rod and wire; conditions unverified', confidence: 'secondary' } },
+  scope: {
+    forms: ['bar', 'rod', 'wire'],
+    conditions: ['annealed', 'hot-worked', 'warm-worked'],
+    source: {
+      reference: 'ASTM F1537-11 abstract (iTeh): bar, rod and wire; conditions unverified',
+      confidence: 'secondary',
+    },
+  },
   notes: [
     'Only Alloy 1 (low carbon) is shipped. Mechanical minima depend on condition and are unverified.',
     'Cr 26–30 and Mo 5–7 are shown as whole numbers by the sources; whether the standard writes them with decimals is unverified.',
@@ -140,7 +193,11 @@ export const astmF1537: Specification = {
       ],
       weightedSums: [],
       mechanicalProperties: ['utsMPa', 'ysMPa', 'elongationPct', 'reductionOfAreaPct'],
-      mechanical: [f1537Set('annealed', '897', '517', '20', '20'), f1537Set('hot-worked', '1000', '700', '12', '12'), f1537Set('warm-worked', '1172', '827', '12', '12')],
+      mechanical: [
+        f1537Set('annealed', '897', '517', '20', '20'),
+        f1537Set('hot-worked', '1000', '700', '12', '12'),
+        f1537Set('warm-worked', '1172', '827', '12', '12'),
+      ],
     },
   ],
 };
@@ -151,8 +208,17 @@ export const astmF2063: Specification = {
   family: 'nickel-titanium',
   revision: 'L2',
   edition: 'F2063-18 (tolerances); Table 1 limits unverified',
-  scope: { forms: ['bar', 'sheet', 'strip', 'plate', 'tube'], conditions: ['annealed'], source: { reference: 'ASTM F2063-12/-18 scope (iTeh; TestResources): bar, flat-rolled products and tubes', confidence: 'secondary' } },
-  notes: ['Every composition limit and mechanical minimum here is unverified: check before use. Transformation temperature is by agreement (DSC).'],
+  scope: {
+    forms: ['bar', 'sheet', 'strip', 'plate', 'tube'],
+    conditions: ['annealed'],
+    source: {
+      reference: 'ASTM F2063-12/-18 scope (iTeh; TestResources): bar, flat-rolled products and tubes',
+      confidence: 'secondary',
+    },
+  },
+  notes: [
+    'Every composition limit and mechanical minimum here is unverified: check before use. Transformation temperature is by agreement (DSC).',
+  ],
   grades: [
     {
       grade: null,
@@ -167,9 +233,30 @@ export const astmF2063: Specification = {
         { element: 'Fe', max: '0.050', source: unverified },
         { element: 'Nb', max: '0.025', source: unverified },
       ],
-      weightedSums: [{ id: 'n+o', label: 'N + O', terms: [{ element: 'N', factor: '1' }, { element: 'O', factor: '1' }], max: '0.050', source: unverified }],
+      weightedSums: [
+        {
+          id: 'n+o',
+          label: 'N + O',
+          terms: [
+            { element: 'N', factor: '1' },
+            { element: 'O', factor: '1' },
+          ],
+          max: '0.050',
+          source: unverified,
+        },
+      ],
       mechanicalProperties: ['utsMPa', 'elongationPct'],
-      mechanical: [{ forms: ['bar', 'tube'], condition: 'annealed', limits: [{ property: 'utsMPa', min: '551' }, { property: 'elongationPct', min: '10' }], source: unverified }],
+      mechanical: [
+        {
+          forms: ['bar', 'tube'],
+          condition: 'annealed',
+          limits: [
+            { property: 'utsMPa', min: '551' },
+            { property: 'elongationPct', min: '10' },
+          ],
+          source: unverified,
+        },
+      ],
     },
   ],
 };

@@ -1,6 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import { assertionRefusal, readAssertionFacts } from '../../../../server/src/modules/auth/assertion-facts';
-import { attributeValues, effectiveRoles, rolesFromGroups, unknownRolesInMap } from '../../../../server/src/modules/people/people.domain';
+import {
+  attributeValues,
+  effectiveRoles,
+  rolesFromGroups,
+  unknownRolesInMap,
+} from '../../../../server/src/modules/people/people.domain';
 import { responseXml } from '../../../../scripts/stand-in-idp/saml-response';
 
 const input = {
@@ -30,12 +35,16 @@ describe('assertion facts', () => {
       authnInstant: new Date('2026-12-01T10:00:00Z'),
       notOnOrAfter: new Date('2026-12-01T10:05:01Z'),
     });
-    expect(assertionRefusal(facts, { idpEntityId: 'http://idp/metadata', acsUrl: 'http://app/auth/saml/acs' })).toBeNull();
+    expect(
+      assertionRefusal(facts, { idpEntityId: 'http://idp/metadata', acsUrl: 'http://app/auth/saml/acs' }),
+    ).toBeNull();
   });
 
   it('when the recipient differs from the destination, then the recipient is refused', () => {
     const facts = readAssertionFacts(responseXml({ ...input, recipient: 'http://elsewhere/acs' }));
-    expect(assertionRefusal(facts, { idpEntityId: 'http://idp/metadata', acsUrl: 'http://app/auth/saml/acs' })).toBe("Assertion recipient http://elsewhere/acs is not this service's address");
+    expect(assertionRefusal(facts, { idpEntityId: 'http://idp/metadata', acsUrl: 'http://app/auth/saml/acs' })).toBe(
+      "Assertion recipient http://elsewhere/acs is not this service's address",
+    );
   });
 });
 

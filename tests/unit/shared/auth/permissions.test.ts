@@ -19,7 +19,9 @@ describe('separation of duties', () => {
     expect(separationOfDutiesRefusal(1, 'review', history)).toBe('You authored this record, so you cannot review it');
   });
   it('when the reviewer would approve, then it is refused', () => {
-    expect(separationOfDutiesRefusal(2, 'approval', history)).toBe('You reviewed this record, so someone else must approve it');
+    expect(separationOfDutiesRefusal(2, 'approval', history)).toBe(
+      'You reviewed this record, so someone else must approve it',
+    );
   });
   it('when someone else approves, then it is allowed', () => {
     expect(separationOfDutiesRefusal(3, 'approval', history)).toBeNull();
@@ -28,17 +30,47 @@ describe('separation of duties', () => {
 });
 
 describe('re-authentication rules', () => {
-  const base = { expectedSubject: 'a', assertedSubject: 'a', startedAt: new Date('2026-12-01T10:00:00.600Z'), clockSkewMs: 0 };
+  const base = {
+    expectedSubject: 'a',
+    assertedSubject: 'a',
+    startedAt: new Date('2026-12-01T10:00:00.600Z'),
+    clockSkewMs: 0,
+  };
   it('when the same person authenticated after the start (within the same second), then it counts', () => {
-    expect(reauthenticationRefusal({ ...base, authnInstant: new Date('2026-12-01T10:00:00Z'), now: new Date('2026-12-01T10:00:05Z') })).toBeNull();
+    expect(
+      reauthenticationRefusal({
+        ...base,
+        authnInstant: new Date('2026-12-01T10:00:00Z'),
+        now: new Date('2026-12-01T10:00:05Z'),
+      }),
+    ).toBeNull();
   });
   it('when the authentication is from before the start, then it is stale', () => {
-    expect(reauthenticationRefusal({ ...base, authnInstant: new Date('2026-12-01T09:59:59Z'), now: new Date('2026-12-01T10:00:05Z') })).toMatch(/stale/);
+    expect(
+      reauthenticationRefusal({
+        ...base,
+        authnInstant: new Date('2026-12-01T09:59:59Z'),
+        now: new Date('2026-12-01T10:00:05Z'),
+      }),
+    ).toMatch(/stale/);
   });
   it('when the authentication is older than two minutes, then it is refused', () => {
-    expect(reauthenticationRefusal({ ...base, authnInstant: new Date('2026-12-01T10:00:01Z'), now: new Date('2026-12-01T10:02:01.001Z') })).toBe('The re-authentication is older than 2 minutes');
+    expect(
+      reauthenticationRefusal({
+        ...base,
+        authnInstant: new Date('2026-12-01T10:00:01Z'),
+        now: new Date('2026-12-01T10:02:01.001Z'),
+      }),
+    ).toBe('The re-authentication is older than 2 minutes');
   });
   it('when another person authenticated, then it is refused', () => {
-    expect(reauthenticationRefusal({ ...base, assertedSubject: 'b', authnInstant: new Date('2026-12-01T10:00:01Z'), now: new Date('2026-12-01T10:00:05Z') })).toMatch(/different person/);
+    expect(
+      reauthenticationRefusal({
+        ...base,
+        assertedSubject: 'b',
+        authnInstant: new Date('2026-12-01T10:00:01Z'),
+        now: new Date('2026-12-01T10:00:05Z'),
+      }),
+    ).toMatch(/different person/);
   });
 });

@@ -29,8 +29,12 @@ describe('GTIN check digits (GS1 mod-10)', () => {
   });
   it('when bwip-js (a port of BWIPP, which lints GS1 data) encodes our GTINs, then it accepts the valid ones and refuses a wrong check digit', async () => {
     // Reference library from the registry as an outside oracle for the check digit.
-    await expect(bwipjs.toBuffer({ bcid: 'gs1datamatrix', text: '(01)09521234543213(10)ABC123' })).resolves.toBeInstanceOf(Buffer);
-    await expect(bwipjs.toBuffer({ bcid: 'gs1datamatrix', text: '(01)09521234543214(10)ABC123' })).rejects.toThrow(/GS1badChecksum/);
+    await expect(
+      bwipjs.toBuffer({ bcid: 'gs1datamatrix', text: '(01)09521234543213(10)ABC123' }),
+    ).resolves.toBeInstanceOf(Buffer);
+    await expect(bwipjs.toBuffer({ bcid: 'gs1datamatrix', text: '(01)09521234543214(10)ABC123' })).rejects.toThrow(
+      /GS1badChecksum/,
+    );
   });
 });
 

@@ -5,7 +5,11 @@ import { inspectionVerdict, samplingPlanProblem } from '@shared/domain/manufactu
 describe('inspection verdicts from a sampling plan', () => {
   const plan = { sampleSize: 32, acceptNumber: 1, rejectNumber: 2 };
   it('when 1 defective is found in 32 with Ac 1, then the lot is accepted; 2 defectives reject it', () => {
-    expect(inspectionVerdict(plan, 500, 32, 1)).toEqual({ verdict: 'accept', why: '1 defective in 32 ≤ Ac 1', sampleSize: 32 });
+    expect(inspectionVerdict(plan, 500, 32, 1)).toEqual({
+      verdict: 'accept',
+      why: '1 defective in 32 ≤ Ac 1',
+      sampleSize: 32,
+    });
     expect(inspectionVerdict(plan, 500, 32, 2).verdict).toBe('reject');
   });
   it('when the lot is smaller than the sample, then every unit is inspected', () => {
@@ -13,8 +17,12 @@ describe('inspection verdicts from a sampling plan', () => {
     expect(() => inspectionVerdict(plan, 20, 19, 0)).toThrow('The plan needs 20 units inspected; 19 were');
   });
   it('when a plan is inconsistent, then it is refused', () => {
-    expect(samplingPlanProblem({ sampleSize: 32, acceptNumber: 1, rejectNumber: 3 })).toBe('In single sampling the rejection number is the acceptance number plus one');
-    expect(samplingPlanProblem({ sampleSize: 2, acceptNumber: 2, rejectNumber: 3 })).toBe('The acceptance number must be smaller than the sample size');
+    expect(samplingPlanProblem({ sampleSize: 32, acceptNumber: 1, rejectNumber: 3 })).toBe(
+      'In single sampling the rejection number is the acceptance number plus one',
+    );
+    expect(samplingPlanProblem({ sampleSize: 2, acceptNumber: 2, rejectNumber: 3 })).toBe(
+      'The acceptance number must be smaller than the sample size',
+    );
     expect(samplingPlanProblem(plan)).toBeNull();
   });
 });

@@ -16,12 +16,26 @@ describe('bar length reconciliation', () => {
   it('when 200 mm more is used than the units account for, then it is a discrepancy beyond the tolerance', () => {
     const result = reconcileMaterial({ ...part, issuedMm: '3000', returnedMm: '220', unitsStarted: 40 });
     expect(result).toMatchObject({ verdict: 'discrepancy', differenceMm: '200.00', differencePct: '7.75' });
-    expect(result.why).toContain('200.00 mm (7.75 %) more bar used than the units account for, beyond the 2 % tolerance');
+    expect(result.why).toContain(
+      '200.00 mm (7.75 %) more bar used than the units account for, beyond the 2 % tolerance',
+    );
   });
   it('when decimals are involved, then the arithmetic is exact', () => {
-    expect(reconcileMaterial({ unitLengthMm: '0.1', cutoffAllowanceMm: '0.2', tolerancePct: '0', issuedMm: '0.3', returnedMm: '0', unitsStarted: 1 }).verdict).toBe('reconciled');
+    expect(
+      reconcileMaterial({
+        unitLengthMm: '0.1',
+        cutoffAllowanceMm: '0.2',
+        tolerancePct: '0',
+        issuedMm: '0.3',
+        returnedMm: '0',
+        unitsStarted: 1,
+      }).verdict,
+    ).toBe('reconciled');
   });
   it('when no unit has started, then it says so rather than dividing by zero', () => {
-    expect(reconcileMaterial({ ...part, issuedMm: '3000', returnedMm: '0', unitsStarted: 0 })).toMatchObject({ verdict: 'not-started', differencePct: null });
+    expect(reconcileMaterial({ ...part, issuedMm: '3000', returnedMm: '0', unitsStarted: 0 })).toMatchObject({
+      verdict: 'not-started',
+      differencePct: null,
+    });
   });
 });

@@ -36,12 +36,25 @@ describe('capability and run rule', () => {
   });
 
   it('when fewer than 25 heats are behind an index, then it is marked indicative only', () => {
-    expect(capability(['14', '16', '18'], { min: '8', max: '20' })).toMatchObject({ n: 3, indicativeOnly: true, minimumForClaim: 25 });
-    expect(capability(Array.from({ length: 25 }, (_, position) => String(10 + (position % 5))), { max: '20' }).indicativeOnly).toBe(false);
+    expect(capability(['14', '16', '18'], { min: '8', max: '20' })).toMatchObject({
+      n: 3,
+      indicativeOnly: true,
+      minimumForClaim: 25,
+    });
+    expect(
+      capability(
+        Array.from({ length: 25 }, (_, position) => String(10 + (position % 5))),
+        { max: '20' },
+      ).indicativeOnly,
+    ).toBe(false);
   });
 
   it('when only a maximum exists, then the upper side decides (oxygen ≤ 0.13, mean 0.11, s 0.01 → Ppk 0.667)', () => {
-    expect(capability(['0.10', '0.11', '0.12'], { max: '0.13' })).toMatchObject({ mean: '0.11', sigma: '0.01', ppk: { value: '0.667' } });
+    expect(capability(['0.10', '0.11', '0.12'], { max: '0.13' })).toMatchObject({
+      mean: '0.11',
+      sigma: '0.01',
+      ppk: { value: '0.667' },
+    });
   });
 
   it('when nine points in a row fall on one side of the mean, then the run rule fires at the start of the run', () => {
@@ -50,10 +63,18 @@ describe('capability and run rule', () => {
     expect(result.runRule.triggered).toBe(true);
     // The mean is 1.26 / 12 = 0.105, so the run above it starts with the 0.12 at index 1.
     expect(result.runRule.fromIndex).toBe(1);
-    expect(capability(['0.10', '0.12', '0.10', '0.12', '0.10', '0.12', '0.10', '0.12', '0.10', '0.12'], { max: '0.13' }).runRule.triggered).toBe(false);
+    expect(
+      capability(['0.10', '0.12', '0.10', '0.12', '0.10', '0.12', '0.10', '0.12', '0.10', '0.12'], { max: '0.13' })
+        .runRule.triggered,
+    ).toBe(false);
   });
 
   it('when there are too few points, then no Ppk or Cpk is claimed', () => {
-    expect(capability(['0.11'], { max: '0.13' })).toMatchObject({ n: 1, ppk: { value: null }, cpk: { value: null }, sigma: null });
+    expect(capability(['0.11'], { max: '0.13' })).toMatchObject({
+      n: 1,
+      ppk: { value: null },
+      cpk: { value: null },
+      sigma: null,
+    });
   });
 });

@@ -4,7 +4,15 @@
 // that a check analysis may lie outside a heat limit by no more than the tolerance (DOMAIN.md,
 // "Heat analysis vs product (check) analysis", S5). Rounding is ASTM E29 (half to even).
 import { describe, expect, it } from 'vitest';
-import { applicableRule, checkFailureText, checkRequirement, ruleText, evaluateCheckAnalysis, CheckAnalysisInputError, type ScopedCheckRule } from '@shared/domain/materials/check-analysis';
+import {
+  applicableRule,
+  checkFailureText,
+  checkRequirement,
+  ruleText,
+  evaluateCheckAnalysis,
+  CheckAnalysisInputError,
+  type ScopedCheckRule,
+} from '@shared/domain/materials/check-analysis';
 import { findSpecification } from '@shared/domain/materials/library';
 
 const f136 = findSpecification('ASTM F136')!.grades[0]!.chemistry;
@@ -17,7 +25,12 @@ function verdictOf(results: Record<string, string>, element: string) {
 
 describe('judging a check analysis against the widened limits', () => {
   it('oxygen in F136 (≤ 0.13, tolerance 0.02 over): 0.13 within the limit, 0.14 and 0.15 within the tolerance, 0.16 beyond', () => {
-    expect(verdictOf({ O: '0.13' }, 'O')).toMatchObject({ rounded: '0.13', heatLimit: '≤ 0.13', checkLimit: '≤ 0.15', verdict: 'within-limit' });
+    expect(verdictOf({ O: '0.13' }, 'O')).toMatchObject({
+      rounded: '0.13',
+      heatLimit: '≤ 0.13',
+      checkLimit: '≤ 0.15',
+      verdict: 'within-limit',
+    });
     expect(verdictOf({ O: '0.14' }, 'O').verdict).toBe('within-tolerance');
     expect(verdictOf({ O: '0.15' }, 'O').verdict).toBe('within-tolerance');
     expect(verdictOf({ O: '0.16' }, 'O').verdict).toBe('beyond-tolerance');
@@ -39,7 +52,12 @@ describe('judging a check analysis against the widened limits', () => {
   });
 
   it('hydrogen (≤ 0.012, +0.0020) is judged at the tolerance place and read from ppm: 140 ppm passes, 141 ppm fails', () => {
-    expect(verdictOf({ H: '140 ppm' }, 'H')).toMatchObject({ value: '0.0140', rounded: '0.0140', checkLimit: '≤ 0.0140', verdict: 'within-tolerance' });
+    expect(verdictOf({ H: '140 ppm' }, 'H')).toMatchObject({
+      value: '0.0140',
+      rounded: '0.0140',
+      checkLimit: '≤ 0.0140',
+      verdict: 'within-tolerance',
+    });
     expect(verdictOf({ H: '141 ppm' }, 'H').verdict).toBe('beyond-tolerance');
     // 0.0124 rounds to the heat limit's place as 0.012: within the heat limit itself.
     expect(verdictOf({ H: '0.0124' }, 'H').verdict).toBe('within-limit');
@@ -61,7 +79,12 @@ describe('judging a check analysis against the widened limits', () => {
   it('the check fails when any element is beyond its tolerance, lists unmeasured elements, and names the failures', () => {
     const evaluation = evaluateCheckAnalysis(f136, { O: '0.17', Fe: '0.20', H: '0.0100' });
     expect(evaluation.verdict).toBe('does-not-conform');
-    expect(evaluation.items.filter((item) => item.verdict === 'not-measured').map((item) => item.element)).toEqual(['Al', 'V', 'C', 'N']);
+    expect(evaluation.items.filter((item) => item.verdict === 'not-measured').map((item) => item.element)).toEqual([
+      'Al',
+      'V',
+      'C',
+      'N',
+    ]);
     expect(checkFailureText(evaluation)).toBe('O 0.17 outside ≤ 0.15');
     expect(evaluateCheckAnalysis(f136, { O: '0.15', Fe: '0.35' }).verdict).toBe('conforms');
   });
@@ -77,7 +100,10 @@ describe('judging a check analysis against the widened limits', () => {
       }
     };
     expect(attempt({})).toEqual({ chemistry: 'No element measured' });
-    expect(attempt({ O: 'low', Nb: '0.01' })).toEqual({ 'chemistry.O': '"low" is not a decimal number (write e.g. 0.12 or 40 ppm)', 'chemistry.Nb': 'The specification sets no limit for this element' });
+    expect(attempt({ O: 'low', Nb: '0.01' })).toEqual({
+      'chemistry.O': '"low" is not a decimal number (write e.g. 0.12 or 40 ppm)',
+      'chemistry.Nb': 'The specification sets no limit for this element',
+    });
   });
 });
 
@@ -87,34 +113,61 @@ describe('which heats a rule selects', () => {
   const everyFifth = { everyNthHeat: 5, everyHeatWhenConditional: true };
 
   it('every 5th heat selects positions 1, 6, 11 and 16 of the first 16', () => {
-    const selected = Array.from({ length: 16 }, (_, index) => index + 1).filter((position) => checkRequirement(everyFifth, position, 'approved').required);
+    const selected = Array.from({ length: 16 }, (_, index) => index + 1).filter(
+      (position) => checkRequirement(everyFifth, position, 'approved').required,
+    );
     expect(selected).toEqual([1, 6, 11, 16]);
-    expect(checkRequirement(everyFifth, 7, 'approved').why).toBe('The first heat and every 5th after it are checked; this is the 7th heat from this supplier to this specification, the next is the 11th');
-    expect(checkRequirement(everyFifth, 11, 'approved').why).toBe('The first heat and every 5th after it are checked; this is the 11th heat from this supplier to this specification');
+    expect(checkRequirement(everyFifth, 7, 'approved').why).toBe(
+      'The first heat and every 5th after it are checked; this is the 7th heat from this supplier to this specification, the next is the 11th',
+    );
+    expect(checkRequirement(everyFifth, 11, 'approved').why).toBe(
+      'The first heat and every 5th after it are checked; this is the 11th heat from this supplier to this specification',
+    );
   });
 
   it('selects every heat of a conditionally approved supplier when the rule says so, and only then', () => {
-    expect(checkRequirement(everyFifth, 7, 'conditional')).toEqual({ required: true, why: 'Every heat from a conditionally approved supplier is checked' });
-    expect(checkRequirement({ everyNthHeat: null, everyHeatWhenConditional: true }, 2, 'approved').required).toBe(false);
-    expect(checkRequirement({ everyNthHeat: 5, everyHeatWhenConditional: false }, 7, 'conditional').required).toBe(false);
+    expect(checkRequirement(everyFifth, 7, 'conditional')).toEqual({
+      required: true,
+      why: 'Every heat from a conditionally approved supplier is checked',
+    });
+    expect(checkRequirement({ everyNthHeat: null, everyHeatWhenConditional: true }, 2, 'approved').required).toBe(
+      false,
+    );
+    expect(checkRequirement({ everyNthHeat: 5, everyHeatWhenConditional: false }, 7, 'conditional').required).toBe(
+      false,
+    );
   });
 
   it('describes what a rule selects in words', () => {
-    expect(ruleText(everyFifth)).toBe('the first heat and every 5th after it; every heat while the supplier is conditional');
+    expect(ruleText(everyFifth)).toBe(
+      'the first heat and every 5th after it; every heat while the supplier is conditional',
+    );
     expect(ruleText({ everyNthHeat: 1, everyHeatWhenConditional: false })).toBe('every heat');
-    expect(ruleText({ everyNthHeat: 22, everyHeatWhenConditional: false })).toBe('the first heat and every 22nd after it');
+    expect(ruleText({ everyNthHeat: 22, everyHeatWhenConditional: false })).toBe(
+      'the first heat and every 22nd after it',
+    );
     expect(ruleText({ everyNthHeat: null, everyHeatWhenConditional: false })).toBeNull();
   });
 
   it('every heat, no rule, and impossible positions', () => {
     expect(checkRequirement({ everyNthHeat: 1, everyHeatWhenConditional: false }, 9, 'approved').required).toBe(true);
-    expect(checkRequirement(null, 1, 'conditional')).toEqual({ required: false, why: 'No check analysis rule covers this supplier and specification' });
+    expect(checkRequirement(null, 1, 'conditional')).toEqual({
+      required: false,
+      why: 'No check analysis rule covers this supplier and specification',
+    });
     expect(() => checkRequirement(everyFifth, 0, 'approved')).toThrow(/position/);
-    expect(() => checkRequirement({ everyNthHeat: 0, everyHeatWhenConditional: false }, 1, 'approved')).toThrow(/everyNthHeat/);
+    expect(() => checkRequirement({ everyNthHeat: 0, everyHeatWhenConditional: false }, 1, 'approved')).toThrow(
+      /everyNthHeat/,
+    );
   });
 
   it('the most specific rule applies: supplier and specification, then supplier, then specification, then plant-wide', () => {
-    const rule = (supplierId: number | null, specId: string | null, everyNthHeat: number): ScopedCheckRule => ({ supplierId, specId, everyNthHeat, everyHeatWhenConditional: false });
+    const rule = (supplierId: number | null, specId: string | null, everyNthHeat: number): ScopedCheckRule => ({
+      supplierId,
+      specId,
+      everyNthHeat,
+      everyHeatWhenConditional: false,
+    });
     const rules = [rule(null, null, 10), rule(null, 'ASTM F136', 8), rule(3, null, 4), rule(3, 'ASTM F136', 2)];
     expect(applicableRule(rules, 3, 'astm f136')!.everyNthHeat).toBe(2);
     expect(applicableRule(rules, 3, 'ASTM F67')!.everyNthHeat).toBe(4);

@@ -2,7 +2,14 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { evaluateAgainst, evaluateCertificate } from '@shared/domain/materials/evaluate-certificate';
 import { specificationLibrary } from '@shared/domain/materials/library';
-import { mechanicalProperties, productConditions, productForms, scopeOf, type Specification, type SpecificationGrade } from '@shared/domain/materials/specification';
+import {
+  mechanicalProperties,
+  productConditions,
+  productForms,
+  scopeOf,
+  type Specification,
+  type SpecificationGrade,
+} from '@shared/domain/materials/specification';
 import { certificateInputSchema, readStoredEvaluation } from '@shared/schemas/evaluation';
 
 // Regression cases for verdicts that must not pass. Sources: the domain reference sheet's sections
@@ -11,26 +18,62 @@ import { certificateInputSchema, readStoredEvaluation } from '@shared/schemas/ev
 
 const f67Chemistry = { N: '0.01', C: '0.01', H: '0.002', Fe: '0.10', O: '0.15' };
 const f136Chemistry = { Al: '6.1', V: '4.0', Fe: '0.18', O: '0.12', C: '0.02', N: '0.01', H: '0.004' };
-const iso58321Chemistry = { C: '0.020', Si: '0.5', Mn: '1.5', P: '0.015', S: '0.002', Cr: '18.0', Mo: '2.80', Ni: '14.0', N: '0.05', Cu: '0.10' };
+const iso58321Chemistry = {
+  C: '0.020',
+  Si: '0.5',
+  Mn: '1.5',
+  P: '0.015',
+  S: '0.002',
+  Cr: '18.0',
+  Mo: '2.80',
+  Ni: '14.0',
+  N: '0.05',
+  Cu: '0.10',
+};
 const f1537Chemistry = { C: '0.05', Cr: '28', Mo: '6', Ni: '0.5', Fe: '0.3', Si: '0.5', Mn: '0.5', N: '0.1' };
 
 describe('no silent pass when no requirement applies', () => {
   it('when F67 grade 2 plate reports a tensile strength of 200 MPa, then it cannot be evaluated, never conforms (F67-13 scope covers plate; plate has its own table, S3/S4)', () => {
-    const evaluation = evaluateCertificate({ spec: 'ASTM F67', grade: '2', form: 'plate', sizeMm: '6', chemistry: f67Chemistry, mechanical: { utsMPa: '200' } });
+    const evaluation = evaluateCertificate({
+      spec: 'ASTM F67',
+      grade: '2',
+      form: 'plate',
+      sizeMm: '6',
+      chemistry: f67Chemistry,
+      mechanical: { utsMPa: '200' },
+    });
     expect(evaluation.verdict).toBe('cannot-be-evaluated');
-    expect(evaluation.items.find((item) => item.kind === 'selection')).toMatchObject({ verdict: 'cannot-be-evaluated', reason: 'no-requirement' });
-    expect(evaluation.items.find((item) => item.kind === 'selection')?.note).toContain('no mechanical requirements for plate');
+    expect(evaluation.items.find((item) => item.kind === 'selection')).toMatchObject({
+      verdict: 'cannot-be-evaluated',
+      reason: 'no-requirement',
+    });
+    expect(evaluation.items.find((item) => item.kind === 'selection')?.note).toContain(
+      'no mechanical requirements for plate',
+    );
   });
 
   it('when F136 bar says "Annealed" with UTS 500 MPa and 3 % elongation, then the annealed minima apply and it does not conform (F136 ≥ 860 MPa, ≥ 10 %)', () => {
-    const evaluation = evaluateCertificate({ spec: 'ASTM F136', form: 'bar', condition: 'Annealed', sizeMm: '25', chemistry: f136Chemistry, mechanical: { utsMPa: '500', ysMPa: '450', elongationPct: '3', reductionOfAreaPct: '30' } });
+    const evaluation = evaluateCertificate({
+      spec: 'ASTM F136',
+      form: 'bar',
+      condition: 'Annealed',
+      sizeMm: '25',
+      chemistry: f136Chemistry,
+      mechanical: { utsMPa: '500', ysMPa: '450', elongationPct: '3', reductionOfAreaPct: '30' },
+    });
     expect(evaluation.verdict).toBe('does-not-conform');
-    expect(evaluation.items.filter((item) => item.verdict === 'does-not-conform').map((item) => item.item)).toEqual(['Tensile strength (MPa)', '0.2 % yield strength (MPa)', 'Elongation (%)']);
+    expect(evaluation.items.filter((item) => item.verdict === 'does-not-conform').map((item) => item.item)).toEqual([
+      'Tensile strength (MPa)',
+      '0.2 % yield strength (MPa)',
+      'Elongation (%)',
+    ]);
   });
 
   it('when a condition is typed freely, then it is refused instead of matching nothing', () => {
     expect(certificateInputSchema.safeParse({ spec: 'ASTM F136', condition: 'mill annealed' }).success).toBe(false);
-    expect(certificateInputSchema.parse({ spec: 'ASTM F136', condition: ' Cold Worked ' }).condition).toBe('cold-worked');
+    expect(certificateInputSchema.parse({ spec: 'ASTM F136', condition: ' Cold Worked ' }).condition).toBe(
+      'cold-worked',
+    );
   });
 
   it('when the form is outside the scope, the size outside every range, or the specification holds no mechanical minima, then each cannot be evaluated', () => {
@@ -40,9 +83,17 @@ describe('no silent pass when no requirement applies', () => {
       [{ spec: 'ASTM F136', form: 'bar', sizeMm: '120' }, '120 mm is outside every size range'],
       [{ spec: 'ASTM F136', form: 'bar', condition: 'cold-worked', sizeMm: '20' }, 'cold worked is not a condition'],
       [{ spec: 'ISO 5832-1', grade: 'D', form: 'bar', sizeMm: '20' }, 'holds no mechanical requirements'],
-      [{ spec: 'ASTM F138', form: 'bar', condition: 'extra-hard', sizeMm: '10' }, 'no mechanical requirements for bar in the extra hard condition'],
+      [
+        { spec: 'ASTM F138', form: 'bar', condition: 'extra-hard', sizeMm: '10' },
+        'no mechanical requirements for bar in the extra hard condition',
+      ],
     ] as const) {
-      const chemistry = input.spec === 'ISO 5832-1' ? iso58321Chemistry : input.spec === 'ASTM F138' ? { ...iso58321Chemistry, Cr: '18.00', Ni: '14.00', Mo: '2.80', Si: '0.40', Mn: '1.50' } : f136Chemistry;
+      const chemistry =
+        input.spec === 'ISO 5832-1'
+          ? iso58321Chemistry
+          : input.spec === 'ASTM F138'
+            ? { ...iso58321Chemistry, Cr: '18.00', Ni: '14.00', Mo: '2.80', Si: '0.40', Mn: '1.50' }
+            : f136Chemistry;
       const evaluation = evaluateCertificate({ ...input, chemistry, mechanical });
       expect(evaluation.verdict, note).toBe('cannot-be-evaluated');
       expect(evaluation.items.find((item) => item.kind === 'selection')?.note, note).toContain(note);
@@ -50,7 +101,13 @@ describe('no silent pass when no requirement applies', () => {
   });
 
   it('when F136 bar is under 4.75 mm, then reduction of area is not asked for (the table gives none) and the rest decides', () => {
-    const evaluation = evaluateCertificate({ spec: 'ASTM F136', form: 'wire', sizeMm: '3', chemistry: f136Chemistry, mechanical: { utsMPa: '900', ysMPa: '800', elongationPct: '12' } });
+    const evaluation = evaluateCertificate({
+      spec: 'ASTM F136',
+      form: 'wire',
+      sizeMm: '3',
+      chemistry: f136Chemistry,
+      mechanical: { utsMPa: '900', ysMPa: '800', elongationPct: '12' },
+    });
     expect(evaluation.verdict).toBe('conforms');
     expect(evaluation.items.some((item) => item.item === 'Reduction of area (%)')).toBe(false);
   });
@@ -58,19 +115,60 @@ describe('no silent pass when no requirement applies', () => {
 
 describe('condition chooses the requirement set', () => {
   it('when a cold-worked F138 bar reports 1000 / 800 MPa / 15 %, then it is judged against the cold-worked minima and conforms on unverified limits (F138 cold-worked 860/690/12, §1.5 [M])', () => {
-    const chemistry = { C: '0.020', Mn: '1.50', P: '0.015', S: '0.002', Si: '0.40', Cr: '18.00', Ni: '14.00', Mo: '2.80', N: '0.05', Cu: '0.10' };
+    const chemistry = {
+      C: '0.020',
+      Mn: '1.50',
+      P: '0.015',
+      S: '0.002',
+      Si: '0.40',
+      Cr: '18.00',
+      Ni: '14.00',
+      Mo: '2.80',
+      N: '0.05',
+      Cu: '0.10',
+    };
     const mechanical = { utsMPa: '1000', ysMPa: '800', elongationPct: '15' };
-    const coldWorked = evaluateCertificate({ spec: 'ASTM F138', form: 'bar', condition: 'cold-worked', sizeMm: '10', chemistry, mechanical });
+    const coldWorked = evaluateCertificate({
+      spec: 'ASTM F138',
+      form: 'bar',
+      condition: 'cold-worked',
+      sizeMm: '10',
+      chemistry,
+      mechanical,
+    });
     expect(coldWorked.verdict).toBe('conforms');
-    expect(coldWorked.items.find((item) => item.item === 'Elongation (%)')).toMatchObject({ limit: '≥ 12', verdict: 'conforms', unverified: true });
-    expect(coldWorked.restsOnUnverified).toEqual(expect.arrayContaining(['Mn', 'Si', 'Cr + 3.3 × Mo', 'Tensile strength (MPa)', 'Elongation (%)']));
-    const asAnnealed = evaluateCertificate({ spec: 'ASTM F138', form: 'bar', condition: 'annealed', sizeMm: '10', chemistry, mechanical });
-    expect(asAnnealed.items.find((item) => item.item === 'Elongation (%)')).toMatchObject({ limit: '≥ 40', verdict: 'does-not-conform' });
+    expect(coldWorked.items.find((item) => item.item === 'Elongation (%)')).toMatchObject({
+      limit: '≥ 12',
+      verdict: 'conforms',
+      unverified: true,
+    });
+    expect(coldWorked.restsOnUnverified).toEqual(
+      expect.arrayContaining(['Mn', 'Si', 'Cr + 3.3 × Mo', 'Tensile strength (MPa)', 'Elongation (%)']),
+    );
+    const asAnnealed = evaluateCertificate({
+      spec: 'ASTM F138',
+      form: 'bar',
+      condition: 'annealed',
+      sizeMm: '10',
+      chemistry,
+      mechanical,
+    });
+    expect(asAnnealed.items.find((item) => item.item === 'Elongation (%)')).toMatchObject({
+      limit: '≥ 40',
+      verdict: 'does-not-conform',
+    });
   });
 });
 
 describe('each limit rounds at its own place (ASTM E29 rounding method)', () => {
-  const iso = (mo: string) => evaluateCertificate({ spec: 'ISO 5832-1', grade: 'D', form: 'bar', sizeMm: '10', chemistry: { ...iso58321Chemistry, Mo: mo } }).items.find((item) => item.item === 'Mo');
+  const iso = (mo: string) =>
+    evaluateCertificate({
+      spec: 'ISO 5832-1',
+      grade: 'D',
+      form: 'bar',
+      sizeMm: '10',
+      chemistry: { ...iso58321Chemistry, Mo: mo },
+    }).items.find((item) => item.item === 'Mo');
 
   it('when ISO 5832-1 Mo 2.25–3.5 reports 3.54, then it is rounded to 3.5 against the maximum and conforms (one decimal, as the maximum is written)', () => {
     expect(iso('3.54')).toMatchObject({ rounded: '3.5', verdict: 'conforms' });
@@ -89,29 +187,59 @@ describe('each limit rounds at its own place (ASTM E29 rounding method)', () => 
 
 describe('limits whose written form is unverified', () => {
   const f1537 = (chemistry: Record<string, string>) =>
-    evaluateCertificate({ spec: 'ASTM F1537', grade: '1', form: 'bar', sizeMm: '20', chemistry: { ...f1537Chemistry, ...chemistry }, mechanical: { utsMPa: '950', ysMPa: '600', elongationPct: '25', reductionOfAreaPct: '25' } });
+    evaluateCertificate({
+      spec: 'ASTM F1537',
+      grade: '1',
+      form: 'bar',
+      sizeMm: '20',
+      chemistry: { ...f1537Chemistry, ...chemistry },
+      mechanical: { utsMPa: '950', ysMPa: '600', elongationPct: '25', reductionOfAreaPct: '25' },
+    });
 
   it('when F1537 Cr 25.6 passes only because 26 is stored without decimals, then Cr cannot be evaluated and says so', () => {
     const evaluation = f1537({ Cr: '25.6' });
     expect(evaluation.verdict).toBe('cannot-be-evaluated');
-    expect(evaluation.items.find((item) => item.item === 'Cr')).toMatchObject({ rounded: '26', verdict: 'cannot-be-evaluated', reason: 'unverified-written-form', unverified: true });
+    expect(evaluation.items.find((item) => item.item === 'Cr')).toMatchObject({
+      rounded: '26',
+      verdict: 'cannot-be-evaluated',
+      reason: 'unverified-written-form',
+      unverified: true,
+    });
   });
 
   it('when Cr 25.4 fails at every place, or 27.3 passes at every place, then a verdict is given, marked as resting on an unverified limit', () => {
-    expect(f1537({ Cr: '25.4' }).items.find((item) => item.item === 'Cr')).toMatchObject({ verdict: 'does-not-conform' });
+    expect(f1537({ Cr: '25.4' }).items.find((item) => item.item === 'Cr')).toMatchObject({
+      verdict: 'does-not-conform',
+    });
     const inside = f1537({ Cr: '27.3' });
     expect(inside.items.find((item) => item.item === 'Cr')).toMatchObject({ verdict: 'conforms', unverified: true });
     expect(inside.restsOnUnverified).toContain('Cr');
   });
 
   it('when ISO 5832-1 Cr + 3.3 Mo is 25.9 against a minimum written "26" by the source, then it cannot be evaluated (26.0 would fail it)', () => {
-    const evaluation = evaluateCertificate({ spec: 'ISO 5832-1', grade: 'D', form: 'bar', sizeMm: '10', chemistry: { ...iso58321Chemistry, Cr: '17.32', Mo: '2.60' } });
-    expect(evaluation.items.find((item) => item.kind === 'requirement')).toMatchObject({ reported: '25.9', rounded: '26', verdict: 'cannot-be-evaluated', reason: 'unverified-written-form' });
+    const evaluation = evaluateCertificate({
+      spec: 'ISO 5832-1',
+      grade: 'D',
+      form: 'bar',
+      sizeMm: '10',
+      chemistry: { ...iso58321Chemistry, Cr: '17.32', Mo: '2.60' },
+    });
+    expect(evaluation.items.find((item) => item.kind === 'requirement')).toMatchObject({
+      reported: '25.9',
+      rounded: '26',
+      verdict: 'cannot-be-evaluated',
+      reason: 'unverified-written-form',
+    });
   });
 
   it('when F1295 Nb reports 6.46 against 6.5 (weak source), then it cannot be evaluated; 6.50 conforms either way', () => {
     const f1295 = (nb: string) =>
-      evaluateCertificate({ spec: 'ASTM F1295', form: 'bar', sizeMm: '20', chemistry: { Al: '6.00', Nb: nb, Ta: '0.10', Fe: '0.10', O: '0.10', C: '0.02', N: '0.01', H: '0.003' } }).items.find((item) => item.item === 'Nb');
+      evaluateCertificate({
+        spec: 'ASTM F1295',
+        form: 'bar',
+        sizeMm: '20',
+        chemistry: { Al: '6.00', Nb: nb, Ta: '0.10', Fe: '0.10', O: '0.10', C: '0.02', N: '0.01', H: '0.003' },
+      }).items.find((item) => item.item === 'Nb');
     expect(f1295('6.46')).toMatchObject({ verdict: 'cannot-be-evaluated', reason: 'unverified-written-form' });
     expect(f1295('6.50')).toMatchObject({ verdict: 'conforms', unverified: true });
   });
@@ -119,7 +247,26 @@ describe('limits whose written form is unverified', () => {
 
 describe('evaluations stored before the third outcome', () => {
   it('when an evaluation says "incomplete" with "missing" items, then it reads as cannot be evaluated (missing value)', () => {
-    const stored = { verdict: 'incomplete', items: [{ item: 'H', kind: 'chemistry', reported: null, rounded: null, limit: '≤ 0.012', verdict: 'missing', note: 'not reported', source: 's', confidence: 'secondary' }], derived: {}, flags: [], spec: { id: 'ASTM F136', revision: 'L1', edition: 'x', grade: null }, caution: 'c' };
+    const stored = {
+      verdict: 'incomplete',
+      items: [
+        {
+          item: 'H',
+          kind: 'chemistry',
+          reported: null,
+          rounded: null,
+          limit: '≤ 0.012',
+          verdict: 'missing',
+          note: 'not reported',
+          source: 's',
+          confidence: 'secondary',
+        },
+      ],
+      derived: {},
+      flags: [],
+      spec: { id: 'ASTM F136', revision: 'L1', edition: 'x', grade: null },
+      caution: 'c',
+    };
     const read = readStoredEvaluation(stored);
     expect(read.verdict).toBe('cannot-be-evaluated');
     expect(read.items[0]).toMatchObject({ verdict: 'cannot-be-evaluated', reason: 'missing-value', unverified: false });
@@ -130,7 +277,8 @@ describe('evaluations stored before the third outcome', () => {
 function passingChemistry(grade: SpecificationGrade): Record<string, string> {
   const chemistry: Record<string, string> = {};
   for (const limit of grade.chemistry) {
-    if (limit.min !== undefined && limit.max !== undefined) chemistry[limit.element] = String((Number(limit.min) + Number(limit.max)) / 2);
+    if (limit.min !== undefined && limit.max !== undefined)
+      chemistry[limit.element] = String((Number(limit.min) + Number(limit.max)) / 2);
     else chemistry[limit.element] = limit.min ?? '0';
   }
   for (const requirement of grade.weightedSums) for (const term of requirement.terms) chemistry[term.element] ??= '0';
@@ -139,24 +287,68 @@ function passingChemistry(grade: SpecificationGrade): Record<string, string> {
 
 describe('the whole shipped library', () => {
   it('when any form × condition × size is evaluated with every value passing, then "conforms" only comes with a requirement applied to every mechanical property the grade lists', () => {
-    const cases = specificationLibrary.flatMap((specification) => specification.grades.map((grade) => ({ specification, grade })));
-    const size = fc.oneof(fc.constantFrom('0.5', '3', '3.18', '4.75', '44.45', '44.46', '63.50', '101.60', '101.61', '250'), fc.integer({ min: 1, max: 300_000 }).map((hundredths) => (hundredths / 100).toFixed(2)));
+    const cases = specificationLibrary.flatMap((specification) =>
+      specification.grades.map((grade) => ({ specification, grade })),
+    );
+    const size = fc.oneof(
+      fc.constantFrom('0.5', '3', '3.18', '4.75', '44.45', '44.46', '63.50', '101.60', '101.61', '250'),
+      fc.integer({ min: 1, max: 300_000 }).map((hundredths) => (hundredths / 100).toFixed(2)),
+    );
     fc.assert(
-      fc.property(fc.constantFrom(...cases), fc.constantFrom(...productForms), fc.constantFrom(...productConditions), size, ({ specification, grade }, form, condition, sizeMm) => {
-        const evaluation = evaluateAgainst(specification as Specification, certificateInputSchema.parse({ spec: specification.id, grade: grade.grade, form, condition, sizeMm, chemistry: passingChemistry(grade), mechanical: { utsMPa: '9999', ysMPa: '9999', elongationPct: '99', reductionOfAreaPct: '99' } }));
-        if (evaluation.verdict !== 'conforms') return;
-        const listed = grade.mechanicalProperties ?? mechanicalProperties.filter((property) => grade.mechanical.some((set) => set.limits.some((limit) => limit.property === property)));
-        expect(listed.length, `${specification.id}: conforms with no mechanical property listed`).toBeGreaterThan(0);
-        const scope = scopeOf(specification);
-        expect(scope.forms).toContain(form);
-        expect(scope.conditions).toContain(condition);
-        const applied = grade.mechanical.filter((set) => set.forms.includes(form) && set.condition === condition);
-        for (const property of listed) {
-          const judged = evaluation.items.some((item) => item.kind === 'mechanical' && item.verdict === 'conforms' && item.item.startsWith(property === 'utsMPa' ? 'Tensile' : property === 'ysMPa' ? '0.2 %' : property === 'elongationPct' ? 'Elongation' : 'Reduction'));
-          const explicitlyNotRequired = applied.some((set) => set.notRequired?.some((entry) => entry.property === property));
-          expect(judged || explicitlyNotRequired, `${specification.id} ${form} ${condition} ${sizeMm} mm: ${property} neither judged nor marked not required`).toBe(true);
-        }
-      }),
+      fc.property(
+        fc.constantFrom(...cases),
+        fc.constantFrom(...productForms),
+        fc.constantFrom(...productConditions),
+        size,
+        ({ specification, grade }, form, condition, sizeMm) => {
+          const evaluation = evaluateAgainst(
+            specification as Specification,
+            certificateInputSchema.parse({
+              spec: specification.id,
+              grade: grade.grade,
+              form,
+              condition,
+              sizeMm,
+              chemistry: passingChemistry(grade),
+              mechanical: { utsMPa: '9999', ysMPa: '9999', elongationPct: '99', reductionOfAreaPct: '99' },
+            }),
+          );
+          if (evaluation.verdict !== 'conforms') return;
+          const listed =
+            grade.mechanicalProperties ??
+            mechanicalProperties.filter((property) =>
+              grade.mechanical.some((set) => set.limits.some((limit) => limit.property === property)),
+            );
+          expect(listed.length, `${specification.id}: conforms with no mechanical property listed`).toBeGreaterThan(0);
+          const scope = scopeOf(specification);
+          expect(scope.forms).toContain(form);
+          expect(scope.conditions).toContain(condition);
+          const applied = grade.mechanical.filter((set) => set.forms.includes(form) && set.condition === condition);
+          for (const property of listed) {
+            const judged = evaluation.items.some(
+              (item) =>
+                item.kind === 'mechanical' &&
+                item.verdict === 'conforms' &&
+                item.item.startsWith(
+                  property === 'utsMPa'
+                    ? 'Tensile'
+                    : property === 'ysMPa'
+                      ? '0.2 %'
+                      : property === 'elongationPct'
+                        ? 'Elongation'
+                        : 'Reduction',
+                ),
+            );
+            const explicitlyNotRequired = applied.some((set) =>
+              set.notRequired?.some((entry) => entry.property === property),
+            );
+            expect(
+              judged || explicitlyNotRequired,
+              `${specification.id} ${form} ${condition} ${sizeMm} mm: ${property} neither judged nor marked not required`,
+            ).toBe(true);
+          }
+        },
+      ),
       { numRuns: 3000 },
     );
   });
@@ -165,10 +357,27 @@ describe('the whole shipped library', () => {
     for (const specification of specificationLibrary) {
       for (const grade of specification.grades) {
         for (const set of grade.mechanical) {
-          const sizeMm = set.size ? set.size.fromMm === '0' ? '1' : (Number(set.size.fromMm) + 0.01).toFixed(2) : '20';
+          const sizeMm = set.size
+            ? set.size.fromMm === '0'
+              ? '1'
+              : (Number(set.size.fromMm) + 0.01).toFixed(2)
+            : '20';
           for (const dropped of set.limits) {
-            const mechanical = Object.fromEntries(set.limits.filter((limit) => limit !== dropped).map((limit) => [limit.property, '9999']));
-            const evaluation = evaluateAgainst(specification, certificateInputSchema.parse({ spec: specification.id, grade: grade.grade, form: set.forms[0], condition: set.condition, sizeMm, chemistry: passingChemistry(grade), mechanical }));
+            const mechanical = Object.fromEntries(
+              set.limits.filter((limit) => limit !== dropped).map((limit) => [limit.property, '9999']),
+            );
+            const evaluation = evaluateAgainst(
+              specification,
+              certificateInputSchema.parse({
+                spec: specification.id,
+                grade: grade.grade,
+                form: set.forms[0],
+                condition: set.condition,
+                sizeMm,
+                chemistry: passingChemistry(grade),
+                mechanical,
+              }),
+            );
             expect(evaluation.verdict, `${specification.id} without ${dropped.property}`).not.toBe('conforms');
           }
         }

@@ -1,18 +1,64 @@
 import { describe, expect, it } from 'vitest';
 import { Decimal } from 'decimal.js';
-import { aluminiumEquivalent, alloyClass, molybdenumEquivalentBania, molybdenumEquivalentBoyer, oxygenEquivalent } from '@shared/domain/materials/titanium-indices';
+import {
+  aluminiumEquivalent,
+  alloyClass,
+  molybdenumEquivalentBania,
+  molybdenumEquivalentBoyer,
+  oxygenEquivalent,
+} from '@shared/domain/materials/titanium-indices';
 
 // Test vectors: the domain sheet §3.2 table, computed there from the formulas (each formula's
 // coefficients are unverified, tagged [M] on the sheet) and printed to 2–3 decimals. We compute
 // in exact decimals, so each check allows half a unit of the printed place.
 const near = (value: string, printed: string, places: number) =>
-  expect(new Decimal(value).minus(printed).abs().lessThanOrEqualTo(new Decimal(0.5).times(new Decimal(10).pow(-places)))).toBe(true);
+  expect(
+    new Decimal(value)
+      .minus(printed)
+      .abs()
+      .lessThanOrEqualTo(new Decimal(0.5).times(new Decimal(10).pow(-places))),
+  ).toBe(true);
 
-const vectors: Array<{ alloy: string; chemistry: Record<string, string>; boyer: string; bania: string; al: string; oeq: string }> = [
-  { alloy: 'Ti-6Al-4V ELI', chemistry: { Al: '6', V: '4', Fe: '0.15', O: '0.10', C: '0.02', N: '0.01' }, boyer: '-2.88', bania: '3.06', al: '7.40', oeq: '0.133' },
-  { alloy: 'Ti-6Al-7Nb', chemistry: { Al: '6', Nb: '7', Fe: '0.15', O: '0.15', C: '0.02', N: '0.01' }, boyer: '-3.60', bania: '2.33', al: '7.90', oeq: '0.183' },
-  { alloy: 'CP-Ti grade 4 at its limits', chemistry: { O: '0.40', N: '0.05', C: '0.08', Fe: '0.50' }, boyer: '1.45', bania: '1.25', al: '5.80', oeq: '0.554' },
-  { alloy: 'Ti-15Mo', chemistry: { Mo: '15', Fe: '0.05', O: '0.15' }, boyer: '15.14', bania: '15.12', al: '1.50', oeq: '0.150' },
+const vectors: Array<{
+  alloy: string;
+  chemistry: Record<string, string>;
+  boyer: string;
+  bania: string;
+  al: string;
+  oeq: string;
+}> = [
+  {
+    alloy: 'Ti-6Al-4V ELI',
+    chemistry: { Al: '6', V: '4', Fe: '0.15', O: '0.10', C: '0.02', N: '0.01' },
+    boyer: '-2.88',
+    bania: '3.06',
+    al: '7.40',
+    oeq: '0.133',
+  },
+  {
+    alloy: 'Ti-6Al-7Nb',
+    chemistry: { Al: '6', Nb: '7', Fe: '0.15', O: '0.15', C: '0.02', N: '0.01' },
+    boyer: '-3.60',
+    bania: '2.33',
+    al: '7.90',
+    oeq: '0.183',
+  },
+  {
+    alloy: 'CP-Ti grade 4 at its limits',
+    chemistry: { O: '0.40', N: '0.05', C: '0.08', Fe: '0.50' },
+    boyer: '1.45',
+    bania: '1.25',
+    al: '5.80',
+    oeq: '0.554',
+  },
+  {
+    alloy: 'Ti-15Mo',
+    chemistry: { Mo: '15', Fe: '0.05', O: '0.15' },
+    boyer: '15.14',
+    bania: '15.12',
+    al: '1.50',
+    oeq: '0.150',
+  },
 ];
 
 describe('titanium indices', () => {

@@ -59,13 +59,22 @@ describe('assessing a recall drill', () => {
       ['scope-closed', true],
       ['scope-current', true],
     ]);
-    expect(assessment.checks[0]!.detail).toBe('34 units shipped, all to named consignees; no lot shipped more than it released');
+    expect(assessment.checks[0]!.detail).toBe(
+      '34 units shipped, all to named consignees; no lot shipped more than it released',
+    );
     expect(assessment.complete).toBe(true);
   });
 
   it('times the drill: 420 ms to the first scope, 1 h 47 min 30 s to the confirmed scope', () => {
     const { timing } = assessDrill(scenario());
-    expect(timing).toEqual({ toFirstScopeMs: 420, tracedInMs: 380, toConfirmedScopeMs: 6_450_000, elapsedMs: 6_450_000, reruns: 1, scopeChanged: false });
+    expect(timing).toEqual({
+      toFirstScopeMs: 420,
+      tracedInMs: 380,
+      toConfirmedScopeMs: 6_450_000,
+      elapsedMs: 6_450_000,
+      reruns: 1,
+      scopeChanged: false,
+    });
     expect(durationText(timing.toConfirmedScopeMs!)).toBe('1 h 47 min');
     const open = assessDrill({ ...scenario(), closedAt: null });
     expect(open.timing.toConfirmedScopeMs).toBeNull();
@@ -78,7 +87,10 @@ describe('assessing a recall drill', () => {
     facts.lots[2] = { ...facts.lots[2]!, shipped: 26, shippedNow: 26, onHand: -2 };
     const shipped = assessDrill(facts).checks.find((check) => check.id === 'shipped-units')!;
     expect(shipped.passed).toBe(false);
-    expect(shipped.offenders).toEqual(['C: shipped 26 of 24 released', 'consignees received 30 units; the lots shipped 36']);
+    expect(shipped.offenders).toEqual([
+      'C: shipped 26 of 24 released',
+      'consignees received 30 units; the lots shipped 36',
+    ]);
     expect(assessDrill(facts).checks.find((check) => check.id === 'unit-balance')!.passed).toBe(false);
     expect(assessDrill(facts).complete).toBe(false);
   });
@@ -90,7 +102,9 @@ describe('assessing a recall drill', () => {
     expect(assessDrill(facts).checks.find((check) => check.id === 'unit-balance')!.passed).toBe(true);
     expect(assessDrill(facts).totals.onHand).toBe(33);
     facts.lots[1] = { ...facts.lots[1]!, onHand: 6 };
-    expect(assessDrill(facts).checks.find((check) => check.id === 'unit-balance')!.offenders).toEqual(['B: 6 in plant ≠ 15 released − 10 shipped']);
+    expect(assessDrill(facts).checks.find((check) => check.id === 'unit-balance')!.offenders).toEqual([
+      'B: 6 in plant ≠ 15 released − 10 shipped',
+    ]);
   });
 
   it('counts a lot that split part of its units off by what it kept, and finds one that released more than it kept', () => {
@@ -100,13 +114,19 @@ describe('assessing a recall drill', () => {
     facts.lots.push(lot('E', { status: 'open', origin: 'split', parents: ['D'], made: 10 }));
     expect(assessDrill(facts).totals.made).toBe(70);
     facts.lots[3] = { ...facts.lots[3]!, status: 'released', released: 25, onHand: 25 };
-    expect(assessDrill(facts).checks.find((check) => check.id === 'unit-balance')!.offenders).toEqual(['D: released 25 of 30 started less 10 passed on']);
+    expect(assessDrill(facts).checks.find((check) => check.id === 'unit-balance')!.offenders).toEqual([
+      'D: released 25 of 30 started less 10 passed on',
+    ]);
   });
 
   it('finds gaps in the genealogy: a lot without heat, a heat not accepted or without certificate, a split lot without parent', () => {
     const facts = scenario();
     facts.lots[3] = { ...facts.lots[3]!, sourceHeats: [] };
-    facts.lots[1] = { ...facts.lots[1]!, parents: [], sourceHeats: [{ heatNumber: 'H-2', status: 'quarantined', certificates: 0 }] };
+    facts.lots[1] = {
+      ...facts.lots[1]!,
+      parents: [],
+      sourceHeats: [{ heatNumber: 'H-2', status: 'quarantined', certificates: 0 }],
+    };
     expect(assessDrill(facts).checks.find((check) => check.id === 'genealogy')!.offenders).toEqual([
       'B: heat H-2 is quarantined, not accepted',
       'B: heat H-2 has no certificate',
@@ -120,12 +140,24 @@ describe('assessing a recall drill', () => {
     facts.lots[1] = { ...facts.lots[1]!, childrenOutsideScope: ['E'], shippedNow: 13 };
     facts.lotsAddedSinceOpening = ['C'];
     const assessment = assessDrill(facts);
-    expect(assessment.checks.find((check) => check.id === 'scope-closed')).toMatchObject({ passed: false, offenders: ['E (from B)'], detail: '1 lot made from affected lots but missing from the scope' });
-    expect(assessment.checks.find((check) => check.id === 'scope-current')!.offenders).toEqual(['B: 10 shipped when traced, 13 now']);
+    expect(assessment.checks.find((check) => check.id === 'scope-closed')).toMatchObject({
+      passed: false,
+      offenders: ['E (from B)'],
+      detail: '1 lot made from affected lots but missing from the scope',
+    });
+    expect(assessment.checks.find((check) => check.id === 'scope-current')!.offenders).toEqual([
+      'B: 10 shipped when traced, 13 now',
+    ]);
     expect(assessment.timing.scopeChanged).toBe(true);
   });
 
   it('writes durations as a person reads them', () => {
-    expect([850, 20_000, 200_000, 7_500_000, 200_000_000].map(durationText)).toEqual(['850 ms', '20 s', '3 min 20 s', '2 h 05 min', '2 d 7 h']);
+    expect([850, 20_000, 200_000, 7_500_000, 200_000_000].map(durationText)).toEqual([
+      '850 ms',
+      '20 s',
+      '3 min 20 s',
+      '2 h 05 min',
+      '2 d 7 h',
+    ]);
   });
 });

@@ -2,7 +2,16 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { diffAffectedSets, needsHold, type AffectedSet, type SnapshotLot } from '@shared/domain/recall/snapshot-diff';
 
-const lot = (id: number, overrides: Partial<SnapshotLot> = {}): SnapshotLot => ({ id, lotNumber: `L${id}`, status: 'open', made: 20, released: 0, shipped: 0, onHand: 0, ...overrides });
+const lot = (id: number, overrides: Partial<SnapshotLot> = {}): SnapshotLot => ({
+  id,
+  lotNumber: `L${id}`,
+  status: 'open',
+  made: 20,
+  released: 0,
+  shipped: 0,
+  onHand: 0,
+  ...overrides,
+});
 
 describe('the difference between a frozen affected set and a re-run', () => {
   it('when nothing changed, then it says so', () => {
@@ -11,7 +20,10 @@ describe('the difference between a frozen affected set and a re-run', () => {
   });
 
   it('when a lot joins, one leaves and one ships, then each is named with what moved', () => {
-    const before: AffectedSet = { lots: [lot(1), lot(2, { status: 'released', released: 20, onHand: 20 })], consignees: [] };
+    const before: AffectedSet = {
+      lots: [lot(1), lot(2, { status: 'released', released: 20, onHand: 20 })],
+      consignees: [],
+    };
     const after: AffectedSet = {
       lots: [lot(2, { status: 'released', released: 20, shipped: 8, onHand: 12 }), lot(3)],
       consignees: [{ id: 9, name: 'Clinic', units: 8, lots: 1 }],
@@ -41,14 +53,18 @@ describe('the difference between a frozen affected set and a re-run', () => {
       shipped: fc.nat(500),
       onHand: fc.nat(500),
     });
-    const setArb: fc.Arbitrary<SnapshotLot[]> = fc.dictionary(fc.integer({ min: 1, max: 30 }).map(String), lotArb, { maxKeys: 20 }).map((lots) => Object.entries(lots).map(([id, fields]) => ({ id: Number(id), lotNumber: `L${id}`, ...fields })));
+    const setArb: fc.Arbitrary<SnapshotLot[]> = fc
+      .dictionary(fc.integer({ min: 1, max: 30 }).map(String), lotArb, { maxKeys: 20 })
+      .map((lots) => Object.entries(lots).map(([id, fields]) => ({ id: Number(id), lotNumber: `L${id}`, ...fields })));
     fc.assert(
       fc.property(setArb, setArb, (earlier, later) => {
         const diff = diffAffectedSets({ lots: earlier, consignees: [] }, { lots: later, consignees: [] });
         const rebuilt = new Map(earlier.map((entry) => [entry.id, { ...entry }]));
         for (const removed of diff.lotsRemoved) rebuilt.delete(removed.id);
         for (const added of diff.lotsAdded) rebuilt.set(added.id, added);
-        for (const { lot: changed, changes } of diff.lotsChanged) for (const change of changes) (rebuilt.get(changed.id) as unknown as Record<string, unknown>)[change.field] = change.after;
+        for (const { lot: changed, changes } of diff.lotsChanged)
+          for (const change of changes)
+            (rebuilt.get(changed.id) as unknown as Record<string, unknown>)[change.field] = change.after;
         const sort = (lots: SnapshotLot[]) => [...lots].sort((a, b) => a.id - b.id);
         expect(sort([...rebuilt.values()])).toEqual(sort(later));
         expect(diff.unchanged).toBe(JSON.stringify(sort(earlier)) === JSON.stringify(sort(later)));

@@ -4,12 +4,23 @@
 import { describe, expect, it } from 'vitest';
 import { unitTotals, type LotUnits } from '@shared/domain/trace/unit-totals';
 
-const lot = (id: number, made: number | null, values: Partial<LotUnits> = {}): LotUnits => ({ id, made, released: 0, shipped: 0, onHand: 0, ...values });
+const lot = (id: number, made: number | null, values: Partial<LotUnits> = {}): LotUnits => ({
+  id,
+  made,
+  released: 0,
+  shipped: 0,
+  onHand: 0,
+  ...values,
+});
 
 describe('units made, released, shipped and on hand over affected lots', () => {
   it('when a lot of 40 is split into 15 and 25, then 40 units were made, not 80', () => {
     // A started 40 and passed all of them on: 0 kept + 15 + 25 = 40.
-    const lots = [lot(1, 40), lot(2, 15, { released: 15, shipped: 10, onHand: 5 }), lot(3, 25, { released: 25, shipped: 25 })];
+    const lots = [
+      lot(1, 40),
+      lot(2, 15, { released: 15, shipped: 10, onHand: 5 }),
+      lot(3, 25, { released: 25, shipped: 25 }),
+    ];
     expect(unitTotals(lots, new Map([[1, 40]]))).toEqual({ made: 40, released: 40, shipped: 35, onHand: 5 });
   });
 
@@ -22,7 +33,15 @@ describe('units made, released, shipped and on hand over affected lots', () => {
     // Parent A (affected) 10 passed on; the merged lot's 20 mix A's units with B's: 0 + 20 = 20.
     expect(unitTotals([lot(1, 10), lot(3, 20)], new Map([[1, 10]])).made).toBe(20);
     // Both parents affected: 0 + 0 + 20 = 20, not 40.
-    expect(unitTotals([lot(1, 10), lot(2, 10), lot(3, 20)], new Map([[1, 10], [2, 10]])).made).toBe(20);
+    expect(
+      unitTotals(
+        [lot(1, 10), lot(2, 10), lot(3, 20)],
+        new Map([
+          [1, 10],
+          [2, 10],
+        ]),
+      ).made,
+    ).toBe(20);
   });
 
   it('when a lot has not started, then it adds no units', () => {
