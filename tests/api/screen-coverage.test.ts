@@ -16,8 +16,11 @@ function clientWrites(): Array<{ method: string; path: string }> {
   const calls: Array<{ method: string; path: string }> = [];
   for (const file of readdirSync(folder).filter((name) => name.endsWith('.ts'))) {
     const text = readFileSync(join(folder, file), 'utf8');
-    for (const match of text.matchAll(/api(Request|Upload|Download)\(\s*(['`])([^'`]+)\2([^\n]*)/g)) {
-      const [, kind, , rawPath, rest] = match;
+    for (const match of text.matchAll(/api(Request|Upload|Download)\(\s*(['`])([^'`]+)\2/g)) {
+      const [, kind, , rawPath] = match;
+      // The call's options may run over several lines: read on to the next call or export.
+      const after = text.slice(match.index + match[0].length);
+      const rest = after.slice(0, after.search(/api(Request|Upload|Download)\(|\nexport /) >>> 0);
       const method =
         kind === 'Upload' || kind === 'Download'
           ? 'POST'
