@@ -57,6 +57,16 @@ export function plantDate(instant: Instant, timeZone: string): string {
   return partsOf(instant, timeZone)?.day ?? '—';
 }
 
+/** The zone's short name at an instant, as a signature prints it ("GMT", "BST", "UTC"). */
+export function timeZoneAbbreviation(instant: Instant, timeZone: string): string {
+  const date = instant instanceof Date ? instant : new Date(instant);
+  return (
+    new Intl.DateTimeFormat('en-GB', { timeZone, timeZoneName: 'short' })
+      .formatToParts(date)
+      .find((part) => part.type === 'timeZoneName')?.value ?? timeZone
+  );
+}
+
 /** The statement that goes once on each screen and document. */
 export const timeZoneNote = (timeZone: string) => `times in ${timeZone}`;
 

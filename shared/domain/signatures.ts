@@ -1,4 +1,5 @@
 import { canonicalJson } from './ledger-hash';
+import { plantDateTimeSeconds, timeZoneAbbreviation } from './plant-time';
 
 /** What a signature means; each record type allows some of these. */
 export const signatureMeanings = [
@@ -82,18 +83,6 @@ export function signatureManifestation(input: {
   timeZone?: string;
 }): string {
   const timeZone = input.timeZone ?? 'UTC';
-  const parts = new Intl.DateTimeFormat('en-GB', {
-    timeZone,
-    year: 'numeric',
-    month: '2-digit',
-    day: '2-digit',
-    hour: '2-digit',
-    minute: '2-digit',
-    second: '2-digit',
-    hourCycle: 'h23',
-    timeZoneName: 'short',
-  }).formatToParts(input.signedAt);
-  const part = (type: Intl.DateTimeFormatPartTypes) => parts.find((item) => item.type === type)?.value ?? '';
-  const stamp = `${part('year')}-${part('month')}-${part('day')} ${part('hour')}:${part('minute')}:${part('second')} ${part('timeZoneName')}`;
+  const stamp = `${plantDateTimeSeconds(input.signedAt, timeZone)} ${timeZoneAbbreviation(input.signedAt, timeZone)}`;
   return `${input.signerName} — ${meaningLabels[input.meaning]} — ${stamp}`;
 }
