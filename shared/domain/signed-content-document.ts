@@ -2,6 +2,7 @@ import { plantDateTime } from './plant-time';
 import { statusWord } from './status-words';
 import { verdictLabels, type OverallVerdict } from '../schemas/evaluation';
 import { processMethod } from './manufacturing/process-methods';
+import { wordsOfCode } from './words-of-code';
 
 /**
  * What a person reads of signed content, as a small document: a section of facts for the
@@ -48,12 +49,7 @@ const sha256 = /^[0-9a-f]{64}$/;
 export function fieldName(key: string): string {
   const known = fieldNames[key];
   if (known) return known;
-  const words = key
-    .replace(/([a-z0-9])([A-Z])/g, '$1 $2')
-    .replace(/[-_]+/g, ' ')
-    .toLowerCase()
-    .trim();
-  return words.charAt(0).toUpperCase() + words.slice(1);
+  return wordsOfCode(key);
 }
 
 const isRecord = (value: unknown): value is Record<string, unknown> =>

@@ -1,4 +1,5 @@
 import type { dispositions, lotStatuses } from '../schemas/manufacturing';
+import { wordsOfCode } from './words-of-code';
 
 /**
  * The words people read for stored states (WORDS.md): a label never shows a code such as
@@ -61,6 +62,5 @@ const everyWord: Record<string, string> = {
 export function statusWord(code: string): string {
   const known = everyWord[code];
   if (known) return known;
-  const words = code.replace(/[-_]+/g, ' ').trim();
-  return words.charAt(0).toUpperCase() + words.slice(1);
+  return wordsOfCode(code);
 }

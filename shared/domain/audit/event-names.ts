@@ -1,3 +1,4 @@
+import { wordsOfCode } from '../words-of-code';
 /**
  * What a person reads for each kind of audit trail event. The trail stores a short code
  * (`lot.submitted-for-release`); screens, PDFs and the people's CSV columns show the name below.
@@ -53,6 +54,5 @@ const named: Record<string, string> = {
 export function auditEventName(action: string): string {
   const known = named[action];
   if (known) return known;
-  const words = action.replace(/[.\-_]+/g, ' ').trim();
-  return words ? words.charAt(0).toUpperCase() + words.slice(1) : action;
+  return wordsOfCode(action);
 }

@@ -1,3 +1,4 @@
+import { wordsOfCode } from '../words-of-code';
 /** What a person reads for each kind of record the audit trail and the signatures name. */
 const recordTypeNames: Record<string, string> = {
   'audit-ledger': 'Audit trail',
@@ -30,6 +31,5 @@ const recordTypeNames: Record<string, string> = {
 export function recordTypeName(code: string): string {
   const known = recordTypeNames[code];
   if (known) return known;
-  const words = code.replace(/[-_]+/g, ' ').trim();
-  return words.charAt(0).toUpperCase() + words.slice(1);
+  return wordsOfCode(code);
 }

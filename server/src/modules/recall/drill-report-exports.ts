@@ -205,14 +205,11 @@ export async function drillReportExport(
 ) {
   const report = await drillReport(dataSource, id);
   if (format === 'json') return { report };
+  const organisation = format === 'csv' ? null : await findOrganisation(dataSource);
   const body =
     format === 'csv'
       ? Buffer.from(drillReportCsv(report), 'utf8')
-      : await drillReportPdf(
-          report,
-          (await findOrganisation(dataSource))?.name ?? '',
-          (await findOrganisation(dataSource))?.timeZone,
-        );
+      : await drillReportPdf(report, organisation?.name ?? '', organisation?.timeZone);
   await inTransaction(dataSource, (manager) =>
     appendLedgerEvent(manager, {
       actor,
