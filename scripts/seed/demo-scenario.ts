@@ -1,5 +1,5 @@
 import type { DataSource } from 'typeorm';
-import { Organisation } from '../../server/src/modules/organisation/organisation.entity';
+import { Organisation } from '../../server/src/modules/organisation/entities/organisation.entity';
 import { inTransaction } from '../../server/src/db/transaction';
 import { appendLedgerEvent, type Actor } from '../../server/src/modules/ledger/ledger.repository';
 import { rolesFromGroups } from '../../server/src/modules/people/people.domain';

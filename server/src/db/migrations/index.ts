@@ -21,6 +21,7 @@ import { AddLedgerSignatures1764705600000 } from './1764705600000-add-ledger-sig
 import { AddPartRecallTrigger1764709200000 } from './1764709200000-add-part-recall-trigger';
 import { AddPlantTimeZone1764712800000 } from './1764712800000-add-plant-time-zone';
 import { NameReturnedReleaseOutcome1764716400000 } from './1764716400000-name-returned-release-outcome';
+import { NameKeyIndexesApart1764720000000 } from './1764720000000-name-key-indexes-apart';
 
 /** Every migration in the order it runs. Add new ones at the end. */
 export const migrations = [
@@ -47,4 +48,5 @@ export const migrations = [
   AddPartRecallTrigger1764709200000,
   AddPlantTimeZone1764712800000,
   NameReturnedReleaseOutcome1764716400000,
+  NameKeyIndexesApart1764720000000,
 ];

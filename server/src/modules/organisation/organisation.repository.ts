@@ -1,5 +1,5 @@
 import type { DataSource, EntityManager } from 'typeorm';
-import { Organisation } from './organisation.entity';
+import { Organisation } from './entities/organisation.entity';
 import type { OrganisationSummary } from '@shared/schemas/organisation';
 
 export async function findOrganisation(dataSource: DataSource): Promise<OrganisationSummary | null> {

@@ -14,13 +14,16 @@ export class Organisation {
   @Column({ type: 'varchar', length: 500 })
   address: string;
 
-  @Column({ type: 'varchar', length: 12, name: 'gs1_company_prefix', nullable: true })
+  @Column({ type: 'varchar', name: 'gs1_company_prefix', length: 12, nullable: true })
   gs1CompanyPrefix: string | null;
 
-  /** IANA name of the plant's time zone; every date and time people read is on its clock. */
-  @Column({ type: 'varchar', length: 64, name: 'time_zone', charset: 'ascii', default: 'UTC' })
-  timeZone: string;
-
-  @Column({ type: 'datetime', precision: 6, name: 'created_at', default: () => 'CURRENT_TIMESTAMP(6)' })
+  @Column({ type: 'datetime', name: 'created_at', precision: 6, default: () => 'CURRENT_TIMESTAMP(6)' })
   createdAt: Date;
+
+  @Column({ type: 'boolean', name: 'administrators_may_approve', default: false })
+  administratorsMayApprove: boolean;
+
+  /** IANA name of the plant's time zone; every date and time people read is on its clock. */
+  @Column({ type: 'varchar', name: 'time_zone', length: 64, charset: 'ascii', default: 'UTC' })
+  timeZone: string;
 }

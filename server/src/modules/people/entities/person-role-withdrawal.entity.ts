@@ -1,0 +1,15 @@
+import { Entity, JoinColumn, ManyToOne, PrimaryColumn, type Relation } from 'typeorm';
+import { Person } from './person.entity';
+
+@Entity({ name: 'person_role_withdrawal' })
+export class PersonRoleWithdrawal {
+  @PrimaryColumn({ type: 'int', name: 'person_id', unsigned: true })
+  personId: number;
+
+  @PrimaryColumn({ type: 'varchar', length: 40 })
+  role: string;
+
+  @ManyToOne(() => Person, { onDelete: 'RESTRICT', onUpdate: 'RESTRICT', nullable: false })
+  @JoinColumn({ name: 'person_id', foreignKeyConstraintName: 'person_role_withdrawal_person' })
+  person?: Relation<Person>;
+}
