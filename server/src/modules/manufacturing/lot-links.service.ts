@@ -9,6 +9,7 @@ import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
 import { findPart } from './parts.service';
 import { findLotRow } from './lots.repository';
+import { changeLotStatus } from './production-lot.repository';
 import { lastStepOf, unitChains } from './lot-units';
 import { insertLot } from './lots.service';
 import { inheritHeats } from './lot-heats';
@@ -85,7 +86,7 @@ export async function splitLot(
       children.push({ id, lotNumber, qty });
     }
     const remaining = chain.onHand - input.quantities.reduce((sum, qty) => sum + qty, 0);
-    if (remaining === 0) await manager.query("UPDATE production_lot SET status = 'consumed' WHERE id = ?", [lotId]);
+    if (remaining === 0) await changeLotStatus(manager, lotId, 'consume');
     await appendLedgerEvent(manager, {
       actor,
       action: 'lot.split',
@@ -157,7 +158,7 @@ export async function mergeLots(
         'INSERT INTO lot_link (parent_lot_id, child_lot_id, kind, qty, after_step, recorded_by) VALUES (?, ?, ?, ?, ?, ?)',
         [row.id, id, 'merge', candidates[index]!.onHand, afterStep, person.id],
       );
-      await manager.query("UPDATE production_lot SET status = 'consumed' WHERE id = ?", [row.id]);
+      await changeLotStatus(manager, row.id, 'consume');
     }
     await inheritHeats(manager, id, ids);
     const merged = (await findLotRow(manager, id))!;

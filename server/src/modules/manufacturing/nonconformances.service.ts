@@ -8,6 +8,8 @@ import {
 } from '@shared/schemas/manufacturing';
 import type { Person } from '@shared/schemas/people';
 import { AppError } from '../../errors';
+import { changeLotStatus, lockLot } from './production-lot.repository';
+import { closePendingSubmission } from '../release/release.repository';
 import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
 import type { SignableRecordType } from '../signatures/signable-records';
@@ -109,16 +111,10 @@ export async function proposeDisposition(
 async function rejectScrappedLot(manager: EntityManager, ncId: number, actor: Actor, reason: string | null) {
   const nc = await findNonconformance(manager, ncId);
   if (!nc || nc.disposition !== 'scrap' || nc.subjectType !== 'lot') return;
-  const [lot]: Array<{ status: string }> = await manager.query(
-    'SELECT status FROM production_lot WHERE id = ? FOR UPDATE',
-    [nc.subjectId],
-  );
+  const lot = await lockLot(manager, nc.subjectId);
   if (!lot || lot.status === 'released' || lot.status === 'rejected') return;
-  await manager.query("UPDATE production_lot SET status = 'rejected' WHERE id = ?", [nc.subjectId]);
-  await manager.query(
-    "UPDATE release_submission SET outcome = 'returned', closed_at = ? WHERE lot_id = ? AND outcome = 'pending'",
-    [new Date(), nc.subjectId],
-  );
+  await changeLotStatus(manager, nc.subjectId, 'reject');
+  await closePendingSubmission(manager, nc.subjectId, 'returned');
   await appendLedgerEvent(manager, {
     actor,
     action: 'lot.rejected',

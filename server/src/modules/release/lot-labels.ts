@@ -3,6 +3,7 @@ import bwipjs from 'bwip-js/node';
 import type { Content } from 'pdfmake/interfaces';
 import { buildBarcodeData, buildElementString } from '@shared/domain/gs1/element-string';
 import { AppError } from '../../errors';
+import { findLotWithPart } from '../manufacturing/production-lot.repository';
 import { renderPdf } from '../../documents/pdf-printer';
 
 const MM = 72 / 25.4;
@@ -17,19 +18,10 @@ export async function lotLabelsPdf(
   lotId: number,
   options: { count: number; widthMm: number; heightMm: number },
 ): Promise<{ lotNumber: string; pdf: Buffer }> {
-  const [lot]: Array<{
-    lot_number: string;
-    gtin: string;
-    part_number: string;
-    revision: string;
-    description: string;
-    opened_at: Date;
-  }> = await dataSource.query(
-    'SELECT l.lot_number, p.gtin, p.part_number, p.revision, p.description, l.opened_at FROM production_lot l JOIN part p ON p.id = l.part_id WHERE l.id = ?',
-    [lotId],
-  );
-  if (!lot) throw AppError.notFound('Lot');
-  const udi = { gtin: lot.gtin, lot: lot.lot_number, serial: null, expiry: null, productionDate: null };
+  const lot = await findLotWithPart(dataSource.manager, lotId);
+  if (!lot?.part) throw AppError.notFound('Lot');
+  const { part } = lot;
+  const udi = { gtin: part.gtin, lot: lot.lotNumber, serial: null, expiry: null, productionDate: null };
   const symbol = await bwipjs.toBuffer({ bcid: 'gs1datamatrix', text: buildElementString(udi), scale: 3, padding: 2 });
   const size = Math.min(options.heightMm - 8, options.widthMm * 0.4) * MM;
   // pdfmake annotates the nodes it lays out, so every page gets its own copy.
@@ -40,9 +32,9 @@ export async function lotLabelsPdf(
         {
           width: '*',
           stack: [
-            { text: lot.description, bold: true, fontSize: 7 },
-            { text: `${lot.part_number} rev ${lot.revision}`, fontSize: 7 },
-            { text: `LOT ${lot.lot_number}`, bold: true, fontSize: 9, margin: [0, 2, 0, 2] },
+            { text: part.description, bold: true, fontSize: 7 },
+            { text: `${part.partNumber} rev ${part.revision}`, fontSize: 7 },
+            { text: `LOT ${lot.lotNumber}`, bold: true, fontSize: 9, margin: [0, 2, 0, 2] },
             { text: buildElementString(udi), fontSize: 6 },
           ],
         },
@@ -56,15 +48,15 @@ export async function lotLabelsPdf(
   );
   const pdf = await renderPdf({
     info: {
-      title: `Labels, lot ${lot.lot_number}`,
+      title: `Labels, lot ${lot.lotNumber}`,
       creator: 'Ingotrace',
       producer: 'Ingotrace',
-      creationDate: new Date(lot.opened_at),
+      creationDate: lot.openedAt,
       subject: buildBarcodeData(udi),
     },
     pageSize: { width: options.widthMm * MM, height: options.heightMm * MM },
     pageMargins: [4 * MM, 4 * MM, 4 * MM, 3 * MM],
     content: pages,
   });
-  return { lotNumber: lot.lot_number, pdf };
+  return { lotNumber: lot.lotNumber, pdf };
 }

@@ -1,6 +1,8 @@
 import type { EntityManager } from 'typeorm';
 import { addressesOfRole, queueMail } from '../mail/mail-outbox';
 import { linkTo } from '../mail/links';
+import { findLotWithPart } from '../manufacturing/production-lot.repository';
+import { lastSubmitter } from './release.repository';
 
 type ReleaseEvent = 'submitted' | 'reviewed' | 'released' | 'returned';
 
@@ -14,15 +16,11 @@ export async function queueReleaseMail(
   event: ReleaseEvent,
   reason: string | null = null,
 ): Promise<void> {
-  const [lot]: Array<{ lot_number: string; part: string }> = await manager.query(
-    "SELECT l.lot_number, CONCAT(p.part_number, ' rev ', p.revision, ' — ', p.description) AS part FROM production_lot l JOIN part p ON p.id = l.part_id WHERE l.id = ?",
-    [lotId],
-  );
-  if (!lot) return;
-  const [submitter]: Array<{ email: string; name: string }> = await manager.query(
-    'SELECT p.email, p.name FROM release_submission r JOIN person p ON p.id = r.submitted_by WHERE r.lot_id = ? ORDER BY r.id DESC LIMIT 1',
-    [lotId],
-  );
+  const lot = await findLotWithPart(manager, lotId);
+  if (!lot?.part) return;
+  const lotNumber = lot.lotNumber;
+  const part = `${lot.part.partNumber} rev ${lot.part.revision} — ${lot.part.description}`;
+  const submitter = await lastSubmitter(manager, lotId);
   const link = linkTo(`/lots/${lotId}`);
   const text = (lines: string[]) =>
     [
@@ -35,30 +33,27 @@ export async function queueReleaseMail(
   const messages: Record<ReleaseEvent, { to: () => Promise<string[]>; subject: string; body: string[] }> = {
     submitted: {
       to: () => addressesOfRole(manager, 'qa-reviewer'),
-      subject: `Lot ${lot.lot_number} awaits your review`,
+      subject: `Lot ${lotNumber} awaits your review`,
       body: [
-        `Lot ${lot.lot_number} (${lot.part}) was submitted for release by ${submitter?.name ?? 'an engineer'} and awaits a QA review.`,
+        `Lot ${lotNumber} (${part}) was submitted for release by ${submitter?.name ?? 'an engineer'} and awaits a QA review.`,
       ],
     },
     reviewed: {
       to: () => addressesOfRole(manager, 'qa-approver'),
-      subject: `Lot ${lot.lot_number} awaits your approval`,
-      body: [`Lot ${lot.lot_number} (${lot.part}) was reviewed and awaits approval for release.`],
+      subject: `Lot ${lotNumber} awaits your approval`,
+      body: [`Lot ${lotNumber} (${part}) was reviewed and awaits approval for release.`],
     },
     released: {
       to: async () => (submitter ? [submitter.email] : []),
-      subject: `Lot ${lot.lot_number} is released`,
+      subject: `Lot ${lotNumber} is released`,
       body: [
-        `Lot ${lot.lot_number} (${lot.part}) was approved for release. Its release packet can be downloaded from the lot page.`,
+        `Lot ${lotNumber} (${part}) was approved for release. Its release packet can be downloaded from the lot page.`,
       ],
     },
     returned: {
       to: async () => (submitter ? [submitter.email] : []),
-      subject: `Lot ${lot.lot_number} was returned to engineering`,
-      body: [
-        `Lot ${lot.lot_number} (${lot.part}) was returned to engineering for correction.`,
-        `Reason: ${reason ?? '—'}`,
-      ],
+      subject: `Lot ${lotNumber} was returned to engineering`,
+      body: [`Lot ${lotNumber} (${part}) was returned to engineering for correction.`, `Reason: ${reason ?? '—'}`],
     },
   };
   const message = messages[event];

@@ -8,6 +8,8 @@ import { appendLedgerEvent, sha256Hex } from '../ledger/ledger.repository';
 import { lotAuditTrail } from './audit-trail';
 import { ancestry, releaseDossierIn } from './release-dossier';
 import { queueReleaseMail } from './release-mails';
+import { changeLotStatus, findLot, lockLot } from '../manufacturing/production-lot.repository';
+import { closePendingSubmission } from './release.repository';
 
 const actions = {
   reviewed: 'release.review',
@@ -35,17 +37,14 @@ export const lotReleaseRecordType: SignableRecordType = {
   },
   async load(manager, recordId) {
     if (!/^\d{1,10}$/.test(recordId)) return null;
-    const [lot]: Array<{ id: number; lot_number: string; status: string }> = await manager.query(
-      'SELECT id, lot_number, status FROM production_lot WHERE id = ?',
-      [Number(recordId)],
-    );
+    const lot = await findLot(manager, Number(recordId));
     if (!lot) return null;
     const dossier = await releaseDossierIn(manager, lot.id);
     const hash = contentHash(dossier.content, sha256Hex);
     const reviews = (await signaturesFor(manager, 'lot-release', recordId)).filter((row) => row.meaning === 'reviewed');
     const trail = await lotAuditTrail(manager, lot.id, dossier.lineage);
     return {
-      title: `Release of lot ${lot.lot_number}`,
+      title: `Release of lot ${lot.lotNumber}`,
       content: dossier.content,
       authorIds: dossier.authorIds,
       status: lot.status,
@@ -85,31 +84,19 @@ export const lotReleaseRecordType: SignableRecordType = {
   },
   async afterSign(manager, { recordId, meaning, signerId, signerName, reason }) {
     const lotId = Number(recordId);
-    const [lot]: Array<{ status: string }> = await manager.query(
-      'SELECT status FROM production_lot WHERE id = ? FOR UPDATE',
-      [lotId],
-    );
-    const next = meaning === 'reviewed' ? 'reviewed' : meaning === 'approved-for-release' ? 'released' : 'open';
+    await lockLot(manager, lotId);
     // The review records how far the lot's audit trail went when it was signed.
     const trail = meaning === 'reviewed' ? await lotAuditTrail(manager, lotId, await ancestry(manager, lotId)) : null;
+    let moved: { from: string; to: string };
     if (meaning === 'approved-for-release') {
       const dossier = await releaseDossierIn(manager, lotId);
-      await manager.query("UPDATE production_lot SET status = 'released', released_qty = ? WHERE id = ?", [
-        dossier.lot.onHand ?? 0,
-        lotId,
-      ]);
-      await manager.query(
-        "UPDATE release_submission SET outcome = 'released', closed_at = ? WHERE lot_id = ? AND outcome = 'pending'",
-        [new Date(), lotId],
-      );
+      moved = await changeLotStatus(manager, lotId, 'approve-for-release', { qty: dossier.lot.onHand ?? 0 });
+      await closePendingSubmission(manager, lotId, 'released');
     } else if (meaning === 'returned-to-engineering') {
-      await manager.query("UPDATE production_lot SET status = 'open' WHERE id = ?", [lotId]);
-      await manager.query(
-        "UPDATE release_submission SET outcome = 'returned', closed_at = ? WHERE lot_id = ? AND outcome = 'pending'",
-        [new Date(), lotId],
-      );
+      moved = await changeLotStatus(manager, lotId, 'return-to-engineering');
+      await closePendingSubmission(manager, lotId, 'returned');
     } else {
-      await manager.query("UPDATE production_lot SET status = 'reviewed' WHERE id = ?", [lotId]);
+      moved = await changeLotStatus(manager, lotId, 'review');
     }
     await queueReleaseMail(
       manager,
@@ -125,9 +112,9 @@ export const lotReleaseRecordType: SignableRecordType = {
       },
       action: `lot.${meaning === 'approved-for-release' ? 'released' : meaning}`,
       entity: { type: 'lot', id: lotId },
-      before: { status: lot?.status ?? null },
+      before: { status: moved.from },
       after: {
-        status: next,
+        status: moved.to,
         ...(trail ? { auditTrail: { events: trail.events.length, throughSeq: trail.events.at(-1)?.seq ?? 0 } } : {}),
       },
       reason,

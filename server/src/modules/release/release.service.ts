@@ -12,18 +12,25 @@ import { releaseDossier, releaseDossierIn } from './release-dossier';
 import { packetData, renderReleasePacket } from './release-packet';
 import { queueReleaseMail } from './release-mails';
 import type { ReleaseQueuePage } from '@shared/schemas/release';
+import { changeLotStatus, findLot, lockLot } from '../manufacturing/production-lot.repository';
+import {
+  addLabelMovement,
+  addSubmission,
+  labelCounts,
+  releasedSubmissionId,
+  releaseQueueCounts,
+  releaseQueueRows,
+  storedPacket,
+  storePacketOnce,
+  submissionsOf,
+} from './release.repository';
 
 /** The lot's readiness checklist, its dossier and where it stands in the release workflow. */
 export async function releaseView(dataSource: DataSource, lotId: number) {
-  const [lot] = await dataSource.query('SELECT id FROM production_lot WHERE id = ?', [lotId]);
-  if (!lot) throw AppError.notFound('Lot');
+  if (!(await findLot(dataSource.manager, lotId))) throw AppError.notFound('Lot');
   const dossier = await releaseDossier(dataSource, lotId);
   const hash = contentHash(dossier.content, sha256Hex);
-  const submissions: Array<{ id: number; submitted_at: Date; outcome: string; dossier_hash: string; name: string }> =
-    await dataSource.query(
-      'SELECT r.id, r.submitted_at, r.outcome, r.dossier_hash, p.name FROM release_submission r JOIN person p ON p.id = r.submitted_by WHERE r.lot_id = ? ORDER BY r.id DESC',
-      [lotId],
-    );
+  const submissions = await submissionsOf(dataSource.manager, lotId);
   const signatures = await signaturesFor(dataSource.manager, 'lot-release', String(lotId));
   return {
     lotId,
@@ -34,10 +41,10 @@ export async function releaseView(dataSource: DataSource, lotId: number) {
     dossierHash: hash,
     submissions: submissions.map((row) => ({
       id: row.id,
-      submittedAt: new Date(row.submitted_at).toISOString(),
-      submittedBy: row.name,
+      submittedAt: row.submittedAt.toISOString(),
+      submittedBy: row.submittedBy,
       outcome: row.outcome,
-      changedSinceSubmission: row.outcome === 'pending' && row.dossier_hash !== hash,
+      changedSinceSubmission: row.outcome === 'pending' && row.dossierHash !== hash,
     })),
     reviewedCurrent: signatures.some((row) => row.meaning === 'reviewed' && row.content_hash === hash),
     auditTrail: await lotAuditTrail(dataSource.manager, lotId, dossier.lineage),
@@ -53,30 +60,23 @@ export async function submitForRelease(
   origin: RequestOrigin,
 ) {
   return inTransaction(dataSource, async (manager) => {
-    const [lot]: Array<{ id: number; lot_number: string; status: string }> = await manager.query(
-      'SELECT id, lot_number, status FROM production_lot WHERE id = ? FOR UPDATE',
-      [lotId],
-    );
+    const lot = await lockLot(manager, lotId);
     if (!lot) throw AppError.notFound('Lot');
     if (lot.status !== 'open')
-      throw AppError.rule(`Lot ${lot.lot_number} is ${lot.status}; only an open lot can be submitted`, {
+      throw AppError.rule(`Lot ${lot.lotNumber} is ${lot.status}; only an open lot can be submitted`, {
         lot: lot.status,
       });
     const dossier = await releaseDossierIn(manager, lotId);
     const failing = dossier.readiness.items.filter((item) => item.verdict === 'fail');
     if (failing.length) {
       throw AppError.rule(
-        `Lot ${lot.lot_number} is not ready for release: ${failing.map((item) => `${item.title.toLowerCase()} (${item.why})`).join('; ')}`,
+        `Lot ${lot.lotNumber} is not ready for release: ${failing.map((item) => `${item.title.toLowerCase()} (${item.why})`).join('; ')}`,
         Object.fromEntries(failing.map((item) => [item.key, item.why])),
       );
     }
     const hash = contentHash(dossier.content, sha256Hex);
-    await manager.query('INSERT INTO release_submission (lot_id, submitted_by, dossier_hash) VALUES (?, ?, ?)', [
-      lotId,
-      person.id,
-      hash,
-    ]);
-    await manager.query("UPDATE production_lot SET status = 'submitted' WHERE id = ?", [lotId]);
+    await addSubmission(manager, { lotId, submittedBy: person.id, dossierHash: hash });
+    await changeLotStatus(manager, lotId, 'submit-for-release');
     await queueReleaseMail(manager, lotId, 'submitted');
     await appendLedgerEvent(manager, {
       actor,
@@ -101,29 +101,23 @@ export async function recordLabels(
 ) {
   const input = labelMovementSchema.parse(raw);
   return inTransaction(dataSource, async (manager) => {
-    const [lot]: Array<{ lot_number: string; status: string }> = await manager.query(
-      'SELECT lot_number, status FROM production_lot WHERE id = ? FOR UPDATE',
-      [lotId],
-    );
+    const lot = await lockLot(manager, lotId);
     if (!lot) throw AppError.notFound('Lot');
     if (lot.status !== 'open')
-      throw AppError.rule(`Lot ${lot.lot_number} is ${lot.status}; labels are counted before submission`, {
+      throw AppError.rule(`Lot ${lot.lotNumber} is ${lot.status}; labels are counted before submission`, {
         qty: lot.status,
       });
-    const [counts]: Array<{ printed: string | null; voided: string | null }> = await manager.query(
-      "SELECT SUM(CASE kind WHEN 'print' THEN qty ELSE 0 END) AS printed, SUM(CASE kind WHEN 'void' THEN qty ELSE 0 END) AS voided FROM label_print WHERE lot_id = ?",
-      [lotId],
-    );
-    const net = Number(counts?.printed ?? 0) - Number(counts?.voided ?? 0);
+    const counts = await labelCounts(manager, lotId);
+    const net = counts.printed - counts.voided;
     if (input.kind === 'void' && input.qty > net)
-      throw AppError.rule(`Only ${net} labels are out for lot ${lot.lot_number}`, { qty: `At most ${net}` });
-    await manager.query('INSERT INTO label_print (lot_id, kind, qty, reason, recorded_by) VALUES (?, ?, ?, ?, ?)', [
+      throw AppError.rule(`Only ${net} labels are out for lot ${lot.lotNumber}`, { qty: `At most ${net}` });
+    await addLabelMovement(manager, {
       lotId,
-      input.kind,
-      input.qty,
-      input.reason ?? null,
-      person.id,
-    ]);
+      kind: input.kind,
+      qty: input.qty,
+      reason: input.reason ?? null,
+      recordedBy: person.id,
+    });
     await appendLedgerEvent(manager, {
       actor,
       action: input.kind === 'print' ? 'lot.labels-printed' : 'lot.labels-voided',
@@ -136,49 +130,12 @@ export async function recordLabels(
   });
 }
 
-const queueStatuses = { review: 'submitted', approval: 'reviewed', released: 'released', returned: 'open' } as const;
-
-const returnedClause =
-  "AND EXISTS (SELECT 1 FROM release_submission r WHERE r.lot_id = l.id AND r.outcome = 'returned')";
-
 /** Lots waiting at each step of the release workflow, oldest submission first, with the count of every queue. */
 export async function releaseQueue(dataSource: DataSource, query: ReleaseQueueQuery): Promise<ReleaseQueuePage> {
-  const status = queueStatuses[query.queue];
-  const returned = query.queue === 'returned' ? returnedClause : '';
-  const [byStatus, [returnedCount]]: [Array<{ status: string; total: string }>, Array<{ total: string }>] =
-    await Promise.all([
-      dataSource.query(
-        "SELECT status, COUNT(*) AS total FROM production_lot WHERE status IN ('submitted', 'reviewed', 'released') GROUP BY status",
-      ),
-      dataSource.query(`SELECT COUNT(*) AS total FROM production_lot l WHERE l.status = 'open' ${returnedClause}`),
-    ]);
-  const countOf = (wanted: string) => Number(byStatus.find((row) => row.status === wanted)?.total ?? 0);
-  const counts = {
-    review: countOf('submitted'),
-    approval: countOf('reviewed'),
-    released: countOf('released'),
-    returned: Number(returnedCount?.total ?? 0),
-  };
-  const rows: Array<{
-    id: number;
-    lot_number: string;
-    part_number: string;
-    revision: string;
-    released_qty: number;
-    submitted_at: Date | null;
-    submitted_by: string | null;
-    reviewed_by: string | null;
-    reviewed_at: Date | null;
-  }> = await dataSource.query(
-    `SELECT l.id, l.lot_number, p.part_number, p.revision, l.released_qty,
-            (SELECT MAX(r.submitted_at) FROM release_submission r WHERE r.lot_id = l.id) AS submitted_at,
-            (SELECT person.name FROM release_submission r JOIN person ON person.id = r.submitted_by WHERE r.lot_id = l.id ORDER BY r.id DESC LIMIT 1) AS submitted_by,
-            (SELECT s.signer_name FROM electronic_signature s WHERE s.record_type = 'lot-release' AND s.record_id = CAST(l.id AS CHAR) AND s.meaning = 'reviewed' ORDER BY s.id DESC LIMIT 1) AS reviewed_by,
-            (SELECT s.signed_at FROM electronic_signature s WHERE s.record_type = 'lot-release' AND s.record_id = CAST(l.id AS CHAR) AND s.meaning = 'reviewed' ORDER BY s.id DESC LIMIT 1) AS reviewed_at
-       FROM production_lot l JOIN part p ON p.id = l.part_id WHERE l.status = ? ${returned}
-      ORDER BY submitted_at ${query.queue === 'released' ? 'DESC' : 'ASC'}, l.id LIMIT ? OFFSET ?`,
-    [status, query.pageSize, (query.page - 1) * query.pageSize],
-  );
+  const [counts, rows] = await Promise.all([
+    releaseQueueCounts(dataSource.manager),
+    releaseQueueRows(dataSource.manager, query),
+  ]);
   return {
     items: rows.map((row) => ({
       lotId: row.id,
@@ -206,36 +163,19 @@ export async function releasePacket(
   lotId: number,
   publicUrl: string,
 ): Promise<{ lotNumber: string; sha256: string; content: Buffer; created: boolean }> {
-  const [lot]: Array<{ lot_number: string; status: string }> = await dataSource.query(
-    'SELECT lot_number, status FROM production_lot WHERE id = ?',
-    [lotId],
-  );
+  const lot = await findLot(dataSource.manager, lotId);
   if (!lot) throw AppError.notFound('Lot');
   if (lot.status !== 'released')
-    throw AppError.rule(`Lot ${lot.lot_number} is ${lot.status}; a release packet exists only for a released lot`);
-  const [submission]: Array<{ id: number }> = await dataSource.query(
-    "SELECT id FROM release_submission WHERE lot_id = ? AND outcome = 'released' ORDER BY id DESC LIMIT 1",
-    [lotId],
-  );
-  if (!submission) throw AppError.rule(`Lot ${lot.lot_number} has no released submission`);
-  const stored = async () => {
-    const [row]: Array<{ sha256: string; content: Buffer }> = await dataSource.query(
-      'SELECT sha256, content FROM release_packet WHERE submission_id = ?',
-      [submission.id],
-    );
-    return row ?? null;
-  };
+    throw AppError.rule(`Lot ${lot.lotNumber} is ${lot.status}; a release packet exists only for a released lot`);
+  const submissionId = await releasedSubmissionId(dataSource.manager, lotId);
+  if (submissionId === null) throw AppError.rule(`Lot ${lot.lotNumber} has no released submission`);
+  const stored = () => storedPacket(dataSource.manager, submissionId);
   const existing = await stored();
-  if (existing)
-    return { lotNumber: lot.lot_number, sha256: existing.sha256, content: existing.content, created: false };
+  if (existing) return { lotNumber: lot.lotNumber, sha256: existing.sha256, content: existing.content, created: false };
   const content = await renderReleasePacket(await packetData(dataSource.manager, lotId, publicUrl));
   const sha256 = createHash('sha256').update(content).digest('hex');
   await inTransaction(dataSource, async (manager) => {
-    const result: { affectedRows: number } = await manager.query(
-      'INSERT IGNORE INTO release_packet (lot_id, submission_id, sha256, content) VALUES (?, ?, ?, ?)',
-      [lotId, submission.id, sha256, content],
-    );
-    if (result.affectedRows === 1) {
+    if (await storePacketOnce(manager, { lotId, submissionId, sha256, content })) {
       await appendLedgerEvent(manager, {
         actor: { id: null, name: 'Ingotrace', role: null },
         action: 'lot.release-packet-stored',
@@ -246,5 +186,5 @@ export async function releasePacket(
     }
   });
   const kept = (await stored())!;
-  return { lotNumber: lot.lot_number, sha256: kept.sha256, content: kept.content, created: kept.sha256 === sha256 };
+  return { lotNumber: lot.lotNumber, sha256: kept.sha256, content: kept.content, created: kept.sha256 === sha256 };
 }

@@ -1,4 +1,5 @@
 import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import type { LotStatus } from '@shared/domain/manufacturing/lot-status';
 import { Part } from './part.entity';
 import { Person } from '../../people/entities/person.entity';
 
@@ -30,7 +31,7 @@ export class ProductionLot {
   resumesAfterStep: number;
 
   @Column({ type: 'varchar', length: 20, default: 'open' })
-  status: string;
+  status: LotStatus;
 
   @Column({ type: 'int', name: 'released_qty', unsigned: true, default: () => '0' })
   releasedQty: number;
