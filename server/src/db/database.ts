@@ -27,6 +27,13 @@ export class Database {
     if (this.dataSource.isInitialized) await this.dataSource.destroy();
   }
 
+  /** The database server's own version string (connects first if needed). */
+  async serverVersion(): Promise<string> {
+    const dataSource = await this.connect();
+    const rows: Array<{ version: string }> = await dataSource.query('SELECT VERSION() AS version');
+    return rows[0]?.version ?? 'unknown';
+  }
+
   /** Names of migrations shipped with this build that the database has not run yet. */
   async pendingMigrations(): Promise<string[]> {
     const dataSource = await this.connect();

@@ -11,9 +11,7 @@ const accessRefusedCodes = new Set([
 export async function checkHealth(database: Database, version: string): Promise<Health> {
   let server: string;
   try {
-    const dataSource = await database.connect();
-    const rows: Array<{ version: string }> = await dataSource.query('SELECT VERSION() AS version');
-    server = rows[0]?.version ?? 'unknown';
+    server = await database.serverVersion();
   } catch (error) {
     const code = (error as { code?: string }).code ?? '';
     const reason = accessRefusedCodes.has(code) ? 'Database refused the app account' : 'Database unreachable';

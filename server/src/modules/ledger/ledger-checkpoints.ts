@@ -5,7 +5,7 @@ import { canonicalJson } from '@shared/domain/ledger-hash';
 import type { AppConfig } from '../../config/env';
 import { inTransaction } from '../../db/transaction';
 import { queueMail } from '../mail/mail-outbox';
-import { appendLedgerEvent } from './ledger.repository';
+import { appendLedgerEvent, lockChainHead } from './ledger.repository';
 import { keyIdOf, ledgerSigner, verifyWithPublicKey } from './ledger-signing-key';
 
 /**
@@ -49,10 +49,7 @@ export async function checkpointLedger(
 ): Promise<Checkpoint> {
   const signer = ledgerSigner(config);
   const checkpoint = await inTransaction(dataSource, async (manager) => {
-    const [head] = (await manager.query('SELECT seq, hash FROM audit_chain_head WHERE id = 1 FOR UPDATE')) as Array<{
-      seq: string;
-      hash: string;
-    }>;
+    const head = await lockChainHead(manager);
     const unsigned = {
       seq: Number(head!.seq),
       hash: head!.hash,

@@ -24,6 +24,20 @@ export interface LedgerEventInput {
   origin?: RequestOrigin;
 }
 
+/** The head of the audit chain (its last event's sequence and hash), locked until the transaction ends. */
+export async function lockChainHead(
+  manager: EntityManager,
+): Promise<{ seq: string; hash: string; signed: number } | undefined> {
+  const [head] = (await manager.query(
+    'SELECT seq, hash, signed FROM audit_chain_head WHERE id = 1 FOR UPDATE',
+  )) as Array<{
+    seq: string;
+    hash: string;
+    signed: number;
+  }>;
+  return head;
+}
+
 export const sha256Hex = (text: string): string => createHash('sha256').update(text, 'utf8').digest('hex');
 
 /**
@@ -39,9 +53,7 @@ export async function appendLedgerEvent(
 ): Promise<{ seq: number; hash: string }> {
   if (!manager.queryRunner?.isTransactionActive)
     throw new Error('ledger events are written inside the transaction of the change they record');
-  const [head] = (await manager.query(
-    'SELECT seq, hash, signed FROM audit_chain_head WHERE id = 1 FOR UPDATE',
-  )) as Array<{ seq: string; hash: string; signed: number }>;
+  const head = await lockChainHead(manager);
   if (!head) throw new Error('the audit chain head is missing; run the migrations');
   const signer = ledgerSigner();
   let previous = { seq: Number(head.seq), hash: head.hash };

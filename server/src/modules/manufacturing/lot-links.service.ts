@@ -8,9 +8,9 @@ import { AppError } from '../../errors';
 import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
 import { findPart } from './parts.service';
-import { findLotRow } from './lots.repository';
+import { findLotRow, lastStepOf } from './lots.repository';
 import { changeLotStatus } from './production-lot.repository';
-import { lastStepOf, unitChains } from './lot-units';
+import { unitChains } from './lot-units';
 import { insertLot } from './lots.service';
 import { inheritHeats } from './lot-heats';
 

@@ -203,3 +203,13 @@ export async function heatsByLot(manager: EntityManager, lotIds: number[]): Prom
   for (const row of rows) result.get(row.root)?.push(row.heat_number);
   return result;
 }
+
+/** The last routing step a lot has completed (its own, or the one it resumed after). */
+export async function lastStepOf(manager: EntityManager, lotId: number): Promise<number> {
+  const [row]: Array<{ last: number | null; resumes: number }> = await manager.query(
+    `SELECT (SELECT MAX(s.step_no) FROM lot_operation o JOIN routing_step s ON s.id = o.routing_step_id WHERE o.lot_id = l.id) AS last, l.resumes_after_step AS resumes
+       FROM production_lot l WHERE l.id = ?`,
+    [lotId],
+  );
+  return Math.max(row?.last ?? 0, row?.resumes ?? 0);
+}

@@ -19,7 +19,7 @@ import { findPieceByTag } from '../materials/bar-stock.repository';
 import { findHeat } from '../materials/heats.repository';
 import { findPart } from './parts.service';
 import { findLotRow, heatsByLot, listLotRows, toLotSummary } from './lots.repository';
-import { nextSequence } from './numbering';
+import { nextSequence } from './numbering.repository';
 import { unitChains } from './lot-units';
 import { heatMixingApproved } from './heat-mixing.record';
 import { addHeatToLot } from './lot-heats';

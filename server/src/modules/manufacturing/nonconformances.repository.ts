@@ -1,7 +1,7 @@
 import type { EntityManager } from 'typeorm';
 import type { NonconformanceSummary } from '@shared/schemas/lot-detail';
 import type { NonconformanceListQuery } from '@shared/schemas/manufacturing';
-import { nextSequence } from './numbering';
+import { nextSequence } from './numbering.repository';
 
 interface NcRow {
   id: number;

@@ -13,7 +13,7 @@ import { findPart } from './parts.service';
 import { findLotRow } from './lots.repository';
 import { unitChains } from './lot-units';
 import { insertNonconformance, nonconformancesWhere } from './nonconformances.repository';
-import { nextSequence } from './numbering';
+import { nextSequence } from './numbering.repository';
 
 interface RunRow {
   id: number;

@@ -1,4 +1,5 @@
 import type { EntityManager } from 'typeorm';
+import { Heat as HeatEntity } from './entities/heat.entity';
 import type { CertificateDocument, HeatListQuery, HeatSummary } from '@shared/schemas/materials';
 import { readStoredEvaluation, type Evaluation } from '@shared/schemas/evaluation';
 
@@ -305,4 +306,40 @@ export async function heatsWithIdenticalResults(manager: EntityManager, heatId: 
     [heatId],
   );
   return rows.map((row) => row.heat_number);
+}
+
+/** One element's reported values for a supplier's heats under a specification (and grade), oldest first. */
+export function chemistryHistory(
+  manager: EntityManager,
+  of: { supplierId: number; specId: string; element: string; grade: string | null },
+): Promise<Array<{ heat_id: number; heat_number: string; received_at: Date; value: string }>> {
+  return manager.query(
+    `SELECT h.id AS heat_id, h.heat_number, h.received_at, r.value
+       FROM heat_result r JOIN heat h ON h.id = r.heat_id
+      WHERE h.supplier_id = ? AND h.spec_id = ? AND r.kind = 'chemistry' AND r.item = ? ${of.grade !== null ? 'AND h.grade = ?' : ''}
+      ORDER BY h.received_at, h.id`,
+    [of.supplierId, of.specId, of.element, ...(of.grade !== null ? [of.grade] : [])],
+  );
+}
+
+/** The heat a supplier numbered so, or null. */
+export async function heatOf(
+  manager: EntityManager,
+  supplierId: number,
+  heatNumber: string,
+): Promise<{ id: number; status: HeatEntity['status'] } | null> {
+  return manager
+    .getRepository(HeatEntity)
+    .findOne({ select: { id: true, status: true }, where: { supplierId, heatNumber } });
+}
+
+/** The heat a supplier (named) numbered so, or null. */
+export async function heatOfSupplierNamed(
+  manager: EntityManager,
+  supplierName: string,
+  heatNumber: string,
+): Promise<{ id: number; status: HeatEntity['status'] } | null> {
+  return manager
+    .getRepository(HeatEntity)
+    .findOne({ select: { id: true, status: true }, where: { heatNumber, supplier: { name: supplierName } } });
 }

@@ -82,11 +82,7 @@ export async function receiveHeat(
         { condition: `One of ${scope.conditions.join(', ')}` },
       );
     }
-    const [duplicate] = await manager.query('SELECT id FROM heat WHERE supplier_id = ? AND heat_number = ?', [
-      supplier.id,
-      input.heatNumber,
-    ]);
-    if (duplicate)
+    if (await heats.heatOf(manager, supplier.id, input.heatNumber))
       throw new AppError('CONFLICT', `Heat ${input.heatNumber} from ${supplier.name} is already received`, {
         heatNumber: 'Already received',
       });

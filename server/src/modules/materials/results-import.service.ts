@@ -7,6 +7,7 @@ import { AppError } from '../../errors';
 import { inTransaction } from '../../db/transaction';
 import type { Actor, RequestOrigin } from '../ledger/ledger.repository';
 import { recordResultsIn } from './heats.service';
+import { heatOfSupplierNamed } from './heats.repository';
 
 /** The file's columns for mechanical properties, in the same lower-case style as its other columns, with the unit. */
 const mechanicalColumns = {
@@ -77,10 +78,7 @@ export async function importResults(
   for (const [index, record] of records.entries()) {
     const line = index + 2;
     const rowErrors: ResultsImportReport['errors'] = [];
-    const [heat]: Array<{ id: number; status: string }> = await dataSource.query(
-      'SELECT h.id, h.status FROM heat h JOIN supplier s ON s.id = h.supplier_id WHERE s.name = ? AND h.heat_number = ?',
-      [record.supplier, record.heat_number],
-    );
+    const heat = await heatOfSupplierNamed(dataSource.manager, record.supplier ?? '', record.heat_number ?? '');
     if (!heat)
       rowErrors.push({ line, field: 'heat_number', message: `No heat ${record.heat_number} from ${record.supplier}` });
     else if (heat.status === 'accepted' || heat.status === 'rejected')

@@ -1,4 +1,5 @@
 import type { EntityManager } from 'typeorm';
+import { Supplier as SupplierEntity } from './entities/supplier.entity';
 import type { Supplier } from '@shared/schemas/materials';
 
 export async function listSuppliers(manager: EntityManager): Promise<Supplier[]> {
@@ -34,4 +35,9 @@ export async function setSupplierApproval(
   approval: Supplier['approval'],
 ): Promise<void> {
   await manager.query('UPDATE supplier SET approval = ? WHERE id = ?', [approval, id]);
+}
+
+/** The supplier registered under this name, or null. */
+export async function supplierNamed(manager: EntityManager, name: string): Promise<{ id: number } | null> {
+  return manager.getRepository(SupplierEntity).findOne({ select: { id: true }, where: { name } });
 }

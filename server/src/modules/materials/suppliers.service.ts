@@ -16,8 +16,7 @@ export async function createSupplier(
   origin: RequestOrigin,
 ): Promise<Supplier> {
   return inTransaction(dataSource, async (manager) => {
-    const [existing] = await manager.query('SELECT id FROM supplier WHERE name = ?', [input.name]);
-    if (existing)
+    if (await suppliers.supplierNamed(manager, input.name))
       throw new AppError('CONFLICT', `A supplier named ${input.name} exists already`, { name: 'Already registered' });
     const id = await suppliers.insertSupplier(manager, input);
     await appendLedgerEvent(manager, {

@@ -4,6 +4,7 @@ import { capability } from '@shared/domain/materials/capability';
 import type { Trend, TrendQuery } from '@shared/schemas/materials';
 import { AppError } from '../../errors';
 import { currentSpecifications } from './specification-library.repository';
+import { chemistryHistory } from './heats.repository';
 
 /** One element's reported values per heat of one supplier and specification, over time, against its limit. */
 export async function elementTrend(dataSource: DataSource, query: TrendQuery): Promise<Trend> {
@@ -23,13 +24,12 @@ export async function elementTrend(dataSource: DataSource, query: TrendQuery): P
     throw AppError.rule(`${specification.id} sets no limit for ${query.element}`, {
       element: 'No limit for this element',
     });
-  const rows: Array<{ heat_id: number; heat_number: string; received_at: Date; value: string }> = await manager.query(
-    `SELECT h.id AS heat_id, h.heat_number, h.received_at, r.value
-       FROM heat_result r JOIN heat h ON h.id = r.heat_id
-      WHERE h.supplier_id = ? AND h.spec_id = ? AND r.kind = 'chemistry' AND r.item = ? ${specification.grades.length > 1 ? 'AND h.grade = ?' : ''}
-      ORDER BY h.received_at, h.id`,
-    [query.supplierId, specification.id, query.element, ...(specification.grades.length > 1 ? [grade.grade] : [])],
-  );
+  const rows = await chemistryHistory(manager, {
+    supplierId: query.supplierId,
+    specId: specification.id,
+    element: query.element,
+    grade: specification.grades.length > 1 ? grade.grade : null,
+  });
   const points = rows.map((row) => ({
     heatId: row.heat_id,
     heatNumber: row.heat_number,

@@ -16,7 +16,7 @@ import type { Person } from '@shared/schemas/people';
 import { AppError } from '../../errors';
 import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, sha256Hex, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
-import { nextSequence } from '../manufacturing/numbering';
+import { nextSequence } from '../manufacturing/numbering.repository';
 import { forwardTraceIn } from '../trace/trace.service';
 import { holdsOfRecall, placeHolds } from './lot-holds';
 import { queueRecallOpenedMail, queueRecallWidenedMail } from './recall-mails';

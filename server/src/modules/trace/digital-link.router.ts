@@ -1,3 +1,4 @@
+import { lotOfGtin } from './trace-starts.repository';
 import { Router, type RequestHandler, type Response } from 'express';
 import { rolesAllow } from '@shared/auth/permissions';
 import { gtinProblem, lotNumberProblem } from '@shared/domain/gs1/gtin';
@@ -31,10 +32,7 @@ export function digitalLinkRouter(context: AppContext, sessionHandlers: RequestH
     if (!person) return res.redirect(302, `/sign-in?returnTo=${encodeURIComponent(req.originalUrl)}`);
     if (!rolesAllow(person.roles, 'trace.read'))
       return notFoundPage(res, 'Not permitted', 'Your roles do not include tracing lots.');
-    const [row]: Array<{ id: number }> = await context.database.dataSource.query(
-      'SELECT l.id FROM production_lot l JOIN part p ON p.id = l.part_id WHERE p.gtin = ? AND l.lot_number = ?',
-      [gtin.padStart(14, '0'), lot],
-    );
+    const row = await lotOfGtin(context.database.dataSource.manager, gtin.padStart(14, '0'), lot);
     if (!row) return notFoundPage(res, 'No such lot', `No lot ${lot} of GTIN ${gtin} is recorded in this Ingotrace.`);
     if (rolesAllow(person.roles, 'lots.read')) return res.redirect(302, `/lots/${row.id}`);
     // The lot's trace page, started from the same key the label carries (GTIN + lot is unique; a lot number alone need not be).

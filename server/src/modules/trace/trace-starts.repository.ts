@@ -1,4 +1,5 @@
 import type { EntityManager } from 'typeorm';
+import { ProductionLot } from '../manufacturing/entities/production-lot.entity';
 import type { TraceStart } from '@shared/schemas/trace';
 
 const PER_KIND = 6;
@@ -49,4 +50,9 @@ export async function findTraceStarts(manager: EntityManager, text: string): Pro
     ...as('supplier', suppliers),
     ...as('part', parts),
   ];
+}
+
+/** The lot with this number made as the part with this GTIN-14 (the key a label carries), or null. */
+export function lotOfGtin(manager: EntityManager, gtin: string, lotNumber: string): Promise<{ id: number } | null> {
+  return manager.getRepository(ProductionLot).findOne({ select: { id: true }, where: { lotNumber, part: { gtin } } });
 }
