@@ -33,7 +33,7 @@ describe('entities and migrations', () => {
     expect(await pendingSchemaChanges(dataSource)).toEqual([]);
   });
 
-  it('[ENTITY-DRIFT] every table the migrations create has exactly one entity, and every entity a table', async () => {
+  it('[ENTITY-TABLES] every table the migrations create has exactly one entity, and every entity a table', async () => {
     const rows: Array<{ name: string }> = await dataSource.query(
       `SELECT table_name AS name FROM information_schema.tables
         WHERE table_schema = DATABASE() AND table_type = 'BASE TABLE' AND table_name <> 'migrations'`,
@@ -44,7 +44,7 @@ describe('entities and migrations', () => {
     expect(new Set(entityTables).size).toBe(entities.length);
   });
 
-  it('[ENTITY-DRIFT] an index named like its foreign key (which the comparison skips) serves only that key', async () => {
+  it('[ENTITY-KEY-INDEXES] an index named like its foreign key (which the comparison skips) serves only that key', async () => {
     const rows: Array<{ tableName: string; name: string; columnName: string; nonUnique: number | string }> =
       await dataSource.query(
         `SELECT s.table_name AS tableName, s.index_name AS name, s.column_name AS columnName, s.non_unique AS nonUnique
@@ -70,7 +70,7 @@ describe('entities and migrations', () => {
     for (const [key, index] of inDatabase) expect(index, key).toEqual(keys.get(key));
   });
 
-  it('[ENTITY-DRIFT] when an entity draws a column differently from its migration, then the comparison names the change', async () => {
+  it('[ENTITY-DRIFT-SEEN] when an entity draws a column differently from its migration, then the comparison names the change', async () => {
     const wrong = new DataSource({ ...dataSource.options, entities: [OrganisationDrawnWrong], migrations: [] });
     await wrong.initialize();
     try {

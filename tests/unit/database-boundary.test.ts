@@ -29,7 +29,7 @@ export const builder = (manager: EntityManager) => manager.createQueryBuilder(Pr
     expect(await boundaryMessages(viaRepository, 'server/src/modules/manufacturing/lots.router.ts')).toHaveLength(2);
   });
 
-  it('[DB-BOUNDARY] lets the same code pass in a repository file', async () => {
+  it('[DB-BOUNDARY-REPOSITORY] lets the same code pass in a repository file', async () => {
     expect(await boundaryMessages(querying, 'server/src/modules/manufacturing/lot-count.repository.ts')).toEqual([]);
   });
 });

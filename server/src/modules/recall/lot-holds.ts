@@ -3,28 +3,15 @@ import type { LotHoldView } from '@shared/schemas/recall';
 import { AppError } from '../../errors';
 import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
 import type { SignableRecordType } from '../signatures/signable-records';
-
-const marks = (values: unknown[]) => values.map(() => '?').join(',');
-
-interface HoldRow {
-  id: number;
-  lot_id: number;
-  lot_number: string;
-  lot_status: string;
-  recall_id: number | null;
-  recall_number: string | null;
-  reason: string;
-  placed_by_id: number;
-  placed_by: string;
-  placed_at: Date;
-  lifted_at: Date | null;
-  lifted_by: string | null;
-}
-
-const holdSelect = `SELECT h.id, h.lot_id, l.lot_number, l.status AS lot_status, h.recall_id, r.recall_number, h.reason, h.placed_by AS placed_by_id, pp.name AS placed_by,
-                           h.placed_at, h.lifted_at, pl.name AS lifted_by
-                      FROM lot_hold h JOIN production_lot l ON l.id = h.lot_id JOIN person pp ON pp.id = h.placed_by
-                      LEFT JOIN person pl ON pl.id = h.lifted_by LEFT JOIN recall_investigation r ON r.id = h.recall_id`;
+import {
+  activeHoldRows,
+  findHoldRow,
+  holdRowsOfRecall,
+  insertHold,
+  lotsHeldByRecall,
+  liftHold,
+  type HoldRow,
+} from './lot-holds.repository';
 
 export function toHoldView(row: HoldRow): LotHoldView {
   return {
@@ -42,8 +29,7 @@ export function toHoldView(row: HoldRow): LotHoldView {
 }
 
 export async function holdsOfRecall(manager: EntityManager, recallId: number): Promise<LotHoldView[]> {
-  const rows: HoldRow[] = await manager.query(`${holdSelect} WHERE h.recall_id = ? ORDER BY l.lot_number`, [recallId]);
-  return rows.map(toHoldView);
+  return (await holdRowsOfRecall(manager, recallId)).map(toHoldView);
 }
 
 /** Holds not yet lifted on these lots, each named by what placed it. */
@@ -51,11 +37,7 @@ export async function activeHolds(
   manager: EntityManager,
   lotIds: number[],
 ): Promise<Array<{ id: number; lotId: number; lotNumber: string; reference: string }>> {
-  if (!lotIds.length) return [];
-  const rows: HoldRow[] = await manager.query(
-    `${holdSelect} WHERE h.lot_id IN (${marks(lotIds)}) AND h.lifted_at IS NULL ORDER BY h.id`,
-    lotIds,
-  );
+  const rows = await activeHoldRows(manager, lotIds);
   return rows.map((row) => ({
     id: row.id,
     lotId: row.lot_id,
@@ -88,23 +70,24 @@ export async function placeHolds(
   origin?: RequestOrigin,
 ): Promise<string[]> {
   if (!lots.length) return [];
-  const ids = lots.map((lot) => lot.id);
-  const existing: Array<{ lot_id: number }> = await manager.query(
-    `SELECT lot_id FROM lot_hold WHERE recall_id = ? AND lot_id IN (${marks(ids)})`,
-    [hold.recallId, ...ids],
+  const already = await lotsHeldByRecall(
+    manager,
+    hold.recallId,
+    lots.map((lot) => lot.id),
   );
-  const already = new Set(existing.map((row) => row.lot_id));
   const fresh = lots.filter((lot) => !already.has(lot.id));
   for (const lot of fresh) {
-    const result: { insertId: number } = await manager.query(
-      'INSERT INTO lot_hold (lot_id, recall_id, reason, placed_by) VALUES (?, ?, ?, ?)',
-      [lot.id, hold.recallId, hold.reason.slice(0, 2000), hold.placedBy],
-    );
+    const holdId = await insertHold(manager, {
+      lotId: lot.id,
+      recallId: hold.recallId,
+      reason: hold.reason.slice(0, 2000),
+      placedBy: hold.placedBy,
+    });
     await appendLedgerEvent(manager, {
       actor,
       action: 'lot.held',
       entity: { type: 'lot', id: lot.id },
-      after: { holdId: Number(result.insertId), recall: hold.recallNumber },
+      after: { holdId, recall: hold.recallNumber },
       reason: hold.reason,
       origin,
     });
@@ -121,7 +104,7 @@ export const lotHoldRecordType: SignableRecordType = {
   meanings: ['lifted'],
   async load(manager, recordId) {
     if (!/^\d{1,10}$/.test(recordId)) return null;
-    const [row]: HoldRow[] = await manager.query(`${holdSelect} WHERE h.id = ?`, [Number(recordId)]);
+    const row = await findHoldRow(manager, Number(recordId));
     if (!row) return null;
     return {
       title: `Hold on lot ${row.lot_number}${row.recall_number ? ` (${row.recall_number})` : ''}`,
@@ -140,19 +123,11 @@ export const lotHoldRecordType: SignableRecordType = {
     return (record as unknown as { lifted: boolean }).lifted ? 'The hold is already lifted' : null;
   },
   async afterSign(manager, { recordId, signerId, signerName, reason }) {
-    const [row]: Array<{ lot_id: number }> = await manager.query(
-      'SELECT lot_id FROM lot_hold WHERE id = ? FOR UPDATE',
-      [Number(recordId)],
-    );
-    await manager.query('UPDATE lot_hold SET lifted_at = ?, lifted_by = ? WHERE id = ? AND lifted_at IS NULL', [
-      new Date(),
-      signerId,
-      Number(recordId),
-    ]);
+    const lifted = await liftHold(manager, Number(recordId), signerId);
     await appendLedgerEvent(manager, {
       actor: { id: signerId, name: signerName, role: 'qa-approver' },
       action: 'lot.hold-lifted',
-      entity: { type: 'lot', id: row?.lot_id ?? 0 },
+      entity: { type: 'lot', id: lifted?.lotId ?? 0 },
       after: { holdId: Number(recordId) },
       reason,
     });

@@ -8,7 +8,8 @@ import { AppError } from '../../errors';
 import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
 import { findOrganisation } from '../organisation/organisation.repository';
-import { findRecallRow, snapshotContent } from './recall.service';
+import { snapshotContent } from './recall.service';
+import { findRecallRow } from './recall.repository';
 import { plantDateTimeSeconds, timeZoneNote } from '@shared/domain/plant-time';
 
 export const recallCaution =

@@ -1,7 +1,8 @@
 import { appendLedgerEvent } from '../ledger/ledger.repository';
 import type { SignableRecordType } from '../signatures/signable-records';
 import { queueRecallClosedMail } from './recall-mails';
-import { findRecallRow, snapshotContent } from './recall.service';
+import { snapshotContent } from './recall.service';
+import { closeRecall, findRecallRow, rerunSnapshots } from './recall.repository';
 
 /**
  * Closing an investigation is an electronic signature with a reason, by someone other than who
@@ -19,10 +20,7 @@ export const recallInvestigationRecordType: SignableRecordType = {
     const row = await findRecallRow(manager, Number(recordId));
     if (!row) return null;
     const opening = await snapshotContent(manager, row.id);
-    const reruns: Array<{ taken_at: Date; sha256: string }> = await manager.query(
-      "SELECT taken_at, sha256 FROM recall_snapshot WHERE recall_id = ? AND kind = 'rerun' ORDER BY id",
-      [row.id],
-    );
+    const reruns = await rerunSnapshots(manager, row.id);
     return {
       title: `${row.mode === 'drill' ? 'Recall drill' : 'Recall investigation'} ${row.recall_number}: ${row.trigger_label}`,
       content: {
@@ -55,10 +53,7 @@ export const recallInvestigationRecordType: SignableRecordType = {
   async afterSign(manager, { recordId, signerId, signerName, reason }) {
     const id = Number(recordId);
     const row = await findRecallRow(manager, id, true);
-    await manager.query("UPDATE recall_investigation SET status = 'closed', closed_at = ? WHERE id = ?", [
-      new Date(),
-      id,
-    ]);
+    await closeRecall(manager, id);
     await appendLedgerEvent(manager, {
       actor: { id: signerId, name: signerName, role: null },
       action: 'recall.closed',

@@ -19,41 +19,18 @@ import { appendLedgerEvent, sha256Hex, type Actor, type RequestOrigin } from '..
 import { nextSequence } from '../manufacturing/numbering.repository';
 import { forwardTraceIn } from '../trace/trace.service';
 import { holdsOfRecall, placeHolds } from './lot-holds';
+import {
+  findRecallRow,
+  insertRecall,
+  insertSnapshot,
+  recallRows,
+  rerunSnapshots,
+  snapshotRow,
+  type RecallRow,
+  type SnapshotRow,
+} from './recall.repository';
+
 import { queueRecallOpenedMail, queueRecallWidenedMail } from './recall-mails';
-
-export interface RecallRow {
-  id: number;
-  recall_number: string;
-  mode: 'recall' | 'drill';
-  status: 'open' | 'closed';
-  trigger_kind: 'heat' | 'piece' | 'run' | 'supplier' | 'part';
-  trigger_id: number;
-  window_from: string | null;
-  window_to: string | null;
-  trigger_label: string;
-  reason: string;
-  opened_by_id: number;
-  opened_by: string;
-  opened_at: Date;
-  closed_at: Date | null;
-  affected_lots: string | number | null;
-  active_holds: string | number;
-}
-
-interface SnapshotRow {
-  id: number;
-  kind: 'opening' | 'rerun';
-  taken_at: Date;
-  taken_by: string;
-  sha256: string;
-  content?: string;
-}
-
-const recallSelect = `SELECT r.id, r.recall_number, r.mode, r.status, r.trigger_kind, r.trigger_id, DATE_FORMAT(r.window_from, '%Y-%m-%d') AS window_from,
-                             DATE_FORMAT(r.window_to, '%Y-%m-%d') AS window_to, r.trigger_label, r.reason, r.opened_by AS opened_by_id, p.name AS opened_by, r.opened_at, r.closed_at,
-                             (SELECT JSON_LENGTH(s.content, '$.trace.lots') FROM recall_snapshot s WHERE s.recall_id = r.id ORDER BY s.id DESC LIMIT 1) AS affected_lots,
-                             (SELECT COUNT(*) FROM lot_hold h WHERE h.recall_id = r.id AND h.lifted_at IS NULL) AS active_holds
-                        FROM recall_investigation r JOIN person p ON p.id = r.opened_by`;
 
 const triggerKey = { heat: 'heatId', piece: 'pieceId', run: 'runId', supplier: 'supplierId', part: 'partId' } as const;
 
@@ -89,32 +66,9 @@ const toMeta = (row: SnapshotRow): RecallSnapshotMeta => ({
   sha256: row.sha256,
 });
 
-export async function findRecallRow(manager: EntityManager, id: number, lock = false): Promise<RecallRow | null> {
-  const [row]: RecallRow[] = await manager.query(`${recallSelect} WHERE r.id = ?${lock ? ' FOR UPDATE' : ''}`, [id]);
-  return row ?? null;
-}
-
 export async function listRecalls(dataSource: DataSource, query: RecallListQuery) {
-  const where: string[] = [];
-  const parameters: unknown[] = [];
-  for (const [column, value] of [
-    ['r.status', query.status],
-    ['r.mode', query.mode],
-  ] as const) {
-    if (!value) continue;
-    where.push(`${column} = ?`);
-    parameters.push(value);
-  }
-  const clause = where.length ? `WHERE ${where.join(' AND ')}` : '';
-  const [count]: Array<{ total: string }> = await dataSource.query(
-    `SELECT COUNT(*) AS total FROM recall_investigation r ${clause}`,
-    parameters,
-  );
-  const rows: RecallRow[] = await dataSource.query(
-    `${recallSelect} ${clause} ORDER BY r.opened_at DESC, r.id DESC LIMIT ? OFFSET ?`,
-    [...parameters, query.pageSize, (query.page - 1) * query.pageSize],
-  );
-  return { items: rows.map(toSummary), total: Number(count?.total ?? 0), page: query.page, pageSize: query.pageSize };
+  const { total, rows } = await recallRows(dataSource.manager, query);
+  return { items: rows.map(toSummary), total, page: query.page, pageSize: query.pageSize };
 }
 
 /** A stored snapshot's content, read back exactly as frozen. */
@@ -123,12 +77,7 @@ export async function snapshotContent(
   recallId: number,
   snapshotId?: number,
 ): Promise<{ meta: RecallSnapshotMeta; content: RecallSnapshotContent }> {
-  const rows: SnapshotRow[] = await manager.query(
-    `SELECT s.id, s.kind, s.taken_at, p.name AS taken_by, s.sha256, s.content FROM recall_snapshot s JOIN person p ON p.id = s.taken_by
-      WHERE s.recall_id = ? ${snapshotId ? 'AND s.id = ?' : "AND s.kind = 'opening'"} ORDER BY s.id LIMIT 1`,
-    snapshotId ? [recallId, snapshotId] : [recallId],
-  );
-  const row = rows[0];
+  const row = await snapshotRow(manager, recallId, snapshotId);
   if (!row?.content) throw AppError.notFound('Snapshot');
   return { meta: toMeta(row), content: JSON.parse(row.content) as RecallSnapshotContent };
 }
@@ -138,10 +87,7 @@ export async function recallDetail(dataSource: DataSource, id: number): Promise<
   const row = await findRecallRow(manager, id);
   if (!row) throw AppError.notFound('Recall investigation');
   const opening = await snapshotContent(manager, id);
-  const reruns: SnapshotRow[] = await manager.query(
-    "SELECT s.id, s.kind, s.taken_at, p.name AS taken_by, s.sha256 FROM recall_snapshot s JOIN person p ON p.id = s.taken_by WHERE s.recall_id = ? AND s.kind = 'rerun' ORDER BY s.id",
-    [id],
-  );
+  const reruns = await rerunSnapshots(manager, id);
   const last = reruns.at(-1);
   const latest = last ? await snapshotContent(manager, id, last.id) : null;
   return {
@@ -179,12 +125,16 @@ async function freeze(
   };
   const text = canonicalJson(content);
   const sha256 = sha256Hex(text);
-  const result: { insertId: number } = await manager.query(
-    'INSERT INTO recall_snapshot (recall_id, kind, taken_by, taken_at, content, sha256) VALUES (?, ?, ?, ?, ?, ?)',
-    [recall.id, kind, person.id, takenAt, text, sha256],
-  );
+  const snapshotId = await insertSnapshot(manager, {
+    recallId: recall.id,
+    kind,
+    takenBy: person.id,
+    takenAt,
+    content: text,
+    sha256,
+  });
   return {
-    meta: { id: Number(result.insertId), kind, takenAt: takenAt.toISOString(), takenBy: person.name, sha256 },
+    meta: { id: snapshotId, kind, takenAt: takenAt.toISOString(), takenBy: person.name, sha256 },
     content,
   };
 }
@@ -212,21 +162,18 @@ export async function openRecall(
     const [kind, triggerId] = (Object.entries(triggerKey) as Array<[RecallRow['trigger_kind'], keyof ForwardStart]>)
       .map(([key, field]) => [key, input.trigger[field]] as const)
       .find(([, value]) => value !== undefined)!;
-    const result: { insertId: number } = await manager.query(
-      'INSERT INTO recall_investigation (recall_number, mode, trigger_kind, trigger_id, window_from, window_to, trigger_label, reason, opened_by) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)',
-      [
-        recallNumber,
-        input.mode,
-        kind,
-        triggerId,
-        input.trigger.from ?? null,
-        input.trigger.to ?? null,
-        preview.start.slice(0, 300),
-        input.reason,
-        person.id,
-      ],
-    );
-    const recall = { id: Number(result.insertId), recallNumber, mode: input.mode };
+    const recallId = await insertRecall(manager, {
+      recallNumber,
+      mode: input.mode,
+      triggerKind: kind,
+      triggerId: triggerId as number,
+      windowFrom: input.trigger.from ?? null,
+      windowTo: input.trigger.to ?? null,
+      triggerLabel: preview.start.slice(0, 300),
+      reason: input.reason,
+      openedBy: person.id,
+    });
+    const recall = { id: recallId, recallNumber, mode: input.mode };
     const snapshot = await freeze(manager, recall, input.trigger, 'opening', person);
     await appendLedgerEvent(manager, {
       actor,
