@@ -26,9 +26,6 @@ const stillQueryingOutsideRepositories = [
   'server/src/modules/materials/certificate-screening.service.ts',
   'server/src/modules/materials/check-analysis.service.ts',
   'server/src/modules/materials/specification-drafts.service.ts',
-  'server/src/modules/release/audit-trail.ts',
-  'server/src/modules/release/release-dossier.ts',
-  'server/src/modules/release/release-packet.ts',
   'server/src/modules/trace/trace.service.ts',
 ];
 

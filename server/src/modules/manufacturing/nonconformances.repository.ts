@@ -1,7 +1,8 @@
-import type { EntityManager } from 'typeorm';
+import { In, type EntityManager } from 'typeorm';
 import type { NonconformanceSummary } from '@shared/schemas/lot-detail';
 import type { NonconformanceListQuery } from '@shared/schemas/manufacturing';
 import { nextSequence } from './numbering.repository';
+import { Nonconformance as NonconformanceEntity } from './entities/nonconformance.entity';
 
 interface NcRow {
   id: number;
@@ -129,4 +130,15 @@ export async function insertNonconformance(
     ],
   );
   return { id: Number(result.insertId), ncNumber };
+}
+
+/** The ids of the nonconformances with these numbers, oldest first. */
+export async function nonconformanceIdsNumbered(
+  manager: EntityManager,
+  ncNumbers: string[],
+): Promise<Array<{ id: number }>> {
+  if (!ncNumbers.length) return [];
+  return manager
+    .getRepository(NonconformanceEntity)
+    .find({ select: { id: true }, where: { ncNumber: In(ncNumbers) }, order: { id: 'ASC' } });
 }

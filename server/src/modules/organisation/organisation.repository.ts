@@ -2,8 +2,9 @@ import type { DataSource, EntityManager } from 'typeorm';
 import { Organisation } from './entities/organisation.entity';
 import type { OrganisationSummary } from '@shared/schemas/organisation';
 
-export async function findOrganisation(dataSource: DataSource): Promise<OrganisationSummary | null> {
-  const row = await dataSource.getRepository(Organisation).findOne({ where: {}, order: { id: 'ASC' } });
+/** The organisation the plant records belong to (the first one), or null before it is set up. */
+export async function findOrganisation(source: DataSource | EntityManager): Promise<OrganisationSummary | null> {
+  const row = await source.getRepository(Organisation).findOne({ where: {}, order: { id: 'ASC' } });
   if (!row) return null;
   return {
     name: row.name,

@@ -3,16 +3,7 @@
 // trail went when they reviewed it; an event after that voids the review.
 import type { EntityManager } from 'typeorm';
 import type { AuditTrail } from '@shared/schemas/release';
-
-interface TrailRow {
-  seq: string;
-  entity_id: string;
-  occurred_at: Date;
-  actor_name: string;
-  action: string;
-  lot_number: string;
-  reason: string | null;
-}
+import { latestLotEvent, lotTrailRows, type TrailRow } from './release-dossier.repository';
 
 const lineageOwn = (row: TrailRow, lotId: number) => row.entity_id === String(lotId);
 
@@ -20,14 +11,7 @@ const lineageOwn = (row: TrailRow, lotId: number) => row.entity_id === String(lo
 const REVIEW_ACTION = 'lot.reviewed';
 
 export async function lotAuditTrail(manager: EntityManager, lotId: number, lineage: number[]): Promise<AuditTrail> {
-  const marks = lineage.map(() => '?').join(',');
-  const rows: TrailRow[] = await manager.query(
-    `SELECT e.seq, e.entity_id, e.occurred_at, e.actor_name, e.action, l.lot_number, e.reason
-       FROM audit_event e JOIN production_lot l ON CAST(l.id AS CHAR) = e.entity_id
-      WHERE e.entity_type = 'lot' AND e.entity_id IN (${marks}) AND e.action <> ?
-      ORDER BY e.seq`,
-    [...lineage.map(String), REVIEW_ACTION],
-  );
+  const rows = await lotTrailRows(manager, lineage, REVIEW_ACTION);
   // The lots its units came through belong to its history only until it began: their later
   // events (their own release, shipments) are theirs alone.
   const own = rows.filter((row) => lineageOwn(row, lotId));
@@ -42,10 +26,7 @@ export async function lotAuditTrail(manager: EntityManager, lotId: number, linea
       lot: row.lot_number,
       reason: row.reason,
     }));
-  const [review]: Array<{ seq: string; after_json: string | null }> = await manager.query(
-    "SELECT seq, after_json FROM audit_event WHERE entity_type = 'lot' AND entity_id = ? AND action = ? ORDER BY seq DESC LIMIT 1",
-    [String(lotId), REVIEW_ACTION],
-  );
+  const review = await latestLotEvent(manager, lotId, REVIEW_ACTION);
   // Reviews recorded before the trail was recorded with them covered everything before their own event.
   const recorded = review?.after_json
     ? (JSON.parse(review.after_json) as { auditTrail?: { throughSeq?: number } }).auditTrail?.throughSeq

@@ -8,8 +8,18 @@ import { nonconformancesWhere } from '../manufacturing/nonconformances.repositor
 import { materialHolds } from '../manufacturing/material-holds.repository';
 import { reconcileMaterial } from '@shared/domain/manufacturing/material-reconciliation';
 import { DecimalE29 } from '@shared/domain/materials/e29-rounding';
-import { latestVerdictSql } from '../materials/heats.repository';
 import { currentJustification } from '../materials/heat-evaluation.record';
+import { labelCounts } from './release.repository';
+import {
+  barLengthsMoved,
+  barLotFacts,
+  certificateHashes,
+  issuedBarPieces,
+  issuedHeats,
+  processRunsOf,
+  recordAuthorIds,
+  recordedOperations,
+} from './release-dossier.repository';
 
 /** The lot and every lot its units came through (splits and merges), the lot itself first. */
 export async function ancestry(manager: EntityManager, lotId: number): Promise<number[]> {
@@ -35,60 +45,17 @@ export function releaseDossier(dataSource: DataSource, lotId: number): Promise<R
 export async function releaseDossierIn(manager: EntityManager, lotId: number): Promise<ReleaseDossier> {
   const lot = await lotDetailIn(manager, lotId);
   const lineage = await ancestry(manager, lotId);
-  const marks = lineage.map(() => '?').join(',');
-  const heats: Array<{
-    id: number;
-    heat_number: string;
-    status: string;
-    supplier: string;
-    spec_id: string;
-    spec_revision: string;
-    grade: string | null;
-    verdict: string | null;
-  }> = await manager.query(
-    `SELECT DISTINCT h.id, h.heat_number, h.status, s.name AS supplier, h.spec_id, h.spec_revision, h.grade,
-            ${latestVerdictSql('h.id')} AS verdict
-       FROM material_movement m JOIN bar_piece b ON b.id = m.bar_piece_id JOIN heat h ON h.id = b.heat_id JOIN supplier s ON s.id = h.supplier_id
-      WHERE m.lot_id IN (${marks}) AND m.kind = 'issue' ORDER BY h.heat_number`,
-    lineage,
+  const heats = await issuedHeats(manager, lineage);
+  const certificates = await certificateHashes(
+    manager,
+    heats.map((heat) => heat.id),
   );
-  const certificates: Array<{ heat_id: number; sha256: string }> = heats.length
-    ? await manager.query(
-        `SELECT c.heat_id, d.sha256 FROM heat_certificate c JOIN certificate_document d ON d.id = c.document_id WHERE c.heat_id IN (${heats.map(() => '?').join(',')}) ORDER BY d.sha256`,
-        heats.map((heat) => heat.id),
-      )
-    : [];
-  const operations: Array<{
-    lot_id: number;
-    step_no: number;
-    kind: string;
-    name: string;
-    verdict: 'accept' | 'reject' | null;
-    process_run_id: number | null;
-    recorded_by: number;
-    lot_number: string;
-  }> = await manager.query(
-    `SELECT o.lot_id, s.step_no, s.kind, s.name, o.verdict, o.process_run_id, o.recorded_by, l.lot_number
-       FROM lot_operation o JOIN routing_step s ON s.id = o.routing_step_id JOIN production_lot l ON l.id = o.lot_id WHERE o.lot_id IN (${marks}) ORDER BY s.step_no, l.lot_number, o.id`,
-    lineage,
-  );
+  const operations = await recordedOperations(manager, lineage);
   const runIds = [
     ...new Set(operations.flatMap((operation) => (operation.process_run_id ? [operation.process_run_id] : []))),
   ];
-  const runs: Array<{
-    id: number;
-    run_number: string;
-    method_id: string;
-    in_window: number;
-    parameters_json: string;
-    recorded_by: number;
-  }> = runIds.length
-    ? await manager.query(
-        `SELECT id, run_number, method_id, in_window, parameters_json, recorded_by FROM process_run WHERE id IN (${runIds.map(() => '?').join(',')}) ORDER BY run_at, id`,
-        runIds,
-      )
-    : [];
-  const ncClauses = [`n.lot_id IN (${marks})`];
+  const runs = await processRunsOf(manager, runIds);
+  const ncClauses = [`n.lot_id IN (${lineage.map(() => '?').join(',')})`];
   const ncParameters: unknown[] = [...lineage];
   if (heats.length) {
     ncClauses.push(`(n.subject_type = 'heat' AND n.subject_id IN (${heats.map(() => '?').join(',')}))`);
@@ -101,46 +68,25 @@ export async function releaseDossierIn(manager: EntityManager, lotId: number): P
   const nonconformances = (await nonconformancesWhere(manager, ncClauses.join(' OR '), ncParameters)).sort((a, b) =>
     a.ncNumber.localeCompare(b.ncNumber),
   );
-  const [labels]: Array<{ printed: string | null; voided: string | null }> = await manager.query(
-    "SELECT SUM(CASE kind WHEN 'print' THEN qty ELSE 0 END) AS printed, SUM(CASE kind WHEN 'void' THEN qty ELSE 0 END) AS voided FROM label_print WHERE lot_id = ?",
-    [lotId],
-  );
+  const labels = await labelCounts(manager, lotId);
   // Bar length is reconciled on the lots cut from bar: this one, or its ancestors.
   const material: ReadinessFacts['material'] = [];
   for (const ancestorId of lineage) {
-    const bar: Array<{
-      origin: string;
-      lot_number: string;
-      start_qty: number | null;
-      unit_length_mm: string;
-      cutoff_allowance_mm: string;
-      reconciliation_tolerance_pct: string;
-    }> = await manager.query(
-      'SELECT l.origin, l.lot_number, l.start_qty, p.unit_length_mm, p.cutoff_allowance_mm, p.reconciliation_tolerance_pct FROM production_lot l JOIN part p ON p.id = l.part_id WHERE l.id = ?',
-      [ancestorId],
-    );
-    if (bar[0]?.origin !== 'bar') continue;
-    const [moved]: Array<{ issued: string | null; returned: string | null }> = await manager.query(
-      "SELECT SUM(CASE kind WHEN 'issue' THEN length_mm ELSE 0 END) AS issued, SUM(CASE kind WHEN 'return' THEN length_mm ELSE 0 END) AS returned FROM material_movement WHERE lot_id = ?",
-      [ancestorId],
-    );
+    const bar = await barLotFacts(manager, ancestorId);
+    if (bar?.origin !== 'bar') continue;
+    const moved = await barLengthsMoved(manager, ancestorId);
     const result = reconcileMaterial({
-      issuedMm: new DecimalE29(moved?.issued ?? '0').toFixed(2),
-      returnedMm: new DecimalE29(moved?.returned ?? '0').toFixed(2),
-      unitsStarted: bar[0].start_qty ?? 0,
-      unitLengthMm: bar[0].unit_length_mm,
-      cutoffAllowanceMm: bar[0].cutoff_allowance_mm,
-      tolerancePct: bar[0].reconciliation_tolerance_pct,
+      issuedMm: new DecimalE29(moved.issued).toFixed(2),
+      returnedMm: new DecimalE29(moved.returned).toFixed(2),
+      unitsStarted: bar.start_qty ?? 0,
+      unitLengthMm: bar.unit_length_mm,
+      cutoffAllowanceMm: bar.cutoff_allowance_mm,
+      tolerancePct: bar.reconciliation_tolerance_pct,
     });
-    material.push({ lotId: ancestorId, lotNumber: bar[0].lot_number, verdict: result.verdict, why: result.why });
+    material.push({ lotId: ancestorId, lotNumber: bar.lot_number, verdict: result.verdict, why: result.why });
   }
   // Bar held by an open recall or a nonconformance on it, its heat or a bar it was cut from.
-  const issuedPieces: Array<{ piece_id: number; tag: string; heat_id: number; supplier_id: number }> =
-    await manager.query(
-      `SELECT DISTINCT b.id AS piece_id, b.tag, h.id AS heat_id, h.supplier_id FROM material_movement m JOIN bar_piece b ON b.id = m.bar_piece_id JOIN heat h ON h.id = b.heat_id
-      WHERE m.lot_id IN (${marks}) AND m.kind = 'issue' ORDER BY b.tag`,
-      lineage,
-    );
+  const issuedPieces = await issuedBarPieces(manager, lineage);
   const heldMaterial: ReadinessFacts['heldMaterial'] = [];
   for (const piece of issuedPieces) {
     const reasons = await materialHolds(
@@ -184,7 +130,7 @@ export async function releaseDossierIn(manager: EntityManager, lotId: number): P
       .map((nc) => ({ id: nc.id, ncNumber: nc.ncNumber, status: nc.status })),
     holds: (await activeHolds(manager, [lot.id])).map((hold) => ({ id: hold.id, reference: hold.reference })),
     heldMaterial,
-    labels: { printed: Number(labels?.printed ?? 0), voided: Number(labels?.voided ?? 0) },
+    labels,
   };
   const readiness = releaseReadiness(facts);
   const justifications = new Map<number, string>();
@@ -242,16 +188,7 @@ export async function releaseDossierIn(manager: EntityManager, lotId: number): P
     labels: facts.labels,
     readiness: readiness.items.map((entry) => ({ item: entry.title, verdict: entry.verdict, why: entry.why })),
   };
-  const [authors]: Array<{ ids: string | null }> = await manager.query(
-    `SELECT GROUP_CONCAT(DISTINCT person_id) AS ids FROM (
-       SELECT opened_by AS person_id FROM production_lot WHERE id IN (${marks})
-       UNION SELECT recorded_by FROM material_movement WHERE lot_id IN (${marks})
-       UNION SELECT recorded_by FROM lot_operation WHERE lot_id IN (${marks})
-       UNION SELECT submitted_by FROM release_submission WHERE lot_id = ?) AS authors`,
-    [...lineage, ...lineage, ...lineage, lotId],
-  );
-  const authorIds = [
-    ...new Set([...(authors?.ids ?? '').split(',').filter(Boolean).map(Number), ...runs.map((run) => run.recorded_by)]),
-  ];
+  const authors = await recordAuthorIds(manager, lineage, lotId);
+  const authorIds = [...new Set([...authors, ...runs.map((run) => run.recorded_by)])];
   return { lot, readiness, content, authorIds, lineage };
 }

@@ -14,6 +14,10 @@ import { plantDateTimeSeconds, timeZoneNote } from '@shared/domain/plant-time';
 import { auditEventName } from '@shared/domain/audit/event-names';
 import { signedContentDocument } from '@shared/domain/signed-content-document';
 import { pdfSections } from '../../documents/pdf-document-sections';
+import { findOrganisation } from '../organisation/organisation.repository';
+import { nonconformanceIdsNumbered } from '../manufacturing/nonconformances.repository';
+import { signaturesFor } from '../signatures/signatures.repository';
+import { issuedBarTags, issuedHeats } from './release-dossier.repository';
 
 export const releaseCaution =
   'Regulated release rests with the firm’s quality system. Ingotrace keeps the records and computes the checks; the decision to release belongs to the firm’s validated procedures and authorised people.';
@@ -46,22 +50,12 @@ export interface PacketData {
 export async function packetData(manager: EntityManager, lotId: number, publicUrl: string): Promise<PacketData> {
   const dossier = await releaseDossierIn(manager, lotId);
   const lineage = await ancestry(manager, lotId);
-  const marks = lineage.map(() => '?').join(',');
-  const barPieces: Array<{ tag: string; heat: string }> = await manager.query(
-    `SELECT DISTINCT b.tag, h.heat_number AS heat FROM material_movement m JOIN bar_piece b ON b.id = m.bar_piece_id JOIN heat h ON h.id = b.heat_id
-      WHERE m.lot_id IN (${marks}) AND m.kind = 'issue' ORDER BY b.tag`,
-    lineage,
-  );
-  const heatIds: Array<{ id: number }> = await manager.query(
-    `SELECT DISTINCT b.heat_id AS id FROM material_movement m JOIN bar_piece b ON b.id = m.bar_piece_id WHERE m.lot_id IN (${marks}) AND m.kind = 'issue'`,
-    lineage,
-  );
+  const barPieces = await issuedBarTags(manager, lineage);
+  const heatIds = (await issuedHeats(manager, lineage)).map((heat) => ({ id: heat.id }));
   const ncIds = ((dossier.content.nonconformances as Array<{ nonconformance: string }>) ?? []).map(
     (nc) => nc.nonconformance,
   );
-  const ncRows: Array<{ id: number }> = ncIds.length
-    ? await manager.query(`SELECT id FROM nonconformance WHERE nc_number IN (${ncIds.map(() => '?').join(',')})`, ncIds)
-    : [];
+  const ncRows = await nonconformanceIdsNumbered(manager, ncIds);
   const records: Array<[string, string]> = [
     ['lot-release', String(lotId)],
     ...heatIds.map((row): [string, string] => ['heat', String(row.id)]),
@@ -70,17 +64,7 @@ export async function packetData(manager: EntityManager, lotId: number, publicUr
   const signatures: SignatureLine[] = [];
   let releasedAt: Date | null = null;
   for (const [recordType, recordId] of records) {
-    const rows: Array<{
-      meaning: string;
-      signed_at_text: string;
-      signed_at: Date;
-      reason: string | null;
-      content_hash: string;
-      record_type: string;
-    }> = await manager.query(
-      'SELECT meaning, signed_at_text, signed_at, reason, content_hash, record_type FROM electronic_signature WHERE record_type = ? AND record_id = ? ORDER BY id',
-      [recordType, recordId],
-    );
+    const rows = await signaturesFor(manager, recordType, recordId);
     for (const row of rows) {
       signatures.push({
         record:
@@ -93,16 +77,14 @@ export async function packetData(manager: EntityManager, lotId: number, publicUr
     }
   }
   if (!releasedAt) throw new Error(`lot ${lotId} has no release signature`);
-  const [organisation]: Array<{ name: string; time_zone: string }> = await manager.query(
-    'SELECT name, time_zone FROM organisation ORDER BY id LIMIT 1',
-  );
+  const organisation = await findOrganisation(manager);
   const content = dossier.content as PacketData['dossier'];
   const udi = { gtin: content.gtin, lot: content.lot, serial: null, expiry: null, productionDate: null };
   const trail = await lotAuditTrail(manager, lotId, lineage);
   const reviewed = trail.reviewedThroughSeq;
   const data = {
     organisation: organisation?.name ?? '',
-    timeZone: organisation?.time_zone ?? 'UTC',
+    timeZone: organisation?.timeZone ?? 'UTC',
     lotId,
     dossier: content,
     barPieces,
