@@ -1,6 +1,6 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { MariaDbSessionStore } from '../../server/src/modules/auth/session-store';
+import { MariaDbSessionStore } from '../../server/src/modules/auth/session-store.repository';
 import { createTestApp } from '../helpers/test-app';
 import { csrfTokenOf, person, SamlTestDriver } from '../helpers/saml-round-trip';
 

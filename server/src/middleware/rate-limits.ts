@@ -1,8 +1,9 @@
 import type { RequestHandler } from 'express';
 import { rateLimit, type IncrementResponse, type Options, type Store } from 'express-rate-limit';
-import type { DataSource } from 'typeorm';
+import type { DataSource, EntityManager } from 'typeorm';
 import type { Person } from '@shared/schemas/people';
 import { AppError } from '../errors';
+import { countHit, forgetBucket, refundHit, sweepWindows } from '../modules/auth/rate-limit-windows.repository';
 
 const WINDOW_MS = 15 * 60_000;
 
@@ -32,33 +33,25 @@ export class MariaDbRateLimitStore implements Store {
   }
 
   async increment(key: string): Promise<IncrementResponse> {
-    const dataSource = await this.connect();
-    const bucket = `${this.prefix}${key}`.slice(0, 200);
+    const { manager } = await this.connect();
     const start = this.windowStart();
-    await dataSource.query(
-      'INSERT INTO rate_limit_window (bucket, window_start, hits) VALUES (?, ?, 1) ON DUPLICATE KEY UPDATE hits = hits + 1',
-      [bucket, start],
-    );
-    const [row]: Array<{ hits: number }> = await dataSource.query(
-      'SELECT hits FROM rate_limit_window WHERE bucket = ? AND window_start = ?',
-      [bucket, start],
-    );
-    if (++this.calls % 100 === 0)
-      await dataSource.query('DELETE FROM rate_limit_window WHERE window_start < ?', [start - this.windowMs]);
-    return { totalHits: Number(row?.hits ?? 1), resetTime: new Date(start + this.windowMs) };
+    const hits = await countHit(manager, this.bucket(key), start);
+    if (++this.calls % 100 === 0) await sweepWindows(manager, start - this.windowMs);
+    return { totalHits: hits, resetTime: new Date(start + this.windowMs) };
   }
 
   async decrement(key: string): Promise<void> {
-    const dataSource = await this.connect();
-    await dataSource.query(
-      'UPDATE rate_limit_window SET hits = GREATEST(hits, 1) - 1 WHERE bucket = ? AND window_start = ?',
-      [`${this.prefix}${key}`.slice(0, 200), this.windowStart()],
-    );
+    const { manager } = await this.connect();
+    await refundHit(manager, this.bucket(key), this.windowStart());
   }
 
   async resetKey(key: string): Promise<void> {
-    const dataSource = await this.connect();
-    await dataSource.query('DELETE FROM rate_limit_window WHERE bucket = ?', [`${this.prefix}${key}`.slice(0, 200)]);
+    const { manager } = await this.connect();
+    await forgetBucket(manager, this.bucket(key));
+  }
+
+  private bucket(key: string): string {
+    return `${this.prefix}${key}`.slice(0, 200);
   }
 }
 
@@ -66,16 +59,8 @@ export class MariaDbRateLimitStore implements Store {
  * Gives back one counted attempt (a re-authentication the person cancelled, or that the identity
  * provider refused): failures of the sign-in window must not lock a person out of signing.
  */
-export async function refundRateLimit(
-  dataSource: DataSource | import('typeorm').EntityManager,
-  name: string,
-  key: string,
-): Promise<void> {
-  const start = Math.floor(Date.now() / WINDOW_MS) * WINDOW_MS;
-  await dataSource.query(
-    'UPDATE rate_limit_window SET hits = GREATEST(hits, 1) - 1 WHERE bucket = ? AND window_start = ?',
-    [`${name}:${key}`.slice(0, 200), start],
-  );
+export async function refundRateLimit(manager: EntityManager, name: string, key: string): Promise<void> {
+  await refundHit(manager, `${name}:${key}`.slice(0, 200), Math.floor(Date.now() / WINDOW_MS) * WINDOW_MS);
 }
 
 interface LimitOptions {

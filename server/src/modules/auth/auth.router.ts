@@ -177,7 +177,7 @@ export function authRouter(
   router.get('/reauth/:reauthenticationId', async (req, res, next) => {
     const row = await pendingReauthentication(context.database.dataSource, String(req.params.reauthenticationId));
     const person = currentPerson(req);
-    if (!row || !person || row.person_id !== person.id) {
+    if (!row || !person || row.personId !== person.id) {
       next(
         new AppError('NOT_FOUND', 'This re-authentication is unknown, expired or not yours; start the signature again'),
       );

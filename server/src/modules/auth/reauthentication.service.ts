@@ -7,31 +7,27 @@ import { AppError } from '../../errors';
 import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, type RequestOrigin } from '../ledger/ledger.repository';
 import { refundRateLimit } from '../../middleware/rate-limits';
+import type { Reauthentication } from './entities/reauthentication.entity';
+import {
+  findPersonIdentity,
+  findReauthentication,
+  insertReauthentication,
+  updateReauthentication,
+} from './reauthentications.repository';
 
 /** The limiter that counts re-authentications begun (me.router); a refused or cancelled one is given back. */
 export const REAUTHENTICATION_START_LIMIT = 'reauthentication-start';
 
-interface ReauthenticationRow {
-  id: string;
-  person_id: number;
-  purpose: string;
-  binding_hash: string;
-  return_to: string;
-  started_at: Date;
-  confirmed_at: Date | null;
-  authn_instant: Date | null;
-  refused_reason: string | null;
-  used_at: Date | null;
-}
+type ReauthenticationRow = Reauthentication;
 
 const urlFor = (id: string) => `/auth/reauth/${id}`;
 
 function statusOf(row: ReauthenticationRow, now = Date.now()): ReauthenticationStatus['status'] {
-  if (row.used_at) return 'used';
-  if (row.refused_reason) return 'refused';
-  if (row.confirmed_at)
-    return now - new Date(row.confirmed_at).getTime() > SIGNING_TICKET_LIFETIME_MS ? 'expired' : 'confirmed';
-  return now - new Date(row.started_at).getTime() > SIGNING_TICKET_LIFETIME_MS ? 'expired' : 'pending';
+  if (row.usedAt) return 'used';
+  if (row.refusedReason) return 'refused';
+  if (row.confirmedAt)
+    return now - new Date(row.confirmedAt).getTime() > SIGNING_TICKET_LIFETIME_MS ? 'expired' : 'confirmed';
+  return now - new Date(row.startedAt).getTime() > SIGNING_TICKET_LIFETIME_MS ? 'expired' : 'pending';
 }
 
 export async function startReauthentication(
@@ -40,19 +36,15 @@ export async function startReauthentication(
   start: ReauthenticationStart,
 ): Promise<ReauthenticationStatus> {
   const id = randomBytes(16).toString('hex');
-  await dataSource.query(
-    'INSERT INTO reauthentication (id, person_id, purpose, binding_hash, return_to, started_at) VALUES (?, ?, ?, ?, ?, ?)',
-    [id, person.id, start.purpose, start.bindingHash, start.returnTo, new Date()],
-  );
+  await insertReauthentication(dataSource.manager, {
+    id,
+    personId: person.id,
+    purpose: start.purpose,
+    bindingHash: start.bindingHash,
+    returnTo: start.returnTo,
+    startedAt: new Date(),
+  });
   return { id, status: 'pending', reason: null, url: urlFor(id) };
-}
-
-async function findRow(manager: EntityManager, id: string, lock = false): Promise<ReauthenticationRow | null> {
-  const [row]: ReauthenticationRow[] = await manager.query(
-    `SELECT * FROM reauthentication WHERE id = ?${lock ? ' FOR UPDATE' : ''}`,
-    [id],
-  );
-  return row ?? null;
 }
 
 export async function reauthenticationStatus(
@@ -60,14 +52,14 @@ export async function reauthenticationStatus(
   id: string,
   person: Person,
 ): Promise<ReauthenticationStatus> {
-  const row = await findRow(dataSource.manager, id);
-  if (!row || row.person_id !== person.id) throw AppError.notFound('Re-authentication');
-  return { id, status: statusOf(row), reason: row.refused_reason, url: urlFor(id) };
+  const row = await findReauthentication(dataSource.manager, id);
+  if (!row || row.personId !== person.id) throw AppError.notFound('Re-authentication');
+  return { id, status: statusOf(row), reason: row.refusedReason, url: urlFor(id) };
 }
 
 /** The person who started a pending re-authentication (to send them to the identity provider). */
 export async function pendingReauthentication(dataSource: DataSource, id: string): Promise<ReauthenticationRow | null> {
-  const row = await findRow(dataSource.manager, id);
+  const row = await findReauthentication(dataSource.manager, id);
   return row && statusOf(row) === 'pending' ? row : null;
 }
 
@@ -84,51 +76,41 @@ export async function completeReauthentication(
   },
 ): Promise<{ returnTo: string; refusedReason: string | null }> {
   return inTransaction(dataSource, async (manager) => {
-    const row = await findRow(manager, input.id, true);
+    const row = await findReauthentication(manager, input.id, true);
     if (!row || statusOf(row) !== 'pending')
       throw AppError.rule('This re-authentication is unknown, expired or already completed; start the signature again');
-    const [person]: Array<{ subject: string; name: string }> = await manager.query(
-      'SELECT subject, name FROM person WHERE id = ?',
-      [row.person_id],
-    );
+    const person = await findPersonIdentity(manager, row.personId);
     const refusal =
       input.failure ??
       (input.assertedSubject && input.authnInstant && person
         ? reauthenticationRefusal({
             expectedSubject: person.subject,
             assertedSubject: input.assertedSubject,
-            startedAt: new Date(row.started_at),
+            startedAt: new Date(row.startedAt),
             authnInstant: input.authnInstant,
             now: new Date(),
             clockSkewMs: input.clockSkewMs,
           })
         : 'The identity provider did not confirm who you are');
     if (refusal) {
-      await manager.query('UPDATE reauthentication SET refused_reason = ? WHERE id = ?', [
-        refusal.slice(0, 300),
-        row.id,
-      ]);
-      await refundRateLimit(manager, REAUTHENTICATION_START_LIMIT, `person-${row.person_id}`);
+      await updateReauthentication(manager, row.id, { refusedReason: refusal.slice(0, 300) });
+      await refundRateLimit(manager, REAUTHENTICATION_START_LIMIT, `person-${row.personId}`);
     } else {
-      await manager.query('UPDATE reauthentication SET confirmed_at = ?, authn_instant = ? WHERE id = ?', [
-        new Date(),
-        input.authnInstant,
-        row.id,
-      ]);
+      await updateReauthentication(manager, row.id, { confirmedAt: new Date(), authnInstant: input.authnInstant });
     }
     await appendLedgerEvent(manager, {
-      actor: { id: row.person_id, name: person?.name ?? null, role: null },
+      actor: { id: row.personId, name: person?.name ?? null, role: null },
       action: refusal ? 'signature.reauthentication-refused' : 'signature.reauthenticated',
       entity: { type: 'reauthentication', id: row.id },
       after: {
         purpose: row.purpose,
-        bindingHash: row.binding_hash,
+        bindingHash: row.bindingHash,
         authnInstant: input.authnInstant?.toISOString() ?? null,
       },
       reason: refusal,
       origin: input.origin,
     });
-    return { returnTo: row.return_to, refusedReason: refusal };
+    return { returnTo: row.returnTo, refusedReason: refusal };
   });
 }
 
@@ -140,11 +122,11 @@ export async function cancelReauthentication(
   origin: RequestOrigin,
 ): Promise<ReauthenticationStatus> {
   return inTransaction(dataSource, async (manager) => {
-    const row = await findRow(manager, id, true);
-    if (!row || row.person_id !== person.id) throw AppError.notFound('Re-authentication');
-    if (statusOf(row) !== 'pending') return { id, status: statusOf(row), reason: row.refused_reason, url: urlFor(id) };
+    const row = await findReauthentication(manager, id, true);
+    if (!row || row.personId !== person.id) throw AppError.notFound('Re-authentication');
+    if (statusOf(row) !== 'pending') return { id, status: statusOf(row), reason: row.refusedReason, url: urlFor(id) };
     const reason = 'Cancelled by the person signing';
-    await manager.query('UPDATE reauthentication SET refused_reason = ? WHERE id = ?', [reason, row.id]);
+    await updateReauthentication(manager, row.id, { refusedReason: reason });
     await refundRateLimit(manager, REAUTHENTICATION_START_LIMIT, `person-${person.id}`);
     await appendLedgerEvent(manager, {
       actor: { id: person.id, name: person.name, role: null },
@@ -165,8 +147,8 @@ export async function consumeReauthentication(
   manager: EntityManager,
   input: { id: string; personId: number; bindingHash: string },
 ): Promise<{ authnInstant: Date }> {
-  const row = await findRow(manager, input.id, true);
-  if (!row || row.person_id !== input.personId)
+  const row = await findReauthentication(manager, input.id, true);
+  if (!row || row.personId !== input.personId)
     throw AppError.rule('Sign again: no re-authentication of yours matches this signature', {
       reauthenticationId: 'Unknown',
     });
@@ -174,16 +156,16 @@ export async function consumeReauthentication(
   if (status !== 'confirmed') {
     const why = {
       pending: 'has not been completed',
-      refused: `was refused (${row.refused_reason})`,
+      refused: `was refused (${row.refusedReason})`,
       used: 'was already used for a signature',
       expired: 'has expired',
     }[status];
     throw AppError.rule(`Sign again: the re-authentication ${why}`, { reauthenticationId: status });
   }
-  if (row.binding_hash !== input.bindingHash)
+  if (row.bindingHash !== input.bindingHash)
     throw AppError.rule('Sign again: the record changed after you re-authenticated', {
       reauthenticationId: 'Bound to other content',
     });
-  await manager.query('UPDATE reauthentication SET used_at = ? WHERE id = ?', [new Date(), row.id]);
-  return { authnInstant: new Date(row.authn_instant as Date) };
+  await updateReauthentication(manager, row.id, { usedAt: new Date() });
+  return { authnInstant: new Date(row.authnInstant as Date) };
 }

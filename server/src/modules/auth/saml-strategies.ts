@@ -10,7 +10,7 @@ import type { AppContext } from '../../app-context';
 import { attributeValues, rolesFromGroups } from '../people/people.domain';
 import type { SignInIdentity } from '../people/people.service';
 import { assertionRefusal, readAssertionFacts } from './assertion-facts';
-import { claimAssertionId, MariadbSamlRequestCache } from './saml-request-cache';
+import { claimAssertionId, MariadbSamlRequestCache } from './saml-request-cache.repository';
 import { requestIdGenerator } from './sign-in-binding';
 
 export const SIGN_IN_STRATEGY = 'saml';

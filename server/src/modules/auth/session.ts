@@ -3,7 +3,7 @@ import type { RequestHandler } from 'express';
 import type { DataSource } from 'typeorm';
 import type { AppConfig } from '../../config/env';
 import { AppError } from '../../errors';
-import { MariaDbSessionStore } from './session-store';
+import { MariaDbSessionStore } from './session-store.repository';
 
 export const SESSION_COOKIE = 'ingotrace_session';
 
