@@ -2,7 +2,7 @@
 // INSERT … SELECT over its sequence tables (seq_1_to_N), so that a million lots take minutes.
 // Invented throughout: no record here describes real material or a real firm.
 import type { DataSource } from 'typeorm';
-import { derivedLotHeatsSql } from '../../server/src/modules/manufacturing/lot-heats';
+import { derivedLotHeatsSql } from '../../server/src/modules/manufacturing/lot-heats.repository';
 import { log } from '../lib/run';
 
 export interface HistoryShape {

@@ -287,6 +287,12 @@ describe('lot release: readiness, submission, two signatures, shipment', () => {
       [lots[0]],
     );
     expect(Number(packets)).toBe(1);
+    // Storing it was recorded once, by the request that stored it, not by the one that read it back.
+    const [{ stored }] = await running.database.dataSource.query(
+      "SELECT COUNT(*) AS stored FROM audit_event WHERE action = 'lot.release-packet-stored' AND entity_type = 'lot' AND entity_id = ?",
+      [String(lots[0])],
+    );
+    expect(Number(stored)).toBe(1);
     expect((await people.auditor!.agent.get(`/api/lots/${lots[1]}/release-packet`)).status).toBe(422);
   });
 

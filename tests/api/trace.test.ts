@@ -2,7 +2,7 @@ import fc from 'fast-check';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { BackwardTrace, ForwardTrace } from '@shared/schemas/trace';
 import type { GenealogyGraph } from '@shared/domain/trace/genealogy-graph';
-import { derivedLotHeatsSql } from '../../server/src/modules/manufacturing/lot-heats';
+import { derivedLotHeatsSql } from '../../server/src/modules/manufacturing/lot-heats.repository';
 import { createTestApp } from '../helpers/test-app';
 import { csrfTokenOf, SamlTestDriver } from '../helpers/saml-round-trip';
 

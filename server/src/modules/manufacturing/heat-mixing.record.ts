@@ -2,6 +2,8 @@ import type { EntityManager } from 'typeorm';
 import type { SignableRecordType } from '../signatures/signable-records';
 import { signaturesFor } from '../signatures/signatures.repository';
 import { findHeat } from '../materials/heats.repository';
+import { findLotWithPart } from './production-lot.repository';
+import { heatNumbersIssuedTo } from './material-movements.repository';
 
 export const heatMixingRecordId = (lotId: number, heatId: number) => `${lotId}-${heatId}`;
 
@@ -28,31 +30,19 @@ export const heatMixingRecordType: SignableRecordType = {
     const match = /^(\d{1,10})-(\d{1,10})$/.exec(recordId);
     if (!match) return null;
     const [lotId, heatId] = [Number(match[1]), Number(match[2])];
-    const [lot]: Array<{
-      lot_number: string;
-      part_number: string;
-      revision: string;
-      opened_by: number;
-      status: string;
-    }> = await manager.query(
-      'SELECT l.lot_number, p.part_number, p.revision, l.opened_by, l.status FROM production_lot l JOIN part p ON p.id = l.part_id WHERE l.id = ?',
-      [lotId],
-    );
+    const lot = await findLotWithPart(manager, lotId);
     const heat = await findHeat(manager, heatId);
-    if (!lot || !heat) return null;
-    const already: Array<{ heat_number: string }> = await manager.query(
-      "SELECT DISTINCT h.heat_number FROM material_movement m JOIN bar_piece b ON b.id = m.bar_piece_id JOIN heat h ON h.id = b.heat_id WHERE m.lot_id = ? AND m.kind = 'issue' ORDER BY h.heat_number",
-      [lotId],
-    );
+    if (!lot?.part || !heat) return null;
+    const already = await heatNumbersIssuedTo(manager, lotId);
     return {
-      title: `Mix heat ${heat.heatNumber} into lot ${lot.lot_number}`,
+      title: `Mix heat ${heat.heatNumber} into lot ${lot.lotNumber}`,
       content: {
-        lot: lot.lot_number,
-        part: `${lot.part_number} rev ${lot.revision}`,
-        heatsInLot: already.map((row) => row.heat_number),
+        lot: lot.lotNumber,
+        part: `${lot.part.partNumber} rev ${lot.part.revision}`,
+        heatsInLot: already,
         heatToAdd: `${heat.heatNumber} from ${heat.supplier.name} (${heat.spec.id} ${heat.spec.revision}${heat.spec.grade ? ` grade ${heat.spec.grade}` : ''}), ${heat.status}`,
       },
-      authorIds: [lot.opened_by],
+      authorIds: [lot.openedBy],
       lotStatus: lot.status,
       heatStatus: heat.status,
       heatsInLot: already.length,

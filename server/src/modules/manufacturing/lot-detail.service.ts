@@ -10,7 +10,8 @@ import type {
   TimelineEntry,
 } from '@shared/schemas/lot-detail';
 import { AppError } from '../../errors';
-import { findPart } from './parts.service';
+import { lotMaterialMovements, lotOperationFiles, lotShipmentRows } from './lot-record.repository';
+import { findPart } from './parts.repository';
 import { findLotRow, heatsByLot, linkRows, operationRows, toLotSummary } from './lots.repository';
 import { unitChains } from './lot-units';
 import { nonconformancesWhere } from './nonconformances.repository';
@@ -26,25 +27,7 @@ export async function lotDetailIn(manager: EntityManager, lotId: number): Promis
   if (!row) throw AppError.notFound('Lot');
   const part = (await findPart(manager, row.part_id))!;
   const chain = (await unitChains(manager, [lotId])).get(lotId)!;
-  const movements: Array<{
-    id: number;
-    kind: 'issue' | 'return';
-    tag: string;
-    bar_piece_id: number;
-    heat_id: number;
-    heat_number: string;
-    heat_status: string;
-    supplier: string;
-    spec_id: string;
-    length_mm: string;
-    recorded_at: Date;
-    by: string;
-  }> = await manager.query(
-    `SELECT m.id, m.kind, b.tag, m.bar_piece_id, h.id AS heat_id, h.heat_number, h.status AS heat_status, s.name AS supplier, h.spec_id, m.length_mm, m.recorded_at, p.name AS \`by\`
-         FROM material_movement m JOIN bar_piece b ON b.id = m.bar_piece_id JOIN heat h ON h.id = b.heat_id JOIN supplier s ON s.id = h.supplier_id JOIN person p ON p.id = m.recorded_by
-        WHERE m.lot_id = ? ORDER BY m.recorded_at, m.id`,
-    [lotId],
-  );
+  const movements = await lotMaterialMovements(manager, lotId);
   const material: MaterialMovement[] = movements.map((movement) => ({
     id: movement.id,
     kind: movement.kind,
@@ -61,10 +44,7 @@ export async function lotDetailIn(manager: EntityManager, lotId: number): Promis
     recordedAt: new Date(movement.recorded_at).toISOString(),
     recordedBy: movement.by,
   }));
-  const files: Array<{ operation_id: number; document_id: number; name: string; sha256: string }> = await manager.query(
-    'SELECT f.operation_id, f.document_id, f.name, d.sha256 FROM operation_file f JOIN certificate_document d ON d.id = f.document_id JOIN lot_operation o ON o.id = f.operation_id WHERE o.lot_id = ?',
-    [lotId],
-  );
+  const files = await lotOperationFiles(manager, lotId);
   const operations: OperationRecord[] = (await operationRows(manager, [lotId])).map((operation) => ({
     id: operation.id,
     stepNo: operation.step_no,
@@ -133,20 +113,7 @@ export async function lotDetailIn(manager: EntityManager, lotId: number): Promis
   const nonconformances = (await nonconformancesWhere(manager, clauses.join(' OR '), parameters)).map(
     ({ raisedById: _by, ...nc }) => nc,
   );
-  const shipmentRows: Array<{
-    id: number;
-    consignee_id: number;
-    name: string;
-    kind: string;
-    country: string;
-    qty: number;
-    shipped_on: Date | string;
-    document_number: string;
-    by: string;
-  }> = await manager.query(
-    'SELECT s.id, s.consignee_id, c.name, c.kind, c.country, s.qty, s.shipped_on, s.document_number, p.name AS `by` FROM shipment s JOIN consignee c ON c.id = s.consignee_id JOIN person p ON p.id = s.recorded_by WHERE s.lot_id = ? ORDER BY s.shipped_on, s.id',
-    [lotId],
-  );
+  const shipmentRows = await lotShipmentRows(manager, lotId);
   const shipments: ShipmentRecord[] = shipmentRows.map((shipment) => ({
     id: shipment.id,
     consignee: { id: shipment.consignee_id, name: shipment.name, kind: shipment.kind, country: shipment.country },

@@ -7,12 +7,12 @@ import type { Person } from '@shared/schemas/people';
 import { AppError } from '../../errors';
 import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
-import { findPart } from './parts.service';
-import { findLotRow, lastStepOf } from './lots.repository';
+import { findPart } from './parts.repository';
+import { findLotIdByNumber, findLotRow, insertLotLink, lastStepOf } from './lots.repository';
 import { changeLotStatus } from './production-lot.repository';
 import { unitChains } from './lot-units';
 import { insertLot } from './lots.service';
-import { inheritHeats } from './lot-heats';
+import { inheritHeats } from './lot-heats.repository';
 
 /** Child lot numbers: the parent's number with -A, -B, … (a lot number stays within GS1's 20 characters). */
 async function childLotNumber(manager: import('typeorm').EntityManager, parentNumber: string): Promise<string> {
@@ -22,8 +22,7 @@ async function childLotNumber(manager: import('typeorm').EntityManager, parentNu
         ? String.fromCharCode(65 + index)
         : `${String.fromCharCode(64 + Math.floor(index / 26))}${String.fromCharCode(65 + (index % 26))}`;
     const candidate = `${parentNumber}-${letters}`;
-    const [taken] = await manager.query('SELECT id FROM production_lot WHERE lot_number = ?', [candidate]);
-    if (!taken) {
+    if ((await findLotIdByNumber(manager, candidate)) === null) {
       const problem = lotNumberProblem(candidate);
       if (problem)
         throw AppError.rule(
@@ -78,10 +77,14 @@ export async function splitLot(
         openedBy: person.id,
         lotNumber,
       });
-      await manager.query(
-        'INSERT INTO lot_link (parent_lot_id, child_lot_id, kind, qty, after_step, recorded_by) VALUES (?, ?, ?, ?, ?, ?)',
-        [lotId, id, 'split', qty, afterStep, person.id],
-      );
+      await insertLotLink(manager, {
+        parentLotId: lotId,
+        childLotId: id,
+        kind: 'split',
+        qty,
+        afterStep,
+        recordedBy: person.id,
+      });
       await inheritHeats(manager, id, [lotId]);
       children.push({ id, lotNumber, qty });
     }
@@ -154,10 +157,14 @@ export async function mergeLots(
       openedBy: person.id,
     });
     for (const [index, row] of rows.entries()) {
-      await manager.query(
-        'INSERT INTO lot_link (parent_lot_id, child_lot_id, kind, qty, after_step, recorded_by) VALUES (?, ?, ?, ?, ?, ?)',
-        [row.id, id, 'merge', candidates[index]!.onHand, afterStep, person.id],
-      );
+      await insertLotLink(manager, {
+        parentLotId: row.id,
+        childLotId: id,
+        kind: 'merge',
+        qty: candidates[index]!.onHand,
+        afterStep,
+        recordedBy: person.id,
+      });
       await changeLotStatus(manager, row.id, 'consume');
     }
     await inheritHeats(manager, id, ids);

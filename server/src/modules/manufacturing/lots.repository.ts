@@ -1,4 +1,7 @@
 import type { EntityManager } from 'typeorm';
+import { LotLink } from './entities/lot-link.entity';
+import { LotOperation } from './entities/lot-operation.entity';
+import { ProductionLot } from './entities/production-lot.entity';
 import type { LotListQuery, LotSummary } from '@shared/schemas/manufacturing';
 
 export interface LotRow {
@@ -212,4 +215,43 @@ export async function lastStepOf(manager: EntityManager, lotId: number): Promise
     [lotId],
   );
   return Math.max(row?.last ?? 0, row?.resumes ?? 0);
+}
+
+export async function insertLotRow(
+  manager: EntityManager,
+  lot: Pick<
+    ProductionLot,
+    'lotNumber' | 'partId' | 'plannedQty' | 'startQty' | 'origin' | 'resumesAfterStep' | 'openedBy' | 'openedAt'
+  >,
+): Promise<number> {
+  const result = await manager.getRepository(ProductionLot).insert(lot);
+  return Number(result.identifiers[0]!.id);
+}
+
+export async function insertLotLink(
+  manager: EntityManager,
+  link: Pick<LotLink, 'parentLotId' | 'childLotId' | 'kind' | 'qty' | 'afterStep' | 'recordedBy'>,
+): Promise<void> {
+  await manager.getRepository(LotLink).insert(link);
+}
+
+/** The routing step numbers recorded on the lot. */
+export async function recordedStepNos(manager: EntityManager, lotId: number): Promise<number[]> {
+  const rows = await manager
+    .getRepository(LotOperation)
+    .find({ select: { id: true, routingStep: { stepNo: true } }, where: { lotId }, relations: { routingStep: true } });
+  return rows.map((row) => row.routingStep!.stepNo);
+}
+
+export async function insertOperation(
+  manager: EntityManager,
+  operation: Omit<LotOperation, 'id' | 'processRunId' | 'recordedAt' | 'lot' | 'recordedByPerson' | 'routingStep'>,
+): Promise<number> {
+  const result = await manager.getRepository(LotOperation).insert(operation);
+  return Number(result.identifiers[0]!.id);
+}
+
+/** The units a bar lot started with, set by its first recorded step. */
+export async function setStartQty(manager: EntityManager, lotId: number, startQty: number): Promise<void> {
+  await manager.getRepository(ProductionLot).update({ id: lotId }, { startQty });
 }

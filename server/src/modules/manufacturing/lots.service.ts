@@ -15,14 +15,15 @@ import { AppError } from '../../errors';
 import { materialHolds } from './material-holds.repository';
 import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
-import { findPieceByTag } from '../materials/bar-stock.repository';
+import { findPiece, findPieceByTag } from '../materials/bar-stock.repository';
 import { findHeat } from '../materials/heats.repository';
-import { findPart } from './parts.service';
-import { findLotRow, heatsByLot, listLotRows, toLotSummary } from './lots.repository';
+import { findPart, lockPart } from './parts.repository';
+import { findLotRow, heatsByLot, insertLotRow, listLotRows, toLotSummary } from './lots.repository';
+import { heatIdsIssuedTo, insertMovement, netLengthOut } from './material-movements.repository';
 import { nextSequence } from './numbering.repository';
 import { unitChains } from './lot-units';
 import { heatMixingApproved } from './heat-mixing.record';
-import { addHeatToLot } from './lot-heats';
+import { addHeatToLot } from './lot-heats.repository';
 
 export async function listLots(dataSource: DataSource, query: LotListQuery) {
   const { rows, total } = await listLotRows(dataSource.manager, query);
@@ -63,7 +64,7 @@ export async function openLot(
   const input = lotOpenSchema.parse(raw);
   const openedAt = openingDate(input.openedOn);
   return inTransaction(dataSource, async (manager) => {
-    await manager.query('SELECT id FROM part WHERE id = ? FOR UPDATE', [input.partId]);
+    await lockPart(manager, input.partId);
     const part = await findPart(manager, input.partId);
     if (!part) throw AppError.rule('Choose a registered part', { partId: 'Unknown part' });
     const id = await insertLot(manager, {
@@ -116,11 +117,16 @@ export async function insertLot(
   }
   const problem = lotNumberProblem(lotNumber);
   if (problem) throw AppError.rule(`Lot number ${lotNumber} cannot be used: ${problem}`, { lotNumber: problem });
-  const result: { insertId: number } = await manager.query(
-    'INSERT INTO production_lot (lot_number, part_id, planned_qty, start_qty, origin, resumes_after_step, opened_by, opened_at) VALUES (?, ?, ?, ?, ?, ?, ?, ?)',
-    [lotNumber, lot.partId, lot.plannedQty, lot.startQty, lot.origin, lot.resumesAfterStep, lot.openedBy, lot.openedAt],
-  );
-  return Number(result.insertId);
+  return insertLotRow(manager, {
+    lotNumber,
+    partId: lot.partId,
+    plannedQty: lot.plannedQty,
+    startQty: lot.startQty,
+    origin: lot.origin,
+    resumesAfterStep: lot.resumesAfterStep,
+    openedBy: lot.openedBy,
+    openedAt: lot.openedAt,
+  });
 }
 
 async function openLotForWork(manager: EntityManager, lotId: number) {
@@ -153,7 +159,7 @@ export async function issueMaterial(
       });
     const found = await findPieceByTag(manager, input.tag);
     if (!found) throw AppError.rule(`No bar piece has tag ${input.tag}`, { tag: 'Unknown tag' });
-    await manager.query('SELECT id FROM bar_piece WHERE id = ? FOR UPDATE', [found.id]);
+    await findPiece(manager, found.id, true);
     const piece = (await findPieceByTag(manager, input.tag))!;
     const heat = (await findHeat(manager, piece.heat.id))!;
     if (piece.status !== 'in-stock')
@@ -189,11 +195,8 @@ export async function issueMaterial(
         { lengthMm: `At most ${piece.remainingMm} mm` },
       );
     }
-    const heats: Array<{ heat_id: number }> = await manager.query(
-      'SELECT DISTINCT b.heat_id FROM material_movement m JOIN bar_piece b ON b.id = m.bar_piece_id WHERE m.lot_id = ? AND m.kind = ?',
-      [lotId, 'issue'],
-    );
-    if (heats.length && !heats.some((row) => row.heat_id === heat.id)) {
+    const heats = await heatIdsIssuedTo(manager, lotId);
+    if (heats.length && !heats.includes(heat.id)) {
       if (!(await heatMixingApproved(manager, lotId, heat.id))) {
         throw AppError.rule(
           `Lot ${lot.lot_number} is made from another heat; mixing in heat ${heat.heatNumber} needs a QA approver’s signature first`,
@@ -201,10 +204,13 @@ export async function issueMaterial(
         );
       }
     }
-    await manager.query(
-      'INSERT INTO material_movement (lot_id, bar_piece_id, kind, length_mm, recorded_by) VALUES (?, ?, ?, ?, ?)',
-      [lotId, piece.id, 'issue', input.lengthMm, person.id],
-    );
+    await insertMovement(manager, {
+      lotId,
+      barPieceId: piece.id,
+      kind: 'issue',
+      lengthMm: input.lengthMm,
+      recordedBy: person.id,
+    });
     await addHeatToLot(manager, lotId, heat.id);
     await appendLedgerEvent(manager, {
       actor,
@@ -236,11 +242,7 @@ export async function returnMaterial(
     const lot = await openLotForWork(manager, lotId);
     const piece = await findPieceByTag(manager, input.tag);
     if (!piece) throw AppError.rule(`No bar piece has tag ${input.tag}`, { tag: 'Unknown tag' });
-    const [net]: Array<{ issued: string | null }> = await manager.query(
-      "SELECT SUM(CASE kind WHEN 'issue' THEN length_mm ELSE -length_mm END) AS issued FROM material_movement WHERE lot_id = ? AND bar_piece_id = ? FOR UPDATE",
-      [lotId, piece.id],
-    );
-    const outstanding = new DecimalE29(net?.issued ?? '0');
+    const outstanding = new DecimalE29(await netLengthOut(manager, lotId, piece.id, true));
     if (outstanding.lessThanOrEqualTo(0))
       throw AppError.rule(`Piece ${piece.tag} was not issued to lot ${lot.lot_number}`, {
         tag: 'Not issued to this lot',
@@ -249,10 +251,13 @@ export async function returnMaterial(
       throw AppError.rule(`Only ${outstanding.toFixed(2)} mm of ${piece.tag} is out on this lot`, {
         lengthMm: `At most ${outstanding.toFixed(2)} mm`,
       });
-    await manager.query(
-      'INSERT INTO material_movement (lot_id, bar_piece_id, kind, length_mm, recorded_by) VALUES (?, ?, ?, ?, ?)',
-      [lotId, piece.id, 'return', input.lengthMm, person.id],
-    );
+    await insertMovement(manager, {
+      lotId,
+      barPieceId: piece.id,
+      kind: 'return',
+      lengthMm: input.lengthMm,
+      recordedBy: person.id,
+    });
     await appendLedgerEvent(manager, {
       actor,
       action: 'lot.material-returned',

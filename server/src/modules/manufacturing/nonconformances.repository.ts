@@ -142,3 +142,38 @@ export async function nonconformanceIdsNumbered(
     .getRepository(NonconformanceEntity)
     .find({ select: { id: true }, where: { ncNumber: In(ncNumbers) }, order: { id: 'ASC' } });
 }
+
+const subjectTables = {
+  heat: 'heat',
+  'bar-piece': 'bar_piece',
+  lot: 'production_lot',
+  'process-run': 'process_run',
+} as const;
+
+/** Whether the record a nonconformance would be raised against exists. */
+export async function subjectExists(
+  manager: EntityManager,
+  subjectType: keyof typeof subjectTables,
+  subjectId: number,
+): Promise<boolean> {
+  const rows: unknown[] = await manager.query(`SELECT id FROM ${subjectTables[subjectType]} WHERE id = ?`, [subjectId]);
+  return rows.length > 0;
+}
+
+/** The disposition proposed (not yet signed) and its note. */
+export async function setDisposition(
+  manager: EntityManager,
+  id: number,
+  disposition: NonconformanceEntity['disposition'],
+  note: string | null,
+): Promise<void> {
+  await manager.getRepository(NonconformanceEntity).update({ id }, { disposition, dispositionNote: note });
+}
+
+export async function setNonconformanceStatus(
+  manager: EntityManager,
+  id: number,
+  status: NonconformanceEntity['status'],
+): Promise<void> {
+  await manager.getRepository(NonconformanceEntity).update({ id }, { status });
+}

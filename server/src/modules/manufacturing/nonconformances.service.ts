@@ -13,14 +13,14 @@ import { closePendingSubmission } from '../release/release.repository';
 import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
 import type { SignableRecordType } from '../signatures/signable-records';
-import { findNonconformance, insertNonconformance, listNonconformanceRows } from './nonconformances.repository';
-
-const subjectTables = {
-  heat: 'heat',
-  'bar-piece': 'bar_piece',
-  lot: 'production_lot',
-  'process-run': 'process_run',
-} as const;
+import {
+  findNonconformance,
+  insertNonconformance,
+  listNonconformanceRows,
+  setDisposition,
+  setNonconformanceStatus,
+  subjectExists,
+} from './nonconformances.repository';
 
 export async function listNonconformances(dataSource: DataSource, query: NonconformanceListQuery) {
   const { items, total } = await listNonconformanceRows(dataSource.manager, query);
@@ -43,10 +43,7 @@ export async function raiseNonconformance(
 ) {
   const input = nonconformanceInputSchema.parse(raw);
   const id = await inTransaction(dataSource, async (manager) => {
-    const [subject] = await manager.query(`SELECT id FROM ${subjectTables[input.subjectType]} WHERE id = ?`, [
-      input.subjectId,
-    ]);
-    if (!subject)
+    if (!(await subjectExists(manager, input.subjectType, input.subjectId)))
       throw AppError.rule(`No ${input.subjectType} with id ${input.subjectId}`, { subjectId: 'Unknown record' });
     const nc = await insertNonconformance(manager, {
       subjectType: input.subjectType,
@@ -86,11 +83,7 @@ export async function proposeDisposition(
       throw AppError.rule(`${nc.ncNumber} is ${nc.status}; its disposition is signed`, {
         disposition: 'Already signed',
       });
-    await manager.query('UPDATE nonconformance SET disposition = ?, disposition_note = ? WHERE id = ?', [
-      input.disposition,
-      input.note,
-      id,
-    ]);
+    await setDisposition(manager, id, input.disposition, input.note);
     await appendLedgerEvent(manager, {
       actor,
       action: 'nonconformance.disposition-proposed',
@@ -170,7 +163,7 @@ export const nonconformanceRecordType: SignableRecordType = {
   async afterSign(manager, { recordId, meaning, signerId, signerName, reason }) {
     const status = meaning === 'dispositioned' ? 'dispositioned' : meaning === 'closed' ? 'closed' : null;
     if (!status) return;
-    await manager.query('UPDATE nonconformance SET status = ? WHERE id = ?', [status, Number(recordId)]);
+    await setNonconformanceStatus(manager, Number(recordId), status);
     await appendLedgerEvent(manager, {
       actor: { id: signerId, name: signerName, role: 'qa-approver' },
       action: `nonconformance.${status}`,

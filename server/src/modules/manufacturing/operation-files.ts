@@ -8,6 +8,7 @@ import { refusePdfWithActiveContent } from '../../documents/pdf-active-content';
 import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
 import { storeDocument } from '../materials/heats.repository';
+import { attachFileOnce, lockOperationOfLot, operationFileContent } from './operation-files.repository';
 
 export const MEASUREMENT_FILE_MAX_BYTES = 10 * 1024 * 1024;
 const binaryTypes = new Set(['application/pdf', 'image/png', 'image/jpeg']);
@@ -58,10 +59,7 @@ export async function attachOperationFile(
 ) {
   const inspected = await inspectMeasurementFile(file.bytes, file.originalName);
   return inTransaction(dataSource, async (manager) => {
-    const [operation]: Array<{ id: number; step_no: number; name: string }> = await manager.query(
-      'SELECT o.id, s.step_no, s.name FROM lot_operation o JOIN routing_step s ON s.id = o.routing_step_id WHERE o.id = ? AND o.lot_id = ? FOR UPDATE',
-      [operationId, lotId],
-    );
+    const operation = await lockOperationOfLot(manager, operationId, lotId);
     if (!operation) throw AppError.notFound('Operation');
     const document = await storeDocument(manager, {
       sha256: inspected.sha256,
@@ -70,11 +68,13 @@ export async function attachOperationFile(
       originalName: inspected.name,
       uploadedBy: person.id,
     });
-    const result: { affectedRows: number } = await manager.query(
-      'INSERT IGNORE INTO operation_file (operation_id, document_id, name, attached_by) VALUES (?, ?, ?, ?)',
-      [operationId, document.id, inspected.name, person.id],
-    );
-    if (result.affectedRows !== 1)
+    const attached = await attachFileOnce(manager, {
+      operationId,
+      documentId: document.id,
+      name: inspected.name,
+      attachedBy: person.id,
+    });
+    if (!attached)
       throw new AppError('CONFLICT', 'This file is already attached to the operation', { file: 'Already attached' });
     await appendLedgerEvent(manager, {
       actor,
@@ -95,11 +95,7 @@ export async function attachOperationFile(
 }
 
 export async function operationFile(dataSource: DataSource, lotId: number, operationId: number, documentId: number) {
-  const [row]: Array<{ media_type: string; name: string; content: Buffer; sha256: string }> = await dataSource.query(
-    `SELECT d.media_type, f.name, d.content, d.sha256 FROM operation_file f JOIN lot_operation o ON o.id = f.operation_id JOIN certificate_document d ON d.id = f.document_id
-      WHERE o.lot_id = ? AND f.operation_id = ? AND f.document_id = ?`,
-    [lotId, operationId, documentId],
-  );
+  const row = await operationFileContent(dataSource.manager, lotId, operationId, documentId);
   if (!row) throw AppError.notFound('File');
   return { mediaType: row.media_type, name: row.name, content: row.content, sha256: row.sha256 };
 }

@@ -5,8 +5,9 @@ import type { Person } from '@shared/schemas/people';
 import { AppError } from '../../errors';
 import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
-import { findPart } from './parts.service';
-import { findLotRow, type LotRow } from './lots.repository';
+import { findPart } from './parts.repository';
+import { findLotRow, insertOperation, recordedStepNos, setStartQty, type LotRow } from './lots.repository';
+import { netLengthOut } from './material-movements.repository';
 import { unitChains } from './lot-units';
 import { insertNonconformance } from './nonconformances.repository';
 
@@ -27,11 +28,7 @@ export async function stepReadyFor(manager: EntityManager, lot: LotRow, stepNo: 
       `Lot ${lot.lot_number} began after step ${lot.resumes_after_step}; step ${stepNo} belongs to its parent lot`,
       { stepNo: 'Recorded on the parent lot' },
     );
-  const recorded: Array<{ step_no: number }> = await manager.query(
-    'SELECT s.step_no FROM lot_operation o JOIN routing_step s ON s.id = o.routing_step_id WHERE o.lot_id = ?',
-    [lot.id],
-  );
-  const done = new Set(recorded.map((row) => row.step_no));
+  const done = new Set(await recordedStepNos(manager, lot.id));
   if (done.has(stepNo))
     throw new AppError('CONFLICT', `Step ${stepNo} ${step.name} is already recorded for lot ${lot.lot_number}`, {
       stepNo: 'Already recorded',
@@ -47,11 +44,7 @@ export async function stepReadyFor(manager: EntityManager, lot: LotRow, stepNo: 
   const chain = (await unitChains(manager, [lot.id])).get(lot.id)!;
   const starting = lot.origin === 'bar' && done.size === 0;
   if (starting) {
-    const [issued]: Array<{ net: string | null }> = await manager.query(
-      "SELECT SUM(CASE kind WHEN 'issue' THEN length_mm ELSE -length_mm END) AS net FROM material_movement WHERE lot_id = ?",
-      [lot.id],
-    );
-    if (!issued?.net || Number(issued.net) <= 0)
+    if (Number(await netLengthOut(manager, lot.id)) <= 0)
       throw AppError.rule(`Issue bar to lot ${lot.lot_number} before recording its first operation`, {
         stepNo: 'No material issued',
       });
@@ -107,31 +100,25 @@ export async function recordOperation(
         input.defectsFound,
       );
     }
-    const result: { insertId: number } = await manager.query(
-      `INSERT INTO lot_operation (lot_id, routing_step_id, operator_name, work_centre, program_revision, started_at, ended_at, qty_in, qty_good, qty_scrap, scrap_reasons,
-                                  sample_size, defects_found, verdict, notes, recorded_by)
-       VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
-      [
-        lotId,
-        step.id,
-        input.operatorName,
-        input.workCentre,
-        input.programRevision,
-        new Date(input.startedAt),
-        new Date(input.endedAt),
-        input.qtyIn,
-        input.qtyGood,
-        input.qtyScrap,
-        JSON.stringify(input.scrapReasons),
-        input.inspected,
-        input.defectsFound,
-        verdict?.verdict ?? null,
-        input.notes,
-        person.id,
-      ],
-    );
-    if (starting) await manager.query('UPDATE production_lot SET start_qty = ? WHERE id = ?', [input.qtyIn, lotId]);
-    const id = Number(result.insertId);
+    const id = await insertOperation(manager, {
+      lotId,
+      routingStepId: step.id,
+      operatorName: input.operatorName,
+      workCentre: input.workCentre,
+      programRevision: input.programRevision,
+      startedAt: new Date(input.startedAt),
+      endedAt: new Date(input.endedAt),
+      qtyIn: input.qtyIn,
+      qtyGood: input.qtyGood,
+      qtyScrap: input.qtyScrap,
+      scrapReasons: JSON.stringify(input.scrapReasons),
+      sampleSize: input.inspected,
+      defectsFound: input.defectsFound,
+      verdict: verdict?.verdict ?? null,
+      notes: input.notes,
+      recordedBy: person.id,
+    });
+    if (starting) await setStartQty(manager, lotId, input.qtyIn);
     await appendLedgerEvent(manager, {
       actor,
       action: 'lot.operation-recorded',

@@ -9,7 +9,7 @@ import { methodScopeChecker } from './process-methods.service';
 import { AppError } from '../../errors';
 import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
-import { findPart } from './parts.service';
+import { findPart } from './parts.repository';
 import { findLotRow } from './lots.repository';
 import { unitChains } from './lot-units';
 import { insertNonconformance, nonconformancesWhere } from './nonconformances.repository';

@@ -102,6 +102,8 @@ export async function storePacketOnce(
     .insert()
     .values(packet)
     .orIgnore()
+    // Without RETURNING, MariaDB's own count of rows written tells whether the row is new.
+    .updateEntity(false)
     .execute();
   return (result.raw as { affectedRows: number }).affectedRows === 1;
 }
