@@ -245,7 +245,9 @@ export async function recordedStepNos(manager: EntityManager, lotId: number): Pr
 
 export async function insertOperation(
   manager: EntityManager,
-  operation: Omit<LotOperation, 'id' | 'processRunId' | 'recordedAt' | 'lot' | 'recordedByPerson' | 'routingStep'>,
+  operation: Omit<LotOperation, 'id' | 'processRunId' | 'recordedAt' | 'lot' | 'recordedByPerson' | 'routingStep'> & {
+    processRunId?: number | null;
+  },
 ): Promise<number> {
   const result = await manager.getRepository(LotOperation).insert(operation);
   return Number(result.identifiers[0]!.id);

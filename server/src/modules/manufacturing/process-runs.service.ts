@@ -10,29 +10,11 @@ import { AppError } from '../../errors';
 import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
 import { findPart } from './parts.repository';
-import { findLotRow } from './lots.repository';
+import { findLotRow, insertOperation, recordedStepNos } from './lots.repository';
+import { findProcessRunRow, insertProcessRun, lotsInRun, processRunRows, type RunRow } from './process-runs.repository';
 import { unitChains } from './lot-units';
 import { insertNonconformance, nonconformancesWhere } from './nonconformances.repository';
 import { nextSequence } from './numbering.repository';
-
-interface RunRow {
-  id: number;
-  run_number: string;
-  kind: 'passivation' | 'cleaning';
-  method_id: string;
-  equipment: string;
-  parameters_json: string;
-  window_check_json: string;
-  in_window: number;
-  operator_name: string;
-  run_at: Date;
-  recorded_by_name: string;
-  lots: string | number;
-}
-
-const runSelect = `
-  SELECT r.*, p.name AS recorded_by_name, (SELECT COUNT(*) FROM lot_operation o WHERE o.process_run_id = r.id) AS lots
-  FROM process_run r JOIN person p ON p.id = r.recorded_by`;
 
 function toSummary(row: RunRow): ProcessRunSummary {
   return {
@@ -51,41 +33,14 @@ function toSummary(row: RunRow): ProcessRunSummary {
 }
 
 export async function listProcessRuns(dataSource: DataSource, query: ProcessRunListQuery) {
-  const where: string[] = [];
-  const parameters: unknown[] = [];
-  if (query.kind) {
-    where.push('r.kind = ?');
-    parameters.push(query.kind);
-  }
-  if (query.inWindow) {
-    where.push('r.in_window = ?');
-    parameters.push(query.inWindow === 'true' ? 1 : 0);
-  }
-  if (query.search) {
-    where.push('(r.run_number LIKE ? OR r.equipment LIKE ?)');
-    const pattern = `%${query.search.replace(/[\\%_]/g, (character) => `\\${character}`)}%`;
-    parameters.push(pattern, pattern);
-  }
-  const clause = where.length ? `WHERE ${where.join(' AND ')}` : '';
-  const [count]: Array<{ total: string }> = await dataSource.query(
-    `SELECT COUNT(*) AS total FROM process_run r ${clause}`,
-    parameters,
-  );
-  const rows: RunRow[] = await dataSource.query(
-    `${runSelect} ${clause} ORDER BY r.run_at DESC, r.id DESC LIMIT ? OFFSET ?`,
-    [...parameters, query.pageSize, (query.page - 1) * query.pageSize],
-  );
-  return { items: rows.map(toSummary), total: Number(count?.total ?? 0), page: query.page, pageSize: query.pageSize };
+  const { total, rows } = await processRunRows(dataSource.manager, query);
+  return { items: rows.map(toSummary), total, page: query.page, pageSize: query.pageSize };
 }
 
 export async function processRunDetail(dataSource: DataSource, id: number): Promise<ProcessRunDetail> {
-  const [row]: RunRow[] = await dataSource.query(`${runSelect} WHERE r.id = ?`, [id]);
+  const row = await findProcessRunRow(dataSource.manager, id);
   if (!row) throw AppError.notFound('Process run');
-  const lots: Array<{ lot_id: number; lot_number: string; part_number: string; qty_in: number }> =
-    await dataSource.query(
-      'SELECT o.lot_id, l.lot_number, p.part_number, o.qty_in FROM lot_operation o JOIN production_lot l ON l.id = o.lot_id JOIN part p ON p.id = l.part_id WHERE o.process_run_id = ? ORDER BY l.lot_number',
-      [id],
-    );
+  const lots = await lotsInRun(dataSource.manager, id);
   return {
     ...toSummary(row),
     parameters: JSON.parse(row.parameters_json) as Record<string, string>,
@@ -155,11 +110,7 @@ export async function recordProcessRun(
       if (lot.status !== 'open')
         throw AppError.rule(`Lot ${lot.lot_number} is ${lot.status}`, { lotIds: `${lot.lot_number} is ${lot.status}` });
       const part = (await findPart(manager, lot.part_id))!;
-      const recorded: Array<{ step_no: number }> = await manager.query(
-        'SELECT s.step_no FROM lot_operation o JOIN routing_step s ON s.id = o.routing_step_id WHERE o.lot_id = ?',
-        [lotId],
-      );
-      const done = new Set(recorded.map((row) => row.step_no));
+      const done = new Set(await recordedStepNos(manager, lotId));
       const next = part.routing.find((step) => step.stepNo > lot.resumes_after_step && !done.has(step.stepNo));
       if (!next || next.kind !== input.kind) {
         throw AppError.rule(
@@ -188,39 +139,38 @@ export async function recordProcessRun(
 
     const prefix = `${input.kind === 'passivation' ? 'PV' : 'CL'}-${runAt.getUTCFullYear()}-`;
     const runNumber = `${prefix}${String(await nextSequence(manager, 'process_run', prefix)).padStart(4, '0')}`;
-    const result: { insertId: number } = await manager.query(
-      'INSERT INTO process_run (run_number, kind, method_id, equipment, parameters_json, window_check_json, in_window, operator_name, run_at, recorded_by) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)',
-      [
-        runNumber,
-        input.kind,
-        method.id,
-        input.equipment,
-        JSON.stringify(input.parameters),
-        JSON.stringify(check),
-        check.inWindow ? 1 : 0,
-        input.operatorName,
-        runAt,
-        person.id,
-      ],
-    );
-    const runId = Number(result.insertId);
+    const runId = await insertProcessRun(manager, {
+      runNumber,
+      kind: input.kind,
+      methodId: method.id,
+      equipment: input.equipment,
+      parametersJson: JSON.stringify(input.parameters),
+      windowCheckJson: JSON.stringify(check),
+      inWindow: check.inWindow,
+      operatorName: input.operatorName,
+      runAt,
+      recordedBy: person.id,
+    });
     for (const lot of due) {
-      await manager.query(
-        `INSERT INTO lot_operation (lot_id, routing_step_id, operator_name, work_centre, started_at, ended_at, qty_in, qty_good, qty_scrap, scrap_reasons, process_run_id, recorded_by)
-         VALUES (?, ?, ?, ?, ?, ?, ?, ?, 0, '[]', ?, ?)`,
-        [
-          lot.lotId,
-          lot.stepId,
-          input.operatorName,
-          input.equipment,
-          runAt,
-          runAt,
-          lot.onHand,
-          lot.onHand,
-          runId,
-          person.id,
-        ],
-      );
+      await insertOperation(manager, {
+        lotId: lot.lotId,
+        routingStepId: lot.stepId,
+        operatorName: input.operatorName,
+        workCentre: input.equipment,
+        programRevision: null,
+        startedAt: runAt,
+        endedAt: runAt,
+        qtyIn: lot.onHand,
+        qtyGood: lot.onHand,
+        qtyScrap: 0,
+        scrapReasons: '[]',
+        sampleSize: null,
+        defectsFound: null,
+        verdict: null,
+        processRunId: runId,
+        notes: null,
+        recordedBy: person.id,
+      });
       if (!check.inWindow) {
         const outside = check.items
           .filter((item) => item.verdict === 'out-of-window')

@@ -11,26 +11,17 @@ import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
 import { findLotRow } from './lots.repository';
 import { refuseIfHeld } from '../recall/lot-holds';
+import {
+  consigneeNamed,
+  consigneesWithShipments,
+  findConsignee,
+  insertConsignee,
+  insertShipment,
+  unitsShipped,
+} from './shipments.repository';
 
 export async function listConsignees(dataSource: DataSource) {
-  const rows: Array<{
-    id: number;
-    name: string;
-    kind: string;
-    country: string;
-    contact_email: string | null;
-    shipments: string | number;
-  }> = await dataSource.query(
-    'SELECT c.*, (SELECT COUNT(*) FROM shipment s WHERE s.consignee_id = c.id) AS shipments FROM consignee c ORDER BY c.name',
-  );
-  return rows.map((row) => ({
-    id: row.id,
-    name: row.name,
-    kind: row.kind,
-    country: row.country,
-    contactEmail: row.contact_email,
-    shipments: Number(row.shipments),
-  }));
+  return consigneesWithShipments(dataSource.manager);
 }
 
 export async function createConsignee(
@@ -41,14 +32,14 @@ export async function createConsignee(
 ) {
   const input = consigneeInputSchema.parse(raw);
   return inTransaction(dataSource, async (manager) => {
-    const [existing] = await manager.query('SELECT id FROM consignee WHERE name = ?', [input.name]);
-    if (existing)
+    if (await consigneeNamed(manager, input.name))
       throw new AppError('CONFLICT', `A consignee named ${input.name} exists already`, { name: 'Already registered' });
-    const result: { insertId: number } = await manager.query(
-      'INSERT INTO consignee (name, kind, country, contact_email) VALUES (?, ?, ?, ?)',
-      [input.name, input.kind, input.country, input.contactEmail],
-    );
-    const id = Number(result.insertId);
+    const id = await insertConsignee(manager, {
+      name: input.name,
+      kind: input.kind,
+      country: input.country,
+      contactEmail: input.contactEmail,
+    });
     await appendLedgerEvent(manager, {
       actor,
       action: 'consignee.created',
@@ -78,23 +69,22 @@ export async function shipLot(
         qty: 'Lot not released',
       });
     await refuseIfHeld(manager, [lotId], 'shipped', 'qty');
-    const [consignee] = await manager.query('SELECT id, name FROM consignee WHERE id = ?', [input.consigneeId]);
+    const consignee = await findConsignee(manager, input.consigneeId);
     if (!consignee) throw AppError.rule('Choose a registered consignee', { consigneeId: 'Unknown consignee' });
-    const [shipped]: Array<{ qty: string | null }> = await manager.query(
-      'SELECT SUM(qty) AS qty FROM shipment WHERE lot_id = ?',
-      [lotId],
-    );
-    const available = lot.released_qty - Number(shipped?.qty ?? 0);
+    const available = lot.released_qty - (await unitsShipped(manager, lotId));
     if (input.qty > available)
       throw AppError.rule(
         `Lot ${lot.lot_number} has ${available} released units not yet shipped; ${input.qty} cannot ship`,
         { qty: `At most ${available}` },
       );
-    const result: { insertId: number } = await manager.query(
-      'INSERT INTO shipment (lot_id, consignee_id, qty, shipped_on, document_number, recorded_by) VALUES (?, ?, ?, ?, ?, ?)',
-      [lotId, input.consigneeId, input.qty, input.shippedOn, input.documentNumber, person.id],
-    );
-    const id = Number(result.insertId);
+    const id = await insertShipment(manager, {
+      lotId,
+      consigneeId: input.consigneeId,
+      qty: input.qty,
+      shippedOn: input.shippedOn,
+      documentNumber: input.documentNumber,
+      recordedBy: person.id,
+    });
     await appendLedgerEvent(manager, {
       actor,
       action: 'lot.shipped',

@@ -1,0 +1,55 @@
+import type { EntityManager } from 'typeorm';
+import { Consignee } from './entities/consignee.entity';
+import { Shipment } from './entities/shipment.entity';
+
+/** Every consignee by name, with how many shipments went to it. */
+export async function consigneesWithShipments(
+  manager: EntityManager,
+): Promise<Array<Pick<Consignee, 'id' | 'name' | 'kind' | 'country' | 'contactEmail'> & { shipments: number }>> {
+  const { entities, raw } = await manager
+    .getRepository(Consignee)
+    .createQueryBuilder('consignee')
+    .addSelect(
+      (count) => count.select('COUNT(*)').from(Shipment, 'shipment').where('shipment.consigneeId = consignee.id'),
+      'shipments',
+    )
+    .orderBy('consignee.name')
+    .getRawAndEntities<{ shipments: string | number }>();
+  return entities.map((consignee, index) => ({
+    id: consignee.id,
+    name: consignee.name,
+    kind: consignee.kind,
+    country: consignee.country,
+    contactEmail: consignee.contactEmail,
+    shipments: Number(raw[index]?.shipments ?? 0),
+  }));
+}
+
+export function consigneeNamed(manager: EntityManager, name: string) {
+  return manager.getRepository(Consignee).findOne({ select: { id: true }, where: { name } });
+}
+
+export function findConsignee(manager: EntityManager, id: number) {
+  return manager.getRepository(Consignee).findOne({ select: { id: true, name: true }, where: { id } });
+}
+
+export async function insertConsignee(
+  manager: EntityManager,
+  consignee: Pick<Consignee, 'name' | 'kind' | 'country' | 'contactEmail'>,
+): Promise<number> {
+  const result = await manager.getRepository(Consignee).insert(consignee);
+  return Number(result.identifiers[0]!.id);
+}
+
+/** Units of the lot shipped so far. */
+export async function unitsShipped(manager: EntityManager, lotId: number): Promise<number> {
+  return (await manager.getRepository(Shipment).sum('qty', { lotId })) ?? 0;
+}
+
+export async function insertShipment(
+  manager: EntityManager,
+  shipment: Pick<Shipment, 'lotId' | 'consigneeId' | 'qty' | 'shippedOn' | 'documentNumber' | 'recordedBy'>,
+): Promise<number> {
+  const result = await manager.getRepository(Shipment).insert(shipment);
+  return Number(result.identifiers[0]!.id);
+}
