@@ -21,15 +21,15 @@ import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
 import * as heats from './heats.repository';
 import { storedSpecification } from './specification-library.repository';
-
-interface HistoryRow {
-  id: number;
-  heat_number: string;
-  received_at: Date;
-  kind: 'chemistry' | 'mechanical' | null;
-  item: string | null;
-  as_reported: string | null;
-}
+import {
+  acknowledgedFindings,
+  acknowledgementsOfHeat,
+  insertAcknowledgement,
+  screeningGroups,
+  supplierCertificateHashes,
+  supplierForScreening,
+  supplierResultRows,
+} from './screening.repository';
 
 /** Every heat of a supplier, specification and grade, with its reported values and document hashes. */
 async function supplierHistory(
@@ -38,18 +38,8 @@ async function supplierHistory(
   specId: string,
   grade: string | null,
 ): Promise<ScreenedHeat[]> {
-  const rows: HistoryRow[] = await manager.query(
-    `SELECT h.id, h.heat_number, h.received_at, r.kind, r.item, r.as_reported
-       FROM heat h LEFT JOIN heat_result r ON r.heat_id = h.id
-      WHERE h.supplier_id = ? AND h.spec_id = ? AND h.grade <=> ?
-      ORDER BY h.id, r.kind, r.item`,
-    [supplierId, specId, grade],
-  );
-  const documents: Array<{ heat_id: number; sha256: string }> = await manager.query(
-    `SELECT c.heat_id, d.sha256 FROM heat_certificate c JOIN certificate_document d ON d.id = c.document_id
-       JOIN heat h ON h.id = c.heat_id WHERE h.supplier_id = ? AND h.spec_id = ? AND h.grade <=> ? ORDER BY c.heat_id, d.sha256`,
-    [supplierId, specId, grade],
-  );
+  const rows = await supplierResultRows(manager, supplierId, specId, grade);
+  const documents = await supplierCertificateHashes(manager, supplierId, specId, grade);
   const byId = new Map<number, ScreenedHeat>();
   for (const row of rows) {
     const heat = byId.get(row.id) ?? {
@@ -110,12 +100,7 @@ export async function screeningOfHeat(manager: EntityManager, heatId: number): P
     history,
     limitsOf(specification, heat.spec.grade, heat.productForm, heat.condition),
   ).filter((finding) => finding.heatIds.includes(heatId));
-  const acknowledgements: Array<{ finding_key: string; reason: string; acknowledged_at: Date; name: string }> =
-    await manager.query(
-      `SELECT a.finding_key, a.reason, a.acknowledged_at, p.name FROM screening_acknowledgement a JOIN person p ON p.id = a.acknowledged_by
-      WHERE a.heat_id = ? ORDER BY a.id`,
-      [heatId],
-    );
+  const acknowledgements = await acknowledgementsOfHeat(manager, heatId);
   const numberOf = new Map(history.map((entry) => [entry.heatId, entry.heatNumber]));
   return {
     heatsScreened: history.length,
@@ -141,30 +126,11 @@ export async function screeningOfHeat(manager: EntityManager, heatId: number): P
  * heats it involves and whether a reviewer acknowledged it for each of them.
  */
 export async function screeningOfSupplier(manager: EntityManager, supplierId: number): Promise<SupplierScreening> {
-  const [supplier]: Array<{
-    id: number;
-    name: string;
-    country: string;
-    approval: SupplierScreening['supplier']['approval'];
-  }> = await manager.query('SELECT id, name, country, approval FROM supplier WHERE id = ?', [supplierId]);
+  const [supplier] = await supplierForScreening(manager, supplierId);
   if (!supplier) throw AppError.notFound('Supplier');
   // Per specification and grade, the newest heat sets the limits (its revision, form and condition).
-  const groups: Array<{
-    spec_id: string;
-    grade: string | null;
-    spec_revision: string;
-    product_form: string;
-    heat_condition: string;
-  }> = await manager.query(
-    `SELECT h.spec_id, h.grade, h.spec_revision, h.product_form, h.heat_condition FROM heat h
-      WHERE h.supplier_id = ? AND h.id = (SELECT MAX(o.id) FROM heat o WHERE o.supplier_id = h.supplier_id AND o.spec_id = h.spec_id AND o.grade <=> h.grade)
-      ORDER BY h.spec_id, h.grade`,
-    [supplierId],
-  );
-  const acknowledged: Array<{ heat_id: number; finding_key: string }> = await manager.query(
-    'SELECT a.heat_id, a.finding_key FROM screening_acknowledgement a JOIN heat h ON h.id = a.heat_id WHERE h.supplier_id = ?',
-    [supplierId],
-  );
+  const groups = await screeningGroups(manager, supplierId);
+  const acknowledged = await acknowledgedFindings(manager, supplierId);
   const isAcknowledged = new Set(acknowledged.map((row) => `${row.heat_id} ${row.finding_key}`));
   const screened = [];
   for (const group of groups) {
@@ -225,10 +191,7 @@ export async function acknowledgeFinding(
       throw new AppError('CONFLICT', `${finding.acknowledgement.by} already acknowledged this finding`, {
         findingKey: 'Already acknowledged',
       });
-    await manager.query(
-      'INSERT INTO screening_acknowledgement (heat_id, finding_key, kind, explanation, reason, acknowledged_by) VALUES (?, ?, ?, ?, ?, ?)',
-      [heatId, finding.key, finding.kind, finding.explanation, input.reason, person.id],
-    );
+    await insertAcknowledgement(manager, heatId, finding, input.reason, person.id);
     await appendLedgerEvent(manager, {
       actor,
       action: 'heat.screening-finding-acknowledged',

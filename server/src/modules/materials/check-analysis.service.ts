@@ -26,27 +26,18 @@ import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/led
 import * as heats from './heats.repository';
 import { currentSpecifications, storedSpecification } from './specification-library.repository';
 import { findSupplier } from './suppliers.repository';
-
-interface RuleRow {
-  id: number;
-  supplier_id: number | null;
-  supplier_name: string | null;
-  spec_id: string | null;
-  every_nth_heat: number | null;
-  every_heat_when_conditional: number;
-  reason: string;
-  set_by_name: string;
-  set_at: Date;
-}
+import {
+  analysisRowsOfHeat,
+  heatPosition,
+  heatsWithCheckState,
+  insertCheckAnalysis,
+  insertRule,
+  latestRuleRows,
+} from './check-analysis.repository';
 
 /** The rule in force for each scope: the latest row set for it. */
 export async function currentRules(manager: EntityManager): Promise<CheckRuleView[]> {
-  const rows: RuleRow[] = await manager.query(
-    `SELECT r.id, r.supplier_id, s.name AS supplier_name, r.spec_id, r.every_nth_heat, r.every_heat_when_conditional, r.reason, p.name AS set_by_name, r.set_at
-       FROM check_analysis_rule r JOIN person p ON p.id = r.set_by LEFT JOIN supplier s ON s.id = r.supplier_id
-      WHERE r.id IN (SELECT MAX(id) FROM check_analysis_rule GROUP BY supplier_id, spec_id)
-      ORDER BY r.supplier_id IS NOT NULL, s.name, r.spec_id IS NOT NULL, r.spec_id`,
-  );
+  const rows = await latestRuleRows(manager);
   return rows.map((row) => ({
     id: row.id,
     supplierId: row.supplier_id,
@@ -86,14 +77,18 @@ export async function setCheckRule(
     const before =
       (await currentRules(manager)).find((rule) => rule.supplierId === input.supplierId && rule.specId === specId) ??
       null;
-    const result: { insertId: number } = await manager.query(
-      'INSERT INTO check_analysis_rule (supplier_id, spec_id, every_nth_heat, every_heat_when_conditional, reason, set_by) VALUES (?, ?, ?, ?, ?, ?)',
-      [input.supplierId, specId, input.everyNthHeat, input.everyHeatWhenConditional ? 1 : 0, input.reason, person.id],
-    );
+    const ruleId = await insertRule(manager, {
+      supplierId: input.supplierId,
+      specId,
+      everyNthHeat: input.everyNthHeat,
+      everyHeatWhenConditional: input.everyHeatWhenConditional,
+      reason: input.reason,
+      setBy: person.id,
+    });
     await appendLedgerEvent(manager, {
       actor,
       action: 'check-analysis-rule.set',
-      entity: { type: 'check-analysis-rule', id: Number(result.insertId) },
+      entity: { type: 'check-analysis-rule', id: ruleId },
       before: before
         ? { everyNthHeat: before.everyNthHeat, everyHeatWhenConditional: before.everyHeatWhenConditional }
         : null,
@@ -110,22 +105,8 @@ export async function setCheckRule(
   });
 }
 
-interface AnalysisRow {
-  id: number;
-  laboratory: string;
-  report_reference: string;
-  results_json: string;
-  evaluation_json: string;
-  recorded_by_name: string;
-  recorded_at: Date;
-}
-
 async function analysesOf(manager: EntityManager, heatId: number): Promise<HeatCheckAnalysis['analyses']> {
-  const rows: AnalysisRow[] = await manager.query(
-    `SELECT c.id, c.laboratory, c.report_reference, c.results_json, c.evaluation_json, p.name AS recorded_by_name, c.recorded_at
-       FROM check_analysis c JOIN person p ON p.id = c.recorded_by WHERE c.heat_id = ? ORDER BY c.id DESC`,
-    [heatId],
-  );
+  const rows = await analysisRowsOfHeat(manager, heatId);
   return rows.map((row) => ({
     id: row.id,
     laboratory: row.laboratory,
@@ -149,10 +130,7 @@ async function gradeChemistry(manager: EntityManager, heat: NonNullable<Awaited<
 export async function checkAnalysisOfHeat(manager: EntityManager, heatId: number): Promise<HeatCheckAnalysis> {
   const heat = await heats.findHeat(manager, heatId);
   if (!heat) throw AppError.notFound('Heat');
-  const [counted]: Array<{ position: string }> = await manager.query(
-    'SELECT COUNT(*) AS position FROM heat WHERE supplier_id = ? AND spec_id = ? AND id <= ?',
-    [heat.supplier.id, heat.spec.id, heatId],
-  );
+  const [counted] = await heatPosition(manager, heat.supplier.id, heat.spec.id, heatId);
   const position = Number(counted!.position);
   const rule = applicableRule(await currentRules(manager), heat.supplier.id, heat.spec.id);
   const requirement = checkRequirement(rule, position, heat.supplier.approval);
@@ -207,24 +185,21 @@ export async function recordCheckAnalysis(
         throw new AppError('VALIDATION_FAILED', error.message, error.fields);
       throw error;
     }
-    const inserted: { insertId: number } = await manager.query(
-      'INSERT INTO check_analysis (heat_id, laboratory, report_reference, results_json, evaluation_json, verdict, recorded_by) VALUES (?, ?, ?, ?, ?, ?, ?)',
-      [
-        heatId,
-        input.laboratory,
-        input.reportReference,
-        JSON.stringify(results),
-        JSON.stringify(evaluation),
-        evaluation.verdict,
-        person.id,
-      ],
-    );
+    const checkAnalysisId = await insertCheckAnalysis(manager, {
+      heatId,
+      laboratory: input.laboratory,
+      reportReference: input.reportReference,
+      resultsJson: JSON.stringify(results),
+      evaluationJson: JSON.stringify(evaluation),
+      verdict: evaluation.verdict,
+      recordedBy: person.id,
+    });
     await appendLedgerEvent(manager, {
       actor,
       action: 'heat.check-analysis-recorded',
       entity: { type: 'heat', id: heatId },
       after: {
-        checkAnalysisId: Number(inserted.insertId),
+        checkAnalysisId,
         laboratory: input.laboratory,
         reportReference: input.reportReference,
         results,
@@ -239,21 +214,7 @@ export async function recordCheckAnalysis(
 
 /** Heats not yet accepted or rejected whose check analysis is due and not recorded, oldest first. */
 export async function heatsAwaitingCheck(manager: EntityManager): Promise<HeatAwaitingCheck[]> {
-  const rows: Array<{
-    id: number;
-    heat_number: string;
-    supplier_id: number;
-    supplier_name: string;
-    approval: 'approved' | 'conditional' | 'disqualified';
-    spec_id: string;
-    status: string;
-    received_at: Date;
-    checked: number;
-  }> = await manager.query(
-    `SELECT h.id, h.heat_number, h.supplier_id, s.name AS supplier_name, s.approval, h.spec_id, h.status, h.received_at,
-              EXISTS (SELECT 1 FROM check_analysis c WHERE c.heat_id = h.id) AS checked
-         FROM heat h JOIN supplier s ON s.id = h.supplier_id ORDER BY h.id`,
-  );
+  const rows = await heatsWithCheckState(manager);
   const rules = await currentRules(manager);
   const positions = new Map<string, number>();
   const awaiting: HeatAwaitingCheck[] = [];

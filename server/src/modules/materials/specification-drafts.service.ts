@@ -9,6 +9,15 @@ import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, sha256Hex, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
 import type { SignableRecordType } from '../signatures/signable-records';
 import { currentSpecifications, storedSpecification } from './specification-library.repository';
+import {
+  draftRow,
+  insertDraft,
+  insertRevision,
+  latestDraftRows,
+  revisionTaken,
+  setDraftStatus,
+  type DraftRow,
+} from './specification-drafts.repository';
 
 const limitText = (limit: Pick<ElementLimit, 'min' | 'max'> | undefined) =>
   !limit
@@ -26,28 +35,6 @@ const toleranceText = (tolerance: NonNullable<ElementLimit['tolerance']>) =>
   ]
     .filter(Boolean)
     .join(', ');
-
-interface DraftRow {
-  id: number;
-  spec_id: string;
-  base_revision: string;
-  revision: string;
-  definition_json: string;
-  note: string;
-  status: SpecificationDraftView['status'];
-  created_by: number;
-  created_by_name: string;
-  created_at: Date;
-}
-
-async function draftRow(manager: EntityManager, id: number, lock = false): Promise<DraftRow | null> {
-  if (lock) await manager.query('SELECT id FROM specification_draft WHERE id = ? FOR UPDATE', [id]);
-  const [row]: DraftRow[] = await manager.query(
-    'SELECT d.*, p.name AS created_by_name FROM specification_draft d JOIN person p ON p.id = d.created_by WHERE d.id = ?',
-    [id],
-  );
-  return row ?? null;
-}
 
 function changesOf(base: Specification, proposed: Specification): SpecificationDraftView['changes'] {
   const changes: SpecificationDraftView['changes'] = [];
@@ -86,9 +73,7 @@ async function toView(manager: EntityManager, row: DraftRow): Promise<Specificat
 }
 
 export async function listDrafts(dataSource: DataSource): Promise<SpecificationDraftView[]> {
-  const rows: DraftRow[] = await dataSource.query(
-    'SELECT d.*, p.name AS created_by_name FROM specification_draft d JOIN person p ON p.id = d.created_by ORDER BY d.id DESC LIMIT 100',
-  );
+  const rows = await latestDraftRows(dataSource.manager);
   return Promise.all(rows.map((row) => toView(dataSource.manager, row)));
 }
 
@@ -103,11 +88,7 @@ export async function draftRevision(
   return inTransaction(dataSource, async (manager) => {
     const current = (await currentSpecifications(manager)).find((candidate) => candidate.id === input.specId);
     if (!current) throw AppError.rule(`Unknown specification ${input.specId}`, { specId: 'Not in the library' });
-    const [taken] = await manager.query(
-      "SELECT 1 FROM specification_revision WHERE spec_id = ? AND revision = ? UNION SELECT 1 FROM specification_draft WHERE spec_id = ? AND revision = ? AND status <> 'rejected'",
-      [current.id, input.revision, current.id, input.revision],
-    );
-    if (taken)
+    if (await revisionTaken(manager, current.id, input.revision))
       throw new AppError('CONFLICT', `Revision ${input.revision} of ${current.id} exists already`, {
         revision: 'Already used',
       });
@@ -158,11 +139,15 @@ export async function draftRevision(
       else grade.chemistry.push(drafted);
     });
     if (Object.keys(fields).length) throw new AppError('VALIDATION_FAILED', 'Some limit changes are not valid', fields);
-    const result: { insertId: number } = await manager.query(
-      'INSERT INTO specification_draft (spec_id, base_revision, revision, definition_json, note, created_by) VALUES (?, ?, ?, ?, ?, ?)',
-      [current.id, current.revision, input.revision, canonicalJson(proposed), input.note, person.id],
-    );
-    const view = await toView(manager, (await draftRow(manager, Number(result.insertId)))!);
+    const draftId = await insertDraft(manager, {
+      specId: current.id,
+      baseRevision: current.revision,
+      revision: input.revision,
+      definitionJson: canonicalJson(proposed),
+      note: input.note,
+      createdBy: person.id,
+    });
+    const view = await toView(manager, (await draftRow(manager, draftId))!);
     await appendLedgerEvent(manager, {
       actor,
       action: 'specification.revision-drafted',
@@ -212,19 +197,16 @@ export const specificationDraftRecordType: SignableRecordType = {
     const status = meaning === 'approved' ? 'approved' : 'rejected';
     if (status === 'approved') {
       const definition = JSON.parse(row.definition_json) as Specification;
-      await manager.query(
-        'INSERT INTO specification_revision (spec_id, revision, title, edition, definition_json, definition_hash) VALUES (?, ?, ?, ?, ?, ?)',
-        [
-          row.spec_id,
-          row.revision,
-          definition.title,
-          definition.edition,
-          row.definition_json,
-          sha256Hex(row.definition_json),
-        ],
-      );
+      await insertRevision(manager, {
+        specId: row.spec_id,
+        revision: row.revision,
+        title: definition.title,
+        edition: definition.edition,
+        definitionJson: row.definition_json,
+        definitionHash: sha256Hex(row.definition_json),
+      });
     }
-    await manager.query('UPDATE specification_draft SET status = ? WHERE id = ?', [status, row.id]);
+    await setDraftStatus(manager, row.id, status);
     await appendLedgerEvent(manager, {
       actor: { id: signerId, name: signerName, role: 'qa-approver' },
       action: status === 'approved' ? 'specification.revision-approved' : 'specification.revision-rejected',
