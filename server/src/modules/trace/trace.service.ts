@@ -4,7 +4,15 @@ import type { BackwardTrace, ForwardStart, ForwardTrace, TracedLot } from '@shar
 import { unitTotals } from '@shared/domain/trace/unit-totals';
 import { AppError } from '../../errors';
 import { descendantPieces, lotsFromPieces } from './genealogy.repository';
-import { latestVerdictSql } from '../materials/heats.repository';
+import {
+  backwardFacts,
+  consigneesByIds,
+  forwardReads,
+  lineageOf,
+  pieceIdsTagged,
+  startName,
+  type LotFactRow,
+} from './trace.repository';
 import { unitChains } from '../manufacturing/lot-units';
 import { unitsInPlant } from '@shared/domain/unit-words';
 
@@ -42,17 +50,9 @@ async function backwardSeed(
       notFound: `Lot ${start.lot}`,
     };
   if (start.tag) {
-    const pieces: Array<{ id: number }> = await manager.query('SELECT id FROM bar_piece WHERE tag = ?', [
-      start.tag.toUpperCase(),
-    ]);
+    const pieces = await pieceIdsTagged(manager, start.tag.toUpperCase());
     if (!pieces.length) throw AppError.notFound(`Bar piece ${start.tag}`);
-    const lotIds = await lotsFromPieces(
-      manager,
-      await descendantPieces(
-        manager,
-        pieces.map((piece) => piece.id),
-      ),
-    );
+    const lotIds = await lotsFromPieces(manager, await descendantPieces(manager, pieces));
     // A bar that no lot has drawn on yet traces to nothing, which is an answer, not an error.
     return {
       seed: `SELECT id FROM production_lot WHERE id IN (${marks(lotIds.length ? lotIds : [0])})`,
@@ -78,12 +78,7 @@ export async function backwardTrace(
 ): Promise<BackwardTrace> {
   const manager = dataSource.manager;
   const { seed, parameters, label, notFound } = await backwardSeed(manager, start);
-  const lineage: number[] = (
-    await manager.query(
-      `WITH RECURSIVE lineage (id) AS (${seed} UNION SELECT k.parent_lot_id FROM lot_link k JOIN lineage ON k.child_lot_id = lineage.id) SELECT id FROM lineage`,
-      parameters,
-    )
-  ).map((row: { id: number }) => row.id);
+  const lineage = await lineageOf(manager, seed, parameters);
   if (!lineage.length) {
     if (notFound) throw AppError.notFound(notFound);
     return {
@@ -97,50 +92,10 @@ export async function backwardTrace(
       signatures: [],
     };
   }
-  const lots = marks(lineage);
-  const heats = `SELECT lh.heat_id FROM lot_heat lh WHERE lh.lot_id IN (${lots})`;
-  const runs = `SELECT o.process_run_id FROM lot_operation o WHERE o.lot_id IN (${lots}) AND o.process_run_id IS NOT NULL`;
-  // Independent reads, sent side by side on separate pooled connections.
-  const [lotRows, pieces, heatRows, certificates, runRows, nonconformances, signatures] = await Promise.all([
-    manager.query(
-      `SELECT ${lotFactColumns} FROM production_lot l JOIN part p ON p.id = l.part_id WHERE l.id IN (${lots}) ORDER BY l.lot_number`,
-      lineage,
-    ) as Promise<LotFactRow[]>,
-    manager.query(
-      `WITH RECURSIVE issued (id) AS (SELECT bar_piece_id FROM material_movement WHERE kind = 'issue' AND lot_id IN (${lots})
-         UNION SELECT b.parent_id FROM bar_piece b JOIN issued ON b.id = issued.id WHERE b.parent_id IS NOT NULL)
-       SELECT b.id, b.tag, b.heat_id AS heatId, parent.tag AS parentTag FROM issued JOIN bar_piece b ON b.id = issued.id LEFT JOIN bar_piece parent ON parent.id = b.parent_id ORDER BY b.tag`,
-      lineage,
-    ) as Promise<BackwardTrace['barPieces']>,
-    manager.query(
-      `SELECT h.id, h.heat_number AS heatNumber, h.status, h.spec_id AS specId, su.id AS supplierId, su.name AS supplier, su.approval,
-              ${latestVerdictSql('h.id')} AS verdict
-         FROM heat h JOIN supplier su ON su.id = h.supplier_id WHERE h.id IN (${heats}) ORDER BY h.heat_number`,
-      lineage,
-    ) as Promise<BackwardTrace['heats']>,
-    manager.query(
-      `SELECT c.heat_id AS heatId, d.id AS documentId, d.original_name AS name, d.sha256 FROM heat_certificate c JOIN certificate_document d ON d.id = c.document_id WHERE c.heat_id IN (${heats}) ORDER BY d.id`,
-      lineage,
-    ) as Promise<BackwardTrace['certificates']>,
-    manager.query(
-      `SELECT r.id, r.run_number AS runNumber, r.kind, r.method_id AS methodId, r.in_window AS inWindow, r.run_at AS runAt FROM process_run r WHERE r.id IN (${runs}) ORDER BY r.run_at`,
-      lineage,
-    ) as Promise<
-      Array<{ id: number; runNumber: string; kind: string; methodId: string; inWindow: number; runAt: Date }>
-    >,
-    manager.query(
-      `SELECT id, nc_number AS ncNumber, subject_type AS subjectType, status, disposition FROM nonconformance
-        WHERE lot_id IN (${lots}) OR (subject_type = 'heat' AND subject_id IN (${heats})) OR (subject_type = 'process-run' AND subject_id IN (${runs})) ORDER BY nc_number`,
-      [...lineage, ...lineage, ...lineage],
-    ) as Promise<BackwardTrace['nonconformances']>,
-    // Signatures name their record by a text id.
-    manager.query(
-      `SELECT record_type AS recordType, record_id AS recordId, meaning, signed_at_text AS manifestation, content_hash AS contentHash FROM electronic_signature
-        WHERE (record_type = 'lot-release' AND record_id IN (${lots}))
-           OR (record_type = 'heat' AND record_id IN (SELECT CAST(lh.heat_id AS CHAR CHARACTER SET utf8mb4) COLLATE utf8mb4_unicode_ci FROM lot_heat lh WHERE lh.lot_id IN (${lots}))) ORDER BY id`,
-      [...lineage.map(String), ...lineage],
-    ) as Promise<BackwardTrace['signatures']>,
-  ]);
+  const [lotRows, pieces, heatRows, certificates, runRows, nonconformances, signatures] = await backwardFacts(
+    manager,
+    lineage,
+  );
   return {
     start: label,
     lots: toTracedLots(lotRows, (row) => Number(row.shipped ?? 0), await goodUnitsBeforeRelease(manager, lotRows)),
@@ -166,36 +121,9 @@ export async function forwardTrace(dataSource: DataSource, start: ForwardStart):
  */
 export async function forwardTraceIn(manager: EntityManager, start: ForwardStart): Promise<ForwardTrace> {
   const { seed, parameters, label, includesDescendants } = await seedOf(manager, start);
-  const reached = includesDescendants
-    ? `WITH reached (id) AS (${seed})`
-    : `WITH RECURSIVE reached (id) AS (${seed} UNION SELECT k.child_lot_id FROM lot_link k JOIN reached ON k.parent_lot_id = reached.id)`;
-  // The name and two reads side by side: the lots, and every shipment of them (from which both the
-  // units shipped per lot and the consignees' totals follow). Measured at a heat's 200 lots and a
-  // supplier's 25,000: cheaper than a per-lot subquery for the units shipped plus a second walk
-  // for the consignees, or than joining each consignee onto every shipment.
-  // A third read gives the units each lot passed on to lots split or merged from it (all of them in
-  // the scope: the walk goes down every link), so that the total made counts each unit once.
-  const [startLabel, lotRows, shipments, passedOnRows]: [
-    string,
-    Array<Omit<LotFactRow, 'shipped'>>,
-    Array<{ lotId: number; consigneeId: number; qty: number }>,
-    Array<{ lotId: number; qty: string }>,
-  ] = await Promise.all([
+  const [startLabel, [lotRows, shipments, passedOnRows]] = await Promise.all([
     label,
-    manager.query(
-      `${reached}
-       SELECT l.id, l.lot_number, p.part_number, l.status, l.origin, l.start_qty, l.released_qty, ${parentsColumn}
-         FROM reached r JOIN production_lot l ON l.id = r.id JOIN part p ON p.id = l.part_id ORDER BY l.lot_number`,
-      parameters,
-    ),
-    manager.query(
-      `${reached} SELECT s.lot_id AS lotId, s.consignee_id AS consigneeId, s.qty FROM reached r JOIN shipment s ON s.lot_id = r.id`,
-      parameters,
-    ),
-    manager.query(
-      `${reached} SELECT k.parent_lot_id AS lotId, SUM(k.qty) AS qty FROM reached r JOIN lot_link k ON k.parent_lot_id = r.id GROUP BY k.parent_lot_id`,
-      parameters,
-    ),
+    forwardReads(manager, seed, parameters, includesDescendants === true),
   ]);
   const passedOn = new Map(passedOnRows.map((row) => [row.lotId, Number(row.qty)]));
   const shippedByLot = new Map<number, number>();
@@ -210,12 +138,7 @@ export async function forwardTraceIn(manager: EntityManager, start: ForwardStart
   }
   const consigneeIds = [...byConsignee.keys()];
   // Sorted here: MariaDB's sort of a few hundred names by collation cost more than the lookup.
-  const consigneeRows: Array<{ id: number; name: string; kind: string; country: string }> = consigneeIds.length
-    ? await manager.query(
-        `SELECT id, name, kind, country FROM consignee WHERE id IN (${marks(consigneeIds)})`,
-        consigneeIds,
-      )
-    : [];
+  const consigneeRows = await consigneesByIds(manager, consigneeIds);
   consigneeRows.sort((a, b) => byName.compare(a.name, b.name) || a.id - b.id);
   const consignees = consigneeRows.map((row) => ({
     ...row,
@@ -242,9 +165,9 @@ async function seedOf(
 ): Promise<{ seed: string; parameters: unknown[]; label: Promise<string>; includesDescendants?: true }> {
   // The start's own name is read side by side with the trace; a start that does not exist is a 404.
   const named = async (sql: string, id: number, what: string, label: (name: string) => string) => {
-    const [row]: Array<{ name: string }> = await manager.query(sql, [id]);
-    if (!row) throw AppError.notFound(what);
-    return label(row.name);
+    const name = await startName(manager, sql, id);
+    if (name === null) throw AppError.notFound(what);
+    return label(name);
   };
   const window = start.from || start.to ? [start.from ?? '1000-01-01', start.to ?? '9999-12-31'] : null;
   const issuedFrom = (where: string) =>
@@ -319,25 +242,6 @@ async function seedOf(
   throw new AppError('VALIDATION_FAILED', 'Start from a heat, a bar piece, a run, a supplier or a part', {
     heatId: 'One of heatId, pieceId, runId, supplierId or partId',
   });
-}
-
-/** Each lot with its part, quantities made and released, units shipped and the lots it came from. */
-// Only a lot split or merged from others has parents; asking only those saves a lookup per lot.
-const parentsColumn = `CASE WHEN l.origin <> 'bar' THEN (SELECT GROUP_CONCAT(pl.lot_number ORDER BY pl.lot_number SEPARATOR ',') FROM lot_link k JOIN production_lot pl ON pl.id = k.parent_lot_id WHERE k.child_lot_id = l.id) END AS parents`;
-const lotFactColumns = `l.id, l.lot_number, p.part_number, l.status, l.origin, l.start_qty, l.released_qty,
-  (SELECT SUM(qty) FROM shipment s WHERE s.lot_id = l.id) AS shipped,
-  ${parentsColumn}`;
-
-interface LotFactRow {
-  id: number;
-  lot_number: string;
-  part_number: string;
-  status: string;
-  origin: string;
-  start_qty: number | null;
-  released_qty: number;
-  shipped: string | null;
-  parents: string | null;
 }
 
 /** The lots as traced; `shippedOf` gives each lot's units shipped (read with it, or summed from its shipments). */
