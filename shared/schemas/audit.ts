@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { pageOf } from './page';
 
 export const ledgerEventSchema = z.object({
   seq: z.number().int(),
@@ -31,12 +32,7 @@ export const ledgerQuerySchema = z.object({
 });
 export type LedgerQuery = z.infer<typeof ledgerQuerySchema>;
 
-export const ledgerPageSchema = z.object({
-  items: z.array(ledgerEventSchema),
-  total: z.number().int(),
-  page: z.number().int(),
-  pageSize: z.number().int(),
-});
+export const ledgerPageSchema = pageOf(ledgerEventSchema);
 export type LedgerPage = z.infer<typeof ledgerPageSchema>;
 
 export const verificationSchema = z.object({

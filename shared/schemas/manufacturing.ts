@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { pageOf } from './page';
 import { gtinProblem } from '../domain/gs1/gtin';
 import { checkedString } from './checked-string';
 import { lotPatternProblem } from '../domain/manufacturing/lot-number';
@@ -163,12 +164,7 @@ export const lotSummarySchema = z.object({
   openedBy: z.string(),
 });
 export type LotSummary = z.infer<typeof lotSummarySchema>;
-export const lotPageSchema = z.object({
-  items: z.array(lotSummarySchema),
-  total: z.number().int(),
-  page: z.number().int(),
-  pageSize: z.number().int(),
-});
+export const lotPageSchema = pageOf(lotSummarySchema);
 
 export const materialMovementSchema = z.object({
   tag: z.string().trim().toUpperCase().min(3, 'Scan or type the bar tag').max(40),

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { pageOf } from './page';
 import { heatScreeningSchema } from './screening';
 import { heatCheckAnalysisSchema } from './check-analysis';
 import { checkedString } from './checked-string';
@@ -96,12 +97,7 @@ export const heatListQuerySchema = z.object({
   pageSize: z.coerce.number().int().min(1).max(100).default(20),
 });
 export type HeatListQuery = z.infer<typeof heatListQuerySchema>;
-export const heatPageSchema = z.object({
-  items: z.array(heatSummarySchema),
-  total: z.number().int(),
-  page: z.number().int(),
-  pageSize: z.number().int(),
-});
+export const heatPageSchema = pageOf(heatSummarySchema);
 
 const reported = z.union([z.string().trim().min(1).max(40), z.number().finite()]);
 export const heatResultsSchema = z.object({
@@ -205,12 +201,7 @@ export const barListQuerySchema = z.object({
   pageSize: z.coerce.number().int().min(1).max(100).default(20),
 });
 export type BarListQuery = z.infer<typeof barListQuerySchema>;
-export const barPageSchema = z.object({
-  items: z.array(barPieceSchema),
-  total: z.number().int(),
-  page: z.number().int(),
-  pageSize: z.number().int(),
-});
+export const barPageSchema = pageOf(barPieceSchema);
 export const barPieceParamsSchema = z.object({ pieceId: z.coerce.number().int().positive() });
 
 export const trendQuerySchema = z.object({

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { pageOf } from './page';
 import { roleSchema } from '../auth/roles';
 import { actions } from '../auth/permissions';
 
@@ -30,12 +31,7 @@ export const peopleQuerySchema = z.object({
 });
 export type PeopleQuery = z.infer<typeof peopleQuerySchema>;
 
-export const peoplePageSchema = z.object({
-  items: z.array(personSchema),
-  total: z.number().int(),
-  page: z.number().int(),
-  pageSize: z.number().int(),
-});
+export const peoplePageSchema = pageOf(personSchema);
 export type PeoplePage = z.infer<typeof peoplePageSchema>;
 
 export const reasonSchema = z

@@ -1,4 +1,7 @@
 import { z } from 'zod';
+import { pageOf } from './page';
+import type { Readiness } from '../domain/release/readiness';
+import { lotStatuses } from './manufacturing';
 
 export const labelMovementSchema = z
   .object({
@@ -36,11 +39,7 @@ export const releaseQueueItemSchema = z.object({
   reviewedAt: z.string().nullable(),
 });
 export type ReleaseQueueItem = z.infer<typeof releaseQueueItemSchema>;
-export const releaseQueuePageSchema = z.object({
-  items: z.array(releaseQueueItemSchema),
-  total: z.number(),
-  page: z.number(),
-  pageSize: z.number(),
+export const releaseQueuePageSchema = pageOf(releaseQueueItemSchema).extend({
   /** How many lots wait in each queue, for the tabs. */
   counts: z.object({ review: z.number(), approval: z.number(), returned: z.number(), released: z.number() }),
 });
@@ -54,20 +53,75 @@ export const labelSheetQuerySchema = z.object({
 export type LabelSheetQuery = z.infer<typeof labelSheetQuerySchema>;
 
 /** A ledger event on a lot (or a lot its units came through), as the release review shows it. */
-export interface TrailEvent {
-  seq: number;
-  occurredAt: string;
-  actor: string;
-  action: string;
-  lot: string;
-  reason: string | null;
-}
+export const trailEventSchema = z.object({
+  seq: z.number(),
+  occurredAt: z.string(),
+  actor: z.string(),
+  action: z.string(),
+  lot: z.string(),
+  reason: z.string().nullable(),
+});
+export type TrailEvent = z.infer<typeof trailEventSchema>;
 
 /** A lot's audit trail since it was opened, and how far the latest release review covered it. */
-export interface AuditTrail {
-  events: TrailEvent[];
+export const auditTrailSchema = z.object({
+  events: z.array(trailEventSchema),
   /** The last event the latest review covered, or null before any review. */
-  reviewedThroughSeq: number | null;
+  reviewedThroughSeq: z.number().nullable(),
   /** Events after that review (which void it). */
-  afterReview: TrailEvent[];
-}
+  afterReview: z.array(trailEventSchema),
+});
+export type AuditTrail = z.infer<typeof auditTrailSchema>;
+
+const readinessSchema = z.object({
+  ready: z.boolean(),
+  items: z.array(
+    z.object({
+      key: z.enum([
+        'heats',
+        'routing',
+        'runs',
+        'inspections',
+        'units',
+        'material',
+        'held-material',
+        'nonconformances',
+        'holds',
+        'labels',
+      ]),
+      title: z.string(),
+      verdict: z.enum(['pass', 'fail']),
+      why: z.string(),
+      link: z.string().nullable(),
+    }),
+  ),
+}) satisfies z.ZodType<Readiness>;
+
+/** A lot's readiness checklist, its release content (what the signatures cover) and where it stands. */
+export const releaseViewSchema = z.object({
+  lotId: z.number(),
+  lotNumber: z.string(),
+  status: z.enum(lotStatuses),
+  readiness: readinessSchema,
+  dossier: z.record(z.string(), z.unknown()),
+  dossierHash: z.string(),
+  submissions: z.array(
+    z.object({
+      id: z.number(),
+      submittedAt: z.string(),
+      submittedBy: z.string(),
+      outcome: z.enum(['pending', 'released', 'returned']),
+      changedSinceSubmission: z.boolean(),
+    }),
+  ),
+  reviewedCurrent: z.boolean(),
+  auditTrail: auditTrailSchema,
+});
+export type ReleaseView = z.infer<typeof releaseViewSchema>;
+
+export const releaseSubmittedSchema = z.object({
+  lotId: z.number(),
+  status: z.literal('submitted'),
+  dossierHash: z.string(),
+});
+export const labelsCountedSchema = z.object({ netLabels: z.number() });

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { lotNumberProblem } from '../domain/gs1/gtin';
 import { checkedString } from './checked-string';
+import type { GraphEdge, GraphNode } from '../domain/trace/genealogy-graph';
 
 const id = z.coerce.number().int().positive().max(4_294_967_295);
 const day = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'A date as YYYY-MM-DD');
@@ -57,55 +58,111 @@ export const forwardQuerySchema = z
   );
 export type ForwardStart = z.infer<typeof forwardQuerySchema>;
 
-export interface TracedLot {
-  id: number;
-  lotNumber: string;
-  partNumber: string;
-  status: string;
-  origin: string;
-  parents: string[];
-  made: number | null;
-  released: number;
-  shipped: number;
+export const tracedLotSchema = z.object({
+  id: z.number(),
+  lotNumber: z.string(),
+  partNumber: z.string(),
+  status: z.string(),
+  origin: z.string(),
+  parents: z.array(z.string()),
+  made: z.number().nullable(),
+  released: z.number(),
+  shipped: z.number(),
   /** Released units not shipped: what is still on the shelf. */
-  onHand: number;
-}
+  onHand: z.number(),
+});
+export type TracedLot = z.infer<typeof tracedLotSchema>;
 
-export interface BackwardTrace {
-  start: string;
-  lots: TracedLot[];
-  barPieces: Array<{ id: number; tag: string; heatId: number; parentTag: string | null }>;
-  heats: Array<{
-    id: number;
-    heatNumber: string;
-    status: string;
-    specId: string;
-    supplierId: number;
-    supplier: string;
-    approval: string;
-    verdict: string | null;
-  }>;
-  certificates: Array<{ heatId: number; documentId: number; name: string; sha256: string }>;
-  runs: Array<{ id: number; runNumber: string; kind: string; methodId: string; inWindow: boolean; runAt: string }>;
-  nonconformances: Array<{
-    id: number;
-    ncNumber: string;
-    subjectType: string;
-    status: string;
-    disposition: string | null;
-  }>;
-  signatures: Array<{
-    recordType: string;
-    recordId: string;
-    meaning: string;
-    manifestation: string;
-    contentHash: string;
-  }>;
-}
+export const backwardTraceSchema = z.object({
+  start: z.string(),
+  lots: z.array(tracedLotSchema),
+  barPieces: z.array(
+    z.object({ id: z.number(), tag: z.string(), heatId: z.number(), parentTag: z.string().nullable() }),
+  ),
+  heats: z.array(
+    z.object({
+      id: z.number(),
+      heatNumber: z.string(),
+      status: z.string(),
+      specId: z.string(),
+      supplierId: z.number(),
+      supplier: z.string(),
+      approval: z.string(),
+      verdict: z.string().nullable(),
+    }),
+  ),
+  certificates: z.array(z.object({ heatId: z.number(), documentId: z.number(), name: z.string(), sha256: z.string() })),
+  runs: z.array(
+    z.object({
+      id: z.number(),
+      runNumber: z.string(),
+      kind: z.string(),
+      methodId: z.string(),
+      inWindow: z.boolean(),
+      runAt: z.string(),
+    }),
+  ),
+  nonconformances: z.array(
+    z.object({
+      id: z.number(),
+      ncNumber: z.string(),
+      subjectType: z.string(),
+      status: z.string(),
+      disposition: z.string().nullable(),
+    }),
+  ),
+  signatures: z.array(
+    z.object({
+      recordType: z.string(),
+      recordId: z.string(),
+      meaning: z.string(),
+      manifestation: z.string(),
+      contentHash: z.string(),
+    }),
+  ),
+});
+export type BackwardTrace = z.infer<typeof backwardTraceSchema>;
 
-export interface ForwardTrace {
-  start: string;
-  lots: TracedLot[];
-  totals: { made: number; released: number; shipped: number; onHand: number };
-  consignees: Array<{ id: number; name: string; kind: string; country: string; units: number; lots: number }>;
-}
+export const traceConsigneeSchema = z.object({
+  id: z.number(),
+  name: z.string(),
+  kind: z.string(),
+  country: z.string(),
+  units: z.number(),
+  lots: z.number(),
+});
+
+export const forwardTraceSchema = z.object({
+  start: z.string(),
+  lots: z.array(tracedLotSchema),
+  totals: z.object({ made: z.number(), released: z.number(), shipped: z.number(), onHand: z.number() }),
+  consignees: z.array(traceConsigneeSchema),
+});
+export type ForwardTrace = z.infer<typeof forwardTraceSchema>;
+
+const graphNodeSchema = z.object({
+  id: z.string(),
+  kind: z.enum(['supplier', 'heat', 'piece', 'lot', 'run', 'consignee']),
+  label: z.string(),
+  detail: z.string(),
+  link: z.string().nullable(),
+  flagged: z.boolean(),
+}) satisfies z.ZodType<GraphNode>;
+
+const graphEdgeSchema = z.object({
+  id: z.string(),
+  from: z.string(),
+  to: z.string(),
+  kind: z.enum(['melted', 'cut', 'issued', 'split', 'merged', 'ran', 'shipped']),
+  label: z.string(),
+}) satisfies z.ZodType<GraphEdge>;
+
+/** A trace drawn as a graph; beyond the drawing's limit, only the count of lots. */
+export const graphReplySchema = z.object({
+  start: z.string(),
+  lots: z.number(),
+  tooLarge: z.boolean(),
+  nodes: z.array(graphNodeSchema),
+  edges: z.array(graphEdgeSchema),
+});
+export type GraphReply = z.infer<typeof graphReplySchema>;

@@ -1,7 +1,23 @@
 import { keepPreviousData, queryOptions } from '@tanstack/vue-query';
 import { z } from 'zod';
 import { processMethodViewSchema, type MethodValidationInput } from '@shared/schemas/process-methods';
-import type { LotDetail, NonconformanceSummary, ProcessRunDetail, ProcessRunSummary } from '@shared/schemas/lot-detail';
+import {
+  lotDetailSchema,
+  nonconformanceSummarySchema,
+  processRunDetailSchema,
+  processRunSummarySchema,
+} from '@shared/schemas/lot-detail';
+import {
+  consigneeSchema,
+  lotSplitSchema,
+  lotsMergedSchema,
+  materialIssuedSchema,
+  materialReturnedSchema,
+  operationFileAttachedSchema,
+  operationRecordedSchema,
+  shipmentRecordedSchema,
+} from '@shared/schemas/manufacturing-replies';
+import { pageOf } from '@shared/schemas/page';
 import {
   lotPageSchema,
   lotSummarySchema,
@@ -21,10 +37,7 @@ import {
   type ShipmentInput,
   type SplitInput,
 } from '@shared/schemas/manufacturing';
-import { apiRequest, apiUpload, typed } from './http';
-
-const page = <T>() =>
-  z.object({ items: z.array(typed<T>()), total: z.number(), page: z.number(), pageSize: z.number() });
+import { apiRequest, apiUpload } from './http';
 
 export const manufacturingKeys = {
   all: ['manufacturing'] as const,
@@ -60,18 +73,19 @@ export const lotsQuery = (query: LotListQuery) =>
 export const lotQuery = (id: number) =>
   queryOptions({
     queryKey: manufacturingKeys.lot(id),
-    queryFn: ({ signal }) => apiRequest(`/lots/${id}`, typed<LotDetail>(), { signal }),
+    queryFn: ({ signal }) => apiRequest(`/lots/${id}`, lotDetailSchema, { signal }),
   });
 export const processRunsQuery = (query: ProcessRunListQuery) =>
   queryOptions({
     queryKey: manufacturingKeys.runs(query),
-    queryFn: ({ signal }) => apiRequest(`/process-runs?${search({ ...query })}`, page<ProcessRunSummary>(), { signal }),
+    queryFn: ({ signal }) =>
+      apiRequest(`/process-runs?${search({ ...query })}`, pageOf(processRunSummarySchema), { signal }),
     placeholderData: keepPreviousData,
   });
 export const processRunQuery = (id: number) =>
   queryOptions({
     queryKey: manufacturingKeys.run(id),
-    queryFn: ({ signal }) => apiRequest(`/process-runs/${id}`, typed<ProcessRunDetail>(), { signal }),
+    queryFn: ({ signal }) => apiRequest(`/process-runs/${id}`, processRunDetailSchema, { signal }),
   });
 export const processMethodsQuery = () =>
   queryOptions({
@@ -82,23 +96,18 @@ export const nonconformancesQuery = (query: NonconformanceListQuery) =>
   queryOptions({
     queryKey: manufacturingKeys.nonconformances(query),
     queryFn: ({ signal }) =>
-      apiRequest(`/nonconformances?${search({ ...query })}`, page<NonconformanceSummary>(), { signal }),
+      apiRequest(`/nonconformances?${search({ ...query })}`, pageOf(nonconformanceSummarySchema), { signal }),
     placeholderData: keepPreviousData,
   });
 export const nonconformanceQuery = (id: number) =>
   queryOptions({
     queryKey: manufacturingKeys.nonconformance(id),
-    queryFn: ({ signal }) => apiRequest(`/nonconformances/${id}`, typed<NonconformanceSummary>(), { signal }),
+    queryFn: ({ signal }) => apiRequest(`/nonconformances/${id}`, nonconformanceSummarySchema, { signal }),
   });
 export const consigneesQuery = () =>
   queryOptions({
     queryKey: manufacturingKeys.consignees(),
-    queryFn: ({ signal }) =>
-      apiRequest(
-        '/consignees',
-        z.array(typed<{ id: number; name: string; kind: string; country: string; shipments: number }>()),
-        { signal },
-      ),
+    queryFn: ({ signal }) => apiRequest('/consignees', z.array(consigneeSchema), { signal }),
   });
 
 export const recordMethodValidation = (methodId: string, input: MethodValidationInput) =>
@@ -109,41 +118,36 @@ export const recordMethodValidation = (methodId: string, input: MethodValidation
 export const createPart = (part: PartCreate) => apiRequest('/parts', partSchema, { method: 'POST', body: part });
 export const openLot = (lot: LotOpen) => apiRequest('/lots', lotSummarySchema, { method: 'POST', body: lot });
 export const issueMaterial = (lotId: number, movement: MaterialMovementInput) =>
-  apiRequest(`/lots/${lotId}/material-issues`, typed<{ tag: string; heatNumber: string }>(), {
+  apiRequest(`/lots/${lotId}/material-issues`, materialIssuedSchema, {
     method: 'POST',
     body: movement,
   });
 export const returnMaterial = (lotId: number, movement: MaterialMovementInput) =>
-  apiRequest(`/lots/${lotId}/material-returns`, typed<{ tag: string }>(), { method: 'POST', body: movement });
+  apiRequest(`/lots/${lotId}/material-returns`, materialReturnedSchema, { method: 'POST', body: movement });
 export const recordOperation = (lotId: number, operation: OperationInput) =>
-  apiRequest(`/lots/${lotId}/operations`, typed<{ id: number; verdict: string | null; why: string | null }>(), {
+  apiRequest(`/lots/${lotId}/operations`, operationRecordedSchema, {
     method: 'POST',
     body: operation,
   });
 export const splitLot = (lotId: number, split: SplitInput) =>
-  apiRequest(`/lots/${lotId}/splits`, typed<{ children: Array<{ id: number; lotNumber: string; qty: number }> }>(), {
+  apiRequest(`/lots/${lotId}/splits`, lotSplitSchema, {
     method: 'POST',
     body: split,
   });
 export const mergeLots = (merge: MergeInput) =>
-  apiRequest('/lots/merges', typed<{ id: number; lotNumber: string }>(), { method: 'POST', body: merge });
+  apiRequest('/lots/merges', lotsMergedSchema, { method: 'POST', body: merge });
 export const shipLot = (lotId: number, shipment: ShipmentInput) =>
-  apiRequest(`/lots/${lotId}/shipments`, typed<{ id: number }>(), { method: 'POST', body: shipment });
+  apiRequest(`/lots/${lotId}/shipments`, shipmentRecordedSchema, { method: 'POST', body: shipment });
 export const recordProcessRun = (run: ProcessRunInput) =>
-  apiRequest('/process-runs', typed<ProcessRunDetail>(), { method: 'POST', body: run });
+  apiRequest('/process-runs', processRunDetailSchema, { method: 'POST', body: run });
 export const raiseNonconformance = (nc: NonconformanceInput) =>
-  apiRequest('/nonconformances', typed<NonconformanceSummary>(), { method: 'POST', body: nc });
+  apiRequest('/nonconformances', nonconformanceSummarySchema, { method: 'POST', body: nc });
 export const proposeDisposition = (id: number, disposition: DispositionInput) =>
-  apiRequest(`/nonconformances/${id}/disposition`, typed<NonconformanceSummary>(), {
+  apiRequest(`/nonconformances/${id}/disposition`, nonconformanceSummarySchema, {
     method: 'PUT',
     body: disposition,
   });
 export const createConsignee = (consignee: ConsigneeInput) =>
-  apiRequest('/consignees', typed<{ id: number }>(), { method: 'POST', body: consignee });
+  apiRequest('/consignees', consigneeSchema, { method: 'POST', body: consignee });
 export const attachOperationFile = (lotId: number, operationId: number, file: File) =>
-  apiUpload(
-    `/lots/${lotId}/operations/${operationId}/files`,
-    'file',
-    file,
-    typed<{ documentId: number; name: string; sha256: string }>(),
-  );
+  apiUpload(`/lots/${lotId}/operations/${operationId}/files`, 'file', file, operationFileAttachedSchema);

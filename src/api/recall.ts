@@ -1,14 +1,13 @@
 import { keepPreviousData, queryOptions } from '@tanstack/vue-query';
-import { z } from 'zod';
-import type {
-  DrillReport,
-  OpenRecallInput,
-  RecallDetail,
-  RecallListQuery,
-  RecallRerun,
-  RecallSummary,
+import {
+  drillReportSchema,
+  recallDetailSchema,
+  recallPageSchema,
+  recallRerunSchema,
+  type OpenRecallInput,
+  type RecallListQuery,
 } from '@shared/schemas/recall';
-import { apiRequest, typed } from './http';
+import { apiRequest } from './http';
 
 export const recallKeys = {
   all: ['recalls'] as const,
@@ -27,7 +26,7 @@ export const recallListQuery = (query: RecallListQuery) =>
             .filter(([, value]) => value !== undefined)
             .map(([key, value]) => [key, String(value)]),
         )}`,
-        z.object({ items: z.array(typed<RecallSummary>()), total: z.number(), page: z.number(), pageSize: z.number() }),
+        recallPageSchema,
         { signal },
       ),
     placeholderData: keepPreviousData,
@@ -36,13 +35,13 @@ export const recallListQuery = (query: RecallListQuery) =>
 export const recallQuery = (id: number) =>
   queryOptions({
     queryKey: recallKeys.one(id),
-    queryFn: ({ signal }) => apiRequest(`/recalls/${id}`, typed<RecallDetail>(), { signal }),
+    queryFn: ({ signal }) => apiRequest(`/recalls/${id}`, recallDetailSchema, { signal }),
   });
 
 export const openRecall = (input: OpenRecallInput) =>
-  apiRequest('/recalls', typed<RecallDetail>(), { method: 'POST', body: input });
+  apiRequest('/recalls', recallDetailSchema, { method: 'POST', body: input });
 export const rerunRecall = (id: number) =>
-  apiRequest(`/recalls/${id}/reruns`, typed<RecallRerun>(), { method: 'POST', body: {} });
+  apiRequest(`/recalls/${id}/reruns`, recallRerunSchema, { method: 'POST', body: {} });
 
 /** Where the browser downloads an export of a snapshot (the server records each export in the ledger). */
 export const recallExportUrl = (id: number, format: 'csv' | 'pdf', snapshotId?: number) =>
@@ -51,6 +50,6 @@ export const recallExportUrl = (id: number, format: 'csv' | 'pdf', snapshotId?: 
 export const drillReportQuery = (id: number) =>
   queryOptions({
     queryKey: recallKeys.drillReport(id),
-    queryFn: ({ signal }) => apiRequest(`/recalls/${id}/drill-report`, typed<DrillReport>(), { signal }),
+    queryFn: ({ signal }) => apiRequest(`/recalls/${id}/drill-report`, drillReportSchema, { signal }),
   });
 export const drillReportUrl = (id: number, format: 'csv' | 'pdf') => `/api/recalls/${id}/drill-report?format=${format}`;

@@ -1,30 +1,15 @@
 import { keepPreviousData, queryOptions } from '@tanstack/vue-query';
-import type { Readiness } from '@shared/domain/release/readiness';
 import {
+  labelsCountedSchema,
   releaseQueuePageSchema,
-  type AuditTrail,
+  releaseSubmittedSchema,
+  releaseViewSchema,
   type LabelMovement,
   type ReleaseQueueQuery,
 } from '@shared/schemas/release';
-import { apiRequest, typed } from './http';
+import { apiRequest } from './http';
 
-export interface ReleaseView {
-  lotId: number;
-  lotNumber: string;
-  status: string;
-  readiness: Readiness;
-  dossier: Record<string, unknown>;
-  dossierHash: string;
-  submissions: Array<{
-    id: number;
-    submittedAt: string;
-    submittedBy: string;
-    outcome: string;
-    changedSinceSubmission: boolean;
-  }>;
-  reviewedCurrent: boolean;
-  auditTrail: AuditTrail;
-}
+export type { ReleaseView } from '@shared/schemas/release';
 
 export const releaseKeys = {
   all: ['release'] as const,
@@ -35,7 +20,7 @@ export const releaseKeys = {
 export const releaseViewQuery = (lotId: number) =>
   queryOptions({
     queryKey: releaseKeys.lot(lotId),
-    queryFn: ({ signal }) => apiRequest(`/lots/${lotId}/release`, typed<ReleaseView>(), { signal }),
+    queryFn: ({ signal }) => apiRequest(`/lots/${lotId}/release`, releaseViewSchema, { signal }),
   });
 export const releaseQueueQuery = (query: ReleaseQueueQuery) =>
   queryOptions({
@@ -49,6 +34,6 @@ export const releaseQueueQuery = (query: ReleaseQueueQuery) =>
     placeholderData: keepPreviousData,
   });
 export const submitForRelease = (lotId: number) =>
-  apiRequest(`/lots/${lotId}/release-submissions`, typed<{ status: string }>(), { method: 'POST', body: {} });
+  apiRequest(`/lots/${lotId}/release-submissions`, releaseSubmittedSchema, { method: 'POST', body: {} });
 export const recordLabels = (lotId: number, movement: LabelMovement) =>
-  apiRequest(`/lots/${lotId}/labels`, typed<{ netLabels: number }>(), { method: 'POST', body: movement });
+  apiRequest(`/lots/${lotId}/labels`, labelsCountedSchema, { method: 'POST', body: movement });

@@ -1,13 +1,12 @@
 import { queryOptions } from '@tanstack/vue-query';
-import type { GenealogyGraph } from '@shared/domain/trace/genealogy-graph';
-import { traceStartsSchema, type BackwardTrace, type ForwardTrace } from '@shared/schemas/trace';
-import { apiRequest, typed } from './http';
+import { backwardTraceSchema, forwardTraceSchema, graphReplySchema, traceStartsSchema } from '@shared/schemas/trace';
+import { apiRequest } from './http';
 
 export const backwardTraceQuery = (start: { udi?: string; lot?: string; tag?: string } | null) =>
   queryOptions({
     queryKey: ['trace', 'backward', start] as const,
     queryFn: ({ signal }) =>
-      apiRequest(`/trace/backward?${new URLSearchParams(start as Record<string, string>)}`, typed<BackwardTrace>(), {
+      apiRequest(`/trace/backward?${new URLSearchParams(start as Record<string, string>)}`, backwardTraceSchema, {
         signal,
       }),
     enabled: Boolean(start),
@@ -18,7 +17,7 @@ export const forwardTraceQuery = (start: Record<string, string> | null) =>
   queryOptions({
     queryKey: ['trace', 'forward', start] as const,
     queryFn: ({ signal }) =>
-      apiRequest(`/trace/forward?${new URLSearchParams(start ?? {})}`, typed<ForwardTrace>(), { signal }),
+      apiRequest(`/trace/forward?${new URLSearchParams(start ?? {})}`, forwardTraceSchema, { signal }),
     enabled: Boolean(start),
     retry: false,
   });
@@ -33,14 +32,14 @@ export const traceStartsQuery = (text: string) =>
     staleTime: 30_000,
   });
 
-export type GraphReply = GenealogyGraph & { start: string; lots: number; tooLarge: boolean };
+export type { GraphReply } from '@shared/schemas/trace';
 
 /** The same trace drawn as a graph (asked for only when the graph view is open). */
 export const traceGraphQuery = (direction: 'backward' | 'forward', start: Record<string, string> | null) =>
   queryOptions({
     queryKey: ['trace', direction, 'graph', start] as const,
     queryFn: ({ signal }) =>
-      apiRequest(`/trace/${direction}/graph?${new URLSearchParams(start ?? {})}`, typed<GraphReply>(), { signal }),
+      apiRequest(`/trace/${direction}/graph?${new URLSearchParams(start ?? {})}`, graphReplySchema, { signal }),
     enabled: Boolean(start),
     retry: false,
   });

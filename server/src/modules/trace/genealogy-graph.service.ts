@@ -1,17 +1,11 @@
 import type { DataSource, EntityManager } from 'typeorm';
-import { genealogyGraph, type GenealogyGraph } from '@shared/domain/trace/genealogy-graph';
-import type { BackwardQuery, ForwardStart } from '@shared/schemas/trace';
+import { genealogyGraph } from '@shared/domain/trace/genealogy-graph';
+import type { BackwardQuery, ForwardStart, GraphReply } from '@shared/schemas/trace';
 import { relationsOfLots } from './genealogy-graph.repository';
 import { backwardTrace, forwardTraceIn } from './trace.service';
 
 /** Beyond this many lots a drawing stops helping; the table view shows the same data. */
 export const GRAPH_LOT_LIMIT = 400;
-
-export interface GraphReply extends GenealogyGraph {
-  start: string;
-  lots: number;
-  tooLarge: boolean;
-}
 
 async function graphOf(manager: EntityManager, start: string, lotIds: number[]): Promise<GraphReply> {
   if (lotIds.length > GRAPH_LOT_LIMIT) return { start, lots: lotIds.length, tooLarge: true, nodes: [], edges: [] };
