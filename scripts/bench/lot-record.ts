@@ -2,6 +2,8 @@
 // page, on the demo scenario in a scratch database on the test profile's MariaDB, including a lot
 // with 200 material records. Prints a table and, last, one JSON line.
 import { loadConfig, loadDotEnv, testProfileEnvironment } from '../../server/src/config/env';
+import { lotOpenSchema, materialMovementSchema } from '../../shared/schemas/manufacturing';
+import { barReceiptSchema } from '../../shared/schemas/materials';
 import { createDataSource } from '../../server/src/db/connection-options';
 import { findPersonBySubject } from '../../server/src/modules/people/people.repository';
 import { issueMaterial, listLots, openLot, returnMaterial } from '../../server/src/modules/manufacturing/lots.service';
@@ -55,23 +57,37 @@ async function main(): Promise<void> {
     );
     await receiveBar(
       dataSource,
-      {
+      barReceiptSchema.parse({
         heatId,
         markedHeatNumber: heatNumber,
         tag: 'BENCH-BAR-1',
         diameterMm: '25.4',
         lengthMm: '3000',
         location: 'bench',
-      },
+      }),
       engineer,
       actor,
       origin,
     );
-    const big = await openLot(dataSource, { partId, plannedQty: 40 }, engineer, actor, origin);
+    const big = await openLot(dataSource, lotOpenSchema.parse({ partId, plannedQty: 40 }), engineer, actor, origin);
     log('recording 200 material movements on one lot…');
     for (let index = 0; index < 100; index++) {
-      await issueMaterial(dataSource, big.id, { tag: 'BENCH-BAR-1', lengthMm: '20' }, engineer, actor, origin);
-      await returnMaterial(dataSource, big.id, { tag: 'BENCH-BAR-1', lengthMm: '1.5' }, engineer, actor, origin);
+      await issueMaterial(
+        dataSource,
+        big.id,
+        materialMovementSchema.parse({ tag: 'BENCH-BAR-1', lengthMm: '20' }),
+        engineer,
+        actor,
+        origin,
+      );
+      await returnMaterial(
+        dataSource,
+        big.id,
+        materialMovementSchema.parse({ tag: 'BENCH-BAR-1', lengthMm: '1.5' }),
+        engineer,
+        actor,
+        origin,
+      );
     }
     const [{ id: typical }] = await dataSource.query(
       'SELECT o.lot_id AS id FROM lot_operation o GROUP BY o.lot_id HAVING COUNT(*) = 6 ORDER BY o.lot_id LIMIT 1',

@@ -1,4 +1,5 @@
 import type { DataSource } from 'typeorm';
+import { checkAnalysisInputSchema, checkRuleInputSchema } from '../../shared/schemas/check-analysis';
 import type { Person } from '@shared/schemas/people';
 import {
   heatsAwaitingCheck,
@@ -23,26 +24,26 @@ export async function seedDemoCheckAnalysis(
   const approverActor = { id: approver.id, name: approver.name, role: 'qa-approver' };
   await setCheckRule(
     dataSource,
-    {
+    checkRuleInputSchema.parse({
       supplierId: null,
       specId: null,
       everyNthHeat: null,
       everyHeatWhenConditional: true,
       reason: 'Supplier control procedure: every heat from a conditionally approved mill gets our own check analysis',
-    },
+    }),
     approver,
     approverActor,
     origin,
   );
   await setCheckRule(
     dataSource,
-    {
+    checkRuleInputSchema.parse({
       supplierId: suppliers.castellane,
       specId: 'ASTM F136',
       everyNthHeat: 3,
       everyHeatWhenConditional: true,
       reason: 'Tightened after two certificates with identical results (CS-7790, CS-7802)',
-    },
+    }),
     approver,
     approverActor,
     origin,
@@ -54,11 +55,11 @@ export async function seedDemoCheckAnalysis(
   await recordCheckAnalysis(
     dataSource,
     first.heatId,
-    {
+    checkAnalysisInputSchema.parse({
       laboratory: 'Tarnbridge materials laboratory',
       reportReference: `TML-${first.heatNumber}`,
       chemistry: { Al: '6.02', V: '4.05', Fe: '0.21', O: '0.14', N: '0.012', H: '52 ppm' },
-    },
+    }),
     engineer,
     { id: engineer.id, name: engineer.name, role: 'manufacturing-engineer' },
     origin,

@@ -1,4 +1,5 @@
 import type { DataSource } from 'typeorm';
+import { openRecallInputSchema } from '../../shared/schemas/recall';
 import { findPersonBySubject } from '../../server/src/modules/people/people.repository';
 import { openRecall } from '../../server/src/modules/recall/recall.service';
 import { signAsDemoPerson } from './demo-signature';
@@ -17,11 +18,11 @@ export async function seedDemoDrill(dataSource: DataSource): Promise<void> {
   if (!heat) return;
   const drill = await openRecall(
     dataSource,
-    {
+    openRecallInputSchema.parse({
       trigger: { heatId: heat.heat_id },
       mode: 'drill',
       reason: 'Half-yearly recall rehearsal: one heat to every consignee, timed',
-    },
+    }),
     coordinator,
     { id: coordinator.id, name: coordinator.name, role: 'recall-coordinator' },
     { requestId: 'demo-seed', clientAddress: null },

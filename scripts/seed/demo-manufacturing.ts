@@ -1,4 +1,16 @@
 import type { DataSource } from 'typeorm';
+import { methodValidationInputSchema } from '../../shared/schemas/process-methods';
+import {
+  consigneeInputSchema,
+  dispositionInputSchema,
+  lotOpenSchema,
+  materialMovementSchema,
+  nonconformanceInputSchema,
+  operationInputSchema,
+  partCreateSchema,
+  processRunInputSchema,
+  splitInputSchema,
+} from '../../shared/schemas/manufacturing';
 import type { Person } from '@shared/schemas/people';
 import type { Part, PartCreate } from '@shared/schemas/manufacturing';
 import { findPersonBySubject } from '../../server/src/modules/people/people.repository';
@@ -174,17 +186,17 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
   const between = (low: number, high: number) => low + Math.floor(random() * (high - low + 1));
 
   for (const consignee of demoConsignees)
-    await createConsignee(dataSource, { ...consignee, contactEmail: null }, actor, origin);
+    await createConsignee(dataSource, consigneeInputSchema.parse({ ...consignee, contactEmail: null }), actor, origin);
   // The firm's own validation of the citric method for titanium alloy parts: shown as the firm's own beside the method's stainless-steel scope.
   await recordMethodValidation(
     dataSource,
     'A967-CITRIC',
-    {
+    methodValidationInputSchema.parse({
       materialFamily: 'titanium-alloy',
       reference: 'VR-2025-031 (demo)',
       reason:
         'Three worst-case lots of F136 parts passed water immersion and iron contamination checks after citric treatment (demo scenario)',
-    },
+    }),
     approver,
     { id: approver.id, name: approver.name, role: 'qa-approver' },
     origin,
@@ -192,7 +204,7 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
   const parts: Array<{ part: Part; demo: (typeof demoParts)[number] }> = [];
   for (const demo of demoParts) {
     const { units: _units, weight: _weight, ...create } = demo;
-    parts.push({ part: await createPart(dataSource, create, engineer, actor, origin), demo });
+    parts.push({ part: await createPart(dataSource, partCreateSchema.parse(create), engineer, actor, origin), demo });
   }
   const bars: Bar[] = await dataSource.query(
     `SELECT b.tag, h.spec_id AS specId, h.grade, b.length_mm + 0 AS remaining FROM bar_piece b JOIN heat h ON h.id = b.heat_id
@@ -242,7 +254,7 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
       const hot = methodId === 'A967-NITRIC-3';
       const run = await recordProcessRun(
         dataSource,
-        {
+        processRunInputSchema.parse({
           kind: 'passivation',
           methodId,
           equipment: hot ? 'Passivation tank P2' : 'Passivation tank P1',
@@ -256,7 +268,7 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
             rinseConductivity: (1 + random() * 2).toFixed(1),
           },
           lotIds: lots.map((lot) => lot.id),
-        },
+        }),
         engineer,
         actor,
         origin,
@@ -266,10 +278,10 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
           await proposeDisposition(
             dataSource,
             nc.id,
-            {
+            dispositionInputSchema.parse({
               disposition: 'use-as-is',
               note: 'Bath 2.5 °C over for the last 10 minutes; passivation verification (water immersion) passed on samples from every lot',
-            },
+            }),
             { id: approver.id, name: approver.name, role: 'qa-approver' },
             origin,
           );
@@ -289,7 +301,7 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
     }
     await recordProcessRun(
       dataSource,
-      {
+      processRunInputSchema.parse({
         kind: 'cleaning',
         methodId: 'KIW-CLEAN-AQ',
         equipment: 'Ultrasonic line U1',
@@ -307,7 +319,7 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
           endotoxin: (random() * 3).toFixed(2),
         },
         lotIds: batch.map((lot) => lot.id),
-      },
+      }),
       engineer,
       actor,
       origin,
@@ -318,7 +330,9 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
       await recordOperation(
         dataSource,
         lot.id,
-        operation(50, lot.qty, 0, inspectAt, 'Final inspection bench', { inspected: sample, defectsFound: 0 }),
+        operationInputSchema.parse(
+          operation(50, lot.qty, 0, inspectAt, 'Final inspection bench', { inspected: sample, defectsFound: 0 }),
+        ),
         engineer,
         actor,
         origin,
@@ -326,7 +340,7 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
       await recordOperation(
         dataSource,
         lot.id,
-        operation(60, lot.qty, 0, inspectAt + 3_600_000, 'Clean-room packing'),
+        operationInputSchema.parse(operation(60, lot.qty, 0, inspectAt + 3_600_000, 'Clean-room packing')),
         engineer,
         actor,
         origin,
@@ -350,18 +364,25 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
     if (!bar) continue;
     const lot = await openLot(
       dataSource,
-      { partId: part.id, plannedQty: qty, openedOn: iso(openedAt).slice(0, 10) },
+      lotOpenSchema.parse({ partId: part.id, plannedQty: qty, openedOn: iso(openedAt).slice(0, 10) }),
       engineer,
       actor,
       origin,
     );
-    await issueMaterial(dataSource, lot.id, { tag: bar.tag, lengthMm: need.toFixed(2) }, engineer, actor, origin);
+    await issueMaterial(
+      dataSource,
+      lot.id,
+      materialMovementSchema.parse({ tag: bar.tag, lengthMm: need.toFixed(2) }),
+      engineer,
+      actor,
+      origin,
+    );
     bar.remaining -= need;
     const scrap = random() < 0.3 ? between(1, 2) : 0;
     await recordOperation(
       dataSource,
       lot.id,
-      operation(10, qty, scrap, openedAt + 2 * 3_600_000, 'Swiss lathe 2'),
+      operationInputSchema.parse(operation(10, qty, scrap, openedAt + 2 * 3_600_000, 'Swiss lathe 2')),
       engineer,
       actor,
       origin,
@@ -369,7 +390,7 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
     await recordOperation(
       dataSource,
       lot.id,
-      operation(20, qty - scrap, 0, openedAt + DAY, 'Machining cell 4'),
+      operationInputSchema.parse(operation(20, qty - scrap, 0, openedAt + DAY, 'Machining cell 4')),
       engineer,
       actor,
       origin,
@@ -378,7 +399,7 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
     await returnMaterial(
       dataSource,
       lot.id,
-      { tag: bar.tag, lengthMm: (perUnit - random() * 0.5).toFixed(2) },
+      materialMovementSchema.parse({ tag: bar.tag, lengthMm: (perUnit - random() * 0.5).toFixed(2) }),
       engineer,
       actor,
       origin,
@@ -388,7 +409,10 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
       const split = await splitLot(
         dataSource,
         lot.id,
-        { quantities: [Math.floor(units / 3)], reason: 'Part of the lot expedited for an urgent order' },
+        splitInputSchema.parse({
+          quantities: [Math.floor(units / 3)],
+          reason: 'Part of the lot expedited for an urgent order',
+        }),
         engineer,
         actor,
         origin,
@@ -408,12 +432,12 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
   if (recent) {
     await raiseNonconformance(
       dataSource,
-      {
+      nonconformanceInputSchema.parse({
         subjectType: 'lot',
         subjectId: recent.id,
         description: 'Burr on the hex drive of 3 sample parts at in-process check',
         containment: 'Lot held at machining cell 4; remaining parts to be inspected 100 %',
-      },
+      }),
       reviewer,
       { id: reviewer.id, name: reviewer.name, role: 'qa-reviewer' },
       origin,

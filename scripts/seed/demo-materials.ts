@@ -1,4 +1,5 @@
 import type { DataSource } from 'typeorm';
+import { barReceiptSchema, heatCreateSchema, heatResultsSchema } from '../../shared/schemas/materials';
 import { bunchingMill, bunchingMillHeats } from './demo-screening';
 import { findPersonBySubject } from '../../server/src/modules/people/people.repository';
 import { attachCertificate, receiveHeat, recordResults } from '../../server/src/modules/materials/heats.service';
@@ -131,7 +132,7 @@ async function enterHeat(
   const actor = { id: engineer.id, name: engineer.name, role: 'manufacturing-engineer' };
   const received = await receiveHeat(
     dataSource,
-    {
+    heatCreateSchema.parse({
       heatNumber: heat.heatNumber,
       supplierId: supplierIds[heat.mill]!,
       specId: heat.specId,
@@ -141,7 +142,7 @@ async function enterHeat(
       condition: 'annealed',
       sizeMm: heat.sizeMm,
       receivedOn: dayOf(heat.daysAgo),
-    },
+    }),
     engineer,
     actor,
     origin,
@@ -160,7 +161,7 @@ async function enterHeat(
   await recordResults(
     dataSource,
     received.id,
-    { chemistry: heat.chemistry, mechanical: heat.mechanical },
+    heatResultsSchema.parse({ chemistry: heat.chemistry, mechanical: heat.mechanical }),
     engineer,
     actor,
     origin,
@@ -222,7 +223,7 @@ async function seedDemoBarStock(
     for (const bar of [1, 2, 3, 4, 5, 6]) {
       await receiveBar(
         dataSource,
-        {
+        barReceiptSchema.parse({
           heatId: id,
           markedHeatNumber: heat.heatNumber,
           tag: `${heat.heatNumber.replace(/[^A-Z0-9]+/g, '-')}-B${bar}`,
@@ -230,7 +231,7 @@ async function seedDemoBarStock(
           lengthMm: '3000',
           massKg: barMassKg(heat.specId, heat.sizeMm, 3000),
           location: `Bar store rack ${String.fromCharCode(65 + (index % 4))}${bar}`,
-        },
+        }),
         engineer,
         actor,
         origin,

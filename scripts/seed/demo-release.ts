@@ -1,4 +1,6 @@
 import type { DataSource } from 'typeorm';
+import { shipmentInputSchema } from '../../shared/schemas/manufacturing';
+import { labelMovementSchema } from '../../shared/schemas/release';
 import type { Person } from '@shared/schemas/people';
 import { findPersonBySubject } from '../../server/src/modules/people/people.repository';
 import { recordLabels, submitForRelease } from '../../server/src/modules/release/release.service';
@@ -36,7 +38,7 @@ export async function seedDemoRelease(dataSource: DataSource): Promise<void> {
     await recordLabels(
       dataSource,
       lot.id,
-      { kind: 'print', qty: units + (index % 7 === 0 ? 1 : 0) },
+      labelMovementSchema.parse({ kind: 'print', qty: units + (index % 7 === 0 ? 1 : 0) }),
       engineer,
       actor,
       origin,
@@ -45,7 +47,7 @@ export async function seedDemoRelease(dataSource: DataSource): Promise<void> {
       await recordLabels(
         dataSource,
         lot.id,
-        { kind: 'void', qty: 1, reason: 'Label smudged at printing; destroyed' },
+        labelMovementSchema.parse({ kind: 'void', qty: 1, reason: 'Label smudged at printing; destroyed' }),
         engineer,
         actor,
         origin,
@@ -78,12 +80,12 @@ export async function seedDemoRelease(dataSource: DataSource): Promise<void> {
       await shipLot(
         dataSource,
         lot.id,
-        {
+        shipmentInputSchema.parse({
           consigneeId: consignee.id,
           qty,
           shippedOn,
           documentNumber: `DN-${shippedOn.replace(/-/g, '').slice(2)}-${String(lot.id).padStart(4, '0')}${shipment}`,
-        },
+        }),
         engineer,
         actor,
         origin,

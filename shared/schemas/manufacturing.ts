@@ -120,7 +120,14 @@ export const partSchema = z.object({
 });
 export type Part = z.infer<typeof partSchema>;
 
-export const idParams = (name: string) => z.object({ [name]: z.coerce.number().int().positive().max(4_294_967_295) });
+/** Path parameters that are record ids, named as the route names them. */
+export const idParams = <Name extends string>(...names: Name[]) =>
+  z.object(
+    Object.fromEntries(names.map((name) => [name, z.coerce.number().int().positive().max(4_294_967_295)])) as Record<
+      Name,
+      z.ZodCoercedNumber<unknown>
+    >,
+  );
 
 export const lotOpenSchema = z.object({
   partId: z.number().int().positive('Choose the part'),

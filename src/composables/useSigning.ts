@@ -1,5 +1,5 @@
-import { ref } from 'vue';
-import { useQueryClient } from '@tanstack/vue-query';
+import { computed, ref } from 'vue';
+import { useMutation, useQueryClient } from '@tanstack/vue-query';
 import type { Signature, SignatureIntent, SignaturePreparation } from '@shared/schemas/signatures';
 import { isApiError } from '../api/http';
 import {
@@ -19,6 +19,12 @@ const GIVE_UP_MS = 6 * 60_000;
 
 class Cancelled extends Error {}
 
+interface SignRequest {
+  prepared: SignaturePreparation;
+  reason: string;
+  popup: Window | null;
+}
+
 /**
  * The signing sequence: show exactly what will be signed, have the identity provider ask for the
  * password again in a small window, then record the signature bound to that re-authentication.
@@ -26,24 +32,67 @@ class Cancelled extends Error {}
 export function useSigning() {
   const queryClient = useQueryClient();
   const step = ref<SigningStep>('loading');
-  const preparation = ref<SignaturePreparation | null>(null);
-  const error = ref<string | null>(null);
+  /** Why the last signature did not go through (the reason field's own message is in fieldErrors). */
+  const refusal = ref<string | null>(null);
   const fieldErrors = ref<Record<string, string>>({});
-  const signature = ref<Signature | null>(null);
   let cancelled = false;
   let current: { id: string; popup: Window | null } | null = null;
 
-  async function prepare(intent: SignatureIntent) {
-    step.value = 'loading';
-    error.value = null;
-    try {
-      preparation.value = await prepareSignature(intent);
+  const preparing = useMutation({
+    mutationFn: prepareSignature,
+    onMutate: () => (step.value = 'loading'),
+    onSuccess: () => (step.value = 'review'),
+    onError: () => (step.value = 'failed'),
+  });
+
+  const signing = useMutation({
+    mutationFn: async ({ prepared, reason, popup }: SignRequest): Promise<Signature> => {
+      const reauthentication = await startReauthentication(
+        `${prepared.meaning}: ${prepared.title}`.slice(0, 300),
+        prepared.bindingHash,
+      );
+      current = { id: reauthentication.id, popup };
+      if (popup) popup.location.href = reauthentication.url;
+      else window.open(reauthentication.url, 'ingotrace-reauthentication');
+      await waitForReauthentication(reauthentication.id);
+      step.value = 'submitting';
+      return submitSignature({
+        recordType: prepared.recordType,
+        recordId: prepared.recordId,
+        meaning: prepared.meaning,
+        contentHash: prepared.contentHash,
+        ...(prepared.trailThroughSeq === null ? {} : { trailThroughSeq: prepared.trailThroughSeq }),
+        reauthenticationId: reauthentication.id,
+        ...(reason.trim() ? { reason: reason.trim() } : {}),
+      });
+    },
+    onMutate: () => {
+      step.value = 'reauthenticating';
+      cancelled = false;
+      refusal.value = null;
+    },
+    onSuccess: async (_signature, { prepared }) => {
+      step.value = 'signed';
+      await invalidateAfterSignature(queryClient, prepared.recordType);
+    },
+    onError: (failure, { popup }) => {
+      try {
+        popup?.close();
+      } catch {
+        // see cancel()
+      }
+      refusal.value = failure instanceof Error ? failure.message : String(failure);
+      fieldErrors.value = isApiError(failure) ? failure.fields : {};
       step.value = 'review';
-    } catch (failure) {
-      error.value = failure instanceof Error ? failure.message : String(failure);
-      step.value = 'failed';
-    }
-  }
+    },
+    onSettled: () => (current = null),
+  });
+
+  const preparation = computed(() => preparing.data.value ?? null);
+  const signature = computed(() => signing.data.value ?? null);
+  const error = computed(() =>
+    preparing.error.value ? preparing.error.value.message : step.value === 'review' ? refusal.value : null,
+  );
 
   /**
    * Waits for the server's answer to the re-authentication. The window's own state is never
@@ -75,10 +124,12 @@ export function useSigning() {
     await cancelReauthentication(waiting.id).catch(() => undefined);
   }
 
+  const prepare = (intent: SignatureIntent) => preparing.mutateAsync(intent).catch(() => undefined);
+
   async function sign(reason: string) {
     const prepared = preparation.value;
     if (!prepared) return;
-    error.value = null;
+    refusal.value = null;
     fieldErrors.value = {};
     if (prepared.reasonRequired && reason.trim().length < 3) {
       fieldErrors.value = { reason: 'A reason of at least 3 characters is required' };
@@ -86,41 +137,7 @@ export function useSigning() {
     }
     // Opened now, inside the click, so that the browser does not block it.
     const popup = window.open('about:blank', 'ingotrace-reauthentication', 'width=560,height=720');
-    step.value = 'reauthenticating';
-    cancelled = false;
-    try {
-      const reauthentication = await startReauthentication(
-        `${prepared.meaning}: ${prepared.title}`.slice(0, 300),
-        prepared.bindingHash,
-      );
-      current = { id: reauthentication.id, popup };
-      if (popup) popup.location.href = reauthentication.url;
-      else window.open(reauthentication.url, 'ingotrace-reauthentication');
-      await waitForReauthentication(reauthentication.id);
-      step.value = 'submitting';
-      signature.value = await submitSignature({
-        recordType: prepared.recordType,
-        recordId: prepared.recordId,
-        meaning: prepared.meaning,
-        contentHash: prepared.contentHash,
-        ...(prepared.trailThroughSeq === null ? {} : { trailThroughSeq: prepared.trailThroughSeq }),
-        reauthenticationId: reauthentication.id,
-        ...(reason.trim() ? { reason: reason.trim() } : {}),
-      });
-      step.value = 'signed';
-      await invalidateAfterSignature(queryClient, prepared.recordType);
-    } catch (failure) {
-      try {
-        popup?.close();
-      } catch {
-        // see cancel()
-      }
-      error.value = failure instanceof Error ? failure.message : String(failure);
-      fieldErrors.value = isApiError(failure) ? failure.fields : {};
-      step.value = 'review';
-    } finally {
-      current = null;
-    }
+    await signing.mutateAsync({ prepared, reason, popup }).catch(() => undefined);
   }
 
   return { step, preparation, error, fieldErrors, signature, prepare, sign, cancel };

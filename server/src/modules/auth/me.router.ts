@@ -1,14 +1,10 @@
 import { Router, type Request } from 'express';
 import { allowedActions } from '@shared/auth/permissions';
 import type { Me } from '@shared/schemas/people';
-import {
-  reauthenticationIdSchema,
-  reauthenticationStartSchema,
-  type ReauthenticationStart,
-} from '@shared/schemas/reauthentication';
+import { reauthenticationIdSchema, reauthenticationStartSchema } from '@shared/schemas/reauthentication';
 import type { AppContext } from '../../app-context';
 import { currentPerson, originOf, requireSignedIn } from '../../middleware/access';
-import { validate } from '../../middleware/validate';
+import { validated } from '../../middleware/validate';
 import { limitRate } from '../../middleware/rate-limits';
 import {
   cancelReauthentication,
@@ -52,31 +48,28 @@ export function meRouter(context: AppContext, generateCsrfToken: (req: Request) 
     '/reauthentications',
     requireSignedIn(),
     starts,
-    validate({ body: reauthenticationStartSchema }),
-    async (req, res) => {
-      const start = res.locals.valid.body as ReauthenticationStart;
+    ...validated({ body: reauthenticationStartSchema }, async (input, req, res) => {
+      const start = input.body;
       res.status(201).json(await startReauthentication(context.database.dataSource, currentPerson(req)!, start));
-    },
+    }),
   );
 
   router.get(
     '/reauthentications/:reauthenticationId',
     requireSignedIn(),
-    validate({ params: reauthenticationIdSchema }),
-    async (req, res) => {
-      const { reauthenticationId } = res.locals.valid.params as { reauthenticationId: string };
+    ...validated({ params: reauthenticationIdSchema }, async (input, req, res) => {
+      const { reauthenticationId } = input.params;
       res
         .set('Cache-Control', 'no-store')
         .json(await reauthenticationStatus(context.database.dataSource, reauthenticationId, currentPerson(req)!));
-    },
+    }),
   );
 
   router.post(
     '/reauthentications/:reauthenticationId/cancel',
     requireSignedIn(),
-    validate({ params: reauthenticationIdSchema }),
-    async (req, res) => {
-      const { reauthenticationId } = res.locals.valid.params as { reauthenticationId: string };
+    ...validated({ params: reauthenticationIdSchema }, async (input, req, res) => {
+      const { reauthenticationId } = input.params;
       res.json(
         await cancelReauthentication(
           context.database.dataSource,
@@ -85,7 +78,7 @@ export function meRouter(context: AppContext, generateCsrfToken: (req: Request) 
           originOf(req),
         ),
       );
-    },
+    }),
   );
 
   return router;

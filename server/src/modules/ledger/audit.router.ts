@@ -1,10 +1,10 @@
 import { Router } from 'express';
 import { stringify } from 'csv-stringify/sync';
-import { ledgerQuerySchema, type LedgerQuery } from '@shared/schemas/audit';
+import { ledgerQuerySchema } from '@shared/schemas/audit';
 import type { AppContext } from '../../app-context';
 import { inTransaction } from '../../db/transaction';
 import { actorOf, originOf, requireAction } from '../../middleware/access';
-import { validate } from '../../middleware/validate';
+import { validated } from '../../middleware/validate';
 import { distinctActions, findEvents, matchingEvents } from './ledger-events.repository';
 import { exportLedger, verifyLedger } from './ledger-verification';
 import { checkpointLedger, readWitnessFile, witnessFilePath } from './ledger-checkpoints';
@@ -21,12 +21,11 @@ export function auditRouter(context: AppContext): Router {
   router.get(
     '/audit/events',
     requireAction('audit.read'),
-    validate({ query: ledgerQuerySchema }),
-    async (_req, res) => {
-      const query = res.locals.valid.query as LedgerQuery;
+    ...validated({ query: ledgerQuerySchema }, async (input, _req, res) => {
+      const query = input.query;
       const { items, total } = await findEvents(dataSource().manager, query);
       res.json({ items, total, page: query.page, pageSize: query.pageSize });
-    },
+    }),
   );
 
   router.get('/audit/actions', requireAction('audit.read'), async (_req, res) => {
@@ -51,9 +50,8 @@ export function auditRouter(context: AppContext): Router {
   router.get(
     '/audit/events.csv',
     requireAction('audit.read'),
-    validate({ query: ledgerQuerySchema }),
-    async (req, res) => {
-      const query = res.locals.valid.query as LedgerQuery;
+    ...validated({ query: ledgerQuerySchema }, async (input, req, res) => {
+      const query = input.query;
       const rows: string[][] = [];
       for await (const event of matchingEvents(dataSource().manager, query)) {
         rows.push([
@@ -104,7 +102,7 @@ export function auditRouter(context: AppContext): Router {
         .attachment(`ingotrace-audit-ledger-${new Date().toISOString().slice(0, 10)}.csv`)
         // A BOM so that spreadsheet programs read the accented names correctly.
         .send(`\uFEFF${stringify([header, ...rows])}`);
-    },
+    }),
   );
 
   // A POST: the export is recorded in the audit trail, so it changes state and carries the CSRF token.

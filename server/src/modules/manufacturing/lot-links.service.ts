@@ -1,8 +1,9 @@
+import type { z } from 'zod';
 import type { DataSource } from 'typeorm';
 import { refuseIfHeld } from '../recall/lot-holds';
 import { mergeProblem, splitProblem } from '@shared/domain/manufacturing/unit-chain';
 import { lotNumberProblem } from '@shared/domain/gs1/gtin';
-import { mergeInputSchema, splitInputSchema, type MergeInput, type SplitInput } from '@shared/schemas/manufacturing';
+import { mergeInputSchema, splitInputSchema } from '@shared/schemas/manufacturing';
 import type { Person } from '@shared/schemas/people';
 import { AppError } from '../../errors';
 import { inTransaction } from '../../db/transaction';
@@ -39,12 +40,11 @@ async function childLotNumber(manager: import('typeorm').EntityManager, parentNu
 export async function splitLot(
   dataSource: DataSource,
   lotId: number,
-  raw: SplitInput,
+  input: z.output<typeof splitInputSchema>,
   person: Person,
   actor: Actor,
   origin: RequestOrigin,
 ) {
-  const input = splitInputSchema.parse(raw);
   return inTransaction(dataSource, async (manager) => {
     const lot = await findLotRow(manager, lotId, true);
     if (!lot) throw AppError.notFound('Lot');
@@ -106,12 +106,11 @@ export async function splitLot(
 /** Merges lots of one part that stand at the same routing step into a new lot holding all their units. */
 export async function mergeLots(
   dataSource: DataSource,
-  raw: MergeInput,
+  input: z.output<typeof mergeInputSchema>,
   person: Person,
   actor: Actor,
   origin: RequestOrigin,
 ) {
-  const input = mergeInputSchema.parse(raw);
   return inTransaction(dataSource, async (manager) => {
     const ids = [...input.lotIds].sort((a, b) => a - b);
     const rows = [];

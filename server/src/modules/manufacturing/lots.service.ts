@@ -1,3 +1,4 @@
+import type { z } from 'zod';
 import type { DataSource, EntityManager } from 'typeorm';
 import { DecimalE29 } from '@shared/domain/materials/e29-rounding';
 import { lotNumberParts, formatLotNumber } from '@shared/domain/manufacturing/lot-number';
@@ -6,9 +7,7 @@ import {
   lotOpenSchema,
   materialMovementSchema,
   type LotListQuery,
-  type LotOpen,
   type LotSummary,
-  type MaterialMovementInput,
 } from '@shared/schemas/manufacturing';
 import type { Person } from '@shared/schemas/people';
 import { AppError } from '../../errors';
@@ -56,12 +55,11 @@ function openingDate(openedOn: string | undefined): Date {
 /** Opens a production lot with the next number from its part's pattern. */
 export async function openLot(
   dataSource: DataSource,
-  raw: LotOpen,
+  input: z.output<typeof lotOpenSchema>,
   person: Person,
   actor: Actor,
   origin: RequestOrigin,
 ): Promise<LotSummary> {
-  const input = lotOpenSchema.parse(raw);
   const openedAt = openingDate(input.openedOn);
   return inTransaction(dataSource, async (manager) => {
     await lockPart(manager, input.partId);
@@ -145,12 +143,11 @@ async function openLotForWork(manager: EntityManager, lotId: number) {
 export async function issueMaterial(
   dataSource: DataSource,
   lotId: number,
-  raw: MaterialMovementInput,
+  input: z.output<typeof materialMovementSchema>,
   person: Person,
   actor: Actor,
   origin: RequestOrigin,
 ) {
-  const input = materialMovementSchema.parse(raw);
   return inTransaction(dataSource, async (manager) => {
     const lot = await openLotForWork(manager, lotId);
     if (lot.origin !== 'bar')
@@ -232,12 +229,11 @@ export async function issueMaterial(
 export async function returnMaterial(
   dataSource: DataSource,
   lotId: number,
-  raw: MaterialMovementInput,
+  input: z.output<typeof materialMovementSchema>,
   person: Person,
   actor: Actor,
   origin: RequestOrigin,
 ) {
-  const input = materialMovementSchema.parse(raw);
   return inTransaction(dataSource, async (manager) => {
     const lot = await openLotForWork(manager, lotId);
     const piece = await findPieceByTag(manager, input.tag);

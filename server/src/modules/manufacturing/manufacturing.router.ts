@@ -20,7 +20,7 @@ import {
 } from '@shared/schemas/manufacturing';
 import type { AppContext } from '../../app-context';
 import { actorOf, currentPerson, originOf, requireAction } from '../../middleware/access';
-import { validate } from '../../middleware/validate';
+import { validated } from '../../middleware/validate';
 import { singleFileUpload } from '../../middleware/single-file-upload';
 import { createPart, loadParts, partById } from './parts.service';
 import { issueMaterial, listLots, openLot, returnMaterial } from './lots.service';
@@ -49,8 +49,6 @@ const operationFileParams = z.object({ lotId: id, operationId: id, documentId: i
 export function manufacturingRouter(context: AppContext): Router {
   const router = Router();
   const data = () => context.database.dataSource;
-  const valid = <T>(res: { locals: Record<string, unknown> }, part: 'body' | 'query' | 'params') =>
-    (res.locals.valid as Record<string, unknown>)[part] as T;
   const lotParams = idParams('lotId');
 
   router.get('/parts', requireAction('lots.read'), async (_req, res) => {
@@ -59,120 +57,137 @@ export function manufacturingRouter(context: AppContext): Router {
   router.get(
     '/parts/:partId',
     requireAction('lots.read'),
-    validate({ params: idParams('partId') }),
-    async (_req, res) => {
-      res.json(await partById(data(), valid<{ partId: number }>(res, 'params').partId));
-    },
+    ...validated({ params: idParams('partId') }, async (input, _req, res) => {
+      res.json(await partById(data(), input.params.partId));
+    }),
   );
-  router.post('/parts', requireAction('parts.manage'), validate({ body: partCreateSchema }), async (req, res) => {
-    res
-      .status(201)
-      .json(await createPart(data(), req.body, currentPerson(req)!, actorOf(req, 'parts.manage'), originOf(req)));
-  });
+  router.post(
+    '/parts',
+    requireAction('parts.manage'),
+    ...validated({ body: partCreateSchema }, async (input, req, res) => {
+      res
+        .status(201)
+        .json(await createPart(data(), input.body, currentPerson(req)!, actorOf(req, 'parts.manage'), originOf(req)));
+    }),
+  );
   router.get('/process-methods', requireAction('lots.read'), async (_req, res) => {
     res.json(await listProcessMethods(data().manager));
   });
   router.post(
     '/process-methods/:methodId/validations',
     requireAction('methods.validate'),
-    validate({ params: z.object({ methodId: z.string().trim().min(1).max(40) }), body: methodValidationInputSchema }),
-    async (req, res) => {
-      const methodId = valid<{ methodId: string }>(res, 'params').methodId;
-      res
-        .status(201)
-        .json(
-          await recordMethodValidation(
-            data(),
-            methodId,
-            req.body,
-            currentPerson(req)!,
-            actorOf(req, 'methods.validate'),
-            originOf(req),
-          ),
-        );
-    },
+    ...validated(
+      { params: z.object({ methodId: z.string().trim().min(1).max(40) }), body: methodValidationInputSchema },
+      async (input, req, res) => {
+        const methodId = input.params.methodId;
+        res
+          .status(201)
+          .json(
+            await recordMethodValidation(
+              data(),
+              methodId,
+              input.body,
+              currentPerson(req)!,
+              actorOf(req, 'methods.validate'),
+              originOf(req),
+            ),
+          );
+      },
+    ),
   );
 
-  router.get('/lots', requireAction('lots.read'), validate({ query: lotListQuerySchema }), async (_req, res) => {
-    res.json(await listLots(data(), valid(res, 'query')));
-  });
-  router.post('/lots', requireAction('lots.write'), validate({ body: lotOpenSchema }), async (req, res) => {
-    res
-      .status(201)
-      .json(await openLot(data(), req.body, currentPerson(req)!, actorOf(req, 'lots.write'), originOf(req)));
-  });
-  router.post('/lots/merges', requireAction('lots.write'), validate({ body: mergeInputSchema }), async (req, res) => {
-    res
-      .status(201)
-      .json(await mergeLots(data(), req.body, currentPerson(req)!, actorOf(req, 'lots.write'), originOf(req)));
-  });
-  router.get('/lots/:lotId', requireAction('lots.read'), validate({ params: lotParams }), async (_req, res) => {
-    res.json(await lotDetail(data(), valid<{ lotId: number }>(res, 'params').lotId));
-  });
+  router.get(
+    '/lots',
+    requireAction('lots.read'),
+    ...validated({ query: lotListQuerySchema }, async (input, _req, res) => {
+      res.json(await listLots(data(), input.query));
+    }),
+  );
+  router.post(
+    '/lots',
+    requireAction('lots.write'),
+    ...validated({ body: lotOpenSchema }, async (input, req, res) => {
+      res
+        .status(201)
+        .json(await openLot(data(), input.body, currentPerson(req)!, actorOf(req, 'lots.write'), originOf(req)));
+    }),
+  );
+  router.post(
+    '/lots/merges',
+    requireAction('lots.write'),
+    ...validated({ body: mergeInputSchema }, async (input, req, res) => {
+      res
+        .status(201)
+        .json(await mergeLots(data(), input.body, currentPerson(req)!, actorOf(req, 'lots.write'), originOf(req)));
+    }),
+  );
+  router.get(
+    '/lots/:lotId',
+    requireAction('lots.read'),
+    ...validated({ params: lotParams }, async (input, _req, res) => {
+      res.json(await lotDetail(data(), input.params.lotId));
+    }),
+  );
   router.post(
     '/lots/:lotId/material-issues',
     requireAction('lots.write'),
-    validate({ params: lotParams, body: materialMovementSchema }),
-    async (req, res) => {
+    ...validated({ params: lotParams, body: materialMovementSchema }, async (input, req, res) => {
       res
         .status(201)
         .json(
           await issueMaterial(
             data(),
-            valid<{ lotId: number }>(res, 'params').lotId,
-            req.body,
+            input.params.lotId,
+            input.body,
             currentPerson(req)!,
             actorOf(req, 'lots.write'),
             originOf(req),
           ),
         );
-    },
+    }),
   );
   router.post(
     '/lots/:lotId/material-returns',
     requireAction('lots.write'),
-    validate({ params: lotParams, body: materialMovementSchema }),
-    async (req, res) => {
+    ...validated({ params: lotParams, body: materialMovementSchema }, async (input, req, res) => {
       res
         .status(201)
         .json(
           await returnMaterial(
             data(),
-            valid<{ lotId: number }>(res, 'params').lotId,
-            req.body,
+            input.params.lotId,
+            input.body,
             currentPerson(req)!,
             actorOf(req, 'lots.write'),
             originOf(req),
           ),
         );
-    },
+    }),
   );
   router.post(
     '/lots/:lotId/operations',
     requireAction('lots.write'),
-    validate({ params: lotParams, body: operationInputSchema }),
-    async (req, res) => {
+    ...validated({ params: lotParams, body: operationInputSchema }, async (input, req, res) => {
       res
         .status(201)
         .json(
           await recordOperation(
             data(),
-            valid<{ lotId: number }>(res, 'params').lotId,
-            req.body,
+            input.params.lotId,
+            input.body,
             currentPerson(req)!,
             actorOf(req, 'lots.write'),
             originOf(req),
           ),
         );
-    },
+    }),
   );
   router.post(
     '/lots/:lotId/operations/:operationId/files',
     requireAction('lots.write'),
-    validate({ params: operationParams }),
     fileUpload,
-    async (req, res) => {
-      const { lotId, operationId } = valid<{ lotId: number; operationId: number }>(res, 'params');
+    ...validated({ params: operationParams }, async (input, req, res) => {
+      const { lotId, operationId } = input.params;
       if (!req.file) throw new AppError('VALIDATION_FAILED', 'Choose a file to attach', { file: 'No file' });
       res
         .status(201)
@@ -187,17 +202,13 @@ export function manufacturingRouter(context: AppContext): Router {
             originOf(req),
           ),
         );
-    },
+    }),
   );
   router.get(
     '/lots/:lotId/operations/:operationId/files/:documentId',
     requireAction('lots.read'),
-    validate({ params: operationFileParams }),
-    async (_req, res) => {
-      const { lotId, operationId, documentId } = valid<{ lotId: number; operationId: number; documentId: number }>(
-        res,
-        'params',
-      );
+    ...validated({ params: operationFileParams }, async (input, _req, res) => {
+      const { lotId, operationId, documentId } = input.params;
       const file = await operationFile(data(), lotId, operationId, documentId);
       res
         .type(file.mediaType)
@@ -206,123 +217,116 @@ export function manufacturingRouter(context: AppContext): Router {
         .set('Digest', `sha-256=${Buffer.from(file.sha256, 'hex').toString('base64')}`)
         .attachment(file.name)
         .send(file.content);
-    },
+    }),
   );
   router.post(
     '/lots/:lotId/splits',
     requireAction('lots.write'),
-    validate({ params: lotParams, body: splitInputSchema }),
-    async (req, res) => {
+    ...validated({ params: lotParams, body: splitInputSchema }, async (input, req, res) => {
       res
         .status(201)
         .json(
           await splitLot(
             data(),
-            valid<{ lotId: number }>(res, 'params').lotId,
-            req.body,
+            input.params.lotId,
+            input.body,
             currentPerson(req)!,
             actorOf(req, 'lots.write'),
             originOf(req),
           ),
         );
-    },
+    }),
   );
   router.post(
     '/lots/:lotId/shipments',
     requireAction('shipments.write'),
-    validate({ params: lotParams, body: shipmentInputSchema }),
-    async (req, res) => {
+    ...validated({ params: lotParams, body: shipmentInputSchema }, async (input, req, res) => {
       res
         .status(201)
         .json(
           await shipLot(
             data(),
-            valid<{ lotId: number }>(res, 'params').lotId,
-            req.body,
+            input.params.lotId,
+            input.body,
             currentPerson(req)!,
             actorOf(req, 'shipments.write'),
             originOf(req),
           ),
         );
-    },
+    }),
   );
 
   router.get(
     '/process-runs',
     requireAction('lots.read'),
-    validate({ query: processRunListQuerySchema }),
-    async (_req, res) => {
-      res.json(await listProcessRuns(data(), valid(res, 'query')));
-    },
+    ...validated({ query: processRunListQuerySchema }, async (input, _req, res) => {
+      res.json(await listProcessRuns(data(), input.query));
+    }),
   );
   router.get(
     '/process-runs/:runId',
     requireAction('lots.read'),
-    validate({ params: idParams('runId') }),
-    async (_req, res) => {
-      res.json(await processRunDetail(data(), valid<{ runId: number }>(res, 'params').runId));
-    },
+    ...validated({ params: idParams('runId') }, async (input, _req, res) => {
+      res.json(await processRunDetail(data(), input.params.runId));
+    }),
   );
   router.post(
     '/process-runs',
     requireAction('lots.write'),
-    validate({ body: processRunInputSchema }),
-    async (req, res) => {
+    ...validated({ body: processRunInputSchema }, async (input, req, res) => {
       res
         .status(201)
-        .json(await recordProcessRun(data(), req.body, currentPerson(req)!, actorOf(req, 'lots.write'), originOf(req)));
-    },
+        .json(
+          await recordProcessRun(data(), input.body, currentPerson(req)!, actorOf(req, 'lots.write'), originOf(req)),
+        );
+    }),
   );
 
   router.get(
     '/nonconformances',
     requireAction('lots.read'),
-    validate({ query: nonconformanceListQuerySchema }),
-    async (_req, res) => {
-      res.json(await listNonconformances(data(), valid(res, 'query')));
-    },
+    ...validated({ query: nonconformanceListQuerySchema }, async (input, _req, res) => {
+      res.json(await listNonconformances(data(), input.query));
+    }),
   );
   router.get(
     '/nonconformances/:ncId',
     requireAction('lots.read'),
-    validate({ params: idParams('ncId') }),
-    async (_req, res) => {
-      res.json(await nonconformanceDetail(data(), valid<{ ncId: number }>(res, 'params').ncId));
-    },
+    ...validated({ params: idParams('ncId') }, async (input, _req, res) => {
+      res.json(await nonconformanceDetail(data(), input.params.ncId));
+    }),
   );
   router.post(
     '/nonconformances',
     requireAction('nonconformances.raise'),
-    validate({ body: nonconformanceInputSchema }),
-    async (req, res) => {
+    ...validated({ body: nonconformanceInputSchema }, async (input, req, res) => {
       res
         .status(201)
         .json(
           await raiseNonconformance(
             data(),
-            req.body,
+            input.body,
             currentPerson(req)!,
             actorOf(req, 'nonconformances.raise'),
             originOf(req),
           ),
         );
-    },
+    }),
   );
   router.put(
     '/nonconformances/:ncId/disposition',
     requireAction('nonconformances.disposition'),
-    validate({ params: idParams('ncId'), body: dispositionInputSchema }),
-    async (req, res) => {
+    ...validated({ params: idParams('ncId'), body: dispositionInputSchema }, async (input, req, res) => {
       res.json(
         await proposeDisposition(
           data(),
-          valid<{ ncId: number }>(res, 'params').ncId,
-          req.body,
+          input.params.ncId,
+          input.body,
           actorOf(req, 'nonconformances.disposition'),
           originOf(req),
         ),
       );
-    },
+    }),
   );
 
   router.get('/consignees', requireAction('lots.read'), async (_req, res) => {
@@ -331,10 +335,9 @@ export function manufacturingRouter(context: AppContext): Router {
   router.post(
     '/consignees',
     requireAction('shipments.write'),
-    validate({ body: consigneeInputSchema }),
-    async (req, res) => {
-      res.status(201).json(await createConsignee(data(), req.body, actorOf(req, 'shipments.write'), originOf(req)));
-    },
+    ...validated({ body: consigneeInputSchema }, async (input, req, res) => {
+      res.status(201).json(await createConsignee(data(), input.body, actorOf(req, 'shipments.write'), originOf(req)));
+    }),
   );
   return router;
 }

@@ -1,9 +1,8 @@
+import type { z } from 'zod';
 import type { DataSource, EntityManager } from 'typeorm';
 import {
   dispositionInputSchema,
   nonconformanceInputSchema,
-  type DispositionInput,
-  type NonconformanceInput,
   type NonconformanceListQuery,
 } from '@shared/schemas/manufacturing';
 import type { Person } from '@shared/schemas/people';
@@ -36,12 +35,11 @@ export async function nonconformanceDetail(dataSource: DataSource, id: number) {
 
 export async function raiseNonconformance(
   dataSource: DataSource,
-  raw: NonconformanceInput,
+  input: z.output<typeof nonconformanceInputSchema>,
   person: Person,
   actor: Actor,
   origin: RequestOrigin,
 ) {
-  const input = nonconformanceInputSchema.parse(raw);
   const id = await inTransaction(dataSource, async (manager) => {
     if (!(await subjectExists(manager, input.subjectType, input.subjectId)))
       throw AppError.rule(`No ${input.subjectType} with id ${input.subjectId}`, { subjectId: 'Unknown record' });
@@ -71,11 +69,10 @@ export async function raiseNonconformance(
 export async function proposeDisposition(
   dataSource: DataSource,
   id: number,
-  raw: DispositionInput,
+  input: z.output<typeof dispositionInputSchema>,
   actor: Actor,
   origin: RequestOrigin,
 ) {
-  const input = dispositionInputSchema.parse(raw);
   await inTransaction(dataSource, async (manager) => {
     const nc = await findNonconformance(manager, id, true);
     if (!nc) throw AppError.notFound('Nonconformance');

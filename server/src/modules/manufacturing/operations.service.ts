@@ -1,6 +1,7 @@
+import type { z } from 'zod';
 import type { DataSource, EntityManager } from 'typeorm';
 import { inspectionVerdict } from '@shared/domain/manufacturing/inspection';
-import { operationInputSchema, type OperationInput } from '@shared/schemas/manufacturing';
+import { operationInputSchema } from '@shared/schemas/manufacturing';
 import type { Person } from '@shared/schemas/people';
 import { AppError } from '../../errors';
 import { inTransaction } from '../../db/transaction';
@@ -60,12 +61,11 @@ export async function stepReadyFor(manager: EntityManager, lot: LotRow, stepNo: 
 export async function recordOperation(
   dataSource: DataSource,
   lotId: number,
-  raw: OperationInput,
+  input: z.output<typeof operationInputSchema>,
   person: Person,
   actor: Actor,
   origin: RequestOrigin,
 ) {
-  const input = operationInputSchema.parse(raw);
   return inTransaction(dataSource, async (manager) => {
     const lot = await findLotRow(manager, lotId, true);
     if (!lot) throw AppError.notFound('Lot');

@@ -1,6 +1,7 @@
+import type { z } from 'zod';
 import type { DataSource } from 'typeorm';
 import { processMethod } from '@shared/domain/manufacturing/process-methods';
-import { partCreateSchema, type Part, type PartCreate } from '@shared/schemas/manufacturing';
+import { partCreateSchema, type Part } from '@shared/schemas/manufacturing';
 import type { Person } from '@shared/schemas/people';
 import { AppError } from '../../errors';
 import { inTransaction } from '../../db/transaction';
@@ -27,12 +28,11 @@ export async function partById(dataSource: DataSource, id: number): Promise<Part
 /** Registers a part with its allowed material specifications and its routing, in one transaction. */
 export async function createPart(
   dataSource: DataSource,
-  raw: PartCreate,
+  input: z.output<typeof partCreateSchema>,
   person: Person,
   actor: Actor,
   origin: RequestOrigin,
 ): Promise<Part> {
-  const input = partCreateSchema.parse(raw);
   return inTransaction(dataSource, async (manager) => {
     const library = await currentSpecifications(manager);
     const fields: Record<string, string> = {};

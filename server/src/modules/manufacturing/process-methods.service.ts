@@ -1,12 +1,9 @@
+import type { z } from 'zod';
 import type { DataSource, EntityManager } from 'typeorm';
 import { familiesOutsideScope, outsideScopeMessage } from '@shared/domain/manufacturing/method-scope';
 import { processMethod, processMethods, type ProcessMethod } from '@shared/domain/manufacturing/process-methods';
 import { materialFamilyLabels, type MaterialFamily } from '@shared/domain/materials/specification';
-import {
-  methodValidationInputSchema,
-  type MethodValidationInput,
-  type ProcessMethodView,
-} from '@shared/schemas/process-methods';
+import { methodValidationInputSchema, type ProcessMethodView } from '@shared/schemas/process-methods';
 import type { Person } from '@shared/schemas/people';
 import { AppError } from '../../errors';
 import { inTransaction } from '../../db/transaction';
@@ -50,12 +47,11 @@ export async function methodScopeChecker(
 export async function recordMethodValidation(
   dataSource: DataSource,
   methodId: string,
-  raw: MethodValidationInput,
+  input: z.output<typeof methodValidationInputSchema>,
   person: Person,
   actor: Actor,
   origin: RequestOrigin,
 ): Promise<ProcessMethodView> {
-  const input = methodValidationInputSchema.parse(raw);
   const method = processMethod(methodId);
   if (!method) throw AppError.notFound('Process method');
   const family = input.materialFamily;

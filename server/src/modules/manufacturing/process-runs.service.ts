@@ -1,8 +1,9 @@
+import type { z } from 'zod';
 import type { DataSource } from 'typeorm';
 import { processMethod } from '@shared/domain/manufacturing/process-methods';
 import { checkRunWindow, type WindowCheck } from '@shared/domain/manufacturing/run-window';
 import type { ProcessRunDetail, ProcessRunSummary } from '@shared/schemas/lot-detail';
-import { processRunInputSchema, type ProcessRunInput, type ProcessRunListQuery } from '@shared/schemas/manufacturing';
+import { processRunInputSchema, type ProcessRunListQuery } from '@shared/schemas/manufacturing';
 import type { Person } from '@shared/schemas/people';
 import type { Part } from '@shared/schemas/manufacturing';
 import { methodScopeChecker } from './process-methods.service';
@@ -63,12 +64,11 @@ export async function processRunDetail(dataSource: DataSource, id: number): Prom
  */
 export async function recordProcessRun(
   dataSource: DataSource,
-  raw: ProcessRunInput,
+  input: z.output<typeof processRunInputSchema>,
   person: Person,
   actor: Actor,
   origin: RequestOrigin,
 ): Promise<ProcessRunDetail> {
-  const input = processRunInputSchema.parse(raw);
   const method = processMethod(input.methodId);
   if (!method) throw AppError.rule(`Unknown process method ${input.methodId}`, { methodId: 'Not a known method' });
   if (method.kind !== input.kind)

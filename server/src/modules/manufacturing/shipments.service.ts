@@ -1,10 +1,6 @@
+import type { z } from 'zod';
 import type { DataSource } from 'typeorm';
-import {
-  consigneeInputSchema,
-  shipmentInputSchema,
-  type ConsigneeInput,
-  type ShipmentInput,
-} from '@shared/schemas/manufacturing';
+import { consigneeInputSchema, shipmentInputSchema } from '@shared/schemas/manufacturing';
 import type { Person } from '@shared/schemas/people';
 import { AppError } from '../../errors';
 import { inTransaction } from '../../db/transaction';
@@ -26,11 +22,10 @@ export async function listConsignees(dataSource: DataSource) {
 
 export async function createConsignee(
   dataSource: DataSource,
-  raw: ConsigneeInput,
+  input: z.output<typeof consigneeInputSchema>,
   actor: Actor,
   origin: RequestOrigin,
 ) {
-  const input = consigneeInputSchema.parse(raw);
   return inTransaction(dataSource, async (manager) => {
     if (await consigneeNamed(manager, input.name))
       throw new AppError('CONFLICT', `A consignee named ${input.name} exists already`, { name: 'Already registered' });
@@ -55,12 +50,11 @@ export async function createConsignee(
 export async function shipLot(
   dataSource: DataSource,
   lotId: number,
-  raw: ShipmentInput,
+  input: z.output<typeof shipmentInputSchema>,
   person: Person,
   actor: Actor,
   origin: RequestOrigin,
 ) {
-  const input = shipmentInputSchema.parse(raw);
   return inTransaction(dataSource, async (manager) => {
     const lot = await findLotRow(manager, lotId, true);
     if (!lot) throw AppError.notFound('Lot');

@@ -1,8 +1,9 @@
+import type { z } from 'zod';
 import type { DataSource } from 'typeorm';
 import { checkCut } from '@shared/domain/materials/bar-cut';
 import { DecimalE29 } from '@shared/domain/materials/e29-rounding';
 import { compareHeatMarking } from '@shared/domain/materials/heat-marking';
-import type { BarCut, BarListQuery, BarPiece, BarReceipt } from '@shared/schemas/materials';
+import type { BarListQuery, BarPiece } from '@shared/schemas/materials';
 import { barCutSchema, barReceiptSchema } from '@shared/schemas/materials';
 import type { Person } from '@shared/schemas/people';
 import { AppError } from '../../errors';
@@ -33,12 +34,11 @@ export async function barPiece(dataSource: DataSource, id: number): Promise<BarP
 
 export async function receiveBar(
   dataSource: DataSource,
-  raw: BarReceipt,
+  input: z.output<typeof barReceiptSchema>,
   person: Person,
   actor: Actor,
   origin: RequestOrigin,
 ): Promise<BarPiece> {
-  const input = barReceiptSchema.parse(raw);
   let mismatch: { heatId: number; heatNumber: string; problem: string } | null = null;
   try {
     return await inTransaction(dataSource, async (manager) => {
@@ -97,13 +97,12 @@ export async function receiveBar(
 export async function cutBar(
   dataSource: DataSource,
   pieceId: number,
-  raw: BarCut,
+  input: z.output<typeof barCutSchema>,
   kerfAllowanceMm: string,
   person: Person,
   actor: Actor,
   origin: RequestOrigin,
 ): Promise<BarPiece[]> {
-  const input = barCutSchema.parse(raw);
   return inTransaction(dataSource, async (manager) => {
     const parent = await bars.findPiece(manager, pieceId, true);
     if (!parent) throw AppError.notFound('Bar piece');

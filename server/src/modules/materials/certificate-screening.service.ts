@@ -1,3 +1,4 @@
+import type { z } from 'zod';
 // Certificate screening in the running product: the history of a heat's supplier and
 // specification screened with the pure functions in shared/, the findings that involve the heat,
 // and reviewers' acknowledgements of them (which acceptance of the heat waits for).
@@ -10,12 +11,7 @@ import {
 import { readChemistryValue, ReportedValueError } from '@shared/domain/materials/reported-value';
 import { conditionOf, type Specification } from '@shared/domain/materials/specification';
 import type { Person } from '@shared/schemas/people';
-import {
-  screeningAcknowledgementSchema,
-  type HeatScreening,
-  type ScreeningAcknowledgementInput,
-  type SupplierScreening,
-} from '@shared/schemas/screening';
+import { screeningAcknowledgementSchema, type HeatScreening, type SupplierScreening } from '@shared/schemas/screening';
 import { AppError } from '../../errors';
 import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
@@ -169,12 +165,11 @@ export async function openFindings(manager: EntityManager, heatId: number): Prom
 export async function acknowledgeFinding(
   dataSource: DataSource,
   heatId: number,
-  raw: ScreeningAcknowledgementInput,
+  input: z.output<typeof screeningAcknowledgementSchema>,
   person: Person,
   actor: Actor,
   origin: RequestOrigin,
 ): Promise<HeatScreening> {
-  const input = screeningAcknowledgementSchema.parse(raw);
   return inTransaction(dataSource, async (manager) => {
     const heat = await heats.findHeat(manager, heatId, true);
     if (!heat) throw AppError.notFound('Heat');

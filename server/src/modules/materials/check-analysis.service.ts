@@ -1,3 +1,4 @@
+import type { z } from 'zod';
 // The independent check analysis in the running product: sampling rules in force, which heats
 // they select, the check results entered and their evaluation (pure functions in shared/).
 import type { DataSource, EntityManager } from 'typeorm';
@@ -13,8 +14,6 @@ import {
 import {
   checkAnalysisInputSchema,
   checkRuleInputSchema,
-  type CheckAnalysisInput,
-  type CheckRuleInput,
   type CheckRuleView,
   type HeatAwaitingCheck,
   type HeatCheckAnalysis,
@@ -54,12 +53,11 @@ export async function currentRules(manager: EntityManager): Promise<CheckRuleVie
 /** Sets the rule for a scope (a new row; the previous one stays as history). */
 export async function setCheckRule(
   dataSource: DataSource,
-  raw: CheckRuleInput,
+  input: z.output<typeof checkRuleInputSchema>,
   person: Person,
   actor: Actor,
   origin: RequestOrigin,
 ): Promise<CheckRuleView[]> {
-  const input = checkRuleInputSchema.parse(raw);
   return inTransaction(dataSource, async (manager) => {
     if (input.supplierId !== null && !(await findSupplier(manager, input.supplierId)))
       throw AppError.rule('Choose a registered supplier, or none for every supplier', {
@@ -161,12 +159,11 @@ export function checkAnalysisRefusal(check: HeatCheckAnalysis): string | null {
 export async function recordCheckAnalysis(
   dataSource: DataSource,
   heatId: number,
-  raw: CheckAnalysisInput,
+  input: z.output<typeof checkAnalysisInputSchema>,
   person: Person,
   actor: Actor,
   origin: RequestOrigin,
 ): Promise<HeatCheckAnalysis> {
-  const input = checkAnalysisInputSchema.parse(raw);
   return inTransaction(dataSource, async (manager) => {
     const heat = await heats.findHeat(manager, heatId, true);
     if (!heat) throw AppError.notFound('Heat');

@@ -1,9 +1,10 @@
+import type { z } from 'zod';
 import type { DataSource, EntityManager } from 'typeorm';
 import { evaluateAgainst, EvaluationInputError } from '@shared/domain/materials/evaluate-certificate';
 import { readChemistryValue, readMechanicalValue, ReportedValueError } from '@shared/domain/materials/reported-value';
 import { certificateInputSchema } from '@shared/schemas/evaluation';
 import { scopeOf } from '@shared/domain/materials/specification';
-import type { HeatCreate, HeatDetail, HeatListQuery, HeatResults, HeatSummary } from '@shared/schemas/materials';
+import type { HeatDetail, HeatListQuery, HeatSummary } from '@shared/schemas/materials';
 import { heatCreateSchema, heatResultsSchema } from '@shared/schemas/materials';
 import type { Person } from '@shared/schemas/people';
 import { AppError } from '../../errors';
@@ -49,12 +50,11 @@ export async function heatDetail(dataSource: DataSource, id: number): Promise<He
 
 export async function receiveHeat(
   dataSource: DataSource,
-  raw: HeatCreate,
+  input: z.output<typeof heatCreateSchema>,
   person: Person,
   actor: Actor,
   origin: RequestOrigin,
 ): Promise<HeatSummary> {
-  const input = heatCreateSchema.parse(raw);
   return inTransaction(dataSource, async (manager) => {
     const supplier = await findSupplier(manager, input.supplierId);
     if (!supplier) throw AppError.rule('Choose a registered supplier', { supplierId: 'Unknown supplier' });
@@ -110,12 +110,12 @@ export async function receiveHeat(
 export async function recordResults(
   dataSource: DataSource,
   heatId: number,
-  raw: HeatResults,
+  input: z.output<typeof heatResultsSchema>,
   person: Person,
   actor: Actor,
   origin: RequestOrigin,
 ): Promise<HeatDetail> {
-  await inTransaction(dataSource, (manager) => recordResultsIn(manager, heatId, raw, person, actor, origin));
+  await inTransaction(dataSource, (manager) => recordResultsIn(manager, heatId, input, person, actor, origin));
   return heatDetail(dataSource, heatId);
 }
 
@@ -123,12 +123,11 @@ export async function recordResults(
 export async function recordResultsIn(
   manager: EntityManager,
   heatId: number,
-  raw: HeatResults,
+  input: z.output<typeof heatResultsSchema>,
   person: Person,
   actor: Actor,
   origin: RequestOrigin,
 ): Promise<string> {
-  const input = heatResultsSchema.parse(raw);
   const heat = await heats.findHeat(manager, heatId, true);
   if (!heat) throw AppError.notFound('Heat');
   if (heat.status === 'accepted' || heat.status === 'rejected')

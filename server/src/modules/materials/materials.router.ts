@@ -13,18 +13,12 @@ import {
   trendQuerySchema,
   resultsImportSchema,
   specificationDraftSchema,
-  type SpecificationDraftInput,
-  type ResultsImport,
-  type TrendQuery,
-  type HeatCreate,
-  type HeatListQuery,
-  type HeatResults,
 } from '@shared/schemas/materials';
-import { screeningAcknowledgementSchema, type ScreeningAcknowledgementInput } from '@shared/schemas/screening';
+import { screeningAcknowledgementSchema } from '@shared/schemas/screening';
 import type { AppContext } from '../../app-context';
 import { AppError } from '../../errors';
 import { actorOf, currentPerson, originOf, requireAction } from '../../middleware/access';
-import { validate } from '../../middleware/validate';
+import { validated } from '../../middleware/validate';
 import { singleFileUpload } from '../../middleware/single-file-upload';
 import { CERTIFICATE_MAX_BYTES } from './certificate-files';
 import { currentSpecifications } from './specification-library.repository';
@@ -34,12 +28,7 @@ import { elementTrend } from './trends.service';
 import { importResults } from './results-import.service';
 import { draftRevision, listDrafts } from './specification-drafts.service';
 import { acknowledgeFinding, screeningOfSupplier } from './certificate-screening.service';
-import {
-  checkAnalysisInputSchema,
-  checkRuleInputSchema,
-  type CheckAnalysisInput,
-  type CheckRuleInput,
-} from '@shared/schemas/check-analysis';
+import { checkAnalysisInputSchema, checkRuleInputSchema } from '@shared/schemas/check-analysis';
 import { currentRules, heatsAwaitingCheck, recordCheckAnalysis, setCheckRule } from './check-analysis.service';
 
 const certificateUpload = singleFileUpload('certificate', CERTIFICATE_MAX_BYTES, 'certificate');
@@ -59,20 +48,19 @@ export function materialsRouter(context: AppContext): Router {
   router.post(
     '/specification-drafts',
     requireAction('specifications.draft'),
-    validate({ body: specificationDraftSchema }),
-    async (req, res) => {
+    ...validated({ body: specificationDraftSchema }, async (input, req, res) => {
       res
         .status(201)
         .json(
           await draftRevision(
             dataSource(),
-            res.locals.valid.body as SpecificationDraftInput,
+            input.body,
             currentPerson(req)!,
             actorOf(req, 'specifications.draft'),
             originOf(req),
           ),
         );
-    },
+    }),
   );
 
   router.get('/suppliers', requireAction('materials.read'), async (_req, res) => {
@@ -81,94 +69,96 @@ export function materialsRouter(context: AppContext): Router {
   router.post(
     '/suppliers',
     requireAction('suppliers.manage'),
-    validate({ body: supplierCreateSchema }),
-    async (req, res) => {
+    ...validated({ body: supplierCreateSchema }, async (input, req, res) => {
       res
         .status(201)
-        .json(
-          await createSupplier(dataSource(), res.locals.valid.body, actorOf(req, 'suppliers.manage'), originOf(req)),
-        );
-    },
+        .json(await createSupplier(dataSource(), input.body, actorOf(req, 'suppliers.manage'), originOf(req)));
+    }),
   );
   router.put(
     '/suppliers/:supplierId/approval',
     requireAction('suppliers.manage'),
-    validate({ params: supplierIdParamsSchema, body: supplierApprovalSchema }),
-    async (req, res) => {
-      const { supplierId } = res.locals.valid.params as { supplierId: number };
+    ...validated({ params: supplierIdParamsSchema, body: supplierApprovalSchema }, async (input, req, res) => {
+      const { supplierId } = input.params;
       res.json(
         await changeSupplierApproval(
           dataSource(),
           supplierId,
-          res.locals.valid.body,
+          input.body,
           actorOf(req, 'suppliers.manage'),
           originOf(req),
         ),
       );
-    },
+    }),
   );
 
-  router.get('/trends', requireAction('materials.read'), validate({ query: trendQuerySchema }), async (_req, res) => {
-    res.json(await elementTrend(dataSource(), res.locals.valid.query as TrendQuery));
-  });
+  router.get(
+    '/trends',
+    requireAction('materials.read'),
+    ...validated({ query: trendQuerySchema }, async (input, _req, res) => {
+      res.json(await elementTrend(dataSource(), input.query));
+    }),
+  );
 
-  router.get('/heats', requireAction('materials.read'), validate({ query: heatListQuerySchema }), async (_req, res) => {
-    res.json(await listHeats(dataSource(), res.locals.valid.query as HeatListQuery));
-  });
-  router.post('/heats', requireAction('materials.write'), validate({ body: heatCreateSchema }), async (req, res) => {
-    res
-      .status(201)
-      .json(
-        await receiveHeat(
-          dataSource(),
-          res.locals.valid.body as HeatCreate,
-          currentPerson(req)!,
-          actorOf(req, 'materials.write'),
-          originOf(req),
-        ),
-      );
-  });
+  router.get(
+    '/heats',
+    requireAction('materials.read'),
+    ...validated({ query: heatListQuerySchema }, async (input, _req, res) => {
+      res.json(await listHeats(dataSource(), input.query));
+    }),
+  );
+  router.post(
+    '/heats',
+    requireAction('materials.write'),
+    ...validated({ body: heatCreateSchema }, async (input, req, res) => {
+      res
+        .status(201)
+        .json(
+          await receiveHeat(
+            dataSource(),
+            input.body,
+            currentPerson(req)!,
+            actorOf(req, 'materials.write'),
+            originOf(req),
+          ),
+        );
+    }),
+  );
   router.post(
     '/heat-results/imports',
     requireAction('materials.write'),
-    validate({ body: resultsImportSchema }),
-    async (req, res) => {
+    ...validated({ body: resultsImportSchema }, async (input, req, res) => {
       res.json(
         await importResults(
           dataSource(),
-          res.locals.valid.body as ResultsImport,
+          input.body,
           currentPerson(req)!,
           actorOf(req, 'materials.write'),
           originOf(req),
         ),
       );
-    },
+    }),
   );
   router.get(
     '/heats/:heatId',
     requireAction('materials.read'),
-    validate({ params: heatIdParamsSchema }),
-    async (_req, res) => {
-      res.json(await heatDetail(dataSource(), (res.locals.valid.params as { heatId: number }).heatId));
-    },
+    ...validated({ params: heatIdParamsSchema }, async (input, _req, res) => {
+      res.json(await heatDetail(dataSource(), input.params.heatId));
+    }),
   );
   router.get(
     '/suppliers/:supplierId/screening',
     requireAction('materials.read'),
-    validate({ params: supplierIdParamsSchema }),
-    async (_req, res) => {
-      res.json(
-        await screeningOfSupplier(dataSource().manager, (res.locals.valid.params as { supplierId: number }).supplierId),
-      );
-    },
+    ...validated({ params: supplierIdParamsSchema }, async (input, _req, res) => {
+      res.json(await screeningOfSupplier(dataSource().manager, input.params.supplierId));
+    }),
   );
   router.post(
     '/heats/:heatId/screening-acknowledgements',
     requireAction('materials.disposition'),
-    validate({ params: heatIdParamsSchema, body: screeningAcknowledgementSchema }),
-    async (req, res) => {
-      const { heatId } = res.locals.valid.params as { heatId: number };
-      const body = res.locals.valid.body as ScreeningAcknowledgementInput;
+    ...validated({ params: heatIdParamsSchema, body: screeningAcknowledgementSchema }, async (input, req, res) => {
+      const { heatId } = input.params;
+      const body = input.body;
       res
         .status(201)
         .json(
@@ -181,7 +171,7 @@ export function materialsRouter(context: AppContext): Router {
             originOf(req),
           ),
         );
-    },
+    }),
   );
   router.get('/check-analysis-rules', requireAction('materials.read'), async (_req, res) => {
     res.json({ rules: await currentRules(dataSource().manager) });
@@ -189,17 +179,16 @@ export function materialsRouter(context: AppContext): Router {
   router.post(
     '/check-analysis-rules',
     requireAction('suppliers.manage'),
-    validate({ body: checkRuleInputSchema }),
-    async (req, res) => {
+    ...validated({ body: checkRuleInputSchema }, async (input, req, res) => {
       const rules = await setCheckRule(
         dataSource(),
-        res.locals.valid.body as CheckRuleInput,
+        input.body,
         currentPerson(req)!,
         actorOf(req, 'suppliers.manage'),
         originOf(req),
       );
       res.status(201).json({ rules });
-    },
+    }),
   );
   router.get('/check-analyses/due', requireAction('materials.read'), async (_req, res) => {
     res.json({ heats: await heatsAwaitingCheck(dataSource().manager) });
@@ -207,48 +196,45 @@ export function materialsRouter(context: AppContext): Router {
   router.post(
     '/heats/:heatId/check-analyses',
     requireAction('materials.write'),
-    validate({ params: heatIdParamsSchema, body: checkAnalysisInputSchema }),
-    async (req, res) => {
-      const { heatId } = res.locals.valid.params as { heatId: number };
+    ...validated({ params: heatIdParamsSchema, body: checkAnalysisInputSchema }, async (input, req, res) => {
+      const { heatId } = input.params;
       res
         .status(201)
         .json(
           await recordCheckAnalysis(
             dataSource(),
             heatId,
-            res.locals.valid.body as CheckAnalysisInput,
+            input.body,
             currentPerson(req)!,
             actorOf(req, 'materials.write'),
             originOf(req),
           ),
         );
-    },
+    }),
   );
   router.put(
     '/heats/:heatId/results',
     requireAction('materials.write'),
-    validate({ params: heatIdParamsSchema, body: heatResultsSchema }),
-    async (req, res) => {
-      const { heatId } = res.locals.valid.params as { heatId: number };
+    ...validated({ params: heatIdParamsSchema, body: heatResultsSchema }, async (input, req, res) => {
+      const { heatId } = input.params;
       res.json(
         await recordResults(
           dataSource(),
           heatId,
-          res.locals.valid.body as HeatResults,
+          input.body,
           currentPerson(req)!,
           actorOf(req, 'materials.write'),
           originOf(req),
         ),
       );
-    },
+    }),
   );
   router.post(
     '/heats/:heatId/certificates',
     requireAction('materials.write'),
-    validate({ params: heatIdParamsSchema }),
     certificateUpload,
-    async (req, res) => {
-      const { heatId } = res.locals.valid.params as { heatId: number };
+    ...validated({ params: heatIdParamsSchema }, async (input, req, res) => {
+      const { heatId } = input.params;
       if (!req.file)
         throw new AppError('VALIDATION_FAILED', 'Choose a certificate file to upload', { certificate: 'No file' });
       const originalName = Buffer.from(req.file.originalname, 'latin1').toString('utf8');
@@ -264,14 +250,13 @@ export function materialsRouter(context: AppContext): Router {
             originOf(req),
           ),
         );
-    },
+    }),
   );
   router.get(
     '/heats/:heatId/certificates/:documentId',
     requireAction('materials.read'),
-    validate({ params: documentParamsSchema }),
-    async (_req, res) => {
-      const { heatId, documentId } = res.locals.valid.params as { heatId: number; documentId: number };
+    ...validated({ params: documentParamsSchema }, async (input, _req, res) => {
+      const { heatId, documentId } = input.params;
       const document = await certificateFile(dataSource(), heatId, documentId);
       res
         .type(document.mediaType)
@@ -280,7 +265,7 @@ export function materialsRouter(context: AppContext): Router {
         .set('Digest', `sha-256=${Buffer.from(document.sha256, 'hex').toString('base64')}`)
         .attachment(document.originalName)
         .send(document.content);
-    },
+    }),
   );
 
   return router;

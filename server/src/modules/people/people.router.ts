@@ -4,22 +4,23 @@ import {
   peopleQuerySchema,
   personIdParamsSchema,
   roleChangeSchema,
-  type ActivationChange,
-  type PeopleQuery,
-  type RoleChange,
 } from '@shared/schemas/people';
 import type { AppContext } from '../../app-context';
 import { actorOf, originOf, requireAction } from '../../middleware/access';
-import { validate } from '../../middleware/validate';
+import { validated } from '../../middleware/validate';
 import { changeActivation, changeRoles, listPeople, peopleSettings } from './people.service';
 
 export function peopleRouter(context: AppContext): Router {
   const router = Router();
   const dataSource = () => context.database.dataSource;
 
-  router.get('/people', requireAction('people.read'), validate({ query: peopleQuerySchema }), async (_req, res) => {
-    res.json(await listPeople(dataSource(), res.locals.valid.query as PeopleQuery));
-  });
+  router.get(
+    '/people',
+    requireAction('people.read'),
+    ...validated({ query: peopleQuerySchema }, async (input, _req, res) => {
+      res.json(await listPeople(dataSource(), input.query));
+    }),
+  );
 
   router.get('/people/settings', requireAction('people.read'), async (_req, res) => {
     res.json(await peopleSettings(dataSource()));
@@ -28,36 +29,28 @@ export function peopleRouter(context: AppContext): Router {
   router.put(
     '/people/:personId/roles',
     requireAction('people.manage'),
-    validate({ params: personIdParamsSchema, body: roleChangeSchema }),
-    async (req, res) => {
-      const { personId } = res.locals.valid.params as { personId: number };
+    ...validated({ params: personIdParamsSchema, body: roleChangeSchema }, async (input, req, res) => {
+      const { personId } = input.params;
       const outcome = await changeRoles(
         dataSource(),
         personId,
-        res.locals.valid.body as RoleChange,
+        input.body,
         actorOf(req, 'people.manage'),
         originOf(req),
       );
       res.status(outcome.applied ? 200 : 202).json(outcome);
-    },
+    }),
   );
 
   router.put(
     '/people/:personId/activation',
     requireAction('people.manage'),
-    validate({ params: personIdParamsSchema, body: activationChangeSchema }),
-    async (req, res) => {
-      const { personId } = res.locals.valid.params as { personId: number };
+    ...validated({ params: personIdParamsSchema, body: activationChangeSchema }, async (input, req, res) => {
+      const { personId } = input.params;
       res.json(
-        await changeActivation(
-          dataSource(),
-          personId,
-          res.locals.valid.body as ActivationChange,
-          actorOf(req, 'people.manage'),
-          originOf(req),
-        ),
+        await changeActivation(dataSource(), personId, input.body, actorOf(req, 'people.manage'), originOf(req)),
       );
-    },
+    }),
   );
 
   return router;

@@ -5,12 +5,10 @@ import {
   exportFormatSchema,
   openRecallInputSchema,
   recallListQuerySchema,
-  type RecallListQuery,
 } from '@shared/schemas/recall';
-import type { z } from 'zod';
 import type { AppContext } from '../../app-context';
 import { actorOf, currentPerson, originOf, requireAction } from '../../middleware/access';
-import { validate } from '../../middleware/validate';
+import { validated } from '../../middleware/validate';
 import { recallExport } from './recall-exports';
 import { drillReportExport } from './drill-report-exports';
 import { listRecalls, openRecall, recallDetail, rerunRecall } from './recall.service';
@@ -19,56 +17,55 @@ import { listRecalls, openRecall, recallDetail, rerunRecall } from './recall.ser
 export function recallRouter(context: AppContext): Router {
   const router = Router();
   const data = () => context.database.dataSource;
-  const recallId = (res: { locals: Record<string, unknown> }) =>
-    (res.locals.valid as { params: { recallId: number } }).params.recallId;
 
   router.get(
     '/recalls',
     requireAction('recall.read'),
-    validate({ query: recallListQuerySchema }),
-    async (_req, res) => {
-      res.json(await listRecalls(data(), (res.locals.valid as { query: RecallListQuery }).query));
-    },
+    ...validated({ query: recallListQuerySchema }, async (input, _req, res) => {
+      res.json(await listRecalls(data(), input.query));
+    }),
   );
   router.post(
     '/recalls',
     requireAction('recall.manage'),
-    validate({ body: openRecallInputSchema }),
-    async (req, res) => {
+    ...validated({ body: openRecallInputSchema }, async (input, req, res) => {
       res
         .status(201)
-        .json(await openRecall(data(), req.body, currentPerson(req)!, actorOf(req, 'recall.manage'), originOf(req)));
-    },
+        .json(await openRecall(data(), input.body, currentPerson(req)!, actorOf(req, 'recall.manage'), originOf(req)));
+    }),
   );
   router.get(
     '/recalls/:recallId',
     requireAction('recall.read'),
-    validate({ params: idParams('recallId') }),
-    async (_req, res) => {
-      res.json(await recallDetail(data(), recallId(res)));
-    },
+    ...validated({ params: idParams('recallId') }, async (input, _req, res) => {
+      res.json(await recallDetail(data(), input.params.recallId));
+    }),
   );
   router.post(
     '/recalls/:recallId/reruns',
     requireAction('recall.manage'),
-    validate({ params: idParams('recallId') }),
-    async (req, res) => {
+    ...validated({ params: idParams('recallId') }, async (input, req, res) => {
       res
         .status(201)
         .json(
-          await rerunRecall(data(), recallId(res), currentPerson(req)!, actorOf(req, 'recall.manage'), originOf(req)),
+          await rerunRecall(
+            data(),
+            input.params.recallId,
+            currentPerson(req)!,
+            actorOf(req, 'recall.manage'),
+            originOf(req),
+          ),
         );
-    },
+    }),
   );
   router.get(
     '/recalls/:recallId/export',
     requireAction('recall.read'),
-    validate({ params: idParams('recallId'), query: exportFormatSchema }),
-    async (req, res) => {
-      const { format, snapshot } = (res.locals.valid as { query: z.infer<typeof exportFormatSchema> }).query;
+    ...validated({ params: idParams('recallId'), query: exportFormatSchema }, async (input, req, res) => {
+      const { format, snapshot } = input.query;
       const exported = await recallExport(
         data(),
-        recallId(res),
+        input.params.recallId,
         format,
         snapshot,
         actorOf(req, 'recall.read'),
@@ -80,17 +77,16 @@ export function recallRouter(context: AppContext): Router {
         .set('X-Snapshot-SHA256', exported.sha256)
         .attachment(exported.fileName)
         .send(exported.body);
-    },
+    }),
   );
   router.get(
     '/recalls/:recallId/drill-report',
     requireAction('recall.read'),
-    validate({ params: idParams('recallId'), query: drillReportFormatSchema }),
-    async (req, res) => {
-      const { format } = (res.locals.valid as { query: z.infer<typeof drillReportFormatSchema> }).query;
+    ...validated({ params: idParams('recallId'), query: drillReportFormatSchema }, async (input, req, res) => {
+      const { format } = input.query;
       const exported = await drillReportExport(
         data(),
-        recallId(res),
+        input.params.recallId,
         format,
         actorOf(req, 'recall.read'),
         originOf(req),
@@ -104,7 +100,7 @@ export function recallRouter(context: AppContext): Router {
         .set('X-Content-Type-Options', 'nosniff')
         .attachment(exported.file.fileName)
         .send(exported.file.body);
-    },
+    }),
   );
   return router;
 }

@@ -1,9 +1,9 @@
+import type { z } from 'zod';
 import type { DataSource, EntityManager } from 'typeorm';
 import { canonicalJson } from '@shared/domain/ledger-hash';
 import { diffAffectedSets, needsHold } from '@shared/domain/recall/snapshot-diff';
 import {
   openRecallInputSchema,
-  type OpenRecallInput,
   type RecallDetail,
   type RecallListQuery,
   type RecallRerun,
@@ -148,12 +148,11 @@ const holdable = (trace: RecallSnapshotContent['trace']) =>
  */
 export async function openRecall(
   dataSource: DataSource,
-  raw: OpenRecallInput,
+  input: z.output<typeof openRecallInputSchema>,
   person: Person,
   actor: Actor,
   origin: RequestOrigin,
 ): Promise<RecallDetail> {
-  const input = openRecallInputSchema.parse(raw);
   const id = await inTransaction(dataSource, async (manager) => {
     const preview = await forwardTraceIn(manager, input.trigger);
     const year = new Date().getUTCFullYear();

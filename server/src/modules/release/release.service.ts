@@ -1,9 +1,10 @@
+import type { z } from 'zod';
 import { createHash } from 'node:crypto';
 import { lotAuditTrail } from './audit-trail';
 import type { DataSource } from 'typeorm';
 import { contentHash } from '@shared/domain/signatures';
 import type { Person } from '@shared/schemas/people';
-import { labelMovementSchema, type LabelMovement, type ReleaseQueueQuery } from '@shared/schemas/release';
+import { labelMovementSchema, type ReleaseQueueQuery } from '@shared/schemas/release';
 import { AppError } from '../../errors';
 import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, sha256Hex, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
@@ -94,12 +95,11 @@ export async function submitForRelease(
 export async function recordLabels(
   dataSource: DataSource,
   lotId: number,
-  raw: LabelMovement,
+  input: z.output<typeof labelMovementSchema>,
   person: Person,
   actor: Actor,
   origin: RequestOrigin,
 ) {
-  const input = labelMovementSchema.parse(raw);
   return inTransaction(dataSource, async (manager) => {
     const lot = await lockLot(manager, lotId);
     if (!lot) throw AppError.notFound('Lot');

@@ -1,14 +1,8 @@
 import { Router } from 'express';
-import {
-  signatureIntentSchema,
-  signatureListQuerySchema,
-  signatureRequestSchema,
-  type SignatureIntent,
-  type SignatureRequest,
-} from '@shared/schemas/signatures';
+import { signatureIntentSchema, signatureListQuerySchema, signatureRequestSchema } from '@shared/schemas/signatures';
 import type { AppContext } from '../../app-context';
 import { currentPerson, originOf, requireSignedIn } from '../../middleware/access';
-import { validate } from '../../middleware/validate';
+import { validated } from '../../middleware/validate';
 import { limitRate } from '../../middleware/rate-limits';
 import { listSignatures, prepareSignature, signRecord } from './signatures.service';
 import { signableRecordType } from './signable-records';
@@ -34,29 +28,32 @@ export function signaturesRouter(context: AppContext): Router {
     '/signatures/preparations',
     requireSignedIn(),
     signing,
-    validate({ body: signatureIntentSchema }),
-    async (req, res) => {
-      res.json(await prepareSignature(dataSource(), currentPerson(req)!, res.locals.valid.body as SignatureIntent));
-    },
+    ...validated({ body: signatureIntentSchema }, async (input, req, res) => {
+      res.json(await prepareSignature(dataSource(), currentPerson(req)!, input.body));
+    }),
   );
 
-  router.post('/signatures', requireSignedIn(), validate({ body: signatureRequestSchema }), async (req, res) => {
-    res
-      .status(201)
-      .json(
-        await signRecord(dataSource(), currentPerson(req)!, res.locals.valid.body as SignatureRequest, originOf(req)),
-      );
-  });
+  router.post(
+    '/signatures',
+    requireSignedIn(),
+    ...validated({ body: signatureRequestSchema }, async (input, req, res) => {
+      res.status(201).json(await signRecord(dataSource(), currentPerson(req)!, input.body, originOf(req)));
+    }),
+  );
 
-  router.get('/signatures', requireSignedIn(), validate({ query: signatureListQuerySchema }), async (req, res) => {
-    const { recordType, recordId } = res.locals.valid.query as { recordType: string; recordId?: string };
-    // Signatures are read with the right to read the record they sign, not by anyone signed in.
-    const type = signableRecordType(recordType);
-    if (!type) throw new AppError('NOT_FOUND', `Records of type ${recordType} are not signed`);
-    if (!rolesAllow(currentPerson(req)!.roles, type.readAction))
-      throw new AppError('FORBIDDEN', `Your roles do not allow reading ${type.label} signatures`);
-    res.json(await listSignatures(dataSource(), recordType, recordId));
-  });
+  router.get(
+    '/signatures',
+    requireSignedIn(),
+    ...validated({ query: signatureListQuerySchema }, async (input, req, res) => {
+      const { recordType, recordId } = input.query;
+      // Signatures are read with the right to read the record they sign, not by anyone signed in.
+      const type = signableRecordType(recordType);
+      if (!type) throw new AppError('NOT_FOUND', `Records of type ${recordType} are not signed`);
+      if (!rolesAllow(currentPerson(req)!.roles, type.readAction))
+        throw new AppError('FORBIDDEN', `Your roles do not allow reading ${type.label} signatures`);
+      res.json(await listSignatures(dataSource(), recordType, recordId));
+    }),
+  );
 
   return router;
 }

@@ -1,15 +1,9 @@
 import { Router } from 'express';
-import {
-  backwardQuerySchema,
-  forwardQuerySchema,
-  traceStartQuerySchema,
-  type BackwardQuery,
-  type ForwardStart,
-} from '@shared/schemas/trace';
+import { backwardQuerySchema, forwardQuerySchema, traceStartQuerySchema } from '@shared/schemas/trace';
 import { findTraceStarts } from './trace-starts.repository';
 import type { AppContext } from '../../app-context';
 import { requireAction } from '../../middleware/access';
-import { validate } from '../../middleware/validate';
+import { validated } from '../../middleware/validate';
 import { backwardTrace, forwardTrace } from './trace.service';
 import { backwardGraph, forwardGraph } from './genealogy-graph.service';
 
@@ -20,42 +14,37 @@ export function traceRouter(context: AppContext): Router {
   router.get(
     '/trace/backward',
     requireAction('trace.read'),
-    validate({ query: backwardQuerySchema }),
-    async (_req, res) => {
-      res.json(await backwardTrace(data(), (res.locals.valid as { query: BackwardQuery }).query));
-    },
+    ...validated({ query: backwardQuerySchema }, async (input, _req, res) => {
+      res.json(await backwardTrace(data(), input.query));
+    }),
   );
   router.get(
     '/trace/starts',
     requireAction('trace.read'),
-    validate({ query: traceStartQuerySchema }),
-    async (_req, res) => {
-      res.json(await findTraceStarts(data().manager, (res.locals.valid as { query: { q: string } }).query.q));
-    },
+    ...validated({ query: traceStartQuerySchema }, async (input, _req, res) => {
+      res.json(await findTraceStarts(data().manager, input.query.q));
+    }),
   );
   router.get(
     '/trace/forward',
     requireAction('trace.read'),
-    validate({ query: forwardQuerySchema }),
-    async (_req, res) => {
-      res.json(await forwardTrace(data(), (res.locals.valid as { query: ForwardStart }).query));
-    },
+    ...validated({ query: forwardQuerySchema }, async (input, _req, res) => {
+      res.json(await forwardTrace(data(), input.query));
+    }),
   );
   router.get(
     '/trace/backward/graph',
     requireAction('trace.read'),
-    validate({ query: backwardQuerySchema }),
-    async (_req, res) => {
-      res.json(await backwardGraph(data(), (res.locals.valid as { query: BackwardQuery }).query));
-    },
+    ...validated({ query: backwardQuerySchema }, async (input, _req, res) => {
+      res.json(await backwardGraph(data(), input.query));
+    }),
   );
   router.get(
     '/trace/forward/graph',
     requireAction('trace.read'),
-    validate({ query: forwardQuerySchema }),
-    async (_req, res) => {
-      res.json(await forwardGraph(data(), (res.locals.valid as { query: ForwardStart }).query));
-    },
+    ...validated({ query: forwardQuerySchema }, async (input, _req, res) => {
+      res.json(await forwardGraph(data(), input.query));
+    }),
   );
   return router;
 }
