@@ -184,6 +184,19 @@ describe('lot release: readiness, submission, two signatures, shipment', () => {
       ).status,
     ).toBe(201);
     expect((await view(lots[0]!)).status).toBe('released');
+    // The status changes the signatures made are recorded under each signer's acting role and the
+    // request that carried the signature (its id and address), like any other change.
+    const changes: Array<{ action: string; actor_name: string; actor_role: string; request_id: string | null }> =
+      await running.database.dataSource.query(
+        `SELECT action, actor_name, actor_role, request_id FROM audit_event
+          WHERE entity_type = 'lot' AND entity_id = ? AND action IN ('lot.reviewed', 'lot.released') ORDER BY seq`,
+        [String(lots[0])],
+      );
+    expect(changes.map(({ request_id: _id, ...change }) => change)).toEqual([
+      { action: 'lot.reviewed', actor_name: 'Aisling Ní Bhriain', actor_role: 'qa-reviewer' },
+      { action: 'lot.released', actor_name: 'Joaquín Ferreira', actor_role: 'qa-approver' },
+    ]);
+    for (const change of changes) expect(change.request_id).toMatch(/\S/);
     const consignee = await post('engineer', '/api/consignees', {
       name: 'Test Release Clinic',
       kind: 'hospital',

@@ -20,7 +20,7 @@ export async function heatMixingApproved(manager: EntityManager, lotId: number, 
  * A lot is made from one heat unless a QA approver signs that a further heat may be mixed in:
  * the signature binds the lot, its part, the heats already in it and the heat to be added.
  */
-export const heatMixingRecordType: SignableRecordType = {
+export const heatMixingRecordType: SignableRecordType<{ lotStatus: string; heatStatus: string; heatsInLot: number }> = {
   type: 'heat-mixing',
   label: 'heat mixing approval',
   action: 'heat-mixing.approve',
@@ -50,7 +50,7 @@ export const heatMixingRecordType: SignableRecordType = {
   },
   refusal({ meaning, record }) {
     if (meaning !== 'approved') return null;
-    const facts = record as unknown as { lotStatus: string; heatStatus: string; heatsInLot: number };
+    const facts = record;
     if (facts.lotStatus !== 'open') return `The lot is ${facts.lotStatus}; no more bar can be issued to it`;
     if (facts.heatStatus !== 'accepted')
       return `The heat is ${facts.heatStatus}; only an accepted heat can be mixed in`;

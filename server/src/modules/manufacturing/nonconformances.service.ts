@@ -119,61 +119,62 @@ async function rejectScrappedLot(manager: EntityManager, ncId: number, actor: Ac
  * A nonconformance's disposition and its closure are each an electronic signature by a QA
  * approver who did not raise it; closing needs the disposition signed first and a reason.
  */
-export const nonconformanceRecordType: SignableRecordType = {
-  type: 'nonconformance',
-  label: 'nonconformance',
-  action: 'nonconformances.disposition',
-  readAction: 'lots.read',
-  meanings: ['dispositioned', 'closed'],
-  async load(manager, recordId) {
-    if (!/^\d{1,10}$/.test(recordId)) return null;
-    const nc = await findNonconformance(manager, Number(recordId));
-    if (!nc) return null;
-    return {
-      title: `${nc.ncNumber}: ${nc.subjectLabel}`,
-      content: {
-        nonconformance: nc.ncNumber,
-        subject: nc.subjectLabel,
-        lot: nc.lotNumber,
-        run: nc.runNumber,
-        description: nc.description,
-        containment: nc.containment,
-        disposition: nc.disposition,
-        dispositionNote: nc.dispositionNote,
-      },
-      authorIds: [nc.raisedById],
-      status: nc.status,
-    };
-  },
-  refusal({ meaning, record }) {
-    const facts = record as unknown as { status: string; content: { disposition: string | null } };
-    if (meaning === 'dispositioned') {
-      if (facts.status !== 'open') return `The nonconformance is already ${facts.status}`;
-      if (!facts.content.disposition) return 'State the disposition before signing it';
-    }
-    if (meaning === 'closed' && facts.status !== 'dispositioned')
-      return facts.status === 'closed'
-        ? 'The nonconformance is already closed'
-        : 'Sign the disposition before closing the nonconformance';
-    return null;
-  },
-  async afterSign(manager, { recordId, meaning, signerId, signerName, reason }) {
-    const status = meaning === 'dispositioned' ? 'dispositioned' : meaning === 'closed' ? 'closed' : null;
-    if (!status) return;
-    await setNonconformanceStatus(manager, Number(recordId), status);
-    await appendLedgerEvent(manager, {
-      actor: { id: signerId, name: signerName, role: 'qa-approver' },
-      action: `nonconformance.${status}`,
-      entity: { type: 'nonconformance', id: Number(recordId) },
-      after: { status },
-      reason,
-    });
-    if (status === 'dispositioned')
-      await rejectScrappedLot(
-        manager,
-        Number(recordId),
-        { id: signerId, name: signerName, role: 'qa-approver' },
+export const nonconformanceRecordType: SignableRecordType<{ status: string; content: { disposition: string | null } }> =
+  {
+    type: 'nonconformance',
+    label: 'nonconformance',
+    action: 'nonconformances.disposition',
+    readAction: 'lots.read',
+    meanings: ['dispositioned', 'closed'],
+    async load(manager, recordId) {
+      if (!/^\d{1,10}$/.test(recordId)) return null;
+      const nc = await findNonconformance(manager, Number(recordId));
+      if (!nc) return null;
+      return {
+        title: `${nc.ncNumber}: ${nc.subjectLabel}`,
+        content: {
+          nonconformance: nc.ncNumber,
+          subject: nc.subjectLabel,
+          lot: nc.lotNumber,
+          run: nc.runNumber,
+          description: nc.description,
+          containment: nc.containment,
+          disposition: nc.disposition,
+          dispositionNote: nc.dispositionNote,
+        },
+        authorIds: [nc.raisedById],
+        status: nc.status,
+      };
+    },
+    refusal({ meaning, record }) {
+      const facts = record;
+      if (meaning === 'dispositioned') {
+        if (facts.status !== 'open') return `The nonconformance is already ${facts.status}`;
+        if (!facts.content.disposition) return 'State the disposition before signing it';
+      }
+      if (meaning === 'closed' && facts.status !== 'dispositioned')
+        return facts.status === 'closed'
+          ? 'The nonconformance is already closed'
+          : 'Sign the disposition before closing the nonconformance';
+      return null;
+    },
+    async afterSign(manager, { recordId, meaning, signer, reason }) {
+      const status = meaning === 'dispositioned' ? 'dispositioned' : meaning === 'closed' ? 'closed' : null;
+      if (!status) return;
+      await setNonconformanceStatus(manager, Number(recordId), status);
+      await appendLedgerEvent(manager, {
+        actor: { id: signer.id, name: signer.name, role: signer.role },
+        action: `nonconformance.${status}`,
+        entity: { type: 'nonconformance', id: Number(recordId) },
+        after: { status },
         reason,
-      );
-  },
-};
+      });
+      if (status === 'dispositioned')
+        await rejectScrappedLot(
+          manager,
+          Number(recordId),
+          { id: signer.id, name: signer.name, role: signer.role },
+          reason,
+        );
+    },
+  };

@@ -62,7 +62,7 @@ export async function currentJustification(
     : null;
 }
 
-export const heatEvaluationRecordType: SignableRecordType = {
+export const heatEvaluationRecordType: SignableRecordType<{ verdict: string | null; status: string }> = {
   type: 'heat-evaluation',
   label: 'heat evaluation justification',
   action: 'materials.justify',
@@ -74,7 +74,7 @@ export const heatEvaluationRecordType: SignableRecordType = {
   },
   refusal({ meaning, record }) {
     if (meaning !== 'justified') return null;
-    const facts = record as unknown as { verdict: string | null; status: string };
+    const facts = record;
     if (facts.status === 'accepted' || facts.status === 'rejected') return `The heat is already ${facts.status}`;
     if (facts.verdict !== 'cannot-be-evaluated') {
       return facts.verdict === 'does-not-conform'

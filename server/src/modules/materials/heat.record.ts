@@ -14,7 +14,14 @@ const statusByMeaning = { accepted: 'accepted', rejected: 'rejected', quarantine
  * certificates' hashes. Only a conforming heat from a supplier that is not disqualified can be
  * accepted.
  */
-export const heatRecordType: SignableRecordType = {
+export const heatRecordType: SignableRecordType<{
+  status: HeatSummary['status'];
+  supplierApproval: string;
+  hasCertificate: boolean;
+  openFindings: string[];
+  checkRefusal: string | null;
+  content: { verdict: string; justification?: string };
+}> = {
   type: 'heat',
   label: 'heat disposition',
   action: 'materials.disposition',
@@ -67,14 +74,7 @@ export const heatRecordType: SignableRecordType = {
     };
   },
   refusal({ meaning, record }) {
-    const facts = record as unknown as {
-      status: HeatSummary['status'];
-      supplierApproval: string;
-      hasCertificate: boolean;
-      openFindings: string[];
-      checkRefusal: string | null;
-      content: { verdict: string; justification?: string };
-    };
+    const facts = record;
     if (facts.status === 'accepted' || facts.status === 'rejected') return `The heat is already ${facts.status}`;
     if (meaning === 'accepted') {
       if (facts.supplierApproval === 'disqualified') return 'Heats from a disqualified supplier cannot be accepted';
@@ -92,14 +92,14 @@ export const heatRecordType: SignableRecordType = {
     }
     return null;
   },
-  async afterSign(manager, { recordId, meaning, signerId, signerName, reason }) {
+  async afterSign(manager, { recordId, meaning, signer, reason }) {
     const heatId = Number(recordId);
     const heat = await heats.findHeat(manager, heatId, true);
     const status = statusByMeaning[meaning as keyof typeof statusByMeaning];
     if (!heat || !status) return;
     await heats.setHeatStatus(manager, heatId, status);
     await appendLedgerEvent(manager, {
-      actor: { id: signerId, name: signerName, role: 'qa-reviewer' },
+      actor: { id: signer.id, name: signer.name, role: signer.role },
       action: 'heat.dispositioned',
       entity: { type: 'heat', id: heatId },
       before: { status: heat.status },

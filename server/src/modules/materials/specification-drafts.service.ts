@@ -161,7 +161,7 @@ export async function draftRevision(
 }
 
 /** Approving a draft (a QA approver's signature, not by its author) stores it as an immutable revision. */
-export const specificationDraftRecordType: SignableRecordType = {
+export const specificationDraftRecordType: SignableRecordType<{ status?: string }> = {
   type: 'specification-draft',
   label: 'specification revision',
   action: 'specifications.approve',
@@ -187,11 +187,9 @@ export const specificationDraftRecordType: SignableRecordType = {
     };
   },
   refusal({ record }) {
-    return (record as { status?: string }).status === 'draft'
-      ? null
-      : `This draft is already ${(record as { status?: string }).status}`;
+    return record.status === 'draft' ? null : `This draft is already ${record.status}`;
   },
-  async afterSign(manager, { recordId, meaning, signerId, signerName, reason }) {
+  async afterSign(manager, { recordId, meaning, signer, reason }) {
     const row = await draftRow(manager, Number(recordId), true);
     if (!row) return;
     const status = meaning === 'approved' ? 'approved' : 'rejected';
@@ -208,7 +206,7 @@ export const specificationDraftRecordType: SignableRecordType = {
     }
     await setDraftStatus(manager, row.id, status);
     await appendLedgerEvent(manager, {
-      actor: { id: signerId, name: signerName, role: 'qa-approver' },
+      actor: { id: signer.id, name: signer.name, role: signer.role },
       action: status === 'approved' ? 'specification.revision-approved' : 'specification.revision-rejected',
       entity: { type: 'specification', id: `${row.spec_id} ${row.revision}` },
       after: { draftId: row.id, status },

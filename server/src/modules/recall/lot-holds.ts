@@ -96,7 +96,7 @@ export async function placeHolds(
 }
 
 /** A hold is lifted only by a QA approver's signature, with a reason, by someone other than who placed it. */
-export const lotHoldRecordType: SignableRecordType = {
+export const lotHoldRecordType: SignableRecordType<{ lifted: boolean }> = {
   type: 'lot-hold',
   label: 'lot hold',
   action: 'holds.lift',
@@ -120,12 +120,12 @@ export const lotHoldRecordType: SignableRecordType = {
     };
   },
   refusal({ record }) {
-    return (record as unknown as { lifted: boolean }).lifted ? 'The hold is already lifted' : null;
+    return record.lifted ? 'The hold is already lifted' : null;
   },
-  async afterSign(manager, { recordId, signerId, signerName, reason }) {
-    const lifted = await liftHold(manager, Number(recordId), signerId);
+  async afterSign(manager, { recordId, signer, reason }) {
+    const lifted = await liftHold(manager, Number(recordId), signer.id);
     await appendLedgerEvent(manager, {
-      actor: { id: signerId, name: signerName, role: 'qa-approver' },
+      actor: { id: signer.id, name: signer.name, role: signer.role },
       action: 'lot.hold-lifted',
       entity: { type: 'lot', id: lifted?.lotId ?? 0 },
       after: { holdId: Number(recordId) },

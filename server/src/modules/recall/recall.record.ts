@@ -9,7 +9,7 @@ import { closeRecall, findRecallRow, rerunSnapshots } from './recall.repository'
  * opened it, over what it found (the opening snapshot's hash and every re-run's). A recall's
  * holds must all be lifted or dispositioned first; a drill has none.
  */
-export const recallInvestigationRecordType: SignableRecordType = {
+export const recallInvestigationRecordType: SignableRecordType<{ status: string; activeHolds: number }> = {
   type: 'recall-investigation',
   label: 'recall investigation',
   action: 'recall.close',
@@ -44,18 +44,18 @@ export const recallInvestigationRecordType: SignableRecordType = {
     };
   },
   refusal({ record }) {
-    const facts = record as unknown as { status: string; activeHolds: number };
+    const facts = record;
     if (facts.status !== 'open') return 'The investigation is already closed';
     if (facts.activeHolds > 0)
       return `${facts.activeHolds} lot(s) are still held by this investigation; a QA approver lifts each hold (after its disposition) before it closes`;
     return null;
   },
-  async afterSign(manager, { recordId, signerId, signerName, reason }) {
+  async afterSign(manager, { recordId, signer, reason }) {
     const id = Number(recordId);
     const row = await findRecallRow(manager, id, true);
     await closeRecall(manager, id);
     await appendLedgerEvent(manager, {
-      actor: { id: signerId, name: signerName, role: null },
+      actor: { id: signer.id, name: signer.name, role: signer.role },
       action: 'recall.closed',
       entity: { type: 'recall', id },
       before: { status: 'open' },
@@ -63,6 +63,6 @@ export const recallInvestigationRecordType: SignableRecordType = {
       reason,
     });
     if (row?.mode === 'recall')
-      await queueRecallClosedMail(manager, { id, recallNumber: row.recall_number }, signerName, reason);
+      await queueRecallClosedMail(manager, { id, recallNumber: row.recall_number }, signer.name, reason);
   },
 };

@@ -6,9 +6,9 @@ import type { SignableRecordType } from '../signatures/signable-records';
 import { signaturesFor } from '../signatures/signatures.repository';
 import { appendLedgerEvent, sha256Hex } from '../ledger/ledger.repository';
 import { lotAuditTrail } from './audit-trail';
-import { ancestry, releaseDossierIn } from './release-dossier';
+import { releaseDossierIn } from './release-dossier';
 import { queueReleaseMail } from './release-mails';
-import { changeLotStatus, findLot, lockLot } from '../manufacturing/production-lot.repository';
+import { changeLotStatus, findLot } from '../manufacturing/production-lot.repository';
 import { closePendingSubmission } from './release.repository';
 
 const actions = {
@@ -23,7 +23,16 @@ const actions = {
  * reason, which returns the lot to the engineer. Approval needs the reviewer's signature to
  * cover the release content as it is now.
  */
-export const lotReleaseRecordType: SignableRecordType = {
+export const lotReleaseRecordType: SignableRecordType<{
+  status: string;
+  ready: boolean;
+  reviewedCurrent: boolean;
+  trailAfterReview: string[];
+  /** How far the lot's audit trail went when the record was loaded, and how many events that is. */
+  trail: { throughSeq: number; events: number };
+  /** Good units the release would release. */
+  onHand: number;
+}> = {
   type: 'lot-release',
   label: 'lot release',
   action: 'release.review',
@@ -52,18 +61,13 @@ export const lotReleaseRecordType: SignableRecordType = {
       reviewedCurrent: reviews.some((row) => row.content_hash === hash),
       trailAfterReview: trail.afterReview.map((event) => `#${event.seq} ${event.action} by ${event.actor}`),
       trail: { throughSeq: trail.events.at(-1)?.seq ?? 0, events: trail.events.length },
+      onHand: dossier.lot.onHand ?? 0,
     };
   },
   // The review covers the trail as the reviewer was shown it; an event in between refuses the signature.
-  trailMark: (record, meaning) =>
-    meaning === 'reviewed' ? (record.trail as { throughSeq: number; events: number }) : undefined,
+  trailMark: (record, meaning) => (meaning === 'reviewed' ? record.trail : undefined),
   refusal({ meaning, record }) {
-    const facts = record as unknown as {
-      status: string;
-      ready: boolean;
-      reviewedCurrent: boolean;
-      trailAfterReview: string[];
-    };
+    const facts = record;
     const reviewVoid = !facts.reviewedCurrent || facts.trailAfterReview.length > 0;
     if (meaning === 'reviewed') {
       if (facts.status !== 'submitted' && !(facts.status === 'reviewed' && reviewVoid))
@@ -82,15 +86,12 @@ export const lotReleaseRecordType: SignableRecordType = {
       return `The lot is ${facts.status}; only a lot under review can be returned to engineering`;
     return null;
   },
-  async afterSign(manager, { recordId, meaning, signerId, signerName, reason }) {
+  // The record was built once for this signature, in its transaction: what was signed is what changes.
+  async afterSign(manager, { recordId, meaning, signer, reason, origin, record }) {
     const lotId = Number(recordId);
-    await lockLot(manager, lotId);
-    // The review records how far the lot's audit trail went when it was signed.
-    const trail = meaning === 'reviewed' ? await lotAuditTrail(manager, lotId, await ancestry(manager, lotId)) : null;
     let moved: { from: string; to: string };
     if (meaning === 'approved-for-release') {
-      const dossier = await releaseDossierIn(manager, lotId);
-      moved = await changeLotStatus(manager, lotId, 'approve-for-release', { qty: dossier.lot.onHand ?? 0 });
+      moved = await changeLotStatus(manager, lotId, 'approve-for-release', { qty: record.onHand });
       await closePendingSubmission(manager, lotId, 'released');
     } else if (meaning === 'returned-to-engineering') {
       moved = await changeLotStatus(manager, lotId, 'return-to-engineering');
@@ -105,19 +106,19 @@ export const lotReleaseRecordType: SignableRecordType = {
       reason,
     );
     await appendLedgerEvent(manager, {
-      actor: {
-        id: signerId,
-        name: signerName,
-        role: meaning === 'approved-for-release' ? 'qa-approver' : 'qa-reviewer',
-      },
+      actor: signer,
       action: `lot.${meaning === 'approved-for-release' ? 'released' : meaning}`,
       entity: { type: 'lot', id: lotId },
       before: { status: moved.from },
       after: {
         status: moved.to,
-        ...(trail ? { auditTrail: { events: trail.events.length, throughSeq: trail.events.at(-1)?.seq ?? 0 } } : {}),
+        // The review records how far the lot's audit trail went when it was signed.
+        ...(meaning === 'reviewed'
+          ? { auditTrail: { events: record.trail.events, throughSeq: record.trail.throughSeq } }
+          : {}),
       },
       reason,
+      origin,
     });
   },
 };

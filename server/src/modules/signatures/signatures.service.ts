@@ -244,11 +244,11 @@ export async function signRecord(
     await type.afterSign?.(manager, {
       recordId: request.recordId,
       meaning: request.meaning,
-      signerId: person.id,
-      signerName: person.name,
+      signer: { id: person.id, name: person.name, role: signerRole },
       reason,
       signatureLedgerSeq: ledger.seq,
       origin,
+      record,
     });
     return toSignature({ ...row, id: String(id) }, hash);
   });
