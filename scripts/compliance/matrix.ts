@@ -53,7 +53,10 @@ export function testIdsUnder(folder = 'tests'): Map<string, string[]> {
   return found;
 }
 
-/** What is wrong with the matrix: cited ids no test declares, ids declared twice, requirements with neither tests nor a procedure. */
+/**
+ * What is wrong with the matrix: cited ids no test declares, ids declared twice, requirements with neither tests nor a
+ * procedure.
+ */
 export function matrixProblems(matrix: Matrix, declared: Map<string, string[]>): string[] {
   const problems: string[] = [];
   const seen = new Set<string>();

@@ -226,7 +226,8 @@ export async function restoreDatabase(
   const restored = createDataSource(target, 'app');
   await restored.initialize();
   try {
-    // Checkpoints of the target's own ledger: a restore over a ledger checkpointed after the backup is reported as cut off.
+    // Checkpoints of the target's own ledger: a restore over a ledger checkpointed after the backup is reported as cut
+    // off.
     const verification = await verifyLedger(restored.manager, {
       checkpoints: readWitnessFile(witnessFilePath(target)),
     });

@@ -187,7 +187,8 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
 
   for (const consignee of demoConsignees)
     await createConsignee(dataSource, consigneeInputSchema.parse({ ...consignee, contactEmail: null }), actor, origin);
-  // The firm's own validation of the citric method for titanium alloy parts: shown as the firm's own beside the method's stainless-steel scope.
+  // The firm's own validation of the citric method for titanium alloy parts: shown as the firm's own beside the
+  // method's stainless-steel scope.
   await recordMethodValidation(
     dataSource,
     'A967-CITRIC',

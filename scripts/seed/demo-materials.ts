@@ -116,7 +116,9 @@ const quarantinedHeat: DemoHeat = {
 const dayOf = (daysAgo: number) => new Date(Date.now() - daysAgo * 86_400_000).toISOString().slice(0, 10);
 const origin = { requestId: 'demo-seed', clientAddress: null };
 
-/** Demo mass of a round bar (density only for invented demo values: Ti-6Al-4V about 4.43 g/cm³, 316L about 7.99 g/cm³). */
+/**
+ * Demo mass of a round bar (density only for invented demo values: Ti-6Al-4V about 4.43 g/cm³, 316L about 7.99 g/cm³).
+ */
 function barMassKg(specId: string, diameterMm: string, lengthMm: number): string {
   const density = specId === 'ASTM F138' ? 7.99 : 4.43;
   const radiusCm = Number(diameterMm) / 20;

@@ -32,7 +32,9 @@ export interface AppOptions {
   clientDir?: string;
   /** Deliver queued e-mail in the background (default); tests of the outbox itself turn it off. */
   mailWorker?: boolean;
-  /** Checkpoint the audit ledger daily (default, except in the test profile, whose suites checkpoint when they mean to). */
+  /**
+   * Checkpoint the audit ledger daily (default, except in the test profile, whose suites checkpoint when they mean to).
+   */
   dailyCheckpoints?: boolean;
 }
 

@@ -159,7 +159,9 @@ export const barPieceSchema = z.object({
     specId: z.string(),
     grade: z.string().nullable(),
   }),
-  /** The heat number read off the bar at receipt and matched to the certificate (null before receipts were confirmed). */
+  /**
+   * The heat number read off the bar at receipt and matched to the certificate (null before receipts were confirmed).
+   */
   markedHeatNumber: z.string().nullable(),
   parentTag: z.string().nullable(),
   childTags: z.array(z.string()),
@@ -283,7 +285,9 @@ export const specificationDraftSchema = z.object({
           ['published', 'firm', 'unconfirmed'],
           'Say how sure the value is: published, the firm’s own, or unverified',
         ),
-        /** The product (check) analysis tolerance; re-entered whenever the limit changes, as it may depend on the limit. */
+        /**
+         * The product (check) analysis tolerance; re-entered whenever the limit changes, as it may depend on the limit.
+         */
         tolerance: z.object({ under: limitValue, over: limitValue }).optional(),
       }),
     )

@@ -34,7 +34,9 @@ export const heatScreeningSchema = z.object({
 });
 export type HeatScreening = z.infer<typeof heatScreeningSchema>;
 
-/** Every specification and grade a supplier delivers, screened; each finding with its heats and their acknowledgement. */
+/**
+ * Every specification and grade a supplier delivers, screened; each finding with its heats and their acknowledgement.
+ */
 export const supplierScreeningSchema = z.object({
   supplier: z.object({
     id: z.number().int(),

@@ -6,7 +6,9 @@ import type { GraphEdge, GraphNode } from '../domain/trace/genealogy-graph';
 const id = z.coerce.number().int().positive().max(4_294_967_295);
 const day = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'A date as YYYY-MM-DD');
 
-/** Finding where a forward trace starts, by the numbers people hold: heat number, bar tag, run number, supplier name. */
+/**
+ * Finding where a forward trace starts, by the numbers people hold: heat number, bar tag, run number, supplier name.
+ */
 export const traceStartQuerySchema = z.object({
   q: z
     .string()

@@ -111,7 +111,10 @@ export function useSigning() {
     throw new Error('No password was entered in time; sign again');
   }
 
-  /** Stops waiting for the password window: the server ends the re-authentication (not counted against the person) and the window is closed. */
+  /**
+   * Stops waiting for the password window: the server ends the re-authentication (not counted against the person) and
+   * the window is closed.
+   */
   async function cancel() {
     cancelled = true;
     const waiting = current;

@@ -161,7 +161,10 @@ describe('the audit ledger', () => {
     expect(missing.stderr).toMatch(/^ingotrace: cannot read .*absent\.json/);
   });
 
-  /** Appends one event as an intruder holding the app's database account would: a correctly recomputed chain, and whatever signature he can make. */
+  /**
+   * Appends one event as an intruder holding the app's database account would: a correctly recomputed chain, and
+   * whatever signature he can make.
+   */
   async function forgeAppend(signature: (hash: string) => { signature: string | null; keyId: string | null }) {
     const connection = await createConnection({
       host: '127.0.0.1',
@@ -213,7 +216,10 @@ describe('the audit ledger', () => {
       await connection.end();
     }
   }
-  /** Takes a forged event out again (behind the triggers, as the database administrator) so the shared ledger verifies for the other suites. */
+  /**
+   * Takes a forged event out again (behind the triggers, as the database administrator) so the shared ledger verifies
+   * for the other suites.
+   */
   async function removeForged(forged: { seq: number; previous: { seq: string; hash: string } }) {
     const restoreTrigger = `CREATE TRIGGER audit_event_refuse_delete BEFORE DELETE ON audit_event FOR EACH ROW SIGNAL SQLSTATE '45000' SET MESSAGE_TEXT = 'audit_event is append-only: rows cannot be deleted';`;
     await adminSql(
@@ -288,7 +294,8 @@ describe('the audit ledger', () => {
       ),
     );
     // Even taking the forger's key as the trusted one, the installation's signed checkpoints refuse the file;
-    // only with the forger's key and no witness would it pass — which is why the firm publishes its key and keeps its checkpoints.
+    // only with the forger's key and no witness would it pass — which is why the firm publishes its key and keeps its
+    // checkpoints.
     writeFileSync(join(folder, 'forger.pub.pem'), publicPem);
     expect(
       ingotrace('audit', 'verify', '--file', resigned, '--public-key', join(folder, 'forger.pub.pem')).stderr,

@@ -265,7 +265,8 @@ describe('check analysis schedule', () => {
       position: 4,
       why: 'Every heat from a conditionally approved supplier is checked',
     });
-    // Heat 2, accepted while the rule skipped it, would now be due; a heat accepted earlier keeps an intact signature: what it signed does not move with the rules.
+    // Heat 2, accepted while the rule skipped it, would now be due; a heat accepted earlier keeps an intact signature:
+    // what it signed does not move with the rules.
     const signatures = (await people.reviewer.agent.get(`/api/signatures?recordType=heat&recordId=${heatIds[1]}`))
       .body as Array<{ meaning: string; changedAfterSigning: boolean }>;
     expect(signatures.map((signature) => [signature.meaning, signature.changedAfterSigning])).toEqual([

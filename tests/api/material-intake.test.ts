@@ -231,7 +231,8 @@ describe('material intake: suppliers, heats, certificates, results, disposition'
     expect(scripted.status).toBe(422);
     expect(scripted.body.error.message).toMatch(/^The PDF carries JavaScript; such files are refused, not cleaned/);
     expect(scripted.body.error.fields).toEqual({ certificate: 'PDF with JavaScript' });
-    // The same script in an object stream encoded with /ASCIIHexDecode (which a scan of Flate streams alone let through).
+    // The same script in an object stream encoded with /ASCIIHexDecode (which a scan of Flate streams alone let
+    // through).
     const inner = Buffer.from('4 0 << /S /JavaScript /JS (app.alert\\(1\\)) >>', 'latin1').toString('hex');
     const hidden = Buffer.from(
       `%PDF-1.4\n1 0 obj << /Type /Catalog /Pages 2 0 R /OpenAction 4 0 R >> endobj\n2 0 obj << /Type /Pages /Kids [] /Count 0 >> endobj\n3 0 obj << /Type /ObjStm /N 1 /First 4 /Filter /ASCIIHexDecode /Length ${inner.length + 1} >>\nstream\n${inner}>\nendstream\nendobj\ntrailer << /Root 1 0 R >>\n%%EOF\n`,

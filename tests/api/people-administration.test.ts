@@ -35,7 +35,8 @@ describe('people administration', () => {
     second = { agent: other, csrf: await csrfTokenOf(other), subject: 'kiw-0602' };
   });
   afterAll(async () => {
-    // Leave the shared test database as the seed made it, for the other test files: asked by one administrator, confirmed by the other.
+    // Leave the shared test database as the seed made it, for the other test files: asked by one administrator,
+    // confirmed by the other.
     const restore = [
       ['kiw-0102', ['manufacturing-engineer']],
       ['kiw-0701', ['qa-reviewer', 'recall-coordinator']],

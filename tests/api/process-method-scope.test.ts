@@ -78,7 +78,10 @@ describe('process methods within their material scope, endotoxin limits by conta
       (await running.database.dataSource.query('SELECT COUNT(*) AS n FROM audit_event WHERE action = ?', [action]))[0]
         .n,
     );
-  /** Opens a lot of five from the test bar and records its first (machining) step, so that its next step is the one after. */
+  /**
+   * Opens a lot of five from the test bar and records its first (machining) step, so that its next step is the one
+   * after.
+   */
   async function lotAfterTurning(partId: number): Promise<{ id: number; lotNumber: string }> {
     const lot = (await post('engineer', '/api/lots', { partId, plannedQty: 5 })).body as {
       id: number;

@@ -137,7 +137,8 @@ describe('recall investigations: frozen snapshot, holds, re-run difference, expo
     recall = opened.body as RecallDetail;
     expect(recall.recallNumber).toMatch(/^RC-\d{4}-\d{4}$/);
     expect(recall.opening.content.takenBy).toBe('Oluwaseun Adeyemi');
-    // The stored hash is the SHA-256 of the RFC 8785 canonical JSON of what the snapshot states (canonicalize, from the registry).
+    // The stored hash is the SHA-256 of the RFC 8785 canonical JSON of what the snapshot states (canonicalize, from the
+    // registry).
     expect(recall.opening.sha256).toBe(
       createHash('sha256').update(canonicalize(recall.opening.content)!).digest('hex'),
     );
@@ -170,8 +171,10 @@ describe('recall investigations: frozen snapshot, holds, re-run difference, expo
 
   it('when records change after opening, then the opening snapshot stays as it was and a re-run shows the difference and holds the new lot', async () => {
     const before = await detail(recall.id);
-    // Bar under an open recall can no longer be issued, so a lot that reaches the affected set after opening is one whose
-    // issue is recorded late, behind the product's back: the database administrator sets the recall aside for that moment.
+    // Bar under an open recall can no longer be issued, so a lot that reaches the affected set after opening is one
+    // whose
+    // issue is recorded late, behind the product's back: the database administrator sets the recall aside for that
+    // moment.
     await adminSql(`UPDATE recall_investigation SET status = 'closed' WHERE id = ${recall.id}`);
     try {
       lots.push(await readyLot());

@@ -45,7 +45,8 @@ describe('security headers and cookies', () => {
     const saml = await SamlTestDriver.create(behindTls.config);
     const agent = request.agent(behindTls.app);
     const login = await agent.get('/auth/login').set('X-Forwarded-Proto', 'https');
-    // The sign-in binding cookie comes back with the identity provider's cross-site POST only as SameSite=None, hence Secure.
+    // The sign-in binding cookie comes back with the identity provider's cross-site POST only as SameSite=None, hence
+    // Secure.
     const binding = ([] as string[])
       .concat(login.headers['set-cookie'] ?? [])
       .find((line) => line.startsWith('ingotrace_signin='));

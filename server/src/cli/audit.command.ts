@@ -44,7 +44,8 @@ export function auditCommand(): Command {
             `cannot read ${options.file}: ${error instanceof Error ? error.message : String(error)}`,
           );
         }
-        // A file is checked against the installation's (or the given) key when there is one, else against its own key, saying so.
+        // A file is checked against the installation's (or the given) key when there is one, else against its own key,
+        // saying so.
         let publicKeyPem: string | null = options.publicKey ? readOrExit(options.publicKey) : null;
         if (!publicKeyPem) {
           try {

@@ -5,7 +5,8 @@ import { connectionLost, retryDelay, tableWithUnreadableTriggers, transientKind 
 /**
  * Runs work in one transaction and repeats the whole transaction after a conflict (deadlock,
  * lock-wait time-out, Galera certification conflict) or while the database is briefly
- * unavailable (including a cluster node whose table triggers are briefly unreadable). A connection lost while COMMIT was on its way is not repeated: the change may or
+ * unavailable (including a cluster node whose table triggers are briefly unreadable). A connection lost while COMMIT
+ * was on its way is not repeated: the change may or
  * may not have been saved, and saving it twice would be worse than saying so.
  */
 export async function inTransaction<T>(

@@ -75,7 +75,10 @@ interface LimitOptions {
   answer: 'json' | 'sign-in-page';
 }
 
-/** A rate limit over 15-minute windows, counted in MariaDB, answering 429 (or, for a browser's sign-in, the sign-in page) with Retry-After. */
+/**
+ * A rate limit over 15-minute windows, counted in MariaDB, answering 429 (or, for a browser's sign-in, the sign-in
+ * page) with Retry-After.
+ */
 export function limitRate(options: LimitOptions): RequestHandler {
   return rateLimit({
     windowMs: WINDOW_MS,
@@ -87,7 +90,8 @@ export function limitRate(options: LimitOptions): RequestHandler {
     keyGenerator: (req) =>
       options.key === 'person' && req.user ? `person-${(req.user as Person).id}` : `address-${req.ip ?? 'unknown'}`,
     validate: { keyGeneratorIpFallback: false },
-    // A counter that cannot be reached must not lock everyone out, nor let the request through unlimited: it fails like any other database error.
+    // A counter that cannot be reached must not lock everyone out, nor let the request through unlimited: it fails like
+    // any other database error.
     passOnStoreError: false,
     handler: (req, res, next, limitOptions) => {
       const resetTime = (req as unknown as { rateLimit?: { resetTime?: Date } }).rateLimit?.resetTime;

@@ -234,7 +234,10 @@ export function withoutScannerPrefix(input: string): string {
     .replace(new RegExp(`^${GS}+`), '');
 }
 
-/** Reads a UDI as scanned or typed: a Digital Link URI, an element string with parentheses, or raw scan data, with or without a scanner's prefix. */
+/**
+ * Reads a UDI as scanned or typed: a Digital Link URI, an element string with parentheses, or raw scan data, with or
+ * without a scanner's prefix.
+ */
 export function parseUdi(input: string): UdiParts {
   const text = withoutScannerPrefix(input);
   if (!text) throw new Gs1Error('Nothing to read');

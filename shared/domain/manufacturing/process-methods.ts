@@ -25,7 +25,9 @@ export interface ParameterWindow {
   max?: string;
   /** Text parameters (e.g. a bath identity) that must be recorded but have no numeric window. */
   text?: boolean;
-  /** A limit that depends on where the device touches the body: the run is judged against the strictest among its lots. */
+  /**
+   * A limit that depends on where the device touches the body: the run is judged against the strictest among its lots.
+   */
   byContactCategory?: Array<{ category: ContactCategory; max: string; source: string }>;
   source: string;
   confidence: Confidence;

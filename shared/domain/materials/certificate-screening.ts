@@ -35,7 +35,10 @@ export interface CertificateFinding {
 
 /** Properties two heats must share before "all but one equal" means anything. */
 export const NEAR_IDENTICAL_MIN_SHARED = 5;
-/** One-sided significance for bunching; with ~20 properties screened per supplier the chance of a false flag stays near 2 % (Bonferroni). */
+/**
+ * One-sided significance for bunching; with ~20 properties screened per supplier the chance of a false flag stays near
+ * 2 % (Bonferroni).
+ */
 export const BUNCHING_ALPHA = 0.001;
 /** Values inside the near band needed before bunching is judged at all. */
 export const BUNCHING_MIN_NEAR = 4;

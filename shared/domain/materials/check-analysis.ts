@@ -7,7 +7,9 @@ import type { ElementLimit } from './specification';
 
 export type SupplierApproval = 'approved' | 'conditional' | 'disqualified';
 
-/** A sampling rule: every Nth heat of a supplier and specification, and/or every heat while the supplier is conditional. */
+/**
+ * A sampling rule: every Nth heat of a supplier and specification, and/or every heat while the supplier is conditional.
+ */
 export interface CheckRule {
   /** null: no sampling by count. */
   everyNthHeat: number | null;
@@ -20,7 +22,10 @@ export interface ScopedCheckRule extends CheckRule {
   specId: string | null;
 }
 
-/** The most specific rule for a supplier and specification: both named, then the supplier, then the specification, then the plant-wide one. */
+/**
+ * The most specific rule for a supplier and specification: both named, then the supplier, then the specification, then
+ * the plant-wide one.
+ */
 export function applicableRule<T extends ScopedCheckRule>(
   rules: readonly T[],
   supplierId: number,
@@ -93,7 +98,10 @@ export function checkRequirement(
   };
 }
 
-/** "the first heat and every 5th after it; every heat while the supplier is conditional", or null when the rule selects nothing. */
+/**
+ * "the first heat and every 5th after it; every heat while the supplier is conditional", or null when the rule selects
+ * nothing.
+ */
 export function ruleText(rule: CheckRule): string | null {
   const parts = [
     rule.everyNthHeat === null
@@ -216,7 +224,8 @@ export function evaluateCheckAnalysis(
     const value = values[limit.element];
     if (value === undefined)
       return { element: limit.element, value: null, rounded: null, heatLimit, checkLimit, verdict: 'not-measured' };
-    // Rounded once to the heat limit's place to compare with it, once to the widened limit's place to compare with that.
+    // Rounded once to the heat limit's place to compare with it, once to the widened limit's place to compare with
+    // that.
     const atHeatPlace = roundE29(
       value,
       Math.max(...[limit.min, limit.max].filter((v): v is string => v !== undefined).map(decimalsOf)),

@@ -26,7 +26,9 @@ export function decimalsOf(limit: string): number {
   return point === -1 ? 0 : trimmed.length - point - 1;
 }
 
-/** Rounds in one step to the given number of decimals, half to even; returns a string with exactly that many decimals. */
+/**
+ * Rounds in one step to the given number of decimals, half to even; returns a string with exactly that many decimals.
+ */
 export function roundE29(value: string | Decimal, decimals: number): string {
   const decimal = typeof value === 'string' ? toDecimal(value) : new E29(value);
   return decimal.toDecimalPlaces(decimals, Decimal.ROUND_HALF_EVEN).toFixed(decimals);

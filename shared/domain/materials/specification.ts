@@ -99,7 +99,9 @@ export interface MechanicalSet {
   /** Absent: the limits apply whatever the size. */
   size?: SizeRange;
   limits: Array<{ property: MechanicalProperty; min: string; writtenFormUnverified?: boolean }>;
-  /** Properties the standard lists but does not require for this set (e.g. reduction of area below 4.75 mm), with why. */
+  /**
+   * Properties the standard lists but does not require for this set (e.g. reduction of area below 4.75 mm), with why.
+   */
   notRequired?: Array<{ property: MechanicalProperty; why: string }>;
   source: ValueSource;
 }
@@ -122,7 +124,10 @@ export interface SpecificationGrade {
   chemistry: ElementLimit[];
   weightedSums: WeightedSum[];
   mechanical: MechanicalSet[];
-  /** The mechanical properties the standard requires of this grade; a heat is judged on each. Absent: those its sets name. */
+  /**
+   * The mechanical properties the standard requires of this grade; a heat is judged on each. Absent: those its sets
+   * name.
+   */
   mechanicalProperties?: MechanicalProperty[];
 }
 

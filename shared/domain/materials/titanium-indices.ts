@@ -72,7 +72,10 @@ export function molybdenumEquivalentBania(chemistry: Chemistry): TitaniumIndex {
   };
 }
 
-/** [Mo]eq after Boyer, Welsch & Collings (1994), Molchanova's concept: Mo + 0.67 V + 0.44 W + 0.28 Nb + 0.22 Ta + 2.9 Fe + 1.6 Cr − Al. */
+/**
+ * [Mo]eq after Boyer, Welsch & Collings (1994), Molchanova's concept: Mo + 0.67 V + 0.44 W + 0.28 Nb + 0.22 Ta + 2.9 Fe
+ * + 1.6 Cr − Al.
+ */
 export function molybdenumEquivalentBoyer(chemistry: Chemistry): TitaniumIndex {
   const terms: Array<[string, string]> = [
     ['Mo', '1'],

@@ -108,7 +108,8 @@ export function assessDrill(facts: DrillFacts): DrillAssessment {
       (lot) =>
         `${lot.lotNumber}: released ${lot.released} of ${lot.made} started${lot.passedOn ? ` less ${lot.passedOn} passed on` : ''}`,
     );
-  // In plant: a released lot's released units not shipped; a lot not yet released holds its work in progress (never below 0).
+  // In plant: a released lot's released units not shipped; a lot not yet released holds its work in progress (never
+  // below 0).
   const negative = facts.lots
     .filter((lot) => lot.onHand < 0 || (lot.status === 'released' && lot.onHand !== lot.released - lot.shipped))
     .map((lot) =>

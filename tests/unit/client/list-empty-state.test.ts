@@ -2,7 +2,8 @@ import { mount } from '@vue/test-utils';
 import { describe, expect, it } from 'vitest';
 import ListEmptyState from '../../../src/components/ListEmptyState.vue';
 
-// The product's own rule for empty lists (issue: "No lots match" behind a spinner and beside an error); no published source.
+// The product's own rule for empty lists (issue: "No lots match" behind a spinner and beside an error); no published
+// source.
 describe('an empty list says why it is empty', () => {
   const render = (props: { loading: boolean; failed: boolean; empty: string; hint?: string | null }) =>
     mount(ListEmptyState, { props }).text();

@@ -45,7 +45,10 @@ function ascii85(data: Buffer): Buffer {
   }
   return Buffer.from(`${out}~>`, 'latin1');
 }
-/** LZW with literal codes only (a valid stream while the table stays under 511 entries): clear, one 9-bit code per byte, end. */
+/**
+ * LZW with literal codes only (a valid stream while the table stays under 511 entries): clear, one 9-bit code per byte,
+ * end.
+ */
 function lzw(data: Buffer): Buffer {
   if (data.length > 250) throw new Error('keep LZW test data short');
   const codes = [256, ...data, 257];
@@ -54,7 +57,9 @@ function lzw(data: Buffer): Buffer {
   bits = bits.padEnd(Math.ceil(bits.length / 8) * 8, '0');
   return Buffer.from(bits.match(/.{8}/g)!.map((byte) => parseInt(byte, 2)));
 }
-/** An object stream holding one object, number `number`, written as the filters' chain asks (last filter applied first). */
+/**
+ * An object stream holding one object, number `number`, written as the filters' chain asks (last filter applied first).
+ */
 function objectStream(number: number, object: string, filters: Array<'hex' | 'a85' | 'lzw' | 'flate'>): Buffer {
   const header = `${number} 0 `;
   let data: Buffer = Buffer.from(`${header}${object}`, 'latin1');

@@ -114,7 +114,10 @@ export async function completeReauthentication(
   });
 }
 
-/** The person stops waiting for the password window: a pending re-authentication ends as cancelled and does not count against their limit. */
+/**
+ * The person stops waiting for the password window: a pending re-authentication ends as cancelled and does not count
+ * against their limit.
+ */
 export async function cancelReauthentication(
   dataSource: DataSource,
   id: string,

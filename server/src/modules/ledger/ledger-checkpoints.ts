@@ -26,7 +26,10 @@ export interface Checkpoint {
 export const checkpointStatement = (checkpoint: Omit<Checkpoint, 'signature'>) =>
   `ingotrace-ledger-checkpoint:${canonicalJson({ seq: checkpoint.seq, hash: checkpoint.hash, at: checkpoint.at, keyId: checkpoint.keyId, reason: checkpoint.reason })}`;
 
-/** When checkpoints are taken besides daily and at exports; the demo seed, which replays months of releases at once, takes one at its end instead. */
+/**
+ * When checkpoints are taken besides daily and at exports; the demo seed, which replays months of releases at once,
+ * takes one at its end instead.
+ */
 export const checkpointTriggers = { onRelease: true };
 
 /** One witness file per ledger (database): a rebuilt database starts a new ledger and a new file. */
@@ -41,7 +44,10 @@ export function readWitnessFile(path: string): Checkpoint[] {
     .map((line) => JSON.parse(line) as Checkpoint);
 }
 
-/** Checkpoints the chain head now; the mail is queued with the checkpoint's own ledger event, the file line written after it commits. */
+/**
+ * Checkpoints the chain head now; the mail is queued with the checkpoint's own ledger event, the file line written
+ * after it commits.
+ */
 export async function checkpointLedger(
   dataSource: DataSource,
   config: Pick<AppConfig, 'DATA_DIR' | 'DB_NAME' | 'LEDGER_KEY_FILE' | 'QUALITY_MAILBOX'>,
@@ -85,7 +91,10 @@ export async function checkpointLedger(
   return checkpoint;
 }
 
-/** The first checkpoint the ledger contradicts, or null. `hashAt` gives the ledger's hash of an event (null when it has none). */
+/**
+ * The first checkpoint the ledger contradicts, or null. `hashAt` gives the ledger's hash of an event (null when it has
+ * none).
+ */
 export function checkpointProblem(
   checkpoints: readonly Checkpoint[],
   hashAt: (seq: number) => string | null,

@@ -28,7 +28,10 @@ export interface LedgerSigner {
 
 export const eventStatement = (hash: string) => `ingotrace-ledger-event:${hash}`;
 
-/** The first 16 hex digits of the SHA-256 of the public key (DER, SPKI): short enough to read aloud, long enough to compare. */
+/**
+ * The first 16 hex digits of the SHA-256 of the public key (DER, SPKI): short enough to read aloud, long enough to
+ * compare.
+ */
 export function keyIdOf(publicKeyPem: string): string {
   return createHash('sha256')
     .update(createPublicKey(publicKeyPem).export({ type: 'spki', format: 'der' }))
@@ -53,7 +56,9 @@ export const ledgerKeyPath = (config: Pick<AppConfig, 'LEDGER_KEY_FILE' | 'DATA_
   config.LEDGER_KEY_FILE ?? join(config.DATA_DIR, 'keys', 'ledger-signing-key.pem');
 export const publicKeyPathOf = (keyPath: string) => keyPath.replace(/(\.pem)?$/, '.pub.pem');
 
-/** Creates the key file once, atomically (several app processes may start together), mode 600 in a folder of mode 700. */
+/**
+ * Creates the key file once, atomically (several app processes may start together), mode 600 in a folder of mode 700.
+ */
 function createKeyFile(path: string): void {
   mkdirSync(dirname(path), { recursive: true, mode: 0o700 });
   const { privateKey } = generateKeyPairSync('ed25519');

@@ -2,7 +2,8 @@ import type { EntityManager } from 'typeorm';
 
 /**
  * Why a heat's bar may not go into a lot now, besides the heat's own status: an open recall (not a
- * drill) started from the heat, the bar piece or the heat's supplier (within its received-date window), or a nonconformance
+ * drill) started from the heat, the bar piece or the heat's supplier (within its received-date window), or a
+ * nonconformance
  * on the heat or the piece that is not closed. Each reason names its record number. For a lot
  * already made from the bar (liftedFor: the lot and the lots it came from), a recall whose hold on
  * one of those lots a QA approver has lifted by signature no longer counts: that is the decision.

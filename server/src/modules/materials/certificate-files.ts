@@ -11,7 +11,9 @@ const accepted = new Map([
   ['image/jpeg', 'JPEG'],
 ]);
 
-/** Decides a certificate file's type from its bytes (never its name), refuses PDFs with active content, and hashes it. */
+/**
+ * Decides a certificate file's type from its bytes (never its name), refuses PDFs with active content, and hashes it.
+ */
 export async function inspectCertificateFile(
   bytes: Buffer,
   originalName: string,

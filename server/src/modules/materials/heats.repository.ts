@@ -293,7 +293,9 @@ export async function otherHeatsWithDocument(
   return rows.map((row) => row.heat_number);
 }
 
-/** Other heats of the same specification whose reported results are exactly the same (a sign of a copied certificate). */
+/**
+ * Other heats of the same specification whose reported results are exactly the same (a sign of a copied certificate).
+ */
 export async function heatsWithIdenticalResults(manager: EntityManager, heatId: number): Promise<string[]> {
   const rows: Array<{ heat_number: string }> = await manager.query(
     `SELECT other.heat_number FROM heat this_heat

@@ -112,7 +112,8 @@ export async function draftRevision(
       };
       const existing = grade.chemistry.findIndex((candidate) => candidate.element === change.element);
       const before = existing >= 0 ? grade.chemistry[existing]! : undefined;
-      // A tolerance may depend on the limit (F67 Fe: 0.10 up to 0.25, 0.15 above), so a changed limit never keeps the old one.
+      // A tolerance may depend on the limit (F67 Fe: 0.10 up to 0.25, 0.15 above), so a changed limit never keeps the
+      // old one.
       const limitChanged = !before || limitText(before) !== limitText(limit);
       if (before?.tolerance && limitChanged && !change.tolerance) {
         return void (fields[`limits.${index}.tolerance`] =

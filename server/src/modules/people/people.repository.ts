@@ -124,7 +124,10 @@ export async function replaceIdentityProviderRoles(
     ]);
 }
 
-/** Makes the administrator's choice of roles effective: grants what the IdP does not give, withdraws what it gives but should not. */
+/**
+ * Makes the administrator's choice of roles effective: grants what the IdP does not give, withdraws what it gives but
+ * should not.
+ */
 export async function setAdministratorRoles(
   manager: EntityManager,
   personId: number,

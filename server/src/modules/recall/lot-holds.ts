@@ -61,7 +61,9 @@ export async function refuseIfHeld(
     );
 }
 
-/** Places a hold on each lot (one per lot and recall) and writes each lot's ledger event; returns the lot numbers held. */
+/**
+ * Places a hold on each lot (one per lot and recall) and writes each lot's ledger event; returns the lot numbers held.
+ */
 export async function placeHolds(
   manager: EntityManager,
   lots: Array<{ id: number; lotNumber: string }>,

@@ -15,7 +15,10 @@ import { plantDateTimeSeconds, timeZoneNote } from '@shared/domain/plant-time';
 export const recallCaution =
   'Decisions on field actions, customer notification and regulatory reporting rest with the firm’s quality system. This export states what Ingotrace traced at the moment shown; it is not a decision.';
 
-/** One CSV: each affected lot, then each consignee, with the snapshot they come from on every row so that a cut-out part still says where it came from. */
+/**
+ * One CSV: each affected lot, then each consignee, with the snapshot they come from on every row so that a cut-out part
+ * still says where it came from.
+ */
 export function recallCsv(meta: RecallSnapshotMeta, content: RecallSnapshotContent): string {
   const source = [content.recallNumber, content.mode, meta.kind, content.takenAt, content.takenBy, meta.sha256];
   const rows: Array<Array<string | number | null>> = [

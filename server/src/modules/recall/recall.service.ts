@@ -207,7 +207,10 @@ export async function openRecall(
   return recallDetail(dataSource, id);
 }
 
-/** Traces again, stores the result beside the opening snapshot and says what differs; a recall holds lots that are newly affected. */
+/**
+ * Traces again, stores the result beside the opening snapshot and says what differs; a recall holds lots that are newly
+ * affected.
+ */
 export async function rerunRecall(
   dataSource: DataSource,
   id: number,

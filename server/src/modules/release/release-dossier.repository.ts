@@ -141,7 +141,10 @@ export function issuedBarTags(
   );
 }
 
-/** Everyone who recorded part of the lot's record: opened a lot of the lineage, issued bar, recorded a step, submitted it. */
+/**
+ * Everyone who recorded part of the lot's record: opened a lot of the lineage, issued bar, recorded a step, submitted
+ * it.
+ */
 export async function recordAuthorIds(manager: EntityManager, lineage: number[], lotId: number): Promise<number[]> {
   const [row]: Array<{ ids: string | null }> = await manager.query(
     `SELECT GROUP_CONCAT(DISTINCT person_id) AS ids FROM (

@@ -51,7 +51,10 @@ export interface SignableRecordType<Facts extends object = object> {
     record: SignableRecord<Facts>;
     earlierSignatures: Array<{ signerId: number; meaning: SignatureMeaning }>;
   }): string | null;
-  /** Work after the signature has committed (e.g. a release checkpoints the audit ledger); its failure does not undo the signature. */
+  /**
+   * Work after the signature has committed (e.g. a release checkpoints the audit ledger); its failure does not undo the
+   * signature.
+   */
   afterCommit?(dataSource: DataSource, input: { recordId: string; meaning: SignatureMeaning }): Promise<void>;
   /** What the signature changes on the record (e.g. a heat's status), inside the signature's transaction. */
   afterSign?(

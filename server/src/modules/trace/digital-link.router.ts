@@ -19,7 +19,8 @@ function notFoundPage(res: Response, title: string, detail: string): void {
 
 /**
  * GS1 Digital Link resolver: /01/{gtin}/10/{lot}[/21/{serial}] opens that lot's page (the QR on
- * every release packet points here; a person who may trace but not read lots gets its trace). A person who is not signed in is sent to sign
+ * every release packet points here; a person who may trace but not read lots gets its trace). A person who is not
+ * signed in is sent to sign
  * in first, so lot numbers are not disclosed to anyone who scans a label.
  */
 export function digitalLinkRouter(context: AppContext, sessionHandlers: RequestHandler[]): Router {
@@ -35,7 +36,8 @@ export function digitalLinkRouter(context: AppContext, sessionHandlers: RequestH
     const row = await lotOfGtin(context.database.dataSource.manager, gtin.padStart(14, '0'), lot);
     if (!row) return notFoundPage(res, 'No such lot', `No lot ${lot} of GTIN ${gtin} is recorded in this Ingotrace.`);
     if (rolesAllow(person.roles, 'lots.read')) return res.redirect(302, `/lots/${row.id}`);
-    // The lot's trace page, started from the same key the label carries (GTIN + lot is unique; a lot number alone need not be).
+    // The lot's trace page, started from the same key the label carries (GTIN + lot is unique; a lot number alone need
+    // not be).
     const udi = `(01)${gtin.padStart(14, '0')}(10)${lot}${serial ? `(21)${serial}` : ''}`;
     res.redirect(302, `/trace?q=${encodeURIComponent(udi)}`);
   };

@@ -44,7 +44,9 @@ export async function lineageOf(manager: EntityManager, seed: string, parameters
 
 export type RunFact = { id: number; runNumber: string; kind: string; methodId: string; inWindow: number; runAt: Date };
 
-/** What a backward trace reports of a lineage: lots, bar pieces, heats, certificates, runs, nonconformances, signatures. */
+/**
+ * What a backward trace reports of a lineage: lots, bar pieces, heats, certificates, runs, nonconformances, signatures.
+ */
 export function backwardFacts(
   manager: EntityManager,
   lineage: number[],

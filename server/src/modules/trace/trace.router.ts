@@ -7,7 +7,10 @@ import { validated } from '../../middleware/validate';
 import { backwardTrace, forwardTrace } from './trace.service';
 import { backwardGraph, forwardGraph } from './genealogy-graph.service';
 
-/** Genealogy both ways: back from a unit, lot or bar to its heats; forward from a heat, bar, run or supplier to lots and consignees. */
+/**
+ * Genealogy both ways: back from a unit, lot or bar to its heats; forward from a heat, bar, run or supplier to lots and
+ * consignees.
+ */
 export function traceRouter(context: AppContext): Router {
   const router = Router();
   const data = () => context.database.dataSource;

@@ -19,7 +19,10 @@ import { unitsInPlant } from '@shared/domain/unit-words';
 const marks = (values: unknown[]) => values.map(() => '?').join(',');
 const byName = new Intl.Collator('en', { sensitivity: 'base', numeric: true });
 
-/** The lots a backward trace starts from, as a seed query: a UDI (element string or Digital Link), a lot number, or a bar tag. */
+/**
+ * The lots a backward trace starts from, as a seed query: a UDI (element string or Digital Link), a lot number, or a
+ * bar tag.
+ */
 async function backwardSeed(
   manager: EntityManager,
   start: { udi?: string; lot?: string; tag?: string },
@@ -108,7 +111,10 @@ export async function backwardTrace(
   };
 }
 
-/** Every lot affected by a heat, a bar piece, a run or a supplier (optionally within a date window), through splits and merges. */
+/**
+ * Every lot affected by a heat, a bar piece, a run or a supplier (optionally within a date window), through splits and
+ * merges.
+ */
 export async function forwardTrace(dataSource: DataSource, start: ForwardStart): Promise<ForwardTrace> {
   return forwardTraceIn(dataSource.manager, start);
 }

@@ -18,7 +18,8 @@ const example = { gtin: '09506000134352', expiry: '261231', lot: 'ABC123', seria
 
 describe('GS1 element strings', () => {
   it('[GS1-ELEMENT-STRING] when the syntax dictionary’s example is built, then fixed-length AIs come first and GS follows the lot only', () => {
-    // Source: GS1 Barcode Syntax Dictionary AI formats; vector (01)09506000134352(17)261231(10)ABC123(21)12345 as worked on the reference sheet.
+    // Source: GS1 Barcode Syntax Dictionary AI formats; vector (01)09506000134352(17)261231(10)ABC123(21)12345 as
+    // worked on the reference sheet.
     expect(buildElementString(example)).toBe('(01)09506000134352(17)261231(10)ABC123(21)12345');
     expect(buildBarcodeData(example)).toBe(`0109506000134352172612311` + `0ABC123${GS}2112345`);
   });
@@ -42,7 +43,8 @@ describe('GS1 element strings', () => {
     });
   });
   it('[GS1-SCANNER-PREFIX] when a scanner sends a symbology identifier or a leading GS, then the data behind it is read', () => {
-    // Symbology identifiers per ISO/IEC 15424 as listed in the GS1 General Specifications (5.4.x): ]d2 GS1 DataMatrix, ]C1 GS1-128, ]Q3 GS1 QR Code; ]Q1 QR carrying a URL.
+    // Symbology identifiers per ISO/IEC 15424 as listed in the GS1 General Specifications (5.4.x): ]d2 GS1 DataMatrix,
+    // ]C1 GS1-128, ]Q3 GS1 QR Code; ]Q1 QR carrying a URL.
     const expected = { gtin: '09506000134352', lot: 'ABC123', serial: '12345', expiry: '261231', productionDate: null };
     const raw = `010950600013435217261231` + `10ABC123${GS}2112345`;
     for (const prefix of [']d2', ']C1', ']Q3', GS, `]d2${GS}`, `${GS}${GS}`])
@@ -108,7 +110,8 @@ describe('GS1 element strings', () => {
 
 describe('GS1 dates', () => {
   it('when a two-digit year is read, then GS1’s sliding window picks the century', () => {
-    // Source: GS1 syntax dictionary yymmd0 linter: YY − current YY ≥ 51 → last century; > −50 → this century; else next.
+    // Source: GS1 syntax dictionary yymmd0 linter: YY − current YY ≥ 51 → last century; > −50 → this century; else
+    // next.
     const in2026 = new Date(Date.UTC(2026, 5, 1));
     expect(centuryOf('75', in2026)).toBe(2075);
     expect(centuryOf('77', in2026)).toBe(1977);
@@ -123,7 +126,8 @@ describe('GS1 dates', () => {
 });
 
 describe('lots the product itself makes', () => {
-  // GS1 CSET 82 (GS1 syntax dictionary's linter, domain sheet §4.2) minus the brace characters our patterns use as tokens.
+  // GS1 CSET 82 (GS1 syntax dictionary's linter, domain sheet §4.2) minus the brace characters our patterns use as
+  // tokens.
   const cset82 = `!"%&'()*+,-./0123456789:;<=>?ABCDEFGHIJKLMNOPQRSTUVWXYZ_abcdefghijklmnopqrstuvwxyz`;
 
   it('[GS1-LOT-PATTERN] when any pattern passes validation, then every lot it makes round-trips through our build → parse and bwip-js accepts it', async () => {

@@ -20,7 +20,8 @@ const endotoxinItem = (check: ReturnType<typeof checkRunWindow>) =>
 
 describe('endotoxin limits follow where the device touches the body', () => {
   // Source: FDA guidance "Pyrogen and Endotoxins Testing: Q&A" (2012) with USP <161>, as reproduced by Nelson Labs:
-  // 20 EU/device (0.5 EU/mL × 40 mL) generally and for cardiovascular/lymphatic contact; 2.15 EU/device (0.06 EU/mL × 40 mL) for cerebrospinal fluid.
+  // 20 EU/device (0.5 EU/mL × 40 mL) generally and for cardiovascular/lymphatic contact; 2.15 EU/device (0.06 EU/mL ×
+  // 40 mL) for cerebrospinal fluid.
   it('when a device touches blood or tissue, then 20 EU/device passes and 20.01 does not', () => {
     expect(endotoxinItem(checkRunWindow(cleaningMethod, clean('20'), ['general-tissue'])).verdict).toBe('in-window');
     expect(endotoxinItem(checkRunWindow(cleaningMethod, clean('20.01'), ['general-tissue']))).toMatchObject({

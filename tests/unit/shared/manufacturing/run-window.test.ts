@@ -14,7 +14,8 @@ const run = (overrides: Record<string, string> = {}) => ({
 
 describe('passivation runs against their method window', () => {
   it('when a Nitric 2 run sits on every bound, then it is in window (bounds inclusive)', () => {
-    // Source: ASTM A967 Nitric 2 — 20–45 vol % HNO3, 70–90 °F (21–32 °C), ≥ 30 min (Advance Surface Technologies citing A967-05; 20–45 % also Products Finishing).
+    // Source: ASTM A967 Nitric 2 — 20–45 vol % HNO3, 70–90 °F (21–32 °C), ≥ 30 min (Advance Surface Technologies citing
+    // A967-05; 20–45 % also Products Finishing).
     expect(
       checkRunWindow(nitric2, run({ acidConcentration: '20', temperature: '21', immersionTime: '30' })).inWindow,
     ).toBe(true);
@@ -34,7 +35,8 @@ describe('passivation runs against their method window', () => {
     expect(checkRunWindow(nitric2, run({ immersionTime: '29' })).inWindow).toBe(false);
   });
   it('when Nitric 4 is run at Nitric 2 strength, then the concentration is out of its 45–55 vol % window', () => {
-    // Source: ASTM A967 Nitric 4 — 45–55 vol %, 120–130 °F (49–54 °C), ≥ 30 min (Advance Surface Technologies citing A967-05).
+    // Source: ASTM A967 Nitric 4 — 45–55 vol %, 120–130 °F (49–54 °C), ≥ 30 min (Advance Surface Technologies citing
+    // A967-05).
     const check = checkRunWindow(processMethod('A967-NITRIC-4')!, run({ acidConcentration: '30', temperature: '50' }));
     expect(check.items.filter((item) => item.verdict === 'out-of-window').map((item) => item.key)).toEqual([
       'acidConcentration',
