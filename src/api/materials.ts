@@ -1,6 +1,6 @@
 import { keepPreviousData, queryOptions } from '@tanstack/vue-query';
+import { specificationLibrarySchema } from '@shared/schemas/specification';
 import { z } from 'zod';
-import type { Specification } from '@shared/domain/materials/specification';
 import {
   heatDetailSchema,
   heatPageSchema,
@@ -68,16 +68,10 @@ export const suppliersQuery = () =>
     queryFn: ({ signal }) => apiRequest('/suppliers', z.array(supplierSchema), { signal }),
   });
 
-const specificationsSchema = z.object({
-  caution: z.string(),
-  specifications: z.array(
-    z.custom<Specification>((value) => typeof value === 'object' && value !== null && 'id' in value),
-  ),
-});
 export const specificationsQuery = () =>
   queryOptions({
     queryKey: materialKeys.specifications(),
-    queryFn: ({ signal }) => apiRequest('/specifications', specificationsSchema, { signal }),
+    queryFn: ({ signal }) => apiRequest('/specifications', specificationLibrarySchema, { signal }),
     staleTime: 5 * 60_000,
   });
 

@@ -8,6 +8,7 @@ import { processRunSummarySchema } from '@shared/schemas/lot-detail';
 import { drillReportSchema, recallDetailSchema, recallPageSchema } from '@shared/schemas/recall';
 import { releaseQueuePageSchema, releaseViewSchema } from '@shared/schemas/release';
 import { backwardTraceSchema, forwardTraceSchema, graphReplySchema } from '@shared/schemas/trace';
+import { specificationLibrarySchema } from '@shared/schemas/specification';
 import { createTestApp } from '../helpers/test-app';
 import { SamlTestDriver } from '../helpers/saml-round-trip';
 
@@ -49,6 +50,8 @@ describe('response contracts', () => {
     await replyTo('/api/nonconformances', pageOf(nonconformanceSummarySchema));
     await replyTo(`/api/nonconformances/${ids.nonconformance}`, nonconformanceSummarySchema);
     await replyTo('/api/consignees', consigneeSchema.array());
+    const library = await replyTo('/api/specifications', specificationLibrarySchema);
+    expect(library.specifications.map((specification) => specification.id)).toContain('ASTM F136');
   });
 
   it('[CONTRACT-TRACE] backward, forward and graph traces answer as their schemas say', async () => {

@@ -1,4 +1,5 @@
 import type { EntityManager } from 'typeorm';
+import { insertReturningId } from '../../db/insert-returning-id';
 import { LotLink } from './entities/lot-link.entity';
 import { LotOperation } from './entities/lot-operation.entity';
 import { ProductionLot } from './entities/production-lot.entity';
@@ -224,8 +225,7 @@ export async function insertLotRow(
     'lotNumber' | 'partId' | 'plannedQty' | 'startQty' | 'origin' | 'resumesAfterStep' | 'openedBy' | 'openedAt'
   >,
 ): Promise<number> {
-  const result = await manager.getRepository(ProductionLot).insert(lot);
-  return Number(result.identifiers[0]!.id);
+  return insertReturningId(manager, ProductionLot, lot);
 }
 
 export async function insertLotLink(
@@ -249,8 +249,7 @@ export async function insertOperation(
     processRunId?: number | null;
   },
 ): Promise<number> {
-  const result = await manager.getRepository(LotOperation).insert(operation);
-  return Number(result.identifiers[0]!.id);
+  return insertReturningId(manager, LotOperation, operation);
 }
 
 /** The units a bar lot started with, set by its first recorded step. */

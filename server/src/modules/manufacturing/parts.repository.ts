@@ -1,4 +1,5 @@
 import type { EntityManager } from 'typeorm';
+import { insertReturningId } from '../../db/insert-returning-id';
 import type { ContactCategory } from '@shared/domain/manufacturing/contact-categories';
 import type { Part, RoutingStep } from '@shared/schemas/manufacturing';
 import { Part as PartEntity } from './entities/part.entity';
@@ -105,8 +106,7 @@ export async function insertPart(
   manager: EntityManager,
   part: Omit<PartEntity, 'id' | 'createdAt' | 'createdByPerson'>,
 ): Promise<number> {
-  const result = await manager.getRepository(PartEntity).insert(part);
-  return Number(result.identifiers[0]!.id);
+  return insertReturningId(manager, PartEntity, part);
 }
 
 export async function insertPartSpecification(

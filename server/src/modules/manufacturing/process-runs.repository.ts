@@ -1,4 +1,5 @@
 import type { EntityManager } from 'typeorm';
+import { insertReturningId } from '../../db/insert-returning-id';
 import type { ProcessRunListQuery } from '@shared/schemas/manufacturing';
 import { ProcessRun } from './entities/process-run.entity';
 
@@ -75,6 +76,5 @@ export async function insertProcessRun(
   manager: EntityManager,
   run: Omit<ProcessRun, 'id' | 'recordedAt' | 'recordedByPerson'>,
 ): Promise<number> {
-  const result = await manager.getRepository(ProcessRun).insert(run);
-  return Number(result.identifiers[0]!.id);
+  return insertReturningId(manager, ProcessRun, run);
 }

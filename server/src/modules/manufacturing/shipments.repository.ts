@@ -1,4 +1,5 @@
 import type { EntityManager } from 'typeorm';
+import { insertReturningId } from '../../db/insert-returning-id';
 import { Consignee } from './entities/consignee.entity';
 import { Shipment } from './entities/shipment.entity';
 
@@ -37,8 +38,7 @@ export async function insertConsignee(
   manager: EntityManager,
   consignee: Pick<Consignee, 'name' | 'kind' | 'country' | 'contactEmail'>,
 ): Promise<number> {
-  const result = await manager.getRepository(Consignee).insert(consignee);
-  return Number(result.identifiers[0]!.id);
+  return insertReturningId(manager, Consignee, consignee);
 }
 
 /** Units of the lot shipped so far. */
@@ -50,6 +50,5 @@ export async function insertShipment(
   manager: EntityManager,
   shipment: Pick<Shipment, 'lotId' | 'consigneeId' | 'qty' | 'shippedOn' | 'documentNumber' | 'recordedBy'>,
 ): Promise<number> {
-  const result = await manager.getRepository(Shipment).insert(shipment);
-  return Number(result.identifiers[0]!.id);
+  return insertReturningId(manager, Shipment, shipment);
 }

@@ -1,4 +1,5 @@
 import type { EntityManager } from 'typeorm';
+import { insertReturningId } from '../../db/insert-returning-id';
 import { CheckAnalysis } from './entities/check-analysis.entity';
 import { CheckAnalysisRule } from './entities/check-analysis-rule.entity';
 
@@ -31,8 +32,7 @@ export async function insertRule(
     'supplierId' | 'specId' | 'everyNthHeat' | 'everyHeatWhenConditional' | 'reason' | 'setBy'
   >,
 ): Promise<number> {
-  const result = await manager.getRepository(CheckAnalysisRule).insert(rule);
-  return Number(result.identifiers[0]!.id);
+  return insertReturningId(manager, CheckAnalysisRule, rule);
 }
 
 export async function insertCheckAnalysis(
@@ -42,8 +42,7 @@ export async function insertCheckAnalysis(
     'heatId' | 'laboratory' | 'reportReference' | 'resultsJson' | 'evaluationJson' | 'verdict' | 'recordedBy'
   >,
 ): Promise<number> {
-  const result = await manager.getRepository(CheckAnalysis).insert(analysis);
-  return Number(result.identifiers[0]!.id);
+  return insertReturningId(manager, CheckAnalysis, analysis);
 }
 
 /** The latest rule set for each scope (supplier and specification, either may be any). */

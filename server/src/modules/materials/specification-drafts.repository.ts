@@ -1,4 +1,5 @@
 import type { EntityManager } from 'typeorm';
+import { insertReturningId } from '../../db/insert-returning-id';
 import type { SpecificationDraftView } from '@shared/schemas/materials';
 import { SpecificationDraft } from './entities/specification-draft.entity';
 import { SpecificationRevision } from './entities/specification-revision.entity';
@@ -30,8 +31,7 @@ export async function insertDraft(
   manager: EntityManager,
   draft: Pick<SpecificationDraft, 'specId' | 'baseRevision' | 'revision' | 'definitionJson' | 'note' | 'createdBy'>,
 ): Promise<number> {
-  const result = await manager.getRepository(SpecificationDraft).insert(draft);
-  return Number(result.identifiers[0]!.id);
+  return insertReturningId(manager, SpecificationDraft, draft);
 }
 
 export async function setDraftStatus(

@@ -1,4 +1,5 @@
 import type { EntityManager } from 'typeorm';
+import { insertReturningId } from '../../db/insert-returning-id';
 import { LotHold } from './entities/lot-hold.entity';
 
 const marks = (values: unknown[]) => values.map(() => '?').join(',');
@@ -61,8 +62,7 @@ export async function insertHold(
   manager: EntityManager,
   hold: { lotId: number; recallId: number; reason: string; placedBy: number },
 ): Promise<number> {
-  const result = await manager.getRepository(LotHold).insert(hold);
-  return Number(result.identifiers[0]!.id);
+  return insertReturningId(manager, LotHold, hold);
 }
 
 /** Lifts the hold (once) and says which lot it was on. */

@@ -1,4 +1,5 @@
 import type { EntityManager } from 'typeorm';
+import { insertReturningId } from '../../db/insert-returning-id';
 import type { RecallListQuery } from '@shared/schemas/recall';
 import { RecallInvestigation } from './entities/recall-investigation.entity';
 import { RecallSnapshot } from './entities/recall-snapshot.entity';
@@ -96,8 +97,7 @@ export async function insertSnapshot(
   manager: EntityManager,
   snapshot: Pick<RecallSnapshot, 'recallId' | 'kind' | 'takenBy' | 'takenAt' | 'content' | 'sha256'>,
 ): Promise<number> {
-  const result = await manager.getRepository(RecallSnapshot).insert(snapshot);
-  return Number(result.identifiers[0]!.id);
+  return insertReturningId(manager, RecallSnapshot, snapshot);
 }
 
 export async function insertRecall(
@@ -115,8 +115,7 @@ export async function insertRecall(
     | 'openedBy'
   >,
 ): Promise<number> {
-  const result = await manager.getRepository(RecallInvestigation).insert(recall);
-  return Number(result.identifiers[0]!.id);
+  return insertReturningId(manager, RecallInvestigation, recall);
 }
 
 export async function closeRecall(manager: EntityManager, id: number): Promise<void> {
