@@ -25,7 +25,8 @@ async function main(): Promise<void> {
     const rows = Object.values(manifest.rows).reduce((sum, count) => sum + count, 0);
     log(`backup written: ${file}`);
     log(
-      `  ${tables} tables, ${rows} rows, ${manifest.documents.length} documents, ledger chain head ${manifest.chainHead.seq} ${manifest.chainHead.hash}`,
+      `  ${tables} tables, ${rows} rows, ${manifest.documents.length} documents, ledger chain head ` +
+        `${manifest.chainHead.seq} ${manifest.chainHead.hash}`,
     );
     log(`  manifest: ${file}.manifest.json (dump SHA-256 ${manifest.dumpSha256})`);
   } finally {

@@ -32,7 +32,8 @@ async function main(): Promise<void> {
       for (const node of cluster.nodes) {
         const status = (await node.server.isRunning()) ? await node.status() : null;
         log(
-          `${node.name} (port ${node.sqlPort}): ${status ? `${status.state}, cluster size ${status.clusterSize}, ${status.ready ? 'ready' : 'not ready'}` : 'not running'}`,
+          `${node.name} (port ${node.sqlPort}): ` +
+            `${status ? `${status.state}, cluster size ${status.clusterSize}, ${status.ready ? 'ready' : 'not ready'}` : 'not running'}`,
         );
       }
       return;

@@ -19,7 +19,8 @@ async function main(): Promise<void> {
     await stack.stop();
   });
   log(
-    `API on ${config.PUBLIC_URL}; the client with hot reload on http://127.0.0.1:${process.env.CLIENT_DEV_PORT ?? 5173}`,
+    `API on ${config.PUBLIC_URL}; the client with hot reload on ` +
+      `http://127.0.0.1:${process.env.CLIENT_DEV_PORT ?? 5173}`,
   );
   for (const [name, url] of Object.entries(stack.urls)) log(`${name}: ${url}`);
 }

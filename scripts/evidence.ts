@@ -143,7 +143,9 @@ async function main(): Promise<void> {
   log(`evidence report written to ${folder}/ (evidence.pdf, evidence.html, evidence.json, SHA256SUMS)`);
   log(`content SHA-256 ${hash}`);
   log(
-    `${counts.requirements} requirements: ${counts.shown} shown by passing tests, ${counts.notShown} not shown, ${counts.procedural} by the firm's procedures alone; ${counts.testsPassed} of ${counts.testsCited} cited tests passed; ${screenshots.length} screenshots`,
+    `${counts.requirements} requirements: ${counts.shown} shown by passing tests, ${counts.notShown} not ` +
+      `shown, ${counts.procedural} by the firm's procedures alone; ${counts.testsPassed} of ` +
+      `${counts.testsCited} cited tests passed; ${screenshots.length} screenshots`,
   );
   for (const requirement of requirements.filter((entry) => entry.status === 'not-shown')) {
     log(

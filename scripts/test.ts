@@ -127,7 +127,8 @@ async function main(): Promise<void> {
   process.stdout.write('\nSummary\n');
   for (const result of results) {
     process.stdout.write(
-      `  ${result.name.padEnd(32)} ${String(result.passed).padStart(5)} passed ${String(result.failed).padStart(4)} failed  (${result.seconds.toFixed(1)} s)\n`,
+      `  ${result.name.padEnd(32)} ${String(result.passed).padStart(5)} passed ` +
+        `${String(result.failed).padStart(4)} failed  (${result.seconds.toFixed(1)} s)\n`,
     );
   }
   const passed = results.reduce((sum, result) => sum + result.passed, 0);

@@ -95,7 +95,8 @@ async function main(): Promise<void> {
     const [{ lots }] = await dataSource.query('SELECT COUNT(*) AS lots FROM production_lot');
     // The largest released demo lot by units; the first render also loads the fonts.
     const [largest] = await dataSource.query(
-      "SELECT id, lot_number, released_qty FROM production_lot WHERE status = 'released' ORDER BY released_qty DESC, id LIMIT 1",
+      "SELECT id, lot_number, released_qty FROM production_lot WHERE status = 'released' ORDER BY " +
+        'released_qty DESC, id LIMIT 1',
     );
     const packet = async () => renderReleasePacket(await packetData(dataSource.manager, largest.id, config.PUBLIC_URL));
     const firstStarted = performance.now();
@@ -119,16 +120,21 @@ async function main(): Promise<void> {
     };
     process.stdout.write(`\ndemo scenario: ${figures.lots} lots, seeded in ${figures.seedSeconds} s\n`);
     process.stdout.write(
-      `lot record, complete routing:   median ${figures.typicalLotRecord.medianMs} ms, p95 ${figures.typicalLotRecord.p95Ms} ms\n`,
+      `lot record, complete routing:   median ${figures.typicalLotRecord.medianMs} ms, p95 ` +
+        `${figures.typicalLotRecord.p95Ms} ms\n`,
     );
     process.stdout.write(
-      `lot record, 200 material rows:  median ${figures.lotWith200Records.medianMs} ms, p95 ${figures.lotWith200Records.p95Ms} ms\n`,
+      `lot record, 200 material rows:  median ${figures.lotWith200Records.medianMs} ms, p95 ` +
+        `${figures.lotWith200Records.p95Ms} ms\n`,
     );
     process.stdout.write(
-      `lot list, first page of 20:     median ${figures.lotListPage.medianMs} ms, p95 ${figures.lotListPage.p95Ms} ms\n`,
+      `lot list, first page of 20:     median ${figures.lotListPage.medianMs} ms, p95 ` +
+        `${figures.lotListPage.p95Ms} ms\n`,
     );
     process.stdout.write(
-      `release packet, lot ${figures.releasePacket.lot} (${figures.releasePacket.units} units, ${figures.releasePacket.bytes} bytes): first ${figures.releasePacket.firstMs} ms, then median ${figures.releasePacket.medianMs} ms, p95 ${figures.releasePacket.p95Ms} ms\n`,
+      `release packet, lot ${figures.releasePacket.lot} (${figures.releasePacket.units} units, ` +
+        `${figures.releasePacket.bytes} bytes): first ${figures.releasePacket.firstMs} ms, then median ` +
+        `${figures.releasePacket.medianMs} ms, p95 ${figures.releasePacket.p95Ms} ms\n`,
     );
     process.stdout.write(`${JSON.stringify(figures)}\n`);
   } finally {

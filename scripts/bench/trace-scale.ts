@@ -258,14 +258,18 @@ async function main(): Promise<void> {
     };
     if (!values.json) {
       const line = (name: string, figures: Figures) =>
-        `${name.padEnd(18)} API p50 ${String(figures.apiP50Ms).padStart(8)} ms  p95 ${String(figures.apiP95Ms).padStart(8)} ms   SQL p50 ${String(figures.sqlP50Ms).padStart(8)} ms  p95 ${String(figures.sqlP95Ms).padStart(8)} ms   ratio ${ratios[name]}`;
+        `${name.padEnd(18)} API p50 ${String(figures.apiP50Ms).padStart(8)} ms  p95 ` +
+        `${String(figures.apiP95Ms).padStart(8)} ms   SQL p50 ${String(figures.sqlP50Ms).padStart(8)} ms  ` +
+        `p95 ${String(figures.sqlP95Ms).padStart(8)} ms   ratio ${ratios[name]}`;
       process.stdout.write(`\n${result.lots} lots, ${result.heats} heats, generated in ${generateSeconds} s\n`);
       process.stdout.write(
-        `sizes: backward ${sizes.backwardLots} lot(s), forward from a heat ${sizes.forwardHeatLots} lots, from a supplier ${sizes.forwardSupplierLots} lots\n`,
+        `sizes: backward ${sizes.backwardLots} lot(s), forward from a heat ${sizes.forwardHeatLots} lots, ` +
+          `from a supplier ${sizes.forwardSupplierLots} lots\n`,
       );
       for (const [name, figures] of Object.entries(queries)) process.stdout.write(`${line(name, figures)}\n`);
       process.stdout.write(
-        `backward at 20 connections: ${throughput.requestsPerSecond} req/s, p99 ${throughput.p99Ms} ms, ${throughput.errors} errors\n`,
+        `backward at 20 connections: ${throughput.requestsPerSecond} req/s, p99 ${throughput.p99Ms} ms, ` +
+          `${throughput.errors} errors\n`,
       );
     }
     summary = JSON.stringify(result);

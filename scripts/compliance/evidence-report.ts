@@ -9,7 +9,8 @@ import { renderPdf } from '../../server/src/documents/pdf-printer';
 import type { JudgedRequirement } from './matrix';
 
 export const evidenceCaution =
-  'This report gives objective evidence from Ingotrace’s automated tests. Validation for the intended use and regulated use rest with the firm: it does not validate the firm’s installation, procedures or people.';
+  'This report gives objective evidence from Ingotrace’s automated tests. Validation for the intended use and ' +
+  'regulated use rest with the firm: it does not validate the firm’s installation, procedures or people.';
 
 export interface EvidenceData {
   product: { name: string; version: string; commit: string; uncommittedChanges: boolean };
@@ -86,7 +87,11 @@ const statusText = { shown: 'SHOWN', 'not-shown': 'NOT SHOWN', procedural: 'PROC
 const statusColour = { shown: '#1e6b3a', 'not-shown': '#a4262c', procedural: '#55606a' } as const;
 
 function summaryLine(counts: EvidenceCounts): string {
-  return `${counts.requirements} requirements: ${counts.shown} shown by passing tests, ${counts.notShown} not shown, ${counts.procedural} met by the firm's procedures alone. ${counts.testsPassed} of ${counts.testsCited} cited tests passed.`;
+  return (
+    `${counts.requirements} requirements: ${counts.shown} shown by passing tests, ${counts.notShown} not shown, ` +
+    `${counts.procedural} met by the firm's procedures alone. ${counts.testsPassed} of ${counts.testsCited} ` +
+    `cited tests passed.`
+  );
 }
 
 const escape = (text: string) =>
@@ -106,14 +111,19 @@ export function evidenceHtml(data: EvidenceData, hash: string): string {
     )
     .join('\n');
   return `<!doctype html>
-<html lang="en"><head><meta charset="utf-8"><title>Ingotrace validation evidence ${escape(data.product.version)} ${escape(data.product.commit.slice(0, 12))}</title>
+<html lang="en"><head><meta charset="utf-8">
+      <title>Ingotrace validation evidence ${escape(data.product.version)} ${escape(data.product.commit.slice(0, 12))}</title>
 <style>
 body{font-family:"Noto Sans",system-ui,sans-serif;margin:2rem;color:#1b2730;max-width:75rem}
 h1{margin-bottom:.2rem}.caution{background:#fff6dd;color:#7a4b00;font-weight:600;padding:.6rem .8rem;border-radius:4px}
-table{border-collapse:collapse;width:100%;font-size:.85rem}th,td{border-bottom:1px solid #d5dbe0;padding:.35rem .5rem;text-align:left;vertical-align:top}
-tr.not-shown td.status{color:#a4262c;font-weight:700}tr.shown td.status{color:#1e6b3a;font-weight:700}tr.procedural td.status{color:#55606a}
-.test.failed,.test.not-run,.test.skipped{color:#a4262c;font-weight:600}code{font-size:.8rem}ul{margin:.25rem 0;padding-left:1.1rem}
-figure{margin:1rem 0}figure img{max-width:100%;border:1px solid #d5dbe0}.hash{font-family:monospace;word-break:break-all}
+table{border-collapse:collapse;width:100%;font-size:.85rem}
+      th,td{border-bottom:1px solid #d5dbe0;padding:.35rem .5rem;text-align:left;vertical-align:top}
+tr.not-shown td.status{color:#a4262c;font-weight:700}tr.shown td.status{color:#1e6b3a;font-weight:700}
+      tr.procedural td.status{color:#55606a}
+.test.failed,.test.not-run,.test.skipped{color:#a4262c;font-weight:600}code{font-size:.8rem}
+      ul{margin:.25rem 0;padding-left:1.1rem}
+figure{margin:1rem 0}figure img{max-width:100%;border:1px solid #d5dbe0}
+      .hash{font-family:monospace;word-break:break-all}
 </style></head><body>
 <p>Ingotrace · validation evidence report</p>
 <h1>${escape(data.product.name)} ${escape(data.product.version)}</h1>
@@ -129,7 +139,8 @@ ${data.run.runners.map((runner) => `<tr><th>${escape(runner.name)}</th><td>${run
 <tr><th>Content SHA-256</th><td class="hash">${hash}</td></tr>
 </tbody></table>
 <h2>Requirements</h2>
-<table><thead><tr><th>Requirement</th><th>What it asks and how Ingotrace meets it</th><th>Tests and results</th><th>The firm's part</th><th>Status</th></tr></thead><tbody>
+<table><thead><tr><th>Requirement</th><th>What it asks and how Ingotrace meets it</th><th>Tests and results</th>
+      <th>The firm's part</th><th>Status</th></tr></thead><tbody>
 ${rows}
 </tbody></table>
 <h2>Screenshots from the browser journeys</h2>
@@ -241,7 +252,9 @@ export async function evidencePdf(data: EvidenceData, hash: string): Promise<Buf
         return slices.map((slice, index) => ({
           stack: [
             {
-              text: `${shot.name}${total > 1 ? ` (part ${index + 1} of ${total}${total > slices.length ? `; parts ${slices.length + 1}–${total} in the HTML report` : ''})` : ''} · SHA-256 ${shot.sha256.slice(0, 32)}…`,
+              text:
+                `${shot.name}${total > 1 ? ` (part ${index + 1} of ${total}${total > slices.length ? `; parts ${slices.length + 1}–${total} in the HTML report` : ''})` : ''} ` +
+                `· SHA-256 ${shot.sha256.slice(0, 32)}…`,
               fontSize: 8,
               margin: [0, 6, 0, 2],
             },
@@ -252,7 +265,9 @@ export async function evidencePdf(data: EvidenceData, hash: string): Promise<Buf
       }),
       table(['Content SHA-256'], [[hash]]),
       {
-        text: 'The SHA-256 of the RFC 8785 canonical JSON of what this report states (screenshots by their own hashes). SHA256SUMS beside this file holds the hashes of the report’s files.',
+        text:
+          'The SHA-256 of the RFC 8785 canonical JSON of what this report states (screenshots by their own ' +
+          'hashes). SHA256SUMS beside this file holds the hashes of the report’s files.',
         fontSize: 8,
         color: '#555',
       },

@@ -162,11 +162,13 @@ async function main(): Promise<void> {
     for (const failover of failovers) {
       const firstAfter = ackTimes.find((time) => time > failover.killedAt + 50);
       log(
-        `  after ${failover.node} was killed: first acknowledgement ${firstAfter ? firstAfter - failover.killedAt : '—'} ms later`,
+        `  after ${failover.node} was killed: first acknowledgement ` +
+          `${firstAfter ? firstAfter - failover.killedAt : '—'} ms later`,
       );
     }
     log(
-      `writes: ${acknowledged.length} acknowledged in ${elapsedS.toFixed(1)} s; reads: ${reads}; slowest acknowledged write ${slowestWriteMs} ms`,
+      `writes: ${acknowledged.length} acknowledged in ${elapsedS.toFixed(1)} s; reads: ${reads}; slowest ` +
+        `acknowledged write ${slowestWriteMs} ms`,
     );
     for (const [what, count] of refusals) log(`  refused or failed: ${count} × ${what}`);
 
@@ -179,7 +181,8 @@ async function main(): Promise<void> {
     const unacknowledgedStored = [...perNode[0]!.writers].filter((name) => !acknowledgedSet.has(name)).length;
     await admin.initialize();
     const withoutEvent = await admin.query(
-      "SELECT s.id FROM supplier s WHERE NOT EXISTS (SELECT 1 FROM audit_event e WHERE e.action = 'supplier.created' AND e.entity_type = 'supplier' AND e.entity_id = CAST(s.id AS CHAR))",
+      'SELECT s.id FROM supplier s WHERE NOT EXISTS (SELECT 1 FROM audit_event e WHERE e.action = ' +
+        "'supplier.created' AND e.entity_type = 'supplier' AND e.entity_id = CAST(s.id AS CHAR))",
     );
     const ledger = await verifyLedger(admin.manager);
     const statuses = await Promise.all(cluster.nodes.map((node) => node.status()));
@@ -192,25 +195,33 @@ async function main(): Promise<void> {
     const otherFailures = refusedTotal - commitsCut;
     reportChecks([
       [
-        `acknowledged writes on every node: ${perNode.map((_contents, i) => `${cluster.nodes[i]!.name} ${acknowledged.length - missingPerNode[i]!}/${acknowledged.length}`).join(', ')}`,
+        `acknowledged writes on every node: ` +
+          `${perNode.map((_contents, i) => `${cluster.nodes[i]!.name} ${acknowledged.length - missingPerNode[i]!}/${acknowledged.length}`).join(', ')}`,
         missingPerNode.every((missing) => missing === 0),
       ],
       [
-        `every node holds the same suppliers and ledger (chain head ${perNode.map((contents) => contents.chainHead).join(' | ')}); stored but never acknowledged: ${unacknowledgedStored}`,
+        `every node holds the same suppliers and ledger (chain head ` +
+          `${perNode.map((contents) => contents.chainHead).join(' | ')}); stored but never acknowledged: ` +
+          `${unacknowledgedStored}`,
         sameEverywhere,
       ],
       [`suppliers without their ledger event: ${withoutEvent.length}`, withoutEvent.length === 0],
       [ledger.summary, ledger.ok],
       [
-        `longest stall in acknowledged writes after each kill: ${stalls.map((ms, i) => `${failovers[i]!.node} ${ms} ms`).join(', ')} (limit 10,000 ms)`,
+        `longest stall in acknowledged writes after each kill: ` +
+          `${stalls.map((ms, i) => `${failovers[i]!.node} ${ms} ms`).join(', ')} (limit 10,000 ms)`,
         stalls.every((ms) => ms < 10_000),
       ],
       [
-        `requests that failed while nodes failed: ${otherFailures} (of ${acknowledged.length + refusedTotal} writes and ${reads} reads); writes answered 503 because their COMMIT was cut off: ${commitsCut} (at most one per writer per kill); certification conflicts: ${conflicts}; tables cleared after a conflict left their triggers unreadable: ${tablesCleared}`,
+        `requests that failed while nodes failed: ${otherFailures} (of ${acknowledged.length + refusedTotal} ` +
+          `writes and ${reads} reads); writes answered 503 because their COMMIT was cut off: ${commitsCut} (at ` +
+          `most one per writer per kill); certification conflicts: ${conflicts}; tables cleared after a ` +
+          `conflict left their triggers unreadable: ${tablesCleared}`,
         otherFailures === 0 && commitsCut <= WRITERS * failovers.length,
       ],
       [
-        `restarted nodes rejoined and caught up: ${failovers.map((failover) => `${failover.node} in ${failover.rejoinMs} ms`).join(', ')}; cluster size ${statuses.map((status) => status.clusterSize).join('/')}`,
+        `restarted nodes rejoined and caught up: ${failovers.map((failover) => `${failover.node} in ${failover.rejoinMs} ms`).join(', ')}; ` +
+          `cluster size ${statuses.map((status) => status.clusterSize).join('/')}`,
         statuses.every((status) => status.clusterSize === 3 && status.state === 'Synced'),
       ],
     ]);
@@ -263,7 +274,8 @@ async function nodeContents(
     ['-N', '-B'],
   );
   const counts = await node.server.adminSql(
-    `SELECT (SELECT COUNT(*) FROM \`${database}\`.supplier), (SELECT COUNT(*) FROM \`${database}\`.audit_event), (SELECT COUNT(*) FROM \`${database}\`.electronic_signature);`,
+    `SELECT (SELECT COUNT(*) FROM \`${database}\`.supplier), (SELECT COUNT(*) FROM ` +
+      `\`${database}\`.audit_event), (SELECT COUNT(*) FROM \`${database}\`.electronic_signature);`,
     ['-N', '-B'],
   );
   return {

@@ -102,7 +102,8 @@ async function main(): Promise<void> {
     await server.start();
     const dbRecoveryMs = await untilHealthy(base);
     log(
-      `  MariaDB restarted in ${Date.now() - restartedAt - dbRecoveryMs} ms; the app answered health ${dbRecoveryMs} ms later`,
+      `  MariaDB restarted in ${Date.now() - restartedAt - dbRecoveryMs} ms; the app answered health ` +
+        `${dbRecoveryMs} ms later`,
     );
 
     // 2. The app, mid-request.
@@ -128,7 +129,8 @@ async function main(): Promise<void> {
     });
     upload.on('error', () => undefined);
     upload.write(
-      `--${boundary}\r\nContent-Disposition: form-data; name="certificate"; filename="half.pdf"\r\nContent-Type: application/pdf\r\n\r\n%PDF-1.4\n`,
+      `--${boundary}\r\nContent-Disposition: form-data; name="certificate"; ` +
+        `filename="half.pdf"\r\nContent-Type: application/pdf\r\n\r\n%PDF-1.4\n`,
     );
     for (let chunk = 0; chunk < 4; chunk += 1) {
       upload.write(Buffer.alloc(256 * 1024, 0x20));
@@ -144,7 +146,8 @@ async function main(): Promise<void> {
 
     await writing;
     log(
-      `writes: ${attempts} attempted, ${acknowledged.length} acknowledged, ${failures} failed or refused while something was down`,
+      `writes: ${attempts} attempted, ${acknowledged.length} acknowledged, ${failures} failed or refused ` +
+        `while something was down`,
     );
 
     // The checks.
@@ -155,14 +158,17 @@ async function main(): Promise<void> {
     );
     const missing = acknowledged.filter((name) => !stored.has(name));
     const withoutEvent = await admin.query(
-      "SELECT s.id FROM supplier s WHERE NOT EXISTS (SELECT 1 FROM audit_event e WHERE e.action = 'supplier.created' AND e.entity_type = 'supplier' AND e.entity_id = CAST(s.id AS CHAR))",
+      'SELECT s.id FROM supplier s WHERE NOT EXISTS (SELECT 1 FROM audit_event e WHERE e.action = ' +
+        "'supplier.created' AND e.entity_type = 'supplier' AND e.entity_id = CAST(s.id AS CHAR))",
     );
     const eventWithoutRecord = await admin.query(
-      "SELECT e.seq FROM audit_event e WHERE e.action = 'supplier.created' AND NOT EXISTS (SELECT 1 FROM supplier s WHERE CAST(s.id AS CHAR) = e.entity_id)",
+      "SELECT e.seq FROM audit_event e WHERE e.action = 'supplier.created' AND NOT EXISTS (SELECT 1 FROM " +
+        'supplier s WHERE CAST(s.id AS CHAR) = e.entity_id)',
     );
     const documentsAfter = Number((await admin.query('SELECT COUNT(*) AS n FROM certificate_document'))[0].n);
     const orphanDocuments = await admin.query(
-      'SELECT d.id FROM certificate_document d WHERE NOT EXISTS (SELECT 1 FROM heat_certificate c WHERE c.document_id = d.id) AND NOT EXISTS (SELECT 1 FROM operation_file f WHERE f.document_id = d.id)',
+      'SELECT d.id FROM certificate_document d WHERE NOT EXISTS (SELECT 1 FROM heat_certificate c WHERE ' +
+        'c.document_id = d.id) AND NOT EXISTS (SELECT 1 FROM operation_file f WHERE f.document_id = d.id)',
     );
     const ledger = await verifyLedger(admin.manager);
     const results = [
@@ -173,12 +179,14 @@ async function main(): Promise<void> {
       [`suppliers without their ledger event: ${withoutEvent.length}`, withoutEvent.length === 0],
       [`ledger events without their supplier: ${eventWithoutRecord.length}`, eventWithoutRecord.length === 0],
       [
-        `documents before/after the cut upload: ${documentsBefore}/${documentsAfter}; documents linked to nothing: ${orphanDocuments.length}`,
+        `documents before/after the cut upload: ${documentsBefore}/${documentsAfter}; documents linked to ` +
+          `nothing: ${orphanDocuments.length}`,
         documentsAfter === documentsBefore && orphanDocuments.length === 0,
       ],
       [ledger.summary, ledger.ok],
       [
-        `health again after the database restart: ${dbRecoveryMs} ms; after app restarts: ${appRecoveryMs} and ${uploadRecoveryMs} ms`,
+        `health again after the database restart: ${dbRecoveryMs} ms; after app restarts: ${appRecoveryMs} ` +
+          `and ${uploadRecoveryMs} ms`,
         dbRecoveryMs < 30_000,
       ],
     ] as const;

@@ -139,29 +139,40 @@ async function main(): Promise<void> {
     // Requests that the load generator gave up on may still be running in the app: stop it first.
     await stopApp(app);
     const [counts] = await admin.query(
-      "SELECT (SELECT COUNT(*) FROM supplier WHERE name LIKE 'Load writer %') AS written, (SELECT COUNT(*) FROM audit_event) AS events",
+      "SELECT (SELECT COUNT(*) FROM supplier WHERE name LIKE 'Load writer %') AS written, (SELECT COUNT(*) " +
+        'FROM audit_event) AS events',
     );
     const written = Number(counts.written);
     const eventsAfter = Number(counts.events);
     const ledger = await verifyLedger(admin.manager);
     const line = (name: string, result: LoadResult) =>
-      `${name.padEnd(6)} ${String(result.requestsPerSecond).padStart(6)} req/s  p50 ${String(result.p50Ms).padStart(4)} ms  p99 ${String(result.p99Ms).padStart(5)} ms  ${result.requests} requests, ${result.errors} errors, ${result.timeouts} timeouts, ${result.non2xx} non-2xx ${JSON.stringify(result.statusCodes)}`;
+      `${name.padEnd(6)} ${String(result.requestsPerSecond).padStart(6)} req/s  p50 ` +
+      `${String(result.p50Ms).padStart(4)} ms  p99 ${String(result.p99Ms).padStart(5)} ms  ` +
+      `${result.requests} requests, ${result.errors} errors, ${result.timeouts} timeouts, ${result.non2xx} ` +
+      `non-2xx ${JSON.stringify(result.statusCodes)}`;
     process.stdout.write(
-      `\n${line('bare', bare)}   (a bare Node HTTP server, fixed JSON: this machine's ceiling)\n${line('me', cheapest)}   (GET /api/me: the cheapest signed-in route)\n${eachRoute.map(([path, result]) => `${line('route', result)}   ${path}\n`).join('')}${line('reads', reads)}\n${line('light', light)}   (the same reads from ${lightConnections} connections)\n${line('mixed', mixed)}\n`,
+      `\n${line('bare', bare)}   (a bare Node HTTP server, fixed JSON: this machine's ` +
+        `ceiling)\n${line('me', cheapest)}   (GET /api/me: the cheapest signed-in ` +
+        (`route)\n${eachRoute.map(([path, result]) => `${line('route', result)}   ${path}\n`).join('')}${line('reads', reads)}\n${line('light', light)} ` +
+          `  (the same reads from ${lightConnections} connections)\n${line('mixed', mixed)}\n`),
     );
     // Little's law for a closed loop of connections: mean latency = connections / throughput.
     log(
-      `with ${connections} connections each waiting for its answer, the mean latency is ${connections} / throughput (Little's law): ${Math.round((connections / Math.max(1, reads.requestsPerSecond)) * 1000)} ms here; a p99 of 50 ms needs more than ${Math.round(connections / 0.05)} req/s`,
+      `with ${connections} connections each waiting for its answer, the mean latency is ${connections} / ` +
+        `throughput (Little's law): ${Math.round((connections / Math.max(1, reads.requestsPerSecond)) * 1000)} ` +
+        `ms here; a p99 of 50 ms needs more than ${Math.round(connections / 0.05)} req/s`,
     );
     const checks = [
       [`reads at least 1,500 req/s (${reads.requestsPerSecond})`, reads.requestsPerSecond >= 1500],
       [`reads p99 at most 50 ms (${reads.p99Ms})`, reads.p99Ms <= 50],
       [
-        `no errors, timeouts or failed answers (reads ${reads.errors + reads.timeouts + reads.non2xx}, mixed ${mixed.errors + mixed.timeouts + mixed.non2xx})`,
+        `no errors, timeouts or failed answers (reads ${reads.errors + reads.timeouts + reads.non2xx}, mixed ` +
+          `${mixed.errors + mixed.timeouts + mixed.non2xx})`,
         reads.errors + reads.timeouts + reads.non2xx + mixed.errors + mixed.timeouts + mixed.non2xx === 0,
       ],
       [
-        `every write acknowledged is a supplier with its ledger event (${written} suppliers, ${eventsAfter - eventsBefore} events)`,
+        `every write acknowledged is a supplier with its ledger event (${written} suppliers, ` +
+          `${eventsAfter - eventsBefore} events)`,
         eventsAfter - eventsBefore === written,
       ],
       [ledger.summary, ledger.ok],
@@ -177,7 +188,10 @@ async function main(): Promise<void> {
 /** Load on a bare node:http server in its own process (no framework, no database), for comparison. */
 async function bareServerLoad(duration: number): Promise<LoadResult> {
   const port = config.PORT + 7;
-  const code = `require('node:http').createServer((q, r) => { r.writeHead(200, { 'content-type': 'application/json' }); r.end(JSON.stringify({ id: 1, name: 'bare', roles: ['qa-reviewer'] })); }).listen(${port}, '127.0.0.1', () => console.log('up'));`;
+  const code =
+    `require('node:http').createServer((q, r) => { r.writeHead(200, { 'content-type': 'application/json' }); ` +
+    `r.end(JSON.stringify({ id: 1, name: 'bare', roles: ['qa-reviewer'] })); }).listen(${port}, '127.0.0.1', ` +
+    `() => console.log('up'));`;
   const bareServer = spawn(process.execPath, ['-e', code], { stdio: ['ignore', 'pipe', 'inherit'] });
   try {
     await new Promise<void>((ready) => bareServer.stdout.once('data', () => ready()));

@@ -39,7 +39,8 @@ export type DatabaseContent = Pick<BackupManifest, 'chainHead' | 'rows' | 'docum
 /** What the database holds, read in the caller's transaction (one consistent snapshot). */
 export async function readContent(dataSource: DataSource | import('typeorm').EntityManager): Promise<DatabaseContent> {
   const tables: Array<{ name: string }> = await dataSource.query(
-    "SELECT table_name AS name FROM information_schema.tables WHERE table_schema = DATABASE() AND table_type = 'BASE TABLE' ORDER BY table_name",
+    'SELECT table_name AS name FROM information_schema.tables WHERE table_schema = DATABASE() AND table_type ' +
+      "= 'BASE TABLE' ORDER BY table_name",
   );
   const rows: Record<string, number> = {};
   for (const { name } of tables) {
@@ -63,13 +64,15 @@ export function compareContent(expected: DatabaseContent, actual: DatabaseConten
   const differences: string[] = [];
   if (expected.chainHead.seq !== actual.chainHead.seq || expected.chainHead.hash !== actual.chainHead.hash) {
     differences.push(
-      `ledger chain head: expected ${expected.chainHead.seq} ${expected.chainHead.hash}, found ${actual.chainHead.seq} ${actual.chainHead.hash}`,
+      `ledger chain head: expected ${expected.chainHead.seq} ${expected.chainHead.hash}, found ` +
+        `${actual.chainHead.seq} ${actual.chainHead.hash}`,
     );
   }
   for (const table of new Set([...Object.keys(expected.rows), ...Object.keys(actual.rows)])) {
     if (expected.rows[table] !== actual.rows[table])
       differences.push(
-        `table ${table}: expected ${expected.rows[table] ?? 'no table'} rows, found ${actual.rows[table] ?? 'no table'}`,
+        `table ${table}: expected ${expected.rows[table] ?? 'no table'} rows, found ` +
+          `${actual.rows[table] ?? 'no table'}`,
       );
   }
   const found = new Map(actual.documents.map((document) => [`${document.table}/${document.id}`, document]));
@@ -78,7 +81,8 @@ export function compareContent(expected: DatabaseContent, actual: DatabaseConten
     if (!restored) differences.push(`document ${document.table}/${document.id} is missing`);
     else if (restored.contentSha256 !== document.contentSha256)
       differences.push(
-        `document ${document.table}/${document.id}: its bytes differ (SHA-256 ${restored.contentSha256}, expected ${document.contentSha256})`,
+        `document ${document.table}/${document.id}: its bytes differ (SHA-256 ${restored.contentSha256}, ` +
+          `expected ${document.contentSha256})`,
       );
   }
   for (const document of actual.documents) {
@@ -186,7 +190,9 @@ async function waitForDumpSnapshot(server: MariadbServer): Promise<void> {
   const deadline = Date.now() + 30_000;
   while (Date.now() < deadline) {
     const open = await server.adminSql(
-      "SELECT COUNT(*) FROM information_schema.innodb_trx t JOIN information_schema.processlist p ON p.id = t.trx_mysql_thread_id WHERE p.host = 'localhost' AND p.user = SUBSTRING_INDEX(CURRENT_USER(), '@', 1) AND p.id <> CONNECTION_ID() AND t.trx_isolation_level = 'REPEATABLE READ';",
+      'SELECT COUNT(*) FROM information_schema.innodb_trx t JOIN information_schema.processlist p ON p.id = ' +
+        "t.trx_mysql_thread_id WHERE p.host = 'localhost' AND p.user = SUBSTRING_INDEX(CURRENT_USER(), '@', 1) " +
+        "AND p.id <> CONNECTION_ID() AND t.trx_isolation_level = 'REPEATABLE READ';",
       ['-N', '-B'],
     );
     if (Number(open.trim()) > 0) return;

@@ -79,7 +79,8 @@ async function loadSpecificationLibrary(config: AppConfig): Promise<void> {
 
 export async function applyAppGrants(server: MariadbServer, config: AppConfig): Promise<void> {
   const output = await server.adminSql(
-    `SELECT table_name FROM information_schema.tables WHERE table_schema = '${config.DB_NAME}' AND table_type = 'BASE TABLE';`,
+    `SELECT table_name FROM information_schema.tables WHERE table_schema = '${config.DB_NAME}' AND table_type ` +
+      `= 'BASE TABLE';`,
     ['-N', '-B'],
   );
   const tables = output
@@ -87,7 +88,8 @@ export async function applyAppGrants(server: MariadbServer, config: AppConfig): 
     .map((line) => line.trim())
     .filter(Boolean);
   const granted = await server.adminSql(
-    `SELECT DISTINCT Host, Table_name FROM mysql.tables_priv WHERE User = '${config.DB_USER}' AND Db = '${config.DB_NAME}';`,
+    `SELECT DISTINCT Host, Table_name FROM mysql.tables_priv WHERE User = '${config.DB_USER}' AND Db = ` +
+      `'${config.DB_NAME}';`,
     ['-N', '-B'],
   );
   const previouslyGranted = granted

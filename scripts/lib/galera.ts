@@ -102,7 +102,8 @@ export class GaleraNode {
 
   async status(): Promise<NodeStatus> {
     const output = await this.server.adminSql(
-      "SHOW GLOBAL STATUS WHERE Variable_name IN ('wsrep_local_state_comment', 'wsrep_cluster_size', 'wsrep_ready', 'wsrep_local_cert_failures');",
+      "SHOW GLOBAL STATUS WHERE Variable_name IN ('wsrep_local_state_comment', 'wsrep_cluster_size', " +
+        "'wsrep_ready', 'wsrep_local_cert_failures');",
       ['-N', '-B'],
     );
     const values = new Map(
@@ -230,7 +231,8 @@ export class GaleraCluster {
     for (const node of this.nodes) await node.waitSynced(this.nodes.length);
     // The health check's account (no privileges); account statements replicate to every node.
     await this.nodes[0]!.server.adminSql(
-      `CREATE USER IF NOT EXISTS '${CHECK_ACCOUNT}'@'127.0.0.1'; CREATE USER IF NOT EXISTS '${CHECK_ACCOUNT}'@'localhost';`,
+      `CREATE USER IF NOT EXISTS '${CHECK_ACCOUNT}'@'127.0.0.1'; CREATE USER IF NOT EXISTS ` +
+        `'${CHECK_ACCOUNT}'@'localhost';`,
     );
     await this.startProxy();
     log(`Galera cluster of ${this.nodes.length} nodes synced; HAProxy on 127.0.0.1:${this.proxyPort}`);

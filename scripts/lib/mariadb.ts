@@ -99,7 +99,9 @@ export class MariadbServer {
     }
     if (await portInUse(this.options.host ?? '127.0.0.1', this.port)) {
       throw new Error(
-        `Port ${this.port} is already in use by another program (another MariaDB, or a copy of Ingotrace started from another folder). Stop it, or choose another port in .env (DB_PORT, or TEST_DB_PORT for npm test).`,
+        `Port ${this.port} is already in use by another program (another MariaDB, or a copy of Ingotrace ` +
+          `started from another folder). Stop it, or choose another port in .env (DB_PORT, or TEST_DB_PORT for ` +
+          `npm test).`,
       );
     }
     rmSync(this.pidFile, { force: true });

@@ -13,7 +13,8 @@ export async function seedDemoDrill(dataSource: DataSource): Promise<void> {
   const coordinator = await findPersonBySubject(dataSource.manager, 'kiw-0501');
   if (!coordinator) throw new Error('seed the demo people first');
   const [heat]: Array<{ heat_id: number }> = await dataSource.query(
-    'SELECT lh.heat_id FROM shipment s JOIN lot_heat lh ON lh.lot_id = s.lot_id ORDER BY s.shipped_on DESC, s.id DESC LIMIT 1',
+    'SELECT lh.heat_id FROM shipment s JOIN lot_heat lh ON lh.lot_id = s.lot_id ORDER BY s.shipped_on DESC, ' +
+      's.id DESC LIMIT 1',
   );
   if (!heat) return;
   const drill = await openRecall(

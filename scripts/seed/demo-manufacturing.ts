@@ -196,7 +196,8 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
       materialFamily: 'titanium-alloy',
       reference: 'VR-2025-031 (demo)',
       reason:
-        'Three worst-case lots of F136 parts passed water immersion and iron contamination checks after citric treatment (demo scenario)',
+        'Three worst-case lots of F136 parts passed water immersion and iron contamination checks after ' +
+        'citric treatment (demo scenario)',
     }),
     approver,
     { id: approver.id, name: approver.name, role: 'qa-approver' },
@@ -208,7 +209,8 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
     parts.push({ part: await createPart(dataSource, partCreateSchema.parse(create), engineer, actor, origin), demo });
   }
   const bars: Bar[] = await dataSource.query(
-    `SELECT b.tag, h.spec_id AS specId, h.grade, b.length_mm + 0 AS remaining FROM bar_piece b JOIN heat h ON h.id = b.heat_id
+    `SELECT b.tag, h.spec_id AS specId, h.grade, b.length_mm + 0 AS remaining FROM bar_piece b JOIN heat h ON h.id
+        = b.heat_id
       WHERE h.status = 'accepted' AND b.status = 'in-stock' ORDER BY h.received_at, b.id`,
   );
   for (const bar of bars) bar.remaining = Number(bar.remaining);
@@ -281,7 +283,9 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
             nc.id,
             dispositionInputSchema.parse({
               disposition: 'use-as-is',
-              note: 'Bath 2.5 °C over for the last 10 minutes; passivation verification (water immersion) passed on samples from every lot',
+              note:
+                'Bath 2.5 °C over for the last 10 minutes; passivation verification (water immersion) passed on ' +
+                'samples from every lot',
             }),
             { id: approver.id, name: approver.name, role: 'qa-approver' },
             origin,
@@ -428,7 +432,9 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
   if (waiting.length) await finishBatch(waiting.splice(0));
 
   const [recent] = await dataSource.query(
-    "SELECT l.id, l.lot_number FROM production_lot l WHERE l.status = 'open' AND l.origin = 'bar' AND NOT EXISTS (SELECT 1 FROM lot_operation o JOIN routing_step s ON s.id = o.routing_step_id WHERE o.lot_id = l.id AND s.kind = 'passivation') ORDER BY l.opened_at DESC LIMIT 1",
+    "SELECT l.id, l.lot_number FROM production_lot l WHERE l.status = 'open' AND l.origin = 'bar' AND NOT " +
+      'EXISTS (SELECT 1 FROM lot_operation o JOIN routing_step s ON s.id = o.routing_step_id WHERE o.lot_id = ' +
+      "l.id AND s.kind = 'passivation') ORDER BY l.opened_at DESC LIMIT 1",
   );
   if (recent) {
     await raiseNonconformance(

@@ -37,7 +37,9 @@ function demoCertificate(heatNumber: string, mill: string): Buffer {
     body += `${index + 1} 0 obj\n${object}\nendobj\n`;
   });
   const xref = body.length;
-  body += `xref\n0 ${objects.length + 1}\n0000000000 65535 f \n${offsets.map((offset) => `${String(offset).padStart(10, '0')} 00000 n \n`).join('')}`;
+  body +=
+    `xref\n0 ${objects.length + 1}\n0000000000 65535 f ` +
+    `\n${offsets.map((offset) => `${String(offset).padStart(10, '0')} 00000 n \n`).join('')}`;
   body += `trailer\n<< /Size ${objects.length + 1} /Root 1 0 R >>\nstartxref\n${xref}\n%%EOF\n`;
   return Buffer.from(body, 'latin1');
 }

@@ -103,6 +103,7 @@ export async function seedDemoRelease(dataSource: DataSource): Promise<void> {
 export async function dropDemoHistoryMail(dataSource: DataSource): Promise<void> {
   await dataSource.query(
     `DELETE FROM mail_outbox WHERE sent_at IS NULL AND entity_type = 'lot'
-       AND CAST(entity_id AS UNSIGNED) NOT IN (SELECT id FROM production_lot WHERE status IN ('submitted', 'reviewed'))`,
+       AND CAST(entity_id AS UNSIGNED) NOT IN (SELECT id FROM production_lot WHERE status IN ('submitted',
+         'reviewed'))`,
   );
 }

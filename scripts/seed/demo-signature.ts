@@ -24,7 +24,8 @@ export async function signAsDemoPerson(
   const id = randomBytes(16).toString('hex');
   const now = new Date();
   await dataSource.query(
-    'INSERT INTO reauthentication (id, person_id, purpose, binding_hash, return_to, started_at, confirmed_at, authn_instant) VALUES (?, ?, ?, ?, ?, ?, ?, ?)',
+    'INSERT INTO reauthentication (id, person_id, purpose, binding_hash, return_to, started_at, confirmed_at, ' +
+      'authn_instant) VALUES (?, ?, ?, ?, ?, ?, ?, ?)',
     [id, person.id, seededReauthenticationPurpose, preparation.bindingHash, '/', now, now, now],
   );
   await signRecord(

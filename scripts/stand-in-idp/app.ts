@@ -66,7 +66,8 @@ export function createStandInIdp(options: StandInIdpOptions): Express {
   app.use((_req, res, next) => {
     res.set(
       'Content-Security-Policy',
-      "default-src 'none'; style-src 'unsafe-inline'; script-src 'unsafe-inline'; form-action *; frame-ancestors 'none'",
+      "default-src 'none'; style-src 'unsafe-inline'; script-src 'unsafe-inline'; form-action *; " +
+        "frame-ancestors 'none'",
     );
     res.set('Cache-Control', 'no-store');
     next();
@@ -102,11 +103,18 @@ export function createStandInIdp(options: StandInIdpOptions): Express {
     res
       .type('application/samlmetadata+xml')
       .send(
-        `<?xml version="1.0"?><md:EntityDescriptor xmlns:md="urn:oasis:names:tc:SAML:2.0:metadata" entityID="${options.entityId}">` +
-          `<md:IDPSSODescriptor WantAuthnRequestsSigned="false" protocolSupportEnumeration="urn:oasis:names:tc:SAML:2.0:protocol">` +
-          `<md:KeyDescriptor use="signing"><ds:KeyInfo xmlns:ds="http://www.w3.org/2000/09/xmldsig#"><ds:X509Data><ds:X509Certificate>${certificate}</ds:X509Certificate></ds:X509Data></ds:KeyInfo></md:KeyDescriptor>` +
-          `<md:SingleLogoutService Binding="urn:oasis:names:tc:SAML:2.0:bindings:HTTP-Redirect" Location="${options.entityId.replace(/\/metadata$/, '')}/slo"/>` +
-          `<md:SingleSignOnService Binding="urn:oasis:names:tc:SAML:2.0:bindings:HTTP-Redirect" Location="${options.entityId.replace(/\/metadata$/, '')}/sso"/>` +
+        `<?xml version="1.0"?><md:EntityDescriptor xmlns:md="urn:oasis:names:tc:SAML:2.0:metadata" ` +
+          `entityID="${options.entityId}">` +
+          (`<md:IDPSSODescriptor WantAuthnRequestsSigned="false" ` +
+            `protocolSupportEnumeration="urn:oasis:names:tc:SAML:2.0:protocol">`) +
+          (`<md:KeyDescriptor use="signing"><ds:KeyInfo ` +
+            (`xmlns:ds="http://www.w3.org/2000/09/xmldsig#"><ds:X509Data>` +
+              `<ds:X509Certificate>${certificate}</ds:X509Certificate></ds:X509Data></ds:KeyInfo>` +
+              `</md:KeyDescriptor>`)) +
+          (`<md:SingleLogoutService Binding="urn:oasis:names:tc:SAML:2.0:bindings:HTTP-Redirect" ` +
+            `Location="${options.entityId.replace(/\/metadata$/, '')}/slo"/>`) +
+          (`<md:SingleSignOnService Binding="urn:oasis:names:tc:SAML:2.0:bindings:HTTP-Redirect" ` +
+            `Location="${options.entityId.replace(/\/metadata$/, '')}/sso"/>`) +
           `</md:IDPSSODescriptor></md:EntityDescriptor>`,
       );
   });
@@ -133,7 +141,8 @@ export function createStandInIdp(options: StandInIdpOptions): Express {
         .send(
           messagePage(
             'Unknown service',
-            `The address ${request.assertionConsumerServiceUrl ?? '(none)'} is not registered with this identity provider.`,
+            `The address ${request.assertionConsumerServiceUrl ?? '(none)'} is not registered with this ` +
+              `identity provider.`,
           ),
         );
       return;

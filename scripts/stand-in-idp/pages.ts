@@ -7,11 +7,14 @@ h1{font-size:1.3rem;margin-top:0}.banner{background:#5b3f8c;color:#fff;padding:.
 label{display:block;margin:.8rem 0 .3rem;font-weight:600}select,input{width:100%;padding:.5rem;font-size:1rem}
 button{margin-top:1.2rem;padding:.6rem 1.2rem;font-size:1rem;background:#5b3f8c;color:#fff;border:0;border-radius:5px;cursor:pointer}
 .error{background:#fde8e8;border:1px solid #e5a5a5;padding:.6rem;border-radius:5px}.muted{color:#666;font-size:.85rem}
-table{border-collapse:collapse;width:100%;font-size:.85rem;margin-top:1.5rem}td,th{border-bottom:1px solid #eee;padding:.3rem;text-align:left}`;
+table{border-collapse:collapse;width:100%;font-size:.85rem;margin-top:1.5rem}
+    td,th{border-bottom:1px solid #eee;padding:.3rem;text-align:left}`;
 
 function page(title: string, body: string, script = ''): string {
-  return `<!doctype html><html lang="en"><head><meta charset="utf-8"><title>${escapeHtml(title)}</title><style>${style}</style></head>
-<body><div class="banner">Stand-in identity provider for local development and tests — not for production</div><main>${body}</main>${script}</body></html>`;
+  return `<!doctype html><html lang="en"><head><meta charset="utf-8"><title>${escapeHtml(title)}</title>
+      <style>${style}</style></head>
+<body><div class="banner">Stand-in identity provider for local development and tests — not for production</div>
+      <main>${body}</main>${script}</body></html>`;
 }
 
 export function signInPage(options: {
@@ -24,7 +27,8 @@ export function signInPage(options: {
   const choices = options.people
     .map(
       (person) =>
-        `<option value="${escapeHtml(person.subject)}"${person.subject === options.selectedSubject ? ' selected' : ''}>${escapeHtml(person.name)} — ${escapeHtml(person.groups.join(', '))}${person.note ? ` (${escapeHtml(person.note)})` : ''}</option>`,
+        `<option value="${escapeHtml(person.subject)}"${person.subject === options.selectedSubject ? ' selected' : ''}>${escapeHtml(person.name)} ` +
+        `— ${escapeHtml(person.groups.join(', '))}${person.note ? ` (${escapeHtml(person.note)})` : ''}</option>`,
     )
     .join('');
   const rows = options.people
@@ -38,7 +42,8 @@ ${options.error ? `<p class="error" role="alert">${escapeHtml(options.error)}</p
 <form method="post" action="/sso/sign-in">
 <input type="hidden" name="request" value="${escapeHtml(options.requestToken)}">
 <label for="subject">Person</label><select id="subject" name="subject">${choices}</select>
-<label for="password">Password</label><input id="password" name="password" type="password" autocomplete="current-password" required autofocus>
+<label for="password">Password</label>
+        <input id="password" name="password" type="password" autocomplete="current-password" required autofocus>
 <button type="submit">Sign in</button>
 </form>
 <table><caption class="muted">Demo passwords</caption><tr><th>Person</th><th>Password</th></tr>${rows}</table>`,

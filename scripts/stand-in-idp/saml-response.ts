@@ -78,15 +78,25 @@ export function responseXml(input: SamlResponseInput, responseId = newSamlId()):
     )
     .join('');
   return (
-    `<samlp:Response xmlns:samlp="urn:oasis:names:tc:SAML:2.0:protocol" xmlns:saml="urn:oasis:names:tc:SAML:2.0:assertion" ID="${responseId}" Version="2.0" IssueInstant="${instant(now)}" Destination="${escapeXml(input.destination)}"${inResponseTo}>` +
+    `<samlp:Response xmlns:samlp="urn:oasis:names:tc:SAML:2.0:protocol" ` +
+    `xmlns:saml="urn:oasis:names:tc:SAML:2.0:assertion" ID="${responseId}" Version="2.0" ` +
+    `IssueInstant="${instant(now)}" Destination="${escapeXml(input.destination)}"${inResponseTo}>` +
     `<saml:Issuer>${escapeXml(input.issuer)}</saml:Issuer>` +
     `<samlp:Status><samlp:StatusCode Value="urn:oasis:names:tc:SAML:2.0:status:Success"/></samlp:Status>` +
     `<saml:Assertion ID="${input.assertionId ?? newSamlId()}" Version="2.0" IssueInstant="${instant(now)}">` +
     `<saml:Issuer>${escapeXml(input.issuer)}</saml:Issuer>` +
-    `<saml:Subject><saml:NameID Format="urn:oasis:names:tc:SAML:2.0:nameid-format:persistent">${escapeXml(input.subject)}</saml:NameID>` +
-    `<saml:SubjectConfirmation Method="urn:oasis:names:tc:SAML:2.0:cm:bearer"><saml:SubjectConfirmationData${inResponseTo} NotOnOrAfter="${instant(notOnOrAfter)}" Recipient="${escapeXml(input.recipient ?? input.destination)}"/></saml:SubjectConfirmation></saml:Subject>` +
-    `<saml:Conditions NotBefore="${instant(notBefore)}" NotOnOrAfter="${instant(notOnOrAfter)}"><saml:AudienceRestriction><saml:Audience>${escapeXml(input.audience)}</saml:Audience></saml:AudienceRestriction></saml:Conditions>` +
-    `<saml:AuthnStatement AuthnInstant="${instant(input.authnInstant)}" SessionIndex="${escapeXml(input.sessionIndex ?? newSamlId())}"><saml:AuthnContext><saml:AuthnContextClassRef>urn:oasis:names:tc:SAML:2.0:ac:classes:PasswordProtectedTransport</saml:AuthnContextClassRef></saml:AuthnContext></saml:AuthnStatement>` +
+    (`<saml:Subject><saml:NameID ` +
+      `Format="urn:oasis:names:tc:SAML:2.0:nameid-format:persistent">${escapeXml(input.subject)}</saml:NameID>`) +
+    (`<saml:SubjectConfirmation Method="urn:oasis:names:tc:SAML:2.0:cm:bearer">` +
+      `<saml:SubjectConfirmationData${inResponseTo} ` +
+      `NotOnOrAfter="${instant(notOnOrAfter)}" Recipient="${escapeXml(input.recipient ?? input.destination)}"/></saml:SubjectConfirmation></saml:Subject>`) +
+    (`<saml:Conditions NotBefore="${instant(notBefore)}" ` +
+      (`NotOnOrAfter="${instant(notOnOrAfter)}"><saml:AudienceRestriction>` +
+        `<saml:Audience>${escapeXml(input.audience)}</saml:Audience></saml:AudienceRestriction>` +
+        `</saml:Conditions>`)) +
+    (`<saml:AuthnStatement AuthnInstant="${instant(input.authnInstant)}" ` +
+      (`SessionIndex="${escapeXml(input.sessionIndex ?? newSamlId())}"><saml:AuthnContext>` +
+        `<saml:AuthnContextClassRef>urn:oasis:names:tc:SAML:2.0:ac:classes:PasswordProtectedTransport</saml:AuthnContextClassRef></saml:AuthnContext></saml:AuthnStatement>`)) +
     `<saml:AttributeStatement>${attributes}</saml:AttributeStatement>` +
     `</saml:Assertion></samlp:Response>`
   );

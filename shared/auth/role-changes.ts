@@ -14,7 +14,9 @@ export function signingRolesChanged(before: readonly Role[], after: readonly Rol
  */
 export function roleCombinationRefusal(roles: readonly Role[], administratorsMayApprove: boolean): string | null {
   if (!administratorsMayApprove && roles.includes('administrator') && roles.includes('qa-approver')) {
-    return `${roleLabels.administrator} and ${roleLabels['qa-approver']} cannot be held together (organisation setting)`;
+    return (
+      `${roleLabels.administrator} and ${roleLabels['qa-approver']} cannot be held together (organisation ` + `setting)`
+    );
   }
   return null;
 }

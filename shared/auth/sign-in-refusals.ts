@@ -14,7 +14,8 @@ export type SignInRefusalCode = (typeof signInRefusalCodes)[number];
 
 export const signInRefusalMessages: Record<SignInRefusalCode, string> = {
   'not-confirmed':
-    'The identity provider’s answer could not be accepted. Try again; if it keeps failing, tell your administrator (the reason is kept in the audit trail).',
+    'The identity provider’s answer could not be accepted. Try again; if it keeps failing, tell your ' +
+    'administrator (the reason is kept in the audit trail).',
   deactivated: 'Your Ingotrace account is deactivated; ask an administrator.',
   'no-role': 'You hold no Ingotrace role; ask an administrator to give you one.',
   'role-combination':

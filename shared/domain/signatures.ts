@@ -51,7 +51,8 @@ export const meaningsNeedingReason: readonly SignatureMeaning[] = [
 
 /** The statement shown beside every signature (21 CFR 11.100(c) / 11.50 manifestation). */
 export const signatureStatement =
-  'By signing, I confirm that this electronic signature is the legally binding equivalent of my handwritten signature, that I have reviewed the content shown, and that the meaning stated is what I intend.';
+  'By signing, I confirm that this electronic signature is the legally binding equivalent of my handwritten ' +
+  'signature, that I have reviewed the content shown, and that the meaning stated is what I intend.';
 
 export type Sha256 = (text: string) => string;
 

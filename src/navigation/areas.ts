@@ -27,7 +27,8 @@ export const productAreas: ProductArea[] = [
     title: 'Heats and certificates',
     icon: 'pi pi-file-check',
     summary:
-      'Heats of bar received from the mills, their certificates and the evaluation of every reported result against the specification.',
+      'Heats of bar received from the mills, their certificates and the evaluation of every reported result ' +
+      'against the specification.',
     plannedWork: [
       'Receive a heat against a supplier and a specification revision',
       'Upload the mill certificate and enter or import its results',
@@ -57,7 +58,8 @@ export const productAreas: ProductArea[] = [
     title: 'Production lots',
     icon: 'pi pi-box',
     summary:
-      'Production lots with the bar issued to them, the operations recorded along their routing, splits, merges and shipments.',
+      'Production lots with the bar issued to them, the operations recorded along their routing, splits, ' +
+      'merges and shipments.',
     plannedWork: [
       'Open a lot and issue bar to it',
       'Record operations, inspections and nonconformances',
@@ -72,7 +74,8 @@ export const productAreas: ProductArea[] = [
     title: 'Process runs',
     icon: 'pi pi-sync',
     summary:
-      'Passivation and cleaning runs, each holding many lots, with their parameters checked against the method’s window.',
+      'Passivation and cleaning runs, each holding many lots, with their parameters checked against the ' +
+      'method’s window.',
     plannedWork: [
       'Group lots into a passivation or cleaning run',
       'Record bath, concentration, temperature and time',
@@ -87,7 +90,8 @@ export const productAreas: ProductArea[] = [
     title: 'Release desk',
     icon: 'pi pi-verified',
     summary:
-      'Lots awaiting review and approval, their readiness checklist, the signatures and the release packet with its UDI.',
+      'Lots awaiting review and approval, their readiness checklist, the signatures and the release packet ' +
+      'with its UDI.',
     plannedWork: [
       'See why a lot is or is not ready',
       'Review and approve with two electronic signatures',

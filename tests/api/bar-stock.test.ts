@@ -20,104 +20,119 @@ describe('bar stock', () => {
 
   const post = (path: string, body: object) => engineer.post(path).set('X-CSRF-Token', csrf).send(body);
 
-  it('when bar is received against a heat, then the piece carries its tag, heat and full remaining length', async () => {
-    const response = await post('/api/bar-pieces', {
-      heatId,
-      markedHeatNumber: 'NV 24 1107',
-      tag: 'nv-1107-01',
-      diameterMm: '25.4',
-      lengthMm: '3000',
-      massKg: '6.84',
-      location: 'Rack B2',
-    });
-    expect(response.status).toBe(201);
-    expect(barPieceSchema.parse(response.body)).toMatchObject({
-      tag: 'NV-1107-01',
-      heat: { heatNumber: 'NV-24-1107' },
-      lengthMm: '3000.00',
-      remainingMm: '3000.00',
-      status: 'in-stock',
-    });
-    const duplicate = await post('/api/bar-pieces', {
-      heatId,
-      markedHeatNumber: 'NV-24-1107',
-      tag: 'NV-1107-01',
-      diameterMm: '25.4',
-      lengthMm: '3000',
-      location: 'Rack B2',
-    });
-    expect(duplicate.status).toBe(409);
-    const invalid = await post('/api/bar-pieces', {
-      heatId,
-      tag: 'x',
-      diameterMm: '0',
-      lengthMm: 'long',
-      location: '',
-    });
-    expect(invalid.status).toBe(400);
-    expect(Object.keys(invalid.body.error.fields).sort()).toEqual([
-      'diameterMm',
-      'lengthMm',
-      'location',
-      'markedHeatNumber',
-      'tag',
-    ]);
-    expect(barPieceSchema.parse(response.body).markedHeatNumber).toBe('NV 24 1107');
-  });
+  it(
+    'when bar is received against a heat, then the piece ' + 'carries its tag, heat and full remaining length',
+    async () => {
+      const response = await post('/api/bar-pieces', {
+        heatId,
+        markedHeatNumber: 'NV 24 1107',
+        tag: 'nv-1107-01',
+        diameterMm: '25.4',
+        lengthMm: '3000',
+        massKg: '6.84',
+        location: 'Rack B2',
+      });
+      expect(response.status).toBe(201);
+      expect(barPieceSchema.parse(response.body)).toMatchObject({
+        tag: 'NV-1107-01',
+        heat: { heatNumber: 'NV-24-1107' },
+        lengthMm: '3000.00',
+        remainingMm: '3000.00',
+        status: 'in-stock',
+      });
+      const duplicate = await post('/api/bar-pieces', {
+        heatId,
+        markedHeatNumber: 'NV-24-1107',
+        tag: 'NV-1107-01',
+        diameterMm: '25.4',
+        lengthMm: '3000',
+        location: 'Rack B2',
+      });
+      expect(duplicate.status).toBe(409);
+      const invalid = await post('/api/bar-pieces', {
+        heatId,
+        tag: 'x',
+        diameterMm: '0',
+        lengthMm: 'long',
+        location: '',
+      });
+      expect(invalid.status).toBe(400);
+      expect(Object.keys(invalid.body.error.fields).sort()).toEqual([
+        'diameterMm',
+        'lengthMm',
+        'location',
+        'markedHeatNumber',
+        'tag',
+      ]);
+      expect(barPieceSchema.parse(response.body).markedHeatNumber).toBe('NV 24 1107');
+    },
+  );
 
-  it('[BAR-MARKING] when the heat number read off the bar does not match the certificate, then the receipt is refused, nothing is stocked, and the mismatch is recorded', async () => {
-    const refused = await post('/api/bar-pieces', {
-      heatId,
-      markedHeatNumber: 'NV-24-11O7',
-      tag: 'NV-1107-X1',
-      diameterMm: '25.4',
-      lengthMm: '3000',
-      location: 'Rack B2',
-    });
-    expect(refused.status).toBe(422);
-    expect(refused.body.error.message).toBe(
-      'The bar is marked NV-24-11O7, the certificate is for heat NV-24-1107; they differ from character 7 (O against 0). The bar was not taken into stock; set it aside and ask QA.',
-    );
-    expect(refused.body.error.fields).toEqual({ markedHeatNumber: 'Does not match heat NV-24-1107' });
-    const db = running.database.dataSource;
-    expect(await db.query("SELECT id FROM bar_piece WHERE tag = 'NV-1107-X1'")).toEqual([]);
-    const [event] = await db.query(
-      "SELECT entity_type, entity_id, after_json FROM audit_event WHERE action = 'bar.heat-marking-mismatch' ORDER BY seq DESC LIMIT 1",
-    );
-    expect(event).toMatchObject({ entity_type: 'heat', entity_id: String(heatId) });
-    expect(JSON.parse(event.after_json)).toMatchObject({
-      tag: 'NV-1107-X1',
-      markedHeatNumber: 'NV-24-11O7',
-      heatNumber: 'NV-24-1107',
-    });
-  });
+  it(
+    '[BAR-MARKING] when the heat number read off the bar does not match the certificate, then the receipt is ' +
+      'refused, nothing is stocked, and the mismatch is recorded',
+    async () => {
+      const refused = await post('/api/bar-pieces', {
+        heatId,
+        markedHeatNumber: 'NV-24-11O7',
+        tag: 'NV-1107-X1',
+        diameterMm: '25.4',
+        lengthMm: '3000',
+        location: 'Rack B2',
+      });
+      expect(refused.status).toBe(422);
+      expect(refused.body.error.message).toBe(
+        'The bar is marked NV-24-11O7, the certificate is for heat NV-24-1107; they differ from character 7 (O ' +
+          'against 0). The bar was not taken into stock; set it aside and ask QA.',
+      );
+      expect(refused.body.error.fields).toEqual({ markedHeatNumber: 'Does not match heat NV-24-1107' });
+      const db = running.database.dataSource;
+      expect(await db.query("SELECT id FROM bar_piece WHERE tag = 'NV-1107-X1'")).toEqual([]);
+      const [event] = await db.query(
+        "SELECT entity_type, entity_id, after_json FROM audit_event WHERE action = 'bar.heat-marking-mismatch' " +
+          'ORDER BY seq DESC LIMIT 1',
+      );
+      expect(event).toMatchObject({ entity_type: 'heat', entity_id: String(heatId) });
+      expect(JSON.parse(event.after_json)).toMatchObject({
+        tag: 'NV-1107-X1',
+        markedHeatNumber: 'NV-24-11O7',
+        heatNumber: 'NV-24-1107',
+      });
+    },
+  );
 
-  it('when a piece is cut and the lengths plus kerf account for it, then the children get their own tags and the parent is used up', async () => {
-    const [piece] = await running.database.dataSource.query("SELECT id FROM bar_piece WHERE tag = 'NV-1107-01'");
-    const cut = await post(`/api/bar-pieces/${piece.id}/cuts`, {
-      pieces: [{ lengthMm: '1000' }, { lengthMm: '997' }, { lengthMm: '997', location: 'Saw bay' }],
-    });
-    expect(cut.status).toBe(201);
-    expect(
-      cut.body.map((child: { tag: string; lengthMm: string; massKg: string }) => [
-        child.tag,
-        child.lengthMm,
-        child.massKg,
-      ]),
-    ).toEqual([
-      ['NV-1107-01-A', '1000.00', '2.280'],
-      ['NV-1107-01-B', '997.00', '2.273'],
-      ['NV-1107-01-C', '997.00', '2.273'],
-    ]);
-    const parent = barPieceSchema.parse((await engineer.get(`/api/bar-pieces/${piece.id}`)).body);
-    expect(parent).toMatchObject({
-      status: 'cut',
-      remainingMm: '0.00',
-      childTags: ['NV-1107-01-A', 'NV-1107-01-B', 'NV-1107-01-C'],
-    });
-    const again = await post(`/api/bar-pieces/${piece.id}/cuts`, { pieces: [{ lengthMm: '10' }, { lengthMm: '10' }] });
-    expect(again.status).toBe(422);
-  });
+  it(
+    'when a piece is cut and the lengths plus kerf account for it, then the children get their own tags and the ' +
+      'parent is used up',
+    async () => {
+      const [piece] = await running.database.dataSource.query("SELECT id FROM bar_piece WHERE tag = 'NV-1107-01'");
+      const cut = await post(`/api/bar-pieces/${piece.id}/cuts`, {
+        pieces: [{ lengthMm: '1000' }, { lengthMm: '997' }, { lengthMm: '997', location: 'Saw bay' }],
+      });
+      expect(cut.status).toBe(201);
+      expect(
+        cut.body.map((child: { tag: string; lengthMm: string; massKg: string }) => [
+          child.tag,
+          child.lengthMm,
+          child.massKg,
+        ]),
+      ).toEqual([
+        ['NV-1107-01-A', '1000.00', '2.280'],
+        ['NV-1107-01-B', '997.00', '2.273'],
+        ['NV-1107-01-C', '997.00', '2.273'],
+      ]);
+      const parent = barPieceSchema.parse((await engineer.get(`/api/bar-pieces/${piece.id}`)).body);
+      expect(parent).toMatchObject({
+        status: 'cut',
+        remainingMm: '0.00',
+        childTags: ['NV-1107-01-A', 'NV-1107-01-B', 'NV-1107-01-C'],
+      });
+      const again = await post(`/api/bar-pieces/${piece.id}/cuts`, {
+        pieces: [{ lengthMm: '10' }, { lengthMm: '10' }],
+      });
+      expect(again.status).toBe(422);
+    },
+  );
 
   it('when a cut does not account for the bar, then it is refused and nothing is written', async () => {
     const received = await post('/api/bar-pieces', {

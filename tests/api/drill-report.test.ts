@@ -117,125 +117,151 @@ describe('recall drill report', () => {
   });
   afterAll(() => running.close());
 
-  it('[DRILL-COUNTS] when a drill is opened, then its report counts the hand-built scope and every completeness check passes', async () => {
-    const body = await report();
-    expect(body.drill).toMatchObject({
-      recallNumber: drill.recallNumber,
-      status: 'open',
-      trigger: 'bar TST-DRL-BAR',
-      closedAt: null,
-    });
-    expect(body.assessment.totals).toEqual({ lots: 2, made: 40, released: 20, shipped: 12, onHand: 28, consignees: 2 });
-    expect(body.consignees.map((consignee) => [consignee.name, consignee.units]).sort()).toEqual(
-      [
-        [consignees[0]!.name, 5],
-        [consignees[1]!.name, 7],
-      ].sort(),
-    );
-    expect(body.assessment.checks.filter((check) => !check.passed)).toEqual([]);
-    expect(body.assessment.complete).toBe(true);
-    expect(body.lots.every((lot) => lot.heats.length === 1)).toBe(true);
-    expect(body.assessment.timing.toFirstScopeMs).toBeGreaterThanOrEqual(0);
-    expect(body.assessment.timing.tracedInMs).toBeGreaterThanOrEqual(0);
-    expect(body.assessment.timing.toConfirmedScopeMs).toBeNull();
-  });
+  it(
+    '[DRILL-COUNTS] when a drill is opened, then its report counts the hand-built scope and every completeness ' +
+      'check passes',
+    async () => {
+      const body = await report();
+      expect(body.drill).toMatchObject({
+        recallNumber: drill.recallNumber,
+        status: 'open',
+        trigger: 'bar TST-DRL-BAR',
+        closedAt: null,
+      });
+      expect(body.assessment.totals).toEqual({
+        lots: 2,
+        made: 40,
+        released: 20,
+        shipped: 12,
+        onHand: 28,
+        consignees: 2,
+      });
+      expect(body.consignees.map((consignee) => [consignee.name, consignee.units]).sort()).toEqual(
+        [
+          [consignees[0]!.name, 5],
+          [consignees[1]!.name, 7],
+        ].sort(),
+      );
+      expect(body.assessment.checks.filter((check) => !check.passed)).toEqual([]);
+      expect(body.assessment.complete).toBe(true);
+      expect(body.lots.every((lot) => lot.heats.length === 1)).toBe(true);
+      expect(body.assessment.timing.toFirstScopeMs).toBeGreaterThanOrEqual(0);
+      expect(body.assessment.timing.tracedInMs).toBeGreaterThanOrEqual(0);
+      expect(body.assessment.timing.toConfirmedScopeMs).toBeNull();
+    },
+  );
 
-  it('when units ship after the scope was traced, then the report says the scope is not current until the trace is re-run', async () => {
-    expect(
-      (
-        await post('engineer', `/api/lots/${lotA.id}/shipments`, {
-          consigneeId: consignees[0]!.id,
-          qty: 3,
-          shippedOn: '2026-11-27',
-          documentNumber: 'DN-DRL-9',
+  it(
+    'when units ship after the scope was traced, then the report says the scope is not current until the trace ' +
+      'is re-run',
+    async () => {
+      expect(
+        (
+          await post('engineer', `/api/lots/${lotA.id}/shipments`, {
+            consigneeId: consignees[0]!.id,
+            qty: 3,
+            shippedOn: '2026-11-27',
+            documentNumber: 'DN-DRL-9',
+          })
+        ).status,
+      ).toBe(201);
+      const stale = await report();
+      expect(stale.assessment.complete).toBe(false);
+      expect(stale.assessment.checks.find((check) => check.id === 'scope-current')!.offenders).toEqual([
+        `${lotA.lotNumber}: 12 shipped when traced, 15 now`,
+      ]);
+      expect((await post('coordinator', `/api/recalls/${drill.id}/reruns`, {})).status).toBe(201);
+      const fresh = await report();
+      expect(fresh.assessment.complete).toBe(true);
+      expect(fresh.assessment.totals).toMatchObject({ shipped: 15, onHand: 25 });
+      expect(fresh.assessment.timing).toMatchObject({ reruns: 1, scopeChanged: false });
+      expect(fresh.scope.snapshot.kind).toBe('rerun');
+    },
+  );
+
+  it(
+    '[DRILL-REPORT] when the drill is closed, then the report times the confirmed scope, and the CSV and PDF ' +
+      'state it; each export is in the ledger',
+    async () => {
+      expect(
+        (
+          await signThroughApi(
+            saml,
+            people.approver!,
+            { recordType: 'recall-investigation', recordId: String(drill.id), meaning: 'closed' },
+            'Scope confirmed with shipping records',
+          )
+        ).status,
+      ).toBe(201);
+      const closed = await report();
+      expect(closed.drill.closedAt).not.toBeNull();
+      expect(closed.assessment.timing.toConfirmedScopeMs).toBe(
+        Date.parse(closed.drill.closedAt!) - Date.parse(closed.drill.openedAt),
+      );
+
+      const csv = await people.auditor!.agent.get(`/api/recalls/${drill.id}/drill-report?format=csv`);
+      expect(csv.headers['content-type']).toBe('text/csv; charset=utf-8');
+      const rows = parse(csv.text, { columns: true }) as Array<{
+        section: string;
+        name: string;
+        value: string;
+        detail: string;
+      }>;
+      expect(
+        Object.fromEntries(rows.filter((row) => row.section === 'totals').map((row) => [row.name, row.value])),
+      ).toEqual({ lots: '2', started: '40', released: '20', shipped: '15', 'in plant': '25', consignees: '2' });
+      expect(rows.filter((row) => row.section === 'check').map((row) => row.value)).toEqual([
+        'passed',
+        'passed',
+        'passed',
+        'passed',
+        'passed',
+      ]);
+      expect(
+        rows
+          .filter((row) => row.section === 'lot')
+          .map((row) => row.name)
+          .sort(),
+      ).toEqual([lotA.lotNumber, lotB.lotNumber].sort());
+
+      const pdf = await binary(`/api/recalls/${drill.id}/drill-report?format=pdf`);
+      expect(pdf.headers['content-type']).toBe('application/pdf');
+      const { text } = readPdf(pdf.body as Buffer);
+      expect(text).toContain(`Recall drill report ${drill.recallNumber}`);
+      expect(text).toContain('Scope complete: every check passed.');
+      expect(text).toContain('Every shipped unit is accounted for');
+      expect(text).toContain('rest with the firm');
+      expect(text).toContain(lotB.lotNumber);
+      const events = await running.database.dataSource.query(
+        "SELECT after_json FROM audit_event WHERE action = 'recall.drill-report-exported' AND entity_id = ? " +
+          'ORDER BY seq',
+        [String(drill.id)],
+      );
+      expect(events.map((event: { after_json: string }) => JSON.parse(event.after_json).format)).toEqual([
+        'csv',
+        'pdf',
+      ]);
+    },
+  );
+
+  it(
+    'when asked for a recall, an unknown drill or a format ' + 'it does not make, then it answers with the reason',
+    async () => {
+      const recall = (
+        await post('coordinator', '/api/recalls', {
+          trigger: { pieceId },
+          mode: 'recall',
+          reason: 'A real recall is not a drill',
         })
-      ).status,
-    ).toBe(201);
-    const stale = await report();
-    expect(stale.assessment.complete).toBe(false);
-    expect(stale.assessment.checks.find((check) => check.id === 'scope-current')!.offenders).toEqual([
-      `${lotA.lotNumber}: 12 shipped when traced, 15 now`,
-    ]);
-    expect((await post('coordinator', `/api/recalls/${drill.id}/reruns`, {})).status).toBe(201);
-    const fresh = await report();
-    expect(fresh.assessment.complete).toBe(true);
-    expect(fresh.assessment.totals).toMatchObject({ shipped: 15, onHand: 25 });
-    expect(fresh.assessment.timing).toMatchObject({ reruns: 1, scopeChanged: false });
-    expect(fresh.scope.snapshot.kind).toBe('rerun');
-  });
-
-  it('[DRILL-REPORT] when the drill is closed, then the report times the confirmed scope, and the CSV and PDF state it; each export is in the ledger', async () => {
-    expect(
-      (
-        await signThroughApi(
-          saml,
-          people.approver!,
-          { recordType: 'recall-investigation', recordId: String(drill.id), meaning: 'closed' },
-          'Scope confirmed with shipping records',
-        )
-      ).status,
-    ).toBe(201);
-    const closed = await report();
-    expect(closed.drill.closedAt).not.toBeNull();
-    expect(closed.assessment.timing.toConfirmedScopeMs).toBe(
-      Date.parse(closed.drill.closedAt!) - Date.parse(closed.drill.openedAt),
-    );
-
-    const csv = await people.auditor!.agent.get(`/api/recalls/${drill.id}/drill-report?format=csv`);
-    expect(csv.headers['content-type']).toBe('text/csv; charset=utf-8');
-    const rows = parse(csv.text, { columns: true }) as Array<{
-      section: string;
-      name: string;
-      value: string;
-      detail: string;
-    }>;
-    expect(
-      Object.fromEntries(rows.filter((row) => row.section === 'totals').map((row) => [row.name, row.value])),
-    ).toEqual({ lots: '2', started: '40', released: '20', shipped: '15', 'in plant': '25', consignees: '2' });
-    expect(rows.filter((row) => row.section === 'check').map((row) => row.value)).toEqual([
-      'passed',
-      'passed',
-      'passed',
-      'passed',
-      'passed',
-    ]);
-    expect(
-      rows
-        .filter((row) => row.section === 'lot')
-        .map((row) => row.name)
-        .sort(),
-    ).toEqual([lotA.lotNumber, lotB.lotNumber].sort());
-
-    const pdf = await binary(`/api/recalls/${drill.id}/drill-report?format=pdf`);
-    expect(pdf.headers['content-type']).toBe('application/pdf');
-    const { text } = readPdf(pdf.body as Buffer);
-    expect(text).toContain(`Recall drill report ${drill.recallNumber}`);
-    expect(text).toContain('Scope complete: every check passed.');
-    expect(text).toContain('Every shipped unit is accounted for');
-    expect(text).toContain('rest with the firm');
-    expect(text).toContain(lotB.lotNumber);
-    const events = await running.database.dataSource.query(
-      "SELECT after_json FROM audit_event WHERE action = 'recall.drill-report-exported' AND entity_id = ? ORDER BY seq",
-      [String(drill.id)],
-    );
-    expect(events.map((event: { after_json: string }) => JSON.parse(event.after_json).format)).toEqual(['csv', 'pdf']);
-  });
-
-  it('when asked for a recall, an unknown drill or a format it does not make, then it answers with the reason', async () => {
-    const recall = (
-      await post('coordinator', '/api/recalls', {
-        trigger: { pieceId },
-        mode: 'recall',
-        reason: 'A real recall is not a drill',
-      })
-    ).body as RecallDetail;
-    const refused = await people.auditor!.agent.get(`/api/recalls/${recall.id}/drill-report`);
-    expect(refused.status).toBe(422);
-    expect(refused.body.error.message).toBe(
-      `${recall.recallNumber} is a recall, not a drill; export its affected set instead`,
-    );
-    expect((await people.auditor!.agent.get('/api/recalls/999999/drill-report')).status).toBe(404);
-    expect((await people.auditor!.agent.get(`/api/recalls/${drill.id}/drill-report?format=xlsx`)).status).toBe(400);
-    expect((await people.engineer!.agent.get(`/api/recalls/${drill.id}/drill-report`)).status).toBe(403);
-  });
+      ).body as RecallDetail;
+      const refused = await people.auditor!.agent.get(`/api/recalls/${recall.id}/drill-report`);
+      expect(refused.status).toBe(422);
+      expect(refused.body.error.message).toBe(
+        `${recall.recallNumber} is a recall, not a drill; export its affected set instead`,
+      );
+      expect((await people.auditor!.agent.get('/api/recalls/999999/drill-report')).status).toBe(404);
+      expect((await people.auditor!.agent.get(`/api/recalls/${drill.id}/drill-report?format=xlsx`)).status).toBe(400);
+      expect((await people.engineer!.agent.get(`/api/recalls/${drill.id}/drill-report`)).status).toBe(403);
+    },
+  );
 });

@@ -29,9 +29,12 @@ describe('entities and migrations', () => {
   beforeAll(() => dataSource.initialize());
   afterAll(() => dataSource.destroy());
 
-  it('[ENTITY-DRIFT] when TypeORM compares every entity with the migrated database, then it would change nothing', async () => {
-    expect(await pendingSchemaChanges(dataSource)).toEqual([]);
-  });
+  it(
+    '[ENTITY-DRIFT] when TypeORM compares every entity with ' + 'the migrated database, then it would change nothing',
+    async () => {
+      expect(await pendingSchemaChanges(dataSource)).toEqual([]);
+    },
+  );
 
   it('[ENTITY-TABLES] every table the migrations create has exactly one entity, and every entity a table', async () => {
     const rows: Array<{ name: string }> = await dataSource.query(
@@ -44,42 +47,51 @@ describe('entities and migrations', () => {
     expect(new Set(entityTables).size).toBe(entities.length);
   });
 
-  it('[ENTITY-KEY-INDEXES] an index named like its foreign key (which the comparison skips) serves only that key', async () => {
-    const rows: Array<{ tableName: string; name: string; columnName: string; nonUnique: number | string }> =
-      await dataSource.query(
-        `SELECT s.table_name AS tableName, s.index_name AS name, s.column_name AS columnName, s.non_unique AS nonUnique
+  it(
+    '[ENTITY-KEY-INDEXES] an index named like its foreign ' + 'key (which the comparison skips) serves only that key',
+    async () => {
+      const rows: Array<{ tableName: string; name: string; columnName: string; nonUnique: number | string }> =
+        await dataSource.query(
+          `SELECT s.table_name AS tableName, s.index_name AS name, s.column_name AS columnName,
+                s.non_unique AS nonUnique
            FROM information_schema.statistics s
            JOIN information_schema.referential_constraints r
-             ON r.constraint_schema = s.table_schema AND r.table_name = s.table_name AND r.constraint_name = s.index_name
+             ON r.constraint_schema = s.table_schema AND r.table_name = s.table_name AND
+               r.constraint_name = s.index_name
           WHERE s.table_schema = DATABASE()
           ORDER BY s.table_name, s.index_name, s.seq_in_index`,
-      );
-    const inDatabase = new Map<string, { columns: string[]; unique: boolean }>();
-    for (const row of rows) {
-      const key = `${row.tableName}.${row.name}`;
-      const index = inDatabase.get(key) ?? { columns: [], unique: Number(row.nonUnique) === 0 };
-      index.columns.push(row.columnName);
-      inDatabase.set(key, index);
-    }
-    expect(inDatabase.size).toBeGreaterThan(30);
-    const keys = new Map<string, { columns: string[]; unique: boolean }>();
-    for (const metadata of dataSource.entityMetadatas)
-      for (const foreignKey of metadata.foreignKeys)
-        keys.set(`${metadata.tableName}.${foreignKey.name}`, { columns: foreignKey.columnNames, unique: false });
-    // A wider or unique index under a key's name would escape the comparison above: it needs its own name.
-    for (const [key, index] of inDatabase) expect(index, key).toEqual(keys.get(key));
-  });
+        );
+      const inDatabase = new Map<string, { columns: string[]; unique: boolean }>();
+      for (const row of rows) {
+        const key = `${row.tableName}.${row.name}`;
+        const index = inDatabase.get(key) ?? { columns: [], unique: Number(row.nonUnique) === 0 };
+        index.columns.push(row.columnName);
+        inDatabase.set(key, index);
+      }
+      expect(inDatabase.size).toBeGreaterThan(30);
+      const keys = new Map<string, { columns: string[]; unique: boolean }>();
+      for (const metadata of dataSource.entityMetadatas)
+        for (const foreignKey of metadata.foreignKeys)
+          keys.set(`${metadata.tableName}.${foreignKey.name}`, { columns: foreignKey.columnNames, unique: false });
+      // A wider or unique index under a key's name would escape the comparison above: it needs its own name.
+      for (const [key, index] of inDatabase) expect(index, key).toEqual(keys.get(key));
+    },
+  );
 
-  it('[ENTITY-DRIFT-SEEN] when an entity draws a column differently from its migration, then the comparison names the change', async () => {
-    const wrong = new DataSource({ ...dataSource.options, entities: [OrganisationDrawnWrong], migrations: [] });
-    await wrong.initialize();
-    try {
-      const changes = await pendingSchemaChanges(wrong);
-      expect(changes.join('\n')).toMatch(/ALTER TABLE `organisation`.*`name` varchar\(150\)/);
-      // Columns the entity leaves out would be dropped: the comparison sees them too.
-      expect(changes.join('\n')).toMatch(/DROP COLUMN `time_zone`/);
-    } finally {
-      await wrong.destroy();
-    }
-  });
+  it(
+    '[ENTITY-DRIFT-SEEN] when an entity draws a column differently from its migration, then the comparison ' +
+      'names the change',
+    async () => {
+      const wrong = new DataSource({ ...dataSource.options, entities: [OrganisationDrawnWrong], migrations: [] });
+      await wrong.initialize();
+      try {
+        const changes = await pendingSchemaChanges(wrong);
+        expect(changes.join('\n')).toMatch(/ALTER TABLE `organisation`.*`name` varchar\(150\)/);
+        // Columns the entity leaves out would be dropped: the comparison sees them too.
+        expect(changes.join('\n')).toMatch(/DROP COLUMN `time_zone`/);
+      } finally {
+        await wrong.destroy();
+      }
+    },
+  );
 });

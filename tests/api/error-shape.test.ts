@@ -75,19 +75,22 @@ describe('the validate middleware with the error handler', () => {
   });
   app.use(errorHandler);
 
-  it('[INPUT-FIELDS] when several fields are wrong, then 400 VALIDATION_FAILED lists each field with its message', async () => {
-    const response = await request(app)
-      .post('/heats/abc')
-      .send({ number: '', chemistry: { O: '0,12' } });
-    expect(response.status).toBe(400);
-    const body = errorResponseSchema.parse(response.body);
-    expect(body.error.code).toBe('VALIDATION_FAILED');
-    expect(body.error.fields).toEqual({
-      'params.heatId': expect.stringMatching(/number/i),
-      number: 'Heat number is required',
-      'chemistry.O': 'Expected a decimal number',
-    });
-  });
+  it(
+    '[INPUT-FIELDS] when several fields are wrong, then 400 ' + 'VALIDATION_FAILED lists each field with its message',
+    async () => {
+      const response = await request(app)
+        .post('/heats/abc')
+        .send({ number: '', chemistry: { O: '0,12' } });
+      expect(response.status).toBe(400);
+      const body = errorResponseSchema.parse(response.body);
+      expect(body.error.code).toBe('VALIDATION_FAILED');
+      expect(body.error.fields).toEqual({
+        'params.heatId': expect.stringMatching(/number/i),
+        number: 'Heat number is required',
+        'chemistry.O': 'Expected a decimal number',
+      });
+    },
+  );
 
   it('when the input is valid, then the handler receives the parsed values', async () => {
     const response = await request(app)

@@ -17,17 +17,20 @@ describe('GET /api/health', () => {
     expect(response.headers['cache-control']).toBe('no-store');
   });
 
-  it('[HEALTH-DB-DOWN] when the database cannot be reached, then it answers 503 in the error shape with the reason', async () => {
-    // Port 9 (discard) has no MariaDB on this machine: the connection is refused for real.
-    const unreachable = createTestApp({ DB_PORT: '9' });
-    try {
-      const response = await request(unreachable.app).get('/api/health');
-      expect(response.status).toBe(503);
-      const body = errorResponseSchema.parse(response.body);
-      expect(body.error.code).toBe('SERVICE_UNAVAILABLE');
-      expect(body.error.message).toMatch(/^Database unreachable: .*ECONNREFUSED/);
-    } finally {
-      await unreachable.close();
-    }
-  });
+  it(
+    '[HEALTH-DB-DOWN] when the database cannot be reached, then it answers 503 in the error shape with the ' + 'reason',
+    async () => {
+      // Port 9 (discard) has no MariaDB on this machine: the connection is refused for real.
+      const unreachable = createTestApp({ DB_PORT: '9' });
+      try {
+        const response = await request(unreachable.app).get('/api/health');
+        expect(response.status).toBe(503);
+        const body = errorResponseSchema.parse(response.body);
+        expect(body.error.code).toBe('SERVICE_UNAVAILABLE');
+        expect(body.error.message).toMatch(/^Database unreachable: .*ECONNREFUSED/);
+      } finally {
+        await unreachable.close();
+      }
+    },
+  );
 });

@@ -200,7 +200,10 @@ describe('hostile input on every API route', () => {
           inputs += 1;
           if (route.method !== 'GET' && response.status < 300)
             accepted.push(`${route.method} ${path} ${raw?.slice(0, 200)} → ${response.status}`);
-          const context = `${route.method} ${path}?${new URLSearchParams(search as Record<string, string>)} ${JSON.stringify(payload)?.slice(0, 300)} → ${response.status} ${JSON.stringify(response.body).slice(0, 300)}`;
+          const context =
+            `${route.method} ${path}?${new URLSearchParams(search as Record<string, string>)} ` +
+            `${JSON.stringify(payload)?.slice(0, 300)} → ${response.status} ` +
+            `${JSON.stringify(response.body).slice(0, 300)}`;
           expect(response.status, context).toBeLessThan(500);
           if (response.status >= 400) expect(errorResponseSchema.safeParse(response.body).success, context).toBe(true);
         },
@@ -216,7 +219,8 @@ describe('hostile input on every API route', () => {
       // One line per route, so that a long run shows how far it has come.
       if (runs >= 1000)
         console.log(
-          `hostile input: ${route.method} ${route.path}: ${inputs - before} inputs, no 500, in ${Math.round((Date.now() - started) / 1000)} s (seed ${seed})`,
+          `hostile input: ${route.method} ${route.path}: ${inputs - before} inputs, no 500, in ` +
+            `${Math.round((Date.now() - started) / 1000)} s (seed ${seed})`,
         );
     },
     Math.max(60_000, runs * 1_000),

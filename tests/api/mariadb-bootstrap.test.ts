@@ -44,30 +44,33 @@ describe('the MariaDB bootstrap', () => {
     expect(health.message).toMatch(/^Database refused the app account: ER_DBACCESS_DENIED_ERROR/);
   });
 
-  it('when bootstrapped, then migrations are current, health is ok and the app account has only its grants', async () => {
-    await bootstrapDatabase(config);
-    expect(await healthOf(app)).toEqual({ status: 200, message: undefined });
+  it(
+    'when bootstrapped, then migrations are current, ' + 'health is ok and the app account has only its grants',
+    async () => {
+      await bootstrapDatabase(config);
+      expect(await healthOf(app)).toEqual({ status: 200, message: undefined });
 
-    const connection = await createConnection({
-      host: '127.0.0.1',
-      port: config.DB_PORT,
-      user: config.DB_USER,
-      password: config.DB_PASSWORD,
-      database: config.DB_NAME,
-    });
-    try {
-      await expect(connection.query("UPDATE migrations SET name = 'x'")).rejects.toThrow(/UPDATE command denied/);
-      await expect(connection.query('CREATE TABLE intruder (id INT)')).rejects.toThrow(/CREATE command denied/);
-      await expect(connection.query('DROP TABLE organisation')).rejects.toThrow(/DROP command denied/);
-      // No global privilege: neither a global read lock nor a flush (both need RELOAD).
-      await expect(connection.query('FLUSH TABLES WITH READ LOCK')).rejects.toThrow(/RELOAD/);
-      await expect(connection.query('FLUSH LOCAL TABLES organisation')).rejects.toThrow(/RELOAD/);
-      const [rows] = await connection.query('SELECT COUNT(*) AS n FROM organisation');
-      expect(rows).toEqual([{ n: 0 }]);
-    } finally {
-      await connection.end();
-    }
-  });
+      const connection = await createConnection({
+        host: '127.0.0.1',
+        port: config.DB_PORT,
+        user: config.DB_USER,
+        password: config.DB_PASSWORD,
+        database: config.DB_NAME,
+      });
+      try {
+        await expect(connection.query("UPDATE migrations SET name = 'x'")).rejects.toThrow(/UPDATE command denied/);
+        await expect(connection.query('CREATE TABLE intruder (id INT)')).rejects.toThrow(/CREATE command denied/);
+        await expect(connection.query('DROP TABLE organisation')).rejects.toThrow(/DROP command denied/);
+        // No global privilege: neither a global read lock nor a flush (both need RELOAD).
+        await expect(connection.query('FLUSH TABLES WITH READ LOCK')).rejects.toThrow(/RELOAD/);
+        await expect(connection.query('FLUSH LOCAL TABLES organisation')).rejects.toThrow(/RELOAD/);
+        const [rows] = await connection.query('SELECT COUNT(*) AS n FROM organisation');
+        expect(rows).toEqual([{ n: 0 }]);
+      } finally {
+        await connection.end();
+      }
+    },
+  );
 
   it('when a shipped migration has not run, then health names it', async () => {
     await server.adminSql(
@@ -77,23 +80,28 @@ describe('the MariaDB bootstrap', () => {
     expect(health.status).toBe(503);
     expect(health.message).toBe('Database schema is behind: 1 migration(s) not run (CreateOrganisation1764633600000)');
     await server.adminSql(
-      `INSERT INTO \`${config.DB_NAME}\`.migrations (timestamp, name) VALUES (1764633600000, 'CreateOrganisation1764633600000');`,
+      `INSERT INTO \`${config.DB_NAME}\`.migrations (timestamp, name) VALUES (1764633600000, ` +
+        `'CreateOrganisation1764633600000');`,
     );
   });
 
-  it('[DB-RECOVER] when the server stops, then health says the database is unreachable, and after a restart it recovers by itself', async () => {
-    await server.stop(true);
-    expect(await server.isRunning()).toBe(false);
-    const down = await healthOf(app);
-    expect(down.status).toBe(503);
-    expect(down.message).toMatch(/^Database unreachable/);
+  it(
+    '[DB-RECOVER] when the server stops, then health says the database is unreachable, and after a restart it ' +
+      'recovers by itself',
+    async () => {
+      await server.stop(true);
+      expect(await server.isRunning()).toBe(false);
+      const down = await healthOf(app);
+      expect(down.status).toBe(503);
+      expect(down.message).toMatch(/^Database unreachable/);
 
-    await server.start();
-    let health = await healthOf(app);
-    for (let attempt = 0; attempt < 20 && health.status !== 200; attempt++) {
-      await new Promise((done) => setTimeout(done, 250));
-      health = await healthOf(app);
-    }
-    expect(health.status).toBe(200);
-  });
+      await server.start();
+      let health = await healthOf(app);
+      for (let attempt = 0; attempt < 20 && health.status !== 200; attempt++) {
+        await new Promise((done) => setTimeout(done, 250));
+        health = await healthOf(app);
+      }
+      expect(health.status).toBe(200);
+    },
+  );
 });

@@ -108,220 +108,240 @@ describe('process methods within their material scope, endotoxin limits by conta
     reason: 'Worst-case lots passed water immersion after treatment',
   });
 
-  it('[PART-METHOD-SCOPE] when an engineer routes a titanium part through an A967 (stainless steel) method, then registration is refused at that step; a stainless part or F86 is accepted', async () => {
-    const titaniumA967 = await post(
-      'engineer',
-      '/api/parts',
-      part(
-        {
-          partNumber: 'TST-SCOPE-01',
-          gtin: '09521230000062',
-          lotPattern: 'SA{SEQ:4}',
-          contactCategory: 'general-tissue',
-        },
-        [
-          { kind: 'machining', name: 'Turn' },
-          { kind: 'passivation', name: 'Passivate', processMethod: 'A967-NITRIC-2' },
-        ],
-      ),
-    );
-    expect(titaniumA967.status).toBe(422);
-    expect(titaniumA967.body.error.fields['routing.1.processMethod']).toBe(
-      "The part's material is titanium alloy; A967-NITRIC-2's scope covers stainless steel. Use a method whose scope covers it, or have QA record the firm's own validation of A967-NITRIC-2 for titanium alloy.",
-    );
-    const steel = await post(
-      'engineer',
-      '/api/parts',
-      part(
-        {
-          partNumber: 'TST-SCOPE-02',
-          gtin: '09521230000079',
-          lotPattern: 'SB{SEQ:4}',
-          contactCategory: 'general-tissue',
-          specId: 'ASTM F138',
-        },
-        [
-          { kind: 'machining', name: 'Turn' },
-          { kind: 'passivation', name: 'Passivate', processMethod: 'A967-NITRIC-2' },
-        ],
-      ),
-    );
-    expect(steel.status).toBe(201);
-    expect(steel.body.contactCategory).toBe('general-tissue');
-    const noCategory = await post('engineer', '/api/parts', {
-      ...part(
-        {
-          partNumber: 'TST-SCOPE-03',
-          gtin: '09521230000086',
-          lotPattern: 'SC{SEQ:4}',
-          contactCategory: 'general-tissue',
-        },
-        [{ kind: 'machining', name: 'Turn' }],
-      ),
-      contactCategory: undefined,
-    });
-    expect(noCategory.status).toBe(400);
-    expect(noCategory.body.error.fields.contactCategory).toBe('Choose where the finished device touches the body');
-  });
-
-  it('[RUN-METHOD-SCOPE] when the firm’s validation of a method for titanium is withdrawn, then a titanium lot is refused from a run under it; recorded again, the run goes through and the method shows it as the firm’s own', async () => {
-    expect(
-      (await post('engineer', '/api/process-methods/A967-NITRIC-4/validations', validation('titanium-alloy'))).status,
-    ).toBe(403);
-    const inScope = await post(
-      'approver',
-      '/api/process-methods/A967-NITRIC-4/validations',
-      validation('stainless-steel'),
-    );
-    expect(inScope.status).toBe(422);
-    expect(inScope.body.error.fields).toEqual({ materialFamily: 'Already in the method’s scope' });
-    const unknown = await post('approver', '/api/process-methods/NO-SUCH/validations', validation('titanium-alloy'));
-    expect(unknown.status).toBe(404);
-    const short = await post('approver', '/api/process-methods/A967-NITRIC-4/validations', {
-      ...validation('titanium-alloy'),
-      reason: 'ok',
-    });
-    expect(short.status).toBe(400);
-
-    const recorded = await post(
-      'approver',
-      '/api/process-methods/A967-NITRIC-4/validations',
-      validation('titanium-alloy'),
-    );
-    expect(recorded.status).toBe(201);
-    expect(recorded.body.firmValidations).toEqual([
-      expect.objectContaining({ family: 'titanium-alloy', reference: 'VR-TEST-001', recordedBy: expect.any(String) }),
-    ]);
-    expect(
-      (await post('approver', '/api/process-methods/A967-NITRIC-4/validations', validation('titanium-alloy'))).status,
-    ).toBe(409);
-    const registered = await post(
-      'engineer',
-      '/api/parts',
-      part(
-        {
-          partNumber: 'TST-SCOPE-04',
-          gtin: '09521230000093',
-          lotPattern: 'SD{SEQ:4}',
-          contactCategory: 'general-tissue',
-        },
-        [
-          { kind: 'machining', name: 'Turn' },
-          { kind: 'passivation', name: 'Passivate', processMethod: 'A967-NITRIC-4' },
-        ],
-      ),
-    );
-    expect(registered.status).toBe(201);
-    const lot = await lotAfterTurning(registered.body.id);
-
-    const withdrawnBefore = await events('process-method.validation-withdrawn');
-    expect(
-      (await post('approver', '/api/process-methods/A967-NITRIC-4/validations', validation('titanium-alloy', false)))
-        .status,
-    ).toBe(201);
-    expect(await events('process-method.validation-withdrawn')).toBe(withdrawnBefore + 1);
-    const runs = Number((await running.database.dataSource.query('SELECT COUNT(*) AS n FROM process_run'))[0].n);
-    const refused = await post('engineer', '/api/process-runs', {
-      kind: 'passivation',
-      methodId: 'A967-NITRIC-4',
-      equipment: 'Tank S',
-      operatorName: 'Test',
-      runAt: '2026-11-21T08:00:00Z',
-      parameters: passivation,
-      lotIds: [lot.id],
-    });
-    expect(refused.status).toBe(422);
-    expect(refused.body.error.fields).toEqual({ lotIds: `${lot.lotNumber} is outside A967-NITRIC-4's scope` });
-    expect(Number((await running.database.dataSource.query('SELECT COUNT(*) AS n FROM process_run'))[0].n)).toBe(runs);
-
-    expect(
-      (await post('approver', '/api/process-methods/A967-NITRIC-4/validations', validation('titanium-alloy'))).status,
-    ).toBe(201);
-    const accepted = await post('engineer', '/api/process-runs', {
-      kind: 'passivation',
-      methodId: 'A967-NITRIC-4',
-      equipment: 'Tank S',
-      operatorName: 'Test',
-      runAt: '2026-11-21T08:00:00Z',
-      parameters: passivation,
-      lotIds: [lot.id],
-    });
-    expect(accepted.status).toBe(201);
-    expect(accepted.body.inWindow).toBe(true);
-    const methods = (await people.engineer!.agent.get('/api/process-methods')).body as Array<{
-      id: string;
-      firmValidations: unknown[];
-      materialScope: { families: string[] };
-    }>;
-    expect(methods.find((method) => method.id === 'A967-NITRIC-4')).toMatchObject({
-      materialScope: { families: ['stainless-steel'] },
-      firmValidations: [expect.objectContaining({ family: 'titanium-alloy' })],
-    });
-  });
-
-  it('[RUN-ENDOTOXIN-CONTACT] when a cleaning run reads 4 EU/device, then a tissue-contact lot is in window and a cerebrospinal-fluid lot is not (FDA Q&A guidance / USP <161>: 20 vs 2.15 EU/device)', async () => {
-    const routing = [
-      { kind: 'machining', name: 'Turn' },
-      { kind: 'cleaning', name: 'Final clean', processMethod: 'KIW-CLEAN-AQ' },
-    ];
-    const tissue = await post(
-      'engineer',
-      '/api/parts',
-      part(
-        {
-          partNumber: 'TST-SCOPE-05',
-          gtin: '09521230000109',
-          lotPattern: 'SE{SEQ:4}',
-          contactCategory: 'general-tissue',
-        },
-        routing,
-      ),
-    );
-    const csf = await post(
-      'engineer',
-      '/api/parts',
-      part(
-        {
-          partNumber: 'TST-SCOPE-06',
-          gtin: '09521230000116',
-          lotPattern: 'SF{SEQ:4}',
-          contactCategory: 'cerebrospinal-fluid',
-        },
-        routing,
-      ),
-    );
-    expect([tissue.status, csf.status]).toEqual([201, 201]);
-    expect(csf.body.contactCategory).toBe('cerebrospinal-fluid');
-    const run = (lotIds: number[], endotoxin: string) =>
-      post('engineer', '/api/process-runs', {
-        kind: 'cleaning',
-        methodId: 'KIW-CLEAN-AQ',
-        equipment: 'U1',
-        operatorName: 'Test',
-        runAt: '2026-11-21T10:00:00Z',
-        parameters: cleaning(endotoxin),
-        lotIds,
+  it(
+    '[PART-METHOD-SCOPE] when an engineer routes a titanium part through an A967 (stainless steel) method, then ' +
+      'registration is refused at that step; a stainless part or F86 is accepted',
+    async () => {
+      const titaniumA967 = await post(
+        'engineer',
+        '/api/parts',
+        part(
+          {
+            partNumber: 'TST-SCOPE-01',
+            gtin: '09521230000062',
+            lotPattern: 'SA{SEQ:4}',
+            contactCategory: 'general-tissue',
+          },
+          [
+            { kind: 'machining', name: 'Turn' },
+            { kind: 'passivation', name: 'Passivate', processMethod: 'A967-NITRIC-2' },
+          ],
+        ),
+      );
+      expect(titaniumA967.status).toBe(422);
+      expect(titaniumA967.body.error.fields['routing.1.processMethod']).toBe(
+        "The part's material is titanium alloy; A967-NITRIC-2's scope covers stainless steel. Use a method " +
+          "whose scope covers it, or have QA record the firm's own validation of A967-NITRIC-2 for titanium " +
+          'alloy.',
+      );
+      const steel = await post(
+        'engineer',
+        '/api/parts',
+        part(
+          {
+            partNumber: 'TST-SCOPE-02',
+            gtin: '09521230000079',
+            lotPattern: 'SB{SEQ:4}',
+            contactCategory: 'general-tissue',
+            specId: 'ASTM F138',
+          },
+          [
+            { kind: 'machining', name: 'Turn' },
+            { kind: 'passivation', name: 'Passivate', processMethod: 'A967-NITRIC-2' },
+          ],
+        ),
+      );
+      expect(steel.status).toBe(201);
+      expect(steel.body.contactCategory).toBe('general-tissue');
+      const noCategory = await post('engineer', '/api/parts', {
+        ...part(
+          {
+            partNumber: 'TST-SCOPE-03',
+            gtin: '09521230000086',
+            lotPattern: 'SC{SEQ:4}',
+            contactCategory: 'general-tissue',
+          },
+          [{ kind: 'machining', name: 'Turn' }],
+        ),
+        contactCategory: undefined,
       });
-    const item = (body: { windowCheck: { items: Array<{ key: string }> } }) =>
-      body.windowCheck.items.find((entry) => entry.key === 'endotoxin');
+      expect(noCategory.status).toBe(400);
+      expect(noCategory.body.error.fields.contactCategory).toBe('Choose where the finished device touches the body');
+    },
+  );
 
-    const tissueRun = await run([(await lotAfterTurning(tissue.body.id)).id], '4');
-    expect(tissueRun.status).toBe(201);
-    expect(item(tissueRun.body)).toMatchObject({
-      verdict: 'in-window',
-      window: '≤ 20 EU/device (blood, lymph, bone or other tissue contact)',
-    });
-    const csfRun = await run([(await lotAfterTurning(csf.body.id)).id], '4');
-    expect(csfRun.body.inWindow).toBe(false);
-    expect(item(csfRun.body)).toMatchObject({
-      verdict: 'out-of-window',
-      why: '4 EU/device is above the maximum 2.15 EU/device',
-    });
-    expect(csfRun.body.nonconformances).toHaveLength(1);
-    const boundary = await run([(await lotAfterTurning(csf.body.id)).id], '2.15');
-    expect(item(boundary.body)).toMatchObject({ verdict: 'in-window' });
-    const mixed = await run([(await lotAfterTurning(tissue.body.id)).id, (await lotAfterTurning(csf.body.id)).id], '3');
-    expect(mixed.body.inWindow).toBe(false);
-    expect(mixed.body.nonconformances).toHaveLength(2);
-  });
+  it(
+    '[RUN-METHOD-SCOPE] when the firm’s validation of a method for titanium is withdrawn, then a titanium lot ' +
+      'is refused from a run under it; recorded again, the run goes through and the method shows it as the ' +
+      'firm’s own',
+    async () => {
+      expect(
+        (await post('engineer', '/api/process-methods/A967-NITRIC-4/validations', validation('titanium-alloy'))).status,
+      ).toBe(403);
+      const inScope = await post(
+        'approver',
+        '/api/process-methods/A967-NITRIC-4/validations',
+        validation('stainless-steel'),
+      );
+      expect(inScope.status).toBe(422);
+      expect(inScope.body.error.fields).toEqual({ materialFamily: 'Already in the method’s scope' });
+      const unknown = await post('approver', '/api/process-methods/NO-SUCH/validations', validation('titanium-alloy'));
+      expect(unknown.status).toBe(404);
+      const short = await post('approver', '/api/process-methods/A967-NITRIC-4/validations', {
+        ...validation('titanium-alloy'),
+        reason: 'ok',
+      });
+      expect(short.status).toBe(400);
+
+      const recorded = await post(
+        'approver',
+        '/api/process-methods/A967-NITRIC-4/validations',
+        validation('titanium-alloy'),
+      );
+      expect(recorded.status).toBe(201);
+      expect(recorded.body.firmValidations).toEqual([
+        expect.objectContaining({ family: 'titanium-alloy', reference: 'VR-TEST-001', recordedBy: expect.any(String) }),
+      ]);
+      expect(
+        (await post('approver', '/api/process-methods/A967-NITRIC-4/validations', validation('titanium-alloy'))).status,
+      ).toBe(409);
+      const registered = await post(
+        'engineer',
+        '/api/parts',
+        part(
+          {
+            partNumber: 'TST-SCOPE-04',
+            gtin: '09521230000093',
+            lotPattern: 'SD{SEQ:4}',
+            contactCategory: 'general-tissue',
+          },
+          [
+            { kind: 'machining', name: 'Turn' },
+            { kind: 'passivation', name: 'Passivate', processMethod: 'A967-NITRIC-4' },
+          ],
+        ),
+      );
+      expect(registered.status).toBe(201);
+      const lot = await lotAfterTurning(registered.body.id);
+
+      const withdrawnBefore = await events('process-method.validation-withdrawn');
+      expect(
+        (await post('approver', '/api/process-methods/A967-NITRIC-4/validations', validation('titanium-alloy', false)))
+          .status,
+      ).toBe(201);
+      expect(await events('process-method.validation-withdrawn')).toBe(withdrawnBefore + 1);
+      const runs = Number((await running.database.dataSource.query('SELECT COUNT(*) AS n FROM process_run'))[0].n);
+      const refused = await post('engineer', '/api/process-runs', {
+        kind: 'passivation',
+        methodId: 'A967-NITRIC-4',
+        equipment: 'Tank S',
+        operatorName: 'Test',
+        runAt: '2026-11-21T08:00:00Z',
+        parameters: passivation,
+        lotIds: [lot.id],
+      });
+      expect(refused.status).toBe(422);
+      expect(refused.body.error.fields).toEqual({ lotIds: `${lot.lotNumber} is outside A967-NITRIC-4's scope` });
+      expect(Number((await running.database.dataSource.query('SELECT COUNT(*) AS n FROM process_run'))[0].n)).toBe(
+        runs,
+      );
+
+      expect(
+        (await post('approver', '/api/process-methods/A967-NITRIC-4/validations', validation('titanium-alloy'))).status,
+      ).toBe(201);
+      const accepted = await post('engineer', '/api/process-runs', {
+        kind: 'passivation',
+        methodId: 'A967-NITRIC-4',
+        equipment: 'Tank S',
+        operatorName: 'Test',
+        runAt: '2026-11-21T08:00:00Z',
+        parameters: passivation,
+        lotIds: [lot.id],
+      });
+      expect(accepted.status).toBe(201);
+      expect(accepted.body.inWindow).toBe(true);
+      const methods = (await people.engineer!.agent.get('/api/process-methods')).body as Array<{
+        id: string;
+        firmValidations: unknown[];
+        materialScope: { families: string[] };
+      }>;
+      expect(methods.find((method) => method.id === 'A967-NITRIC-4')).toMatchObject({
+        materialScope: { families: ['stainless-steel'] },
+        firmValidations: [expect.objectContaining({ family: 'titanium-alloy' })],
+      });
+    },
+  );
+
+  it(
+    '[RUN-ENDOTOXIN-CONTACT] when a cleaning run reads 4 EU/device, then a tissue-contact lot is in window and ' +
+      'a cerebrospinal-fluid lot is not (FDA Q&A guidance / USP <161>: 20 vs 2.15 EU/device)',
+    async () => {
+      const routing = [
+        { kind: 'machining', name: 'Turn' },
+        { kind: 'cleaning', name: 'Final clean', processMethod: 'KIW-CLEAN-AQ' },
+      ];
+      const tissue = await post(
+        'engineer',
+        '/api/parts',
+        part(
+          {
+            partNumber: 'TST-SCOPE-05',
+            gtin: '09521230000109',
+            lotPattern: 'SE{SEQ:4}',
+            contactCategory: 'general-tissue',
+          },
+          routing,
+        ),
+      );
+      const csf = await post(
+        'engineer',
+        '/api/parts',
+        part(
+          {
+            partNumber: 'TST-SCOPE-06',
+            gtin: '09521230000116',
+            lotPattern: 'SF{SEQ:4}',
+            contactCategory: 'cerebrospinal-fluid',
+          },
+          routing,
+        ),
+      );
+      expect([tissue.status, csf.status]).toEqual([201, 201]);
+      expect(csf.body.contactCategory).toBe('cerebrospinal-fluid');
+      const run = (lotIds: number[], endotoxin: string) =>
+        post('engineer', '/api/process-runs', {
+          kind: 'cleaning',
+          methodId: 'KIW-CLEAN-AQ',
+          equipment: 'U1',
+          operatorName: 'Test',
+          runAt: '2026-11-21T10:00:00Z',
+          parameters: cleaning(endotoxin),
+          lotIds,
+        });
+      const item = (body: { windowCheck: { items: Array<{ key: string }> } }) =>
+        body.windowCheck.items.find((entry) => entry.key === 'endotoxin');
+
+      const tissueRun = await run([(await lotAfterTurning(tissue.body.id)).id], '4');
+      expect(tissueRun.status).toBe(201);
+      expect(item(tissueRun.body)).toMatchObject({
+        verdict: 'in-window',
+        window: '≤ 20 EU/device (blood, lymph, bone or other tissue contact)',
+      });
+      const csfRun = await run([(await lotAfterTurning(csf.body.id)).id], '4');
+      expect(csfRun.body.inWindow).toBe(false);
+      expect(item(csfRun.body)).toMatchObject({
+        verdict: 'out-of-window',
+        why: '4 EU/device is above the maximum 2.15 EU/device',
+      });
+      expect(csfRun.body.nonconformances).toHaveLength(1);
+      const boundary = await run([(await lotAfterTurning(csf.body.id)).id], '2.15');
+      expect(item(boundary.body)).toMatchObject({ verdict: 'in-window' });
+      const mixed = await run(
+        [(await lotAfterTurning(tissue.body.id)).id, (await lotAfterTurning(csf.body.id)).id],
+        '3',
+      );
+      expect(mixed.body.inWindow).toBe(false);
+      expect(mixed.body.nonconformances).toHaveLength(2);
+    },
+  );
 });

@@ -62,14 +62,17 @@ describe('response contracts', () => {
     await replyTo(`/api/trace/forward/graph?heatId=${ids.heat}`, graphReplySchema);
   });
 
-  it('[CONTRACT-RELEASE-RECALL] the release view and desk, recalls and a drill report answer as their schemas say', async () => {
-    const view = await replyTo(`/api/lots/${ids.releasedLot}/release`, releaseViewSchema);
-    expect(view.status).toBe('released');
-    await replyTo('/api/release-queue?queue=released', releaseQueuePageSchema);
-    expect((await replyTo('/api/recalls', recallPageSchema)).items.length).toBeGreaterThan(0);
-    await replyTo(`/api/recalls/${ids.drill}`, recallDetailSchema);
-    await replyTo(`/api/recalls/${ids.drill}/drill-report`, drillReportSchema);
-  });
+  it(
+    '[CONTRACT-RELEASE-RECALL] the release view and desk, recalls and a drill report answer as their schemas ' + 'say',
+    async () => {
+      const view = await replyTo(`/api/lots/${ids.releasedLot}/release`, releaseViewSchema);
+      expect(view.status).toBe('released');
+      await replyTo('/api/release-queue?queue=released', releaseQueuePageSchema);
+      expect((await replyTo('/api/recalls', recallPageSchema)).items.length).toBeGreaterThan(0);
+      await replyTo(`/api/recalls/${ids.drill}`, recallDetailSchema);
+      await replyTo(`/api/recalls/${ids.drill}/drill-report`, drillReportSchema);
+    },
+  );
 
   it('[CONTRACT-REFUSES] a reply missing a field the schema requires does not pass', async () => {
     const lot = (await auditor.get(`/api/lots/${ids.releasedLot}`)).body as Record<string, unknown>;

@@ -17,7 +17,8 @@ describe('importing certificate results from CSV', () => {
     agent.post('/api/heat-results/imports').set('X-CSRF-Token', csrf).send({ csv, mode });
   const results = async (heatNumber: string) =>
     (await running.database.dataSource.query(
-      'SELECT r.item, r.as_reported FROM heat_result r JOIN heat h ON h.id = r.heat_id WHERE h.heat_number = ? ORDER BY r.item',
+      'SELECT r.item, r.as_reported FROM heat_result r JOIN heat h ON h.id = r.heat_id WHERE h.heat_number = ' +
+        '? ORDER BY r.item',
       [heatNumber],
     )) as Array<{ item: string; as_reported: string }>;
 
@@ -28,17 +29,20 @@ describe('importing certificate results from CSV', () => {
     '"Castellane Special Metals",CS-7790,6.00,four,0.19,0.10,0.02,0.01,0.003,930,860,15,40',
   ].join('\n');
 
-  it('when checking a file, then every bad row is reported with its line and field, and nothing is written', async () => {
-    const before = await results('CS-7781');
-    const response = await importCsv(csv, 'check');
-    expect(response.status).toBe(200);
-    expect(response.body).toMatchObject({ rows: 3, valid: 1, imported: 0 });
-    expect(response.body.errors).toEqual([
-      { line: 3, field: 'heat_number', message: 'No heat CS-9999 from Castellane Special Metals' },
-      { line: 4, field: 'V', message: '"four" is not a decimal number (write e.g. 0.12 or 40 ppm)' },
-    ]);
-    expect(await results('CS-7781')).toEqual(before);
-  });
+  it(
+    'when checking a file, then every bad row is reported ' + 'with its line and field, and nothing is written',
+    async () => {
+      const before = await results('CS-7781');
+      const response = await importCsv(csv, 'check');
+      expect(response.status).toBe(200);
+      expect(response.body).toMatchObject({ rows: 3, valid: 1, imported: 0 });
+      expect(response.body.errors).toEqual([
+        { line: 3, field: 'heat_number', message: 'No heat CS-9999 from Castellane Special Metals' },
+        { line: 4, field: 'V', message: '"four" is not a decimal number (write e.g. 0.12 or 40 ppm)' },
+      ]);
+      expect(await results('CS-7781')).toEqual(before);
+    },
+  );
 
   it('when importing all rows but some are bad, then nothing is written', async () => {
     const before = await results('CS-7781');

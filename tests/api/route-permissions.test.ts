@@ -57,34 +57,38 @@ describe('the route × role permission matrix', () => {
     for (const action of actions) expect(granted.has(action)).toBe(true);
   });
 
-  it('[AUTHZ-MATRIX] when each route is called by each role, then the server allows exactly what the matrix allows', async () => {
-    let cells = 0;
-    for (const route of apiRoutes) {
-      const path = concretePath(route.path);
-      const send = (agent: Agent | null, csrf?: string) => {
-        const target = agent ?? request(running.app);
-        const call = target[route.method.toLowerCase() as 'get' | 'post' | 'put' | 'delete'](path);
-        if (csrf) call.set('X-CSRF-Token', csrf);
-        return route.method === 'GET' ? call : call.send({});
-      };
-      const anonymous = await send(null);
-      if (route.access?.kind === 'public')
-        expect([401, 403], `${route.method} ${route.path} anonymous`).not.toContain(anonymous.status);
-      else expect(anonymous.status, `${route.method} ${route.path} anonymous`).toBe(route.method === 'GET' ? 401 : 403);
-      cells++;
-      for (const role of roles) {
-        const { agent, csrf } = agents[role];
-        const response = await send(agent, csrf);
-        const allowed = route.access?.kind !== 'action' || permissionMatrix[role].includes(route.access.action);
-        if (allowed)
-          expect(
-            [401, 403],
-            `${route.method} ${route.path} as ${role}: ${JSON.stringify(response.body)}`,
-          ).not.toContain(response.status);
-        else expect(response.status, `${route.method} ${route.path} as ${role}`).toBe(403);
+  it(
+    '[AUTHZ-MATRIX] when each route is called by each role, then the server allows exactly what the matrix ' + 'allows',
+    async () => {
+      let cells = 0;
+      for (const route of apiRoutes) {
+        const path = concretePath(route.path);
+        const send = (agent: Agent | null, csrf?: string) => {
+          const target = agent ?? request(running.app);
+          const call = target[route.method.toLowerCase() as 'get' | 'post' | 'put' | 'delete'](path);
+          if (csrf) call.set('X-CSRF-Token', csrf);
+          return route.method === 'GET' ? call : call.send({});
+        };
+        const anonymous = await send(null);
+        if (route.access?.kind === 'public')
+          expect([401, 403], `${route.method} ${route.path} anonymous`).not.toContain(anonymous.status);
+        else
+          expect(anonymous.status, `${route.method} ${route.path} anonymous`).toBe(route.method === 'GET' ? 401 : 403);
         cells++;
+        for (const role of roles) {
+          const { agent, csrf } = agents[role];
+          const response = await send(agent, csrf);
+          const allowed = route.access?.kind !== 'action' || permissionMatrix[role].includes(route.access.action);
+          if (allowed)
+            expect(
+              [401, 403],
+              `${route.method} ${route.path} as ${role}: ${JSON.stringify(response.body)}`,
+            ).not.toContain(response.status);
+          else expect(response.status, `${route.method} ${route.path} as ${role}`).toBe(403);
+          cells++;
+        }
       }
-    }
-    expect(cells).toBe(apiRoutes.length * (roles.length + 1));
-  });
+      expect(cells).toBe(apiRoutes.length * (roles.length + 1));
+    },
+  );
 });

@@ -35,19 +35,23 @@ describe('every write has a screen', () => {
   const running = createTestApp();
   afterAll(() => running.close());
 
-  it('[SCREEN-FOR-EVERY-WRITE] when the API’s write routes are listed, then each is called by the client, or is marked API-only with a reason', () => {
-    const writes = routeTable(running.app).filter(
-      (route) => route.path.startsWith('/api/') && ['POST', 'PUT', 'PATCH', 'DELETE'].includes(route.method),
-    );
-    expect(writes.length).toBeGreaterThan(20);
-    const calls = clientWrites();
-    const uncovered = writes
-      .filter((route) => {
-        const pattern = new RegExp(`^${route.path.slice(4).replace(/:[A-Za-z]+(\([^)]*\))?/g, '[^/]+')}$`);
-        return !calls.some((call) => call.method === route.method && pattern.test(call.path));
-      })
-      .map((route) => `${route.method} ${route.path}`)
-      .filter((route) => !(route in apiOnly));
-    expect(uncovered).toEqual([]);
-  });
+  it(
+    '[SCREEN-FOR-EVERY-WRITE] when the API’s write routes are listed, then each is called by the client, or is ' +
+      'marked API-only with a reason',
+    () => {
+      const writes = routeTable(running.app).filter(
+        (route) => route.path.startsWith('/api/') && ['POST', 'PUT', 'PATCH', 'DELETE'].includes(route.method),
+      );
+      expect(writes.length).toBeGreaterThan(20);
+      const calls = clientWrites();
+      const uncovered = writes
+        .filter((route) => {
+          const pattern = new RegExp(`^${route.path.slice(4).replace(/:[A-Za-z]+(\([^)]*\))?/g, '[^/]+')}$`);
+          return !calls.some((call) => call.method === route.method && pattern.test(call.path));
+        })
+        .map((route) => `${route.method} ${route.path}`)
+        .filter((route) => !(route in apiOnly));
+      expect(uncovered).toEqual([]);
+    },
+  );
 });

@@ -176,45 +176,56 @@ describe('sign-in refusals', () => {
     );
   });
 
-  it('[SIGNIN-OTHER-BROWSER] when a valid response obtained for one browser is posted from another, then the other browser is not signed in (login CSRF)', async () => {
-    const victim = await startSignIn();
-    const attacker = await startSignIn();
-    // The attacker's own, perfectly valid response, posted by the victim's browser (which started its own sign-in)...
-    const attackersResponse = buildSignedResponse(validInput(attacker.requestId));
-    await expectRefused(victim.agent, attackersResponse, /started in another browser/, 'other-browser');
-    // ...or by a browser that started none.
-    const fresh = await startSignIn();
-    await expectRefused(
-      request.agent(running.app),
-      buildSignedResponse(validInput(fresh.requestId)),
-      /started in another browser/,
-      'other-browser',
-    );
-    // A browser is let in with the response to the sign-in it started itself (a refusal ends the one it had).
-    const again = await startSignIn();
-    const own = await again.agent
-      .post('/auth/saml/acs')
-      .type('form')
-      .send({ SAMLResponse: encodeForPost(buildSignedResponse(validInput(again.requestId))), RelayState: '/' });
-    expect(own.headers.location).toBe('/');
-  });
+  it(
+    '[SIGNIN-OTHER-BROWSER] when a valid response obtained for one browser is posted from another, then the ' +
+      'other browser is not signed in (login CSRF)',
+    async () => {
+      const victim = await startSignIn();
+      const attacker = await startSignIn();
+      // The attacker's own, perfectly valid response, posted by the victim's browser (which started its own sign-in)...
+      const attackersResponse = buildSignedResponse(validInput(attacker.requestId));
+      await expectRefused(victim.agent, attackersResponse, /started in another browser/, 'other-browser');
+      // ...or by a browser that started none.
+      const fresh = await startSignIn();
+      await expectRefused(
+        request.agent(running.app),
+        buildSignedResponse(validInput(fresh.requestId)),
+        /started in another browser/,
+        'other-browser',
+      );
+      // A browser is let in with the response to the sign-in it started itself (a refusal ends the one it had).
+      const again = await startSignIn();
+      const own = await again.agent
+        .post('/auth/saml/acs')
+        .type('form')
+        .send({ SAMLResponse: encodeForPost(buildSignedResponse(validInput(again.requestId))), RelayState: '/' });
+      expect(own.headers.location).toBe('/');
+    },
+  );
 
-  it('[SIGNIN-DOCTYPE] when a response carries a DOCTYPE (even with only internal entities), then it is refused before it is parsed', async () => {
-    const { agent, requestId } = await startSignIn();
-    const signed = buildSignedResponse(validInput(requestId));
-    const withDoctype = signed.replace(
-      /^(<\?xml[^>]*\?>)?/,
-      (declaration) => `${declaration}<!DOCTYPE Response [<!ENTITY who "kiw-0401">]>`,
-    );
-    expect(withDoctype).toContain('<!DOCTYPE');
-    await expectRefused(agent, withDoctype, /contains a DOCTYPE/);
-    const lowerCase = signed.replace(/^(<\?xml[^>]*\?>)?/, (declaration) => `${declaration}<!doctype Response>`);
-    await expectRefused((await startSignIn()).agent, lowerCase, /contains a DOCTYPE/);
-  });
+  it(
+    '[SIGNIN-DOCTYPE] when a response carries a DOCTYPE (even with only internal entities), then it is refused ' +
+      'before it is parsed',
+    async () => {
+      const { agent, requestId } = await startSignIn();
+      const signed = buildSignedResponse(validInput(requestId));
+      const withDoctype = signed.replace(
+        /^(<\?xml[^>]*\?>)?/,
+        (declaration) => `${declaration}<!DOCTYPE Response [<!ENTITY who "kiw-0401">]>`,
+      );
+      expect(withDoctype).toContain('<!DOCTYPE');
+      await expectRefused(agent, withDoctype, /contains a DOCTYPE/);
+      const lowerCase = signed.replace(/^(<\?xml[^>]*\?>)?/, (declaration) => `${declaration}<!doctype Response>`);
+      await expectRefused((await startSignIn()).agent, lowerCase, /contains a DOCTYPE/);
+    },
+  );
 
-  it('when the sign-in page is given any text in ?refused=, then it shows only the product’s own messages', async () => {
-    const { signInRefusalMessage } = await import('@shared/auth/sign-in-refusals');
-    expect(signInRefusalMessage('Your account was compromised; call +1 555 0100')).toBeNull();
-    expect(signInRefusalMessage('deactivated')).toBe('Your Ingotrace account is deactivated; ask an administrator.');
-  });
+  it(
+    'when the sign-in page is given any text in ?refused=, ' + 'then it shows only the product’s own messages',
+    async () => {
+      const { signInRefusalMessage } = await import('@shared/auth/sign-in-refusals');
+      expect(signInRefusalMessage('Your account was compromised; call +1 555 0100')).toBeNull();
+      expect(signInRefusalMessage('deactivated')).toBe('Your Ingotrace account is deactivated; ask an administrator.');
+    },
+  );
 });

@@ -4,7 +4,11 @@ import { loadConfig } from '../../server/src/config/env';
 import { SamlTestDriver } from '../helpers/saml-round-trip';
 
 function redirectRequest(acsUrl: string, forceAuthn = false): string {
-  const xml = `<samlp:AuthnRequest xmlns:samlp="urn:oasis:names:tc:SAML:2.0:protocol" xmlns:saml="urn:oasis:names:tc:SAML:2.0:assertion" ID="_test1" Version="2.0" IssueInstant="2026-12-01T10:00:00Z" AssertionConsumerServiceURL="${acsUrl}" ForceAuthn="${forceAuthn}"><saml:Issuer>urn:ingotrace:service-provider</saml:Issuer></samlp:AuthnRequest>`;
+  const xml =
+    `<samlp:AuthnRequest xmlns:samlp="urn:oasis:names:tc:SAML:2.0:protocol" ` +
+    `xmlns:saml="urn:oasis:names:tc:SAML:2.0:assertion" ID="_test1" Version="2.0" ` +
+    `IssueInstant="2026-12-01T10:00:00Z" AssertionConsumerServiceURL="${acsUrl}" ` +
+    `ForceAuthn="${forceAuthn}"><saml:Issuer>urn:ingotrace:service-provider</saml:Issuer></samlp:AuthnRequest>`;
   return encodeURIComponent(deflateRawSync(Buffer.from(xml)).toString('base64'));
 }
 

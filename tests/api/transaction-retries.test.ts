@@ -22,50 +22,58 @@ describe('transactions when the connection is lost', () => {
       )[0].n,
     );
 
-  it('[TXN-RETRY] when the connection is cut before COMMIT, then the whole transaction runs again on a new connection and is saved once', async () => {
-    await dataSource.initialize();
-    const id = `before-commit-${Date.now()}`;
-    let attempts = 0;
-    await inTransaction(dataSource, async (manager) => {
-      attempts += 1;
-      await appendLedgerEvent(manager, {
-        actor,
-        action: 'test.retry',
-        entity: { type: 'test', id },
-        after: { attempts },
+  it(
+    '[TXN-RETRY] when the connection is cut before COMMIT, then the whole transaction runs again on a new ' +
+      'connection and is saved once',
+    async () => {
+      await dataSource.initialize();
+      const id = `before-commit-${Date.now()}`;
+      let attempts = 0;
+      await inTransaction(dataSource, async (manager) => {
+        attempts += 1;
+        await appendLedgerEvent(manager, {
+          actor,
+          action: 'test.retry',
+          entity: { type: 'test', id },
+          after: { attempts },
+        });
+        if (attempts === 1) {
+          const [{ connection }] = await manager.query('SELECT CONNECTION_ID() AS connection');
+          await adminSql(`KILL ${Number(connection)}`);
+          await manager.query('SELECT 1');
+        }
       });
-      if (attempts === 1) {
+      expect(attempts).toBe(2);
+      expect(await eventsFor(id)).toBe(1);
+    },
+  );
+
+  it(
+    '[TXN-COMMIT-CUT] when the connection is cut while COMMIT is on its way, then nothing is repeated and the ' +
+      'caller is told to look before repeating',
+    async () => {
+      const id = `at-commit-${Date.now()}`;
+      let attempts = 0;
+      const outcome = inTransaction(dataSource, async (manager) => {
+        attempts += 1;
+        await appendLedgerEvent(manager, {
+          actor,
+          action: 'test.retry',
+          entity: { type: 'test', id },
+          after: { attempts },
+        });
         const [{ connection }] = await manager.query('SELECT CONNECTION_ID() AS connection');
         await adminSql(`KILL ${Number(connection)}`);
-        await manager.query('SELECT 1');
-      }
-    });
-    expect(attempts).toBe(2);
-    expect(await eventsFor(id)).toBe(1);
-  });
-
-  it('[TXN-COMMIT-CUT] when the connection is cut while COMMIT is on its way, then nothing is repeated and the caller is told to look before repeating', async () => {
-    const id = `at-commit-${Date.now()}`;
-    let attempts = 0;
-    const outcome = inTransaction(dataSource, async (manager) => {
-      attempts += 1;
-      await appendLedgerEvent(manager, {
-        actor,
-        action: 'test.retry',
-        entity: { type: 'test', id },
-        after: { attempts },
       });
-      const [{ connection }] = await manager.query('SELECT CONNECTION_ID() AS connection');
-      await adminSql(`KILL ${Number(connection)}`);
-    });
-    const error = await outcome.catch((caught: unknown) => caught);
-    expect(error).toBeInstanceOf(AppError);
-    expect((error as AppError).status).toBe(503);
-    expect((error as AppError).message).toMatch(/look whether it was saved before repeating it/);
-    expect(attempts).toBe(1);
-    // The server rolled the cut transaction back: the event is absent, not half-written.
-    expect(await eventsFor(id)).toBe(0);
-  });
+      const error = await outcome.catch((caught: unknown) => caught);
+      expect(error).toBeInstanceOf(AppError);
+      expect((error as AppError).status).toBe(503);
+      expect((error as AppError).message).toMatch(/look whether it was saved before repeating it/);
+      expect(attempts).toBe(1);
+      // The server rolled the cut transaction back: the event is absent, not half-written.
+      expect(await eventsFor(id)).toBe(0);
+    },
+  );
 
   it('when the work itself fails, then it is not repeated', async () => {
     let attempts = 0;

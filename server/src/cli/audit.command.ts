@@ -17,7 +17,9 @@ export function auditCommand(): Command {
   audit
     .command('verify')
     .description(
-      "recompute every hash of the audit trail, check every event's Ed25519 signature and every checkpoint with the public key alone (and every electronic signature), or of an export file with --file; exit 1 naming the first broken event",
+      "recompute every hash of the audit trail, check every event's Ed25519 signature and every checkpoint " +
+        'with the public key alone (and every electronic signature), or of an export file with --file; exit 1 ' +
+        'naming the first broken event',
     )
     .option('--file <path>', 'verify an export file offline, without a database')
     .option('--public-key <path>', "the firm's published audit trail public key (PEM); by default this installation's")
@@ -100,7 +102,8 @@ export function auditCommand(): Command {
         throw new CliExit(2, `cannot write ${options.out}: ${error instanceof Error ? error.message : String(error)}`);
       }
       process.stdout.write(
-        `exported ${bundle.events.length} events to ${options.out}, chain head ${bundle.chainHead.seq} ${bundle.chainHead.hash}\n`,
+        `exported ${bundle.events.length} events to ${options.out}, chain head ${bundle.chainHead.seq} ` +
+          `${bundle.chainHead.hash}\n`,
       );
     });
 

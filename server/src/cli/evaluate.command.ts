@@ -13,7 +13,8 @@ async function readStdin(): Promise<string> {
 export function evaluateCommand(): Command {
   return new Command('evaluate')
     .description(
-      'evaluate one certificate (JSON on stdin) against the specification library with ASTM E29 rounding; prints the evaluation as JSON',
+      'evaluate one certificate (JSON on stdin) against the specification library with ASTM E29 rounding; ' +
+        'prints the evaluation as JSON',
     )
     .addHelpText(
       'after',

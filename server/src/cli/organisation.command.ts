@@ -24,7 +24,8 @@ export function organisationCommand(): Command {
   organisation
     .command('administrators-may-approve')
     .description(
-      'allow (yes) or refuse (no) one person holding Administrator and QA approver together; shown on the people screen',
+      'allow (yes) or refuse (no) one person holding Administrator and QA approver together; shown on the ' +
+        'people screen',
     )
     .argument('<answer>', 'yes or no')
     .requiredOption('--reason <text>', 'why, kept in the audit trail')

@@ -119,9 +119,10 @@ export function loadConfig(source: Record<string, string | undefined> = process.
     (key) => config[key] === configSchema.shape[key].parse(undefined),
   );
   if (publicUrl.startsWith('https:') && exampleSecrets.length) {
-    throw new ConfigError(
-      `Invalid configuration:\n${exampleSecrets.map((key) => `  ${key}: still the example value; set your own before serving ${publicUrl}`).join('\n')}`,
+    const lines = exampleSecrets.map(
+      (key) => `  ${key}: still the example value; set your own before serving ${publicUrl}`,
     );
+    throw new ConfigError(`Invalid configuration:\n${lines.join('\n')}`);
   }
   const idpBase = `http://127.0.0.1:${config.IDP_PORT}`;
   let roleMap = defaultRoleMap;

@@ -29,7 +29,8 @@ export async function inTransaction<T>(
       if (committing && connectionLost(error)) {
         throw new AppError(
           'SERVICE_UNAVAILABLE',
-          'The connection to the database was lost while this change was being committed; look whether it was saved before repeating it',
+          'The connection to the database was lost while this change was being committed; look whether it was ' +
+            'saved before repeating it',
         );
       }
       // A Galera node can keep a table's triggers unreadable for some seconds after a certification

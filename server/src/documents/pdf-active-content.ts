@@ -167,7 +167,8 @@ export async function refusePdfWithActiveContent(bytes: Buffer, field: string): 
   const found = await pdfActiveContent(bytes);
   if (!found.length) return;
   throw AppError.rule(
-    `The PDF carries ${found.join(' and ')}; such files are refused, not cleaned. Print it to a plain PDF (or scan it) and upload that`,
+    `The PDF carries ${found.join(' and ')}; such files are refused, not cleaned. Print it to a plain PDF (or ` +
+      `scan it) and upload that`,
     {
       [field]: `PDF with ${found.join(', ')}`,
     },

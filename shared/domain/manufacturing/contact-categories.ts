@@ -20,17 +20,22 @@ export interface EndotoxinLimit {
 }
 
 const fdaGuidance =
-  'FDA guidance "Pyrogen and Endotoxins Testing: Questions and Answers" (2012) and USP <161>, as reproduced by Nelson Labs, "Specifications for Endotoxin levels for Medical Devices"';
+  'FDA guidance "Pyrogen and Endotoxins Testing: Questions and Answers" (2012) and USP <161>, as reproduced ' +
+  'by Nelson Labs, "Specifications for Endotoxin levels for Medical Devices"';
 
 export const endotoxinLimits: readonly EndotoxinLimit[] = [
   {
     category: 'general-tissue',
     maxEuPerDevice: '20',
-    source: `${fdaGuidance}: ≤ 20 EU/device (0.5 EU/mL at 40 mL rinse per device) for devices in contact with the cardiovascular and lymphatic systems and devices generally`,
+    source:
+      `${fdaGuidance}: ≤ 20 EU/device (0.5 EU/mL at 40 mL rinse per device) for devices in contact with the ` +
+      `cardiovascular and lymphatic systems and devices generally`,
   },
   {
     category: 'cerebrospinal-fluid',
     maxEuPerDevice: '2.15',
-    source: `${fdaGuidance}: ≤ 2.15 EU/device (0.06 EU/mL at 40 mL rinse per device) for devices in contact with cerebrospinal fluid`,
+    source:
+      `${fdaGuidance}: ≤ 2.15 EU/device (0.06 EU/mL at 40 mL rinse per device) for devices in contact with ` +
+      `cerebrospinal fluid`,
   },
 ];

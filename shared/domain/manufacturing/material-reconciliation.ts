@@ -50,13 +50,16 @@ export function reconcileMaterial(input: MaterialInput): MaterialReconciliation 
   const direction = difference.isNegative()
     ? 'less bar used than the units need'
     : 'more bar used than the units account for';
-  const formula = `${input.issuedMm} issued − ${input.returnedMm} returned = ${base.consumedMm} mm; ${input.unitsStarted} units × (${input.unitLengthMm} + ${input.cutoffAllowanceMm}) mm = ${base.expectedMm} mm`;
+  const formula =
+    `${input.issuedMm} issued − ${input.returnedMm} returned = ${base.consumedMm} mm; ${input.unitsStarted} ` +
+    `units × (${input.unitLengthMm} + ${input.cutoffAllowanceMm}) mm = ${base.expectedMm} mm`;
   return {
     verdict: within ? 'reconciled' : 'discrepancy',
     ...base,
     differencePct: pctText,
     why: difference.isZero()
       ? formula
-      : `${formula}; ${difference.abs().toFixed(2)} mm (${pctText} %) ${direction}${within ? `, within the ${input.tolerancePct} % tolerance` : `, beyond the ${input.tolerancePct} % tolerance`}`,
+      : `${formula}; ${difference.abs().toFixed(2)} mm (${pctText} %) ` +
+        `${direction}, ${within ? 'within' : 'beyond'} the ${input.tolerancePct} % tolerance`,
   };
 }

@@ -33,5 +33,8 @@ export function outsideScopeMessage(
 ): string {
   const names = outside.map((family) => materialFamilyLabels[family].toLowerCase()).join(' and ');
   const covered = method.materialScope.families.map((family) => materialFamilyLabels[family].toLowerCase()).join(', ');
-  return `${subject} is ${names}; ${method.id}'s scope covers ${covered}. Use a method whose scope covers it, or have QA record the firm's own validation of ${method.id} for ${names}.`;
+  return (
+    `${subject} is ${names}; ${method.id}'s scope covers ${covered}. Use a method whose scope covers it, or ` +
+    `have QA record the firm's own validation of ${method.id} for ${names}.`
+  );
 }

@@ -65,23 +65,27 @@ export interface ProcessMethod {
 }
 
 const a967 =
-  'ASTM A967 nitric treatments as listed by a processor citing A967-05 (Advance Surface Technologies, Passivation specifications)';
+  'ASTM A967 nitric treatments as listed by a processor citing A967-05 (Advance Surface Technologies, ' +
+  'Passivation specifications)';
 const a967Nitric2 = 'ASTM A967 Nitric 2, 20–45 vol % (Products Finishing, "Passivation Concentration")';
 const f86 =
-  'ASTM F86 nitric passivation as quoted in a practitioner’s letter (finishing.com, "Passivation of Stainless Steels and Titanium")';
+  'ASTM F86 nitric passivation as quoted in a practitioner’s letter (finishing.com, "Passivation of Stainless ' +
+  'Steels and Titanium")';
 const citric = 'ASTM A967 citric treatments, 4–10 % citric acid (Birmingham Springs, "Citric acid passivation")';
 const firm = 'Kestrelmoor validated process window (firm’s own validation report; demo values)';
 
 const stainlessOnly: MaterialScope = {
   families: ['stainless-steel'],
   source:
-    'ASTM A967 scope: chemical passivation treatments for stainless steel parts (scope as quoted from A967-13; see the firm’s licensed copy)',
+    'ASTM A967 scope: chemical passivation treatments for stainless steel parts (scope as quoted from ' +
+    'A967-13; see the firm’s licensed copy)',
   confidence: 'secondary-source',
 };
 const f86Scope: MaterialScope = {
   families: ['stainless-steel', 'cobalt-chromium', 'titanium-unalloyed', 'titanium-alloy'],
   source:
-    'ASTM F86 significance and use 3.1: implants of iron-, cobalt-, titanium- and tantalum-based materials (astm.org, ASTM F86-13)',
+    'ASTM F86 significance and use 3.1: implants of iron-, cobalt-, titanium- and tantalum-based materials ' +
+    '(astm.org, ASTM F86-13)',
   confidence: 'published',
 };
 
@@ -203,7 +207,9 @@ const citricPairing = (label: string, minC: string, maxC: string, minMinutes: st
   minC,
   maxC,
   minMinutes,
-  source: `ASTM A967 ${label}: unverified (no published source consulted gives the citric temperatures and times; check your licensed copy)`,
+  source:
+    `ASTM A967 ${label}: unverified (no published source consulted gives the citric temperatures and times; ` +
+    `check your licensed copy)`,
   confidence: 'unconfirmed' as const,
 });
 
@@ -277,7 +283,9 @@ export const processMethods: ProcessMethod[] = [
     id: 'KIW-CLEAN-AQ',
     kind: 'cleaning',
     title: 'Final aqueous ultrasonic clean (firm-validated window)',
-    basis: `${firm}; validated following ASTM F3127 and ISO 19227, which leave chemical residue limits to the manufacturer`,
+    basis:
+      `${firm}; validated following ASTM F3127 and ISO 19227, which leave chemical residue limits to the ` +
+      `manufacturer`,
     materialScope: {
       families: ['titanium-unalloyed', 'titanium-alloy', 'stainless-steel', 'cobalt-chromium'],
       source: `${firm}: validated on worst-case parts of each of these materials`,

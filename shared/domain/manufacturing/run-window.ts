@@ -121,7 +121,9 @@ function checkPairings(method: Pick<ProcessMethod, 'pairings'>, items: WindowIte
   const options = method
     .pairings!.map((pairing) => `${pairing.label}: ${pairing.minC}–${pairing.maxC} °C for ≥ ${pairing.minMinutes} min`)
     .join('; ');
-  const why = `${temperature.value} °C for ${time.value} min meets no temperature and time pairing of the method (${options})`;
+  const why =
+    `${temperature.value} °C for ${time.value} min meets no temperature and time pairing of the method ` +
+    `(${options})`;
   for (const item of [temperature, time]) {
     if (item.verdict === 'out-of-window') continue;
     item.verdict = 'out-of-window';

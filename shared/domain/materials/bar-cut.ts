@@ -33,7 +33,9 @@ export function checkCut(parentLengthMm: string, childLengthsMm: string[], kerfA
     return {
       ok: false,
       ...result,
-      reason: `${result.lossMm} mm of the bar is not accounted for (the kerf allowance is ${result.allowedLossMm} mm); record the remnant as a piece`,
+      reason:
+        `${result.lossMm} mm of the bar is not accounted for (the kerf allowance is ${result.allowedLossMm} ` +
+        `mm); record the remnant as a piece`,
     };
   }
   return { ok: true, ...result, reason: null };

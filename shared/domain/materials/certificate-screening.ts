@@ -74,7 +74,9 @@ export function matchingResults(heats: ScreenedHeat[]): CertificateFinding[] {
           kind: 'identical-results',
           key: `identical-results:${a.heatId}:${b.heatId}`,
           heatIds: [a.heatId, b.heatId],
-          explanation: `Heats ${pair} report the same value for all ${shared.length} properties they share. Two melts rarely agree to the last reported digit; confirm that neither certificate was copied.`,
+          explanation:
+            `Heats ${pair} report the same value for all ${shared.length} properties they share. Two melts ` +
+            `rarely agree to the last reported digit; confirm that neither certificate was copied.`,
         });
       } else if (differing.length === 1) {
         const property = differing[0]!;
@@ -83,7 +85,10 @@ export function matchingResults(heats: ScreenedHeat[]): CertificateFinding[] {
           key: `near-identical-results:${a.heatId}:${b.heatId}`,
           heatIds: [a.heatId, b.heatId],
           property,
-          explanation: `Heats ${pair} agree in ${shared.length - 1} of ${shared.length} properties; only ${property} differs (${a.values[property]} and ${b.values[property]}). A certificate copied and edited in one place looks like this.`,
+          explanation:
+            `Heats ${pair} agree in ${shared.length - 1} of ${shared.length} properties; only ${property} ` +
+            `differs (${a.values[property]} and ${b.values[property]}). A certificate copied and edited in one ` +
+            `place looks like this.`,
         });
       }
     }
@@ -150,8 +155,10 @@ export function bunchingAtLimits(heats: ScreenedHeat[], limits: Record<string, P
         heatIds: near.map((entry) => entry.heat.heatId),
         property,
         explanation:
-          `${near.length} of ${reported.length} heats report ${property} at or one reporting step (${formatStep(step)}) inside the ${side} limit ${bound}, ` +
-          `against ${reference.length} in the next two steps; for a process centred well inside the limit that is unlikely by chance (p = ${p.toExponential(1)}). ` +
+          `${near.length} of ${reported.length} heats report ${property} at or one reporting step ` +
+          `(${formatStep(step)}) inside the ${side} limit ${bound}, ` +
+          (`against ${reference.length} in the next two steps; for a process centred well inside the limit ` +
+            `that is unlikely by chance (p = ${p.toExponential(1)}). `) +
           'Values nudged just inside a limit look like this; consider an independent check analysis.',
         statistic: { name: 'caliper test, one-sided binomial p', value: p, threshold: BUNCHING_ALPHA },
       });
@@ -175,7 +182,9 @@ export function sharedDocuments(heats: ScreenedHeat[]): CertificateFinding[] {
       kind: 'same-document' as const,
       key: `same-document:${hash}`,
       heatIds: holders.map((heat) => heat.heatId),
-      explanation: `The same certificate document (SHA-256 ${hash.slice(0, 12)}…) is filed for heats ${holders.map((heat) => heat.heatNumber).join(', ')}. Each heat needs its own certificate.`,
+      explanation:
+        `The same certificate document (SHA-256 ${hash.slice(0, 12)}…) is filed for heats ` +
+        `${holders.map((heat) => heat.heatNumber).join(', ')}. Each heat needs its own certificate.`,
     }));
 }
 
@@ -208,7 +217,9 @@ export function precisionChanges(heats: ScreenedHeat[]): CertificateFinding[] {
         kind: 'precision-change',
         key: `precision-change:${heat.heatId}`,
         heatIds: [heat.heatId],
-        explanation: `Heat ${heat.heatNumber} is reported with a different precision from this supplier's previous ${PRECISION_WINDOW} heats: ${changed.join('; ')}. Ask which laboratory issued it.`,
+        explanation:
+          `Heat ${heat.heatNumber} is reported with a different precision from this supplier's previous ` +
+          `${PRECISION_WINDOW} heats: ${changed.join('; ')}. Ask which laboratory issued it.`,
       });
     }
   }

@@ -87,7 +87,9 @@ export function checkRequirement(
     const next = position + rule.everyNthHeat - ((position - 1) % rule.everyNthHeat);
     return {
       required: false,
-      why: `The first heat and every ${ordinal(rule.everyNthHeat)} after it are checked; ${place}, the next is the ${ordinal(next)}`,
+      why:
+        `The first heat and every ${ordinal(rule.everyNthHeat)} after it are checked; ${place}, the next is the ` +
+        `${ordinal(next)}`,
     };
   }
   return {

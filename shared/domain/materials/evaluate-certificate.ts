@@ -77,7 +77,10 @@ function judgedItem(
       ...common,
       verdict: 'cannot-be-evaluated',
       reason: 'unverified-written-form',
-      note: `${judgement.conforms ? 'Conforms' : 'Does not conform'} when the limit is written ${written}, but ${judgement.conforms ? 'not' : 'does'} if the standard writes it to more decimals: check your licensed copy`,
+      note:
+        `${judgement.conforms ? 'Conforms' : 'Does not conform'} when the limit is written ${written}, but ` +
+        `${judgement.conforms ? 'not' : 'does'} if the standard writes it to more decimals: check your ` +
+        `licensed copy`,
     };
   }
   return { ...common, verdict: judgement.conforms ? 'conforms' : 'does-not-conform', ...(note ? { note } : {}) };
@@ -253,7 +256,8 @@ function mechanicalItems(
         cannotEvaluate(
           { item: label, kind: 'mechanical', limit: 'no requirement in the library' },
           'no-requirement',
-          `${specification.id} ${specification.revision} gives no ${label.toLowerCase()} minimum for ${input.form}, ${productConditionLabels[input.condition].toLowerCase()}${sizeMm ? `, ${sizeMm} mm` : ''}`,
+          `${specification.id} ${specification.revision} gives no ${label.toLowerCase()} minimum for ` +
+            `${input.form}, ${productConditionLabels[input.condition].toLowerCase()}${sizeMm ? `, ${sizeMm} mm` : ''}`,
           set.source,
         ),
       );

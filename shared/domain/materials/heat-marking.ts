@@ -37,6 +37,8 @@ export function compareHeatMarking(marked: string, certificateHeatNumber: string
     matches: false,
     marked: a,
     certificate: b,
-    problem: `The bar is marked ${marked.trim()}, the certificate is for heat ${certificateHeatNumber}; they differ from character ${at + 1} (${a[at] ?? 'nothing'} against ${b[at] ?? 'nothing'})`,
+    problem:
+      `The bar is marked ${marked.trim()}, the certificate is for heat ${certificateHeatNumber}; they differ ` +
+      `from character ${at + 1} (${a[at] ?? 'nothing'} against ${b[at] ?? 'nothing'})`,
   };
 }

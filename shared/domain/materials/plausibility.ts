@@ -18,7 +18,9 @@ export function plausibilityFlags(limit: ElementLimit, value: string, asReported
     flags.push({
       kind: 'excess-precision',
       item: limit.element,
-      message: `${limit.element} is reported to ${reportedDecimals} decimals, far finer than a mill's method reports against a limit of ${reference}`,
+      message:
+        `${limit.element} is reported to ${reportedDecimals} decimals, far finer than a mill's method reports ` +
+        `against a limit of ${reference}`,
     });
   }
   if (

@@ -184,4 +184,5 @@ export function scopeOf(specification: Specification): { forms: ProductForm[]; c
 }
 
 export const limitCaution =
-  'Limits shipped with Ingotrace are taken from published sources named beside each value; verify them against your licensed copy of the current edition of the standard before relying on them.';
+  'Limits shipped with Ingotrace are taken from published sources named beside each value; verify them ' +
+  'against your licensed copy of the current edition of the standard before relying on them.';

@@ -103,7 +103,8 @@ export type AlloyClass = 'alpha' | 'near-alpha' | 'alpha-beta' | 'metastable-bet
 export function alloyClass(molybdenumEquivalent: string): { alloyClass: AlloyClass; rule: string } {
   const value = new DecimalE29(molybdenumEquivalent);
   const rule =
-    'Bania [Mo]eq: alpha < 1 ≤ near-alpha < 2 ≤ alpha-beta < 10 ≤ metastable beta < 30 ≤ beta (thresholds vary by author; unverified)';
+    'Bania [Mo]eq: alpha < 1 ≤ near-alpha < 2 ≤ alpha-beta < 10 ≤ metastable beta < 30 ≤ beta (thresholds ' +
+    'vary by author; unverified)';
   if (value.lessThan(1)) return { alloyClass: 'alpha', rule };
   if (value.lessThan(2)) return { alloyClass: 'near-alpha', rule };
   if (value.lessThan(10)) return { alloyClass: 'alpha-beta', rule };

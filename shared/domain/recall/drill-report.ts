@@ -106,7 +106,8 @@ export function assessDrill(facts: DrillFacts): DrillAssessment {
     .filter((lot) => lot.made !== null && (lot.released > kept(lot) || kept(lot) < 0))
     .map(
       (lot) =>
-        `${lot.lotNumber}: released ${lot.released} of ${lot.made} started${lot.passedOn ? ` less ${lot.passedOn} passed on` : ''}`,
+        `${lot.lotNumber}: released ${lot.released} of ${lot.made} ` +
+        `started${lot.passedOn ? ` less ${lot.passedOn} passed on` : ''}`,
     );
   // In plant: a released lot's released units not shipped; a lot not yet released holds its work in progress (never
   // below 0).

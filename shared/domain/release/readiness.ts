@@ -100,7 +100,8 @@ export function releaseReadiness(facts: ReadinessFacts): Readiness {
       'Every process run within its window',
       runFailures,
       facts.runs.length
-        ? `${facts.runs.length} run(s) ${outsideButClosed.length ? `in window, except ${outsideButClosed.join(', ')}, whose nonconformances are closed` : 'in window'}`
+        ? `${facts.runs.length} run(s) in window` +
+            (outsideButClosed.length ? `, except ${outsideButClosed.join(', ')}, whose nonconformances are closed` : '')
         : 'no process runs',
       facts.runs[0] ? `/process-runs/${facts.runs[0].id}` : lotLink,
     ),

@@ -76,16 +76,19 @@ describe('signatures of a record', () => {
     changedAfterSigning,
   });
 
-  it('lists each manifestation with its reason, and marks only the one whose record changed after signing', async () => {
-    stubFetch([{ path: '/signatures?recordType=heat&recordId=5', body: [signature(1, false), signature(2, true)] }]);
-    const wrapper = await mountInApp(SignatureList, { props: { recordType: 'heat', recordId: '5' } });
-    await flushPromises();
-    const items = wrapper.findAll('li').map((item) => item.text());
-    expect(items).toEqual([
-      'Test Reviewer — Accepted — 2026-07-01 13:00:01 BST',
-      'Test Reviewer — Accepted — 2026-07-01 13:00:02 BST· Certificate re-issuedChanged after signing',
-    ]);
-  });
+  it(
+    'lists each manifestation with its reason, and marks ' + 'only the one whose record changed after signing',
+    async () => {
+      stubFetch([{ path: '/signatures?recordType=heat&recordId=5', body: [signature(1, false), signature(2, true)] }]);
+      const wrapper = await mountInApp(SignatureList, { props: { recordType: 'heat', recordId: '5' } });
+      await flushPromises();
+      const items = wrapper.findAll('li').map((item) => item.text());
+      expect(items).toEqual([
+        'Test Reviewer — Accepted — 2026-07-01 13:00:01 BST',
+        'Test Reviewer — Accepted — 2026-07-01 13:00:02 BST· Certificate re-issuedChanged after signing',
+      ]);
+    },
+  );
 
   it('says the record is not signed yet when it has no signature', async () => {
     stubFetch([{ path: '/signatures?recordType=heat&recordId=6', body: [] }]);

@@ -21,40 +21,43 @@ describe('dialogs that record', () => {
     document.body.innerHTML = '';
   });
 
-  it('raising a nonconformance sends what was typed for its subject and shows the server’s message under its field', async () => {
-    const asked = stubFetch([
-      {
-        method: 'POST',
-        path: '/nonconformances',
-        status: 400,
-        body: {
-          error: {
-            code: 'VALIDATION_FAILED',
-            message: 'Some fields are not valid',
-            fields: { containment: 'Say what was done to contain it' },
-            requestId: 'r-2',
+  it(
+    'raising a nonconformance sends what was typed for its subject and shows the server’s message under its ' + 'field',
+    async () => {
+      const asked = stubFetch([
+        {
+          method: 'POST',
+          path: '/nonconformances',
+          status: 400,
+          body: {
+            error: {
+              code: 'VALIDATION_FAILED',
+              message: 'Some fields are not valid',
+              fields: { containment: 'Say what was done to contain it' },
+              requestId: 'r-2',
+            },
           },
         },
-      },
-    ]);
-    await mountInApp(RaiseNonconformanceDialog, {
-      props: { subjectType: 'lot', subjectId: 12, subjectLabel: 'lot L-12' },
-      roles: ['manufacturing-engineer'],
-    });
-    await type('#nc-description', 'Burr on the thread');
-    document.querySelector('form')!.dispatchEvent(new Event('submit'));
-    await flushPromises();
-    expect(asked).toEqual([
-      {
-        method: 'POST',
-        path: '/nonconformances',
-        body: { subjectType: 'lot', subjectId: 12, description: 'Burr on the thread', containment: '' },
-      },
-    ]);
-    expect(document.querySelector('#nc-containment + .field-error, .field-error')?.textContent).toBe(
-      'Say what was done to contain it',
-    );
-  });
+      ]);
+      await mountInApp(RaiseNonconformanceDialog, {
+        props: { subjectType: 'lot', subjectId: 12, subjectLabel: 'lot L-12' },
+        roles: ['manufacturing-engineer'],
+      });
+      await type('#nc-description', 'Burr on the thread');
+      document.querySelector('form')!.dispatchEvent(new Event('submit'));
+      await flushPromises();
+      expect(asked).toEqual([
+        {
+          method: 'POST',
+          path: '/nonconformances',
+          body: { subjectType: 'lot', subjectId: 12, description: 'Burr on the thread', containment: '' },
+        },
+      ]);
+      expect(document.querySelector('#nc-containment + .field-error, .field-error')?.textContent).toBe(
+        'Say what was done to contain it',
+      );
+    },
+  );
 
   it('adding a supplier refuses locally what is missing (its approval) and sends nothing to the server', async () => {
     const asked = stubFetch([

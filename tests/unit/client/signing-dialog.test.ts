@@ -14,7 +14,8 @@ const preparation = {
   contentHash: 'a'.repeat(64),
   bindingHash: 'b'.repeat(64),
   statement:
-    'By signing, I confirm that this electronic signature is the legally binding equivalent of my handwritten signature.',
+    'By signing, I confirm that this electronic signature is the legally binding equivalent of my handwritten ' +
+    'signature.',
   reasonRequired: true,
   trailThroughSeq: null,
   trailEvents: null,
@@ -26,30 +27,33 @@ describe('the signing dialog', () => {
     document.body.innerHTML = '';
   });
 
-  it('shows exactly what will be signed, in words, and the signature as it will read, before any password is asked', async () => {
-    const asked = stubFetch([{ method: 'POST', path: '/signatures/preparations', body: preparation }]);
-    await mountInApp(SigningDialog, {
-      props: { recordType: 'lot-release', recordId: '42', meaning: 'returned-to-engineering' },
-    });
-    const text = document.body.textContent ?? '';
-    expect(asked).toEqual([
-      {
-        method: 'POST',
-        path: '/signatures/preparations',
-        body: { recordType: 'lot-release', recordId: '42', meaning: 'returned-to-engineering' },
-      },
-    ]);
-    expect(text).toContain('Release of lot L-42');
-    expect(text).toContain('Submitted for release');
-    // On the plant's clock: 12:00 UTC on 1 July is 13:00 British Summer Time (IANA tz database, Europe/London).
-    expect(text).toContain('2026-07-01 13:00');
-    expect(text).not.toMatch(/\bsubmitted\b(?! for)/);
-    expect(text).toContain(`Content hash (SHA-256): ${'a'.repeat(64)}`);
-    expect(text).toMatch(
-      /Your signature will read: Test Approver — Returned to engineering — \d{4}-\d{2}-\d{2} \d{2}:\d{2}/,
-    );
-    expect(text).toContain(preparation.statement);
-  });
+  it(
+    'shows exactly what will be signed, in words, and the signature as it will read, before any password is ' + 'asked',
+    async () => {
+      const asked = stubFetch([{ method: 'POST', path: '/signatures/preparations', body: preparation }]);
+      await mountInApp(SigningDialog, {
+        props: { recordType: 'lot-release', recordId: '42', meaning: 'returned-to-engineering' },
+      });
+      const text = document.body.textContent ?? '';
+      expect(asked).toEqual([
+        {
+          method: 'POST',
+          path: '/signatures/preparations',
+          body: { recordType: 'lot-release', recordId: '42', meaning: 'returned-to-engineering' },
+        },
+      ]);
+      expect(text).toContain('Release of lot L-42');
+      expect(text).toContain('Submitted for release');
+      // On the plant's clock: 12:00 UTC on 1 July is 13:00 British Summer Time (IANA tz database, Europe/London).
+      expect(text).toContain('2026-07-01 13:00');
+      expect(text).not.toMatch(/\bsubmitted\b(?! for)/);
+      expect(text).toContain(`Content hash (SHA-256): ${'a'.repeat(64)}`);
+      expect(text).toMatch(
+        /Your signature will read: Test Approver — Returned to engineering — \d{4}-\d{2}-\d{2} \d{2}:\d{2}/,
+      );
+      expect(text).toContain(preparation.statement);
+    },
+  );
 
   it('refuses to go on without the reason the meaning needs, and opens no password window', async () => {
     const asked = stubFetch([{ method: 'POST', path: '/signatures/preparations', body: preparation }]);

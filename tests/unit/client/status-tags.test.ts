@@ -17,13 +17,16 @@ describe('status tags', () => {
     expect(words).toEqual(['Open', 'Consumed', 'Submitted for release', 'Reviewed', 'Released', 'Rejected']);
   });
 
-  it('colour a lot by what it asks of people: released is good, rejected is a danger, an unknown code is neutral', () => {
-    expect(render(LotStatusTag, { value: 'released' }).classes()).toContain('p-tag-success');
-    expect(render(LotStatusTag, { value: 'rejected' }).classes()).toContain('p-tag-danger');
-    const unknown = render(LotStatusTag, { value: 'on-the-moon' });
-    expect(unknown.classes()).toContain('p-tag-secondary');
-    expect(unknown.text()).not.toBe('on-the-moon');
-  });
+  it(
+    'colour a lot by what it asks of people: released is ' + 'good, rejected is a danger, an unknown code is neutral',
+    () => {
+      expect(render(LotStatusTag, { value: 'released' }).classes()).toContain('p-tag-success');
+      expect(render(LotStatusTag, { value: 'rejected' }).classes()).toContain('p-tag-danger');
+      const unknown = render(LotStatusTag, { value: 'on-the-moon' });
+      expect(unknown.classes()).toContain('p-tag-secondary');
+      expect(unknown.text()).not.toBe('on-the-moon');
+    },
+  );
 
   it('name a heat’s status and verdict in words, and say so when there are no results yet', () => {
     expect(render(HeatStatusTag, { value: 'quarantined', kind: 'status' }).text()).toBe('Quarantined');

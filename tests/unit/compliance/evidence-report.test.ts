@@ -73,7 +73,9 @@ describe('the validation evidence report', () => {
 
   it('reads the runners’ summary lines printed by npm test', () => {
     const output =
-      'noise\n  7 passed in a log line\n\nSummary\n  type-check (client, vue-tsc)         1 passed    0 failed  (10.3 s)\n  vitest (unit, client, API)         437 passed    2 failed  (154.5 s)\n439 passed, 2 failed\n';
+      'noise\n  7 passed in a log line\n\nSummary\n  type-check (client, vue-tsc)         1 passed    0 ' +
+      'failed  (10.3 s)\n  vitest (unit, client, API)         437 passed    2 failed  (154.5 s)\n439 passed, ' +
+      '2 failed\n';
     expect(runnerLines(output)).toEqual([
       { name: 'type-check (client, vue-tsc)', passed: 1, failed: 0 },
       { name: 'vitest (unit, client, API)', passed: 437, failed: 2 },

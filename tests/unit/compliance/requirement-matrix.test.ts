@@ -33,25 +33,29 @@ const result = (id: string, outcome: TestResult['outcome']): TestResult => ({
 });
 
 describe('the requirement matrix', () => {
-  it('[MATRIX-COMPLETE] cites only test ids that exist, and gives every requirement tests or a procedure of the firm', () => {
-    const matrix = readMatrix();
-    const declared = testIdsUnder('tests');
-    expect(matrixProblems(matrix, declared)).toEqual([]);
-    expect(matrix.requirements.length).toBeGreaterThanOrEqual(30);
-    for (const clause of [
-      '§11.10(a)',
-      '§11.10(k)',
-      '§11.50',
-      '§11.70',
-      '§11.100(a)',
-      '§11.200(a)(1)',
-      '§11.300(a)–(e)',
-      '§7.5.9.1',
-      '§830.20',
-    ]) {
-      expect(matrix.requirements.map((entry) => entry.clause)).toContain(clause);
-    }
-  });
+  it(
+    '[MATRIX-COMPLETE] cites only test ids that exist, and gives every requirement tests or a procedure of the ' +
+      'firm',
+    () => {
+      const matrix = readMatrix();
+      const declared = testIdsUnder('tests');
+      expect(matrixProblems(matrix, declared)).toEqual([]);
+      expect(matrix.requirements.length).toBeGreaterThanOrEqual(30);
+      for (const clause of [
+        '§11.10(a)',
+        '§11.10(k)',
+        '§11.50',
+        '§11.70',
+        '§11.100(a)',
+        '§11.200(a)(1)',
+        '§11.300(a)–(e)',
+        '§7.5.9.1',
+        '§830.20',
+      ]) {
+        expect(matrix.requirements.map((entry) => entry.clause)).toContain(clause);
+      }
+    },
+  );
 
   it('names each kind of problem', () => {
     const declared = new Map([

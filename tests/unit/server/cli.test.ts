@@ -80,40 +80,50 @@ describe('ingotrace evaluate', () => {
     });
   });
 
-  it('when the certificate does not conform, then it still exits 0 with that verdict (numbers may be JSON numbers)', () => {
-    const result = evaluate(
-      JSON.stringify({ ...certificate, spec: 'astm f136', chemistry: { ...certificate.chemistry, O: 0.135 } }),
-    );
-    expect(result.status).toBe(0);
-    expect(JSON.parse(result.stdout).verdict).toBe('does-not-conform');
-  });
+  it(
+    'when the certificate does not conform, then it still exits 0 with that verdict (numbers may be JSON ' + 'numbers)',
+    () => {
+      const result = evaluate(
+        JSON.stringify({ ...certificate, spec: 'astm f136', chemistry: { ...certificate.chemistry, O: 0.135 } }),
+      );
+      expect(result.status).toBe(0);
+      expect(JSON.parse(result.stdout).verdict).toBe('does-not-conform');
+    },
+  );
 
-  it('when no requirement applies to the form (F136 plate is outside the library), then the verdict is cannot-be-evaluated with the reason, not conforms', () => {
-    const result = evaluate(JSON.stringify({ ...certificate, form: 'plate', condition: 'Annealed' }));
-    expect(result.status).toBe(0);
-    const evaluation = JSON.parse(result.stdout);
-    expect(evaluation.verdict).toBe('cannot-be-evaluated');
-    expect(evaluation.items.at(-1)).toMatchObject({
-      kind: 'selection',
-      verdict: 'cannot-be-evaluated',
-      reason: 'no-requirement',
-    });
-    const typedCondition = evaluate(JSON.stringify({ ...certificate, condition: 'as rolled' }));
-    expect(typedCondition.status).toBe(2);
-    expect(typedCondition.stderr).toContain(
-      'condition: Choose one of: annealed, cold-worked, hot-worked, warm-worked, extra-hard',
-    );
-  });
+  it(
+    'when no requirement applies to the form (F136 plate is outside the library), then the verdict is ' +
+      'cannot-be-evaluated with the reason, not conforms',
+    () => {
+      const result = evaluate(JSON.stringify({ ...certificate, form: 'plate', condition: 'Annealed' }));
+      expect(result.status).toBe(0);
+      const evaluation = JSON.parse(result.stdout);
+      expect(evaluation.verdict).toBe('cannot-be-evaluated');
+      expect(evaluation.items.at(-1)).toMatchObject({
+        kind: 'selection',
+        verdict: 'cannot-be-evaluated',
+        reason: 'no-requirement',
+      });
+      const typedCondition = evaluate(JSON.stringify({ ...certificate, condition: 'as rolled' }));
+      expect(typedCondition.status).toBe(2);
+      expect(typedCondition.stderr).toContain(
+        'condition: Choose one of: annealed, cold-worked, hot-worked, warm-worked, extra-hard',
+      );
+    },
+  );
 
-  it('when the input is not JSON or names an unknown specification, then it exits non-zero with a clear message', () => {
-    const notJson = evaluate('{"spec": ');
-    expect(notJson.status).toBe(2);
-    expect(notJson.stderr).toMatch(/^ingotrace: the input is not JSON/);
-    const unknown = evaluate(JSON.stringify({ ...certificate, spec: 'ASTM F999' }));
-    expect(unknown.status).toBe(2);
-    expect(unknown.stderr).toBe(
-      'ingotrace: Unknown specification "ASTM F999"\n  spec: Not in the specification library\n',
-    );
-    expect(unknown.stdout).toBe('');
-  });
+  it(
+    'when the input is not JSON or names an unknown ' + 'specification, then it exits non-zero with a clear message',
+    () => {
+      const notJson = evaluate('{"spec": ');
+      expect(notJson.status).toBe(2);
+      expect(notJson.stderr).toMatch(/^ingotrace: the input is not JSON/);
+      const unknown = evaluate(JSON.stringify({ ...certificate, spec: 'ASTM F999' }));
+      expect(unknown.status).toBe(2);
+      expect(unknown.stderr).toBe(
+        'ingotrace: Unknown specification "ASTM F999"\n  spec: Not in the specification library\n',
+      );
+      expect(unknown.stdout).toBe('');
+    },
+  );
 });

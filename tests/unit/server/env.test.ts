@@ -35,21 +35,25 @@ describe('secrets and proxies', () => {
     DB_MIGRATION_PASSWORD: 'owner-password-1',
   };
 
-  it('[CONFIG-EXAMPLE-SECRETS] when the app is served over https with any example secret, then it refuses to start and names each one', () => {
-    expect(() => loadConfig({ PUBLIC_URL: 'https://ingotrace.example.internal' })).toThrow(
-      /SESSION_SECRET: still the example value[\s\S]*DB_PASSWORD[\s\S]*DB_MIGRATION_PASSWORD/,
-    );
-    expect(() =>
-      loadConfig({ PUBLIC_URL: 'https://ingotrace.example.internal', ...own, DB_PASSWORD: 'local-app-password' }),
-    ).toThrow(
-      /^Invalid configuration:\n {2}DB_PASSWORD: still the example value; set your own before serving https:\/\/ingotrace.example.internal$/,
-    );
-    expect(loadConfig({ PUBLIC_URL: 'https://ingotrace.example.internal', ...own }).PUBLIC_URL).toBe(
-      'https://ingotrace.example.internal',
-    );
-    // Locally over http the example values are what the scripts set up.
-    expect(loadConfig({}).SESSION_SECRET).toBe('local-session-secret-change-me');
-  });
+  it(
+    '[CONFIG-EXAMPLE-SECRETS] when the app is served over https with any example secret, then it refuses to ' +
+      'start and names each one',
+    () => {
+      expect(() => loadConfig({ PUBLIC_URL: 'https://ingotrace.example.internal' })).toThrow(
+        /SESSION_SECRET: still the example value[\s\S]*DB_PASSWORD[\s\S]*DB_MIGRATION_PASSWORD/,
+      );
+      expect(() =>
+        loadConfig({ PUBLIC_URL: 'https://ingotrace.example.internal', ...own, DB_PASSWORD: 'local-app-password' }),
+      ).toThrow(
+        /^Invalid configuration:\n {2}DB_PASSWORD: still the example value; set your own before serving https:\/\/ingotrace.example.internal$/,
+      );
+      expect(loadConfig({ PUBLIC_URL: 'https://ingotrace.example.internal', ...own }).PUBLIC_URL).toBe(
+        'https://ingotrace.example.internal',
+      );
+      // Locally over http the example values are what the scripts set up.
+      expect(loadConfig({}).SESSION_SECRET).toBe('local-session-secret-change-me');
+    },
+  );
 
   it('when TRUST_PROXY is not set, then no proxy is believed', () => {
     expect(loadConfig({}).TRUST_PROXY).toBeUndefined();

@@ -56,7 +56,8 @@ describe('ingotrace gs1', { timeout: 30_000 }, () => {
     );
     expect(result.code).toBe(0);
     expect(result.stdout).toBe(
-      '(01)09506000134352(17)261231(10)ABC123(21)12345\nhttps://id.gs1.org/01/09506000134352/10/ABC123/21/12345?17=261231\n',
+      '(01)09506000134352(17)261231(10)ABC123(21)12345\n' +
+        'https://id.gs1.org/01/09506000134352/10/ABC123/21/12345?17=261231\n',
     );
     expect(ingotrace('gs1', 'build', '--gtin', '09506000134352').code).not.toBe(0);
   });

@@ -15,13 +15,17 @@ describe('table privileges', () => {
     expect(sqlString("it's \\ secret")).toBe("'it\\'s \\\\ secret'");
   });
 
-  it('when creating accounts, then the migration user owns the database and the app user gets no privilege yet, and loses a RELOAD it once held', () => {
-    const sql = accountsSql(accounts);
-    expect(sql).toContain("CREATE USER IF NOT EXISTS 'app'@'127.0.0.1' IDENTIFIED BY 'it\\'s \\\\ secret';");
-    expect(sql).toContain("GRANT ALL PRIVILEGES ON `ingotrace`.* TO 'owner'@'127.0.0.1';");
-    expect(sql).toContain("REVOKE RELOAD ON *.* FROM 'app'@'127.0.0.1';");
-    expect(sql).not.toMatch(/GRANT [^;]* TO 'app'/);
-  });
+  it(
+    'when creating accounts, then the migration user owns the database and the app user gets no privilege yet, ' +
+      'and loses a RELOAD it once held',
+    () => {
+      const sql = accountsSql(accounts);
+      expect(sql).toContain("CREATE USER IF NOT EXISTS 'app'@'127.0.0.1' IDENTIFIED BY 'it\\'s \\\\ secret';");
+      expect(sql).toContain("GRANT ALL PRIVILEGES ON `ingotrace`.* TO 'owner'@'127.0.0.1';");
+      expect(sql).toContain("REVOKE RELOAD ON *.* FROM 'app'@'127.0.0.1';");
+      expect(sql).not.toMatch(/GRANT [^;]* TO 'app'/);
+    },
+  );
 
   it('[DB-GRANTS] when granting the app user, then each table gets exactly its access level', () => {
     tableAccess.audit_event_example = 'append-only';

@@ -35,11 +35,15 @@ describe('transient database errors', () => {
     expect(connectionLost({ code: 'ER_LOCK_DEADLOCK' })).toBe(false);
   });
 
-  it('repeats a conflict up to ten attempts and waits out unavailability for the time budget (common practice, no source)', () => {
-    expect(retryDelay('conflict', 9, 0)).toBeLessThanOrEqual(250);
-    expect(retryDelay('conflict', 10, 0)).toBeNull();
-    expect(retryDelay('unavailable', 40, UNAVAILABLE_BUDGET_MS - 1)).toBeLessThanOrEqual(1_000);
-    expect(retryDelay('unavailable', 1, UNAVAILABLE_BUDGET_MS)).toBeNull();
-    expect(retryDelay(null, 1, 0)).toBeNull();
-  });
+  it(
+    'repeats a conflict up to ten attempts and waits out unavailability for the time budget (common practice, ' +
+      'no source)',
+    () => {
+      expect(retryDelay('conflict', 9, 0)).toBeLessThanOrEqual(250);
+      expect(retryDelay('conflict', 10, 0)).toBeNull();
+      expect(retryDelay('unavailable', 40, UNAVAILABLE_BUDGET_MS - 1)).toBeLessThanOrEqual(1_000);
+      expect(retryDelay('unavailable', 1, UNAVAILABLE_BUDGET_MS)).toBeNull();
+      expect(retryDelay(null, 1, 0)).toBeNull();
+    },
+  );
 });

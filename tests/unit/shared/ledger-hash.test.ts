@@ -15,17 +15,21 @@ describe('canonical JSON (RFC 8785)', () => {
   it('when serialising the RFC 8785 §3.2.2 sample, then the output is the one printed in §3.2.4', () => {
     // Source: RFC 8785, JSON Canonicalization Scheme, sections 3.2.2 (input) and 3.2.4 (output).
     const input = JSON.parse(
-      '{"numbers": [333333333.33333329, 1E30, 4.50, 2e-3, 0.000000000000000000000000001], "string": "\\u20ac$\\u000F\\u000aA\'\\u0042\\u0022\\u005c\\\\\\"\\/", "literals": [null, true, false]}',
+      '{"numbers": [333333333.33333329, 1E30, 4.50, 2e-3, 0.000000000000000000000000001], "string": ' +
+        '"\\u20ac$\\u000F\\u000aA\'\\u0042\\u0022\\u005c\\\\\\"\\/", "literals": [null, true, false]}',
     );
     expect(canonicalJson(input)).toBe(
-      '{"literals":[null,true,false],"numbers":[333333333.3333333,1e+30,4.5,0.002,1e-27],"string":"€$\\u000f\\nA\'B\\"\\\\\\\\\\"/"}',
+      '{"literals":[null,true,false],"numbers":[333333333.3333333,1e+30,4.5,0.002,1e-27],' +
+        '"string":"€$\\u000f\\nA\'B\\"\\\\\\\\\\"/"}',
     );
   });
 
   it('when sorting property names, then they sort by UTF-16 code units as in RFC 8785 §3.2.3', () => {
     // Source: RFC 8785 §3.2.3, the property-sorting example and its expected order.
     const input = JSON.parse(
-      '{"\\u20ac":"Euro Sign","\\r":"Carriage Return","\\ufb33":"Hebrew Letter Dalet With Dagesh","1":"One","\\ud83d\\ude00":"Emoji: Grinning Face","\\u0080":"Control","\\u00f6":"Latin Small Letter O With Diaeresis"}',
+      '{"\\u20ac":"Euro Sign","\\r":"Carriage Return","\\ufb33":"Hebrew Letter Dalet With ' +
+        'Dagesh","1":"One","\\ud83d\\ude00":"Emoji: Grinning Face","\\u0080":"Control","\\u00f6":"Latin Small ' +
+        'Letter O With Diaeresis"}',
     );
     // Read the order from the text itself (a parsed object would put the key "1" first).
     const order = [...canonicalJson(input).matchAll(/:"([^"]+)"/g)].map((match) => match[1]);

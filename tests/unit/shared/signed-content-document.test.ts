@@ -44,25 +44,36 @@ describe('signed content as a document', () => {
     });
   });
 
-  it('when a list of records is signed, then it is a table whose states, dispositions and verdicts are words and whose times are on the plant clock', () => {
-    expect(section('heats')).toMatchObject({
-      kind: 'table',
-      title: 'Material certificates and their evaluation',
-      columns: ['Heat', 'Disposition', 'Evaluation', 'Certificate SHA-256'],
-    });
-    expect(tableRows('heats')).toEqual([
-      [{ text: 'NV-25-0214' }, { text: 'Accepted' }, { text: 'Conforms' }, { text: 'a'.repeat(64), kind: 'hash' }],
-    ]);
-    expect(tableRows('operations')[0]![1]).toEqual({ text: '2026-12-04 16:05' });
-    expect(tableRows('nonconformances')[0]!.slice(1)).toEqual([{ text: 'Disposition signed' }, { text: 'Use as is' }]);
-  });
+  it(
+    'when a list of records is signed, then it is a table whose states, dispositions and verdicts are words and ' +
+      'whose times are on the plant clock',
+    () => {
+      expect(section('heats')).toMatchObject({
+        kind: 'table',
+        title: 'Material certificates and their evaluation',
+        columns: ['Heat', 'Disposition', 'Evaluation', 'Certificate SHA-256'],
+      });
+      expect(tableRows('heats')).toEqual([
+        [{ text: 'NV-25-0214' }, { text: 'Accepted' }, { text: 'Conforms' }, { text: 'a'.repeat(64), kind: 'hash' }],
+      ]);
+      expect(tableRows('operations')[0]![1]).toEqual({ text: '2026-12-04 16:05' });
+      expect(tableRows('nonconformances')[0]!.slice(1)).toEqual([
+        { text: 'Disposition signed' },
+        { text: 'Use as is' },
+      ]);
+    },
+  );
 
-  it("when a run's parameters are signed, then they carry the method's labels and units and the window reads in words", () => {
-    expect(tableRows('runs')[0]!.slice(2)).toEqual([
-      { text: 'Outside window' },
-      { text: 'Bath temperature 52 °C; Immersion time 30 min' },
-    ]);
-  });
+  it(
+    "when a run's parameters are signed, then they carry the method's labels and units and the window reads in " +
+      'words',
+    () => {
+      expect(tableRows('runs')[0]!.slice(2)).toEqual([
+        { text: 'Outside window' },
+        { text: 'Bath temperature 52 °C; Immersion time 30 min' },
+      ]);
+    },
+  );
 
   it('when a group or a list of text is signed, then each reads as its own section; keys never show as code', () => {
     expect(section('labels')).toEqual({

@@ -115,7 +115,8 @@ export function authRouter(
               req,
               res,
               'other-browser',
-              `The response answers a sign-in started in another browser (InResponseTo ${verified.inResponseTo ?? 'missing'})`,
+              `The response answers a sign-in started in another browser (InResponseTo ` +
+                `${verified.inResponseTo ?? 'missing'})`,
               verified.subject,
             );
             return;

@@ -40,7 +40,8 @@ export function meRouter(context: AppContext, generateCsrfToken: (req: Request) 
     connect: () => context.database.connect(),
     key: 'person',
     message: (minutes) =>
-      `Too many password confirmations begun in a short time; try again in ${minutes} minute${minutes === 1 ? '' : 's'}`,
+      `Too many password confirmations begun in a short time; try again in ${minutes} ` +
+      `minute${minutes === 1 ? '' : 's'}`,
     answer: 'json',
   });
 

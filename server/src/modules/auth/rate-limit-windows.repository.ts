@@ -8,7 +8,8 @@ import type { EntityManager } from 'typeorm';
 /** Counts one hit in the bucket's window and gives the window's hits so far. */
 export async function countHit(manager: EntityManager, bucket: string, windowStart: number): Promise<number> {
   await manager.query(
-    'INSERT INTO rate_limit_window (bucket, window_start, hits) VALUES (?, ?, 1) ON DUPLICATE KEY UPDATE hits = hits + 1',
+    'INSERT INTO rate_limit_window (bucket, window_start, hits) VALUES (?, ?, 1) ON DUPLICATE KEY UPDATE hits ' +
+      '= hits + 1',
     [bucket, windowStart],
   );
   const [row]: Array<{ hits: number }> = await manager.query(

@@ -60,7 +60,8 @@ export class MariaDbSessionStore extends session.Store {
     this.connect()
       .then((dataSource) =>
         dataSource.query(
-          'INSERT INTO http_session (session_id, expires, data) VALUES (?, ?, ?) ON DUPLICATE KEY UPDATE expires = VALUES(expires), data = VALUES(data)',
+          'INSERT INTO http_session (session_id, expires, data) VALUES (?, ?, ?) ON DUPLICATE KEY UPDATE ' +
+            'expires = VALUES(expires), data = VALUES(data)',
           [sid, expires, JSON.stringify(stored)],
         ),
       )

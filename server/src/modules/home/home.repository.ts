@@ -21,17 +21,21 @@ export const waitingWork = {
   lotsToReview: (manager: EntityManager) =>
     counted(
       manager,
-      "SELECT COUNT(*) AS count, MIN((SELECT MAX(r.submitted_at) FROM release_submission r WHERE r.lot_id = l.id)) AS oldest FROM production_lot l WHERE l.status = 'submitted'",
+      'SELECT COUNT(*) AS count, MIN((SELECT MAX(r.submitted_at) FROM release_submission r WHERE r.lot_id = ' +
+        "l.id)) AS oldest FROM production_lot l WHERE l.status = 'submitted'",
     ),
   lotsToApprove: (manager: EntityManager) =>
     counted(
       manager,
-      "SELECT COUNT(*) AS count, MIN((SELECT MAX(r.submitted_at) FROM release_submission r WHERE r.lot_id = l.id)) AS oldest FROM production_lot l WHERE l.status = 'reviewed'",
+      'SELECT COUNT(*) AS count, MIN((SELECT MAX(r.submitted_at) FROM release_submission r WHERE r.lot_id = ' +
+        "l.id)) AS oldest FROM production_lot l WHERE l.status = 'reviewed'",
     ),
   lotsReturned: (manager: EntityManager) =>
     counted(
       manager,
-      "SELECT COUNT(*) AS count, MIN((SELECT MAX(r.closed_at) FROM release_submission r WHERE r.lot_id = l.id AND r.outcome = 'returned')) AS oldest FROM production_lot l WHERE l.status = 'open' AND EXISTS (SELECT 1 FROM release_submission r WHERE r.lot_id = l.id AND r.outcome = 'returned')",
+      'SELECT COUNT(*) AS count, MIN((SELECT MAX(r.closed_at) FROM release_submission r WHERE r.lot_id = l.id ' +
+        "AND r.outcome = 'returned')) AS oldest FROM production_lot l WHERE l.status = 'open' AND EXISTS " +
+        "(SELECT 1 FROM release_submission r WHERE r.lot_id = l.id AND r.outcome = 'returned')",
     ),
   lotsInWork: (manager: EntityManager) =>
     counted(manager, "SELECT COUNT(*) AS count, MIN(opened_at) AS oldest FROM production_lot WHERE status = 'open'"),
@@ -47,17 +51,20 @@ export const waitingWork = {
   openRecalls: (manager: EntityManager) =>
     counted(
       manager,
-      "SELECT COUNT(*) AS count, MIN(opened_at) AS oldest FROM recall_investigation WHERE status = 'open' AND mode = 'recall'",
+      "SELECT COUNT(*) AS count, MIN(opened_at) AS oldest FROM recall_investigation WHERE status = 'open' AND " +
+        "mode = 'recall'",
     ),
   openDrills: (manager: EntityManager) =>
     counted(
       manager,
-      "SELECT COUNT(*) AS count, MIN(opened_at) AS oldest FROM recall_investigation WHERE status = 'open' AND mode = 'drill'",
+      "SELECT COUNT(*) AS count, MIN(opened_at) AS oldest FROM recall_investigation WHERE status = 'open' AND " +
+        "mode = 'drill'",
     ),
   roleChangesToConfirm: (manager: EntityManager, personId: number) =>
     counted(
       manager,
-      "SELECT COUNT(*) AS count, MIN(requested_at) AS oldest FROM role_change_request WHERE status = 'pending' AND requested_by <> ? AND person_id <> ?",
+      'SELECT COUNT(*) AS count, MIN(requested_at) AS oldest FROM role_change_request WHERE status = ' +
+        "'pending' AND requested_by <> ? AND person_id <> ?",
       [personId, personId],
     ),
 };
@@ -118,7 +125,8 @@ export async function finishedLotsSince(
 ): Promise<Array<{ part: string; started: number; good: number }>> {
   const rows: Array<{ part: string; started: number | null; good: number | null }> = await manager.query(
     `SELECT CONCAT(p.part_number, ' rev ', p.revision) AS part, l.start_qty AS started,
-            (SELECT o.qty_good FROM lot_operation o JOIN routing_step s ON s.id = o.routing_step_id WHERE o.lot_id = l.id ORDER BY s.step_no DESC, o.id DESC LIMIT 1) AS good
+            (SELECT o.qty_good FROM lot_operation o JOIN routing_step s ON s.id = o.routing_step_id
+              WHERE o.lot_id = l.id ORDER BY s.step_no DESC, o.id DESC LIMIT 1) AS good
        FROM production_lot l JOIN part p ON p.id = l.part_id
       WHERE l.origin = 'bar' AND l.status IN ('submitted', 'reviewed', 'released') AND l.opened_at >= ?
         AND NOT EXISTS (SELECT 1 FROM lot_link k WHERE k.parent_lot_id = l.id OR k.child_lot_id = l.id)`,

@@ -23,8 +23,8 @@ export interface Checkpoint {
   signature: string;
 }
 
-export const checkpointStatement = (checkpoint: Omit<Checkpoint, 'signature'>) =>
-  `ingotrace-ledger-checkpoint:${canonicalJson({ seq: checkpoint.seq, hash: checkpoint.hash, at: checkpoint.at, keyId: checkpoint.keyId, reason: checkpoint.reason })}`;
+export const checkpointStatement = ({ seq, hash, at, keyId, reason }: Omit<Checkpoint, 'signature'>) =>
+  `ingotrace-ledger-checkpoint:${canonicalJson({ seq, hash, at, keyId, reason })}`;
 
 /**
  * When checkpoints are taken besides daily and at exports; the demo seed, which replays months of releases at once,
@@ -113,12 +113,16 @@ export function checkpointProblem(
     if (hash === null)
       return {
         seq: checkpoint.seq,
-        why: `the checkpoint of ${checkpoint.at} names this event, which the audit trail no longer holds: it was cut off after the checkpoint`,
+        why:
+          `the checkpoint of ${checkpoint.at} names this event, which the audit trail no longer holds: it was ` +
+          `cut off after the checkpoint`,
       };
     if (hash !== checkpoint.hash)
       return {
         seq: checkpoint.seq,
-        why: `the checkpoint of ${checkpoint.at} gives this event another hash: the audit trail was rewritten after the checkpoint`,
+        why:
+          `the checkpoint of ${checkpoint.at} gives this event another hash: the audit trail was rewritten ` +
+          `after the checkpoint`,
       };
   }
   return null;

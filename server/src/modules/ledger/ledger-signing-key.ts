@@ -78,7 +78,8 @@ export function loadLedgerSigner(path: string): LedgerSigner {
   const mode = statSync(path).mode & 0o777;
   if (mode & 0o077)
     throw new Error(
-      `The audit trail signing key ${path} can be read by other users (mode ${mode.toString(8)}); make it readable by the app's user only (chmod 600)`,
+      `The audit trail signing key ${path} can be read by other users (mode ${mode.toString(8)}); make it ` +
+        `readable by the app's user only (chmod 600)`,
     );
   const privateKey: KeyObject = createPrivateKey(readFileSync(path, 'utf8'));
   if (privateKey.asymmetricKeyType !== 'ed25519')

@@ -31,9 +31,16 @@ function summaryOf(result: Omit<Verification, 'summary'>): string {
   if (result.firstBroken) return `audit trail BROKEN at event ${result.firstBroken.seq}: ${result.firstBroken.why}`;
   if (result.signatureProblems.length) {
     const first = result.signatureProblems[0]!;
-    return `signatures BROKEN: signature ${first.id}: ${first.why}${result.signatureProblems.length > 1 ? ` (and ${result.signatureProblems.length - 1} more)` : ''}`;
+    return (
+      `signatures BROKEN: signature ${first.id}: ` +
+      `${first.why}${result.signatureProblems.length > 1 ? ` (and ${result.signatureProblems.length - 1} more)` : ''}`
+    );
   }
-  return `audit trail verified: ${result.events} events, ${result.signatures} signatures, chain head ${result.chainHead.seq} ${result.chainHead.hash}; ${result.signedEvents} events signed with key ${result.keyId}, ${result.checkpoints} checkpoints hold`;
+  return (
+    `audit trail verified: ${result.events} events, ${result.signatures} signatures, chain head ` +
+    `${result.chainHead.seq} ${result.chainHead.hash}; ${result.signedEvents} events signed with key ` +
+    `${result.keyId}, ${result.checkpoints} checkpoints hold`
+  );
 }
 
 /**
@@ -256,7 +263,9 @@ export function verifyLedgerExport(
   return {
     ok: true,
     events: candidate.events.length,
-    summary: `export verified: ${candidate.events.length} events, chain head ${candidate.chainHead.seq} ${candidate.chainHead.hash}, ${keyNote}, ${checkpoints.length} checkpoints hold`,
+    summary:
+      `export verified: ${candidate.events.length} events, chain head ${candidate.chainHead.seq} ` +
+      `${candidate.chainHead.hash}, ${keyNote}, ${checkpoints.length} checkpoints hold`,
   };
 }
 

@@ -40,7 +40,9 @@ export const heatMixingRecordType: SignableRecordType<{ lotStatus: string; heatS
         lot: lot.lotNumber,
         part: `${lot.part.partNumber} rev ${lot.part.revision}`,
         heatsInLot: already,
-        heatToAdd: `${heat.heatNumber} from ${heat.supplier.name} (${heat.spec.id} ${heat.spec.revision}${heat.spec.grade ? ` grade ${heat.spec.grade}` : ''}), ${heat.status}`,
+        heatToAdd:
+          `${heat.heatNumber} from ${heat.supplier.name} (${heat.spec.id} ` +
+          `${heat.spec.revision}${heat.spec.grade ? ` grade ${heat.spec.grade}` : ''}), ${heat.status}`,
       },
       authorIds: [lot.openedBy],
       lotStatus: lot.status,

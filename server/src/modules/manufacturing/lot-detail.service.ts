@@ -162,8 +162,12 @@ export async function lotDetailIn(manager: EntityManager, lotId: number): Promis
     ...operations.map((operation): TimelineEntry => ({
       at: operation.endedAt,
       kind: operation.processRun ? 'run' : 'operation',
-      title: `Step ${operation.stepNo} ${operation.stepName}${operation.processRun ? ` in run ${operation.processRun.runNumber}` : ''}`,
-      detail: `${operation.qtyIn} in, ${operation.qtyGood} good, ${operation.qtyScrap} scrap${operation.verdict ? `; inspection ${operation.verdict}` : ''}`,
+      title:
+        `Step ${operation.stepNo} ` +
+        `${operation.stepName}${operation.processRun ? ` in run ${operation.processRun.runNumber}` : ''}`,
+      detail:
+        `${operation.qtyIn} in, ${operation.qtyGood} good, ${operation.qtyScrap} ` +
+        `scrap${operation.verdict ? `; inspection ${operation.verdict}` : ''}`,
       by: operation.operatorName,
       link: operation.processRun ? `/process-runs/${operation.processRun.id}` : null,
     })),

@@ -18,7 +18,8 @@ export async function addHeatToLot(manager: EntityManager, lotId: number, heatId
   await manager.query(
     `INSERT INTO lot_heat (heat_id, lot_id)
      SELECT ?, below.id FROM (
-       WITH RECURSIVE below (id) AS (SELECT ? UNION SELECT k.child_lot_id FROM lot_link k JOIN below ON k.parent_lot_id = below.id) SELECT id FROM below) AS below
+       WITH RECURSIVE below (id) AS (SELECT ? UNION SELECT k.child_lot_id FROM lot_link k JOIN below ON
+         k.parent_lot_id = below.id) SELECT id FROM below) AS below
       WHERE NOT EXISTS (SELECT 1 FROM lot_heat x WHERE x.heat_id = ? AND x.lot_id = below.id)`,
     [heatId, lotId, heatId],
   );
@@ -27,7 +28,8 @@ export async function addHeatToLot(manager: EntityManager, lotId: number, heatId
 /** A lot split or merged from these parents is made of every heat they are made of. */
 export async function inheritHeats(manager: EntityManager, lotId: number, parentIds: number[]): Promise<void> {
   await manager.query(
-    `INSERT INTO lot_heat (heat_id, lot_id) SELECT DISTINCT heat_id, ? FROM lot_heat WHERE lot_id IN (${parentIds.map(() => '?').join(',')})`,
+    `INSERT INTO lot_heat (heat_id, lot_id) SELECT DISTINCT heat_id, ? FROM lot_heat WHERE lot_id IN ` +
+      `(${parentIds.map(() => '?').join(',')})`,
     [lotId, ...parentIds],
   );
 }

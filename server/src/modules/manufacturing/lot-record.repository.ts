@@ -34,7 +34,8 @@ export function lotOperationFiles(
 ): Promise<Array<{ operation_id: number; document_id: number; name: string; sha256: string }>> {
   return manager.query(
     `SELECT f.operation_id, f.document_id, f.name, d.sha256
-       FROM operation_file f JOIN certificate_document d ON d.id = f.document_id JOIN lot_operation o ON o.id = f.operation_id
+       FROM operation_file f JOIN certificate_document d ON d.id = f.document_id JOIN lot_operation o ON
+         o.id = f.operation_id
       WHERE o.lot_id = ?`,
     [lotId],
   );

@@ -28,7 +28,8 @@ export interface LotRow {
 const lotSelect = `
   SELECT l.*, p.part_number, p.revision, p.description, person.name AS opened_by_name,
          (SELECT s.name FROM routing_step s WHERE s.part_id = l.part_id AND s.step_no > l.resumes_after_step
-             AND NOT EXISTS (SELECT 1 FROM lot_operation o WHERE o.lot_id = l.id AND o.routing_step_id = s.id) ORDER BY s.step_no LIMIT 1) AS next_step,
+             AND NOT EXISTS (SELECT 1 FROM lot_operation o WHERE o.lot_id = l.id AND
+               o.routing_step_id = s.id) ORDER BY s.step_no LIMIT 1) AS next_step,
          (SELECT COUNT(*) FROM nonconformance n WHERE n.lot_id = l.id AND n.status <> 'closed') AS open_ncs
   FROM production_lot l JOIN part p ON p.id = l.part_id JOIN person ON person.id = l.opened_by`;
 
@@ -84,8 +85,10 @@ export async function listLotRows(
     parameters.push(query.partId);
   }
   if (query.dueFor) {
-    where.push(`l.status = 'open' AND (SELECT s.kind FROM routing_step s WHERE s.part_id = l.part_id AND s.step_no > l.resumes_after_step
-                  AND NOT EXISTS (SELECT 1 FROM lot_operation o WHERE o.lot_id = l.id AND o.routing_step_id = s.id) ORDER BY s.step_no LIMIT 1) = ?`);
+    where.push(`l.status = 'open' AND (SELECT s.kind FROM routing_step s
+                  WHERE s.part_id = l.part_id AND s.step_no > l.resumes_after_step
+                    AND NOT EXISTS (SELECT 1 FROM lot_operation o WHERE o.lot_id = l.id AND o.routing_step_id = s.id)
+                  ORDER BY s.step_no LIMIT 1) = ?`);
     parameters.push(query.dueFor);
   }
   const clause = where.length ? `WHERE ${where.join(' AND ')}` : '';
@@ -93,10 +96,13 @@ export async function listLotRows(
     `SELECT COUNT(*) AS total FROM production_lot l JOIN part p ON p.id = l.part_id ${clause}`,
     parameters,
   );
-  const order = `${sortColumns[query.sort]} ${query.order === 'asc' ? 'ASC' : 'DESC'}, l.id ${query.order === 'asc' ? 'ASC' : 'DESC'}`;
+  const order =
+    `${sortColumns[query.sort]} ${query.order === 'asc' ? 'ASC' : 'DESC'}, l.id ` +
+    `${query.order === 'asc' ? 'ASC' : 'DESC'}`;
   // The page's ids first, so that the per-lot subqueries run for one page of lots, not all of them.
   const rows: LotRow[] = await manager.query(
-    `${lotSelect} JOIN (SELECT l.id FROM production_lot l JOIN part p ON p.id = l.part_id ${clause} ORDER BY ${order} LIMIT ? OFFSET ?) page ON page.id = l.id ORDER BY ${order}`,
+    `${lotSelect} JOIN (SELECT l.id FROM production_lot l JOIN part p ON p.id = l.part_id ${clause} ORDER BY ` +
+      `${order} LIMIT ? OFFSET ?) page ON page.id = l.id ORDER BY ${order}`,
     [...parameters, query.pageSize, (query.page - 1) * query.pageSize],
   );
   return { rows, total: Number(count?.total ?? 0) };
@@ -158,7 +164,8 @@ export async function linkRows(manager: EntityManager, lotIds: number[]): Promis
   const marks = lotIds.map(() => '?').join(',');
   return manager.query(
     `SELECT k.*, pl.lot_number AS parent_number, cl.lot_number AS child_number, p.name AS recorded_by_name
-       FROM lot_link k JOIN production_lot pl ON pl.id = k.parent_lot_id JOIN production_lot cl ON cl.id = k.child_lot_id JOIN person p ON p.id = k.recorded_by
+       FROM lot_link k JOIN production_lot pl ON pl.id = k.parent_lot_id JOIN production_lot cl ON cl.id =
+         k.child_lot_id JOIN person p ON p.id = k.recorded_by
       WHERE k.parent_lot_id IN (${marks}) OR k.child_lot_id IN (${marks})`,
     [...lotIds, ...lotIds],
   );
@@ -201,7 +208,8 @@ export async function heatsByLot(manager: EntityManager, lotIds: number[]): Prom
   const result = new Map<number, string[]>(lotIds.map((id) => [id, []]));
   if (!lotIds.length) return result;
   const rows: Array<{ root: number; heat_number: string }> = await manager.query(
-    `SELECT lh.lot_id AS root, h.heat_number FROM lot_heat lh JOIN heat h ON h.id = lh.heat_id WHERE lh.lot_id IN (${lotIds.map(() => '?').join(',')}) ORDER BY h.heat_number`,
+    `SELECT lh.lot_id AS root, h.heat_number FROM lot_heat lh JOIN heat h ON h.id = lh.heat_id WHERE ` +
+      `lh.lot_id IN (${lotIds.map(() => '?').join(',')}) ORDER BY h.heat_number`,
     lotIds,
   );
   for (const row of rows) result.get(row.root)?.push(row.heat_number);
@@ -211,7 +219,8 @@ export async function heatsByLot(manager: EntityManager, lotIds: number[]): Prom
 /** The last routing step a lot has completed (its own, or the one it resumed after). */
 export async function lastStepOf(manager: EntityManager, lotId: number): Promise<number> {
   const [row]: Array<{ last: number | null; resumes: number }> = await manager.query(
-    `SELECT (SELECT MAX(s.step_no) FROM lot_operation o JOIN routing_step s ON s.id = o.routing_step_id WHERE o.lot_id = l.id) AS last, l.resumes_after_step AS resumes
+    `SELECT (SELECT MAX(s.step_no) FROM lot_operation o JOIN routing_step s ON s.id = o.routing_step_id WHERE
+        o.lot_id = l.id) AS last, l.resumes_after_step AS resumes
        FROM production_lot l WHERE l.id = ?`,
     [lotId],
   );

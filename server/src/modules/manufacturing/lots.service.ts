@@ -170,7 +170,8 @@ export async function issueMaterial(
     const holds = await materialHolds(manager, { heatId: heat.id, pieceId: piece.id, supplierId: heat.supplier.id });
     if (holds.length)
       throw AppError.rule(
-        `Bar ${piece.tag} of heat ${heat.heatNumber} is held: ${holds.join('; ')}. It cannot be issued until that is closed`,
+        `Bar ${piece.tag} of heat ${heat.heatNumber} is held: ${holds.join('; ')}. It cannot be issued until ` +
+          `that is closed`,
         { tag: 'Material on hold' },
       );
     const part = (await findPart(manager, lot.part_id))!;
@@ -182,7 +183,8 @@ export async function issueMaterial(
         .map((spec) => `${spec.specId}${spec.grade ? ` grade ${spec.grade}` : ''}`)
         .join(' or ');
       throw AppError.rule(
-        `Heat ${heat.heatNumber} is ${heat.spec.id}${heat.spec.grade ? ` grade ${heat.spec.grade}` : ''}; part ${part.partNumber} must be made from ${wanted}`,
+        `Heat ${heat.heatNumber} is ${heat.spec.id}${heat.spec.grade ? ` grade ${heat.spec.grade}` : ''}; ` +
+          `part ${part.partNumber} must be made from ${wanted}`,
         { tag: 'Wrong material for this part' },
       );
     }
@@ -196,7 +198,8 @@ export async function issueMaterial(
     if (heats.length && !heats.includes(heat.id)) {
       if (!(await heatMixingApproved(manager, lotId, heat.id))) {
         throw AppError.rule(
-          `Lot ${lot.lot_number} is made from another heat; mixing in heat ${heat.heatNumber} needs a QA approver’s signature first`,
+          `Lot ${lot.lot_number} is made from another heat; mixing in heat ${heat.heatNumber} needs a QA ` +
+            `approver’s signature first`,
           { tag: 'Heat mixing not approved' },
         );
       }

@@ -17,7 +17,8 @@ export async function standingMethodValidations(manager: EntityManager): Promise
   const rows: ValidationRow[] = await manager.query(
     `SELECT v.method_id, v.material_family, v.stands, v.reference, v.reason, v.recorded_at, p.name AS recorded_by_name
      FROM process_method_validation v JOIN person p ON p.id = v.recorded_by
-     WHERE v.id = (SELECT MAX(w.id) FROM process_method_validation w WHERE w.method_id = v.method_id AND w.material_family = v.material_family)
+     WHERE v.id = (SELECT MAX(w.id) FROM process_method_validation w WHERE w.method_id = v.method_id AND
+        w.material_family = v.material_family)
      ORDER BY v.method_id, v.material_family`,
   );
   return rows
@@ -44,7 +45,8 @@ export async function insertMethodValidation(
   },
 ): Promise<number> {
   const result: { insertId: number } = await manager.query(
-    'INSERT INTO process_method_validation (method_id, material_family, stands, reference, reason, recorded_by) VALUES (?, ?, ?, ?, ?, ?)',
+    'INSERT INTO process_method_validation (method_id, material_family, stands, reference, reason, ' +
+      'recorded_by) VALUES (?, ?, ?, ?, ?, ?)',
     [row.methodId, row.family, row.stands ? 1 : 0, row.reference, row.reason, row.recordedBy],
   );
   return Number(result.insertId);

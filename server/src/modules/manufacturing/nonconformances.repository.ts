@@ -33,7 +33,8 @@ const ncSelect = `
            WHEN 'lot' THEN (SELECT CONCAT('Lot ', lot_number) FROM production_lot WHERE id = n.subject_id)
            ELSE (SELECT CONCAT('Run ', run_number) FROM process_run WHERE id = n.subject_id)
          END AS subject_label
-  FROM nonconformance n LEFT JOIN production_lot l ON l.id = n.lot_id LEFT JOIN process_run r ON r.id = n.process_run_id JOIN person p ON p.id = n.raised_by`;
+  FROM nonconformance n LEFT JOIN production_lot l ON l.id = n.lot_id LEFT JOIN process_run r ON r.id =
+    n.process_run_id JOIN person p ON p.id = n.raised_by`;
 
 export function toNonconformance(row: NcRow): NonconformanceSummary & { raisedById: number } {
   return {
@@ -115,7 +116,8 @@ export async function insertNonconformance(
   const prefix = `NC-${year}-`;
   const ncNumber = `${prefix}${String(await nextSequence(manager, 'nonconformance', prefix)).padStart(4, '0')}`;
   const result: { insertId: number } = await manager.query(
-    'INSERT INTO nonconformance (nc_number, subject_type, subject_id, lot_id, process_run_id, source, description, containment, raised_by, raised_at) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)',
+    'INSERT INTO nonconformance (nc_number, subject_type, subject_id, lot_id, process_run_id, source, ' +
+      'description, containment, raised_by, raised_at) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)',
     [
       ncNumber,
       nc.subjectType,

@@ -41,7 +41,8 @@ export async function operationFileContent(
 ): Promise<{ media_type: string; name: string; content: Buffer; sha256: string } | null> {
   const [row] = await manager.query(
     `SELECT d.media_type, f.name, d.content, d.sha256
-       FROM operation_file f JOIN lot_operation o ON o.id = f.operation_id JOIN certificate_document d ON d.id = f.document_id
+       FROM operation_file f JOIN lot_operation o ON o.id = f.operation_id JOIN certificate_document d ON
+         d.id = f.document_id
       WHERE o.lot_id = ? AND f.operation_id = ? AND f.document_id = ?`,
     [lotId, operationId, documentId],
   );

@@ -38,7 +38,8 @@ export async function inspectMeasurementFile(
   if (!mediaType) {
     throw new AppError(
       'UNSUPPORTED_MEDIA_TYPE',
-      `The file's content is not a PDF, PNG, JPEG, CSV or text file${detected ? ` (it looks like ${detected.mime})` : ''}, whatever its name says`,
+      `The file's content is not a PDF, PNG, JPEG, CSV or text ` +
+        `file${detected ? ` (it looks like ${detected.mime})` : ''}, whatever its name says`,
       {
         file: 'Attach measurements as PDF, PNG, JPEG, CSV or text',
       },

@@ -49,7 +49,8 @@ export async function loadParts(manager: EntityManager, ids?: number[]): Promise
   if (ids && ids.length === 0) return [];
   const where = ids ? `WHERE p.id IN (${ids.map(() => '?').join(',')})` : '';
   const rows: PartRow[] = await manager.query(
-    `SELECT p.*, (SELECT COUNT(*) FROM production_lot l WHERE l.part_id = p.id) AS lots FROM part p ${where} ORDER BY p.part_number, p.revision`,
+    `SELECT p.*, (SELECT COUNT(*) FROM production_lot l WHERE l.part_id = p.id) AS lots FROM part p ${where} ` +
+      `ORDER BY p.part_number, p.revision`,
     ids ?? [],
   );
   if (!rows.length) return [];

@@ -114,7 +114,8 @@ export async function recordProcessRun(
       const next = part.routing.find((step) => step.stepNo > lot.resumes_after_step && !done.has(step.stepNo));
       if (!next || next.kind !== input.kind) {
         throw AppError.rule(
-          `Lot ${lot.lot_number} is not due for ${input.kind}: its next step is ${next ? `${next.stepNo} ${next.name}` : 'none (routing complete)'}`,
+          `Lot ${lot.lot_number} is not due for ${input.kind}: its next step is ` +
+            `${next ? `${next.stepNo} ${next.name}` : 'none (routing complete)'}`,
           { lotIds: `${lot.lot_number} not due` },
         );
       }
@@ -181,7 +182,9 @@ export async function recordProcessRun(
           lotId: lot.lotId,
           runId,
           source: 'run-window',
-          description: `${input.kind === 'passivation' ? 'Passivation' : 'Cleaning'} run ${runNumber} (${method.id}) ran outside its window — ${outside.join('; ')}`,
+          description:
+            `${input.kind === 'passivation' ? 'Passivation' : 'Cleaning'} run ${runNumber} (${method.id}) ran ` +
+            `outside its window — ${outside.join('; ')}`,
           containment: 'Raised automatically when the run was recorded; the lot cannot be released while this is open',
           raisedBy: person.id,
           raisedAt: runAt,

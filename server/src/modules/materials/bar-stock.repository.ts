@@ -24,11 +24,15 @@ interface PieceRow {
 }
 
 const pieceSelect = `
-  SELECT b.id, b.tag, b.heat_id, b.marked_heat_number, h.heat_number, h.status AS heat_status, h.spec_id, h.grade, parent.tag AS parent_tag,
-         (SELECT GROUP_CONCAT(child.tag ORDER BY child.tag SEPARATOR ',') FROM bar_piece child WHERE child.parent_id = b.id) AS child_tags,
+  SELECT b.id, b.tag, b.heat_id, b.marked_heat_number, h.heat_number, h.status AS heat_status, h.spec_id,
+    h.grade, parent.tag AS parent_tag,
+         (SELECT GROUP_CONCAT(child.tag ORDER BY child.tag SEPARATOR ',') FROM bar_piece child WHERE
+           child.parent_id = b.id) AS child_tags,
          b.diameter_mm, b.length_mm, b.mass_kg, b.location, b.status, b.created_at, p.name AS created_by_name,
-         (SELECT SUM(CASE m.kind WHEN 'issue' THEN m.length_mm ELSE -m.length_mm END) FROM material_movement m WHERE m.bar_piece_id = b.id) AS net_issued_mm
-  FROM bar_piece b JOIN heat h ON h.id = b.heat_id LEFT JOIN bar_piece parent ON parent.id = b.parent_id JOIN person p ON p.id = b.created_by`;
+         (SELECT SUM(CASE m.kind WHEN 'issue' THEN m.length_mm ELSE -m.length_mm END) FROM
+           material_movement m WHERE m.bar_piece_id = b.id) AS net_issued_mm
+  FROM bar_piece b JOIN heat h ON h.id = b.heat_id LEFT JOIN bar_piece parent ON parent.id = b.parent_id JOIN
+    person p ON p.id = b.created_by`;
 
 function toPiece(row: PieceRow): BarPiece {
   return {
@@ -85,7 +89,8 @@ export async function listPieces(
   }
   if (query.inStockOnly === 'true')
     where.push(
-      "b.status = 'in-stock' AND b.length_mm > COALESCE((SELECT SUM(CASE m.kind WHEN 'issue' THEN m.length_mm ELSE -m.length_mm END) FROM material_movement m WHERE m.bar_piece_id = b.id), 0)",
+      "b.status = 'in-stock' AND b.length_mm > COALESCE((SELECT SUM(CASE m.kind WHEN 'issue' THEN m.length_mm " +
+        'ELSE -m.length_mm END) FROM material_movement m WHERE m.bar_piece_id = b.id), 0)',
     );
   const clause = where.length ? `WHERE ${where.join(' AND ')}` : '';
   const [count]: Array<{ total: string }> = await manager.query(
@@ -114,7 +119,8 @@ export async function insertPiece(
   },
 ): Promise<number> {
   const result: { insertId: number } = await manager.query(
-    'INSERT INTO bar_piece (tag, heat_id, marked_heat_number, parent_id, diameter_mm, length_mm, mass_kg, location, created_by) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)',
+    'INSERT INTO bar_piece (tag, heat_id, marked_heat_number, parent_id, diameter_mm, length_mm, mass_kg, ' +
+      'location, created_by) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)',
     [
       piece.tag,
       piece.heatId,

@@ -24,7 +24,8 @@ export async function inspectCertificateFile(
   if (!detected || !accepted.has(detected.mime)) {
     throw new AppError(
       'UNSUPPORTED_MEDIA_TYPE',
-      `The file's content is not a PDF, PNG or JPEG${detected ? ` (it looks like ${detected.mime})` : ''}, whatever its name says`,
+      `The file's content is not a PDF, PNG or JPEG${detected ? ` (it looks like ${detected.mime})` : ''}, ` +
+        `whatever its name says`,
       {
         certificate: 'Upload the certificate as PDF, PNG or JPEG',
       },

@@ -48,7 +48,8 @@ export async function insertCheckAnalysis(
 /** The latest rule set for each scope (supplier and specification, either may be any). */
 export function latestRuleRows(manager: EntityManager): Promise<RuleRow[]> {
   return manager.query(
-    `SELECT r.id, r.supplier_id, s.name AS supplier_name, r.spec_id, r.every_nth_heat, r.every_heat_when_conditional, r.reason, p.name AS set_by_name, r.set_at
+    `SELECT r.id, r.supplier_id, s.name AS supplier_name, r.spec_id, r.every_nth_heat,
+        r.every_heat_when_conditional, r.reason, p.name AS set_by_name, r.set_at
        FROM check_analysis_rule r JOIN person p ON p.id = r.set_by LEFT JOIN supplier s ON s.id = r.supplier_id
       WHERE r.id IN (SELECT MAX(id) FROM check_analysis_rule GROUP BY supplier_id, spec_id)
       ORDER BY r.supplier_id IS NOT NULL, s.name, r.spec_id IS NOT NULL, r.spec_id`,
@@ -58,7 +59,8 @@ export function latestRuleRows(manager: EntityManager): Promise<RuleRow[]> {
 /** The check analyses recorded on a heat, newest first. */
 export function analysisRowsOfHeat(manager: EntityManager, heatId: number): Promise<AnalysisRow[]> {
   return manager.query(
-    `SELECT c.id, c.laboratory, c.report_reference, c.results_json, c.evaluation_json, p.name AS recorded_by_name, c.recorded_at
+    `SELECT c.id, c.laboratory, c.report_reference, c.results_json, c.evaluation_json, p.name AS recorded_by_name,
+        c.recorded_at
        FROM check_analysis c JOIN person p ON p.id = c.recorded_by WHERE c.heat_id = ? ORDER BY c.id DESC`,
     [heatId],
   );

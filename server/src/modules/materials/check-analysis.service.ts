@@ -151,7 +151,10 @@ export function checkAnalysisRefusal(check: HeatCheckAnalysis): string | null {
   if (check.status === 'awaiting')
     return `A check analysis of this heat is due (${check.why}); record its results before accepting the heat`;
   if (check.status === 'does-not-conform')
-    return `The latest check analysis does not conform (${checkFailureText(check.analyses[0]!.evaluation)}); the heat cannot be accepted`;
+    return (
+      `The latest check analysis does not conform (${checkFailureText(check.analyses[0]!.evaluation)}); the ` +
+      `heat cannot be accepted`
+    );
   return null;
 }
 

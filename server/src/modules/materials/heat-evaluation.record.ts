@@ -29,7 +29,8 @@ async function justificationContent(
         .filter((item) => item.verdict === 'cannot-be-evaluated')
         .map(
           (item) =>
-            `${item.item}: ${item.reason ? reasonLabels[item.reason] : 'cannot be evaluated'}${item.note ? ` (${item.note})` : ''}`,
+            `${item.item}: ` +
+            `${item.reason ? reasonLabels[item.reason] : 'cannot be evaluated'}${item.note ? ` (${item.note})` : ''}`,
         ),
       restsOnUnverifiedLimits: evaluation?.restsOnUnverified ?? [],
     },

@@ -37,7 +37,9 @@ export const heatRecordType: SignableRecordType<{
     const certificates = await heats.heatCertificates(manager, heatId);
     const check = await checkAnalysisOfHeat(manager, heatId);
     return {
-      title: `Heat ${heat.heatNumber} from ${heat.supplier.name} (${heat.spec.id} ${heat.spec.revision}${heat.spec.grade ? ` grade ${heat.spec.grade}` : ''})`,
+      title:
+        `Heat ${heat.heatNumber} from ${heat.supplier.name} (${heat.spec.id} ` +
+        `${heat.spec.revision}${heat.spec.grade ? ` grade ${heat.spec.grade}` : ''})`,
       content: {
         heat: heat.heatNumber,
         supplier: heat.supplier.name,
@@ -80,13 +82,22 @@ export const heatRecordType: SignableRecordType<{
       if (facts.supplierApproval === 'disqualified') return 'Heats from a disqualified supplier cannot be accepted';
       if (!facts.hasCertificate) return 'Attach the mill certificate before accepting the heat';
       if (facts.content.verdict === 'cannot-be-evaluated' && !facts.content.justification) {
-        return 'Some items of this heat cannot be evaluated: correct the record, or have a QA approver sign a justification, before accepting it';
+        return (
+          'Some items of this heat cannot be evaluated: correct the record, or have a QA approver sign a ' +
+          'justification, before accepting it'
+        );
       }
       if (facts.content.verdict !== 'conforms' && facts.content.verdict !== 'cannot-be-evaluated') {
-        return `Only a conforming heat can be accepted; its evaluation says ${facts.content.verdict === 'does-not-conform' ? 'does not conform' : facts.content.verdict}`;
+        return (
+          `Only a conforming heat can be accepted; its evaluation says ` +
+          `${facts.content.verdict === 'does-not-conform' ? 'does not conform' : facts.content.verdict}`
+        );
       }
       if (facts.openFindings.length) {
-        return `Acknowledge the certificate screening finding${facts.openFindings.length > 1 ? 's' : ''} on this heat first (${facts.openFindings.length} open): ${facts.openFindings[0]}`;
+        return (
+          `Acknowledge the certificate screening finding${facts.openFindings.length > 1 ? 's' : ''} on this ` +
+          `heat first (${facts.openFindings.length} open): ${facts.openFindings[0]}`
+        );
       }
       if (facts.checkRefusal) return facts.checkRefusal;
     }

@@ -28,12 +28,17 @@ interface HeatRow {
  * said "incomplete", which reads as cannot be evaluated.
  */
 export function latestVerdictSql(heatIdColumn: string): string {
-  return `(SELECT CASE e.verdict WHEN 'incomplete' THEN 'cannot-be-evaluated' ELSE e.verdict END FROM heat_evaluation e WHERE e.heat_id = ${heatIdColumn} ORDER BY e.id DESC LIMIT 1)`;
+  return (
+    `(SELECT CASE e.verdict WHEN 'incomplete' THEN 'cannot-be-evaluated' ELSE e.verdict END FROM ` +
+    `heat_evaluation e WHERE e.heat_id = ${heatIdColumn} ORDER BY e.id DESC LIMIT 1)`
+  );
 }
 
 const heatSelect = `
-  SELECT h.id, h.heat_number, h.supplier_id, s.name AS supplier_name, s.approval AS supplier_approval, h.spec_id, h.spec_revision,
-         h.grade, h.melt_route, h.product_form, h.size_mm, h.heat_condition, h.status, h.received_at, h.received_by, p.name AS received_by_name,
+  SELECT h.id, h.heat_number, h.supplier_id, s.name AS supplier_name, s.approval AS supplier_approval,
+    h.spec_id, h.spec_revision,
+         h.grade, h.melt_route, h.product_form, h.size_mm, h.heat_condition, h.status, h.received_at,
+           h.received_by, p.name AS received_by_name,
          ${latestVerdictSql('h.id')} AS verdict
   FROM heat h JOIN supplier s ON s.id = h.supplier_id JOIN person p ON p.id = h.received_by`;
 
@@ -109,7 +114,8 @@ export async function insertHeat(
   },
 ): Promise<number> {
   const result: { insertId: number } = await manager.query(
-    `INSERT INTO heat (heat_number, supplier_id, spec_id, spec_revision, grade, melt_route, product_form, size_mm, heat_condition, received_by, received_at)
+    `INSERT INTO heat (heat_number, supplier_id, spec_id, spec_revision, grade, melt_route, product_form, size_mm,
+        heat_condition, received_by, received_at)
      VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
     [
       heat.heatNumber,
@@ -169,7 +175,8 @@ export async function insertEvaluation(
   evaluation: { heatId: number; specId: string; revision: string; verdict: string; json: string; evaluatedBy: number },
 ): Promise<void> {
   await manager.query(
-    'INSERT INTO heat_evaluation (heat_id, spec_id, spec_revision, verdict, evaluation_json, evaluated_by) VALUES (?, ?, ?, ?, ?, ?)',
+    'INSERT INTO heat_evaluation (heat_id, spec_id, spec_revision, verdict, evaluation_json, evaluated_by) ' +
+      'VALUES (?, ?, ?, ?, ?, ?)',
     [
       evaluation.heatId,
       evaluation.specId,
@@ -215,7 +222,8 @@ export async function heatCertificates(manager: EntityManager, heatId: number): 
     original_name: string;
     uploaded_at: Date;
   }> = await manager.query(
-    `SELECT d.id, d.sha256, d.media_type, d.size_bytes, d.original_name, d.uploaded_at FROM heat_certificate c JOIN certificate_document d ON d.id = c.document_id WHERE c.heat_id = ? ORDER BY c.attached_at`,
+    `SELECT d.id, d.sha256, d.media_type, d.size_bytes, d.original_name, d.uploaded_at FROM heat_certificate ` +
+      `c JOIN certificate_document d ON d.id = c.document_id WHERE c.heat_id = ? ORDER BY c.attached_at`,
     [heatId],
   );
   return rows.map((row) => ({
@@ -239,7 +247,8 @@ export async function storeDocument(
   );
   if (existing) return { id: existing.id, created: false };
   const result: { insertId: number } = await manager.query(
-    'INSERT INTO certificate_document (sha256, media_type, size_bytes, original_name, content, uploaded_by) VALUES (?, ?, ?, ?, ?, ?)',
+    'INSERT INTO certificate_document (sha256, media_type, size_bytes, original_name, content, uploaded_by) ' +
+      'VALUES (?, ?, ?, ?, ?, ?)',
     [
       document.sha256,
       document.mediaType,
@@ -272,7 +281,8 @@ export async function documentOfHeat(
 ): Promise<{ mediaType: string; originalName: string; content: Buffer; sha256: string } | null> {
   const [row]: Array<{ media_type: string; original_name: string; content: Buffer; sha256: string }> =
     await manager.query(
-      'SELECT d.media_type, d.original_name, d.content, d.sha256 FROM heat_certificate c JOIN certificate_document d ON d.id = c.document_id WHERE c.heat_id = ? AND c.document_id = ?',
+      'SELECT d.media_type, d.original_name, d.content, d.sha256 FROM heat_certificate c JOIN ' +
+        'certificate_document d ON d.id = c.document_id WHERE c.heat_id = ? AND c.document_id = ?',
       [heatId, documentId],
     );
   return row
@@ -287,7 +297,8 @@ export async function otherHeatsWithDocument(
   documentId: number,
 ): Promise<string[]> {
   const rows: Array<{ heat_number: string }> = await manager.query(
-    'SELECT h.heat_number FROM heat_certificate c JOIN heat h ON h.id = c.heat_id WHERE c.document_id = ? AND c.heat_id <> ?',
+    'SELECT h.heat_number FROM heat_certificate c JOIN heat h ON h.id = c.heat_id WHERE c.document_id = ? AND ' +
+      'c.heat_id <> ?',
     [documentId, heatId],
   );
   return rows.map((row) => row.heat_number);
@@ -302,8 +313,10 @@ export async function heatsWithIdenticalResults(manager: EntityManager, heatId: 
        JOIN heat other ON other.id <> this_heat.id AND other.spec_id = this_heat.spec_id
      WHERE this_heat.id = ?
        AND (SELECT COUNT(*) FROM heat_result r WHERE r.heat_id = this_heat.id) > 0
-       AND (SELECT GROUP_CONCAT(CONCAT(kind, ':', item, '=', value) ORDER BY kind, item SEPARATOR ';') FROM heat_result WHERE heat_id = this_heat.id)
-         = (SELECT GROUP_CONCAT(CONCAT(kind, ':', item, '=', value) ORDER BY kind, item SEPARATOR ';') FROM heat_result WHERE heat_id = other.id)
+       AND (SELECT GROUP_CONCAT(CONCAT(kind, ':', item, '=', value) ORDER BY kind, item SEPARATOR ';') FROM
+         heat_result WHERE heat_id = this_heat.id)
+         = (SELECT GROUP_CONCAT(CONCAT(kind, ':', item, '=', value) ORDER BY kind, item SEPARATOR ';')
+           FROM heat_result WHERE heat_id = other.id)
      ORDER BY other.heat_number`,
     [heatId],
   );
@@ -318,7 +331,8 @@ export function chemistryHistory(
   return manager.query(
     `SELECT h.id AS heat_id, h.heat_number, h.received_at, r.value
        FROM heat_result r JOIN heat h ON h.id = r.heat_id
-      WHERE h.supplier_id = ? AND h.spec_id = ? AND r.kind = 'chemistry' AND r.item = ? ${of.grade !== null ? 'AND h.grade = ?' : ''}
+      WHERE h.supplier_id = ? AND h.spec_id = ? AND r.kind = 'chemistry' AND r.item = ?
+        ${of.grade !== null ? 'AND h.grade = ?' : ''}
       ORDER BY h.received_at, h.id`,
     [of.supplierId, of.specId, of.element, ...(of.grade !== null ? [of.grade] : [])],
   );

@@ -78,7 +78,8 @@ export async function receiveHeat(
     }
     if (!scope.conditions.includes(input.condition)) {
       throw AppError.rule(
-        `${specification.id} ${specification.revision} covers the conditions ${scope.conditions.join(', ')}, not ${input.condition}`,
+        `${specification.id} ${specification.revision} covers the conditions ${scope.conditions.join(', ')}, ` +
+          `not ${input.condition}`,
         { condition: `One of ${scope.conditions.join(', ')}` },
       );
     }

@@ -122,7 +122,8 @@ export async function importResults(
   if (request.mode === 'all' && errors.length) {
     throw new AppError(
       'RULE_VIOLATION',
-      `Nothing was imported: ${errors.length} problem(s) in ${records.length - checked.length} row(s); fix them or import only the valid rows`,
+      `Nothing was imported: ${errors.length} problem(s) in ${records.length - checked.length} row(s); fix ` +
+        `them or import only the valid rows`,
     );
   }
   await inTransaction(dataSource, async (manager) => {

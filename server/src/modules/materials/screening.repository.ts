@@ -35,7 +35,8 @@ export function supplierCertificateHashes(
 ): Promise<Array<{ heat_id: number; sha256: string }>> {
   return manager.query(
     `SELECT c.heat_id, d.sha256 FROM heat_certificate c JOIN certificate_document d ON d.id = c.document_id
-       JOIN heat h ON h.id = c.heat_id WHERE h.supplier_id = ? AND h.spec_id = ? AND h.grade <=> ? ORDER BY c.heat_id, d.sha256`,
+       JOIN heat h ON h.id = c.heat_id WHERE h.supplier_id = ? AND h.spec_id = ? AND h.grade <=> ? ORDER BY
+         c.heat_id, d.sha256`,
     [supplierId, specId, grade],
   );
 }
@@ -46,7 +47,8 @@ export function acknowledgementsOfHeat(
   heatId: number,
 ): Promise<Array<{ finding_key: string; reason: string; acknowledged_at: Date; name: string }>> {
   return manager.query(
-    `SELECT a.finding_key, a.reason, a.acknowledged_at, p.name FROM screening_acknowledgement a JOIN person p ON p.id = a.acknowledged_by
+    `SELECT a.finding_key, a.reason, a.acknowledged_at, p.name FROM screening_acknowledgement a JOIN person p ON
+        p.id = a.acknowledged_by
       WHERE a.heat_id = ? ORDER BY a.id`,
     [heatId],
   );
@@ -82,7 +84,8 @@ export function screeningGroups(
 > {
   return manager.query(
     `SELECT h.spec_id, h.grade, h.spec_revision, h.product_form, h.heat_condition FROM heat h
-      WHERE h.supplier_id = ? AND h.id = (SELECT MAX(o.id) FROM heat o WHERE o.supplier_id = h.supplier_id AND o.spec_id = h.spec_id AND o.grade <=> h.grade)
+      WHERE h.supplier_id = ? AND h.id = (SELECT MAX(o.id) FROM heat o WHERE o.supplier_id = h.supplier_id
+        AND o.spec_id = h.spec_id AND o.grade <=> h.grade)
       ORDER BY h.spec_id, h.grade`,
     [supplierId],
   );
@@ -94,7 +97,8 @@ export function acknowledgedFindings(
   supplierId: number,
 ): Promise<Array<{ heat_id: number; finding_key: string }>> {
   return manager.query(
-    'SELECT a.heat_id, a.finding_key FROM screening_acknowledgement a JOIN heat h ON h.id = a.heat_id WHERE h.supplier_id = ?',
+    'SELECT a.heat_id, a.finding_key FROM screening_acknowledgement a JOIN heat h ON h.id = a.heat_id WHERE ' +
+      'h.supplier_id = ?',
     [supplierId],
   );
 }
@@ -108,7 +112,8 @@ export async function insertAcknowledgement(
   personId: number,
 ): Promise<void> {
   await manager.query(
-    'INSERT INTO screening_acknowledgement (heat_id, finding_key, kind, explanation, reason, acknowledged_by) VALUES (?, ?, ?, ?, ?, ?)',
+    'INSERT INTO screening_acknowledgement (heat_id, finding_key, kind, explanation, reason, acknowledged_by) ' +
+      'VALUES (?, ?, ?, ?, ?, ?)',
     [heatId, finding.key, finding.kind, finding.explanation, reason, personId],
   );
 }

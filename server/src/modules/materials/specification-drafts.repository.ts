@@ -21,7 +21,8 @@ export interface DraftRow {
 export async function draftRow(manager: EntityManager, id: number, lock = false): Promise<DraftRow | null> {
   if (lock) await manager.query('SELECT id FROM specification_draft WHERE id = ? FOR UPDATE', [id]);
   const [row]: DraftRow[] = await manager.query(
-    'SELECT d.*, p.name AS created_by_name FROM specification_draft d JOIN person p ON p.id = d.created_by WHERE d.id = ?',
+    'SELECT d.*, p.name AS created_by_name FROM specification_draft d JOIN person p ON p.id = d.created_by ' +
+      'WHERE d.id = ?',
     [id],
   );
   return row ?? null;
@@ -56,7 +57,8 @@ export async function insertRevision(
 /** The hundred newest drafts, with who created each. */
 export function latestDraftRows(manager: EntityManager): Promise<DraftRow[]> {
   return manager.query(
-    'SELECT d.*, p.name AS created_by_name FROM specification_draft d JOIN person p ON p.id = d.created_by ORDER BY d.id DESC LIMIT 100',
+    'SELECT d.*, p.name AS created_by_name FROM specification_draft d JOIN person p ON p.id = d.created_by ' +
+      'ORDER BY d.id DESC LIMIT 100',
   );
 }
 

@@ -22,12 +22,14 @@ export async function syncSpecificationLibrary(
     );
     if (stored && stored.definition_hash !== hash) {
       throw new Error(
-        `Revision ${specification.revision} of ${specification.id} in the shipped library differs from the stored one; stored revisions are immutable, so ship the change as a new revision`,
+        `Revision ${specification.revision} of ${specification.id} in the shipped library differs from the ` +
+          `stored one; stored revisions are immutable, so ship the change as a new revision`,
       );
     }
     if (!stored) {
       await manager.query(
-        'INSERT INTO specification_revision (spec_id, revision, title, edition, definition_json, definition_hash) VALUES (?, ?, ?, ?, ?, ?)',
+        'INSERT INTO specification_revision (spec_id, revision, title, edition, definition_json, ' +
+          'definition_hash) VALUES (?, ?, ?, ?, ?, ?)',
         [specification.id, specification.revision, specification.title, specification.edition, definition, hash],
       );
       added.push(`${specification.id} ${specification.revision}`);

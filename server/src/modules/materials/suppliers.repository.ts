@@ -5,7 +5,8 @@ import type { Supplier } from '@shared/schemas/materials';
 export async function listSuppliers(manager: EntityManager): Promise<Supplier[]> {
   const rows: Array<{ id: number; name: string; country: string; approval: Supplier['approval']; heats: string }> =
     await manager.query(
-      'SELECT s.id, s.name, s.country, s.approval, (SELECT COUNT(*) FROM heat h WHERE h.supplier_id = s.id) AS heats FROM supplier s ORDER BY s.name',
+      'SELECT s.id, s.name, s.country, s.approval, (SELECT COUNT(*) FROM heat h WHERE h.supplier_id = s.id) ' +
+        'AS heats FROM supplier s ORDER BY s.name',
     );
   return rows.map((row) => ({ ...row, heats: Number(row.heats) }));
 }

@@ -37,7 +37,8 @@ export async function insertRoleChangeRequest(
   request: { personId: number; rolesBefore: Role[]; rolesAfter: Role[]; reason: string; requestedBy: number },
 ): Promise<number> {
   const result: { insertId: number } = await manager.query(
-    'INSERT INTO role_change_request (person_id, roles_before, roles_after, reason, requested_by) VALUES (?, ?, ?, ?, ?)',
+    'INSERT INTO role_change_request (person_id, roles_before, roles_after, reason, requested_by) VALUES (?, ' +
+      '?, ?, ?, ?)',
     [
       request.personId,
       JSON.stringify(request.rolesBefore),
@@ -72,7 +73,8 @@ export async function decideRoleChangeRequest(
   decidedBy: number,
 ): Promise<void> {
   await manager.query(
-    "UPDATE role_change_request SET status = ?, decided_by = ?, decided_at = CURRENT_TIMESTAMP(6) WHERE id = ? AND status = 'pending'",
+    'UPDATE role_change_request SET status = ?, decided_by = ?, decided_at = CURRENT_TIMESTAMP(6) WHERE id = ' +
+      "? AND status = 'pending'",
     [status, decidedBy, id],
   );
 }
@@ -92,7 +94,8 @@ export async function setAdministratorsMayApprove(manager: EntityManager, allowe
 export async function peopleHoldingBoth(manager: EntityManager): Promise<string[]> {
   const rows: Array<{ name: string }> = await manager.query(
     `SELECT p.name FROM person p
-      WHERE (SELECT COUNT(DISTINCT r.role) FROM person_role r WHERE r.person_id = p.id AND r.role IN ('administrator', 'qa-approver')
+      WHERE (SELECT COUNT(DISTINCT r.role) FROM person_role r WHERE r.person_id = p.id AND r.role IN
+        ('administrator', 'qa-approver')
               AND NOT EXISTS (SELECT 1 FROM person_role_withdrawal w WHERE w.person_id = p.id AND w.role = r.role)) = 2
       ORDER BY p.name`,
   );

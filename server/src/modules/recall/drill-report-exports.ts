@@ -19,7 +19,8 @@ function timingRows(report: DrillReport, when: (iso: string) => string): Array<[
     ['Started', `${when(report.drill.openedAt)} by ${report.drill.openedBy}`],
     [
       'First scope frozen after',
-      `${durationText(timing.toFirstScopeMs)}${timing.tracedInMs !== null ? ` (trace computed in ${durationText(timing.tracedInMs)})` : ''}`,
+      durationText(timing.toFirstScopeMs) +
+        (timing.tracedInMs !== null ? ` (trace computed in ${durationText(timing.tracedInMs)})` : ''),
     ],
     [
       'Scope confirmed complete after',
@@ -29,7 +30,11 @@ function timingRows(report: DrillReport, when: (iso: string) => string): Array<[
     ],
     [
       'Trace re-runs',
-      `${timing.reruns}${timing.scopeChanged ? ` — the scope changed since opening (added: ${report.scope.lotsAddedSinceOpening.join(', ') || 'none'}; removed: ${report.scope.lotsRemovedSinceOpening.join(', ') || 'none'})` : ', scope unchanged since opening'}`,
+      `${timing.reruns}` +
+        (timing.scopeChanged
+          ? ` — the scope changed since opening (added: ${report.scope.lotsAddedSinceOpening.join(', ') || 'none'}; ` +
+            `removed: ${report.scope.lotsRemovedSinceOpening.join(', ') || 'none'})`
+          : ', scope unchanged since opening'),
     ],
   ];
 }
@@ -65,7 +70,8 @@ export function drillReportCsv(report: DrillReport): string {
       'lot',
       lot.lotNumber,
       lot.status,
-      `part ${lot.partNumber}; heats ${lot.heats.join(' ') || 'none'}; started ${lot.made ?? ''}; released ${lot.released}; shipped ${lot.shipped}; in plant ${lot.onHand}`,
+      `part ${lot.partNumber}; heats ${lot.heats.join(' ') || 'none'}; started ${lot.made ?? ''}; released ` +
+        `${lot.released}; shipped ${lot.shipped}; in plant ${lot.onHand}`,
     ]),
     ...report.consignees.map((consignee) => [
       'consignee',
@@ -113,7 +119,8 @@ export async function drillReportPdf(report: DrillReport, organisation: string, 
     pageMargins: [40, 50, 40, 50],
     watermark: { text: 'DRILL', opacity: 0.08, bold: true },
     footer: pageFooter(
-      `${report.drill.recallNumber} drill report · made ${plantDateTimeSeconds(report.madeAt, timeZone)} (${timeZoneNote(timeZone)})`,
+      `${report.drill.recallNumber} drill report · made ${plantDateTimeSeconds(report.madeAt, timeZone)} ` +
+        `(${timeZoneNote(timeZone)})`,
     ),
     styles: documentStyles,
     content: [
@@ -124,7 +131,8 @@ export async function drillReportPdf(report: DrillReport, organisation: string, 
       {
         text: assessment.complete
           ? 'Scope complete: every check passed.'
-          : `Scope NOT complete: ${assessment.checks.filter((check) => !check.passed).length} of ${assessment.checks.length} checks failed.`,
+          : `Scope NOT complete: ${assessment.checks.filter((check) => !check.passed).length} of ` +
+            `${assessment.checks.length} checks failed.`,
         bold: true,
         fontSize: 12,
         color: assessment.complete ? '#1e6b3a' : '#a4262c',
@@ -153,7 +161,9 @@ export async function drillReportPdf(report: DrillReport, organisation: string, 
         ],
       ),
       {
-        text: 'Units made: what each lot started with, less what it passed on to lots split or merged from it (counted there, not twice).',
+        text:
+          'Units made: what each lot started with, less what it passed on to lots split or merged from it ' +
+          '(counted there, not twice).',
         fontSize: 8,
         color: '#555',
         margin: [0, 2, 0, 0],
@@ -183,7 +193,9 @@ export async function drillReportPdf(report: DrillReport, organisation: string, 
           body: [
             [
               'Snapshot',
-              `${report.scope.snapshot.kind === 'opening' ? 'opening' : 'latest re-run'}, ${plantDateTimeSeconds(report.scope.snapshot.takenAt, timeZone)} by ${report.scope.snapshot.takenBy}`,
+              `${report.scope.snapshot.kind === 'opening' ? 'opening' : 'latest re-run'}, ` +
+                `${plantDateTimeSeconds(report.scope.snapshot.takenAt, timeZone)} by ` +
+                `${report.scope.snapshot.takenBy}`,
             ],
             ['Snapshot SHA-256', hashBlock(report.scope.snapshot.sha256)],
           ],

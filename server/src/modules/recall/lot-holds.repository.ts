@@ -19,10 +19,12 @@ export interface HoldRow {
   lifted_by: string | null;
 }
 
-const holdSelect = `SELECT h.id, h.lot_id, l.lot_number, l.status AS lot_status, h.recall_id, r.recall_number, h.reason, h.placed_by AS placed_by_id, pp.name AS placed_by,
+const holdSelect = `SELECT h.id, h.lot_id, l.lot_number, l.status AS lot_status, h.recall_id, r.recall_number,
+    h.reason, h.placed_by AS placed_by_id, pp.name AS placed_by,
                            h.placed_at, h.lifted_at, pl.name AS lifted_by
                       FROM lot_hold h JOIN production_lot l ON l.id = h.lot_id JOIN person pp ON pp.id = h.placed_by
-                      LEFT JOIN person pl ON pl.id = h.lifted_by LEFT JOIN recall_investigation r ON r.id = h.recall_id`;
+                      LEFT JOIN person pl ON pl.id = h.lifted_by LEFT JOIN
+                        recall_investigation r ON r.id = h.recall_id`;
 
 export function holdRowsOfRecall(manager: EntityManager, recallId: number): Promise<HoldRow[]> {
   return manager.query(`${holdSelect} WHERE h.recall_id = ? ORDER BY l.lot_number`, [recallId]);

@@ -13,7 +13,8 @@ import { findRecallRow } from './recall.repository';
 import { plantDateTimeSeconds, timeZoneNote } from '@shared/domain/plant-time';
 
 export const recallCaution =
-  'Decisions on field actions, customer notification and regulatory reporting rest with the firm’s quality system. This export states what Ingotrace traced at the moment shown; it is not a decision.';
+  'Decisions on field actions, customer notification and regulatory reporting rest with the firm’s quality ' +
+  'system. This export states what Ingotrace traced at the moment shown; it is not a decision.';
 
 /**
  * One CSV: each affected lot, then each consignee, with the snapshot they come from on every row so that a cut-out part
@@ -119,7 +120,8 @@ export async function recallPdf(
     pageMargins: [40, 50, 40, 50],
     ...(drill ? { watermark: { text: 'DRILL', opacity: 0.08, bold: true } } : {}),
     footer: pageFooter(
-      `${content.recallNumber} · ${meta.kind === 'opening' ? 'opening snapshot' : 're-run'} · SHA-256 ${meta.sha256.slice(0, 16)}…`,
+      `${content.recallNumber} · ${meta.kind === 'opening' ? 'opening snapshot' : 're-run'} · SHA-256 ` +
+        `${meta.sha256.slice(0, 16)}…`,
     ),
     styles: documentStyles,
     content: [
@@ -211,7 +213,9 @@ export async function recallExport(
     body,
     sha256: frozen.meta.sha256,
     contentType: format === 'csv' ? 'text/csv; charset=utf-8' : 'application/pdf',
-    fileName: `${recall.recall_number}-${frozen.meta.kind === 'opening' ? 'opening' : `rerun-${frozen.meta.id}`}.${format}`,
+    fileName:
+      `${recall.recall_number}-${frozen.meta.kind === 'opening' ? 'opening' : `rerun-${frozen.meta.id}`}` +
+      `.${format}`,
   };
 }
 

@@ -13,12 +13,14 @@ async function recallTeam(manager: EntityManager): Promise<string[]> {
 }
 
 const caution =
-  'Decisions on field actions, customer notification and regulatory reporting rest with your quality system; Ingotrace keeps the records and computes the trace.';
+  'Decisions on field actions, customer notification and regulatory reporting rest with your quality system; ' +
+  'Ingotrace keeps the records and computes the trace.';
 
 function summary(trace: ForwardTrace): string[] {
   return [
     `Affected lots: ${trace.lots.length}`,
-    `Units started: ${trace.totals.made}; released: ${trace.totals.released}; shipped: ${trace.totals.shipped}; in plant: ${trace.totals.onHand}`,
+    `Units started: ${trace.totals.made}; released: ${trace.totals.released}; shipped: ` +
+      `${trace.totals.shipped}; in plant: ${trace.totals.onHand}`,
     `Consignees who received affected units: ${trace.consignees.length}`,
     ...trace.consignees
       .slice(0, 50)
@@ -62,13 +64,16 @@ export async function queueRecallWidenedMail(
   held: string[],
 ) {
   const body = [
-    `${recall.rerunBy} re-ran the trace of recall investigation ${recall.recallNumber}; the affected set differs from the one frozen when it was opened.`,
+    `${recall.rerunBy} re-ran the trace of recall investigation ${recall.recallNumber}; the affected set ` +
+      `differs from the one frozen when it was opened.`,
     '',
     `Lots now affected that were not then: ${diff.lotsAdded.map((lot) => lot.lotNumber).join(', ') || 'none'}`,
     `Lots no longer affected: ${diff.lotsRemoved.map((lot) => lot.lotNumber).join(', ') || 'none'}`,
-    `Lots whose status or counts changed: ${diff.lotsChanged.map((change) => change.lot.lotNumber).join(', ') || 'none'}`,
+    `Lots whose status or counts changed: ` +
+      `${diff.lotsChanged.map((change) => change.lot.lotNumber).join(', ') || 'none'}`,
     `New consignees: ${diff.consigneesAdded.map((consignee) => consignee.name).join(', ') || 'none'}`,
-    `Consignees who received more or fewer units: ${diff.consigneesChanged.map((change) => change.consignee.name).join(', ') || 'none'}`,
+    `Consignees who received more or fewer units: ` +
+      `${diff.consigneesChanged.map((change) => change.consignee.name).join(', ') || 'none'}`,
     `Lots placed on hold now: ${held.join(', ') || 'none'}`,
     '',
     `Open the investigation: ${linkTo(`/recalls/${recall.id}`)}`,

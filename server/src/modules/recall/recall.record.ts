@@ -22,7 +22,9 @@ export const recallInvestigationRecordType: SignableRecordType<{ status: string;
     const opening = await snapshotContent(manager, row.id);
     const reruns = await rerunSnapshots(manager, row.id);
     return {
-      title: `${row.mode === 'drill' ? 'Recall drill' : 'Recall investigation'} ${row.recall_number}: ${row.trigger_label}`,
+      title:
+        `${row.mode === 'drill' ? 'Recall drill' : 'Recall investigation'} ${row.recall_number}: ` +
+        `${row.trigger_label}`,
       content: {
         investigation: row.recall_number,
         mode: row.mode,
@@ -47,7 +49,10 @@ export const recallInvestigationRecordType: SignableRecordType<{ status: string;
     const facts = record;
     if (facts.status !== 'open') return 'The investigation is already closed';
     if (facts.activeHolds > 0)
-      return `${facts.activeHolds} lot(s) are still held by this investigation; a QA approver lifts each hold (after its disposition) before it closes`;
+      return (
+        `${facts.activeHolds} lot(s) are still held by this investigation; a QA approver lifts each hold (after ` +
+        `its disposition) before it closes`
+      );
     return null;
   },
   async afterSign(manager, { recordId, signer, reason }) {

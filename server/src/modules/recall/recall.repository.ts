@@ -32,10 +32,16 @@ export interface SnapshotRow {
   content?: string;
 }
 
-const recallSelect = `SELECT r.id, r.recall_number, r.mode, r.status, r.trigger_kind, r.trigger_id, DATE_FORMAT(r.window_from, '%Y-%m-%d') AS window_from,
-                             DATE_FORMAT(r.window_to, '%Y-%m-%d') AS window_to, r.trigger_label, r.reason, r.opened_by AS opened_by_id, p.name AS opened_by, r.opened_at, r.closed_at,
-                             (SELECT JSON_LENGTH(s.content, '$.trace.lots') FROM recall_snapshot s WHERE s.recall_id = r.id ORDER BY s.id DESC LIMIT 1) AS affected_lots,
-                             (SELECT COUNT(*) FROM lot_hold h WHERE h.recall_id = r.id AND h.lifted_at IS NULL) AS active_holds
+const recallSelect = `SELECT r.id, r.recall_number, r.mode, r.status, r.trigger_kind, r.trigger_id,
+    DATE_FORMAT(r.window_from, '%Y-%m-%d') AS window_from,
+                             DATE_FORMAT(r.window_to, '%Y-%m-%d') AS window_to,
+                               r.trigger_label, r.reason, r.opened_by AS opened_by_id, p.name AS opened_by,
+                               r.opened_at, r.closed_at,
+                             (SELECT JSON_LENGTH(s.content, '$.trace.lots') FROM
+                               recall_snapshot s WHERE s.recall_id = r.id ORDER BY s.id DESC LIMIT 1) AS
+                               affected_lots,
+                             (SELECT COUNT(*) FROM lot_hold h WHERE h.recall_id =
+                               r.id AND h.lifted_at IS NULL) AS active_holds
                         FROM recall_investigation r JOIN person p ON p.id = r.opened_by`;
 
 export async function findRecallRow(manager: EntityManager, id: number, lock = false): Promise<RecallRow | null> {
@@ -77,7 +83,8 @@ export async function snapshotRow(
   snapshotId?: number,
 ): Promise<SnapshotRow | null> {
   const rows: SnapshotRow[] = await manager.query(
-    `SELECT s.id, s.kind, s.taken_at, p.name AS taken_by, s.sha256, s.content FROM recall_snapshot s JOIN person p ON p.id = s.taken_by
+    `SELECT s.id, s.kind, s.taken_at, p.name AS taken_by, s.sha256, s.content FROM recall_snapshot s JOIN person p
+        ON p.id = s.taken_by
       WHERE s.recall_id = ? ${snapshotId ? 'AND s.id = ?' : "AND s.kind = 'opening'"} ORDER BY s.id LIMIT 1`,
     snapshotId ? [recallId, snapshotId] : [recallId],
   );
@@ -87,7 +94,8 @@ export async function snapshotRow(
 /** The investigation's re-run snapshots, oldest first, without their content. */
 export function rerunSnapshots(manager: EntityManager, recallId: number): Promise<SnapshotRow[]> {
   return manager.query(
-    `SELECT s.id, s.kind, s.taken_at, p.name AS taken_by, s.sha256 FROM recall_snapshot s JOIN person p ON p.id = s.taken_by
+    `SELECT s.id, s.kind, s.taken_at, p.name AS taken_by, s.sha256 FROM recall_snapshot s JOIN person p ON p.id =
+        s.taken_by
       WHERE s.recall_id = ? AND s.kind = 'rerun' ORDER BY s.id`,
     [recallId],
   );
@@ -138,7 +146,8 @@ export async function drillLotFacts(manager: EntityManager, ids: number[]) {
   const heats = await perLots<{ lot_id: number; heat_number: string; status: string; certificates: string }>(
     manager,
     (marks) =>
-      `SELECT lh.lot_id, h.heat_number, h.status, (SELECT COUNT(*) FROM heat_certificate c WHERE c.heat_id = h.id) AS certificates
+      `SELECT lh.lot_id, h.heat_number, h.status, (SELECT COUNT(*) FROM heat_certificate c WHERE c.heat_id = h.id)
+          AS certificates
          FROM lot_heat lh JOIN heat h ON h.id = lh.heat_id WHERE lh.lot_id IN (${marks}) ORDER BY h.heat_number`,
     ids,
   );
@@ -150,7 +159,8 @@ export async function drillLotFacts(manager: EntityManager, ids: number[]) {
   const children = await perLots<{ parent_lot_id: number; child_lot_id: number; lot_number: string; qty: number }>(
     manager,
     (marks) =>
-      `SELECT k.parent_lot_id, k.child_lot_id, c.lot_number, k.qty FROM lot_link k JOIN production_lot c ON c.id = k.child_lot_id
+      `SELECT k.parent_lot_id, k.child_lot_id, c.lot_number, k.qty FROM lot_link k JOIN production_lot c ON c.id =
+          k.child_lot_id
         WHERE k.parent_lot_id IN (${marks}) ORDER BY c.lot_number`,
     ids,
   );

@@ -157,7 +157,8 @@ export async function openRecall(
     const preview = await forwardTraceIn(manager, input.trigger);
     const year = new Date().getUTCFullYear();
     const prefix = `${input.mode === 'drill' ? 'DR' : 'RC'}-${year}-`;
-    const recallNumber = `${prefix}${String(await nextSequence(manager, 'recall_investigation', prefix)).padStart(4, '0')}`;
+    const sequence = await nextSequence(manager, 'recall_investigation', prefix);
+    const recallNumber = `${prefix}${String(sequence).padStart(4, '0')}`;
     const [kind, triggerId] = (Object.entries(triggerKey) as Array<[RecallRow['trigger_kind'], keyof ForwardStart]>)
       .map(([key, field]) => [key, input.trigger[field]] as const)
       .find(([, value]) => value !== undefined)!;

@@ -35,7 +35,8 @@ export async function queueReleaseMail(
       to: () => addressesOfRole(manager, 'qa-reviewer'),
       subject: `Lot ${lotNumber} awaits your review`,
       body: [
-        `Lot ${lotNumber} (${part}) was submitted for release by ${submitter?.name ?? 'an engineer'} and awaits a QA review.`,
+        `Lot ${lotNumber} (${part}) was submitted for release by ${submitter?.name ?? 'an engineer'} and ` +
+          `awaits a QA review.`,
       ],
     },
     reviewed: {

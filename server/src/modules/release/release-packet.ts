@@ -20,7 +20,8 @@ import { signaturesFor } from '../signatures/signatures.repository';
 import { issuedBarTags, issuedHeats } from './release-dossier.repository';
 
 export const releaseCaution =
-  'Regulated release rests with the firm’s quality system. Ingotrace keeps the records and computes the checks; the decision to release belongs to the firm’s validated procedures and authorised people.';
+  'Regulated release rests with the firm’s quality system. Ingotrace keeps the records and computes the ' +
+  'checks; the decision to release belongs to the firm’s validated procedures and authorised people.';
 
 interface SignatureLine {
   record: string;
@@ -148,7 +149,9 @@ export async function renderReleasePacket(data: PacketData): Promise<Buffer> {
               { text: `Quantity released: ${dossier.quantity ?? 0} units` },
               { text: `GTIN ${dossier.gtin}` },
               {
-                text: `Released ${plantDateTimeSeconds(data.releasedAt, data.timeZone)} (${timeZoneNote(data.timeZone)})`,
+                text:
+                  `Released ${plantDateTimeSeconds(data.releasedAt, data.timeZone)} ` +
+                  `(${timeZoneNote(data.timeZone)})`,
               },
               { text: 'UDI (GS1 element string):', margin: [0, 8, 0, 0], bold: true },
               { text: data.elementString },
@@ -201,7 +204,9 @@ export async function renderReleasePacket(data: PacketData): Promise<Buffer> {
         .map(
           (heat) =>
             ({
-              text: `Heat ${heat.heat} was accepted although some items cannot be evaluated, on this signed justification: ${heat.justification}`,
+              text:
+                `Heat ${heat.heat} was accepted although some items cannot be evaluated, on this signed ` +
+                `justification: ${heat.justification}`,
               fontSize: 8,
               bold: true,
               color: '#7a4b00',
@@ -213,7 +218,8 @@ export async function renderReleasePacket(data: PacketData): Promise<Buffer> {
         text:
           data.auditTrail.reviewedThroughSeq === null
             ? 'No review of the audit trail is recorded.'
-            : `The QA review covered ${data.auditTrail.events.length} audit trail event(s) on this lot and the lots its units came through, up to event ${data.auditTrail.reviewedThroughSeq}.`,
+            : `The QA review covered ${data.auditTrail.events.length} audit trail event(s) on this lot and the ` +
+              `lots its units came through, up to event ${data.auditTrail.reviewedThroughSeq}.`,
         margin: [0, 0, 0, 4],
       },
       table(

@@ -78,7 +78,10 @@ export const lotReleaseRecordType: SignableRecordType<{
       if (facts.status !== 'reviewed') return `The lot is ${facts.status}, not reviewed`;
       if (!facts.reviewedCurrent) return 'The lot changed after it was reviewed; it must be reviewed again';
       if (facts.trailAfterReview.length) {
-        return `The lot's audit trail has ${facts.trailAfterReview.length} event(s) after the review (${facts.trailAfterReview.join('; ')}); it must be reviewed again`;
+        return (
+          `The lot's audit trail has ${facts.trailAfterReview.length} event(s) after the review ` +
+          `(${facts.trailAfterReview.join('; ')}); it must be reviewed again`
+        );
       }
       if (!facts.ready) return 'The lot is no longer ready for release; see its checklist';
     }

@@ -119,7 +119,8 @@ export async function releaseQueueCounts(manager: EntityManager): Promise<Record
   const [byStatus, [returned]]: [Array<{ status: string; total: string }>, Array<{ total: string }>] =
     await Promise.all([
       manager.query(
-        "SELECT status, COUNT(*) AS total FROM production_lot WHERE status IN ('submitted', 'reviewed', 'released') GROUP BY status",
+        "SELECT status, COUNT(*) AS total FROM production_lot WHERE status IN ('submitted', 'reviewed', " +
+          "'released') GROUP BY status",
       ),
       manager.query(`SELECT COUNT(*) AS total FROM production_lot l WHERE l.status = 'open' ${returnedClause}`),
     ]);

@@ -71,7 +71,8 @@ export async function submitForRelease(
     const failing = dossier.readiness.items.filter((item) => item.verdict === 'fail');
     if (failing.length) {
       throw AppError.rule(
-        `Lot ${lot.lotNumber} is not ready for release: ${failing.map((item) => `${item.title.toLowerCase()} (${item.why})`).join('; ')}`,
+        `Lot ${lot.lotNumber} is not ready for release: ` +
+          `${failing.map((item) => `${item.title.toLowerCase()} (${item.why})`).join('; ')}`,
         Object.fromEntries(failing.map((item) => [item.key, item.why])),
       );
     }

@@ -44,7 +44,8 @@ export async function newestSignaturesOfType(
 
 export async function insertSignature(manager: EntityManager, row: Omit<SignatureRow, 'id'>): Promise<number> {
   const result: { insertId: number } = await manager.query(
-    `INSERT INTO electronic_signature (record_type, record_id, meaning, reason, signer_id, signer_name, signer_role, signed_at, signed_at_text,
+    `INSERT INTO electronic_signature (record_type, record_id, meaning, reason, signer_id, signer_name,
+        signer_role, signed_at, signed_at_text,
        content_hash, content_json, reauthentication_id, authn_instant, withdraws_signature_id, ledger_seq)
      VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
     [

@@ -155,8 +155,10 @@ export async function signRecord(
     if (trailThroughSeq !== undefined && request.trailThroughSeq !== trailThroughSeq) {
       throw AppError.rule(
         request.trailThroughSeq === undefined
-          ? `This signature covers the audit trail (through event #${trailThroughSeq}); prepare it again to see how far the trail goes`
-          : `The audit trail gained events while you were signing (now through event #${trailThroughSeq}, you were shown through #${request.trailThroughSeq}); review them and sign anew`,
+          ? `This signature covers the audit trail (through event #${trailThroughSeq}); prepare it again to see ` +
+              `how far the trail goes`
+          : `The audit trail gained events while you were signing (now through event #${trailThroughSeq}, you ` +
+              `were shown through #${request.trailThroughSeq}); review them and sign anew`,
         { trailThroughSeq: 'Outdated' },
       );
     }

@@ -12,8 +12,10 @@ function notFoundPage(res: Response, title: string, detail: string): void {
     .status(404)
     .type('html')
     .send(
-      `<!doctype html><html lang="en"><head><meta charset="utf-8"><title>${escapeHtml(title)} · Ingotrace</title></head>` +
-        `<body><main><h1>${escapeHtml(title)}</h1><p>${escapeHtml(detail)}</p><p><a href="/">Go to Ingotrace</a></p></main></body></html>`,
+      `<!doctype html><html lang="en"><head><meta charset="utf-8"><title>${escapeHtml(title)} · ` +
+        `Ingotrace</title></head>` +
+        (`<body><main><h1>${escapeHtml(title)}</h1><p>${escapeHtml(detail)}</p><p><a href="/">Go to ` +
+          `Ingotrace</a></p></main></body></html>`),
     );
 }
 

@@ -15,7 +15,8 @@ async function rows<T>(manager: EntityManager, sql: string, ids: number[]): Prom
 export async function relationsOfLots(manager: EntityManager, lotIds: number[]): Promise<GenealogyRelations> {
   const issues = await rows<{ pieceId: number; lotId: number }>(
     manager,
-    "SELECT DISTINCT bar_piece_id AS pieceId, lot_id AS lotId FROM material_movement WHERE kind = 'issue' AND lot_id IN (?)",
+    "SELECT DISTINCT bar_piece_id AS pieceId, lot_id AS lotId FROM material_movement WHERE kind = 'issue' AND " +
+      'lot_id IN (?)',
     lotIds,
   );
   const pieceIds = await ancestorPieces(manager, [...new Set(issues.map((issue) => issue.pieceId))]);
@@ -26,7 +27,8 @@ export async function relationsOfLots(manager: EntityManager, lotIds: number[]):
   );
   const heats = await rows<{ id: number; heatNumber: string; supplierId: number; status: string; specId: string }>(
     manager,
-    'SELECT id, heat_number AS heatNumber, supplier_id AS supplierId, status, spec_id AS specId FROM heat WHERE id IN (?)',
+    'SELECT id, heat_number AS heatNumber, supplier_id AS supplierId, status, spec_id AS specId FROM heat ' +
+      'WHERE id IN (?)',
     [...new Set(pieces.map((piece) => piece.heatId))],
   );
   const suppliers = await rows<{ id: number; name: string }>(manager, 'SELECT id, name FROM supplier WHERE id IN (?)', [
@@ -41,12 +43,14 @@ export async function relationsOfLots(manager: EntityManager, lotIds: number[]):
   );
   const lotLinks = await rows<{ parentId: number; childId: number; kind: 'split' | 'merge'; qty: number }>(
     manager,
-    'SELECT parent_lot_id AS parentId, child_lot_id AS childId, kind, qty FROM lot_link WHERE parent_lot_id IN (?) AND child_lot_id IN (?)',
+    'SELECT parent_lot_id AS parentId, child_lot_id AS childId, kind, qty FROM lot_link WHERE parent_lot_id ' +
+      'IN (?) AND child_lot_id IN (?)',
     lotIds,
   );
   const runLots = await rows<{ runId: number; lotId: number }>(
     manager,
-    'SELECT DISTINCT process_run_id AS runId, lot_id AS lotId FROM lot_operation WHERE process_run_id IS NOT NULL AND lot_id IN (?)',
+    'SELECT DISTINCT process_run_id AS runId, lot_id AS lotId FROM lot_operation WHERE process_run_id IS NOT ' +
+      'NULL AND lot_id IN (?)',
     lotIds,
   );
   const runs = await rows<{ id: number; runNumber: string; kind: string; inWindow: number }>(
@@ -56,7 +60,8 @@ export async function relationsOfLots(manager: EntityManager, lotIds: number[]):
   );
   const shipments = await rows<{ lotId: number; consigneeId: number; units: string }>(
     manager,
-    'SELECT lot_id AS lotId, consignee_id AS consigneeId, SUM(qty) AS units FROM shipment WHERE lot_id IN (?) GROUP BY lot_id, consignee_id',
+    'SELECT lot_id AS lotId, consignee_id AS consigneeId, SUM(qty) AS units FROM shipment WHERE lot_id IN (?) ' +
+      'GROUP BY lot_id, consignee_id',
     lotIds,
   );
   const consignees = await rows<{ id: number; name: string; country: string }>(

@@ -13,7 +13,8 @@ async function reachable(
 ): Promise<number[]> {
   if (!ids.length) return [];
   const rows: Array<{ id: number }> = await manager.query(
-    `WITH RECURSIVE reached (id) AS (SELECT id FROM ${walk.table} WHERE id IN (${marks(ids)}) UNION ${walk.step}) SELECT id FROM reached`,
+    `WITH RECURSIVE reached (id) AS (SELECT id FROM ${walk.table} WHERE id IN (${marks(ids)}) UNION ` +
+      `${walk.step}) SELECT id FROM reached`,
     ids,
   );
   return rows.map((row) => row.id);

@@ -18,26 +18,33 @@ export async function findTraceStarts(manager: EntityManager, text: string): Pro
   const gtin = digits.length >= 8 && digits.length <= 14 ? digits.padStart(14, '0') : null;
   const [heats, pieces, runs, suppliers, parts] = await Promise.all([
     manager.query(
-      `SELECT h.id, h.heat_number AS label, CONCAT('Heat from ', s.name, ' · ', h.spec_id) AS detail FROM heat h JOIN supplier s ON s.id = h.supplier_id
+      `SELECT h.id, h.heat_number AS label, CONCAT('Heat from ', s.name, ' · ', h.spec_id) AS detail FROM heat h
+          JOIN supplier s ON s.id = h.supplier_id
         WHERE h.heat_number LIKE ? ORDER BY h.heat_number LIMIT ?`,
       [pattern, PER_KIND],
     ) as Promise<Array<{ id: number; label: string; detail: string }>>,
     manager.query(
-      `SELECT b.id, b.tag AS label, CONCAT('Bar of heat ', h.heat_number) AS detail FROM bar_piece b JOIN heat h ON h.id = b.heat_id
+      `SELECT b.id, b.tag AS label, CONCAT('Bar of heat ', h.heat_number) AS detail FROM bar_piece b JOIN heat h ON
+          h.id = b.heat_id
         WHERE b.tag LIKE ? ORDER BY b.tag LIMIT ?`,
       [pattern, PER_KIND],
     ) as Promise<Array<{ id: number; label: string; detail: string }>>,
     manager.query(
-      `SELECT id, run_number AS label, CONCAT(IF(kind = 'passivation', 'Passivation run', 'Cleaning run'), ' · ', method_id) AS detail FROM process_run WHERE run_number LIKE ? ORDER BY run_number DESC LIMIT ?`,
+      `SELECT id, run_number AS label, CONCAT(IF(kind = 'passivation', 'Passivation run', 'Cleaning run'), ' ` +
+        `· ', method_id) AS detail FROM process_run WHERE run_number LIKE ? ORDER BY run_number DESC LIMIT ?`,
       [pattern, PER_KIND],
     ) as Promise<Array<{ id: number; label: string; detail: string }>>,
     manager.query(
-      `SELECT id, name AS label, CONCAT('Supplier, ', country, ' · ', CASE approval WHEN 'approved' THEN 'approved' WHEN 'conditional' THEN 'conditionally approved' ELSE 'disqualified' END) AS detail FROM supplier WHERE name LIKE ? ORDER BY name LIMIT ?`,
+      `SELECT id, name AS label, CONCAT('Supplier, ', country, ' · ', CASE approval WHEN 'approved' THEN ` +
+        `'approved' WHEN 'conditional' THEN 'conditionally approved' ELSE 'disqualified' END) AS detail FROM ` +
+        `supplier WHERE name LIKE ? ORDER BY name LIMIT ?`,
       [pattern, PER_KIND],
     ) as Promise<Array<{ id: number; label: string; detail: string }>>,
     manager.query(
-      `SELECT id, CONCAT(part_number, ' rev ', revision) AS label, CONCAT('Part · ', description, ' · GTIN ', gtin) AS detail FROM part
-        WHERE part_number LIKE ? OR description LIKE ? OR gtin LIKE ? OR gtin = ? ORDER BY part_number, revision LIMIT ?`,
+      `SELECT id, CONCAT(part_number, ' rev ', revision) AS label, CONCAT('Part · ', description, ' · GTIN ', gtin)
+          AS detail FROM part
+        WHERE part_number LIKE ? OR description LIKE ? OR gtin LIKE ? OR gtin = ? ORDER BY part_number,
+          revision LIMIT ?`,
       [pattern, pattern, pattern, gtin ?? '', PER_KIND],
     ) as Promise<Array<{ id: number; label: string; detail: string }>>,
   ]);

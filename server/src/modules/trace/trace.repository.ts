@@ -9,7 +9,10 @@ const marks = (values: unknown[]) => values.map(() => '?').join(',');
 
 // Each lot with its part, quantities made and released, units shipped and the lots it came from.
 // Only a lot split or merged from others has parents; asking only those saves a lookup per lot.
-export const parentsColumn = `CASE WHEN l.origin <> 'bar' THEN (SELECT GROUP_CONCAT(pl.lot_number ORDER BY pl.lot_number SEPARATOR ',') FROM lot_link k JOIN production_lot pl ON pl.id = k.parent_lot_id WHERE k.child_lot_id = l.id) END AS parents`;
+export const parentsColumn =
+  `CASE WHEN l.origin <> 'bar' THEN (SELECT GROUP_CONCAT(pl.lot_number ORDER BY pl.lot_number SEPARATOR ',') ` +
+  `FROM lot_link k JOIN production_lot pl ON pl.id = k.parent_lot_id WHERE k.child_lot_id = l.id) END AS ` +
+  `parents`;
 const lotFactColumns = `l.id, l.lot_number, p.part_number, l.status, l.origin, l.start_qty, l.released_qty,
   (SELECT SUM(qty) FROM shipment s WHERE s.lot_id = l.id) AS shipped,
   ${parentsColumn}`;
@@ -35,7 +38,8 @@ export async function pieceIdsTagged(manager: EntityManager, tag: string): Promi
 /** The seed's lots and every lot their units came through (a recursive walk up splits and merges). */
 export async function lineageOf(manager: EntityManager, seed: string, parameters: unknown[]): Promise<number[]> {
   const rows: Array<{ id: number }> = await manager.query(
-    `WITH RECURSIVE lineage (id) AS (${seed} UNION SELECT k.parent_lot_id FROM lot_link k JOIN lineage ON k.child_lot_id = lineage.id)
+    `WITH RECURSIVE lineage (id) AS (${seed} UNION SELECT k.parent_lot_id FROM lot_link k JOIN lineage ON
+        k.child_lot_id = lineage.id)
      SELECT id FROM lineage`,
     parameters,
   );
@@ -63,43 +67,54 @@ export function backwardFacts(
 > {
   const lots = marks(lineage);
   const heats = `SELECT lh.heat_id FROM lot_heat lh WHERE lh.lot_id IN (${lots})`;
-  const runs = `SELECT o.process_run_id FROM lot_operation o WHERE o.lot_id IN (${lots}) AND o.process_run_id IS NOT NULL`;
+  const runs =
+    `SELECT o.process_run_id FROM lot_operation o WHERE ` + `o.lot_id IN (${lots}) AND o.process_run_id IS NOT NULL`;
   // Independent reads, sent side by side on separate pooled connections.
   return Promise.all([
     manager.query(
-      `SELECT ${lotFactColumns} FROM production_lot l JOIN part p ON p.id = l.part_id WHERE l.id IN (${lots}) ORDER BY l.lot_number`,
+      `SELECT ${lotFactColumns} FROM production_lot l JOIN part p ON p.id = l.part_id WHERE l.id IN (${lots}) ` +
+        `ORDER BY l.lot_number`,
       lineage,
     ) as Promise<LotFactRow[]>,
     manager.query(
-      `WITH RECURSIVE issued (id) AS (SELECT bar_piece_id FROM material_movement WHERE kind = 'issue' AND lot_id IN (${lots})
+      `WITH RECURSIVE issued (id) AS (SELECT bar_piece_id FROM material_movement WHERE kind = 'issue' AND lot_id IN
+          (${lots})
          UNION SELECT b.parent_id FROM bar_piece b JOIN issued ON b.id = issued.id WHERE b.parent_id IS NOT NULL)
-       SELECT b.id, b.tag, b.heat_id AS heatId, parent.tag AS parentTag FROM issued JOIN bar_piece b ON b.id = issued.id LEFT JOIN bar_piece parent ON parent.id = b.parent_id ORDER BY b.tag`,
+       SELECT b.id, b.tag, b.heat_id AS heatId, parent.tag AS parentTag FROM issued JOIN bar_piece b ON
+          b.id = issued.id LEFT JOIN bar_piece parent ON parent.id = b.parent_id ORDER BY b.tag`,
       lineage,
     ) as Promise<BackwardTrace['barPieces']>,
     manager.query(
-      `SELECT h.id, h.heat_number AS heatNumber, h.status, h.spec_id AS specId, su.id AS supplierId, su.name AS supplier, su.approval,
+      `SELECT h.id, h.heat_number AS heatNumber, h.status, h.spec_id AS specId, su.id AS supplierId, su.name AS
+          supplier, su.approval,
               ${latestVerdictSql('h.id')} AS verdict
          FROM heat h JOIN supplier su ON su.id = h.supplier_id WHERE h.id IN (${heats}) ORDER BY h.heat_number`,
       lineage,
     ) as Promise<BackwardTrace['heats']>,
     manager.query(
-      `SELECT c.heat_id AS heatId, d.id AS documentId, d.original_name AS name, d.sha256 FROM heat_certificate c JOIN certificate_document d ON d.id = c.document_id WHERE c.heat_id IN (${heats}) ORDER BY d.id`,
+      `SELECT c.heat_id AS heatId, d.id AS documentId, d.original_name AS name, d.sha256 FROM ` +
+        `heat_certificate c JOIN certificate_document d ON d.id = c.document_id WHERE c.heat_id IN (${heats}) ` +
+        `ORDER BY d.id`,
       lineage,
     ) as Promise<BackwardTrace['certificates']>,
     manager.query(
-      `SELECT r.id, r.run_number AS runNumber, r.kind, r.method_id AS methodId, r.in_window AS inWindow, r.run_at AS runAt FROM process_run r WHERE r.id IN (${runs}) ORDER BY r.run_at`,
+      `SELECT r.id, r.run_number AS runNumber, r.kind, r.method_id AS methodId, r.in_window AS inWindow, ` +
+        `r.run_at AS runAt FROM process_run r WHERE r.id IN (${runs}) ORDER BY r.run_at`,
       lineage,
     ) as Promise<RunFact[]>,
     manager.query(
       `SELECT id, nc_number AS ncNumber, subject_type AS subjectType, status, disposition FROM nonconformance
-        WHERE lot_id IN (${lots}) OR (subject_type = 'heat' AND subject_id IN (${heats})) OR (subject_type = 'process-run' AND subject_id IN (${runs})) ORDER BY nc_number`,
+        WHERE lot_id IN (${lots}) OR (subject_type = 'heat' AND subject_id IN (${heats})) OR (subject_type
+          = 'process-run' AND subject_id IN (${runs})) ORDER BY nc_number`,
       [...lineage, ...lineage, ...lineage],
     ) as Promise<BackwardTrace['nonconformances']>,
     // Signatures name their record by a text id.
     manager.query(
-      `SELECT record_type AS recordType, record_id AS recordId, meaning, signed_at_text AS manifestation, content_hash AS contentHash FROM electronic_signature
+      `SELECT record_type AS recordType, record_id AS recordId, meaning, signed_at_text AS manifestation,
+          content_hash AS contentHash FROM electronic_signature
         WHERE (record_type = 'lot-release' AND record_id IN (${lots}))
-           OR (record_type = 'heat' AND record_id IN (SELECT CAST(lh.heat_id AS CHAR CHARACTER SET utf8mb4) COLLATE utf8mb4_unicode_ci FROM lot_heat lh WHERE lh.lot_id IN (${lots}))) ORDER BY id`,
+           OR (record_type = 'heat' AND record_id IN (SELECT CAST(lh.heat_id AS CHAR CHARACTER SET
+             utf8mb4) COLLATE utf8mb4_unicode_ci FROM lot_heat lh WHERE lh.lot_id IN (${lots}))) ORDER BY id`,
       [...lineage.map(String), ...lineage],
     ) as Promise<BackwardTrace['signatures']>,
   ]);
@@ -126,7 +141,8 @@ export function forwardReads(
 > {
   const reached = includesDescendants
     ? `WITH reached (id) AS (${seed})`
-    : `WITH RECURSIVE reached (id) AS (${seed} UNION SELECT k.child_lot_id FROM lot_link k JOIN reached ON k.parent_lot_id = reached.id)`;
+    : `WITH RECURSIVE reached (id) AS (${seed} UNION SELECT k.child_lot_id FROM lot_link k JOIN reached ON ` +
+      `k.parent_lot_id = reached.id)`;
   return Promise.all([
     manager.query(
       `${reached}
@@ -135,11 +151,13 @@ export function forwardReads(
       parameters,
     ),
     manager.query(
-      `${reached} SELECT s.lot_id AS lotId, s.consignee_id AS consigneeId, s.qty FROM reached r JOIN shipment s ON s.lot_id = r.id`,
+      `${reached} SELECT s.lot_id AS lotId, s.consignee_id AS consigneeId, s.qty FROM reached r JOIN shipment ` +
+        `s ON s.lot_id = r.id`,
       parameters,
     ),
     manager.query(
-      `${reached} SELECT k.parent_lot_id AS lotId, SUM(k.qty) AS qty FROM reached r JOIN lot_link k ON k.parent_lot_id = r.id GROUP BY k.parent_lot_id`,
+      `${reached} SELECT k.parent_lot_id AS lotId, SUM(k.qty) AS qty FROM reached r JOIN lot_link k ON ` +
+        `k.parent_lot_id = r.id GROUP BY k.parent_lot_id`,
       parameters,
     ),
   ]);

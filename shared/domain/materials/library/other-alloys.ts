@@ -15,7 +15,8 @@ const iso58321Source: ValueSource = {
 };
 const iso58321Index: ValueSource = {
   reference:
-    'BSSA, "Selection of stainless steels for surgical implants": ISO 5832-1 (1997) requires 3.3 Mo + Cr ≥ 26 for compositions D and E',
+    'BSSA, "Selection of stainless steels for surgical implants": ISO 5832-1 (1997) requires 3.3 Mo + Cr ≥ 26 ' +
+    'for compositions D and E',
   confidence: 'secondary',
 };
 const f1537Source: ValueSource = {
@@ -39,7 +40,8 @@ export const astmF138: Specification = {
     source: { reference: 'the title (bar and wire); conditions unverified', confidence: 'unconfirmed' },
   },
   notes: [
-    'Mn, Si, the Cr + 3.3 × Mo requirement and all mechanical minima are unverified for F138: check them. Extra-hard material has no minima in the library and cannot be evaluated until the firm adds them.',
+    'Mn, Si, the Cr + 3.3 × Mo requirement and all mechanical minima are unverified for F138: check them. ' +
+      'Extra-hard material has no minima in the library and cannot be evaluated until the firm adds them.',
   ],
   grades: [
     {
@@ -109,7 +111,8 @@ export const iso58321: Specification = {
   },
   notes: [
     'Values are from the 1997 edition as described by BSSA; the current edition may differ.',
-    'The library holds no mechanical requirements for ISO 5832-1: every heat needs the firm to add them, or a QA approver’s signed justification, before it can be accepted.',
+    'The library holds no mechanical requirements for ISO 5832-1: every heat needs the firm to add them, or a ' +
+      'QA approver’s signed justification, before it can be accepted.',
     'Whether the Cr + 3.3 × Mo minimum is written 26 or 26.0 is unverified.',
   ],
   grades: [
@@ -175,7 +178,8 @@ export const astmF1537: Specification = {
   },
   notes: [
     'Only Alloy 1 (low carbon) is shipped. Mechanical minima depend on condition and are unverified.',
-    'Cr 26–30 and Mo 5–7 are shown as whole numbers by the sources; whether the standard writes them with decimals is unverified.',
+    'Cr 26–30 and Mo 5–7 are shown as whole numbers by the sources; whether the standard writes them with ' +
+      'decimals is unverified.',
   ],
   grades: [
     {
@@ -217,7 +221,8 @@ export const astmF2063: Specification = {
     },
   },
   notes: [
-    'Every composition limit and mechanical minimum here is unverified: check before use. Transformation temperature is by agreement (DSC).',
+    'Every composition limit and mechanical minimum here is unverified: check before use. Transformation ' +
+      'temperature is by agreement (DSC).',
   ],
   grades: [
     {

@@ -9,7 +9,8 @@ const f67Source: ValueSource = {
 };
 const f67Mechanical: ValueSource = {
   reference:
-    'ASTM F67 annealed bar (3.18 mm and over), billet and forging minima as reproduced by bktitanium, titanium.net and gsalloy',
+    'ASTM F67 annealed bar (3.18 mm and over), billet and forging minima as reproduced by bktitanium, ' +
+    'titanium.net and gsalloy',
   confidence: 'secondary',
 };
 const f67Scope: ValueSource = {
@@ -18,12 +19,14 @@ const f67Scope: ValueSource = {
 };
 const f136Source: ValueSource = {
   reference:
-    'ASTM F136 Table 1 as reproduced by bktitanium (edition not stated; H 0.012 vs 0.0125 and N 0.05 vs 0.08 differ between sources)',
+    'ASTM F136 Table 1 as reproduced by bktitanium (edition not stated; H 0.012 vs 0.0125 and N 0.05 vs 0.08 ' +
+    'differ between sources)',
   confidence: 'secondary',
 };
 const f136Mechanical: ValueSource = {
   reference:
-    'ASTM F136 annealed bar, wire and forging minima by size as reproduced by bktitanium; headline values also in Materials 2021;14(3):658 Table 4',
+    'ASTM F136 annealed bar, wire and forging minima by size as reproduced by bktitanium; headline values ' +
+    'also in Materials 2021;14(3):658 Table 4',
   confidence: 'secondary',
 };
 const f1295Weak: ValueSource = {
@@ -32,7 +35,8 @@ const f1295Weak: ValueSource = {
 };
 const f1295Scope: ValueSource = {
   reference:
-    'ASTM F1295-16 scope (ASTM abstract; Document Center): annealed, cold-worked or hot-worked bar, wire, sheet, strip and plate',
+    'ASTM F1295-16 scope (ASTM abstract; Document Center): annealed, cold-worked or hot-worked bar, wire, ' +
+    'sheet, strip and plate',
   confidence: 'secondary',
 };
 const unverified: ValueSource = {
@@ -82,7 +86,9 @@ export const astmF67: Specification = {
     source: f67Scope,
   },
   notes: [
-    'Mechanical minima here are for annealed bar of 3.18 mm and over, billet and forgings; sheet, strip, plate, wire and thinner bar have their own tables, not in the library: such heats cannot be evaluated until the firm adds them.',
+    'Mechanical minima here are for annealed bar of 3.18 mm and over, billet and forgings; sheet, strip, ' +
+      'plate, wire and thinner bar have their own tables, not in the library: such heats cannot be evaluated ' +
+      'until the firm adds them.',
   ],
   grades: [
     {
@@ -158,7 +164,8 @@ export const astmF136: Specification = {
   },
   notes: [
     'Beta transus is measured and reported per heat; it is not computed from composition.',
-    'Only annealed bar, wire and forgings up to 101.60 mm are in the library; other forms and sizes cannot be evaluated until the firm adds them.',
+    'Only annealed bar, wire and forgings up to 101.60 mm are in the library; other forms and sizes cannot be ' +
+      'evaluated until the firm adds them.',
   ],
   grades: [
     {
@@ -215,8 +222,11 @@ export const astmF1295: Specification = {
     source: f1295Scope,
   },
   notes: [
-    'Composition limits are weakly sourced; the written form of Al 5.5–6.5 and Nb 6.5–7.5 (one or two decimals) is unverified, and Ta and the mechanical minima are unverified: check every value against your licensed copy.',
-    'Only annealed bar has mechanical minima in the library; other forms and conditions cannot be evaluated until the firm adds them.',
+    'Composition limits are weakly sourced; the written form of Al 5.5–6.5 and Nb 6.5–7.5 (one or two ' +
+      'decimals) is unverified, and Ta and the mechanical minima are unverified: check every value against ' +
+      'your licensed copy.',
+    'Only annealed bar has mechanical minima in the library; other forms and conditions cannot be evaluated ' +
+      'until the firm adds them.',
   ],
   grades: [
     {

@@ -59,15 +59,18 @@ describe('roles from the identity provider', () => {
     expect(rolesFromGroups(['approvers', 'qa-team', 'canteen', 'typo'], map)).toEqual(['qa-approver', 'qa-reviewer']);
     expect(unknownRolesInMap(map)).toEqual(['qa-reveiwer']);
   });
-  it('when an administrator withdrew a role, then it is not effective even though the identity provider grants it', () => {
-    expect(
-      effectiveRoles(
-        [
-          { role: 'qa-reviewer', source: 'identity-provider' },
-          { role: 'auditor', source: 'administrator' },
-        ],
-        ['qa-reviewer'],
-      ),
-    ).toEqual(['auditor']);
-  });
+  it(
+    'when an administrator withdrew a role, then it is not effective even though the identity provider grants ' + 'it',
+    () => {
+      expect(
+        effectiveRoles(
+          [
+            { role: 'qa-reviewer', source: 'identity-provider' },
+            { role: 'auditor', source: 'administrator' },
+          ],
+          ['qa-reviewer'],
+        ),
+      ).toEqual(['auditor']);
+    },
+  );
 });

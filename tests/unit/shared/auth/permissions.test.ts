@@ -4,13 +4,17 @@ import { separationOfDutiesRefusal } from '@shared/auth/separation-of-duties';
 import { reauthenticationRefusal } from '@shared/auth/reauthentication-rules';
 
 describe('permissions', () => {
-  it('when a person holds several roles, then they may do what any of them allows, acting in the role that allows it', () => {
-    expect(rolesAllow(['manufacturing-engineer'], 'people.manage')).toBe(false);
-    expect(rolesAllow(['manufacturing-engineer', 'administrator'], 'people.manage')).toBe(true);
-    expect(actingRole(['auditor', 'administrator'], 'people.manage')).toBe('administrator');
-    expect(actingRole(['auditor'], 'people.manage')).toBeNull();
-    expect(allowedActions([])).toEqual([]);
-  });
+  it(
+    'when a person holds several roles, then they may do what any of them allows, acting in the role that ' +
+      'allows it',
+    () => {
+      expect(rolesAllow(['manufacturing-engineer'], 'people.manage')).toBe(false);
+      expect(rolesAllow(['manufacturing-engineer', 'administrator'], 'people.manage')).toBe(true);
+      expect(actingRole(['auditor', 'administrator'], 'people.manage')).toBe('administrator');
+      expect(actingRole(['auditor'], 'people.manage')).toBeNull();
+      expect(allowedActions([])).toEqual([]);
+    },
+  );
 });
 
 describe('separation of duties', () => {

@@ -3,11 +3,15 @@ import { describe, expect, it } from 'vitest';
 import { gs1CheckDigit, gtinProblem, lotNumberProblem, toGtin14 } from '@shared/domain/gs1/gtin';
 
 describe('GTIN check digits (GS1 mod-10)', () => {
-  it('[GS1-CHECK-DIGIT] when the GS1 worked example 0952123454321 is checked, then the weighted sum is 77 and the check digit 3', () => {
-    // Source: GS1 check digit rule (gs1.org calculator); GTIN 09521234543213 as used in GS1 Digital Link examples.
-    expect(gs1CheckDigit('0952123454321')).toBe(3);
-    expect(gtinProblem('09521234543213')).toBeNull();
-  });
+  it(
+    '[GS1-CHECK-DIGIT] when the GS1 worked example 0952123454321 is checked, then the weighted sum is 77 and ' +
+      'the check digit 3',
+    () => {
+      // Source: GS1 check digit rule (gs1.org calculator); GTIN 09521234543213 as used in GS1 Digital Link examples.
+      expect(gs1CheckDigit('0952123454321')).toBe(3);
+      expect(gtinProblem('09521234543213')).toBeNull();
+    },
+  );
   it('when the published examples are checked, then their check digits agree', () => {
     // Source: gs1.org check digit calculator example 629104150021 → 6291041500213.
     expect(gs1CheckDigit('629104150021')).toBe(3);
@@ -27,15 +31,19 @@ describe('GTIN check digits (GS1 mod-10)', () => {
   it('when a GTIN-13 is padded, then it becomes the 14 digits used in element strings', () => {
     expect(toGtin14('6291041500213')).toBe('06291041500213');
   });
-  it('when bwip-js (a port of BWIPP, which lints GS1 data) encodes our GTINs, then it accepts the valid ones and refuses a wrong check digit', async () => {
-    // Reference library from the registry as an outside oracle for the check digit.
-    await expect(
-      bwipjs.toBuffer({ bcid: 'gs1datamatrix', text: '(01)09521234543213(10)ABC123' }),
-    ).resolves.toBeInstanceOf(Buffer);
-    await expect(bwipjs.toBuffer({ bcid: 'gs1datamatrix', text: '(01)09521234543214(10)ABC123' })).rejects.toThrow(
-      /GS1badChecksum/,
-    );
-  });
+  it(
+    'when bwip-js (a port of BWIPP, which lints GS1 data) encodes our GTINs, then it accepts the valid ones and ' +
+      'refuses a wrong check digit',
+    async () => {
+      // Reference library from the registry as an outside oracle for the check digit.
+      await expect(
+        bwipjs.toBuffer({ bcid: 'gs1datamatrix', text: '(01)09521234543213(10)ABC123' }),
+      ).resolves.toBeInstanceOf(Buffer);
+      await expect(bwipjs.toBuffer({ bcid: 'gs1datamatrix', text: '(01)09521234543214(10)ABC123' })).rejects.toThrow(
+        /GS1badChecksum/,
+      );
+    },
+  );
 });
 
 describe('lot numbers as GS1 AI 10 values', () => {

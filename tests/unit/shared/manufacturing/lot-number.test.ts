@@ -11,14 +11,18 @@ describe('lot numbers from a pattern', () => {
     expect(lotNumberParts('L{YYYY}{MM}-{SEQ:3}X', context)).toEqual({ prefix: 'L202603-', suffix: 'X', width: 3 });
     expect(formatLotNumber('L{YYYY}{MM}-{SEQ:3}X', context, 12)).toBe('L202603-012X');
   });
-  it('when a pattern has no sequence, an unknown token or makes numbers over 20 characters, then the problem is named', () => {
-    expect(lotPatternProblem('{PART}-{YY}', 'P1')).toBe('Use {SEQ} or {SEQ:n} exactly once');
-    expect(lotPatternProblem('{PART}-{WEEK}{SEQ:3}', 'P1')).toBe(
-      'Only {YYYY}, {YY}, {MM}, {DD}, {PART} and {SEQ:n} may appear in braces',
-    );
-    expect(lotPatternProblem('{PART}-{YYYY}{MM}{DD}-{SEQ:5}', 'KIW-BS-3520')).toBe(
-      'A lot number has 1 to 20 characters (GS1 AI 10)',
-    );
-    expect(lotPatternProblem('{YY}{MM}-{SEQ:4}', 'KIW-BS-3520')).toBeNull();
-  });
+  it(
+    'when a pattern has no sequence, an unknown token or makes numbers over 20 characters, then the problem is ' +
+      'named',
+    () => {
+      expect(lotPatternProblem('{PART}-{YY}', 'P1')).toBe('Use {SEQ} or {SEQ:n} exactly once');
+      expect(lotPatternProblem('{PART}-{WEEK}{SEQ:3}', 'P1')).toBe(
+        'Only {YYYY}, {YY}, {MM}, {DD}, {PART} and {SEQ:n} may appear in braces',
+      );
+      expect(lotPatternProblem('{PART}-{YYYY}{MM}{DD}-{SEQ:5}', 'KIW-BS-3520')).toBe(
+        'A lot number has 1 to 20 characters (GS1 AI 10)',
+      );
+      expect(lotPatternProblem('{YY}{MM}-{SEQ:4}', 'KIW-BS-3520')).toBeNull();
+    },
+  );
 });

@@ -4,15 +4,19 @@ import { reconcileMaterial } from '@shared/domain/manufacturing/material-reconci
 // Worked by hand (common practice, no source): consumed = issued − returned; expected = units × (length + cut-off).
 describe('bar length reconciliation', () => {
   const part = { unitLengthMm: '60', cutoffAllowanceMm: '4.5', tolerancePct: '2' };
-  it('when 3000 mm is issued, 412 mm returned and 40 units started, then 2588 against 2580 mm is 8 mm (0.31 %) within 2 %', () => {
-    expect(reconcileMaterial({ ...part, issuedMm: '3000', returnedMm: '412', unitsStarted: 40 })).toMatchObject({
-      verdict: 'reconciled',
-      consumedMm: '2588.00',
-      expectedMm: '2580.00',
-      differenceMm: '8.00',
-      differencePct: '0.31',
-    });
-  });
+  it(
+    'when 3000 mm is issued, 412 mm returned and 40 units started, then 2588 against 2580 mm is 8 mm (0.31 %) ' +
+      'within 2 %',
+    () => {
+      expect(reconcileMaterial({ ...part, issuedMm: '3000', returnedMm: '412', unitsStarted: 40 })).toMatchObject({
+        verdict: 'reconciled',
+        consumedMm: '2588.00',
+        expectedMm: '2580.00',
+        differenceMm: '8.00',
+        differencePct: '0.31',
+      });
+    },
+  );
   it('when 200 mm more is used than the units account for, then it is a discrepancy beyond the tolerance', () => {
     const result = reconcileMaterial({ ...part, issuedMm: '3000', returnedMm: '220', unitsStarted: 40 });
     expect(result).toMatchObject({ verdict: 'discrepancy', differenceMm: '200.00', differencePct: '7.75' });

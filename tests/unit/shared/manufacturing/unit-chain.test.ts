@@ -66,79 +66,82 @@ const operation = fc.oneof(
 );
 
 describe('conservation of units under random steps, scrap, splits and merges (property)', () => {
-  it('when any sequence is applied through the checks, then units on hand + scrapped always equal units started', () => {
-    fc.assert(
-      fc.property(
-        fc.array(fc.integer({ min: 1, max: 200 }), { minLength: 1, maxLength: 4 }),
-        fc.array(operation, { maxLength: 60 }),
-        (starts, operations) => {
-          const lots: ModelLot[] = starts.map(() => ({ start: null, afterStep: 0, steps: [], outflows: [] }));
-          const chainOf = (lot: ModelLot) =>
-            unitChain({ qty: lot.start, afterStep: lot.afterStep }, lot.steps, lot.outflows);
-          const lastStep = (lot: ModelLot) => Math.max(lot.afterStep, ...lot.steps.map((step) => step.stepNo));
-          // Each bar lot starts with its first step's input.
-          starts.forEach((qty, index) =>
-            lots[index]!.steps.push({ stepNo: 10, name: 's10', qtyIn: qty, qtyGood: qty, qtyScrap: 0 }),
-          );
-          const total = starts.reduce((sum, qty) => sum + qty, 0);
-          for (const op of operations) {
-            if (op.kind === 'step') {
-              const lot = lots[op.lot % lots.length]!;
-              const next = routing.find((stepNo) => stepNo > lastStep(lot));
-              const onHand = chainOf(lot).onHand;
-              if (next === undefined || onHand === 0) continue;
-              const scrap = Math.min(op.scrap, onHand);
-              lot.steps.push({
-                stepNo: next,
-                name: `s${next}`,
-                qtyIn: onHand,
-                qtyGood: onHand - scrap,
-                qtyScrap: scrap,
-              });
-            } else if (op.kind === 'split') {
-              const lot = lots[op.lot % lots.length]!;
-              const onHand = chainOf(lot).onHand;
-              const problem = splitProblem(onHand, op.quantities);
-              const sum = op.quantities.reduce((total, qty) => total + qty, 0);
-              expect(problem === null).toBe(sum <= onHand && op.quantities.every((qty) => qty >= 1));
-              if (problem) continue;
-              for (const qty of op.quantities) {
-                lot.outflows.push({ afterStep: lastStep(lot), qty, toLot: `child-${lots.length}` });
-                lots.push({ start: qty, afterStep: lastStep(lot), steps: [], outflows: [] });
+  it(
+    'when any sequence is applied through the checks, then ' + 'units on hand + scrapped always equal units started',
+    () => {
+      fc.assert(
+        fc.property(
+          fc.array(fc.integer({ min: 1, max: 200 }), { minLength: 1, maxLength: 4 }),
+          fc.array(operation, { maxLength: 60 }),
+          (starts, operations) => {
+            const lots: ModelLot[] = starts.map(() => ({ start: null, afterStep: 0, steps: [], outflows: [] }));
+            const chainOf = (lot: ModelLot) =>
+              unitChain({ qty: lot.start, afterStep: lot.afterStep }, lot.steps, lot.outflows);
+            const lastStep = (lot: ModelLot) => Math.max(lot.afterStep, ...lot.steps.map((step) => step.stepNo));
+            // Each bar lot starts with its first step's input.
+            starts.forEach((qty, index) =>
+              lots[index]!.steps.push({ stepNo: 10, name: 's10', qtyIn: qty, qtyGood: qty, qtyScrap: 0 }),
+            );
+            const total = starts.reduce((sum, qty) => sum + qty, 0);
+            for (const op of operations) {
+              if (op.kind === 'step') {
+                const lot = lots[op.lot % lots.length]!;
+                const next = routing.find((stepNo) => stepNo > lastStep(lot));
+                const onHand = chainOf(lot).onHand;
+                if (next === undefined || onHand === 0) continue;
+                const scrap = Math.min(op.scrap, onHand);
+                lot.steps.push({
+                  stepNo: next,
+                  name: `s${next}`,
+                  qtyIn: onHand,
+                  qtyGood: onHand - scrap,
+                  qtyScrap: scrap,
+                });
+              } else if (op.kind === 'split') {
+                const lot = lots[op.lot % lots.length]!;
+                const onHand = chainOf(lot).onHand;
+                const problem = splitProblem(onHand, op.quantities);
+                const sum = op.quantities.reduce((total, qty) => total + qty, 0);
+                expect(problem === null).toBe(sum <= onHand && op.quantities.every((qty) => qty >= 1));
+                if (problem) continue;
+                for (const qty of op.quantities) {
+                  lot.outflows.push({ afterStep: lastStep(lot), qty, toLot: `child-${lots.length}` });
+                  lots.push({ start: qty, afterStep: lastStep(lot), steps: [], outflows: [] });
+                }
+              } else {
+                const a = lots[op.a % lots.length]!;
+                const b = lots[op.b % lots.length]!;
+                const candidates = [a, b].map((lot, index) => ({
+                  lotNumber: a === b ? 'same' : `lot-${index}`,
+                  partId: 1,
+                  lastStep: lastStep(lot),
+                  onHand: chainOf(lot).onHand,
+                  blocked: null,
+                }));
+                if (mergeProblem(candidates)) continue;
+                const merged: ModelLot = {
+                  start: candidates[0]!.onHand + candidates[1]!.onHand,
+                  afterStep: candidates[0]!.lastStep,
+                  steps: [],
+                  outflows: [],
+                };
+                a.outflows.push({ afterStep: candidates[0]!.lastStep, qty: candidates[0]!.onHand, toLot: 'merged' });
+                b.outflows.push({ afterStep: candidates[1]!.lastStep, qty: candidates[1]!.onHand, toLot: 'merged' });
+                lots.push(merged);
               }
-            } else {
-              const a = lots[op.a % lots.length]!;
-              const b = lots[op.b % lots.length]!;
-              const candidates = [a, b].map((lot, index) => ({
-                lotNumber: a === b ? 'same' : `lot-${index}`,
-                partId: 1,
-                lastStep: lastStep(lot),
-                onHand: chainOf(lot).onHand,
-                blocked: null,
-              }));
-              if (mergeProblem(candidates)) continue;
-              const merged: ModelLot = {
-                start: candidates[0]!.onHand + candidates[1]!.onHand,
-                afterStep: candidates[0]!.lastStep,
-                steps: [],
-                outflows: [],
-              };
-              a.outflows.push({ afterStep: candidates[0]!.lastStep, qty: candidates[0]!.onHand, toLot: 'merged' });
-              b.outflows.push({ afterStep: candidates[1]!.lastStep, qty: candidates[1]!.onHand, toLot: 'merged' });
-              lots.push(merged);
             }
-          }
-          const chains = lots.map(chainOf);
-          for (const chain of chains) {
-            expect(chain.consistent).toBe(true);
-            expect(chain.onHand).toBeGreaterThanOrEqual(0);
-          }
-          const onHand = chains.reduce((sum, chain) => sum + chain.onHand, 0);
-          const scrapped = chains.reduce((sum, chain) => sum + chain.scrapped, 0);
-          expect(onHand + scrapped).toBe(total);
-        },
-      ),
-      { numRuns: 500 },
-    );
-  });
+            const chains = lots.map(chainOf);
+            for (const chain of chains) {
+              expect(chain.consistent).toBe(true);
+              expect(chain.onHand).toBeGreaterThanOrEqual(0);
+            }
+            const onHand = chains.reduce((sum, chain) => sum + chain.onHand, 0);
+            const scrapped = chains.reduce((sum, chain) => sum + chain.scrapped, 0);
+            expect(onHand + scrapped).toBe(total);
+          },
+        ),
+        { numRuns: 500 },
+      );
+    },
+  );
 });

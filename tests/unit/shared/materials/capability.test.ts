@@ -2,13 +2,17 @@ import { describe, expect, it } from 'vitest';
 import { bissellInterval, capability } from '@shared/domain/materials/capability';
 
 describe('capability and run rule', () => {
-  it('when given the textbook sample 2, 4, 4, 4, 5, 5, 7, 9, then the mean is 5 and the sample standard deviation √(32/7)', () => {
-    // Source: the worked example of the Wikipedia article "Standard deviation" (population σ = 2;
-    // with n − 1 the sample s = √(32/7) ≈ 2.13809) — unverified.
-    const result = capability(['2', '4', '4', '4', '5', '5', '7', '9'], { max: '20' });
-    expect(result.mean).toBe('5');
-    expect(result.sigma).toBe('2.13809');
-  });
+  it(
+    'when given the textbook sample 2, 4, 4, 4, 5, 5, 7, 9, then the mean is 5 and the sample standard ' +
+      'deviation √(32/7)',
+    () => {
+      // Source: the worked example of the Wikipedia article "Standard deviation" (population σ = 2;
+      // with n − 1 the sample s = √(32/7) ≈ 2.13809) — unverified.
+      const result = capability(['2', '4', '4', '4', '5', '5', '7', '9'], { max: '20' });
+      expect(result.mean).toBe('5');
+      expect(result.sigma).toBe('2.13809');
+    },
+  );
 
   it('when the process sits off centre, then Ppk takes the nearer limit (USL 20, LSL 8, mean 16, s 2 → 0.667)', () => {
     // Source: NIST/SEMATECH e-Handbook of Statistical Methods §6.1.6, capability example (unverified
@@ -18,15 +22,19 @@ describe('capability and run rule', () => {
     expect(result.ppk).toMatchObject({ value: '0.667', sigma: '2' });
   });
 
-  it('when Cpk is asked for, then σ comes from the average moving range over d2 = 1.128, not from s (AIAG SPC manual; ISO 22514-2)', () => {
-    // Worked by hand: moving ranges |16 − 14| = 2, |18 − 16| = 2, MR̄ = 2, σ̂ = 2 / 1.128 = 1.77305;
-    // Cpk = (20 − 16) / (3 × 1.77305) = 0.752. d2 = 1.128 is the control-chart constant for n = 2.
-    const result = capability(['14', '16', '18'], { min: '8', max: '20' });
-    expect(result.cpk).toMatchObject({ value: '0.752', sigma: '1.77305' });
-    // A drifting process: overall s counts the drift, the moving range does not, so Cpk > Ppk.
-    const drifting = capability(['0.100', '0.102', '0.104', '0.106', '0.108', '0.110'], { max: '0.13' });
-    expect(Number(drifting.cpk.value)).toBeGreaterThan(Number(drifting.ppk.value));
-  });
+  it(
+    'when Cpk is asked for, then σ comes from the average moving range over d2 = 1.128, not from s (AIAG SPC ' +
+      'manual; ISO 22514-2)',
+    () => {
+      // Worked by hand: moving ranges |16 − 14| = 2, |18 − 16| = 2, MR̄ = 2, σ̂ = 2 / 1.128 = 1.77305;
+      // Cpk = (20 − 16) / (3 × 1.77305) = 0.752. d2 = 1.128 is the control-chart constant for n = 2.
+      const result = capability(['14', '16', '18'], { min: '8', max: '20' });
+      expect(result.cpk).toMatchObject({ value: '0.752', sigma: '1.77305' });
+      // A drifting process: overall s counts the drift, the moving range does not, so Cpk > Ppk.
+      const drifting = capability(['0.100', '0.102', '0.104', '0.106', '0.108', '0.110'], { max: '0.13' });
+      expect(Number(drifting.cpk.value)).toBeGreaterThan(Number(drifting.ppk.value));
+    },
+  );
 
   it('when an interval is given, then it is Bissell’s: Ĉ = 0.625 from 30 parts → 0.425 to 0.825', () => {
     // Source: Bissell's approximation as printed in Rodriguez, J. Quality Technology 24(4), 1992,

@@ -46,25 +46,33 @@ describe('bunching just inside a limit', () => {
     '0.16': 1,
   };
 
-  it('when 16 heats sit at 0.19–0.20 and only 2 at 0.17–0.18 above a body centred at 0.11, then the supplier is flagged (p = 172/2^18 = 6.6e-4 < 0.001)', () => {
-    const findings = bunchingAtLimits(
-      oxygenHistory({ ...honestBody, '0.17': 1, '0.18': 1, '0.19': 7, '0.20': 9 }),
-      limits,
-    );
-    expect(findings).toHaveLength(1);
-    expect(findings[0]!.property).toBe('O');
-    expect(findings[0]!.heatIds).toHaveLength(16);
-    expect(findings[0]!.statistic!.value).toBeCloseTo(172 / 262_144, 10);
-    expect(findings[0]!.explanation).toMatch(
-      /16 of 69 heats report O at or one reporting step \(0\.01\) inside the max limit 0\.20/,
-    );
-  });
+  it(
+    'when 16 heats sit at 0.19–0.20 and only 2 at 0.17–0.18 above a body centred at 0.11, then the supplier is ' +
+      'flagged (p = 172/2^18 = 6.6e-4 < 0.001)',
+    () => {
+      const findings = bunchingAtLimits(
+        oxygenHistory({ ...honestBody, '0.17': 1, '0.18': 1, '0.19': 7, '0.20': 9 }),
+        limits,
+      );
+      expect(findings).toHaveLength(1);
+      expect(findings[0]!.property).toBe('O');
+      expect(findings[0]!.heatIds).toHaveLength(16);
+      expect(findings[0]!.statistic!.value).toBeCloseTo(172 / 262_144, 10);
+      expect(findings[0]!.explanation).toMatch(
+        /16 of 69 heats report O at or one reporting step \(0\.01\) inside the max limit 0\.20/,
+      );
+    },
+  );
 
-  it('when the same body has 15 near the limit and 2 in the next steps, then it stays below the evidence needed (p = 154/2^17 = 1.2e-3)', () => {
-    expect(
-      bunchingAtLimits(oxygenHistory({ ...honestBody, '0.17': 1, '0.18': 1, '0.19': 7, '0.20': 8 }), limits),
-    ).toEqual([]);
-  });
+  it(
+    'when the same body has 15 near the limit and 2 in the next steps, then it stays below the evidence needed ' +
+      '(p = 154/2^17 = 1.2e-3)',
+    () => {
+      expect(
+        bunchingAtLimits(oxygenHistory({ ...honestBody, '0.17': 1, '0.18': 1, '0.19': 7, '0.20': 8 }), limits),
+      ).toEqual([]);
+    },
+  );
 
   it('when a supplier’s values thin out toward the limit as a normal process does, then nothing is flagged', () => {
     expect(
@@ -72,11 +80,18 @@ describe('bunching just inside a limit', () => {
     ).toEqual([]);
   });
 
-  it('when the process itself runs close to the limit (the other values’ median within four steps), then bunching is not judged', () => {
-    expect(
-      bunchingAtLimits(oxygenHistory({ '0.15': 2, '0.16': 5, '0.17': 9, '0.18': 12, '0.19': 14, '0.20': 10 }), limits),
-    ).toEqual([]);
-  });
+  it(
+    'when the process itself runs close to the limit (the other values’ median within four steps), then ' +
+      'bunching is not judged',
+    () => {
+      expect(
+        bunchingAtLimits(
+          oxygenHistory({ '0.15': 2, '0.16': 5, '0.17': 9, '0.18': 12, '0.19': 14, '0.20': 10 }),
+          limits,
+        ),
+      ).toEqual([]);
+    },
+  );
 
   it('judges a minimum limit the same way (elongation bunched at 10–11 % against a minimum of 10 %)', () => {
     const history = [
@@ -91,31 +106,35 @@ describe('bunching just inside a limit', () => {
     expect(findings[0]!.statistic!.value).toBeCloseTo(19 / 262_144, 12);
   });
 
-  it('raises false alarms on simulated honest suppliers at about the rate α promises (common practice: check a test’s size by simulation)', () => {
-    // mulberry32 (a small, well-known 32-bit generator; unverified) and Box–Muller.
-    let state = 0x1234abcd;
-    const random = () => {
-      state = (state + 0x6d2b79f5) | 0;
-      let t = Math.imul(state ^ (state >>> 15), 1 | state);
-      t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-      return ((t ^ (t >>> 14)) >>> 0) / 4_294_967_296;
-    };
-    const gaussian = () => Math.sqrt(-2 * Math.log(1 - random())) * Math.cos(2 * Math.PI * random());
-    let flagged = 0;
-    const suppliers = 2_000;
-    for (let supplier = 0; supplier < suppliers; supplier++) {
-      // Mean 0.13, sd 0.025: a capable process; values above the limit are rejected, not reported.
-      const values = Array.from({ length: 60 }, () => 0.13 + 0.025 * gaussian())
-        .map((value) => Math.round(value * 100) / 100)
-        .filter((value) => value > 0 && value <= 0.2);
-      if (
-        bunchingAtLimits(oxygenHistory(Object.fromEntries(countBy(values.map((value) => value.toFixed(2))))), limits)
-          .length
-      )
-        flagged += 1;
-    }
-    expect(flagged / suppliers).toBeLessThanOrEqual(0.005);
-  });
+  it(
+    'raises false alarms on simulated honest suppliers at about the rate α promises (common practice: check a ' +
+      'test’s size by simulation)',
+    () => {
+      // mulberry32 (a small, well-known 32-bit generator; unverified) and Box–Muller.
+      let state = 0x1234abcd;
+      const random = () => {
+        state = (state + 0x6d2b79f5) | 0;
+        let t = Math.imul(state ^ (state >>> 15), 1 | state);
+        t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
+        return ((t ^ (t >>> 14)) >>> 0) / 4_294_967_296;
+      };
+      const gaussian = () => Math.sqrt(-2 * Math.log(1 - random())) * Math.cos(2 * Math.PI * random());
+      let flagged = 0;
+      const suppliers = 2_000;
+      for (let supplier = 0; supplier < suppliers; supplier++) {
+        // Mean 0.13, sd 0.025: a capable process; values above the limit are rejected, not reported.
+        const values = Array.from({ length: 60 }, () => 0.13 + 0.025 * gaussian())
+          .map((value) => Math.round(value * 100) / 100)
+          .filter((value) => value > 0 && value <= 0.2);
+        if (
+          bunchingAtLimits(oxygenHistory(Object.fromEntries(countBy(values.map((value) => value.toFixed(2))))), limits)
+            .length
+        )
+          flagged += 1;
+      }
+      expect(flagged / suppliers).toBeLessThanOrEqual(0.005);
+    },
+  );
 });
 
 function countBy(values: string[]): Map<string, number> {
@@ -172,15 +191,19 @@ describe('one document for two heats', () => {
 describe('a sudden change of reported precision', () => {
   const usual = (o: string) => heat({ C: '0.02', Fe: '0.18', N: '0.01', O: o, H: '0.004' });
 
-  it('flags a heat whose decimals differ from the previous five in at least two properties and half of those compared', () => {
-    const history = [usual('0.11'), usual('0.12'), usual('0.10'), usual('0.12'), usual('0.11')];
-    const odd = heat({ C: '0.021', Fe: '0.183', N: '0.01', O: '0.117', H: '0.004' });
-    const findings = precisionChanges([...history, odd]);
-    expect(findings.map((finding) => finding.heatIds)).toEqual([[odd.heatId]]);
-    expect(findings[0]!.explanation).toMatch(
-      /C 0\.021 \(usually 2 decimals\); Fe 0\.183 \(usually 2 decimals\); O 0\.117 \(usually 2 decimals\)/,
-    );
-  });
+  it(
+    'flags a heat whose decimals differ from the previous five in at least two properties and half of those ' +
+      'compared',
+    () => {
+      const history = [usual('0.11'), usual('0.12'), usual('0.10'), usual('0.12'), usual('0.11')];
+      const odd = heat({ C: '0.021', Fe: '0.183', N: '0.01', O: '0.117', H: '0.004' });
+      const findings = precisionChanges([...history, odd]);
+      expect(findings.map((finding) => finding.heatIds)).toEqual([[odd.heatId]]);
+      expect(findings[0]!.explanation).toMatch(
+        /C 0\.021 \(usually 2 decimals\); Fe 0\.183 \(usually 2 decimals\); O 0\.117 \(usually 2 decimals\)/,
+      );
+    },
+  );
 
   it('lets one property change alone, and judges nothing before five earlier heats exist', () => {
     const history = [usual('0.11'), usual('0.12'), usual('0.10'), usual('0.12'), usual('0.11')];

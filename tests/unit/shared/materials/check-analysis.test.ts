@@ -24,17 +24,21 @@ function verdictOf(results: Record<string, string>, element: string) {
 }
 
 describe('judging a check analysis against the widened limits', () => {
-  it('oxygen in F136 (≤ 0.13, tolerance 0.02 over): 0.13 within the limit, 0.14 and 0.15 within the tolerance, 0.16 beyond', () => {
-    expect(verdictOf({ O: '0.13' }, 'O')).toMatchObject({
-      rounded: '0.13',
-      heatLimit: '≤ 0.13',
-      checkLimit: '≤ 0.15',
-      verdict: 'within-limit',
-    });
-    expect(verdictOf({ O: '0.14' }, 'O').verdict).toBe('within-tolerance');
-    expect(verdictOf({ O: '0.15' }, 'O').verdict).toBe('within-tolerance');
-    expect(verdictOf({ O: '0.16' }, 'O').verdict).toBe('beyond-tolerance');
-  });
+  it(
+    'oxygen in F136 (≤ 0.13, tolerance 0.02 over): 0.13 within the limit, 0.14 and 0.15 within the tolerance, ' +
+      '0.16 beyond',
+    () => {
+      expect(verdictOf({ O: '0.13' }, 'O')).toMatchObject({
+        rounded: '0.13',
+        heatLimit: '≤ 0.13',
+        checkLimit: '≤ 0.15',
+        verdict: 'within-limit',
+      });
+      expect(verdictOf({ O: '0.14' }, 'O').verdict).toBe('within-tolerance');
+      expect(verdictOf({ O: '0.15' }, 'O').verdict).toBe('within-tolerance');
+      expect(verdictOf({ O: '0.16' }, 'O').verdict).toBe('beyond-tolerance');
+    },
+  );
 
   it('rounds by ASTM E29 before comparing: 0.145 → 0.14, 0.155 → 0.16, 0.134 → 0.13 (half to even)', () => {
     expect(verdictOf({ O: '0.134' }, 'O').verdict).toBe('within-limit');
@@ -51,23 +55,31 @@ describe('judging a check analysis against the widened limits', () => {
     expect(verdictOf({ Al: '6.05' }, 'Al').verdict).toBe('within-limit');
   });
 
-  it('hydrogen (≤ 0.012, +0.0020) is judged at the tolerance place and read from ppm: 140 ppm passes, 141 ppm fails', () => {
-    expect(verdictOf({ H: '140 ppm' }, 'H')).toMatchObject({
-      value: '0.0140',
-      rounded: '0.0140',
-      checkLimit: '≤ 0.0140',
-      verdict: 'within-tolerance',
-    });
-    expect(verdictOf({ H: '141 ppm' }, 'H').verdict).toBe('beyond-tolerance');
-    // 0.0124 rounds to the heat limit's place as 0.012: within the heat limit itself.
-    expect(verdictOf({ H: '0.0124' }, 'H').verdict).toBe('within-limit');
-  });
+  it(
+    'hydrogen (≤ 0.012, +0.0020) is judged at the tolerance place and read from ppm: 140 ppm passes, 141 ppm ' +
+      'fails',
+    () => {
+      expect(verdictOf({ H: '140 ppm' }, 'H')).toMatchObject({
+        value: '0.0140',
+        rounded: '0.0140',
+        checkLimit: '≤ 0.0140',
+        verdict: 'within-tolerance',
+      });
+      expect(verdictOf({ H: '141 ppm' }, 'H').verdict).toBe('beyond-tolerance');
+      // 0.0124 rounds to the heat limit's place as 0.012: within the heat limit itself.
+      expect(verdictOf({ H: '0.0124' }, 'H').verdict).toBe('within-limit');
+    },
+  );
 
-  it('F67 grade 4 iron (≤ 0.50) takes the 0.15 tolerance for limits over 0.25 (F67 tolerance table, DOMAIN.md §1.1, S1)', () => {
-    const fe = evaluateCheckAnalysis(f67Grade4, { Fe: '0.65' }).items.find((item) => item.element === 'Fe')!;
-    expect(fe).toMatchObject({ checkLimit: '≤ 0.65', verdict: 'within-tolerance' });
-    expect(evaluateCheckAnalysis(f67Grade4, { Fe: '0.66' }).verdict).toBe('does-not-conform');
-  });
+  it(
+    'F67 grade 4 iron (≤ 0.50) takes the 0.15 tolerance for limits over 0.25 (F67 tolerance table, DOMAIN.md ' +
+      '§1.1, S1)',
+    () => {
+      const fe = evaluateCheckAnalysis(f67Grade4, { Fe: '0.65' }).items.find((item) => item.element === 'Fe')!;
+      expect(fe).toMatchObject({ checkLimit: '≤ 0.65', verdict: 'within-tolerance' });
+      expect(evaluateCheckAnalysis(f67Grade4, { Fe: '0.66' }).verdict).toBe('does-not-conform');
+    },
+  );
 
   it('an element without a tolerance in the library is held to the heat limit, and says so', () => {
     const carbon = evaluateCheckAnalysis(f138, { C: '0.031' }).items.find((item) => item.element === 'C')!;
@@ -76,18 +88,21 @@ describe('judging a check analysis against the widened limits', () => {
     expect(carbon.note).toMatch(/held to the heat limit/);
   });
 
-  it('the check fails when any element is beyond its tolerance, lists unmeasured elements, and names the failures', () => {
-    const evaluation = evaluateCheckAnalysis(f136, { O: '0.17', Fe: '0.20', H: '0.0100' });
-    expect(evaluation.verdict).toBe('does-not-conform');
-    expect(evaluation.items.filter((item) => item.verdict === 'not-measured').map((item) => item.element)).toEqual([
-      'Al',
-      'V',
-      'C',
-      'N',
-    ]);
-    expect(checkFailureText(evaluation)).toBe('O 0.17 outside ≤ 0.15');
-    expect(evaluateCheckAnalysis(f136, { O: '0.15', Fe: '0.35' }).verdict).toBe('conforms');
-  });
+  it(
+    'the check fails when any element is beyond its tolerance, lists unmeasured elements, and names the ' + 'failures',
+    () => {
+      const evaluation = evaluateCheckAnalysis(f136, { O: '0.17', Fe: '0.20', H: '0.0100' });
+      expect(evaluation.verdict).toBe('does-not-conform');
+      expect(evaluation.items.filter((item) => item.verdict === 'not-measured').map((item) => item.element)).toEqual([
+        'Al',
+        'V',
+        'C',
+        'N',
+      ]);
+      expect(checkFailureText(evaluation)).toBe('O 0.17 outside ≤ 0.15');
+      expect(evaluateCheckAnalysis(f136, { O: '0.15', Fe: '0.35' }).verdict).toBe('conforms');
+    },
+  );
 
   it('refuses input it cannot judge, field by field', () => {
     const attempt = (results: Record<string, string>) => {
@@ -118,10 +133,12 @@ describe('which heats a rule selects', () => {
     );
     expect(selected).toEqual([1, 6, 11, 16]);
     expect(checkRequirement(everyFifth, 7, 'approved').why).toBe(
-      'The first heat and every 5th after it are checked; this is the 7th heat from this supplier to this specification, the next is the 11th',
+      'The first heat and every 5th after it are checked; this is the 7th heat from this supplier to this ' +
+        'specification, the next is the 11th',
     );
     expect(checkRequirement(everyFifth, 11, 'approved').why).toBe(
-      'The first heat and every 5th after it are checked; this is the 11th heat from this supplier to this specification',
+      'The first heat and every 5th after it are checked; this is the 11th heat from this supplier to this ' +
+        'specification',
     );
   });
 
@@ -161,18 +178,22 @@ describe('which heats a rule selects', () => {
     );
   });
 
-  it('the most specific rule applies: supplier and specification, then supplier, then specification, then plant-wide', () => {
-    const rule = (supplierId: number | null, specId: string | null, everyNthHeat: number): ScopedCheckRule => ({
-      supplierId,
-      specId,
-      everyNthHeat,
-      everyHeatWhenConditional: false,
-    });
-    const rules = [rule(null, null, 10), rule(null, 'ASTM F136', 8), rule(3, null, 4), rule(3, 'ASTM F136', 2)];
-    expect(applicableRule(rules, 3, 'astm f136')!.everyNthHeat).toBe(2);
-    expect(applicableRule(rules, 3, 'ASTM F67')!.everyNthHeat).toBe(4);
-    expect(applicableRule(rules, 4, 'ASTM F136')!.everyNthHeat).toBe(8);
-    expect(applicableRule(rules, 4, 'ASTM F67')!.everyNthHeat).toBe(10);
-    expect(applicableRule(rules.slice(1, 3), 4, 'ASTM F67')).toBeNull();
-  });
+  it(
+    'the most specific rule applies: supplier and specification, then supplier, then specification, then ' +
+      'plant-wide',
+    () => {
+      const rule = (supplierId: number | null, specId: string | null, everyNthHeat: number): ScopedCheckRule => ({
+        supplierId,
+        specId,
+        everyNthHeat,
+        everyHeatWhenConditional: false,
+      });
+      const rules = [rule(null, null, 10), rule(null, 'ASTM F136', 8), rule(3, null, 4), rule(3, 'ASTM F136', 2)];
+      expect(applicableRule(rules, 3, 'astm f136')!.everyNthHeat).toBe(2);
+      expect(applicableRule(rules, 3, 'ASTM F67')!.everyNthHeat).toBe(4);
+      expect(applicableRule(rules, 4, 'ASTM F136')!.everyNthHeat).toBe(8);
+      expect(applicableRule(rules, 4, 'ASTM F67')!.everyNthHeat).toBe(10);
+      expect(applicableRule(rules.slice(1, 3), 4, 'ASTM F67')).toBeNull();
+    },
+  );
 });

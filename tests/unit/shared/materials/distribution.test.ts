@@ -6,11 +6,14 @@ import { describe, expect, it } from 'vitest';
 import { binomialUpperTail, normalCdf } from '@shared/domain/materials/distribution';
 
 describe('normal CDF', () => {
-  it('matches the standard normal table (Φ(1.96) = 0.9750, Φ(−1) = 0.1587, Φ(0) = 0.5; any statistics handbook)', () => {
-    expect(normalCdf(1.96)).toBeCloseTo(0.975, 4);
-    expect(normalCdf(-1)).toBeCloseTo(0.1587, 4);
-    expect(normalCdf(0)).toBeCloseTo(0.5, 7);
-  });
+  it(
+    'matches the standard normal table (Φ(1.96) = 0.9750, ' + 'Φ(−1) = 0.1587, Φ(0) = 0.5; any statistics handbook)',
+    () => {
+      expect(normalCdf(1.96)).toBeCloseTo(0.975, 4);
+      expect(normalCdf(-1)).toBeCloseTo(0.1587, 4);
+      expect(normalCdf(0)).toBeCloseTo(0.5, 7);
+    },
+  );
 
   it('agrees with @stdlib to within the stated 1.5e-7 from −6 to 6', () => {
     for (let z = -6; z <= 6; z += 0.05) expect(Math.abs(normalCdf(z) - stdlibNormalCdf(z, 0, 1))).toBeLessThan(1.5e-7);

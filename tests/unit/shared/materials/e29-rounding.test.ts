@@ -30,20 +30,24 @@ describe('ASTM E29 rounding', () => {
     });
   }
 
-  it('when a value is an exact 5 beyond the limit, then the verdict follows half-to-even, not half-up (O ≤ 0.12 with 0.125 conforms)', () => {
-    // Domain sheet §2: "O ≤ 0.12, 0.125 → 0.12, conforms; half-up would give 0.13 → no". F67 grade 1 has O ≤ 0.18, so
-    // this uses F136's O ≤ 0.13 with 0.135 (→ 0.14, fails) and 0.1349 (→ 0.13, conforms) around the same rule.
-    const base = {
-      spec: 'ASTM F136',
-      sizeMm: '25',
-      chemistry: { Al: '6.1', V: '4.0', Fe: '0.18', C: '0.02', N: '0.01', H: '0.004' },
-    };
-    const oxygen = (value: string) =>
-      evaluateCertificate({ ...base, chemistry: { ...base.chemistry, O: value } }).items.find(
-        (item) => item.item === 'O',
-      );
-    expect(oxygen('0.135')).toMatchObject({ rounded: '0.14', verdict: 'does-not-conform' });
-    expect(oxygen('0.1349')).toMatchObject({ rounded: '0.13', verdict: 'conforms' });
-    expect(oxygen('0.134')).toMatchObject({ rounded: '0.13', verdict: 'conforms' });
-  });
+  it(
+    'when a value is an exact 5 beyond the limit, then the verdict follows half-to-even, not half-up (O ≤ 0.12 ' +
+      'with 0.125 conforms)',
+    () => {
+      // Domain sheet §2: "O ≤ 0.12, 0.125 → 0.12, conforms; half-up would give 0.13 → no". F67 grade 1 has O ≤ 0.18, so
+      // this uses F136's O ≤ 0.13 with 0.135 (→ 0.14, fails) and 0.1349 (→ 0.13, conforms) around the same rule.
+      const base = {
+        spec: 'ASTM F136',
+        sizeMm: '25',
+        chemistry: { Al: '6.1', V: '4.0', Fe: '0.18', C: '0.02', N: '0.01', H: '0.004' },
+      };
+      const oxygen = (value: string) =>
+        evaluateCertificate({ ...base, chemistry: { ...base.chemistry, O: value } }).items.find(
+          (item) => item.item === 'O',
+        );
+      expect(oxygen('0.135')).toMatchObject({ rounded: '0.14', verdict: 'does-not-conform' });
+      expect(oxygen('0.1349')).toMatchObject({ rounded: '0.13', verdict: 'conforms' });
+      expect(oxygen('0.134')).toMatchObject({ rounded: '0.13', verdict: 'conforms' });
+    },
+  );
 });

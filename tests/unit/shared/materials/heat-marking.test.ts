@@ -14,7 +14,8 @@ describe('comparing the heat number marked on a bar with the certificate', () =>
     const result = compareHeatMarking('NV-24-11O7', 'NV-24-1107');
     expect(result.matches).toBe(false);
     expect(result.problem).toBe(
-      'The bar is marked NV-24-11O7, the certificate is for heat NV-24-1107; they differ from character 7 (O against 0)',
+      'The bar is marked NV-24-11O7, the certificate is for heat NV-24-1107; they differ from character 7 (O ' +
+        'against 0)',
     );
   });
 

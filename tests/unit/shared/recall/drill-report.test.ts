@@ -49,21 +49,25 @@ const scenario = (): DrillFacts => ({
 });
 
 describe('assessing a recall drill', () => {
-  it('counts the hand-built scenario: 4 lots, 70 made, 39 released, 34 shipped, 5 on hand, 2 consignees; every check passes', () => {
-    const assessment = assessDrill(scenario());
-    expect(assessment.totals).toEqual({ lots: 4, made: 70, released: 39, shipped: 34, onHand: 5, consignees: 2 });
-    expect(assessment.checks.map((check) => [check.id, check.passed])).toEqual([
-      ['shipped-units', true],
-      ['unit-balance', true],
-      ['genealogy', true],
-      ['scope-closed', true],
-      ['scope-current', true],
-    ]);
-    expect(assessment.checks[0]!.detail).toBe(
-      '34 units shipped, all to named consignees; no lot shipped more than it released',
-    );
-    expect(assessment.complete).toBe(true);
-  });
+  it(
+    'counts the hand-built scenario: 4 lots, 70 made, 39 released, 34 shipped, 5 on hand, 2 consignees; every ' +
+      'check passes',
+    () => {
+      const assessment = assessDrill(scenario());
+      expect(assessment.totals).toEqual({ lots: 4, made: 70, released: 39, shipped: 34, onHand: 5, consignees: 2 });
+      expect(assessment.checks.map((check) => [check.id, check.passed])).toEqual([
+        ['shipped-units', true],
+        ['unit-balance', true],
+        ['genealogy', true],
+        ['scope-closed', true],
+        ['scope-current', true],
+      ]);
+      expect(assessment.checks[0]!.detail).toBe(
+        '34 units shipped, all to named consignees; no lot shipped more than it released',
+      );
+      expect(assessment.complete).toBe(true);
+    },
+  );
 
   it('times the drill: 420 ms to the first scope, 1 h 47 min 30 s to the confirmed scope', () => {
     const { timing } = assessDrill(scenario());
@@ -95,45 +99,56 @@ describe('assessing a recall drill', () => {
     expect(assessDrill(facts).complete).toBe(false);
   });
 
-  it('when an open lot holds work in progress, then its units in plant balance; a released lot must hold released − shipped', () => {
-    const facts = scenario();
-    // D is open with 30 started and 28 good after its last step: 28 in plant (WORDS: work in progress counts).
-    facts.lots[3] = { ...facts.lots[3]!, onHand: 28 };
-    expect(assessDrill(facts).checks.find((check) => check.id === 'unit-balance')!.passed).toBe(true);
-    expect(assessDrill(facts).totals.onHand).toBe(33);
-    facts.lots[1] = { ...facts.lots[1]!, onHand: 6 };
-    expect(assessDrill(facts).checks.find((check) => check.id === 'unit-balance')!.offenders).toEqual([
-      'B: 6 in plant ≠ 15 released − 10 shipped',
-    ]);
-  });
+  it(
+    'when an open lot holds work in progress, then its units in plant balance; a released lot must hold ' +
+      'released − shipped',
+    () => {
+      const facts = scenario();
+      // D is open with 30 started and 28 good after its last step: 28 in plant (WORDS: work in progress counts).
+      facts.lots[3] = { ...facts.lots[3]!, onHand: 28 };
+      expect(assessDrill(facts).checks.find((check) => check.id === 'unit-balance')!.passed).toBe(true);
+      expect(assessDrill(facts).totals.onHand).toBe(33);
+      facts.lots[1] = { ...facts.lots[1]!, onHand: 6 };
+      expect(assessDrill(facts).checks.find((check) => check.id === 'unit-balance')!.offenders).toEqual([
+        'B: 6 in plant ≠ 15 released − 10 shipped',
+      ]);
+    },
+  );
 
-  it('counts a lot that split part of its units off by what it kept, and finds one that released more than it kept', () => {
-    const facts = scenario();
-    // D started 30 and split 10 off into E (in the scope): 20 + 10, not 30 + 10.
-    facts.lots[3] = { ...facts.lots[3]!, passedOn: 10 };
-    facts.lots.push(lot('E', { status: 'open', origin: 'split', parents: ['D'], made: 10 }));
-    expect(assessDrill(facts).totals.made).toBe(70);
-    facts.lots[3] = { ...facts.lots[3]!, status: 'released', released: 25, onHand: 25 };
-    expect(assessDrill(facts).checks.find((check) => check.id === 'unit-balance')!.offenders).toEqual([
-      'D: released 25 of 30 started less 10 passed on',
-    ]);
-  });
+  it(
+    'counts a lot that split part of its units off by what it kept, and finds one that released more than it ' + 'kept',
+    () => {
+      const facts = scenario();
+      // D started 30 and split 10 off into E (in the scope): 20 + 10, not 30 + 10.
+      facts.lots[3] = { ...facts.lots[3]!, passedOn: 10 };
+      facts.lots.push(lot('E', { status: 'open', origin: 'split', parents: ['D'], made: 10 }));
+      expect(assessDrill(facts).totals.made).toBe(70);
+      facts.lots[3] = { ...facts.lots[3]!, status: 'released', released: 25, onHand: 25 };
+      expect(assessDrill(facts).checks.find((check) => check.id === 'unit-balance')!.offenders).toEqual([
+        'D: released 25 of 30 started less 10 passed on',
+      ]);
+    },
+  );
 
-  it('finds gaps in the genealogy: a lot without heat, a heat not accepted or without certificate, a split lot without parent', () => {
-    const facts = scenario();
-    facts.lots[3] = { ...facts.lots[3]!, sourceHeats: [] };
-    facts.lots[1] = {
-      ...facts.lots[1]!,
-      parents: [],
-      sourceHeats: [{ heatNumber: 'H-2', status: 'quarantined', certificates: 0 }],
-    };
-    expect(assessDrill(facts).checks.find((check) => check.id === 'genealogy')!.offenders).toEqual([
-      'B: heat H-2 is quarantined, not accepted',
-      'B: heat H-2 has no certificate',
-      'B: split lot with no parent lot',
-      'D: no heat of bar recorded',
-    ]);
-  });
+  it(
+    'finds gaps in the genealogy: a lot without heat, a heat not accepted or without certificate, a split lot ' +
+      'without parent',
+    () => {
+      const facts = scenario();
+      facts.lots[3] = { ...facts.lots[3]!, sourceHeats: [] };
+      facts.lots[1] = {
+        ...facts.lots[1]!,
+        parents: [],
+        sourceHeats: [{ heatNumber: 'H-2', status: 'quarantined', certificates: 0 }],
+      };
+      expect(assessDrill(facts).checks.find((check) => check.id === 'genealogy')!.offenders).toEqual([
+        'B: heat H-2 is quarantined, not accepted',
+        'B: heat H-2 has no certificate',
+        'B: split lot with no parent lot',
+        'D: no heat of bar recorded',
+      ]);
+    },
+  );
 
   it('finds lots made from affected lots but missing from the scope, and shipments recorded after the trace', () => {
     const facts = scenario();

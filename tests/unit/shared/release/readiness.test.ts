@@ -79,7 +79,8 @@ describe('release readiness', () => {
     ).toEqual([
       [
         'held-material',
-        'bar NV-0214-03: nonconformance NC-2026-0011 on the bar piece is open; bar NV-0214-03: recall investigation RC-2026-002 is open (heat NV-25-0214)',
+        'bar NV-0214-03: nonconformance NC-2026-0011 on the bar piece is open; bar NV-0214-03: recall ' +
+          'investigation RC-2026-002 is open (heat NV-25-0214)',
       ],
     ]);
     expect(failing({ holds: [{ id: 1, reference: 'recall RC-2026-001' }] })).toEqual([

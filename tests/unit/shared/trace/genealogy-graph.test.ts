@@ -43,17 +43,21 @@ describe('the genealogy graph', () => {
     expect(graph.nodes.find((node) => node.id === 'lot:1001')?.detail).toBe('P · released · on hold');
   });
 
-  it('when built, then links run from the mill to the consignee, with the shipments of one lot to one consignee summed', () => {
-    expect(graph.edges.map((edge) => [edge.from, edge.to, edge.kind, edge.label])).toEqual([
-      ['supplier:1', 'heat:10', 'melted', 'melted'],
-      ['heat:10', 'piece:100', 'cut', 'bar'],
-      ['piece:100', 'piece:101', 'cut', 'cut'],
-      ['piece:101', 'lot:1000', 'issued', 'issued'],
-      ['lot:1000', 'lot:1001', 'split', 'split · 4 units'],
-      ['lot:1001', 'run:7', 'ran', 'ran in'],
-      ['lot:1001', 'consignee:3', 'shipped', '3 units'],
-    ]);
-  });
+  it(
+    'when built, then links run from the mill to the consignee, with the shipments of one lot to one consignee ' +
+      'summed',
+    () => {
+      expect(graph.edges.map((edge) => [edge.from, edge.to, edge.kind, edge.label])).toEqual([
+        ['supplier:1', 'heat:10', 'melted', 'melted'],
+        ['heat:10', 'piece:100', 'cut', 'bar'],
+        ['piece:100', 'piece:101', 'cut', 'cut'],
+        ['piece:101', 'lot:1000', 'issued', 'issued'],
+        ['lot:1000', 'lot:1001', 'split', 'split · 4 units'],
+        ['lot:1001', 'run:7', 'ran', 'ran in'],
+        ['lot:1001', 'consignee:3', 'shipped', '3 units'],
+      ]);
+    },
+  );
 
   it('when a link names a record that is not in the set, then it is left out rather than drawn to nowhere', () => {
     const ids = new Set(graph.nodes.map((node) => node.id));

@@ -29,20 +29,24 @@ describe('units made, released, shipped and on hand over affected lots', () => {
     expect(unitTotals([lot(1, 10), lot(2, 4)], new Map([[1, 4]])).made).toBe(10);
   });
 
-  it('when two lots of 10 are merged into one of 20 and only one parent is affected, then the merged lot counts whole', () => {
-    // Parent A (affected) 10 passed on; the merged lot's 20 mix A's units with B's: 0 + 20 = 20.
-    expect(unitTotals([lot(1, 10), lot(3, 20)], new Map([[1, 10]])).made).toBe(20);
-    // Both parents affected: 0 + 0 + 20 = 20, not 40.
-    expect(
-      unitTotals(
-        [lot(1, 10), lot(2, 10), lot(3, 20)],
-        new Map([
-          [1, 10],
-          [2, 10],
-        ]),
-      ).made,
-    ).toBe(20);
-  });
+  it(
+    'when two lots of 10 are merged into one of 20 and only one parent is affected, then the merged lot counts ' +
+      'whole',
+    () => {
+      // Parent A (affected) 10 passed on; the merged lot's 20 mix A's units with B's: 0 + 20 = 20.
+      expect(unitTotals([lot(1, 10), lot(3, 20)], new Map([[1, 10]])).made).toBe(20);
+      // Both parents affected: 0 + 0 + 20 = 20, not 40.
+      expect(
+        unitTotals(
+          [lot(1, 10), lot(2, 10), lot(3, 20)],
+          new Map([
+            [1, 10],
+            [2, 10],
+          ]),
+        ).made,
+      ).toBe(20);
+    },
+  );
 
   it('when a lot has not started, then it adds no units', () => {
     expect(unitTotals([lot(1, null), lot(2, 12)], new Map()).made).toBe(12);
