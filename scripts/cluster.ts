@@ -33,7 +33,9 @@ async function main(): Promise<void> {
         const status = (await node.server.isRunning()) ? await node.status() : null;
         log(
           `${node.name} (port ${node.sqlPort}): ` +
-            `${status ? `${status.state}, cluster size ${status.clusterSize}, ${status.ready ? 'ready' : 'not ready'}` : 'not running'}`,
+            (status
+              ? `${status.state}, cluster size ${status.clusterSize}, ${status.ready ? 'ready' : 'not ready'}`
+              : 'not running'),
         );
       }
       return;

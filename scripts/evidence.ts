@@ -130,7 +130,15 @@ async function main(): Promise<void> {
   writeFileSync(join(folder, 'evidence.pdf'), pdf);
   // What the report states, for machines: the same facts the content hash covers.
   const json = Buffer.from(
-    `${JSON.stringify({ ...data, screenshots: data.screenshots.map(({ name, sha256: hash }) => ({ name, sha256: hash })), contentSha256: hash }, null, 2)}\n`,
+    JSON.stringify(
+      {
+        ...data,
+        screenshots: data.screenshots.map(({ name, sha256: hash }) => ({ name, sha256: hash })),
+        contentSha256: hash,
+      },
+      null,
+      2,
+    ) + '\n',
     'utf8',
   );
   writeFileSync(join(folder, 'evidence.json'), json);

@@ -8,6 +8,17 @@ import { cautionBox, documentStyles, heading, pageFooter, table } from '../../se
 import { renderPdf } from '../../server/src/documents/pdf-printer';
 import type { JudgedRequirement } from './matrix';
 
+const functionList = (functions: string[]) =>
+  functions.length ? `<ul>${functions.map((fn) => `<li>${escape(fn)}</li>`).join('')}</ul>` : '';
+const evidenceLine = (entry: { id: string; outcome: string }) =>
+  `<div class="test ${entry.outcome.replace(' ', '-')}">` +
+  `<code>${escape(entry.id)}</code> ${escape(entry.outcome)}</div>`;
+const runnerRow = (runner: { name: string; passed: number; failed: number }) =>
+  `<tr><th>${escape(runner.name)}</th><td>${runner.passed} passed, ${runner.failed} failed</td></tr>`;
+const screenshotFigure = (shot: { name: string; png: string; sha256: string }) =>
+  `<figure><img alt="${escape(shot.name)}" src="data:image/png;base64,${shot.png}">` +
+  `<figcaption>${escape(shot.name)} · SHA-256 <span class="hash">${shot.sha256}</span></figcaption></figure>`;
+
 export const evidenceCaution =
   'This report gives objective evidence from Ingotrace’s automated tests. Validation for the intended use and ' +
   'regulated use rest with the firm: it does not validate the firm’s installation, procedures or people.';
@@ -103,8 +114,8 @@ export function evidenceHtml(data: EvidenceData, hash: string): string {
     .map(
       (requirement) => `<tr class="${requirement.status}">
   <td><strong>${escape(requirement.id)}</strong><br>${escape(requirement.regulation)} ${escape(requirement.clause)}</td>
-  <td>${escape(requirement.requirement)}${requirement.functions.length ? `<ul>${requirement.functions.map((fn) => `<li>${escape(fn)}</li>`).join('')}</ul>` : ''}</td>
-  <td>${requirement.evidence.map((entry) => `<div class="test ${entry.outcome.replace(' ', '-')}"><code>${escape(entry.id)}</code> ${escape(entry.outcome)}</div>`).join('') || '—'}</td>
+  <td>${escape(requirement.requirement)}${functionList(requirement.functions)}</td>
+  <td>${requirement.evidence.map(evidenceLine).join('') || '—'}</td>
   <td>${escape(requirement.firm ?? '—')}</td>
   <td class="status">${statusText[requirement.status]}</td>
 </tr>`,
@@ -112,7 +123,8 @@ export function evidenceHtml(data: EvidenceData, hash: string): string {
     .join('\n');
   return `<!doctype html>
 <html lang="en"><head><meta charset="utf-8">
-      <title>Ingotrace validation evidence ${escape(data.product.version)} ${escape(data.product.commit.slice(0, 12))}</title>
+      <title>Ingotrace validation evidence ${escape(data.product.version)}
+        ${escape(data.product.commit.slice(0, 12))}</title>
 <style>
 body{font-family:"Noto Sans",system-ui,sans-serif;margin:2rem;color:#1b2730;max-width:75rem}
 h1{margin-bottom:.2rem}.caution{background:#fff6dd;color:#7a4b00;font-weight:600;padding:.6rem .8rem;border-radius:4px}
@@ -131,11 +143,13 @@ figure{margin:1rem 0}figure img{max-width:100%;border:1px solid #d5dbe0}
 <h2>Summary</h2>
 <p><strong>${escape(summaryLine(counts))}</strong></p>
 <table><tbody>
-<tr><th>Commit</th><td>${escape(data.product.commit)}${data.product.uncommittedChanges ? ' (with uncommitted changes)' : ''}</td></tr>
+<tr><th>Commit</th><td>${escape(data.product.commit)}
+  ${data.product.uncommittedChanges ? ' (with uncommitted changes)' : ''}</td></tr>
 <tr><th>Made (UTC)</th><td>${escape(data.madeAt)}</td></tr>
 ${data.environment.map((entry) => `<tr><th>${escape(entry.name)}</th><td>${escape(entry.value)}</td></tr>`).join('\n')}
-<tr><th>Test run</th><td>${escape(data.run.command)}: exit code ${data.run.exitCode}, ${data.run.seconds.toFixed(0)} s</td></tr>
-${data.run.runners.map((runner) => `<tr><th>${escape(runner.name)}</th><td>${runner.passed} passed, ${runner.failed} failed</td></tr>`).join('\n')}
+<tr><th>Test run</th><td>${escape(data.run.command)}: exit code ${data.run.exitCode},
+  ${data.run.seconds.toFixed(0)} s</td></tr>
+${data.run.runners.map(runnerRow).join('\n')}
 <tr><th>Content SHA-256</th><td class="hash">${hash}</td></tr>
 </tbody></table>
 <h2>Requirements</h2>
@@ -144,8 +158,9 @@ ${data.run.runners.map((runner) => `<tr><th>${escape(runner.name)}</th><td>${run
 ${rows}
 </tbody></table>
 <h2>Screenshots from the browser journeys</h2>
-${data.screenshots.map((shot) => `<figure><img alt="${escape(shot.name)}" src="data:image/png;base64,${shot.png}"><figcaption>${escape(shot.name)} · SHA-256 <span class="hash">${shot.sha256}</span></figcaption></figure>`).join('\n')}
-<p class="hash">Content SHA-256 ${hash}: the SHA-256 of the RFC 8785 canonical JSON of what this report states (screenshots by their own hashes). SHA256SUMS beside this file holds the hashes of the report's files.</p>
+${data.screenshots.map(screenshotFigure).join('\n')}
+<p class="hash">Content SHA-256 ${hash}: the SHA-256 of the RFC 8785 canonical JSON of what this report states
+(screenshots by their own hashes). SHA256SUMS beside this file holds the hashes of the report's files.</p>
 </body></html>
 `;
 }
@@ -253,7 +268,13 @@ export async function evidencePdf(data: EvidenceData, hash: string): Promise<Buf
           stack: [
             {
               text:
-                `${shot.name}${total > 1 ? ` (part ${index + 1} of ${total}${total > slices.length ? `; parts ${slices.length + 1}–${total} in the HTML report` : ''})` : ''} ` +
+                shot.name +
+                (total > 1
+                  ? ` (part ${index + 1} of ${total}` +
+                    (total > slices.length ? `; parts ${slices.length + 1}–${total} in the HTML report` : '') +
+                    ')'
+                  : '') +
+                ' ' +
                 `· SHA-256 ${shot.sha256.slice(0, 32)}…`,
               fontSize: 8,
               margin: [0, 6, 0, 2],

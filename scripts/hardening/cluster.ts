@@ -196,7 +196,12 @@ async function main(): Promise<void> {
     reportChecks([
       [
         `acknowledged writes on every node: ` +
-          `${perNode.map((_contents, i) => `${cluster.nodes[i]!.name} ${acknowledged.length - missingPerNode[i]!}/${acknowledged.length}`).join(', ')}`,
+          perNode
+            .map(
+              (_contents, i) =>
+                `${cluster.nodes[i]!.name} ${acknowledged.length - missingPerNode[i]!}/${acknowledged.length}`,
+            )
+            .join(', '),
         missingPerNode.every((missing) => missing === 0),
       ],
       [
@@ -220,7 +225,8 @@ async function main(): Promise<void> {
         otherFailures === 0 && commitsCut <= WRITERS * failovers.length,
       ],
       [
-        `restarted nodes rejoined and caught up: ${failovers.map((failover) => `${failover.node} in ${failover.rejoinMs} ms`).join(', ')}; ` +
+        `restarted nodes rejoined and caught up: ` +
+          `${failovers.map((failover) => `${failover.node} in ${failover.rejoinMs} ms`).join(', ')}; ` +
           `cluster size ${statuses.map((status) => status.clusterSize).join('/')}`,
         statuses.every((status) => status.clusterSize === 3 && status.state === 'Synced'),
       ],

@@ -153,8 +153,10 @@ async function main(): Promise<void> {
     process.stdout.write(
       `\n${line('bare', bare)}   (a bare Node HTTP server, fixed JSON: this machine's ` +
         `ceiling)\n${line('me', cheapest)}   (GET /api/me: the cheapest signed-in ` +
-        (`route)\n${eachRoute.map(([path, result]) => `${line('route', result)}   ${path}\n`).join('')}${line('reads', reads)}\n${line('light', light)} ` +
-          `  (the same reads from ${lightConnections} connections)\n${line('mixed', mixed)}\n`),
+        `route)\n` +
+        eachRoute.map(([path, result]) => `${line('route', result)}   ${path}\n`).join('') +
+        `${line('reads', reads)}\n${line('light', light)} ` +
+        `  (the same reads from ${lightConnections} connections)\n${line('mixed', mixed)}\n`,
     );
     // Little's law for a closed loop of connections: mean latency = connections / throughput.
     log(

@@ -5,7 +5,8 @@ const style = `body{font-family:'Noto Sans',system-ui,sans-serif;background:#f3f
 main{max-width:34rem;margin:3rem auto;background:#fff;border:1px solid #d8d3c4;border-radius:8px;padding:2rem}
 h1{font-size:1.3rem;margin-top:0}.banner{background:#5b3f8c;color:#fff;padding:.6rem 1rem;font-size:.9rem}
 label{display:block;margin:.8rem 0 .3rem;font-weight:600}select,input{width:100%;padding:.5rem;font-size:1rem}
-button{margin-top:1.2rem;padding:.6rem 1.2rem;font-size:1rem;background:#5b3f8c;color:#fff;border:0;border-radius:5px;cursor:pointer}
+button{margin-top:1.2rem;padding:.6rem 1.2rem;font-size:1rem;background:#5b3f8c;color:#fff;border:0;
+  border-radius:5px;cursor:pointer}
 .error{background:#fde8e8;border:1px solid #e5a5a5;padding:.6rem;border-radius:5px}.muted{color:#666;font-size:.85rem}
 table{border-collapse:collapse;width:100%;font-size:.85rem;margin-top:1.5rem}
     td,th{border-bottom:1px solid #eee;padding:.3rem;text-align:left}`;
@@ -17,6 +18,9 @@ function page(title: string, body: string, script = ''): string {
       <main>${body}</main>${script}</body></html>`;
 }
 
+const reauthenticationNote =
+  '<p>Ingotrace asks you to enter your password again before it records your electronic signature.</p>';
+
 export function signInPage(options: {
   requestToken: string;
   people: DemoPerson[];
@@ -27,7 +31,8 @@ export function signInPage(options: {
   const choices = options.people
     .map(
       (person) =>
-        `<option value="${escapeHtml(person.subject)}"${person.subject === options.selectedSubject ? ' selected' : ''}>${escapeHtml(person.name)} ` +
+        `<option value="${escapeHtml(person.subject)}"` +
+        `${person.subject === options.selectedSubject ? ' selected' : ''}>${escapeHtml(person.name)} ` +
         `— ${escapeHtml(person.groups.join(', '))}${person.note ? ` (${escapeHtml(person.note)})` : ''}</option>`,
     )
     .join('');
@@ -37,7 +42,7 @@ export function signInPage(options: {
   return page(
     'Sign in',
     `<h1>${options.forceAuthn ? 'Confirm it is you' : 'Sign in to Ingotrace'}</h1>
-${options.forceAuthn ? '<p>Ingotrace asks you to enter your password again before it records your electronic signature.</p>' : ''}
+${options.forceAuthn ? reauthenticationNote : ''}
 ${options.error ? `<p class="error" role="alert">${escapeHtml(options.error)}</p>` : ''}
 <form method="post" action="/sso/sign-in">
 <input type="hidden" name="request" value="${escapeHtml(options.requestToken)}">

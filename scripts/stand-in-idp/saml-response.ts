@@ -72,7 +72,8 @@ export function responseXml(input: SamlResponseInput, responseId = newSamlId()):
   const attributes = Object.entries(input.attributes)
     .map(
       ([name, values]) =>
-        `<saml:Attribute Name="${escapeXml(name)}" NameFormat="urn:oasis:names:tc:SAML:2.0:attrname-format:basic">${values
+        `<saml:Attribute Name="${escapeXml(name)}" ` +
+        `NameFormat="urn:oasis:names:tc:SAML:2.0:attrname-format:basic">${values
           .map((value) => `<saml:AttributeValue>${escapeXml(value)}</saml:AttributeValue>`)
           .join('')}</saml:Attribute>`,
     )
@@ -89,14 +90,16 @@ export function responseXml(input: SamlResponseInput, responseId = newSamlId()):
       `Format="urn:oasis:names:tc:SAML:2.0:nameid-format:persistent">${escapeXml(input.subject)}</saml:NameID>`) +
     (`<saml:SubjectConfirmation Method="urn:oasis:names:tc:SAML:2.0:cm:bearer">` +
       `<saml:SubjectConfirmationData${inResponseTo} ` +
-      `NotOnOrAfter="${instant(notOnOrAfter)}" Recipient="${escapeXml(input.recipient ?? input.destination)}"/></saml:SubjectConfirmation></saml:Subject>`) +
+      `NotOnOrAfter="${instant(notOnOrAfter)}" Recipient="${escapeXml(input.recipient ?? input.destination)}"/>` +
+      `</saml:SubjectConfirmation></saml:Subject>`) +
     (`<saml:Conditions NotBefore="${instant(notBefore)}" ` +
       (`NotOnOrAfter="${instant(notOnOrAfter)}"><saml:AudienceRestriction>` +
         `<saml:Audience>${escapeXml(input.audience)}</saml:Audience></saml:AudienceRestriction>` +
         `</saml:Conditions>`)) +
     (`<saml:AuthnStatement AuthnInstant="${instant(input.authnInstant)}" ` +
       (`SessionIndex="${escapeXml(input.sessionIndex ?? newSamlId())}"><saml:AuthnContext>` +
-        `<saml:AuthnContextClassRef>urn:oasis:names:tc:SAML:2.0:ac:classes:PasswordProtectedTransport</saml:AuthnContextClassRef></saml:AuthnContext></saml:AuthnStatement>`)) +
+        `<saml:AuthnContextClassRef>urn:oasis:names:tc:SAML:2.0:ac:classes:PasswordProtectedTransport` +
+        `</saml:AuthnContextClassRef></saml:AuthnContext></saml:AuthnStatement>`)) +
     `<saml:AttributeStatement>${attributes}</saml:AttributeStatement>` +
     `</saml:Assertion></samlp:Response>`
   );
