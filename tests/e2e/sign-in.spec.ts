@@ -29,7 +29,10 @@ test(
   '[E2E-DEACTIVATED] a deactivated person is refused with ' + 'the reason, and a forbidden area says not permitted',
   async ({ page }) => {
     await signInAs(page, 'kiw-0901');
-    await expect(page.getByRole('alert')).toContainText('Sign-in refused: Your Ingotrace account is deactivated');
+    const refusal = page.getByRole('alert');
+    await expect(refusal).toContainText('Sign-in refused: Your Ingotrace account is deactivated');
+    // The message opens with an animation; the screenshot waits until it shows its text.
+    await expect.poll(async () => (await refusal.boundingBox())?.height ?? 0).toBeGreaterThan(24);
     await page.screenshot({ path: 'test-results/sign-in-refused.png' });
 
     await signInAs(page, 'kiw-0101', '/administration');
