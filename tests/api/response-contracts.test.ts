@@ -1,10 +1,14 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import type { z } from 'zod';
-import { lotDetailSchema, nonconformanceSummarySchema, processRunDetailSchema } from '@shared/schemas/lot-detail';
+import {
+  lotDetailSchema,
+  nonconformanceSummarySchema,
+  processRunDetailSchema,
+  processRunSummarySchema,
+} from '@shared/schemas/lot-detail';
 import { consigneeSchema } from '@shared/schemas/manufacturing-replies';
 import { lotPageSchema } from '@shared/schemas/manufacturing';
 import { pageOf } from '@shared/schemas/page';
-import { processRunSummarySchema } from '@shared/schemas/lot-detail';
 import { drillReportSchema, recallDetailSchema, recallPageSchema } from '@shared/schemas/recall';
 import { releaseQueuePageSchema, releaseViewSchema } from '@shared/schemas/release';
 import { backwardTraceSchema, forwardTraceSchema, graphReplySchema } from '@shared/schemas/trace';

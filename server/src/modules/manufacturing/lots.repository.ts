@@ -1,4 +1,5 @@
 import type { EntityManager } from 'typeorm';
+import { lockLot } from './production-lot.repository';
 import { insertReturningId } from '../../db/insert-returning-id';
 import { LotLink } from './entities/lot-link.entity';
 import { LotOperation } from './entities/lot-operation.entity';
@@ -51,7 +52,7 @@ export function toLotSummary(row: LotRow, onHand: number | null, heats: string[]
 }
 
 export async function findLotRow(manager: EntityManager, id: number, lock = false): Promise<LotRow | null> {
-  if (lock) await manager.query('SELECT id FROM production_lot WHERE id = ? FOR UPDATE', [id]);
+  if (lock) await lockLot(manager, id);
   const [row]: LotRow[] = await manager.query(`${lotSelect} WHERE l.id = ?`, [id]);
   return row ?? null;
 }
