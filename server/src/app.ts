@@ -22,6 +22,9 @@ import { digitalLinkRouter } from './modules/trace/digital-link.router';
 import { traceRouter } from './modules/trace/trace.router';
 import { homeRouter } from './modules/home/home.router';
 import { recallRouter } from './modules/recall/recall.router';
+import { fieldActionRouter } from './modules/recall/field-action.router';
+import { replyRouter } from './modules/recall/reply.router';
+import { startReminderWorker } from './modules/recall/notice-reminders';
 import { startMailWorker } from './modules/mail/mail-outbox';
 import { startDailyCheckpoints } from './modules/ledger/ledger-checkpoints';
 import { configureLinks } from './modules/mail/links';
@@ -36,6 +39,8 @@ export interface AppOptions {
    * Checkpoint the audit ledger daily (default, except in the test profile, whose suites checkpoint when they mean to).
    */
   dailyCheckpoints?: boolean;
+  /** Remind consignees that have not answered (default, except in the test profile, whose suites run it when they mean to). */
+  reminders?: boolean;
 }
 
 export type IngotraceApp = Express & { shutdown(): Promise<void> };
@@ -92,6 +97,9 @@ export function createApp(context: AppContext, options: AppOptions = {}): Ingotr
     }),
   );
 
+  // A consignee's reply link: no account, no session; the link's secret is the credential.
+  app.use('/api/replies', replyRouter(context));
+
   const api = express.Router();
   api.use(express.json({ limit: '1mb' }));
   api.use(...authentication.sessionHandlers, authentication.csrfProtection);
@@ -108,6 +116,7 @@ export function createApp(context: AppContext, options: AppOptions = {}): Ingotr
   api.use(traceRouter(context));
   api.use(homeRouter(context));
   api.use(recallRouter(context));
+  api.use(fieldActionRouter(context));
   api.use(apiNotFound);
   app.use('/api', api);
 
@@ -135,10 +144,18 @@ export function createApp(context: AppContext, options: AppOptions = {}): Ingotr
           (error) => context.logger.error({ err: error }, 'the daily audit trail checkpoint failed'),
         )
       : () => undefined;
+  const stopReminders =
+    (options.reminders ?? context.config.NODE_ENV !== 'test')
+      ? startReminderWorker(
+          () => context.database.dataSource,
+          (error) => context.logger.error({ err: error }, 'the consignee reminder run failed'),
+        )
+      : () => undefined;
   return Object.assign(app, {
     shutdown: async () => {
       stopMailWorker();
       stopCheckpoints();
+      stopReminders();
       await authentication.close();
     },
   });

@@ -32,6 +32,7 @@ export const actions = [
   'recall.read',
   'recall.manage',
   'recall.close',
+  'recall.notify',
   'holds.lift',
   'audit.read',
   'people.read',
@@ -111,6 +112,7 @@ export const permissionMatrix: Record<Role, readonly Action[]> = {
     'recall.read',
     'recall.manage',
     'recall.close',
+    'recall.notify',
   ],
   // Administers people and configuration; signs nothing and edits no quality record.
   administrator: ['system.read', 'people.read', 'people.manage'],

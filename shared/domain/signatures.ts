@@ -17,6 +17,8 @@ export const signatureMeanings = [
   'confirmed',
   'returned-to-engineering',
   'refused',
+  'issued',
+  'closed-justified',
 ] as const;
 export type SignatureMeaning = (typeof signatureMeanings)[number];
 
@@ -35,6 +37,8 @@ export const meaningLabels: Record<SignatureMeaning, string> = {
   confirmed: 'Role change confirmed',
   'returned-to-engineering': 'Returned to engineering',
   refused: 'Role change refused',
+  issued: 'Notices issued',
+  'closed-justified': 'Closed below the effectiveness level, with justification',
 };
 
 /** Meanings that must carry a reason. */
@@ -47,6 +51,7 @@ export const meaningsNeedingReason: readonly SignatureMeaning[] = [
   'justified',
   'returned-to-engineering',
   'refused',
+  'closed-justified',
 ];
 
 /** The statement shown beside every signature (21 CFR 11.100(c) / 11.50 manifestation). */

@@ -2,6 +2,7 @@ import { z } from 'zod';
 import type { SnapshotDiff } from '../domain/recall/snapshot-diff';
 import type { DrillAssessment } from '../domain/recall/drill-report';
 import { pageOf } from './page';
+import { effectivenessSchema } from './field-action';
 import { forwardQuerySchema, forwardTraceSchema, traceConsigneeSchema, tracedLotSchema } from './trace';
 
 export const recallModes = ['recall', 'drill'] as const;
@@ -172,6 +173,8 @@ export const drillReportSchema = z.object({
     lotsRemovedSinceOpening: z.array(z.string()),
   }),
   assessment: drillAssessmentSchema,
+  /** The field action's figures, when the drill exercises consignee notices. */
+  effectiveness: effectivenessSchema.nullable(),
   lots: z.array(tracedLotSchema.extend({ heats: z.array(z.string()) })),
   consignees: z.array(traceConsigneeSchema),
   madeAt: z.string(),

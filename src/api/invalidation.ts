@@ -39,6 +39,7 @@ export const changeOfRecordType: Record<string, ChangeKind> = {
   'lot-release': 'release',
   'lot-hold': 'recall',
   'recall-investigation': 'recall',
+  'recall-notices': 'recall',
   'role-change': 'people',
   'ledger-review': 'release',
 };

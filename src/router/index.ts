@@ -21,6 +21,7 @@ export type RouteName =
   | 'consignees'
   | 'recalls'
   | 'recall'
+  | 'reply'
   | 'sign-in'
   | 'signed-out'
   | 'reauthentication-complete'
@@ -138,6 +139,12 @@ export const routes: RouteRecordRaw[] = [
     name: 'sign-in',
     component: () => import('../views/SignInView.vue'),
     meta: { title: 'Sign in', public: true },
+  },
+  {
+    path: '/reply/:token',
+    name: 'reply',
+    component: () => import('../views/ReplyView.vue'),
+    meta: { title: 'Recall notice reply', public: true },
   },
   {
     path: '/signed-out',

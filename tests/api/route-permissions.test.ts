@@ -20,6 +20,8 @@ const sampleParameters: Record<string, string> = {
   runId: '999999',
   ncId: '999999',
   recallId: '999999',
+  noticeId: '999999',
+  token: 'n'.repeat(43),
   operationId: '999999',
   methodId: 'NO-SUCH-METHOD',
   reauthenticationId: '0'.repeat(32),

@@ -17,6 +17,11 @@ import { LotHold } from '../modules/recall/entities/lot-hold.entity';
 import { LotLink } from '../modules/manufacturing/entities/lot-link.entity';
 import { LotOperation } from '../modules/manufacturing/entities/lot-operation.entity';
 import { MailOutbox } from '../modules/mail/entities/mail-outbox.entity';
+import { NoticeReply } from '../modules/recall/entities/notice-reply.entity';
+import { NoticeReplyLot } from '../modules/recall/entities/notice-reply-lot.entity';
+import { RecallFieldAction } from '../modules/recall/entities/recall-field-action.entity';
+import { RecallNotice } from '../modules/recall/entities/recall-notice.entity';
+import { ReturnedGoodsReceipt } from '../modules/recall/entities/returned-goods-receipt.entity';
 import { MaterialMovement } from '../modules/materials/entities/material-movement.entity';
 import { Nonconformance } from '../modules/manufacturing/entities/nonconformance.entity';
 import { OperationFile } from '../modules/manufacturing/entities/operation-file.entity';
@@ -66,6 +71,11 @@ export const entities = [
   LotLink,
   LotOperation,
   MailOutbox,
+  NoticeReply,
+  NoticeReplyLot,
+  RecallFieldAction,
+  RecallNotice,
+  ReturnedGoodsReceipt,
   MaterialMovement,
   Nonconformance,
   OperationFile,

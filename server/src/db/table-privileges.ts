@@ -29,6 +29,10 @@ export const tableAccess: Record<string, TableAccess> = {
   check_analysis: 'append-only',
   // A firm's validation of a method for a material is withdrawn by a new row, never rewritten.
   process_method_validation: 'append-only',
+  // A consignee's reply is kept as given (a correction is a new reply); returned goods are counted once.
+  notice_reply: 'append-only',
+  notice_reply_lot: 'append-only',
+  returned_goods_receipt: 'append-only',
 };
 
 const privilegesByAccess: Record<TableAccess, string> = {

@@ -7,6 +7,7 @@ import { nonconformanceRecordType } from './manufacturing/nonconformances.servic
 import { lotReleaseRecordType } from './release/release.record';
 import { lotHoldRecordType } from './recall/lot-holds';
 import { recallInvestigationRecordType } from './recall/recall.record';
+import { recallNoticesRecordType } from './recall/notices.record';
 import { registerSignableRecordType } from './signatures/signable-records';
 import { roleChangeRecordType } from './people/role-change.record';
 
@@ -21,5 +22,6 @@ export function registerProductRecordTypes(): void {
   registerSignableRecordType(lotReleaseRecordType);
   registerSignableRecordType(lotHoldRecordType);
   registerSignableRecordType(recallInvestigationRecordType);
+  registerSignableRecordType(recallNoticesRecordType);
   registerSignableRecordType(roleChangeRecordType);
 }

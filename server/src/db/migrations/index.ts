@@ -22,6 +22,7 @@ import { AddPartRecallTrigger1764709200000 } from './1764709200000-add-part-reca
 import { AddPlantTimeZone1764712800000 } from './1764712800000-add-plant-time-zone';
 import { NameReturnedReleaseOutcome1764716400000 } from './1764716400000-name-returned-release-outcome';
 import { NameKeyIndexesApart1764720000000 } from './1764720000000-name-key-indexes-apart';
+import { CreateFieldAction1764723600000 } from './1764723600000-create-field-action';
 
 /** Every migration in the order it runs. Add new ones at the end. */
 export const migrations = [
@@ -49,4 +50,5 @@ export const migrations = [
   AddPlantTimeZone1764712800000,
   NameReturnedReleaseOutcome1764716400000,
   NameKeyIndexesApart1764720000000,
+  CreateFieldAction1764723600000,
 ];

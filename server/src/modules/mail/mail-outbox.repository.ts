@@ -3,7 +3,8 @@ import { MailOutbox } from './entities/mail-outbox.entity';
 
 export async function insertMail(
   manager: EntityManager,
-  mail: Pick<MailOutbox, 'recipients' | 'subject' | 'bodyText' | 'event' | 'entityType' | 'entityId'>,
+  mail: Pick<MailOutbox, 'recipients' | 'subject' | 'bodyText' | 'event' | 'entityType' | 'entityId'> &
+    Partial<Pick<MailOutbox, 'attachmentName' | 'attachmentType' | 'attachment'>>,
 ): Promise<void> {
   await manager.getRepository(MailOutbox).insert(mail);
 }
@@ -23,7 +24,16 @@ export async function addressesOfRole(manager: EntityManager, role: string): Pro
 /** Mail not yet sent whose next attempt is due, oldest first. */
 export function dueMail(manager: EntityManager, now: Date, batch: number) {
   return manager.getRepository(MailOutbox).find({
-    select: { id: true, recipients: true, subject: true, bodyText: true, attempts: true },
+    select: {
+      id: true,
+      recipients: true,
+      subject: true,
+      bodyText: true,
+      attempts: true,
+      attachmentName: true,
+      attachmentType: true,
+      attachment: true,
+    },
     where: { sentAt: IsNull(), nextAttemptAt: LessThanOrEqual(now) },
     order: { id: 'ASC' },
     take: batch,

@@ -10,6 +10,8 @@ export interface OutgoingMail {
   text: string;
   event: string;
   entity: { type: string; id: string | number };
+  /** One file sent with the mail (a notice as a PDF). */
+  attachment?: { name: string; contentType: string; content: Buffer };
 }
 
 /** Queues a mail inside the caller's transaction; nothing is sent unless the change commits. */
@@ -23,6 +25,13 @@ export async function queueMail(manager: EntityManager, mail: OutgoingMail): Pro
     event: mail.event,
     entityType: mail.entity.type,
     entityId: String(mail.entity.id),
+    ...(mail.attachment
+      ? {
+          attachmentName: mail.attachment.name,
+          attachmentType: mail.attachment.contentType,
+          attachment: mail.attachment.content,
+        }
+      : {}),
   });
 }
 
@@ -47,7 +56,23 @@ export async function deliverDueMail(
     // Claim the mail so that two workers never send it twice.
     if (!(await claimMail(manager, mail.id, new Date(), new Date(Date.now() + 5 * 60_000)))) continue;
     try {
-      await transport.sendMail({ from, to: mail.recipients, subject: mail.subject, text: mail.bodyText });
+      await transport.sendMail({
+        from,
+        to: mail.recipients,
+        subject: mail.subject,
+        text: mail.bodyText,
+        ...(mail.attachment && mail.attachmentName
+          ? {
+              attachments: [
+                {
+                  filename: mail.attachmentName,
+                  content: mail.attachment,
+                  contentType: mail.attachmentType ?? 'application/octet-stream',
+                },
+              ],
+            }
+          : {}),
+      });
       await markMailSent(manager, mail.id, mail.attempts + 1);
       sent++;
     } catch (error) {

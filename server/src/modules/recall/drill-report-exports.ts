@@ -1,3 +1,4 @@
+import { effectivenessSource } from '@shared/domain/recall/effectiveness';
 import { stringify } from 'csv-stringify/sync';
 import type { DataSource } from 'typeorm';
 import type { Content, TDocumentDefinitions } from 'pdfmake/interfaces';
@@ -39,6 +40,41 @@ function timingRows(report: DrillReport, when: (iso: string) => string): Array<[
   ];
 }
 
+/** The exercised field action's figures (21 CFR 7.42(b)(3) level), one row each. */
+function effectivenessRows(report: DrillReport): Array<Array<string | number>> {
+  const figures = report.effectiveness;
+  if (!figures) return [];
+  return [
+    ['effectiveness', `level ${figures.level} (${effectivenessSource})`, figures.met ? 'met' : 'not met', ''],
+    ['effectiveness', 'consignees notified', figures.notified, `of ${figures.consignees}`],
+    ['effectiveness', 'consignees replied', figures.replied, `${figures.needed} needed`],
+    ['effectiveness', 'units accounted for', figures.unitsAccounted, `of ${figures.unitsShipped} shipped`],
+    ...figures.differences.map((line) => ['difference', `${line.consignee} · ${line.lotNumber}`, '', line.problem]),
+  ];
+}
+
+function effectivenessSection(report: DrillReport): Content[] {
+  const figures = report.effectiveness;
+  if (!figures) return [];
+  return [
+    heading(`Consignee notices exercised: effectiveness check level ${figures.level} (${effectivenessSource})`),
+    table(
+      ['Consignees', 'Notified', 'Replied', 'Replies needed', 'Units shipped', 'Units accounted for', 'Level met'],
+      [
+        [
+          String(figures.consignees),
+          String(figures.notified),
+          String(figures.replied),
+          String(figures.needed),
+          String(figures.unitsShipped),
+          String(figures.unitsAccounted),
+          figures.met ? 'yes' : `no: ${figures.shortfalls.join('; ')}`,
+        ],
+      ],
+    ),
+  ];
+}
+
 /** One CSV, a section per kind of row, so that a spreadsheet filter on the first column splits it. */
 export function drillReportCsv(report: DrillReport): string {
   const { totals, checks } = report.assessment;
@@ -60,6 +96,7 @@ export function drillReportCsv(report: DrillReport): string {
         ['consignees', totals.consignees],
       ] as const
     ).map(([name, value]) => ['totals', name, value, '']),
+    ...effectivenessRows(report),
     ...checks.map((check) => [
       'check',
       check.label,
@@ -170,6 +207,7 @@ export async function drillReportPdf(report: DrillReport, organisation: string, 
       },
       heading('Completeness checks'),
       ...checkRows,
+      ...effectivenessSection(report),
       ...consigneeSection(report.consignees),
       heading('Affected lots'),
       table(

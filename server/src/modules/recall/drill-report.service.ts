@@ -1,5 +1,6 @@
 // The report of a recall drill: the facts around its latest traced scope, read from the records,
 // and their assessment (pure, in shared/domain/recall/drill-report.ts).
+import { effectivenessOf } from './field-action.service';
 import type { DataSource } from 'typeorm';
 import { assessDrill, type DrillLotFacts } from '@shared/domain/recall/drill-report';
 import { diffAffectedSets } from '@shared/domain/recall/snapshot-diff';
@@ -89,6 +90,7 @@ export async function drillReport(dataSource: DataSource, id: number, now = new 
       lotsRemovedSinceOpening: diff.lotsRemoved.map((lot) => lot.lotNumber),
     },
     assessment,
+    effectiveness: await effectivenessOf(manager, id),
     lots: lots.map((lot, index) => ({ ...lot, heats: facts[index]!.sourceHeats.map((heat) => heat.heatNumber) })),
     consignees,
     madeAt: now.toISOString(),

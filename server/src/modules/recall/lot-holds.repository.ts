@@ -49,6 +49,7 @@ export async function lotsHeldByRecall(
   manager: EntityManager,
   recallId: number,
   lotIds: number[],
+  activeOnly = false,
 ): Promise<Set<number>> {
   if (!lotIds.length) return new Set();
   const rows = await manager
@@ -56,6 +57,7 @@ export async function lotsHeldByRecall(
     .createQueryBuilder('hold')
     .select('hold.lotId', 'lotId')
     .where('hold.recallId = :recallId AND hold.lotId IN (:...lotIds)', { recallId, lotIds })
+    .andWhere(activeOnly ? 'hold.liftedAt IS NULL' : '1 = 1')
     .getRawMany<{ lotId: number }>();
   return new Set(rows.map((row) => Number(row.lotId)));
 }

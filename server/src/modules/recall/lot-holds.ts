@@ -70,12 +70,15 @@ export async function placeHolds(
   hold: { recallId: number; recallNumber: string; reason: string; placedBy: number },
   actor: Actor,
   origin?: RequestOrigin,
+  /** Hold again a lot whose earlier hold by this recall was lifted (returned units arriving later). */
+  again = false,
 ): Promise<string[]> {
   if (!lots.length) return [];
   const already = await lotsHeldByRecall(
     manager,
     hold.recallId,
     lots.map((lot) => lot.id),
+    again,
   );
   const fresh = lots.filter((lot) => !already.has(lot.id));
   for (const lot of fresh) {

@@ -38,4 +38,13 @@ export class MailOutbox {
 
   @Column({ type: 'varchar', name: 'last_error', length: 1000, nullable: true })
   lastError: string | null;
+
+  @Column({ type: 'varchar', name: 'attachment_name', length: 200, nullable: true })
+  attachmentName: string | null;
+
+  @Column({ type: 'varchar', name: 'attachment_type', length: 100, nullable: true })
+  attachmentType: string | null;
+
+  @Column({ type: 'longblob', nullable: true })
+  attachment: Buffer | null;
 }
