@@ -108,3 +108,17 @@ export function instantFromPlantLocal(local: string, timeZone: string): Date | n
     .filter((utc) => offsetAt(utc) === asUtc - utc);
   return new Date(fits.length ? Math.min(...fits) : asUtc - before);
 }
+
+/**
+ * The zone's offset from UTC at an instant as ISO 8601 writes it ("+01:00", "-05:00", "+05:30"),
+ * from the runtime's time zone database.
+ */
+export function utcOffset(instant: Instant, timeZone: string): string {
+  const date = instant instanceof Date ? instant : new Date(instant);
+  const name =
+    new Intl.DateTimeFormat('en-GB', { timeZone, timeZoneName: 'longOffset' })
+      .formatToParts(date)
+      .find((part) => part.type === 'timeZoneName')?.value ?? 'GMT';
+  const match = /^GMT([+-])(\d{2}):(\d{2})$/.exec(name);
+  return match ? `${match[1]}${match[2]}:${match[3]}` : '+00:00';
+}

@@ -45,3 +45,7 @@ export const replyPageQuery = (token: string) =>
   });
 export const sendReply = (token: string, input: NoticeReplyInput) =>
   apiRequest(`/replies/${token}`, replyPageSchema, { method: 'POST', body: input });
+
+/** Where the browser downloads a genealogy as EPCIS 2.0 JSON-LD (each export is recorded in the audit trail). */
+export const recallEpcisUrl = (recallId: number) => `/api/recalls/${recallId}/epcis`;
+export const lotEpcisUrl = (lotId: number) => `/api/lots/${lotId}/epcis`;

