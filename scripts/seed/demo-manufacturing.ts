@@ -52,6 +52,17 @@ export const demoConsignees: Array<{ name: string; kind: 'customer' | 'distribut
   { name: 'Moravia Spine Centre', kind: 'hospital', country: 'Czechia' },
 ];
 
+/** An invented field-action address under the reserved .example domain (RFC 2606): mail to it goes nowhere real. */
+export function demoContactEmail(name: string): string {
+  const slug = name
+    .normalize('NFD')
+    .replace(/[\u0300-\u036f]/g, '')
+    .toLowerCase()
+    .replace(/[^a-z0-9]+/g, '-')
+    .replace(/^-|-$/g, '');
+  return `field-actions@${slug}.example`;
+}
+
 const finishing = (passivation: string) => [
   { kind: 'passivation' as const, name: 'Passivate', processMethod: passivation },
   { kind: 'cleaning' as const, name: 'Final clean', processMethod: 'KIW-CLEAN-AQ' },
@@ -186,7 +197,12 @@ export async function seedDemoManufacturing(dataSource: DataSource): Promise<voi
   const between = (low: number, high: number) => low + Math.floor(random() * (high - low + 1));
 
   for (const consignee of demoConsignees)
-    await createConsignee(dataSource, consigneeInputSchema.parse({ ...consignee, contactEmail: null }), actor, origin);
+    await createConsignee(
+      dataSource,
+      consigneeInputSchema.parse({ ...consignee, contactEmail: demoContactEmail(consignee.name) }),
+      actor,
+      origin,
+    );
   // The firm's own validation of the citric method for titanium alloy parts: shown as the firm's own beside the
   // method's stainless-steel scope.
   await recordMethodValidation(

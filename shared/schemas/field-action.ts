@@ -80,6 +80,10 @@ export const replyTokenParamsSchema = z.object({
   token: z.string().regex(/^[A-Za-z0-9_-]{43}$/, 'Not a reply link'),
 });
 
+export const fieldActionReportQuerySchema = z.object({
+  format: z.enum(['csv', 'pdf'], { error: 'Ask for csv or pdf' }),
+});
+
 export const returnedGoodsInputSchema = z.object({
   consigneeId: z.coerce.number({ error: 'Choose the consignee' }).int().positive('Choose the consignee'),
   lotId: z.coerce.number({ error: 'Choose the lot' }).int().positive('Choose the lot'),

@@ -276,6 +276,11 @@ export const consigneeInputSchema = z.object({
   contactEmail: z.email('An e-mail address').nullable().default(null),
 });
 export type ConsigneeInput = z.input<typeof consigneeInputSchema>;
+/** Where a consignee's recall notices go; null when none is on record. */
+export const consigneeContactInputSchema = z.object({
+  contactEmail: z.email('An e-mail address').nullable(),
+});
+export type ConsigneeContactInput = z.input<typeof consigneeContactInputSchema>;
 export const shipmentInputSchema = z.object({
   consigneeId: z.number().int().positive('Choose the consignee'),
   qty: z.number().int().min(1, 'Ship at least one unit'),

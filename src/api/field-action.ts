@@ -49,3 +49,5 @@ export const sendReply = (token: string, input: NoticeReplyInput) =>
 /** Where the browser downloads a genealogy as EPCIS 2.0 JSON-LD (each export is recorded in the audit trail). */
 export const recallEpcisUrl = (recallId: number) => `/api/recalls/${recallId}/epcis`;
 export const lotEpcisUrl = (lotId: number) => `/api/lots/${lotId}/epcis`;
+export const fieldActionReportUrl = (recallId: number, format: 'csv' | 'pdf') =>
+  `/api/recalls/${recallId}/field-action/report?format=${format}`;

@@ -22,6 +22,7 @@ import {
   lotPageSchema,
   lotSummarySchema,
   partSchema,
+  type ConsigneeContactInput,
   type ConsigneeInput,
   type DispositionInput,
   type LotListQuery,
@@ -149,5 +150,7 @@ export const proposeDisposition = (id: number, disposition: DispositionInput) =>
   });
 export const createConsignee = (consignee: ConsigneeInput) =>
   apiRequest('/consignees', consigneeSchema, { method: 'POST', body: consignee });
+export const changeConsigneeContact = (consigneeId: number, contact: ConsigneeContactInput) =>
+  apiRequest(`/consignees/${consigneeId}/contact`, consigneeSchema, { method: 'PUT', body: contact });
 export const attachOperationFile = (lotId: number, operationId: number, file: File) =>
   apiUpload(`/lots/${lotId}/operations/${operationId}/files`, 'file', file, operationFileAttachedSchema);

@@ -63,6 +63,10 @@ export const useRaiseNonconformance = () => useRecordChange((nc: NonconformanceI
 export const useProposeDisposition = (id: Ref<number>) =>
   useRecordChange((disposition: DispositionInput) => api.proposeDisposition(id.value, disposition));
 export const useCreateConsignee = () => useRecordChange((consignee: ConsigneeInput) => api.createConsignee(consignee));
+export const useChangeConsigneeContact = () =>
+  useRecordChange((change: { consigneeId: number; contactEmail: string | null }) =>
+    api.changeConsigneeContact(change.consigneeId, { contactEmail: change.contactEmail }),
+  );
 export const useAttachOperationFile = (lotId: Ref<number>) =>
   useRecordChange((input: { operationId: number; file: File }) =>
     api.attachOperationFile(lotId.value, input.operationId, input.file),

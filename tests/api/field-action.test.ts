@@ -1,4 +1,6 @@
+import { mkdirSync, writeFileSync } from 'node:fs';
 import { createConnection } from 'mysql2/promise';
+import { parse } from 'csv-parse/sync';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { defaultNoticeTemplate } from '@shared/domain/recall/notice-template';
 import type { FieldActionView, NoticePreview, ReplyPage } from '@shared/schemas/field-action';
@@ -243,7 +245,9 @@ describe('field action: consignee notices, replies by link, reminders, returned 
         )
       ).arrayBuffer(),
     );
-    const text = readPdf(pdf).text;
+    const { text, qrCodes } = readPdf(pdf);
+    // The printed notice carries the same reply link as a QR code, for a consignee reading it on paper.
+    expect(qrCodes).toEqual([/https?:\/\/\S+\/reply\/[A-Za-z0-9_-]{43}/.exec(mail.text)![0]]);
     expect(text).toContain(recall.recallNumber);
     const to = mail.to[0]!.address;
     const notice = view.notices.find((entry) => entry.recipient === to)!;
@@ -431,6 +435,41 @@ describe('field action: consignee notices, replies by link, reminders, returned 
     expect(detail.holds.some((hold) => hold.lotId === lots[0]!.id && hold.liftedAt === null)).toBe(true);
   });
 
+  it('[FIELD-REPORT] when the field action is reported, then the CSV and PDF give the same figures and differences', async () => {
+    const csv = await people.auditor!.agent.get(`/api/recalls/${recall.id}/field-action/report?format=csv`);
+    expect(csv.status).toBe(200);
+    const rows = parse(csv.text, { columns: true }) as Array<{
+      section: string;
+      name: string;
+      value: string;
+      detail: string;
+    }>;
+    expect(rows.find((row) => row.name === 'consignees replied')).toMatchObject({ value: '2', detail: '3 needed' });
+    expect(rows.find((row) => row.name === 'units accounted for')?.value).toBe('10');
+    expect(rows.filter((row) => row.section === 'notice')).toHaveLength(3);
+    expect(rows.filter((row) => row.section === 'difference').map((row) => row.detail)).toEqual([
+      '2 of 3 units shipped are not accounted for',
+    ]);
+    expect(rows.find((row) => row.section === 'returned')).toMatchObject({ value: '3' });
+    const pdf = await people
+      .auditor!.agent.get(`/api/recalls/${recall.id}/field-action/report?format=pdf`)
+      .buffer(true)
+      .parse((response, done) => {
+        const chunks: Buffer[] = [];
+        response.on('data', (chunk: Buffer) => chunks.push(chunk));
+        response.on('end', () => done(null, Buffer.concat(chunks)));
+      });
+    const text = readPdf(pdf.body as Buffer).text;
+    expect(text).toContain(`Field action of recall ${recall.recallNumber}`);
+    expect(text).toContain('2 of 3 units shipped are not accounted for');
+    expect(text).toContain('Quiet Valley Hospital (test)');
+    mkdirSync('test-results', { recursive: true });
+    writeFileSync('test-results/field-action-report.pdf', pdf.body as Buffer);
+    expect((await people.auditor!.agent.get(`/api/recalls/${recall.id}/field-action/report?format=xlsx`)).status).toBe(
+      400,
+    );
+  });
+
   it('[FIELD-CLOSE] when the level is not met, then closing needs a signed justification; when met, it does not', async () => {
     for (const hold of ((await people.auditor!.agent.get(`/api/recalls/${recall.id}`)).body as RecallDetail).holds)
       if (!hold.liftedAt)
@@ -506,6 +545,40 @@ describe('field action: consignee notices, replies by link, reminders, returned 
       (await people.auditor!.agent.get(`/api/recalls/${drillId}/drill-report`)).body,
     );
     expect(report.effectiveness).toMatchObject({ consignees: 3, notified: 0, met: false });
+
+    // A consignee without an address stops the issue until one is on record and the notices are prepared again.
+    const contact = (who: string, contactEmail: string | null) =>
+      send(who, 'put', `/api/consignees/${consignees.silent}/contact`, { contactEmail });
+    expect((await contact('engineer', 'stores at quiet valley')).body.error.fields).toEqual({
+      contactEmail: 'An e-mail address',
+    });
+    expect((await contact('auditor', null)).status).toBe(403);
+    expect((await contact('engineer', null)).body).toMatchObject({ contactEmail: null });
+    await post('coordinator', `/api/recalls/${drillId}/notices`, {});
+    const issue = () =>
+      signThroughApi(saml, people.coordinator!, {
+        recordType: 'recall-notices',
+        recordId: String(drillId),
+        meaning: 'issued',
+      });
+    const refused = await issue();
+    expect(refused.status).toBe(422);
+    expect(refused.body.error.message).toBe(
+      'Quiet Valley Hospital (test) has no e-mail address on record; record it on the Consignees screen, then ' +
+        'prepare the notices again',
+    );
+    expect((await contact('engineer', 'stores@quiet-valley.test')).status).toBe(200);
+    await post('coordinator', `/api/recalls/${drillId}/notices`, {});
+    expect((await issue()).status).toBe(201);
+    const drillMail = await mailWithSubject(
+      running.config.MAIL_WEB_PORT,
+      `RECALL DRILL (exercise): Medical device recall ${report.drill.recallNumber}`,
+    );
+    expect(drillMail.text).toContain('/reply/');
+    const issuedReport = drillReportSchema.parse(
+      (await people.auditor!.agent.get(`/api/recalls/${drillId}/drill-report`)).body,
+    );
+    expect(issuedReport.effectiveness).toMatchObject({ consignees: 3, notified: 3, replied: 0 });
     const csv = (await people.auditor!.agent.get(`/api/recalls/${drillId}/drill-report?format=csv`)).text;
     expect(csv).toContain('effectiveness,level A (21 CFR 7.42(b)(3)),not met');
     expect(

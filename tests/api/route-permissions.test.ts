@@ -21,6 +21,7 @@ const sampleParameters: Record<string, string> = {
   ncId: '999999',
   recallId: '999999',
   noticeId: '999999',
+  consigneeId: '999999',
   token: 'n'.repeat(43),
   operationId: '999999',
   methodId: 'NO-SUCH-METHOD',

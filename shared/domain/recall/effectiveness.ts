@@ -193,8 +193,7 @@ export function assessEffectiveness(input: {
 
   const shortfalls: string[] = [];
   if (notified < consignees) shortfalls.push(`${consignees - notified} of ${consignees} consignees not notified yet`);
-  if (replied < needed)
-    shortfalls.push(`${replied} of the ${needed} consignee replies that ${levelDescriptions[input.level]} needs`);
+  if (replied < needed) shortfalls.push(`${replied} of the ${needed} consignee replies the level needs`);
   const unitsShipped = lines.reduce((total, line) => total + line.shipped, 0);
   return {
     level: input.level,

@@ -2,6 +2,7 @@ import { Router } from 'express';
 import { z } from 'zod';
 import { methodValidationInputSchema } from '@shared/schemas/process-methods';
 import {
+  consigneeContactInputSchema,
   consigneeInputSchema,
   dispositionInputSchema,
   idParams,
@@ -35,7 +36,7 @@ import {
   proposeDisposition,
   raiseNonconformance,
 } from './nonconformances.service';
-import { createConsignee, listConsignees, shipLot } from './shipments.service';
+import { changeConsigneeContact, createConsignee, listConsignees, shipLot } from './shipments.service';
 import { attachOperationFile, MEASUREMENT_FILE_MAX_BYTES, operationFile } from './operation-files';
 import { AppError } from '../../errors';
 
@@ -337,6 +338,21 @@ export function manufacturingRouter(context: AppContext): Router {
     requireAction('shipments.write'),
     ...validated({ body: consigneeInputSchema }, async (input, req, res) => {
       res.status(201).json(await createConsignee(data(), input.body, actorOf(req, 'shipments.write'), originOf(req)));
+    }),
+  );
+  router.put(
+    '/consignees/:consigneeId/contact',
+    requireAction('shipments.write'),
+    ...validated({ params: idParams('consigneeId'), body: consigneeContactInputSchema }, async (input, req, res) => {
+      res.json(
+        await changeConsigneeContact(
+          data(),
+          input.params.consigneeId,
+          input.body,
+          actorOf(req, 'shipments.write'),
+          originOf(req),
+        ),
+      );
     }),
   );
   return router;

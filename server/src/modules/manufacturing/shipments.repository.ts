@@ -34,6 +34,15 @@ export function findConsignee(manager: EntityManager, id: number) {
   return manager.getRepository(Consignee).findOne({ select: { id: true, name: true }, where: { id } });
 }
 
+/** The consignee, locked for a change of its contact address. */
+export function lockConsignee(manager: EntityManager, id: number) {
+  return manager.getRepository(Consignee).findOne({ where: { id }, lock: { mode: 'pessimistic_write' } });
+}
+
+export async function setConsigneeContact(manager: EntityManager, id: number, contactEmail: string | null) {
+  await manager.getRepository(Consignee).update({ id }, { contactEmail });
+}
+
 export async function insertConsignee(
   manager: EntityManager,
   consignee: Pick<Consignee, 'name' | 'kind' | 'country' | 'contactEmail'>,

@@ -1,6 +1,6 @@
 import type { z } from 'zod';
 import type { DataSource } from 'typeorm';
-import { consigneeInputSchema, shipmentInputSchema } from '@shared/schemas/manufacturing';
+import { consigneeContactInputSchema, consigneeInputSchema, shipmentInputSchema } from '@shared/schemas/manufacturing';
 import type { Person } from '@shared/schemas/people';
 import { AppError } from '../../errors';
 import { inTransaction } from '../../db/transaction';
@@ -13,6 +13,8 @@ import {
   findConsignee,
   insertConsignee,
   insertShipment,
+  lockConsignee,
+  setConsigneeContact,
   unitsShipped,
 } from './shipments.repository';
 
@@ -43,6 +45,33 @@ export async function createConsignee(
       origin,
     });
     return { id, ...input, shipments: 0 };
+  });
+}
+
+/**
+ * Records where a consignee's recall notices go. A notice already prepared keeps the address it
+ * was prepared with; preparing the notices again takes the new one.
+ */
+export async function changeConsigneeContact(
+  dataSource: DataSource,
+  consigneeId: number,
+  input: z.output<typeof consigneeContactInputSchema>,
+  actor: Actor,
+  origin: RequestOrigin,
+) {
+  return inTransaction(dataSource, async (manager) => {
+    const consignee = await lockConsignee(manager, consigneeId);
+    if (!consignee) throw AppError.notFound('Consignee');
+    await setConsigneeContact(manager, consigneeId, input.contactEmail);
+    await appendLedgerEvent(manager, {
+      actor,
+      action: 'consignee.contact-changed',
+      entity: { type: 'consignee', id: consigneeId },
+      before: { contactEmail: consignee.contactEmail },
+      after: { contactEmail: input.contactEmail },
+      origin,
+    });
+    return (await consigneesWithShipments(manager)).find((entry) => entry.id === consigneeId)!;
   });
 }
 

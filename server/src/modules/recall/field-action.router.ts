@@ -1,6 +1,11 @@
 import { Router } from 'express';
 import { idParams } from '@shared/schemas/manufacturing';
-import { fieldActionInputSchema, returnedGoodsInputSchema } from '@shared/schemas/field-action';
+import {
+  fieldActionInputSchema,
+  fieldActionReportQuerySchema,
+  returnedGoodsInputSchema,
+} from '@shared/schemas/field-action';
+import { fieldActionReport } from './field-action-report';
 import type { AppContext } from '../../app-context';
 import { actorOf, currentPerson, originOf, requireAction } from '../../middleware/access';
 import { validated } from '../../middleware/validate';
@@ -24,6 +29,24 @@ export function fieldActionRouter(context: AppContext): Router {
     requireAction('recall.read'),
     ...validated({ params: idParams('recallId') }, async (input, _req, res) => {
       res.json(await fieldActionView(data(), input.params.recallId));
+    }),
+  );
+  router.get(
+    '/recalls/:recallId/field-action/report',
+    requireAction('recall.read'),
+    ...validated({ params: idParams('recallId'), query: fieldActionReportQuerySchema }, async (input, req, res) => {
+      const report = await fieldActionReport(
+        data(),
+        input.params.recallId,
+        input.query.format,
+        actorOf(req, 'recall.read'),
+        originOf(req),
+      );
+      res
+        .type(report.contentType)
+        .set('X-Content-Type-Options', 'nosniff')
+        .attachment(report.fileName)
+        .send(report.body);
     }),
   );
   router.put(

@@ -64,7 +64,7 @@ export const recallNoticesRecordType: SignableRecordType<{
     if (record.withoutAddress.length)
       return (
         `${record.withoutAddress.join(', ')} ${record.withoutAddress.length > 1 ? 'have' : 'has'} no e-mail ` +
-        `address on record, so the notice cannot be mailed`
+        `address on record; record it on the Consignees screen, then prepare the notices again`
       );
     return null;
   },

@@ -1,0 +1,194 @@
+import { expect, test, type Page } from '@playwright/test';
+import { loadConfig } from '../../server/src/config/env';
+import { signInAs } from './support/sign-in';
+import { signWithPassword } from './support/signing';
+import { openedDialog } from './support/dialogs';
+import { expectAccessible } from './support/accessibility';
+
+const mailCatcher = `http://127.0.0.1:${loadConfig().MAIL_WEB_PORT}`;
+const escape = (text: string) => text.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
+const newConsignee = 'Fjellmark Day Surgery (journey)';
+const newAddress = 'recalls@fjellmark-day-surgery.example';
+
+/** The consignee opens its mail: the notice in the mail catcher, as its mail program would show it. */
+async function noticeMailTo(page: Page, address: string, subject: string): Promise<string> {
+  let text = '';
+  await expect
+    .poll(
+      async () => {
+        const mails = (await (await page.request.get(`${mailCatcher}/api/email`)).json()) as Array<{
+          subject: string;
+          text: string;
+          to: Array<{ address: string }>;
+        }>;
+        text =
+          mails.find((mail) => mail.subject === subject && mail.to.some((to) => to.address === address))?.text ?? '';
+        return text.length > 0;
+      },
+      { timeout: 30_000 },
+    )
+    .toBe(true);
+  return text;
+}
+
+test(
+  '[E2E-FIELD-ACTION] a coordinator sends signed notices, a consignee answers through its own link on a phone, and ' +
+    'the effectiveness figure moves',
+  async ({ page, browser }) => {
+    test.setTimeout(240_000);
+    page.setDefaultTimeout(20_000);
+
+    // A new consignee, with the address its notices go to.
+    await signInAs(page, 'kiw-0102', '/consignees');
+    await expect(page.getByRole('heading', { level: 1, name: 'Consignees' })).toBeVisible();
+    await page.getByRole('button', { name: 'Add a consignee' }).click();
+    const adding = await openedDialog(page, 'Add a consignee');
+    await adding.getByLabel('Name').pressSequentially(newConsignee, { delay: 40 });
+    await adding.getByLabel('Country').pressSequentially('Norway', { delay: 40 });
+    await adding.getByLabel('Contact e-mail (optional)').pressSequentially(newAddress, { delay: 40 });
+    await adding.getByRole('button', { name: 'Add', exact: true }).click();
+    await expect(page.getByRole('cell', { name: newConsignee })).toBeVisible();
+
+    // A lot waiting for approval is approved, so that it can ship to the new consignee.
+    await signInAs(page, 'kiw-0301', '/release');
+    await page.getByRole('tab', { name: /^Awaiting approval/ }).click();
+    const waiting = page.locator('table').getByRole('link').last();
+    const lotNumber = (await waiting.textContent())!.trim();
+    await waiting.click();
+    await page.getByRole('button', { name: 'Approve for release' }).click();
+    await signWithPassword(page, 'Approved for release', 'Joaquín Ferreira — Approved for release', 'joaquin-demo');
+    await expect(page.getByRole('heading', { level: 1, name: new RegExp(`^Lot ${escape(lotNumber)}`) })).toContainText(
+      'Released',
+    );
+
+    await signInAs(page, 'kiw-0102', '/lots');
+    await page.getByLabel('Search lots').pressSequentially(lotNumber, { delay: 60 });
+    await page.getByRole('link', { name: lotNumber, exact: true }).click();
+    await page.getByRole('button', { name: 'Record a shipment' }).click();
+    const ship = await openedDialog(page, /Ship/);
+    await ship.getByLabel('Consignee').click();
+    await page.getByRole('option', { name: newConsignee }).click();
+    await ship.getByLabel('Units').pressSequentially('6', { delay: 80 });
+    await ship.getByLabel('Shipping document number').pressSequentially('DN-JOURNEY-1', { delay: 40 });
+    await ship.getByRole('button', { name: 'Record shipment' }).click();
+    await expect(ship).toBeHidden();
+    const heatNumber = (await page
+      .locator('dt', { hasText: /^Heats$/ })
+      .locator('xpath=following-sibling::dd[1]')
+      .textContent())!
+      .split(',')[0]!
+      .trim();
+
+    // The coordinator opens a recall from the lot's heat.
+    await signInAs(page, 'kiw-0501', '/trace');
+    await page.getByRole('tab', { name: 'What does this touch?' }).click();
+    await page
+      .getByRole('combobox', { name: 'Start from a heat, bar, run, supplier or part' })
+      .pressSequentially(heatNumber, { delay: 80 });
+    await page.getByRole('option', { name: new RegExp(`^Heat ${escape(heatNumber)}`) }).click();
+    await page.getByRole('button', { name: 'Trace forward' }).click();
+    await page.getByRole('button', { name: 'Open a recall investigation' }).click();
+    const opening = await openedDialog(page, 'Open a recall investigation');
+    await opening
+      .getByLabel('Why is it opened?')
+      .pressSequentially('Mill reports a lap in bars of this heat; recalling every unit made from it', { delay: 20 });
+    await opening.getByRole('button', { name: 'Open investigation and hold lots' }).click();
+    const title = page.getByRole('heading', { level: 1, name: /^Recall investigation RC-\d{4}-\d{4}$/ });
+    await expect(title).toBeVisible();
+    const recallNumber = ((await title.textContent()) ?? '').replace('Recall investigation ', '');
+
+    // The field action: the level the strategy names, the action asked, the firm's text.
+    const notices = page.getByRole('region', { name: 'Consignee notices' });
+    await expect(notices.getByTestId('notices-caution')).toContainText('regulatory function');
+    await notices.getByRole('combobox', { name: /^Effectiveness check level/ }).click();
+    await page.getByRole('option', { name: 'Level A: 100 % of consignees' }).click();
+    const template = notices.getByLabel("Notice text (your firm's template)");
+    // A field the product does not know is flagged while typing.
+    await template.press('End');
+    await template.pressSequentially(' {{portal}}', { delay: 60 });
+    await expect(notices.getByText(/Unknown field \{\{portal\}\}/)).toBeVisible();
+    for (let key = 0; key < ' {{portal}}'.length; key++) await template.press('Backspace');
+    await expect(notices.getByText(/Unknown field/)).toHaveCount(0);
+    await notices
+      .getByLabel('Action asked of each consignee')
+      .pressSequentially('Stop using these units, quarantine them and return them to us.', { delay: 20 });
+    await notices.getByRole('button', { name: 'Save field action' }).click();
+    await notices.getByRole('button', { name: 'Prepare notices' }).click();
+    const row = notices
+      .getByRole('table', { name: 'Notices' })
+      .getByRole('row', { name: new RegExp(escape(newConsignee)) });
+    await expect(row).toContainText(newAddress);
+    await row.getByRole('button', { name: `Preview the notice to ${newConsignee}` }).click();
+    const preview = await openedDialog(page, `Notice to ${newConsignee}`);
+    await expect(preview.getByTestId('notice-text')).toContainText(`Lot ${lotNumber}`);
+    await expect(preview.getByTestId('notice-text')).toContainText('6 units shipped to you');
+    await expect(preview.getByTestId('notice-text')).toContainText('/reply/');
+    await preview.screenshot({ path: 'test-results/field-action-notice-preview.png' });
+    await preview.getByRole('button', { name: 'Close' }).click();
+    await expectAccessible(page, 'recall page with notices prepared');
+
+    // Issuing is the coordinator's signature.
+    await notices.getByRole('button', { name: /^Issue \d+ notices? with signature$/ }).click();
+    await expect(page.getByRole('dialog', { name: 'Sign: Notices issued' })).toContainText(newConsignee);
+    await signWithPassword(
+      page,
+      'Notices issued',
+      'Oluwaseun Adeyemi — Notices issued',
+      'oluwaseun-demo',
+      undefined,
+      90,
+    );
+    await expect(row).toContainText('issued');
+    const replied = notices.getByTestId('effectiveness-replied');
+    await expect(replied).toContainText(/^0 of \d+/);
+    const unitsBefore = (await notices.getByTestId('effectiveness-units').textContent())!;
+    await expect(notices.getByTestId('unanswered')).toContainText(newConsignee);
+    await page.screenshot({ path: 'test-results/field-action-issued.png', fullPage: true });
+
+    // The consignee reads its mail and answers on a phone, with no account.
+    const mail = await noticeMailTo(page, newAddress, `Medical device recall ${recallNumber}`);
+    const link = /https?:\/\/\S+\/reply\/[A-Za-z0-9_-]{43}/.exec(mail)![0];
+    const phone = await browser.newContext({ viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true });
+    const consignee = await phone.newPage();
+    await consignee.goto(new URL(link).pathname);
+    await expect(
+      consignee.getByRole('heading', { level: 1, name: `Recall ${recallNumber}: your answer` }),
+    ).toBeVisible();
+    await expect(consignee.getByText(newConsignee)).toBeVisible();
+    await consignee.waitForTimeout(2_000);
+    const lot = consignee.getByRole('group', { name: new RegExp(`Lot ${escape(lotNumber)}`) });
+    await lot.getByLabel('Still on hand').pressSequentially('1', { delay: 150 });
+    await lot.getByLabel('Returned to us').pressSequentially('9', { delay: 150 });
+    await expect(consignee.getByText('These add up to 10; 6 units were shipped to you')).toBeVisible();
+    await lot.getByLabel('Returned to us').press('Backspace');
+    await lot.getByLabel('Returned to us').pressSequentially('2', { delay: 150 });
+    await lot.getByLabel('Destroyed').pressSequentially('0', { delay: 150 });
+    await lot.getByLabel('Already used or implanted').pressSequentially('3', { delay: 150 });
+    await expect(lot).toContainText('Accounted for: 6 of 6');
+    await consignee.getByLabel('Your name').pressSequentially('Sister Marit Aasen', { delay: 70 });
+    await consignee.getByRole('button', { name: 'Send answer' }).click();
+    await expect(consignee.getByText('Thank you. Your answer was recorded')).toBeVisible();
+    expect(await consignee.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth)).toBe(true);
+    await consignee.waitForFunction(() =>
+      document.getAnimations().every((animation) => animation.playState !== 'running'),
+    );
+    await consignee.screenshot({ path: 'test-results/field-action-reply-phone.png', fullPage: true });
+    await expectAccessible(consignee, 'consignee reply page on a phone');
+    // A link that is not one shows a plain page and nothing of any record.
+    await consignee.goto(`/reply/${'x'.repeat(43)}`);
+    await expect(consignee.getByRole('heading', { level: 1, name: 'This link does not open a notice' })).toBeVisible();
+    await expect(consignee.locator('body')).not.toContainText(recallNumber);
+    await consignee.screenshot({ path: 'test-results/field-action-reply-wrong-link.png' });
+    await phone.close();
+
+    // The coordinator sees the answer move the figures.
+    await page.reload();
+    await expect(replied).toContainText(/^1 of \d+/);
+    await expect(notices.getByTestId('effectiveness-units')).not.toHaveText(unitsBefore);
+    await expect(notices.getByTestId('unanswered')).not.toContainText(newConsignee);
+    await expect(row).toContainText('Sister Marit Aasen');
+    await notices.getByRole('heading', { name: 'Units accounted for over time' }).scrollIntoViewIfNeeded();
+    await page.screenshot({ path: 'test-results/field-action-effectiveness.png', fullPage: true });
+    await expectAccessible(page, 'recall page after a consignee answered');
+  },
+);
