@@ -47,7 +47,7 @@ test(
     await adding.getByLabel('Country').pressSequentially('Norway', { delay: 40 });
     await adding.getByLabel('Contact e-mail (optional)').pressSequentially(newAddress, { delay: 40 });
     await adding.getByRole('button', { name: 'Add', exact: true }).click();
-    await expect(page.getByRole('cell', { name: newConsignee })).toBeVisible();
+    await expect(page.getByRole('cell', { name: newConsignee, exact: true })).toBeVisible();
 
     // A lot waiting for approval is approved, so that it can ship to the new consignee.
     await signInAs(page, 'kiw-0301', '/release');

@@ -49,11 +49,11 @@ export function stubFetch(replies: StubbedReply[]) {
 /** Mounts a component inside the app's plugins, signed in with the given roles, on the plant's clock. */
 export async function mountInApp(
   component: Component,
-  options: { props?: Record<string, unknown>; roles?: Role[]; timeZone?: string } = {},
+  options: { props?: Record<string, unknown>; roles?: Role[]; timeZone?: string; path?: string } = {},
 ) {
   const roles = options.roles ?? ['qa-approver'];
   const router = createRouter({ history: createMemoryHistory(), routes });
-  await router.push('/');
+  await router.push(options.path ?? '/');
   const queryClient = new QueryClient({ defaultOptions: { queries: { retry: false } } });
   queryClient.setQueryData(sessionKeys.me(), {
     person: { id: 7, name: 'Test Approver', email: 'approver@example.test', roles },
