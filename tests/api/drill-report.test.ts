@@ -5,7 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { parse } from 'csv-parse/sync';
 import type { DrillReport, RecallDetail } from '@shared/schemas/recall';
 import { createTestApp } from '../helpers/test-app';
-import { SamlTestDriver, signInPeople } from '../helpers/saml-round-trip';
+import { lotToRecallPeople, SamlTestDriver, signInPeople } from '../helpers/saml-round-trip';
 import { signThroughApi } from '../helpers/signing';
 import { readPdf } from '../helpers/document-readers';
 import { readyLotOf, twoStepPart } from '../helpers/two-step-part';
@@ -49,16 +49,7 @@ describe('recall drill report', () => {
 
   beforeAll(async () => {
     saml = await SamlTestDriver.create(running.config);
-    Object.assign(
-      people,
-      await signInPeople(saml, running.app, {
-        engineer: 'kiw-0102',
-        reviewer: 'kiw-0201',
-        approver: 'kiw-0301',
-        auditor: 'kiw-0401',
-        coordinator: 'kiw-0501',
-      }),
-    );
+    Object.assign(people, await signInPeople(saml, running.app, lotToRecallPeople));
     const [heat] = await running.database.dataSource.query(
       "SELECT id, heat_number FROM heat WHERE status = 'accepted' AND spec_id = 'ASTM F136' ORDER BY id DESC LIMIT 1",
     );

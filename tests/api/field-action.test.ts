@@ -10,7 +10,7 @@ import { drillReportSchema } from '@shared/schemas/recall';
 import { sendDueReminders } from '../../server/src/modules/recall/notice-reminders';
 import { createTestApp } from '../helpers/test-app';
 import { mailWithSubject } from '../helpers/mail-catcher';
-import { SamlTestDriver, signInPeople } from '../helpers/saml-round-trip';
+import { lotToRecallPeople, SamlTestDriver, signInPeople } from '../helpers/saml-round-trip';
 import { signThroughApi } from '../helpers/signing';
 import { readPdf } from '../helpers/document-readers';
 import { readyLotOf, twoStepPart } from '../helpers/two-step-part';
@@ -61,16 +61,7 @@ describe('field action: consignee notices, replies by link, reminders, returned 
 
   beforeAll(async () => {
     saml = await SamlTestDriver.create(running.config);
-    Object.assign(
-      people,
-      await signInPeople(saml, running.app, {
-        engineer: 'kiw-0102',
-        reviewer: 'kiw-0201',
-        approver: 'kiw-0301',
-        auditor: 'kiw-0401',
-        coordinator: 'kiw-0501',
-      }),
-    );
+    Object.assign(people, await signInPeople(saml, running.app, lotToRecallPeople));
     const db = await running.database.connect();
     const [heat] = await db.query(
       "SELECT id, heat_number FROM heat WHERE status = 'accepted' AND spec_id = 'ASTM F136' ORDER BY id LIMIT 1",

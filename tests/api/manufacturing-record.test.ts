@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { LotDetail } from '@shared/schemas/lot-detail';
 import { createTestApp } from '../helpers/test-app';
-import { SamlTestDriver, signInPeople } from '../helpers/saml-round-trip';
+import { lotToRecallPeople, SamlTestDriver, signInPeople } from '../helpers/saml-round-trip';
 import { signThroughApi } from '../helpers/signing';
 
 type Agent = Awaited<ReturnType<SamlTestDriver['signIn']>>['agent'];
@@ -69,16 +69,7 @@ describe('the manufacturing record: parts, lots, material, operations, runs, non
 
   beforeAll(async () => {
     saml = await SamlTestDriver.create(running.config);
-    Object.assign(
-      people,
-      await signInPeople(saml, running.app, {
-        engineer: 'kiw-0102',
-        reviewer: 'kiw-0201',
-        approver: 'kiw-0301',
-        auditor: 'kiw-0401',
-        coordinator: 'kiw-0501',
-      }),
-    );
+    Object.assign(people, await signInPeople(saml, running.app, lotToRecallPeople));
     const db = await running.database.connect();
     // Two accepted F136 heats from the demo scenario; the test receives its own bar of each.
     const heats: Array<{ id: number; heat_number: string }> = await db.query(

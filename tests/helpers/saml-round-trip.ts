@@ -41,6 +41,15 @@ export const bySingleRole = {
  * Drives the real SAML round trip without a browser: the service provider's redirect, the
  * stand-in identity provider's pages (with their own cookie jar) and the HTTP-POST back.
  */
+/** The people a lot's way from making to recall passes through, one of each role that acts on it. */
+export const lotToRecallPeople = {
+  engineer: 'kiw-0102',
+  reviewer: 'kiw-0201',
+  approver: 'kiw-0301',
+  auditor: 'kiw-0401',
+  coordinator: 'kiw-0501',
+} as const;
+
 export class SamlTestDriver {
   readonly identityProvider: Express;
   private constructor(

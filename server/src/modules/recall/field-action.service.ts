@@ -55,6 +55,21 @@ function refuseIfClosed(row: RecallRow, doing: string) {
   if (row.status !== 'open') throw AppError.rule(`${row.recall_number} is closed; ${doing} no longer`);
 }
 
+/** A change to an open recall's field action in one transaction, answered with the whole field action. */
+async function changeOpenRecall(
+  dataSource: DataSource,
+  recallId: number,
+  refusedWhenClosed: string,
+  change: (manager: EntityManager, recall: RecallRow) => Promise<void>,
+): Promise<FieldActionView> {
+  await inTransaction(dataSource, async (manager) => {
+    const recall = await recallOrFail(manager, recallId, true);
+    refuseIfClosed(recall, refusedWhenClosed);
+    await change(manager, recall);
+  });
+  return fieldActionView(dataSource, recallId);
+}
+
 export const parseNotice = (row: Pick<NoticeRow, 'content'>): NoticeContent =>
   noticeContentSchema.parse(JSON.parse(row.content));
 
@@ -173,9 +188,7 @@ export async function setStrategy(
   actor: Actor,
   origin: RequestOrigin,
 ): Promise<FieldActionView> {
-  await inTransaction(dataSource, async (manager) => {
-    const recall = await recallOrFail(manager, recallId, true);
-    refuseIfClosed(recall, 'its field action cannot change');
+  return changeOpenRecall(dataSource, recallId, 'its field action cannot change', async (manager) => {
     const before = await findStrategy(manager, recallId);
     await saveStrategy(manager, {
       recallId,
@@ -214,7 +227,6 @@ export async function setStrategy(
       origin,
     });
   });
-  return fieldActionView(dataSource, recallId);
 }
 
 /** A reply link's secret: 32 random bytes, base64url (43 characters); never a record id. */
@@ -233,9 +245,7 @@ export async function prepareNotices(
   actor: Actor,
   origin: RequestOrigin,
 ): Promise<FieldActionView> {
-  await inTransaction(dataSource, async (manager) => {
-    const recall = await recallOrFail(manager, recallId, true);
-    refuseIfClosed(recall, 'notices cannot be prepared');
+  return changeOpenRecall(dataSource, recallId, 'notices cannot be prepared', async (manager, recall) => {
     const strategy = await findStrategy(manager, recallId);
     if (!strategy) throw AppError.rule('Set the field action (level, action asked and notice text) first');
     const scope = await latestScope(manager, recallId);
@@ -309,7 +319,6 @@ export async function prepareNotices(
       origin,
     });
   });
-  return fieldActionView(dataSource, recallId);
 }
 
 export async function noticePreview(
@@ -334,55 +343,57 @@ export async function receiveReturnedGoods(
   actor: Actor,
   origin: RequestOrigin,
 ): Promise<FieldActionView> {
-  await inTransaction(dataSource, async (manager) => {
-    const recall = await recallOrFail(manager, recallId, true);
-    refuseIfClosed(recall, 'returned goods cannot be received against it');
-    if (recall.mode !== 'recall') throw AppError.rule('A drill recalls nothing; returned goods belong to a recall');
-    const notice = (await noticeRows(manager, recallId)).find((row) => row.consignee_id === input.consigneeId);
-    if (!notice)
-      throw AppError.rule('This consignee has no notice in this recall', {
-        consigneeId: 'No notice to this consignee',
-      });
-    const lot = parseNotice(notice).lots.find((candidate) => candidate.lotId === input.lotId);
-    if (!lot)
-      throw AppError.rule(`${notice.consignee} received no units of this lot in this recall`, {
-        lotId: 'Not shipped to this consignee',
-      });
-    const receiptId = await insertReturnedGoods(manager, {
-      recallId,
-      consigneeId: input.consigneeId,
-      lotId: input.lotId,
-      units: input.units,
-      note: input.note || null,
-      receivedBy: person.id,
-    });
-    const held = await placeHolds(
-      manager,
-      [{ id: lot.lotId, lotNumber: lot.lotNumber }],
-      {
+  return changeOpenRecall(
+    dataSource,
+    recallId,
+    'returned goods cannot be received against it',
+    async (manager, recall) => {
+      if (recall.mode !== 'recall') throw AppError.rule('A drill recalls nothing; returned goods belong to a recall');
+      const notice = (await noticeRows(manager, recallId)).find((row) => row.consignee_id === input.consigneeId);
+      if (!notice)
+        throw AppError.rule('This consignee has no notice in this recall', {
+          consigneeId: 'No notice to this consignee',
+        });
+      const lot = parseNotice(notice).lots.find((candidate) => candidate.lotId === input.lotId);
+      if (!lot)
+        throw AppError.rule(`${notice.consignee} received no units of this lot in this recall`, {
+          lotId: 'Not shipped to this consignee',
+        });
+      const receiptId = await insertReturnedGoods(manager, {
         recallId,
-        recallNumber: recall.recall_number,
-        reason: `Returned goods under ${recall.recall_number}`,
-        placedBy: person.id,
-      },
-      actor,
-      origin,
-      true,
-    );
-    await appendLedgerEvent(manager, {
-      actor,
-      action: 'recall.goods-returned',
-      entity: { type: 'recall', id: recallId },
-      after: {
-        receiptId,
-        consignee: notice.consignee,
-        lotNumber: lot.lotNumber,
+        consigneeId: input.consigneeId,
+        lotId: input.lotId,
         units: input.units,
-        note: input.note ?? null,
-        heldNow: held,
-      },
-      origin,
-    });
-  });
-  return fieldActionView(dataSource, recallId);
+        note: input.note || null,
+        receivedBy: person.id,
+      });
+      const held = await placeHolds(
+        manager,
+        [{ id: lot.lotId, lotNumber: lot.lotNumber }],
+        {
+          recallId,
+          recallNumber: recall.recall_number,
+          reason: `Returned goods under ${recall.recall_number}`,
+          placedBy: person.id,
+        },
+        actor,
+        origin,
+        true,
+      );
+      await appendLedgerEvent(manager, {
+        actor,
+        action: 'recall.goods-returned',
+        entity: { type: 'recall', id: recallId },
+        after: {
+          receiptId,
+          consignee: notice.consignee,
+          lotNumber: lot.lotNumber,
+          units: input.units,
+          note: input.note ?? null,
+          heldNow: held,
+        },
+        origin,
+      });
+    },
+  );
 }
