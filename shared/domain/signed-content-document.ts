@@ -39,6 +39,10 @@ const fieldNames: Record<string, string> = {
   unitLengthMm: 'Unit length (mm)',
   lengthMm: 'Length (mm)',
   diameterMm: 'Diameter (mm)',
+  noticeSha256: 'Notice SHA-256',
+  openingSnapshotSha256: 'Opening snapshot SHA-256',
+  effectivenessLevel: 'Effectiveness check level',
+  effectiveness: 'Effectiveness of the field action',
 };
 
 /** Fields whose values are stored states: shown in words, never as codes. */

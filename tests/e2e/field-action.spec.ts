@@ -1,10 +1,14 @@
+import { readFileSync } from 'node:fs';
 import { expect, test, type Page } from '@playwright/test';
+import { createRequire } from 'node:module';
 import { loadConfig } from '../../server/src/config/env';
 import { signInAs } from './support/sign-in';
 import { signWithPassword } from './support/signing';
 import { openedDialog } from './support/dialogs';
 import { expectAccessible } from './support/accessibility';
 
+// epcis2.js is CommonJS; Playwright's loader does not see its named exports through an import.
+const { validateEpcisDocument } = createRequire(import.meta.url)('epcis2.js') as typeof import('epcis2.js');
 const mailCatcher = `http://127.0.0.1:${loadConfig().MAIL_WEB_PORT}`;
 const escape = (text: string) => text.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
 const newConsignee = 'Fjellmark Day Surgery (journey)';
@@ -45,9 +49,19 @@ test(
     const adding = await openedDialog(page, 'Add a consignee');
     await adding.getByLabel('Name').pressSequentially(newConsignee, { delay: 40 });
     await adding.getByLabel('Country').pressSequentially('Norway', { delay: 40 });
-    await adding.getByLabel('Contact e-mail (optional)').pressSequentially(newAddress, { delay: 40 });
     await adding.getByRole('button', { name: 'Add', exact: true }).click();
     await expect(page.getByRole('cell', { name: newConsignee, exact: true })).toBeVisible();
+    // The address its recall notices go to, recorded afterwards; a wrong one is refused at its field.
+    await page.getByRole('button', { name: `Change where recall notices to ${newConsignee} go` }).click();
+    const address = await openedDialog(page, `Recall notices to ${newConsignee}`);
+    await address.getByLabel('Contact e-mail').pressSequentially('recalls at fjellmark', { delay: 40 });
+    await address.getByRole('button', { name: 'Save address' }).click();
+    await expect(address.getByText('An e-mail address')).toBeVisible();
+    await address.getByLabel('Contact e-mail').fill('');
+    await address.getByLabel('Contact e-mail').pressSequentially(newAddress, { delay: 40 });
+    await address.getByRole('button', { name: 'Save address' }).click();
+    await expect(address).toBeHidden();
+    await expect(page.getByRole('row', { name: new RegExp(escape(newConsignee)) })).toContainText(newAddress);
 
     // A lot waiting for approval is approved, so that it can ship to the new consignee.
     await signInAs(page, 'kiw-0301', '/release');
@@ -190,5 +204,74 @@ test(
     await notices.getByRole('heading', { name: 'Units accounted for over time' }).scrollIntoViewIfNeeded();
     await page.screenshot({ path: 'test-results/field-action-effectiveness.png', fullPage: true });
     await expectAccessible(page, 'recall page after a consignee answered');
+
+    // The units the consignee returned arrive: counted against it and the lot, and the lot held.
+    await notices.getByRole('button', { name: 'Receive returned goods' }).click();
+    const receiving = await openedDialog(page, 'Receive returned goods');
+    await receiving.getByRole('combobox', { name: 'Returned by' }).click();
+    await page.getByRole('option', { name: newConsignee }).click();
+    await expect(receiving.getByRole('combobox', { name: 'Lot' })).toContainText(lotNumber);
+    await receiving.getByLabel('Units received').pressSequentially('9', { delay: 120 });
+    await receiving.getByLabel('Note (optional: condition, carrier, box)').click();
+    await expect(receiving.getByText('Only 6 units of this lot were shipped to this consignee')).toBeVisible();
+    await receiving.getByLabel('Units received').fill('');
+    await receiving.getByLabel('Units received').pressSequentially('2', { delay: 120 });
+    await receiving
+      .getByLabel('Note (optional: condition, carrier, box)')
+      .pressSequentially('Sealed pouches, carrier TNX', { delay: 30 });
+    await receiving.getByRole('button', { name: 'Receive and hold' }).click();
+    await expect(receiving).toBeHidden();
+    await expect(notices.getByRole('region', { name: 'Returned goods received' })).toContainText('Sealed pouches');
+    await expect(notices.getByTestId('balance-differences')).toHaveCount(0);
+
+    // A QA approver lifts each hold after its disposition; the level is not met, so closing takes a signed
+    // justification, signed over the figures as they stand. The consignee's link then opens nothing.
+    await signInAs(page, 'kiw-0301', page.url().replace(/^https?:\/\/[^/]+/, ''));
+    const lift = page.getByRole('region', { name: 'Holds' }).getByRole('button', { name: /^Lift the hold on / });
+    await expect(lift.first()).toBeVisible();
+    while ((await lift.count()) > 0) {
+      await lift.first().click();
+      await signWithPassword(
+        page,
+        'Hold lifted',
+        'Joaquín Ferreira — Hold lifted',
+        'joaquin-demo',
+        'Units scrapped under NC',
+      );
+    }
+    await page.getByRole('button', { name: 'Close with signed justification' }).click();
+    const closing = page.getByRole('dialog', {
+      name: 'Sign: Closed below the effectiveness level, with justification',
+    });
+    await expect(closing).toContainText('Effectiveness of the field action');
+    await expect(closing).toContainText(/Replies needed\s*\d+/);
+    await closing.screenshot({ path: 'test-results/field-action-close-justified.png' });
+    await signWithPassword(
+      page,
+      'Closed below the effectiveness level, with justification',
+      'Joaquín Ferreira — Closed below the effectiveness level, with justification',
+      'joaquin-demo',
+      'Demo consignees are exercises; the one real answer accounts for every unit it received',
+      30,
+    );
+    await expect(page.getByRole('heading', { level: 1, name: `Recall investigation ${recallNumber}` })).toBeVisible();
+    await expect(page.locator('.tags')).toContainText('Closed');
+    const after = await browser.newContext({ viewport: { width: 390, height: 844 } });
+    const late = await after.newPage();
+    await late.goto(new URL(link).pathname);
+    await expect(late.getByRole('heading', { level: 1, name: 'This link does not open a notice' })).toBeVisible();
+    await after.close();
+
+    // The scope, for a distributor's system, as EPCIS 2.0.
+    const [epcis] = await Promise.all([
+      page.waitForEvent('download'),
+      page.getByRole('link', { name: 'Export EPCIS 2.0' }).click(),
+    ]);
+    expect(epcis.suggestedFilename()).toBe(`${recallNumber}-epcis.jsonld`);
+    const scope = JSON.parse(readFileSync((await epcis.path())!, 'utf8')) as {
+      type: string;
+      epcisBody: { eventList: unknown[] };
+    };
+    expect(validateEpcisDocument(scope, false)).toEqual({ success: true, errors: [] });
   },
 );

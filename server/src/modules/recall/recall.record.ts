@@ -1,3 +1,4 @@
+import { effectivenessSource, levelDescriptions } from '@shared/domain/recall/effectiveness';
 import { appendLedgerEvent } from '../ledger/ledger.repository';
 import type { SignableRecordType } from '../signatures/signable-records';
 import { queueRecallClosedMail } from './recall-mails';
@@ -55,7 +56,9 @@ export const recallInvestigationRecordType: SignableRecordType<{
           sha256: rerun.sha256,
         })),
         effectiveness: effectiveness && {
-          level: effectiveness.level,
+          level:
+            `${levelDescriptions[effectiveness.level]}` +
+            `${effectiveness.level === 'B' ? ` (${effectiveness.percent} %)` : ''} (${effectivenessSource})`,
           consignees: effectiveness.consignees,
           notified: effectiveness.notified,
           replied: effectiveness.replied,
