@@ -28,6 +28,8 @@ export function setCsrfToken(token: string | null): void {
 interface RequestOptions {
   method?: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
   body?: unknown;
+  /** A plain-text body (a list, one value a line) instead of JSON. */
+  text?: string;
   signal?: AbortSignal;
   /** Defaults to /api. */
   base?: string;
@@ -109,13 +111,14 @@ export async function apiRequest<T>(path: string, schema: z.ZodType<T>, options:
   const method = options.method ?? 'GET';
   const headers: Record<string, string> = { Accept: 'application/json' };
   if (options.body !== undefined) headers['Content-Type'] = 'application/json';
+  if (options.text !== undefined) headers['Content-Type'] = 'text/plain; charset=utf-8';
   if (method !== 'GET' && csrfToken) headers['X-CSRF-Token'] = csrfToken;
   let response: Response;
   try {
     response = await fetch(`${options.base ?? '/api'}${path}`, {
       method,
       headers,
-      body: options.body !== undefined ? JSON.stringify(options.body) : undefined,
+      body: options.text ?? (options.body !== undefined ? JSON.stringify(options.body) : undefined),
       credentials: 'same-origin',
       signal: options.signal,
     });

@@ -1,3 +1,4 @@
+import { bulkTraceReplySchema } from '@shared/schemas/bulk-trace';
 import { queryOptions } from '@tanstack/vue-query';
 import { backwardTraceSchema, forwardTraceSchema, graphReplySchema, traceStartsSchema } from '@shared/schemas/trace';
 import { apiRequest } from './http';
@@ -43,3 +44,6 @@ export const traceGraphQuery = (direction: 'backward' | 'forward', start: Record
     enabled: Boolean(start),
     retry: false,
   });
+
+/** Many UDIs or lot numbers at once, as the text they came in (one a line). */
+export const bulkTrace = (text: string) => apiRequest('/trace/bulk', bulkTraceReplySchema, { method: 'POST', text });

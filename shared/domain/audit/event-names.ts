@@ -51,6 +51,7 @@ const named: Record<string, string> = {
   'recall.goods-returned': 'Returned goods received',
   'recall.field-action-reported': 'Field action report made',
   'recall.epcis-exported': 'Exported as EPCIS',
+  'trace.bulk': 'Many UDIs or lots traced at once',
   'lot.epcis-exported': 'Lot genealogy exported as EPCIS',
   'session.sign-in-refused': 'Sign-in refused',
   'session.signed-in': 'Signed in',

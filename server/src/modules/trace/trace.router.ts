@@ -1,4 +1,6 @@
-import { Router, type Response } from 'express';
+import express, { Router, type Response } from 'express';
+import { z } from 'zod';
+import { bulkTrace } from './bulk-trace.service';
 import { backwardQuerySchema, forwardQuerySchema, traceStartQuerySchema } from '@shared/schemas/trace';
 import { findTraceStarts } from './trace-starts.repository';
 import type { AppContext } from '../../app-context';
@@ -22,6 +24,18 @@ export function traceRouter(context: AppContext): Router {
       .set('X-Content-Type-Options', 'nosniff')
       .attachment(exported.fileName)
       .send(exported.body);
+  // A list of up to 100,000 UDIs or lot numbers, one a line, sent as the text it is (a pasted list or a file).
+  router.post(
+    '/trace/bulk',
+    requireAction('trace.read'),
+    express.text({ type: ['text/plain', 'text/csv'], limit: '8mb' }),
+    ...validated(
+      { body: z.string({ error: 'Send the list as text, one UDI or lot number a line' }) },
+      async (input, req, res) => {
+        res.json(await bulkTrace(data(), input.body, actorOf(req, 'trace.read'), originOf(req)));
+      },
+    ),
+  );
   router.get(
     '/lots/:lotId/epcis',
     requireAction('trace.read'),
