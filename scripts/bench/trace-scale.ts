@@ -243,6 +243,41 @@ async function main(): Promise<void> {
       p99Ms: load.p99Ms,
       errors: load.errors + load.timeouts + load.non2xx,
     };
+    // A list of 10,000 UDIs (element strings of random lots, repeats allowed) traced in one request.
+    log('bulk trace of 10,000 UDIs…');
+    const bulkIds = randomInts(10_000, lots, 29);
+    const gtinOf = new Map(
+      (
+        (await appData.query(
+          'SELECT l.id, p.gtin FROM production_lot l JOIN part p ON p.id = l.part_id WHERE l.id IN (?)',
+          [[...new Set(bulkIds)]],
+        )) as Array<{ id: number; gtin: string }>
+      ).map((row) => [Number(row.id), row.gtin]),
+    );
+    const bulkText = bulkIds.map((id) => `(01)${gtinOf.get(id)}(10)${lotNumber(id)}`).join('\n');
+    const postText = (path: string, text: string) =>
+      new Promise<{ status: number; found: number }>((resolveCall, rejectCall) => {
+        const request = http.request(
+          `${base}${path}`,
+          { method: 'POST', headers: { ...headers, 'content-type': 'text/plain' }, agent: keepAlive },
+          (response) => {
+            const chunks: Buffer[] = [];
+            response.on('data', (chunk: Buffer) => chunks.push(chunk));
+            response.on('end', () => {
+              const reply = JSON.parse(Buffer.concat(chunks).toString('utf8')) as { summary?: { found: number } };
+              resolveCall({ status: response.statusCode ?? 0, found: reply.summary?.found ?? 0 });
+            });
+          },
+        );
+        request.on('error', rejectCall);
+        request.end(text);
+      });
+    const bulkRuns = await timeEach([1, 2, 3, 4, 5], async () => {
+      const response = await postText('/api/trace/bulk', bulkText);
+      if (response.status !== 200 || response.found !== bulkIds.length)
+        throw new Error(`bulk trace: ${response.status}, ${response.found} of ${bulkIds.length} found`);
+    });
+    const bulk = { udis: bulkIds.length, apiMs: bulkRuns.p50 };
     const ratios = Object.fromEntries(
       Object.entries(queries).map(([name, figures]) => [name, round(figures.apiP50Ms / figures.sqlP50Ms)]),
     );
@@ -255,6 +290,7 @@ async function main(): Promise<void> {
       queries,
       apiToSqlP50: ratios,
       backwardThroughput: throughput,
+      bulk,
     };
     if (!values.json) {
       const line = (name: string, figures: Figures) =>
@@ -271,6 +307,7 @@ async function main(): Promise<void> {
         `backward at 20 connections: ${throughput.requestsPerSecond} req/s, p99 ${throughput.p99Ms} ms, ` +
           `${throughput.errors} errors\n`,
       );
+      process.stdout.write(`bulk trace of ${bulk.udis} UDIs: ${bulk.apiMs} ms (p50 of 5)\n`);
     }
     summary = JSON.stringify(result);
   } finally {

@@ -3,6 +3,14 @@ import { bulkTraceReplySchema } from '@shared/schemas/bulk-trace';
 import { buildDigitalLink } from '@shared/domain/gs1/element-string';
 import { createTestApp } from '../helpers/test-app';
 import { lotToRecallPeople, SamlTestDriver, signInPeople } from '../helpers/saml-round-trip';
+import { readyLotOf, twoStepPart } from '../helpers/two-step-part';
+
+const part = twoStepPart({
+  partNumber: 'TST-BLK-01',
+  description: 'Bulk trace test pin',
+  gtin: '09521230000161',
+  lotPattern: 'B{SEQ:4}',
+});
 
 type Agent = Awaited<ReturnType<SamlTestDriver['signIn']>>['agent'];
 
@@ -26,21 +34,30 @@ describe('tracing many UDIs or lots at once', () => {
       await signInPeople(await SamlTestDriver.create(running.config), running.app, lotToRecallPeople),
     );
     const db = running.database.dataSource;
-    // A released lot with units still here, and its heat: a recall from that heat holds it.
-    [held] = await db.query(
-      `SELECT l.lot_number, p.gtin, h.heat_number, h.id AS heat_id FROM production_lot l JOIN part p ON p.id = l.part_id
-         JOIN lot_heat lh ON lh.lot_id = l.id JOIN heat h ON h.id = lh.heat_id
-        WHERE l.status = 'released' AND l.released_qty > (SELECT COALESCE(SUM(s.qty), 0) FROM shipment s WHERE s.lot_id = l.id)
-        ORDER BY l.id LIMIT 1`,
+    const post = (who: string, path: string, body: unknown) =>
+      people[who]!.agent.post(path)
+        .set('X-CSRF-Token', people[who]!.csrf)
+        .send(body as object);
+    // Its own bar, part and lot, so that the recall it opens holds nothing another suite relies on.
+    const [heat] = await db.query(
+      "SELECT id, heat_number FROM heat WHERE status = 'accepted' AND spec_id = 'ASTM F136' ORDER BY id LIMIT 1",
     );
-    const opened = await people
-      .coordinator!.agent.post('/api/recalls')
-      .set('X-CSRF-Token', people.coordinator!.csrf)
-      .send({
-        trigger: { heatId: (held as unknown as { heat_id: number }).heat_id },
-        mode: 'recall',
-        reason: 'Bulk trace test: a heat under recall',
-      });
+    const piece = await post('engineer', '/api/bar-pieces', {
+      heatId: heat.id,
+      markedHeatNumber: heat.heat_number,
+      tag: 'TST-BLK-BAR',
+      diameterMm: '25.4',
+      lengthMm: '3000',
+      location: 'Test rack',
+    });
+    const partId = (await post('engineer', '/api/parts', part)).body.id;
+    const lot = await readyLotOf((path, body) => post('engineer', path, body), partId, 'TST-BLK-BAR');
+    held = { lot_number: lot.lotNumber, gtin: part.gtin, heat_number: heat.heat_number };
+    const opened = await post('coordinator', '/api/recalls', {
+      trigger: { pieceId: piece.body.id },
+      mode: 'recall',
+      reason: 'Bulk trace test: a bar under recall',
+    });
     expect(opened.status).toBe(201);
     recallNumber = opened.body.recallNumber;
     [other] = await db.query(

@@ -7,7 +7,11 @@ import { expect, type Page } from '@playwright/test';
  */
 export async function expectAccessible(page: Page, screen: string): Promise<void> {
   // Judge what a person sees once it has settled, not a banner halfway through fading in.
-  await page.waitForFunction(() => document.getAnimations().every((animation) => animation.playState !== 'running'));
+  // Twice, a moment apart: a panel that loads its own data starts its fade-in after the page's has ended.
+  for (let settle = 0; settle < 2; settle++) {
+    await page.waitForFunction(() => document.getAnimations().every((animation) => animation.playState !== 'running'));
+    await page.waitForTimeout(250);
+  }
   const results = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa']).analyze();
   const serious = results.violations
     .filter((violation) => violation.impact === 'serious' || violation.impact === 'critical')
