@@ -1,6 +1,7 @@
 // A synthetic production history for the trace benchmark, generated inside MariaDB with bulk
 // INSERT … SELECT over its sequence tables (seq_1_to_N), so that a million lots take minutes.
 // Invented throughout: no record here describes real material or a real firm.
+import { gs1CheckDigit } from '../../shared/domain/gs1/gtin';
 import type { DataSource } from 'typeorm';
 import { derivedLotHeatsSql } from '../../server/src/modules/manufacturing/lot-heats.repository';
 import { log } from '../lib/run';
@@ -83,10 +84,15 @@ export async function generateHistory(admin: DataSource, shape: HistoryShape): P
         ${shape.barsPerHeat}), 1 + FLOOR((seq - 1) / ${lotsPerBar}), 25.4, 60, 'synthetic', 'in-stock', ${by}
        FROM ${seq(n)}`,
   );
+  // GTINs with their GS1 check digit, so that the parts' UDIs read back as UDIs.
+  const partGtins = [1, 2, 3, 4, 5]
+    .map((seq) => `0952123999${String(seq).padStart(3, '0')}`)
+    .map((base) => `'${base}${gs1CheckDigit(base)}'`)
+    .join(', ');
   await admin.query(`INSERT INTO part (id, part_number, revision, description, gtin, unit_length_mm,
       cutoff_allowance_mm, reconciliation_tolerance_pct, lot_pattern, created_by)
-     SELECT seq, CONCAT('SYN-', seq), 'A', CONCAT('Synthetic part ', seq), CONCAT('0952123999', LPAD(seq, 3,
-       '0'), '0'), 40, 2, 2, 'S{SEQ:8}', ${by} FROM seq_1_to_5`);
+     SELECT seq, CONCAT('SYN-', seq), 'A', CONCAT('Synthetic part ', seq), ELT(seq, ${partGtins}), 40, 2, 2,
+       'S{SEQ:8}', ${by} FROM seq_1_to_5`);
   await admin.query(
     `INSERT INTO routing_step (part_id, step_no, kind, name, process_method) SELECT seq, 10, 'passivation', ` +
       `'Passivate', 'F86-NITRIC' FROM seq_1_to_5`,

@@ -1,7 +1,6 @@
 import type { EntityManager } from 'typeorm';
 
 export interface BulkLotRow {
-  idx: number;
   id: number;
   lot_number: string;
   status: string;
@@ -12,26 +11,20 @@ export interface BulkLotRow {
 }
 
 /**
- * Every asked key (index, GTIN or null, lot number) that names a lot, in one statement: the keys
- * go in as a JSON array read by JSON_TABLE and are joined to the lots, their active holds and their
- * heats — one query for the whole list, never one per line.
+ * The lots with these numbers, their active holds and their heats, in one statement for the
+ * whole list (never one per line): an IN list over the unique lot-number index, which MariaDB
+ * reads as lookups whatever the list's length.
  */
-export async function lotsOfKeys(
-  manager: EntityManager,
-  keys: Array<[number, string | null, string]>,
-): Promise<BulkLotRow[]> {
-  if (!keys.length) return [];
+export async function lotsNumbered(manager: EntityManager, lotNumbers: string[]): Promise<BulkLotRow[]> {
+  if (!lotNumbers.length) return [];
   return manager.query(
-    `SELECT k.idx, l.id, l.lot_number, l.status, p.gtin, p.part_number,
+    `SELECT l.id, l.lot_number, l.status, p.gtin, p.part_number,
             EXISTS (SELECT 1 FROM lot_hold h WHERE h.lot_id = l.id AND h.lifted_at IS NULL) AS held,
             (SELECT GROUP_CONCAT(DISTINCT x.heat_number ORDER BY x.heat_number SEPARATOR ' ')
                FROM lot_heat lh JOIN heat x ON x.id = lh.heat_id WHERE lh.lot_id = l.id) AS heats
-       FROM JSON_TABLE(?, '$[*]' COLUMNS (
-              idx INT PATH '$[0]', gtin VARCHAR(14) PATH '$[1]', lot VARCHAR(20) PATH '$[2]')) k
-       JOIN production_lot l ON l.lot_number = k.lot
-       JOIN part p ON p.id = l.part_id
-      WHERE k.gtin IS NULL OR p.gtin = k.gtin`,
-    [JSON.stringify(keys)],
+       FROM production_lot l JOIN part p ON p.id = l.part_id
+      WHERE l.lot_number IN (?)`,
+    [lotNumbers],
   );
 }
 

@@ -4,7 +4,7 @@ import type { BulkTraceReply } from '@shared/schemas/bulk-trace';
 import { AppError } from '../../errors';
 import { inTransaction } from '../../db/transaction';
 import { appendLedgerEvent, sha256Hex, type Actor, type RequestOrigin } from '../ledger/ledger.repository';
-import { lotsOfKeys, openRecallScopes } from './bulk-trace.repository';
+import { lotsNumbered, openRecallScopes } from './bulk-trace.repository';
 
 /**
  * A list of UDIs or lot numbers traced in one step: each line found (with its lot, status, hold,
@@ -20,19 +20,17 @@ export async function bulkTrace(
   if (tooMany) throw AppError.rule('Trace at most 100,000 lines at once; split the list', { lines: 'Too many lines' });
   if (!lines.length)
     throw AppError.rule('Give at least one UDI or lot number, one a line', { lines: 'Nothing to trace' });
-  const keys: Array<[number, string | null, string]> = [];
-  lines.forEach((line, index) => {
-    if (line.kind === 'udi') keys.push([index, line.gtin, line.lot]);
-    if (line.kind === 'lot') keys.push([index, null, line.lot]);
-  });
-  const found = new Map((await lotsOfKeys(dataSource.manager, keys)).map((row) => [Number(row.idx), row]));
+  const wanted = [...new Set(lines.flatMap((line) => (line.kind === 'malformed' ? [] : [line.lot])))];
+  const byNumber = new Map((await lotsNumbered(dataSource.manager, wanted)).map((row) => [row.lot_number, row]));
   const recallsOf = new Map<number, string[]>();
   for (const scope of await openRecallScopes(dataSource.manager))
     for (const lotId of scope.lot_ids) recallsOf.set(lotId, [...(recallsOf.get(lotId) ?? []), scope.recall_number]);
-  const results: BulkTraceReply['lines'] = lines.map((line, index) => {
+  const results: BulkTraceReply['lines'] = lines.map((line) => {
     if (line.kind === 'malformed')
       return { line: line.line, input: line.input, outcome: 'malformed', reason: line.reason };
-    const lot = found.get(index);
+    const candidate = byNumber.get(line.lot);
+    // A UDI names a lot only under its own part's GTIN.
+    const lot = candidate && (line.kind === 'lot' || candidate.gtin === line.gtin) ? candidate : undefined;
     if (!lot)
       return {
         line: line.line,
