@@ -121,6 +121,9 @@ describe('tracing many UDIs or lots at once', () => {
     const tooLong = await send('auditor', Array.from({ length: 100_001 }, (_, index) => `L${index}`).join('\n'));
     expect(tooLong.status).toBe(422);
     expect(tooLong.body.error.message).toBe('Trace at most 100,000 lines at once; split the list');
+    // GS1 AI 10 values are case-sensitive (CSET 82 has both cases): the lot in the other case names no lot.
+    const otherCase = bulkTraceReplySchema.parse((await send('auditor', held.lot_number.toLowerCase())).body);
+    expect(otherCase.lines[0]).toMatchObject({ outcome: 'unknown', reason: 'No lot with this number' });
     const asJson = await people
       .auditor!.agent.post('/api/trace/bulk')
       .set('X-CSRF-Token', people.auditor!.csrf)

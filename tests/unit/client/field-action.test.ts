@@ -61,6 +61,22 @@ describe('the consignee reply page', () => {
   });
 });
 
+const clinicLine: EffectivenessView['lines'][number] = {
+  consigneeId: 1,
+  consignee: 'Clinic A',
+  lotId: 4,
+  lotNumber: 'L0004',
+  shipped: 6,
+  onHand: 1,
+  returned: 2,
+  destroyed: 0,
+  used: 2,
+  accounted: 5,
+  unaccounted: 1,
+  received: 2,
+  answered: true,
+};
+
 const figures: EffectivenessView = {
   level: 'B',
   percent: 40,
@@ -73,21 +89,7 @@ const figures: EffectivenessView = {
   unitsShipped: 20,
   unitsAccounted: 5,
   lines: [
-    {
-      consigneeId: 1,
-      consignee: 'Clinic A',
-      lotId: 4,
-      lotNumber: 'L0004',
-      shipped: 6,
-      onHand: 1,
-      returned: 2,
-      destroyed: 0,
-      used: 2,
-      accounted: 5,
-      unaccounted: 1,
-      received: 2,
-      answered: true,
-    },
+    clinicLine,
     {
       consigneeId: 2,
       consignee: 'Depot B',
@@ -104,24 +106,7 @@ const figures: EffectivenessView = {
       answered: false,
     },
   ],
-  differences: [
-    {
-      consigneeId: 1,
-      consignee: 'Clinic A',
-      lotId: 4,
-      lotNumber: 'L0004',
-      shipped: 6,
-      onHand: 1,
-      returned: 2,
-      destroyed: 0,
-      used: 2,
-      accounted: 5,
-      unaccounted: 1,
-      received: 2,
-      answered: true,
-      problem: '1 of 6 units shipped are not accounted for',
-    },
-  ],
+  differences: [{ ...clinicLine, problem: '1 of 6 units shipped are not accounted for' }],
   series: [{ at: '2026-12-05T10:00:00.000Z', accounted: 5 }],
 };
 

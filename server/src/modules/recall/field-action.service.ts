@@ -35,6 +35,7 @@ import {
   saveStrategy,
   shippedLines,
   type NoticeRow,
+  type ReturnedGoodsRow,
 } from './field-action.repository';
 
 const iso = (value: Date | null) => (value ? new Date(value).toISOString() : null);
@@ -73,20 +74,28 @@ async function changeOpenRecall(
 export const parseNotice = (row: Pick<NoticeRow, 'content'>): NoticeContent =>
   noticeContentSchema.parse(JSON.parse(row.content));
 
+/** What a caller has read already, so that effectiveness does not read it again. */
+interface KnownFacts {
+  strategy?: Awaited<ReturnType<typeof findStrategy>>;
+  notices?: NoticeRow[];
+  consigneesInScope?: number;
+  returned?: ReturnedGoodsRow[];
+}
+
 /** The facts effectiveness is computed from: each notice's lots and replies, and the returns received. */
 export async function effectivenessOf(
   manager: EntityManager,
   recallId: number,
-  notices?: NoticeRow[],
+  known: KnownFacts = {},
 ): Promise<Effectiveness | null> {
-  const strategy = await findStrategy(manager, recallId);
+  const strategy = known.strategy !== undefined ? known.strategy : await findStrategy(manager, recallId);
   if (!strategy) return null;
-  const rows = notices ?? (await noticeRows(manager, recallId));
+  const rows = known.notices ?? (await noticeRows(manager, recallId));
   const replies = await replyLotRows(
     manager,
     rows.map((row) => row.id),
   );
-  const scope = await latestScope(manager, recallId);
+  const consigneesInScope = known.consigneesInScope ?? (await latestScope(manager, recallId)).consignees.length;
   const facts: NoticeFacts[] = rows.map((row) => {
     const content = parseNotice(row);
     const byReply = new Map<number, NoticeFacts['replies'][number]>();
@@ -109,7 +118,7 @@ export async function effectivenessOf(
       replies: [...byReply.values()],
     };
   });
-  const received = (await returnedGoodsRows(manager, recallId)).map((row) => ({
+  const received = (known.returned ?? (await returnedGoodsRows(manager, recallId))).map((row) => ({
     consigneeId: row.consignee_id,
     lotId: row.lot_id,
     units: row.units,
@@ -118,7 +127,7 @@ export async function effectivenessOf(
     level: strategy.effectivenessLevel,
     levelBPercent: strategy.levelBPercent,
     notices: facts,
-    consigneesInScope: scope.consignees.length,
+    consigneesInScope,
     received,
   });
 }
@@ -129,6 +138,7 @@ export async function fieldActionView(dataSource: DataSource, recallId: number):
   const strategy = await findStrategy(manager, recallId);
   const rows = await noticeRows(manager, recallId);
   const scope = await latestScope(manager, recallId);
+  const returned = await returnedGoodsRows(manager, recallId);
   const noticed = new Set(rows.map((row) => row.consignee_id));
   return {
     recallId,
@@ -164,8 +174,13 @@ export async function fieldActionView(dataSource: DataSource, recallId: number):
       .filter((consignee) => !noticed.has(consignee.id))
       .map((consignee) => ({ id: consignee.id, name: consignee.name })),
     waitingToIssue: rows.filter((row) => !row.issued_at).length,
-    effectiveness: await effectivenessOf(manager, recallId, rows),
-    returnedGoods: (await returnedGoodsRows(manager, recallId)).map((row) => ({
+    effectiveness: await effectivenessOf(manager, recallId, {
+      strategy,
+      notices: rows,
+      consigneesInScope: scope.consignees.length,
+      returned,
+    }),
+    returnedGoods: returned.map((row) => ({
       id: row.id,
       consignee: row.consignee,
       consigneeId: row.consignee_id,

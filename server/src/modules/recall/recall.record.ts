@@ -32,10 +32,12 @@ export const recallInvestigationRecordType: SignableRecordType<{
     if (!row) return null;
     const opening = await snapshotContent(manager, row.id);
     const reruns = await rerunSnapshots(manager, row.id);
-    const consignees = (await latestScope(manager, row.id)).consignees.length;
-    const effectivenessChecked =
-      (row.mode === 'recall' && consignees > 0) || (await findStrategy(manager, row.id)) !== null;
-    const effectiveness = effectivenessChecked ? await effectivenessOf(manager, row.id) : null;
+    const consigneesInScope = (await latestScope(manager, row.id)).consignees.length;
+    const strategy = await findStrategy(manager, row.id);
+    const effectivenessChecked = (row.mode === 'recall' && consigneesInScope > 0) || strategy !== null;
+    const effectiveness = effectivenessChecked
+      ? await effectivenessOf(manager, row.id, { strategy, consigneesInScope })
+      : null;
     const shortfalls = effectiveness?.shortfalls ?? (effectivenessChecked ? ['No effectiveness check level set'] : []);
     return {
       title:
